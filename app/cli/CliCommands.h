@@ -1,0 +1,21 @@
+// The sagline-cli commands. Each lives in its own .cpp and returns a process exit code.
+#pragma once
+
+#include <string>
+#include <vector>
+
+namespace sagline::cli {
+
+// Exit codes of DESIGN.md: scripts rely on them.
+enum ExitCode : int {
+    exitSuccess = 0,
+    exitRuntimeFailure = 1, // I/O, instrument, disk
+    exitInvalidInput = 2,   // usage, validation, unreadable file
+    exitSafetyStop = 3,     // a sweep stopped by a safety limit
+};
+
+using Arguments = std::vector<std::string>; // the words after the command name
+
+int runPlan(const Arguments &args);
+
+} // namespace sagline::cli

@@ -1,0 +1,54 @@
+// sagline-cli: dispatches to one command; see `sagline-cli --help`.
+#include "CliCommands.h"
+
+#include "BuildInfo.h"
+
+#include <cstring>
+#include <iostream>
+
+namespace {
+
+struct Command {
+    const char *name;
+    int (*run)(const sagline::cli::Arguments &);
+    const char *synopsis;
+};
+
+constexpr Command commands[] = {
+    {"plan", sagline::cli::runPlan, "plan SETUP.json [--json]          plan a safe load sweep from the nameplate"},
+};
+
+void printUsage(std::ostream &out)
+{
+    out << "usage: sagline-cli COMMAND [ARGS...]\n\ncommands:\n";
+    for (const auto &command : commands)
+        out << "  " << command.synopsis << '\n';
+    out << "  --version                          print the version and the build's git commit\n"
+           "\nExit codes: 0 success, 1 runtime failure, 2 invalid input, 3 sweep stopped by a safety limit.\n";
+}
+
+} // namespace
+
+int main(int argc, char **argv)
+{
+    if (argc < 2) {
+        printUsage(std::cerr);
+        return sagline::cli::exitInvalidInput;
+    }
+    const std::string name = argv[1];
+    if (name == "--version" || name == "version") {
+        std::cout << "sagline-cli " << sagline::buildinfo::version << " (commit " << sagline::buildinfo::gitCommit << ")\n";
+        return sagline::cli::exitSuccess;
+    }
+    if (name == "--help" || name == "-h" || name == "help") {
+        printUsage(std::cout);
+        return sagline::cli::exitSuccess;
+    }
+    for (const auto &command : commands) {
+        if (name == command.name)
+            return command.run(sagline::cli::Arguments(argv + 2, argv + argc));
+    }
+    std::cerr << "sagline-cli: unknown command '" << name << "'\n\n";
+    printUsage(std::cerr);
+    return sagline::cli::exitInvalidInput;
+}
