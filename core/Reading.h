@@ -1,0 +1,37 @@
+// One recorded point: a paired secondary current and voltage with its provenance.
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string>
+
+namespace sagline {
+
+// Flags are bits so a point can carry several; stored as an integer in the session file.
+enum ReadingFlag : std::uint32_t {
+    flagNone = 0,
+    flagUnstable = 1u << 0,          // stability rule not met within its maximum time
+    flagOverload = 1u << 1,          // a meter reported overload (SCPI 9.9E37); not fitted
+    flagNotANumber = 1u << 2,        // a meter reported not-a-number (SCPI 9.91E37); not fitted
+    flagOutsidePrediction = 1u << 3, // far outside the fit's prediction interval when recorded
+    flagOutlier = 1u << 4,           // |studentized residual| above the threshold
+    flagManual = 1u << 5,            // typed in by hand
+    flagSimulated = 1u << 6,         // from the virtual bench
+};
+
+std::string flagsToString(std::uint32_t flags); // "unstable|outlier", "" when none
+
+struct Reading {
+    std::int64_t id = 0;             // session-store row id; 0 before it is stored
+    int step = -1;                   // plan step index, -1 when not part of a plan
+    double currentA = 0.0;           // secondary current, A RMS
+    double voltageV = 0.0;           // secondary voltage, V RMS
+    std::optional<double> uCurrentA; // standard uncertainty of currentA, A
+    std::optional<double> uVoltageV; // standard uncertainty of voltageV, V
+    std::string timeUtc;             // ISO 8601, e.g. 2026-12-02T10:15:03.250Z
+    std::uint32_t flags = flagNone;
+    std::string rawText;             // the instruments' own text for this point
+    bool excluded = false;           // excluded from the fit (the reason lives in the store)
+};
+
+} // namespace sagline

@@ -1,0 +1,27 @@
+// Reads and writes the setup file of DESIGN.md (JSON). Numbers are SI base units; a string
+// with a unit ("130 mA", "13,8 V", "1.5 kΩ") is accepted wherever a number is.
+#pragma once
+
+#include "FieldError.h"
+#include "Setup.h"
+
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace sagline {
+
+struct SetupParse {
+    std::optional<Setup> setup;            // set when errors is empty
+    FieldErrors errors;                    // every invalid field, each naming the field and the rule
+    std::vector<std::string> defaultsUsed; // setup-file names of fields that took their default
+};
+
+SetupParse parseSetupJson(std::string_view text);
+// Reads the file; an unreadable file is an error on the field "file".
+SetupParse loadSetupFile(const std::string &path);
+// Canonical JSON of a setup (all fields present, SI numbers), for storing in a session.
+std::string setupToJson(const Setup &setup);
+
+} // namespace sagline
