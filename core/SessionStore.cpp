@@ -1,0 +1,274 @@
+// Opening, creating and copying session files; see SessionStore.h for the durability and
+// trust rules this file implements.
+#include "SessionStore.h"
+
+#include "SessionFileCheck.h"
+#include "SessionSchema.h"
+#include "SqliteStatement.h"
+#include "UtcTime.h"
+
+#include <sqlite3.h>
+
+#include <cmath>
+#include <filesystem>
+
+namespace sagline {
+
+namespace {
+
+using StoreOpen = StoreResult<std::unique_ptr<SessionStore>>;
+
+StoreResult<int> pragmaInt(sqlite3 *db, const char *pragma)
+{
+    SqliteStatement query;
+    int rc = query.prepare(db, pragma);
+    if (rc == SQLITE_OK)
+        rc = query.step();
+    if (rc != SQLITE_ROW)
+        return StoreResult<int>::failure(sqliteFailure(db, rc, std::string("reading ") + pragma));
+    return {static_cast<int>(query.columnInt64(0))};
+}
+
+StoreStatus configureForWriting(sqlite3 *db)
+{
+    // Rollback journal, not WAL: the .sagline file alone is complete after every commit.
+    // EXTRA = FULL + directory sync after the journal is deleted, which is the commit point.
+    for (const char *pragma : {"PRAGMA journal_mode = DELETE", "PRAGMA synchronous = EXTRA", "PRAGMA foreign_keys = ON"}) {
+        const int rc = sqliteExec(db, pragma);
+        if (rc != SQLITE_OK)
+            return sqliteFailure(db, rc, pragma);
+    }
+    return StoreStatus::success();
+}
+
+StoreResult<SqliteHandle> openConnection(const std::string &path, int flags)
+{
+    sqlite3 *raw = nullptr;
+    const int rc = sqlite3_open_v2(path.c_str(), &raw, flags | SQLITE_OPEN_EXRESCODE, nullptr);
+    SqliteHandle db(raw); // owns the handle even when the open failed
+    if (rc != SQLITE_OK)
+        return StoreResult<SqliteHandle>::failure(sqliteFailure(db.get(), rc, path + ": cannot open"));
+    if (StoreStatus status = hardenConnection(db.get()); !status.ok())
+        return StoreResult<SqliteHandle>::failure(status);
+    return {std::move(db)};
+}
+
+// Review of an older file: copy it into memory with the backup API and upgrade the copy.
+StoreResult<SqliteHandle> upgradedMemoryCopy(sqlite3 *source, int fromVersion)
+{
+    auto memory = openConnection(":memory:", SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE);
+    if (!memory.ok())
+        return memory;
+    sqlite3_backup *backup = sqlite3_backup_init(memory.value.get(), "main", source, "main");
+    if (backup == nullptr)
+        return StoreResult<SqliteHandle>::failure(sqliteFailure(memory.value.get(), sqlite3_errcode(memory.value.get()),
+                                                                "copying the file for reading"));
+    const int stepRc = sqlite3_backup_step(backup, -1);
+    const int finishRc = sqlite3_backup_finish(backup);
+    if (stepRc != SQLITE_DONE || finishRc != SQLITE_OK)
+        return StoreResult<SqliteHandle>::failure(
+            sqliteFailure(source, stepRc != SQLITE_DONE ? stepRc : finishRc, "copying the file for reading"));
+    SqliteTransaction transaction(memory.value.get());
+    if (transaction.beginCode() != SQLITE_OK)
+        return StoreResult<SqliteHandle>::failure(sqliteFailure(memory.value.get(), transaction.beginCode(), "upgrading"));
+    if (StoreStatus status = migrateSessionSchema(memory.value.get(), fromVersion); !status.ok())
+        return StoreResult<SqliteHandle>::failure(status);
+    if (const int rc = transaction.commit(); rc != SQLITE_OK)
+        return StoreResult<SqliteHandle>::failure(sqliteFailure(memory.value.get(), rc, "upgrading"));
+    return memory;
+}
+
+} // namespace
+
+const char *toString(TemperatureKind kind)
+{
+    return kind == TemperatureKind::Winding ? "winding" : "ambient";
+}
+
+const char *toString(Verdict verdict)
+{
+    switch (verdict) {
+    case Verdict::Accepted: return "accepted";
+    case Verdict::Rejected: return "rejected";
+    case Verdict::Retest: return "retest";
+    }
+    return "accepted";
+}
+
+std::optional<Verdict> verdictFromString(const std::string &text)
+{
+    for (Verdict verdict : {Verdict::Accepted, Verdict::Rejected, Verdict::Retest}) {
+        if (text == toString(verdict))
+            return verdict;
+    }
+    return std::nullopt;
+}
+
+SessionStore::SessionStore(std::string path, SqliteHandle db, bool readOnly, int fileVersion)
+    : m_path(std::move(path)), m_db(std::move(db)), m_readOnly(readOnly), m_fileVersion(fileVersion), m_clock(utcNow)
+{
+}
+
+SessionStore::~SessionStore() = default;
+
+void SessionStore::setClock(std::function<std::string()> clock)
+{
+    m_clock = clock ? std::move(clock) : std::function<std::string()>(utcNow);
+}
+
+std::string SessionStore::now() const
+{
+    return m_clock();
+}
+
+StoreStatus SessionStore::requireWritable() const
+{
+    if (!m_readOnly)
+        return StoreStatus::success();
+    return StoreStatus::failure(StoreCode::ReadOnly, m_path + ": opened for review (read-only); nothing was recorded");
+}
+
+StoreOpen SessionStore::create(const std::string &path, const NewSession &session)
+{
+    const std::pair<const std::string *, const char *> required[] = {
+        {&session.setupJson, "setup"}, {&session.operatorName, "operator"}, {&session.unitSerial, "unit serial"}};
+    for (const auto &[value, name] : required) {
+        if (value->empty())
+            return StoreOpen::failure(StoreCode::InvalidArgument, std::string(name) + ": required for a new session");
+    }
+    std::error_code error;
+    if (std::filesystem::exists(path, error) || std::filesystem::exists(path + "-journal", error))
+        return StoreOpen::failure(StoreCode::FileExists, path + ": already exists; a session file is never overwritten");
+
+    auto db = openConnection(path, SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE);
+    if (!db.ok())
+        return StoreOpen::failure(db.status());
+    sqlite3 *handle = db.value.get();
+    if (StoreStatus status = configureForWriting(handle); !status.ok())
+        return StoreOpen::failure(status);
+
+    const std::string created = utcNow();
+    SqliteTransaction transaction(handle);
+    if (transaction.beginCode() != SQLITE_OK)
+        return StoreOpen::failure(sqliteFailure(handle, transaction.beginCode(), path + ": cannot write"));
+    if (StoreStatus status = createSessionSchema(handle); !status.ok())
+        return StoreOpen::failure(status);
+    SqliteStatement insert;
+    int rc = insert.prepare(handle, "INSERT INTO session (id, created_utc, software_version, operator, unit_serial, "
+                                    "setup_json, plan_json) VALUES (1, ?, ?, ?, ?, ?, ?)");
+    if (rc == SQLITE_OK) {
+        insert.bind(1, created).bind(2, session.softwareVersion).bind(3, session.operatorName);
+        insert.bind(4, session.unitSerial).bind(5, session.setupJson).bind(6, session.planJson);
+        rc = insert.step();
+    }
+    if (rc != SQLITE_DONE)
+        return StoreOpen::failure(sqliteFailure(handle, rc, path + ": cannot record the session"));
+    const std::pair<TemperatureKind, std::optional<double>> temperatures[] = {
+        {TemperatureKind::Ambient, session.ambientTemperatureC}, {TemperatureKind::Winding, session.windingTemperatureC}};
+    for (const auto &[kind, celsius] : temperatures) {
+        if (!celsius)
+            continue;
+        SqliteStatement temperature;
+        rc = temperature.prepare(handle, "INSERT INTO temperature (time_utc, kind, value_c, source) VALUES (?, ?, ?, ?)");
+        if (rc == SQLITE_OK) {
+            temperature.bind(1, created).bind(2, std::string_view(toString(kind))).bind(3, *celsius);
+            temperature.bind(4, std::string_view("entered at start"));
+            rc = std::isfinite(*celsius) ? temperature.step() : SQLITE_CONSTRAINT;
+        }
+        if (rc != SQLITE_DONE)
+            return StoreOpen::failure(StoreCode::InvalidArgument,
+                                      std::string(toString(kind)) + " temperature: must be a finite number of °C");
+    }
+    if (rc = transaction.commit(); rc != SQLITE_OK)
+        return StoreOpen::failure(sqliteFailure(handle, rc, path + ": cannot commit the new session"));
+    return {std::unique_ptr<SessionStore>(new SessionStore(path, std::move(db.value), false, sessionSchemaVersion))};
+}
+
+StoreOpen SessionStore::openForWriting(const std::string &path)
+{
+    return open(path, true);
+}
+
+StoreOpen SessionStore::openForReview(const std::string &path)
+{
+    return open(path, false);
+}
+
+StoreOpen SessionStore::open(const std::string &path, bool forWriting)
+{
+    if (StoreStatus status = checkSessionFileHeader(path); !status.ok())
+        return StoreOpen::failure(status);
+    auto db = openConnection(path, forWriting ? SQLITE_OPEN_READWRITE : SQLITE_OPEN_READONLY);
+    if (!db.ok())
+        return StoreOpen::failure(db.status());
+    sqlite3 *handle = db.value.get();
+    auto fail = [&path](const StoreStatus &status) { return StoreOpen::failure(status.code, path + ": " + status.message); };
+
+    // quick_check first: it also parses the schema, so a damaged schema is caught here.
+    if (StoreStatus status = quickCheck(handle); !status.ok())
+        return fail(status.code == StoreCode::UnexpectedSchema ? StoreStatus::failure(StoreCode::Corrupt, status.message) : status);
+    const auto applicationId = pragmaInt(handle, "PRAGMA application_id");
+    const auto version = pragmaInt(handle, "PRAGMA user_version");
+    if (!applicationId.ok() || !version.ok())
+        return fail(applicationId.ok() ? version.status() : applicationId.status());
+    if (static_cast<std::uint32_t>(applicationId.value) != sessionApplicationId)
+        return fail(StoreStatus::failure(StoreCode::NotASession, "not a Sagline session (application id)"));
+    if (version.value < 1)
+        return fail(StoreStatus::failure(StoreCode::NotASession, "no session schema (version 0)"));
+    if (StoreStatus status = verifySessionSchema(handle, version.value); !status.ok())
+        return fail(status);
+
+    const bool newer = version.value > sessionSchemaVersion;
+    const std::string newerText = "written by a newer Sagline (schema version " + std::to_string(version.value) +
+                                  "; this build reads up to " + std::to_string(sessionSchemaVersion) + ")";
+    if (forWriting) {
+        if (newer)
+            return fail(StoreStatus::failure(StoreCode::NewerVersion, newerText + "; open it for review (read-only) or update Sagline"));
+        if (StoreStatus status = configureForWriting(handle); !status.ok())
+            return fail(status);
+        if (version.value < sessionSchemaVersion) {
+            SqliteTransaction transaction(handle);
+            if (transaction.beginCode() != SQLITE_OK)
+                return fail(sqliteFailure(handle, transaction.beginCode(), "upgrading the schema"));
+            if (StoreStatus status = migrateSessionSchema(handle, version.value); !status.ok())
+                return fail(status);
+            if (const int rc = transaction.commit(); rc != SQLITE_OK)
+                return fail(sqliteFailure(handle, rc, "upgrading the schema"));
+        }
+        return {std::unique_ptr<SessionStore>(new SessionStore(path, std::move(db.value), false, version.value))};
+    }
+
+    if (version.value < sessionSchemaVersion) {
+        auto copy = upgradedMemoryCopy(handle, version.value);
+        if (!copy.ok())
+            return fail(copy.status());
+        db.value = std::move(copy.value);
+    }
+    std::unique_ptr<SessionStore> store(new SessionStore(path, std::move(db.value), true, version.value));
+    if (newer)
+        store->m_notice = path + ": " + newerText + "; shown read-only, parts this build does not know are not shown";
+    return {std::move(store)};
+}
+
+StoreStatus SessionStore::saveCopyAs(const std::string &newPath) const
+{
+    std::error_code error;
+    if (std::filesystem::exists(newPath, error))
+        return StoreStatus::failure(StoreCode::FileExists, newPath + ": already exists; choose a new name");
+    SqliteStatement vacuum;
+    int rc = vacuum.prepare(m_db.get(), "VACUUM INTO ?");
+    if (rc == SQLITE_OK) {
+        vacuum.bind(1, std::string_view(newPath));
+        rc = vacuum.step();
+    }
+    if (rc != SQLITE_DONE)
+        return sqliteFailure(m_db.get(), rc, newPath + ": cannot write the copy");
+    return StoreStatus::success();
+}
+
+StoreStatus SessionStore::integrityCheck() const
+{
+    return quickCheck(m_db.get(), true);
+}
+
+} // namespace sagline

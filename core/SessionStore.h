@@ -1,0 +1,118 @@
+// SessionStore: one load-test session in one SQLite file (.sagline), written as it happens.
+//
+// Durability: the file uses SQLite's rollback journal (journal_mode=DELETE) with
+// synchronous=EXTRA, i.e. FULL plus a sync of the directory after the journal is removed
+// (sqlite.org pragma.html#pragma_synchronous). Every append is its own transaction, and a
+// call returns only after SQLite reported the commit, so a reading whose id was returned
+// survives an application crash, an OS crash and a power loss (given disks that honour fsync),
+// and the .sagline file by itself always holds every recorded reading: there is no WAL side
+// file to forget. A user who wants a copy of an open session uses saveCopyAs (VACUUM INTO),
+// never a raw file copy.
+//
+// Trust: every open treats the file as untrusted (a lab lead opens a student's file):
+// the header is checked before SQLite sees the file, then SQLITE_DBCONFIG_DEFENSIVE, trusted
+// schema off, triggers and views disabled, cell_size_check on, mmap off, PRAGMA quick_check,
+// and a schema check that rejects triggers, views, virtual tables and unknown tables.
+// openForReview never writes to the file: it opens it read-only; an older schema is upgraded
+// in an in-memory copy, a newer schema is read as far as this build understands it.
+//
+// History: nothing is updated or deleted. An exclusion, a restore or a correction is a new row.
+// Not thread-safe: use one SessionStore from one thread.
+#pragma once
+
+#include "Reading.h"
+#include "SessionRecords.h"
+#include "SqliteHandle.h"
+#include "StoreResult.h"
+
+#include <cstdint>
+#include <functional>
+#include <memory>
+#include <string>
+#include <vector>
+
+namespace sagline {
+
+class SessionStore {
+public:
+    // Creates a new session file at `path` (refuses to overwrite; FileExists) and records the
+    // setup, plan, operator, unit serial and starting temperatures in one transaction.
+    static StoreResult<std::unique_ptr<SessionStore>> create(const std::string &path, const NewSession &session);
+    // Opens an existing session to continue it (resume a sweep, add notes, exclusions, a
+    // sign-off). An older schema is upgraded in place, in one transaction. A newer schema
+    // fails with NewerVersion (open it for review instead).
+    static StoreResult<std::unique_ptr<SessionStore>> openForWriting(const std::string &path);
+    // Opens a session read-only for review. The file is never modified. A file from a newer
+    // version opens read-only with notice() saying so.
+    static StoreResult<std::unique_ptr<SessionStore>> openForReview(const std::string &path);
+
+    ~SessionStore();
+    SessionStore(const SessionStore &) = delete;
+    SessionStore &operator=(const SessionStore &) = delete;
+
+    const std::string &path() const { return m_path; }
+    bool isReadOnly() const { return m_readOnly; }
+    int fileSchemaVersion() const { return m_fileVersion; } // user_version found on disk
+    const std::string &notice() const { return m_notice; }  // e.g. newer-version warning; "" if none
+
+    // Replaces the clock that stamps records (tests); returns ISO 8601 UTC text.
+    void setClock(std::function<std::string()> clock);
+
+    // --- writing (each call is one durable transaction; ReadOnly on a review store) ---
+
+    // Records one reading and returns its row id, only after the commit returned. An empty
+    // reading.timeUtc is stamped now; reading.id and reading.excluded are ignored. Current
+    // and voltage must be finite unless flags carry flagOverload or flagNotANumber (then a
+    // non-finite value is stored as "no value"); uncertainties, when given, finite and ≥ 0.
+    StoreResult<std::int64_t> appendReading(const Reading &reading);
+    // Excludes a reading from the fit, or restores it; reason required. NotFound for an
+    // unknown reading id.
+    StoreResult<std::int64_t> excludeReading(std::int64_t readingId, const std::string &reason, const std::string &author);
+    StoreResult<std::int64_t> restoreReading(std::int64_t readingId, const std::string &reason, const std::string &author);
+    StoreResult<std::int64_t> recordTemperature(TemperatureKind kind, double celsius, const std::string &source);
+    StoreResult<std::int64_t> recordInstrument(const std::string &role, const std::string &identity, const std::string &accuracy);
+    StoreResult<std::int64_t> addNote(const std::string &author, const std::string &text);
+    StoreResult<std::int64_t> recordSafetyStop(const SafetyStopRecord &stop); // id and timeUtc are set by the store
+    StoreResult<std::int64_t> addSignOff(const std::string &reviewer, Verdict verdict, const std::string &comment);
+
+    // --- reading (any mode) ---
+
+    StoreResult<SessionInfo> info() const;
+    // Every reading in recording order, with `excluded` from the latest exclusion row.
+    StoreResult<std::vector<Reading>> readings() const;
+    // The readings that go to the fit: readings() without the excluded ones. Flag-based
+    // omissions (overload, not-a-number) are the fit's business and are kept here.
+    StoreResult<std::vector<Reading>> includedReadings() const;
+    StoreResult<std::int64_t> readingCount() const;
+    StoreResult<std::vector<ExclusionRecord>> exclusions() const; // all rows, oldest first
+    StoreResult<std::vector<TemperatureRecord>> temperatures() const;
+    StoreResult<std::vector<InstrumentRecord>> instruments() const;
+    StoreResult<std::vector<NoteRecord>> notes() const;
+    StoreResult<std::vector<SafetyStopRecord>> safetyStops() const;
+    StoreResult<std::vector<SignOffRecord>> signOffs() const;
+
+    // --- whole file ---
+
+    // Writes a complete, compact copy to `newPath` with VACUUM INTO (works on an open, even
+    // read-only, session; never a raw copy). FileExists if newPath exists.
+    StoreStatus saveCopyAs(const std::string &newPath) const;
+    // PRAGMA integrity_check (O(N log N)); ok, or Corrupt with SQLite's first finding.
+    StoreStatus integrityCheck() const;
+
+private:
+    SessionStore(std::string path, SqliteHandle db, bool readOnly, int fileVersion);
+    static StoreResult<std::unique_ptr<SessionStore>> open(const std::string &path, bool forWriting);
+    StoreStatus requireWritable() const;
+    StoreResult<std::int64_t> insertExclusion(std::int64_t readingId, bool excluded, const std::string &reason,
+                                              const std::string &author);
+    std::string now() const;
+
+    std::string m_path;
+    SqliteHandle m_db;        // the file, or an upgraded in-memory copy for review of an old file
+    bool m_readOnly = false;
+    int m_fileVersion = 0;
+    std::string m_notice;
+    std::function<std::string()> m_clock;
+};
+
+} // namespace sagline

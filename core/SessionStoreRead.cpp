@@ -1,0 +1,225 @@
+// Reading a session back. Values from the file are checked as they are read: the file may come
+// from someone else, so a crafted value becomes a clear Corrupt status, never a silent NaN.
+#include "SessionStore.h"
+
+#include "SqliteStatement.h"
+
+#include <sqlite3.h>
+
+#include <cmath>
+#include <limits>
+#include <unordered_map>
+
+namespace sagline {
+
+namespace {
+
+// Runs a SELECT and calls `readRow` for each row; `readRow` returns "" or a reason to reject.
+template <typename T, typename ReadRow>
+StoreResult<std::vector<T>> selectAll(sqlite3 *db, const char *sql, const char *what, ReadRow readRow)
+{
+    using Result = StoreResult<std::vector<T>>;
+    SqliteStatement query;
+    int rc = query.prepare(db, sql);
+    if (rc != SQLITE_OK)
+        return Result::failure(sqliteFailure(db, rc, std::string("cannot read the ") + what));
+    Result result;
+    while ((rc = query.step()) == SQLITE_ROW) {
+        T record{};
+        if (std::string problem = readRow(query, record); !problem.empty())
+            return Result::failure(StoreCode::Corrupt, std::string(what) + " row " + std::to_string(query.columnInt64(0)) +
+                                                           ": " + problem);
+        result.value.push_back(std::move(record));
+    }
+    if (rc != SQLITE_DONE)
+        return Result::failure(sqliteFailure(db, rc, std::string("cannot read the ") + what));
+    return result;
+}
+
+std::optional<double> checkedUncertainty(const SqliteStatement &row, int column, std::string &problem)
+{
+    std::optional<double> value = row.columnOptionalDouble(column);
+    if (value && (!std::isfinite(*value) || *value < 0.0))
+        problem = "a standard uncertainty is not a finite, non-negative number";
+    return value;
+}
+
+int checkedInt(const SqliteStatement &row, int column, std::string &problem)
+{
+    const std::int64_t value = row.columnInt64(column);
+    if (value < std::numeric_limits<int>::min() || value > std::numeric_limits<int>::max())
+        problem = "an integer field is out of range";
+    return static_cast<int>(value);
+}
+
+} // namespace
+
+StoreResult<SessionInfo> SessionStore::info() const
+{
+    SqliteStatement query;
+    int rc = query.prepare(m_db.get(), "SELECT created_utc, software_version, operator, unit_serial, setup_json, plan_json "
+                                       "FROM session WHERE id = 1");
+    if (rc == SQLITE_OK)
+        rc = query.step();
+    if (rc == SQLITE_DONE)
+        return StoreResult<SessionInfo>::failure(StoreCode::Corrupt, m_path + ": the session record is missing");
+    if (rc != SQLITE_ROW)
+        return StoreResult<SessionInfo>::failure(sqliteFailure(m_db.get(), rc, "cannot read the session record"));
+    SessionInfo info;
+    info.createdUtc = query.columnText(0);
+    info.softwareVersion = query.columnText(1);
+    info.operatorName = query.columnText(2);
+    info.unitSerial = query.columnText(3);
+    info.setupJson = query.columnText(4);
+    info.planJson = query.columnText(5);
+    info.schemaVersion = m_fileVersion;
+    return {std::move(info)};
+}
+
+StoreResult<std::vector<Reading>> SessionStore::readings() const
+{
+    // The latest exclusion row per reading decides (ids grow with time; nothing is deleted).
+    auto result = selectAll<Reading>(
+        m_db.get(),
+        "SELECT r.id, r.time_utc, r.step, r.current_a, r.voltage_v, r.u_current_a, r.u_voltage_v, r.flags, r.raw_text, "
+        "coalesce((SELECT e.excluded FROM exclusion e WHERE e.reading_id = r.id ORDER BY e.id DESC LIMIT 1), 0) "
+        "FROM reading r ORDER BY r.id",
+        "reading", [](const SqliteStatement &row, Reading &reading) {
+            std::string problem;
+            reading.id = row.columnInt64(0);
+            reading.timeUtc = row.columnText(1);
+            reading.step = checkedInt(row, 2, problem);
+            const std::int64_t flags = row.columnInt64(7);
+            if (flags < 0 || flags > std::numeric_limits<std::uint32_t>::max())
+                return std::string("flags out of range");
+            reading.flags = static_cast<std::uint32_t>(flags);
+            const bool mayLackValue = (reading.flags & (flagOverload | flagNotANumber)) != 0;
+            const auto current = row.columnOptionalDouble(3);
+            const auto voltage = row.columnOptionalDouble(4);
+            const bool finite = current && voltage && std::isfinite(*current) && std::isfinite(*voltage);
+            if (!finite && !mayLackValue)
+                return std::string("current or voltage missing or not finite, and not flagged overload or not-a-number");
+            reading.currentA = current && std::isfinite(*current) ? *current : std::numeric_limits<double>::quiet_NaN();
+            reading.voltageV = voltage && std::isfinite(*voltage) ? *voltage : std::numeric_limits<double>::quiet_NaN();
+            reading.uCurrentA = checkedUncertainty(row, 5, problem);
+            reading.uVoltageV = checkedUncertainty(row, 6, problem);
+            reading.rawText = row.columnText(8);
+            reading.excluded = row.columnInt64(9) != 0;
+            return problem;
+        });
+    return result;
+}
+
+StoreResult<std::vector<Reading>> SessionStore::includedReadings() const
+{
+    auto all = readings();
+    if (!all.ok())
+        return all;
+    std::erase_if(all.value, [](const Reading &reading) { return reading.excluded; });
+    return all;
+}
+
+StoreResult<std::int64_t> SessionStore::readingCount() const
+{
+    SqliteStatement query;
+    int rc = query.prepare(m_db.get(), "SELECT count(*) FROM reading");
+    if (rc == SQLITE_OK)
+        rc = query.step();
+    if (rc != SQLITE_ROW)
+        return StoreResult<std::int64_t>::failure(sqliteFailure(m_db.get(), rc, "cannot count the readings"));
+    return {query.columnInt64(0)};
+}
+
+StoreResult<std::vector<ExclusionRecord>> SessionStore::exclusions() const
+{
+    return selectAll<ExclusionRecord>(m_db.get(),
+                                      "SELECT id, reading_id, excluded, reason, author, time_utc FROM exclusion ORDER BY id",
+                                      "exclusion", [](const SqliteStatement &row, ExclusionRecord &record) {
+                                          record.id = row.columnInt64(0);
+                                          record.readingId = row.columnInt64(1);
+                                          record.excluded = row.columnInt64(2) != 0;
+                                          record.reason = row.columnText(3);
+                                          record.author = row.columnText(4);
+                                          record.timeUtc = row.columnText(5);
+                                          return std::string();
+                                      });
+}
+
+StoreResult<std::vector<TemperatureRecord>> SessionStore::temperatures() const
+{
+    return selectAll<TemperatureRecord>(m_db.get(), "SELECT id, time_utc, kind, value_c, source FROM temperature ORDER BY id",
+                                        "temperature", [](const SqliteStatement &row, TemperatureRecord &record) {
+                                            record.id = row.columnInt64(0);
+                                            record.timeUtc = row.columnText(1);
+                                            const std::string kind = row.columnText(2);
+                                            if (kind != "ambient" && kind != "winding")
+                                                return "unknown kind '" + kind + "'";
+                                            record.kind = kind == "winding" ? TemperatureKind::Winding : TemperatureKind::Ambient;
+                                            record.celsius = row.columnDouble(3);
+                                            if (!std::isfinite(record.celsius))
+                                                return std::string("the temperature is not a finite number");
+                                            record.source = row.columnText(4);
+                                            return std::string();
+                                        });
+}
+
+StoreResult<std::vector<InstrumentRecord>> SessionStore::instruments() const
+{
+    return selectAll<InstrumentRecord>(m_db.get(), "SELECT id, time_utc, role, identity, accuracy FROM instrument ORDER BY id",
+                                       "instrument", [](const SqliteStatement &row, InstrumentRecord &record) {
+                                           record.id = row.columnInt64(0);
+                                           record.timeUtc = row.columnText(1);
+                                           record.role = row.columnText(2);
+                                           record.identity = row.columnText(3);
+                                           record.accuracy = row.columnText(4);
+                                           return std::string();
+                                       });
+}
+
+StoreResult<std::vector<NoteRecord>> SessionStore::notes() const
+{
+    return selectAll<NoteRecord>(m_db.get(), "SELECT id, time_utc, author, text FROM note ORDER BY id", "note",
+                                 [](const SqliteStatement &row, NoteRecord &record) {
+                                     record.id = row.columnInt64(0);
+                                     record.timeUtc = row.columnText(1);
+                                     record.author = row.columnText(2);
+                                     record.text = row.columnText(3);
+                                     return std::string();
+                                 });
+}
+
+StoreResult<std::vector<SafetyStopRecord>> SessionStore::safetyStops() const
+{
+    return selectAll<SafetyStopRecord>(
+        m_db.get(), "SELECT id, time_utc, step, rule, message, measured, limit_value FROM safety_stop ORDER BY id", "safety stop",
+        [](const SqliteStatement &row, SafetyStopRecord &record) {
+            std::string problem;
+            record.id = row.columnInt64(0);
+            record.timeUtc = row.columnText(1);
+            record.step = checkedInt(row, 2, problem);
+            record.rule = row.columnText(3);
+            record.message = row.columnText(4);
+            record.measured = row.columnOptionalDouble(5);
+            record.limitValue = row.columnOptionalDouble(6);
+            return problem;
+        });
+}
+
+StoreResult<std::vector<SignOffRecord>> SessionStore::signOffs() const
+{
+    return selectAll<SignOffRecord>(m_db.get(), "SELECT id, time_utc, reviewer, verdict, comment FROM sign_off ORDER BY id",
+                                    "sign-off", [](const SqliteStatement &row, SignOffRecord &record) {
+                                        record.id = row.columnInt64(0);
+                                        record.timeUtc = row.columnText(1);
+                                        record.reviewer = row.columnText(2);
+                                        const std::string verdict = row.columnText(3);
+                                        const auto parsed = verdictFromString(verdict);
+                                        if (!parsed)
+                                            return "unknown verdict '" + verdict + "'";
+                                        record.verdict = *parsed;
+                                        record.comment = row.columnText(4);
+                                        return std::string();
+                                    });
+}
+
+} // namespace sagline

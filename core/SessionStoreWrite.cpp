@@ -1,0 +1,170 @@
+// Appending records to a session: one INSERT, one durable commit per call (autocommit with
+// synchronous=EXTRA), the row id returned only after the commit returned.
+#include "SessionStore.h"
+
+#include "SqliteStatement.h"
+
+#include <sqlite3.h>
+
+#include <cmath>
+
+namespace sagline {
+
+namespace {
+
+bool isFiniteOrAbsent(const std::optional<double> &value)
+{
+    return !value || (std::isfinite(*value) && *value >= 0.0);
+}
+
+// Runs a prepared INSERT whose parameters `bindAll` sets; returns the new row id.
+template <typename Bind>
+StoreResult<std::int64_t> insertRow(sqlite3 *db, const char *sql, const std::string &what, Bind bindAll)
+{
+    SqliteStatement insert;
+    int rc = insert.prepare(db, sql);
+    if (rc == SQLITE_OK) {
+        bindAll(insert);
+        rc = insert.step();
+    }
+    if (rc != SQLITE_DONE)
+        return StoreResult<std::int64_t>::failure(sqliteFailure(db, rc, "cannot record the " + what + "; nothing was recorded"));
+    return {sqlite3_last_insert_rowid(db)};
+}
+
+} // namespace
+
+StoreResult<std::int64_t> SessionStore::appendReading(const Reading &reading)
+{
+    using Result = StoreResult<std::int64_t>;
+    if (StoreStatus status = requireWritable(); !status.ok())
+        return Result::failure(status);
+    const bool mayLackValue = (reading.flags & (flagOverload | flagNotANumber)) != 0;
+    if (!mayLackValue && (!std::isfinite(reading.currentA) || !std::isfinite(reading.voltageV)))
+        return Result::failure(StoreCode::InvalidArgument,
+                               "reading: current and voltage must be finite numbers unless the reading is flagged "
+                               "overload or not-a-number");
+    if (!isFiniteOrAbsent(reading.uCurrentA) || !isFiniteOrAbsent(reading.uVoltageV))
+        return Result::failure(StoreCode::InvalidArgument, "reading: standard uncertainties must be finite and not negative");
+    const std::string time = reading.timeUtc.empty() ? now() : reading.timeUtc;
+    return insertRow(m_db.get(),
+                     "INSERT INTO reading (time_utc, step, current_a, voltage_v, u_current_a, u_voltage_v, flags, raw_text) "
+                     "VALUES (?, ?, ?, ?, ?, ?, ?, ?)",
+                     "reading", [&](SqliteStatement &insert) {
+                         insert.bind(1, time).bind(2, reading.step).bind(3, reading.currentA).bind(4, reading.voltageV);
+                         insert.bind(5, reading.uCurrentA).bind(6, reading.uVoltageV);
+                         insert.bind(7, static_cast<std::int64_t>(reading.flags)).bind(8, reading.rawText);
+                     });
+}
+
+StoreResult<std::int64_t> SessionStore::insertExclusion(std::int64_t readingId, bool excluded, const std::string &reason,
+                                                        const std::string &author)
+{
+    using Result = StoreResult<std::int64_t>;
+    if (StoreStatus status = requireWritable(); !status.ok())
+        return Result::failure(status);
+    if (reason.empty())
+        return Result::failure(StoreCode::InvalidArgument,
+                               std::string(excluded ? "exclusion" : "restore") + ": a reason is required");
+    SqliteStatement exists;
+    int rc = exists.prepare(m_db.get(), "SELECT 1 FROM reading WHERE id = ?");
+    if (rc == SQLITE_OK) {
+        exists.bind(1, readingId);
+        rc = exists.step();
+    }
+    if (rc == SQLITE_DONE)
+        return Result::failure(StoreCode::NotFound, "reading " + std::to_string(readingId) + " does not exist in this session");
+    if (rc != SQLITE_ROW)
+        return Result::failure(sqliteFailure(m_db.get(), rc, "cannot look up the reading"));
+    const std::string time = now();
+    return insertRow(m_db.get(),
+                     "INSERT INTO exclusion (reading_id, excluded, reason, author, time_utc) VALUES (?, ?, ?, ?, ?)",
+                     excluded ? "exclusion" : "restore", [&](SqliteStatement &insert) {
+                         insert.bind(1, readingId).bind(2, excluded ? 1 : 0).bind(3, reason).bind(4, author).bind(5, time);
+                     });
+}
+
+StoreResult<std::int64_t> SessionStore::excludeReading(std::int64_t readingId, const std::string &reason, const std::string &author)
+{
+    return insertExclusion(readingId, true, reason, author);
+}
+
+StoreResult<std::int64_t> SessionStore::restoreReading(std::int64_t readingId, const std::string &reason, const std::string &author)
+{
+    return insertExclusion(readingId, false, reason, author);
+}
+
+StoreResult<std::int64_t> SessionStore::recordTemperature(TemperatureKind kind, double celsius, const std::string &source)
+{
+    using Result = StoreResult<std::int64_t>;
+    if (StoreStatus status = requireWritable(); !status.ok())
+        return Result::failure(status);
+    // Below absolute zero or above any insulation class is a typing error, not a temperature.
+    if (!std::isfinite(celsius) || celsius < -273.15 || celsius > 1000.0)
+        return Result::failure(StoreCode::InvalidArgument,
+                               std::string(toString(kind)) + " temperature: must be between -273.15 and 1000 °C");
+    const std::string time = now();
+    return insertRow(m_db.get(), "INSERT INTO temperature (time_utc, kind, value_c, source) VALUES (?, ?, ?, ?)",
+                     "temperature", [&](SqliteStatement &insert) {
+                         insert.bind(1, time).bind(2, std::string_view(toString(kind))).bind(3, celsius).bind(4, source);
+                     });
+}
+
+StoreResult<std::int64_t> SessionStore::recordInstrument(const std::string &role, const std::string &identity,
+                                                         const std::string &accuracy)
+{
+    using Result = StoreResult<std::int64_t>;
+    if (StoreStatus status = requireWritable(); !status.ok())
+        return Result::failure(status);
+    if (role.empty())
+        return Result::failure(StoreCode::InvalidArgument, "instrument role: required (e.g. voltmeter, ammeter)");
+    const std::string time = now();
+    return insertRow(m_db.get(), "INSERT INTO instrument (time_utc, role, identity, accuracy) VALUES (?, ?, ?, ?)",
+                     "instrument", [&](SqliteStatement &insert) {
+                         insert.bind(1, time).bind(2, role).bind(3, identity).bind(4, accuracy);
+                     });
+}
+
+StoreResult<std::int64_t> SessionStore::addNote(const std::string &author, const std::string &text)
+{
+    using Result = StoreResult<std::int64_t>;
+    if (StoreStatus status = requireWritable(); !status.ok())
+        return Result::failure(status);
+    if (text.empty())
+        return Result::failure(StoreCode::InvalidArgument, "note: the text is empty");
+    const std::string time = now();
+    return insertRow(m_db.get(), "INSERT INTO note (time_utc, author, text) VALUES (?, ?, ?)", "note",
+                     [&](SqliteStatement &insert) { insert.bind(1, time).bind(2, author).bind(3, text); });
+}
+
+StoreResult<std::int64_t> SessionStore::recordSafetyStop(const SafetyStopRecord &stop)
+{
+    using Result = StoreResult<std::int64_t>;
+    if (StoreStatus status = requireWritable(); !status.ok())
+        return Result::failure(status);
+    if (stop.rule.empty())
+        return Result::failure(StoreCode::InvalidArgument, "safety stop: the rule that stopped the sweep is required");
+    const std::string time = now();
+    return insertRow(m_db.get(),
+                     "INSERT INTO safety_stop (time_utc, step, rule, message, measured, limit_value) VALUES (?, ?, ?, ?, ?, ?)",
+                     "safety stop", [&](SqliteStatement &insert) {
+                         insert.bind(1, time).bind(2, stop.step).bind(3, stop.rule).bind(4, stop.message);
+                         insert.bind(5, stop.measured).bind(6, stop.limitValue);
+                     });
+}
+
+StoreResult<std::int64_t> SessionStore::addSignOff(const std::string &reviewer, Verdict verdict, const std::string &comment)
+{
+    using Result = StoreResult<std::int64_t>;
+    if (StoreStatus status = requireWritable(); !status.ok())
+        return Result::failure(status);
+    if (reviewer.empty())
+        return Result::failure(StoreCode::InvalidArgument, "sign-off: the reviewer's name is required");
+    const std::string time = now();
+    return insertRow(m_db.get(), "INSERT INTO sign_off (time_utc, reviewer, verdict, comment) VALUES (?, ?, ?, ?)",
+                     "sign-off", [&](SqliteStatement &insert) {
+                         insert.bind(1, time).bind(2, reviewer).bind(3, std::string_view(toString(verdict))).bind(4, comment);
+                     });
+}
+
+} // namespace sagline
