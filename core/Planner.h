@@ -44,6 +44,8 @@ struct Plan {
     double magnetizingFraction = 0.0;           // of rated primary current, used in primaryCurrentA
     RecommendedFuse recommendedFuse;
     double maxPrimaryProtectionA = 0.0;         // NEC 450.3(B) primary-only ceiling
+    FuseSpec outlookFuse;                       // the fuse the outlook is for: fitted, or the recommended one
+    bool outlookFuseIsFitted = false;           // false: bench.fuse was absent
     std::optional<double> rheostatSafeCurrentA; // sqrt(P/R_total) when a rheostat is given
     double overloadLimitVa = 0.0;               // rated VA * overload factor
     double totalTimeS = 0.0;                    // steps * dwell

@@ -1,13 +1,149 @@
+// sagline-cli plan SETUP.json [--json]: the safe load sweep for a nameplate and bench.
 #include "CliCommands.h"
 
+#include "FuseStandards.h"
+#include "NumberFormat.h"
+#include "PlanJson.h"
+#include "Planner.h"
+#include "SetupJson.h"
+
+#include <iomanip>
 #include <iostream>
+#include <sstream>
 
 namespace sagline::cli {
 
-int runPlan(const Arguments &)
+namespace {
+
+void printSummary(const Setup &setup, const Plan &plan, std::ostream &out)
 {
-    std::cerr << "sagline-cli plan: not built yet\n";
-    return exitRuntimeFailure;
+    const Nameplate &p = setup.nameplate;
+    auto row = [&](const char *label, const std::string &text) {
+        out << "  " << std::left << std::setw(22) << label << text << '\n';
+    };
+    out << "Load sweep plan: " << formatSignificant(p.ratedPowerVa, 4) << " VA, " << formatSignificant(p.primaryVoltageV, 4)
+        << " V to " << formatSignificant(p.secondaryVoltageV, 4) << " V at full load ("
+        << formatSignificant(plan.noLoadVoltageV, 4) << " V no-load), " << formatSignificant(p.frequencyHz, 3) << " Hz, "
+        << toString(p.construction) << " core, " << toString(p.windingMaterial) << " windings\n\n";
+    row("Rated current", "secondary " + formatQuantity(plan.ratedSecondaryCurrentA, "A") + ", primary "
+                             + formatQuantity(plan.ratedPrimaryCurrentA, "A"));
+    row("Turns ratio", formatSignificant(plan.turnsRatio, 4) + " (primary voltage / secondary no-load voltage)");
+    row("Series resistance", formatQuantity(plan.seriesResistanceOhm, "Ω") + " (estimated, referred to the secondary)");
+    row("Regulation", formatSignificant(plan.regulationPercent, 3) + " % (of the full-load voltage)");
+    const auto &fuse = plan.recommendedFuse;
+    row("Recommended fuse", formatQuantity(fuse.ratingA, "A", 3) + " " + toString(fuse.type) + " (IEC 60127, "
+                                + formatSignificant(fuse.factor, 3) + " x rated primary current, next R10 rating)");
+    row("NEC 450.3(B) ceiling", formatQuantity(plan.maxPrimaryProtectionA, "A") + " primary-only maximum ("
+                                    + formatSignificant(necPrimaryOnlyMultiplier(plan.ratedPrimaryCurrentA) * 100.0, 3)
+                                    + " %); local codes and licensed practice decide");
+    const FuseGates gates = fuseGates(plan.outlookFuse.type);
+    row("Fuse outlook for", formatQuantity(plan.outlookFuse.ratingA, "A", 3) + " " + toString(plan.outlookFuse.type)
+                                + (plan.outlookFuseIsFitted ? " (fitted)" : " (recommended; none given)") + ": "
+                                + gates.source);
+    if (plan.rheostatSafeCurrentA)
+        row("Rheostat", "safe current " + formatQuantity(*plan.rheostatSafeCurrentA, "A")
+                            + " at any setting (sqrt(P rated / R total))");
+    row("Overload limit", formatSignificant(plan.overloadLimitVa, 4) + " VA (rated VA x overload factor)");
+    const std::string duration = plan.totalTimeS < 120.0 ? formatSignificant(plan.totalTimeS, 3) + " s"
+                                                          : formatSignificant(plan.totalTimeS / 60.0, 3) + " min";
+    row("Sweep", std::to_string(plan.steps.size()) + " points (steps 0 to " + std::to_string(plan.steps.size() - 1)
+                     + "), about " + duration + " of dwell in all");
+    row("Primary current", "estimated as sqrt((I2/a)^2 + Im^2), magnetizing current Im = "
+                               + formatSignificant(plan.magnetizingFraction * 100.0, 3) + " % of rated primary current");
+}
+
+void printSteps(const Plan &plan, std::ostream &out)
+{
+    struct Column {
+        const char *title;
+        const char *unit;
+        int width;
+    };
+    const Column columns[] = {{"step", "", 4},       {"current", "A", 9},   {"voltage", "V", 9},
+                              {"load", "Ω", 9},      {"load P", "W", 9},    {"output", "VA", 9},
+                              {"margin", "VA", 9},   {"Cu loss", "W", 9},   {"primary", "A", 9},
+                              {"rheostat", "", 9},   {"fuse", "", 9}};
+    out << '\n';
+    for (const auto &c : columns)
+        out << std::right << std::setw(c.width) << c.title << ' ';
+    out << '\n';
+    for (const auto &c : columns) {
+        // setw counts bytes; "Ω" is two bytes in UTF-8.
+        const int extra = std::string(c.unit) == "Ω" ? 1 : 0;
+        out << std::right << std::setw(c.width + extra) << c.unit << ' ';
+    }
+    out << '\n';
+    for (const PlanStep &s : plan.steps) {
+        out << std::right << std::setw(4) << s.index << ' ' << std::setw(9) << formatFixed(s.currentA, 4) << ' '
+            << std::setw(9) << formatFixed(s.predictedVoltageV, 3) << ' ' << std::setw(9)
+            << (s.loadResistanceOhm ? formatSignificant(*s.loadResistanceOhm, 4) : std::string("open")) << ' '
+            << std::setw(9) << formatFixed(s.loadPowerW, 3) << ' ' << std::setw(9) << formatFixed(s.outputVa, 3) << ' '
+            << std::setw(9) << formatFixed(s.vaMargin, 3) << ' ' << std::setw(9) << formatFixed(s.copperLossW, 3) << ' '
+            << std::setw(9) << formatFixed(s.primaryCurrentA, 4) << ' ' << std::setw(9) << (s.rheostatOk ? "ok" : "NOT OK")
+            << ' ' << std::setw(9) << toString(s.fuseOutlook) << '\n';
+    }
+}
+
+} // namespace
+
+int runPlan(const Arguments &args)
+{
+    std::string path;
+    bool asJson = false;
+    for (const auto &arg : args) {
+        if (arg == "--json") {
+            asJson = true;
+        } else if (!arg.empty() && arg[0] == '-') {
+            std::cerr << "sagline-cli plan: unknown option '" << arg << "'\nusage: sagline-cli plan SETUP.json [--json]\n";
+            return exitInvalidInput;
+        } else if (path.empty()) {
+            path = arg;
+        } else {
+            std::cerr << "sagline-cli plan: one setup file only, got '" << path << "' and '" << arg << "'\n";
+            return exitInvalidInput;
+        }
+    }
+    if (path.empty()) {
+        std::cerr << "usage: sagline-cli plan SETUP.json [--json]\n";
+        return exitInvalidInput;
+    }
+
+    const SetupParse parsed = loadSetupFile(path);
+    if (!parsed.setup) {
+        for (const auto &error : parsed.errors)
+            std::cerr << "sagline-cli plan: " << error.message() << '\n';
+        return exitInvalidInput;
+    }
+    const PlanResult result = makePlan(*parsed.setup);
+    if (!result.plan) {
+        for (const auto &error : result.errors)
+            std::cerr << "sagline-cli plan: refused: " << error.message() << '\n';
+        return exitInvalidInput;
+    }
+    Plan plan = *result.plan;
+    // Defaults the parser filled in (e.g. frequency) join those the planner chose.
+    plan.defaultsUsed.insert(plan.defaultsUsed.begin(), parsed.defaultsUsed.begin(), parsed.defaultsUsed.end());
+
+    if (asJson) {
+        std::cout << planToJson(plan) << '\n';
+        return exitSuccess;
+    }
+    printSummary(*parsed.setup, plan, std::cout);
+    printSteps(plan, std::cout);
+    if (!plan.warnings.empty()) {
+        std::cout << "\nWarnings:\n";
+        for (const auto &warning : plan.warnings)
+            std::cout << "  - " << warning << '\n';
+    }
+    if (!plan.defaultsUsed.empty()) {
+        std::cout << "\nDefaults used (documented in DEVELOPERS.md; set the field to override):\n  ";
+        for (std::size_t i = 0; i < plan.defaultsUsed.size(); ++i)
+            std::cout << (i ? ", " : "") << plan.defaultsUsed[i];
+        std::cout << '\n';
+    }
+    std::cout << "\nCaution: the primary is at mains voltage. Use a fused, isolated supply and meters rated for the\n"
+                 "measurement category; never exceed the ratings; local codes and licensed practice decide.\n";
+    return exitSuccess;
 }
 
 } // namespace sagline::cli

@@ -1,0 +1,446 @@
+#include "SetupJson.h"
+
+#include "Units.h"
+
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+#include <array>
+#include <cmath>
+#include <fstream>
+#include <set>
+#include <sstream>
+
+namespace sagline {
+
+using nlohmann::json;
+
+namespace {
+
+// Reads typed fields out of one JSON object ("nameplate", "bench", ...), collecting every
+// error instead of stopping at the first, so the user can fix the whole file in one pass.
+class SectionReader {
+public:
+    SectionReader(const json &object, std::string path, SetupParse &out)
+        : m_object(object), m_path(std::move(path)), m_out(out)
+    {
+    }
+
+    std::string field(const std::string &key) const { return m_path + "." + key; }
+
+    bool isMissing(const std::string &key) const
+    {
+        return !m_object.contains(key) || m_object.at(key).is_null();
+    }
+
+    void error(const std::string &key, const std::string &rule) { m_out.errors.push_back({field(key), rule}); }
+
+    void usedDefault(const std::string &key) { m_out.defaultsUsed.push_back(field(key)); }
+
+    // A number in SI units, or a string with a unit. Returns nothing when missing or invalid
+    // (invalid also records an error).
+    std::optional<double> quantity(const std::string &key, Unit unit)
+    {
+        if (isMissing(key))
+            return std::nullopt;
+        const json &value = m_object.at(key);
+        if (value.is_number()) {
+            const double number = value.get<double>();
+            if (!std::isfinite(number)) {
+                error(key, "must be a finite number");
+                return std::nullopt;
+            }
+            return number;
+        }
+        if (value.is_string()) {
+            const auto parsed = parseQuantity(value.get<std::string>(), unit);
+            if (!parsed.ok) {
+                error(key, parsed.error);
+                return std::nullopt;
+            }
+            return parsed.value;
+        }
+        error(key, "must be a number or a string with a unit (such as \"12 " + unitSymbol(unit) + "\"), got "
+                       + value.dump());
+        return std::nullopt;
+    }
+
+    // A fraction: a plain number (0.8) or a percentage string ("80 %").
+    std::optional<double> fraction(const std::string &key)
+    {
+        if (!isMissing(key) && m_object.at(key).is_string()) {
+            const std::string text = m_object.at(key).get<std::string>();
+            if (text.find('%') != std::string::npos) {
+                const auto parsed = parseQuantity(text, Unit::Percent);
+                if (!parsed.ok) {
+                    error(key, parsed.error);
+                    return std::nullopt;
+                }
+                return parsed.value / 100.0;
+            }
+        }
+        return quantity(key, Unit::None);
+    }
+
+    double required(const std::string &key, Unit unit)
+    {
+        if (isMissing(key)) {
+            error(key, "is required (" + unitQuantityName(unit) + " in " + unitSymbol(unit) + ")");
+            return 0.0;
+        }
+        return quantity(key, unit).value_or(0.0);
+    }
+
+    // Checks lower < value (or <=) and value <= upper; records the rule when broken.
+    bool inRange(const std::string &key, double value, double lower, bool lowerInclusive, double upper,
+                 const std::string &unitText, const std::string &why = {})
+    {
+        const bool aboveLower = lowerInclusive ? value >= lower : value > lower;
+        if (aboveLower && value <= upper)
+            return true;
+        std::ostringstream rule;
+        rule << "must be " << (lowerInclusive ? "at least " : "above ") << lower << unitText << " and at most " << upper
+             << unitText << ", got " << value << unitText;
+        if (!why.empty())
+            rule << " (" << why << ")";
+        error(key, rule.str());
+        return false;
+    }
+
+    std::optional<std::string> text(const std::string &key)
+    {
+        if (isMissing(key))
+            return std::nullopt;
+        const json &value = m_object.at(key);
+        if (!value.is_string()) {
+            error(key, "must be a string, got " + value.dump());
+            return std::nullopt;
+        }
+        return value.get<std::string>();
+    }
+
+    std::optional<bool> boolean(const std::string &key)
+    {
+        if (isMissing(key))
+            return std::nullopt;
+        const json &value = m_object.at(key);
+        if (!value.is_boolean()) {
+            error(key, "must be true or false, got " + value.dump());
+            return std::nullopt;
+        }
+        return value.get<bool>();
+    }
+
+    void rejectUnknownKeys(const std::set<std::string> &known)
+    {
+        for (const auto &item : m_object.items()) {
+            if (known.count(item.key()))
+                continue;
+            std::string list;
+            for (const auto &name : known)
+                list += (list.empty() ? "" : ", ") + name;
+            error(item.key(), "is not a setup field (a typo?); known fields here: " + list);
+        }
+    }
+
+private:
+    const json &m_object;
+    std::string m_path;
+    SetupParse &m_out;
+};
+
+template <typename Enum, std::size_t N>
+std::optional<Enum> enumFromText(SectionReader &reader, const std::string &key,
+                                 const std::array<std::pair<const char *, Enum>, N> &choices)
+{
+    const auto text = reader.text(key);
+    if (!text)
+        return std::nullopt;
+    for (const auto &[name, value] : choices) {
+        if (*text == name)
+            return value;
+    }
+    std::string allowed;
+    for (const auto &[name, value] : choices)
+        allowed += (allowed.empty() ? "" : ", ") + std::string(name);
+    reader.error(key, "'" + *text + "' is not one of: " + allowed);
+    return std::nullopt;
+}
+
+constexpr std::array<std::pair<const char *, Construction>, 3> constructionNames{{
+    {"laminated", Construction::Laminated}, {"toroidal", Construction::Toroidal}, {"other", Construction::Other}}};
+constexpr std::array<std::pair<const char *, WindingMaterial>, 3> materialNames{{
+    {"copper", WindingMaterial::Copper}, {"aluminium", WindingMaterial::Aluminium},
+    {"aluminum", WindingMaterial::Aluminium}}};
+constexpr std::array<std::pair<const char *, FuseType>, 2> fuseTypeNames{{
+    {"time-lag", FuseType::TimeLag}, {"quick-acting", FuseType::QuickActing}}};
+
+// Scope limits of the tool (small single-phase mains transformers; NEC 450.3(B) covers 1000 V
+// and less). Outside them the model and the protection tables do not apply.
+constexpr double maxRatedPowerVa = 10000.0;
+constexpr double maxVoltageV = 1000.0;
+constexpr int maxSteps = 200;
+constexpr double maxDwellS = 3600.0;
+
+void readNameplate(const json &object, SetupParse &out, Nameplate &plate)
+{
+    SectionReader r(object, "nameplate", out);
+    r.rejectUnknownKeys({"rated_power_va", "primary_voltage_v", "frequency_hz", "secondary_voltage_v",
+                         "secondary_no_load_voltage_v", "regulation_percent", "construction", "winding_material"});
+    plate.ratedPowerVa = r.required("rated_power_va", Unit::VoltAmpere);
+    if (!r.isMissing("rated_power_va"))
+        r.inRange("rated_power_va", plate.ratedPowerVa, 0.0, false, maxRatedPowerVa, " VA",
+                  "Sagline covers small transformers up to 10 kVA");
+    plate.primaryVoltageV = r.required("primary_voltage_v", Unit::Volt);
+    if (!r.isMissing("primary_voltage_v"))
+        r.inRange("primary_voltage_v", plate.primaryVoltageV, 0.0, false, maxVoltageV, " V",
+                  "NEC 450.3(B) and this tool cover 1000 V and less");
+    if (r.isMissing("frequency_hz")) {
+        r.usedDefault("frequency_hz");
+        plate.frequencyHz = 50.0;
+    } else if (auto f = r.quantity("frequency_hz", Unit::Hertz)) {
+        plate.frequencyHz = *f;
+        r.inRange("frequency_hz", *f, 0.0, false, 1000.0, " Hz");
+    }
+    plate.secondaryVoltageV = r.required("secondary_voltage_v", Unit::Volt);
+    if (!r.isMissing("secondary_voltage_v"))
+        r.inRange("secondary_voltage_v", plate.secondaryVoltageV, 0.0, false, maxVoltageV, " V");
+
+    plate.secondaryNoLoadVoltageV = r.quantity("secondary_no_load_voltage_v", Unit::Volt);
+    plate.regulationPercent = r.quantity("regulation_percent", Unit::Percent);
+    if (r.isMissing("secondary_no_load_voltage_v") && r.isMissing("regulation_percent")) {
+        r.error("secondary_no_load_voltage_v",
+                "give the secondary no-load voltage, or nameplate.regulation_percent instead (one is required)");
+    }
+    if (plate.secondaryNoLoadVoltageV && plate.secondaryVoltageV > 0.0
+        && *plate.secondaryNoLoadVoltageV <= plate.secondaryVoltageV) {
+        std::ostringstream rule;
+        rule << "must be above nameplate.secondary_voltage_v (" << plate.secondaryVoltageV << " V), got "
+             << *plate.secondaryNoLoadVoltageV << " V: the no-load voltage of a loaded transformer is the higher one";
+        r.error("secondary_no_load_voltage_v", rule.str());
+    }
+    if (plate.regulationPercent)
+        r.inRange("regulation_percent", *plate.regulationPercent, 0.0, false, 100.0, " %");
+    if (plate.secondaryNoLoadVoltageV && plate.regulationPercent && plate.secondaryVoltageV > 0.0) {
+        const double implied = plate.secondaryVoltageV * (1.0 + *plate.regulationPercent / 100.0);
+        if (std::fabs(implied - *plate.secondaryNoLoadVoltageV) > 0.01 * *plate.secondaryNoLoadVoltageV) {
+            std::ostringstream rule;
+            rule << "disagrees with nameplate.secondary_no_load_voltage_v by more than 1 % (it implies " << implied
+                 << " V); give only one of the two";
+            r.error("regulation_percent", rule.str());
+        }
+    }
+    if (r.isMissing("construction")) {
+        r.usedDefault("construction");
+    } else if (auto c = enumFromText(r, "construction", constructionNames)) {
+        plate.construction = *c;
+    }
+    if (r.isMissing("winding_material")) {
+        r.usedDefault("winding_material");
+    } else if (auto m = enumFromText(r, "winding_material", materialNames)) {
+        plate.windingMaterial = *m;
+    }
+}
+
+void readRheostat(const json &object, SetupParse &out, Bench &bench)
+{
+    if (!object.is_object()) {
+        out.errors.push_back({"bench.rheostat", "must be an object with total_resistance_ohm and power_rating_w"});
+        return;
+    }
+    SectionReader r(object, "bench.rheostat", out);
+    r.rejectUnknownKeys({"total_resistance_ohm", "power_rating_w"});
+    Rheostat rheostat;
+    rheostat.totalResistanceOhm = r.required("total_resistance_ohm", Unit::Ohm);
+    if (!r.isMissing("total_resistance_ohm"))
+        r.inRange("total_resistance_ohm", rheostat.totalResistanceOhm, 0.0, false, 1e6, " Ω");
+    rheostat.powerRatingW = r.required("power_rating_w", Unit::Watt);
+    if (!r.isMissing("power_rating_w"))
+        r.inRange("power_rating_w", rheostat.powerRatingW, 0.0, false, 1e5, " W");
+    bench.rheostat = rheostat;
+}
+
+void readFuse(const json &object, SetupParse &out, Bench &bench)
+{
+    if (!object.is_object()) {
+        out.errors.push_back({"bench.fuse", "must be an object with rating_a and type"});
+        return;
+    }
+    SectionReader r(object, "bench.fuse", out);
+    r.rejectUnknownKeys({"rating_a", "type"});
+    FuseSpec fuse;
+    fuse.ratingA = r.required("rating_a", Unit::Ampere);
+    if (!r.isMissing("rating_a"))
+        r.inRange("rating_a", fuse.ratingA, 0.0, false, 100.0, " A");
+    if (r.isMissing("type")) {
+        r.usedDefault("type");
+    } else if (auto t = enumFromText(r, "type", fuseTypeNames)) {
+        fuse.type = *t;
+    }
+    bench.fuse = fuse;
+}
+
+void readBench(const json &object, SetupParse &out, Bench &bench)
+{
+    SectionReader r(object, "bench", out);
+    r.rejectUnknownKeys({"steps", "top_fraction", "overload_factor", "allow_overload", "rheostat", "fuse",
+                         "fuse_factor", "magnetizing_fraction", "dwell_s"});
+    if (r.isMissing("steps")) {
+        r.usedDefault("steps");
+    } else if (auto steps = r.quantity("steps", Unit::None)) {
+        if (*steps != std::floor(*steps)) {
+            r.error("steps", "must be a whole number of load steps");
+        } else if (r.inRange("steps", *steps, 1.0, true, maxSteps, "", "more steps than this only lengthen the time under load")) {
+            bench.steps = static_cast<int>(*steps);
+        }
+    }
+    if (r.isMissing("top_fraction")) {
+        r.usedDefault("top_fraction");
+    } else if (auto top = r.fraction("top_fraction")) {
+        if (r.inRange("top_fraction", *top, 0.0, false, 1.5, "", "fraction of rated secondary current"))
+            bench.topFraction = *top;
+    }
+    if (r.isMissing("overload_factor")) {
+        r.usedDefault("overload_factor");
+    } else if (auto factor = r.quantity("overload_factor", Unit::None)) {
+        if (r.inRange("overload_factor", *factor, 0.0, false, 1.5, "", "multiple of rated VA allowed before the sweep stops"))
+            bench.overloadFactor = *factor;
+    }
+    if (r.isMissing("allow_overload"))
+        r.usedDefault("allow_overload");
+    else if (auto allow = r.boolean("allow_overload"))
+        bench.allowOverload = *allow;
+    if (!r.isMissing("rheostat"))
+        readRheostat(object.at("rheostat"), out, bench);
+    if (!r.isMissing("fuse"))
+        readFuse(object.at("fuse"), out, bench);
+    // fuse_factor and magnetizing_fraction defaults depend on the construction: the planner
+    // chooses and reports them.
+    if (r.isMissing("fuse_factor")) {
+    } else if (auto factor = r.quantity("fuse_factor", Unit::None)) {
+        if (r.inRange("fuse_factor", *factor, 1.0, true, 5.0, "", "multiple of rated primary current"))
+            bench.fuseFactor = *factor;
+    }
+    if (r.isMissing("magnetizing_fraction")) {
+    } else if (auto fraction = r.fraction("magnetizing_fraction")) {
+        if (r.inRange("magnetizing_fraction", *fraction, 0.0, true, 0.8, "", "fraction of rated primary current"))
+            bench.magnetizingFraction = *fraction;
+    }
+    if (r.isMissing("dwell_s")) {
+        r.usedDefault("dwell_s");
+    } else if (auto dwell = r.quantity("dwell_s", Unit::Second)) {
+        if (r.inRange("dwell_s", *dwell, 0.0, true, maxDwellS, " s"))
+            bench.dwellS = *dwell;
+    }
+}
+
+// nlohmann reports a byte offset; people want a line and a column.
+std::string positionText(std::string_view text, std::size_t byte)
+{
+    std::size_t line = 1, column = 1;
+    for (std::size_t i = 0; i < byte && i < text.size(); ++i) {
+        if (text[i] == '\n') {
+            ++line;
+            column = 1;
+        } else {
+            ++column;
+        }
+    }
+    return "line " + std::to_string(line) + ", column " + std::to_string(column);
+}
+
+} // namespace
+
+SetupParse parseSetupJson(std::string_view text)
+{
+    SetupParse out;
+    json document;
+    try {
+        document = json::parse(text.begin(), text.end());
+    } catch (const json::parse_error &e) {
+        out.errors.push_back({"setup", "is not valid JSON at " + positionText(text, e.byte)
+                                           + "; expected an object with \"nameplate\" and \"bench\""});
+        return out;
+    } catch (const json::exception &e) {
+        // nlohmann refuses numbers such as 1e999 that overflow a double.
+        out.errors.push_back({"setup", std::string("has a number that is not finite (too large): every number must be "
+                                                   "finite; parser said: ") + e.what()});
+        return out;
+    }
+    if (!document.is_object()) {
+        out.errors.push_back({"setup", "must be a JSON object with \"nameplate\" and \"bench\""});
+        return out;
+    }
+    Setup setup;
+    for (const auto &item : document.items()) {
+        if (item.key() != "nameplate" && item.key() != "bench")
+            out.errors.push_back({item.key(), "is not a setup section; the sections are nameplate and bench"});
+    }
+    if (!document.contains("nameplate") || !document.at("nameplate").is_object())
+        out.errors.push_back({"nameplate", "is required and must be an object"});
+    else
+        readNameplate(document.at("nameplate"), out, setup.nameplate);
+    if (!document.contains("bench") || document.at("bench").is_null()) {
+        out.defaultsUsed.push_back("bench");
+    } else if (!document.at("bench").is_object()) {
+        out.errors.push_back({"bench", "must be an object"});
+    } else {
+        readBench(document.at("bench"), out, setup.bench);
+    }
+    if (out.errors.empty())
+        out.setup = setup;
+    return out;
+}
+
+SetupParse loadSetupFile(const std::string &path)
+{
+    std::ifstream in(path, std::ios::binary);
+    if (!in) {
+        SetupParse out;
+        out.errors.push_back({path, "cannot be read (missing file or no permission)"});
+        return out;
+    }
+    std::ostringstream buffer;
+    buffer << in.rdbuf();
+    std::string text = buffer.str();
+    if (text.size() >= 3 && text.compare(0, 3, "\xEF\xBB\xBF") == 0)
+        text.erase(0, 3); // a byte-order mark from Windows editors
+    SetupParse out = parseSetupJson(text);
+    for (auto &error : out.errors) {
+        if (error.field == "setup")
+            error.field = path;
+    }
+    return out;
+}
+
+std::string setupToJson(const Setup &setup)
+{
+    const Nameplate &p = setup.nameplate;
+    const Bench &b = setup.bench;
+    json nameplate = {
+        {"rated_power_va", p.ratedPowerVa},
+        {"primary_voltage_v", p.primaryVoltageV},
+        {"frequency_hz", p.frequencyHz},
+        {"secondary_voltage_v", p.secondaryVoltageV},
+        {"secondary_no_load_voltage_v", p.secondaryNoLoadVoltageV ? json(*p.secondaryNoLoadVoltageV) : json(nullptr)},
+        {"regulation_percent", p.regulationPercent ? json(*p.regulationPercent) : json(nullptr)},
+        {"construction", toString(p.construction)},
+        {"winding_material", toString(p.windingMaterial)},
+    };
+    json bench = {
+        {"steps", b.steps},
+        {"top_fraction", b.topFraction},
+        {"overload_factor", b.overloadFactor},
+        {"allow_overload", b.allowOverload},
+        {"rheostat", b.rheostat ? json{{"total_resistance_ohm", b.rheostat->totalResistanceOhm},
+                                       {"power_rating_w", b.rheostat->powerRatingW}}
+                                : json(nullptr)},
+        {"fuse", b.fuse ? json{{"rating_a", b.fuse->ratingA}, {"type", toString(b.fuse->type)}} : json(nullptr)},
+        {"fuse_factor", b.fuseFactor ? json(*b.fuseFactor) : json(nullptr)},
+        {"magnetizing_fraction", b.magnetizingFraction ? json(*b.magnetizingFraction) : json(nullptr)},
+        {"dwell_s", b.dwellS},
+    };
+    return json{{"nameplate", nameplate}, {"bench", bench}}.dump(2);
+}
+
+} // namespace sagline
