@@ -118,6 +118,18 @@ StoreStatus hardenConnection(sqlite3 *db)
     return StoreStatus::success();
 }
 
+StoreResult<SqliteHandle> openHardenedConnection(const std::string &path, int flags)
+{
+    sqlite3 *raw = nullptr;
+    const int rc = sqlite3_open_v2(path.c_str(), &raw, flags | SQLITE_OPEN_EXRESCODE, nullptr);
+    SqliteHandle db(raw); // owns the handle even when the open failed
+    if (rc != SQLITE_OK)
+        return StoreResult<SqliteHandle>::failure(sqliteFailure(db.get(), rc, path + ": cannot open"));
+    if (StoreStatus status = hardenConnection(db.get()); !status.ok())
+        return StoreResult<SqliteHandle>::failure(status);
+    return db;
+}
+
 StoreStatus quickCheck(sqlite3 *db, bool full)
 {
     SqliteStatement check;

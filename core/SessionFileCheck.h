@@ -3,6 +3,7 @@
 // hardening of a connection to an untrusted file (sqlite.org security.html).
 #pragma once
 
+#include "SqliteHandle.h"
 #include "StoreResult.h"
 
 #include <string>
@@ -19,6 +20,9 @@ StoreStatus checkSessionFileHeader(const std::string &path);
 // Defensive mode, trusted_schema off, triggers and views off, cell_size_check on, mmap off,
 // a length limit and a busy timeout. Every call's result is checked.
 StoreStatus hardenConnection(sqlite3 *db);
+
+// sqlite3_open_v2 with `flags` (SQLITE_OPEN_*), then hardenConnection.
+StoreResult<SqliteHandle> openHardenedConnection(const std::string &path, int flags);
 
 // PRAGMA quick_check: ok, or Corrupt naming SQLite's first finding.
 StoreStatus quickCheck(sqlite3 *db, bool full = false);

@@ -2,6 +2,7 @@
 // trust rules this file implements.
 #include "SessionStore.h"
 
+#include "SessionCopies.h"
 #include "SessionFileCheck.h"
 #include "SessionSchema.h"
 #include "SqliteStatement.h"
@@ -41,41 +42,16 @@ StoreStatus configureForWriting(sqlite3 *db)
     return StoreStatus::success();
 }
 
-StoreResult<SqliteHandle> openConnection(const std::string &path, int flags)
+StoreStatus migrateInTransaction(sqlite3 *db, int fromVersion)
 {
-    sqlite3 *raw = nullptr;
-    const int rc = sqlite3_open_v2(path.c_str(), &raw, flags | SQLITE_OPEN_EXRESCODE, nullptr);
-    SqliteHandle db(raw); // owns the handle even when the open failed
-    if (rc != SQLITE_OK)
-        return StoreResult<SqliteHandle>::failure(sqliteFailure(db.get(), rc, path + ": cannot open"));
-    if (StoreStatus status = hardenConnection(db.get()); !status.ok())
-        return StoreResult<SqliteHandle>::failure(status);
-    return {std::move(db)};
-}
-
-// Review of an older file: copy it into memory with the backup API and upgrade the copy.
-StoreResult<SqliteHandle> upgradedMemoryCopy(sqlite3 *source, int fromVersion)
-{
-    auto memory = openConnection(":memory:", SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE);
-    if (!memory.ok())
-        return memory;
-    sqlite3_backup *backup = sqlite3_backup_init(memory.value.get(), "main", source, "main");
-    if (backup == nullptr)
-        return StoreResult<SqliteHandle>::failure(sqliteFailure(memory.value.get(), sqlite3_errcode(memory.value.get()),
-                                                                "copying the file for reading"));
-    const int stepRc = sqlite3_backup_step(backup, -1);
-    const int finishRc = sqlite3_backup_finish(backup);
-    if (stepRc != SQLITE_DONE || finishRc != SQLITE_OK)
-        return StoreResult<SqliteHandle>::failure(
-            sqliteFailure(source, stepRc != SQLITE_DONE ? stepRc : finishRc, "copying the file for reading"));
-    SqliteTransaction transaction(memory.value.get());
+    SqliteTransaction transaction(db);
     if (transaction.beginCode() != SQLITE_OK)
-        return StoreResult<SqliteHandle>::failure(sqliteFailure(memory.value.get(), transaction.beginCode(), "upgrading"));
-    if (StoreStatus status = migrateSessionSchema(memory.value.get(), fromVersion); !status.ok())
-        return StoreResult<SqliteHandle>::failure(status);
+        return sqliteFailure(db, transaction.beginCode(), "upgrading the schema");
+    if (StoreStatus status = migrateSessionSchema(db, fromVersion); !status.ok())
+        return status;
     if (const int rc = transaction.commit(); rc != SQLITE_OK)
-        return StoreResult<SqliteHandle>::failure(sqliteFailure(memory.value.get(), rc, "upgrading"));
-    return memory;
+        return sqliteFailure(db, rc, "upgrading the schema");
+    return StoreStatus::success();
 }
 
 } // namespace
@@ -140,7 +116,7 @@ StoreOpen SessionStore::create(const std::string &path, const NewSession &sessio
     if (std::filesystem::exists(path, error) || std::filesystem::exists(path + "-journal", error))
         return StoreOpen::failure(StoreCode::FileExists, path + ": already exists; a session file is never overwritten");
 
-    auto db = openConnection(path, SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE);
+    auto db = openHardenedConnection(path, SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE);
     if (!db.ok())
         return StoreOpen::failure(db.status());
     sqlite3 *handle = db.value.get();
@@ -198,15 +174,30 @@ StoreOpen SessionStore::open(const std::string &path, bool forWriting)
 {
     if (StoreStatus status = checkSessionFileHeader(path); !status.ok())
         return StoreOpen::failure(status);
-    auto db = openConnection(path, forWriting ? SQLITE_OPEN_READWRITE : SQLITE_OPEN_READONLY);
+    auto db = openHardenedConnection(path, forWriting ? SQLITE_OPEN_READWRITE : SQLITE_OPEN_READONLY);
     if (!db.ok())
         return StoreOpen::failure(db.status());
     sqlite3 *handle = db.value.get();
     auto fail = [&path](const StoreStatus &status) { return StoreOpen::failure(status.code, path + ": " + status.message); };
 
     // quick_check first: it also parses the schema, so a damaged schema is caught here.
-    if (StoreStatus status = quickCheck(handle); !status.ok())
-        return fail(status.code == StoreCode::UnexpectedSchema ? StoreStatus::failure(StoreCode::Corrupt, status.message) : status);
+    StoreStatus checked = quickCheck(handle);
+    std::string recoveredNotice;
+    std::error_code ignored;
+    if (!forWriting && checked.code == StoreCode::ReadOnly && std::filesystem::exists(path + "-journal", ignored)) {
+        // A crash left a hot journal; rolling it back would write. Recover a private copy instead.
+        auto recovered = recoverIntoMemory(path);
+        if (!recovered.ok())
+            return fail(recovered.status());
+        db.value = std::move(recovered.value);
+        handle = db.value.get();
+        recoveredNotice = path + ": was left mid-write (the recording program stopped abruptly); shown as recovered "
+                                 "in memory, the file itself is unchanged until it is opened for writing";
+        checked = quickCheck(handle);
+    }
+    if (!checked.ok())
+        return fail(checked.code == StoreCode::UnexpectedSchema ? StoreStatus::failure(StoreCode::Corrupt, checked.message)
+                                                                 : checked);
     const auto applicationId = pragmaInt(handle, "PRAGMA application_id");
     const auto version = pragmaInt(handle, "PRAGMA user_version");
     if (!applicationId.ok() || !version.ok())
@@ -227,26 +218,28 @@ StoreOpen SessionStore::open(const std::string &path, bool forWriting)
         if (StoreStatus status = configureForWriting(handle); !status.ok())
             return fail(status);
         if (version.value < sessionSchemaVersion) {
-            SqliteTransaction transaction(handle);
-            if (transaction.beginCode() != SQLITE_OK)
-                return fail(sqliteFailure(handle, transaction.beginCode(), "upgrading the schema"));
-            if (StoreStatus status = migrateSessionSchema(handle, version.value); !status.ok())
+            if (StoreStatus status = migrateInTransaction(handle, version.value); !status.ok())
                 return fail(status);
-            if (const int rc = transaction.commit(); rc != SQLITE_OK)
-                return fail(sqliteFailure(handle, rc, "upgrading the schema"));
         }
         return {std::unique_ptr<SessionStore>(new SessionStore(path, std::move(db.value), false, version.value))};
     }
 
     if (version.value < sessionSchemaVersion) {
-        auto copy = upgradedMemoryCopy(handle, version.value);
-        if (!copy.ok())
-            return fail(copy.status());
-        db.value = std::move(copy.value);
+        // Upgrade a copy in memory: opening for review never writes to the file.
+        if (recoveredNotice.empty()) {
+            auto copy = copyIntoMemory(handle);
+            if (!copy.ok())
+                return fail(copy.status());
+            db.value = std::move(copy.value);
+        }
+        if (StoreStatus status = migrateInTransaction(db.value.get(), version.value); !status.ok())
+            return fail(status);
     }
     std::unique_ptr<SessionStore> store(new SessionStore(path, std::move(db.value), true, version.value));
+    store->m_notice = recoveredNotice;
     if (newer)
-        store->m_notice = path + ": " + newerText + "; shown read-only, parts this build does not know are not shown";
+        store->m_notice += (recoveredNotice.empty() ? "" : "\n") + path + ": " + newerText +
+                           "; shown read-only, parts this build does not know are not shown";
     return {std::move(store)};
 }
 
