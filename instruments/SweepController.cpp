@@ -1,0 +1,593 @@
+#include "SweepController.h"
+
+#include "InstrumentRig.h"
+#include "ScpiInstrument.h"
+
+#include <cmath>
+#include <memory>
+
+namespace sagline {
+
+namespace {
+
+// Three significant digits without an exponent: "11.9", "145", "1250".
+QString sig3(double value)
+{
+    if (std::fabs(value) >= 1000.0)
+        return QString::number(value, 'f', 0);
+    return QString::number(value, 'g', 3);
+}
+
+QString formatCurrent(double amps)
+{
+    if (std::fabs(amps) < 1.0)
+        return sig3(amps * 1000.0) + QStringLiteral(" mA");
+    return sig3(amps) + QStringLiteral(" A");
+}
+
+QString formatResistance(double ohms)
+{
+    if (ohms >= 1000.0)
+        return sig3(ohms / 1000.0) + QStringLiteral(" kΩ");
+    return sig3(ohms) + QStringLiteral(" Ω");
+}
+
+} // namespace
+
+QString toString(SweepState state)
+{
+    switch (state) {
+    case SweepState::Idle: return QStringLiteral("idle");
+    case SweepState::SettingLoad: return QStringLiteral("setting the load");
+    case SweepState::WaitingForLoad: return QStringLiteral("waiting for the load to be set");
+    case SweepState::Settling: return QStringLiteral("settling");
+    case SweepState::Measuring: return QStringLiteral("measuring");
+    case SweepState::WaitingForEntry: return QStringLiteral("waiting for a typed-in reading");
+    case SweepState::Paused: return QStringLiteral("paused");
+    case SweepState::Finished: return QStringLiteral("finished");
+    case SweepState::Stopped: return QStringLiteral("stopped");
+    }
+    return {};
+}
+
+QString toString(SweepOutcome outcome)
+{
+    switch (outcome) {
+    case SweepOutcome::Completed: return QStringLiteral("completed");
+    case SweepOutcome::SafetyStop: return QStringLiteral("safety stop");
+    case SweepOutcome::StoppedByOperator: return QStringLiteral("stopped by the operator");
+    case SweepOutcome::Failed: return QStringLiteral("failed");
+    }
+    return {};
+}
+
+SweepOptions sweepOptionsFor(const Setup &setup, const Plan &plan)
+{
+    SweepOptions options;
+    options.dwellMs = static_cast<std::int64_t>(std::llround(setup.bench.dwellS * 1000.0));
+    options.limits = safetyLimitsFor(plan);
+    return options;
+}
+
+struct SweepController::PendingRead {
+    std::optional<MeterValue> voltage;
+    std::optional<MeterValue> current;
+    std::int64_t voltageMs = 0;
+    std::int64_t currentMs = 0;
+};
+
+SweepController::SweepController(const Plan &plan, const SweepOptions &options, InstrumentRig *rig, PointSink *sink,
+                                 LiveFit *fit, Clock *clock, QObject *parent)
+    : QObject(parent), m_plan(plan), m_options(options), m_rig(rig), m_sink(sink), m_fit(fit), m_clock(clock),
+      m_tracker(options.stability)
+{
+    qRegisterMetaType<sagline::Reading>();
+    qRegisterMetaType<sagline::LiveFitSnapshot>();
+    qRegisterMetaType<sagline::SafetyTrip>();
+    qRegisterMetaType<sagline::SweepState>();
+    qRegisterMetaType<sagline::SweepOutcome>();
+    if (m_rig) {
+        connect(m_rig, &InstrumentRig::lost, this, &SweepController::handleRigLost);
+        connect(m_rig, &InstrumentRig::restored, this, &SweepController::handleRigRestored);
+        connect(m_rig, &InstrumentRig::instrumentError, this, [this](const QString &message) {
+            event(message);
+            emit notice(message);
+        });
+    }
+    m_stepIndex = 0;
+    for (int i = 0; i < static_cast<int>(m_plan.steps.size()); ++i) {
+        if (m_plan.steps[i].index == options.firstStep)
+            m_stepIndex = i;
+    }
+    if (!m_plan.steps.empty())
+        m_step = m_plan.steps[m_stepIndex].index;
+}
+
+SweepController::~SweepController()
+{
+    cancelTimers();
+}
+
+int SweepController::stepCount() const
+{
+    return static_cast<int>(m_plan.steps.size());
+}
+
+bool SweepController::hasProgrammableLoad() const
+{
+    return m_rig && m_rig->load();
+}
+
+QString SweepController::instruction(int step) const
+{
+    for (const PlanStep &s : m_plan.steps) {
+        if (s.index != step)
+            continue;
+        const QString expect = QStringLiteral("expect about %1 V and %2").arg(sig3(s.predictedVoltageV), formatCurrent(s.currentA));
+        if (!s.loadResistanceOhm)
+            return QStringLiteral("disconnect the load (open circuit); ") + expect;
+        return QStringLiteral("set the load to about %1; %2").arg(formatResistance(*s.loadResistanceOhm), expect);
+    }
+    return {};
+}
+
+void SweepController::setState(SweepState state)
+{
+    if (m_state == state)
+        return;
+    m_state = state;
+    emit stateChanged(state);
+}
+
+void SweepController::event(const QString &text)
+{
+    if (m_sink)
+        m_sink->recordEvent(m_clock->utcNowIso(), text);
+}
+
+void SweepController::cancelTimers()
+{
+    if (m_timer) {
+        m_clock->cancel(m_timer);
+        m_timer = 0;
+    }
+}
+
+void SweepController::start()
+{
+    if (m_state != SweepState::Idle)
+        return;
+    if (m_plan.steps.empty()) {
+        emit notice(tr("the plan has no steps"));
+        finish(SweepOutcome::Failed);
+        return;
+    }
+    if (m_rig && !m_rig->isReady()) {
+        emit notice(tr("the instruments are not connected"));
+        finish(SweepOutcome::Failed);
+        return;
+    }
+    if (m_rig && m_sink) {
+        for (const InstrumentRecord &record : m_rig->records()) {
+            const CommitResult result = m_sink->recordInstrument(record);
+            if (!result.ok)
+                emit notice(tr("could not record the instrument %1: %2").arg(record.identity, result.error));
+        }
+    }
+    event(tr("sweep started at step %1 (%2)").arg(m_step).arg(m_rig ? tr("instruments") : tr("typed-in readings")));
+    beginStep();
+}
+
+void SweepController::beginStep()
+{
+    cancelTimers();
+    const int serial = ++m_readSerial;
+    m_step = m_plan.steps[m_stepIndex].index;
+    emit stepStarted(m_step, instruction(m_step));
+    if (!m_rig) {
+        setState(SweepState::WaitingForEntry);
+        return;
+    }
+    if (ProgrammableLoad *load = m_rig->load()) {
+        setState(SweepState::SettingLoad);
+        load->setLoad(m_plan.steps[m_stepIndex].loadResistanceOhm, this, [this, serial](bool ok, const QString &error) {
+            if (serial != m_readSerial || m_state != SweepState::SettingLoad)
+                return;
+            if (!ok) {
+                m_pauseReason = tr("could not set the load: %1").arg(error);
+                setState(SweepState::Paused);
+                event(m_pauseReason);
+                emit paused(m_pauseReason);
+                return;
+            }
+            loadReady();
+        });
+        return;
+    }
+    if (m_loadConfirmed)
+        loadReady();
+    else
+        setState(SweepState::WaitingForLoad);
+}
+
+void SweepController::confirmLoadSet()
+{
+    if (m_state != SweepState::WaitingForLoad)
+        return;
+    m_loadConfirmed = true;
+    loadReady();
+}
+
+void SweepController::loadReady()
+{
+    setState(SweepState::Settling);
+    m_timer = m_clock->callAfter(m_options.dwellMs, this, [this] {
+        m_timer = 0;
+        startMeasuring();
+    });
+}
+
+void SweepController::startMeasuring()
+{
+    setState(SweepState::Measuring);
+    m_tracker.start(static_cast<double>(m_clock->nowMs()) / 1000.0);
+    m_lastPair.reset();
+    m_lastRaw.clear();
+    readPair();
+}
+
+void SweepController::readPair()
+{
+    const int serial = ++m_readSerial;
+    ScpiInstrument *voltmeter = m_rig->instrumentFor(MeterRole::SecondaryVoltage);
+    ScpiInstrument *ammeter = m_rig->instrumentFor(MeterRole::SecondaryCurrent);
+    auto pending = std::make_shared<PendingRead>();
+    auto complete = [this, serial, pending] {
+        if (serial != m_readSerial || !pending->voltage || !pending->current)
+            return;
+        handlePair(*pending->voltage, pending->voltageMs, *pending->current, pending->currentMs);
+    };
+    auto readCurrent = [this, serial, pending, ammeter, complete] {
+        ammeter->measure(MeterRole::SecondaryCurrent, this, [this, serial, pending, complete](const MeterValue &value) {
+            if (serial != m_readSerial)
+                return;
+            pending->current = value;
+            pending->currentMs = m_clock->nowMs();
+            complete();
+        });
+    };
+    // One instrument in both roles reads one after the other; two read at the same time.
+    const bool shared = voltmeter == ammeter;
+    voltmeter->measure(MeterRole::SecondaryVoltage, this,
+                       [this, serial, pending, complete, readCurrent, shared](const MeterValue &value) {
+                           if (serial != m_readSerial)
+                               return;
+                           pending->voltage = value;
+                           pending->voltageMs = m_clock->nowMs();
+                           if (shared)
+                               readCurrent();
+                           else
+                               complete();
+                       });
+    if (!shared)
+        readCurrent();
+}
+
+void SweepController::handlePair(const MeterValue &voltage, std::int64_t voltageMs, const MeterValue &current,
+                                 std::int64_t currentMs)
+{
+    if (m_state != SweepState::Measuring)
+        return;
+    const QString raw = QStringLiteral("V: %1; I: %2").arg(QString::fromLatin1(voltage.raw), QString::fromLatin1(current.raw));
+    for (const MeterValue *value : {&voltage, &current}) {
+        if (value->status == MeterValue::Status::Overload) {
+            SafetyPoint point;
+            point.overloadedRole = roleName(value->role).toStdString();
+            Reading reading = makeReading(current.isValue() ? current.value : 0.0, voltage.isValue() ? voltage.value : 0.0);
+            reading.flags |= flagOverload;
+            reading.rawText = raw.toStdString();
+            tripSafety(*checkSafety(m_options.limits, point), reading);
+            return;
+        }
+    }
+    for (const MeterValue *value : {&voltage, &current}) {
+        if (value->status == MeterValue::Status::Failed) {
+            emit notice(value->error);
+            scheduleRead();
+            return;
+        }
+        if (value->status == MeterValue::Status::NotANumber) {
+            emit notice(tr("%1 reports not-a-number (%2); reading again").arg(roleName(value->role), QString::fromLatin1(value->raw)));
+            scheduleRead();
+            return;
+        }
+    }
+    if (std::llabs(voltageMs - currentMs) > m_options.pairWindowMs) {
+        emit notice(tr("voltage and current were read %1 ms apart (window %2 ms); reading again")
+                        .arg(std::llabs(voltageMs - currentMs))
+                        .arg(m_options.pairWindowMs));
+        scheduleRead();
+        return;
+    }
+    SafetyPoint point;
+    point.currentA = current.value;
+    point.voltageV = voltage.value;
+    point.expectedVoltageV = expectedVoltage();
+    if (auto trip = checkSafety(m_options.limits, point)) {
+        Reading reading = makeReading(current.value, voltage.value);
+        reading.rawText = raw.toStdString();
+        tripSafety(*trip, reading);
+        return;
+    }
+    m_lastPair = std::make_pair(voltage.value, current.value);
+    m_lastRaw = raw;
+    m_tracker.add(voltage.value, current.value);
+    if (m_tracker.isStable()) {
+        Reading reading = makeReading(current.value, voltage.value);
+        reading.rawText = raw.toStdString();
+        acceptPoint(reading);
+        return;
+    }
+    scheduleRead();
+}
+
+void SweepController::scheduleRead()
+{
+    if (m_tracker.isTimedOut(static_cast<double>(m_clock->nowMs()) / 1000.0)) {
+        if (m_lastPair) {
+            Reading reading = makeReading(m_lastPair->second, m_lastPair->first);
+            reading.flags |= flagUnstable;
+            reading.rawText = m_lastRaw.toStdString();
+            emit notice(tr("step %1: readings did not settle within %2 s; recording the last one as unstable")
+                            .arg(m_step)
+                            .arg(m_options.stability.maxTimeS));
+            acceptPoint(reading);
+            return;
+        }
+        m_pauseReason = tr("step %1: no valid reading within %2 s; check the meters, then resume to retry the step")
+                            .arg(m_step)
+                            .arg(m_options.stability.maxTimeS);
+        ++m_readSerial;
+        setState(SweepState::Paused);
+        event(m_pauseReason);
+        emit paused(m_pauseReason);
+        return;
+    }
+    m_timer = m_clock->callAfter(m_options.readIntervalMs, this, [this] {
+        m_timer = 0;
+        if (m_state == SweepState::Measuring)
+            readPair();
+    });
+}
+
+Reading SweepController::makeReading(double currentA, double voltageV) const
+{
+    Reading reading;
+    reading.step = m_step;
+    reading.currentA = currentA;
+    reading.voltageV = voltageV;
+    reading.timeUtc = m_clock->utcNowIso().toStdString();
+    if (m_rig) {
+        if (const RoleConfig *config = m_rig->roleConfig(MeterRole::SecondaryCurrent))
+            reading.uCurrentA = config->standardUncertainty(currentA);
+        if (const RoleConfig *config = m_rig->roleConfig(MeterRole::SecondaryVoltage))
+            reading.uVoltageV = config->standardUncertainty(voltageV);
+    } else {
+        reading.flags |= flagManual;
+    }
+    if (m_options.simulated)
+        reading.flags |= flagSimulated;
+    return reading;
+}
+
+double SweepController::expectedVoltage() const
+{
+    return m_plan.steps[m_stepIndex].predictedVoltageV;
+}
+
+void SweepController::acceptPoint(Reading reading)
+{
+    cancelTimers();
+    ++m_readSerial;
+    if (m_fit) {
+        if (auto band = m_fit->predict(reading.currentA, m_options.predictionLevel)) {
+            if (reading.voltageV < band->lowV || reading.voltageV > band->highV) {
+                reading.flags |= flagOutsidePrediction;
+                emit notice(tr("step %1: %2 V is far outside the expected %3 .. %4 V (wrong range, loose lead?)")
+                                .arg(m_step)
+                                .arg(sig3(reading.voltageV), sig3(band->lowV), sig3(band->highV)));
+            }
+        }
+    }
+    if (commitAndReport(reading))
+        nextStep();
+}
+
+bool SweepController::commitAndReport(Reading reading)
+{
+    if (m_sink) {
+        const CommitResult result = m_sink->commitReading(reading);
+        if (!result.ok) {
+            m_uncommitted = reading;
+            m_pauseReason = tr("could not record the point of step %1: %2. Every point recorded so far is kept; "
+                               "resume to try again")
+                                .arg(m_step)
+                                .arg(result.error);
+            setState(SweepState::Paused);
+            emit paused(m_pauseReason);
+            return false;
+        }
+        reading.id = result.id;
+    }
+    m_uncommitted.reset();
+    ++m_recorded;
+    if (m_fit && !(reading.flags & (flagOverload | flagNotANumber)))
+        m_fit->addPoint(reading.currentA, reading.voltageV);
+    emit pointRecorded(reading, m_fit ? m_fit->snapshot() : LiveFitSnapshot{});
+    return true;
+}
+
+void SweepController::tripSafety(const SafetyTrip &trip, Reading reading)
+{
+    cancelTimers();
+    ++m_readSerial;
+    std::int64_t id = 0;
+    if (m_sink) {
+        const CommitResult committed = m_sink->commitReading(reading);
+        if (committed.ok) {
+            id = committed.id;
+            reading.id = id;
+            m_sink->excludeReading(id, tr("reading that tripped the safety stop (%1)")
+                                           .arg(QString::fromStdString(toString(trip.limit))));
+        } else {
+            emit notice(tr("could not record the reading that tripped the stop: %1").arg(committed.error));
+        }
+        const CommitResult stop = m_sink->recordSafetyStop(trip, id, m_step, QString::fromStdString(reading.timeUtc));
+        if (!stop.ok)
+            emit notice(tr("could not record the safety stop: %1").arg(stop.error));
+    }
+    openLoad();
+    emit safetyStop(trip, reading);
+    finish(SweepOutcome::SafetyStop);
+}
+
+void SweepController::nextStep()
+{
+    ++m_stepIndex;
+    m_loadConfirmed = false;
+    if (m_stepIndex >= static_cast<int>(m_plan.steps.size())) {
+        m_stepIndex = static_cast<int>(m_plan.steps.size()) - 1;
+        openLoad();
+        finish(SweepOutcome::Completed);
+        return;
+    }
+    beginStep();
+}
+
+void SweepController::openLoad()
+{
+    if (!m_rig || !m_rig->load())
+        return;
+    m_rig->load()->setLoad(std::nullopt, this, [this](bool ok, const QString &error) {
+        if (!ok)
+            emit notice(tr("could not switch the load off: %1; switch it off by hand").arg(error));
+    });
+}
+
+void SweepController::finish(SweepOutcome outcome)
+{
+    cancelTimers();
+    ++m_readSerial;
+    event(tr("sweep ended: %1 (%2 points recorded)").arg(toString(outcome)).arg(m_recorded));
+    setState(outcome == SweepOutcome::Completed ? SweepState::Finished : SweepState::Stopped);
+    emit finished(outcome);
+}
+
+QString SweepController::submitManualReading(const QString &voltageText, const QString &currentText)
+{
+    if (m_rig)
+        return tr("this sweep reads its meters; typed-in readings are for sweeps without instruments");
+    if (m_state != SweepState::WaitingForEntry)
+        return tr("not waiting for a reading (the sweep is %1)").arg(toString(m_state));
+    const ManualValue voltage = parseManualValue(MeterRole::SecondaryVoltage, voltageText);
+    const ManualValue current = parseManualValue(MeterRole::SecondaryCurrent, currentText);
+    QStringList errors;
+    if (!voltage.ok)
+        errors << voltage.error;
+    if (!current.ok)
+        errors << current.error;
+    if (!errors.isEmpty())
+        return errors.join(QStringLiteral("; "));
+    Reading reading = makeReading(current.value, voltage.value);
+    reading.rawText = QStringLiteral("typed: V '%1'; I '%2'").arg(voltageText.trimmed(), currentText.trimmed()).toStdString();
+    SafetyPoint point;
+    point.currentA = current.value;
+    point.voltageV = voltage.value;
+    point.expectedVoltageV = expectedVoltage();
+    if (auto trip = checkSafety(m_options.limits, point)) {
+        tripSafety(*trip, reading);
+        return {};
+    }
+    acceptPoint(reading);
+    return {};
+}
+
+void SweepController::pause()
+{
+    if (m_state == SweepState::Idle || m_state == SweepState::Finished || m_state == SweepState::Stopped)
+        return;
+    m_operatorPaused = true;
+    cancelTimers();
+    ++m_readSerial;
+    m_pauseReason = tr("paused by the operator");
+    setState(SweepState::Paused);
+    event(tr("paused by the operator at step %1").arg(m_step));
+    emit paused(m_pauseReason);
+}
+
+void SweepController::resume()
+{
+    if (m_state != SweepState::Paused)
+        return;
+    if (m_linkDown) {
+        emit notice(tr("still waiting for the instruments: %1").arg(m_pauseReason));
+        return;
+    }
+    m_operatorPaused = false;
+    if (m_uncommitted) {
+        Reading reading = *m_uncommitted;
+        if (commitAndReport(reading))
+            nextStep();
+        return;
+    }
+    event(tr("resumed at step %1").arg(m_step));
+    beginStep();
+}
+
+void SweepController::stop()
+{
+    if (m_state == SweepState::Idle || m_state == SweepState::Finished || m_state == SweepState::Stopped)
+        return;
+    openLoad();
+    event(tr("stopped by the operator at step %1").arg(m_step));
+    finish(SweepOutcome::StoppedByOperator);
+}
+
+void SweepController::handleRigLost(const QString &message)
+{
+    if (m_state == SweepState::Idle || m_state == SweepState::Finished || m_state == SweepState::Stopped) {
+        emit notice(message);
+        return;
+    }
+    m_linkDown = true;
+    cancelTimers();
+    ++m_readSerial;
+    m_pauseReason = tr("link lost at step %1: %2. Recorded points are kept; the sweep resumes at this step when the "
+                       "link is back")
+                        .arg(m_step)
+                        .arg(message);
+    setState(SweepState::Paused);
+    event(m_pauseReason);
+    emit linkLost(m_pauseReason);
+    emit paused(m_pauseReason);
+}
+
+void SweepController::handleRigRestored(const QString &message)
+{
+    if (!m_linkDown)
+        return;
+    m_linkDown = false;
+    event(tr("link restored: %1").arg(message));
+    emit linkRestored(message);
+    if (m_state != SweepState::Paused || m_operatorPaused)
+        return;
+    if (m_uncommitted) {
+        Reading reading = *m_uncommitted;
+        if (commitAndReport(reading))
+            nextStep();
+        return;
+    }
+    beginStep();
+}
+
+} // namespace sagline

@@ -1,0 +1,155 @@
+// Runs a planned load sweep step by step, headless, for the desktop app and the CLI alike.
+//
+// At each step it says what to set ("set the load to about 82 Ω; expect about 11.9 V and
+// 145 mA"), sets a programmable load or waits for the operator to confirm, waits the dwell,
+// then reads the secondary voltmeter and ammeter repeatedly until k consecutive pairs agree
+// (stable) or the maximum time passes (unstable). A pair counts only if V and I were taken
+// within the pairing window. Every reading is checked against the hard limits; a tripped limit
+// records the reading and a safety stop, opens the load and ends the sweep. The accepted point
+// is checked against the live fit's prediction interval (far outside: flagged), committed to
+// the session store, and only then reported as recorded and added to the fit. A lost link
+// pauses the sweep, keeps every recorded point, and resumes at the same step once all meters
+// are back. Without meters (manual entry) each step waits for typed-in values instead.
+// Time comes from an injected Clock so tests and simulated sweeps do not sleep.
+#pragma once
+
+#include "Clock.h"
+#include "LiveFit.h"
+#include "ManualEntry.h"
+#include "Planner.h"
+#include "PointSink.h"
+#include "Reading.h"
+#include "SafetyLimits.h"
+#include "StabilityRule.h"
+
+#include <QMetaType>
+#include <QObject>
+#include <QPointer>
+#include <QString>
+
+#include <optional>
+
+namespace sagline {
+
+class InstrumentRig;
+struct MeterValue;
+
+struct SweepOptions {
+    std::int64_t dwellMs = 10000;       // wait after the load is set, before reading
+    std::int64_t readIntervalMs = 500;  // between repeated readings of one step
+    std::int64_t pairWindowMs = 1000;   // V and I of one pair must be taken within this
+    StabilityRule stability;            // k readings agreeing within a tolerance, or a maximum time
+    double predictionLevel = 0.99;      // flag a point outside the fit's prediction interval at this level
+    SafetyLimits limits;                // usually safetyLimitsFor(plan)
+    int firstStep = 0;                  // to continue an interrupted sweep
+    bool simulated = false;             // readings come from the virtual bench (flagged so)
+};
+
+// Options for a plan with the setup's dwell and the plan's limits.
+SweepOptions sweepOptionsFor(const Setup &setup, const Plan &plan);
+
+enum class SweepState {
+    Idle,
+    SettingLoad,       // programmable load being set
+    WaitingForLoad,    // the operator must set the load and confirm (confirmLoadSet)
+    Settling,          // dwell
+    Measuring,         // reading the meters
+    WaitingForEntry,   // manual entry: waiting for submitManualReading
+    Paused,            // link lost, commit failed, or paused by the operator
+    Finished,          // every step recorded
+    Stopped,           // safety stop, or stopped by the operator
+};
+QString toString(SweepState state);
+
+enum class SweepOutcome { Completed, SafetyStop, StoppedByOperator, Failed };
+QString toString(SweepOutcome outcome);
+
+class SweepController : public QObject {
+    Q_OBJECT
+public:
+    // `rig` null = manual entry. None of the pointers is owned; all must outlive the controller.
+    SweepController(const Plan &plan, const SweepOptions &options, InstrumentRig *rig, PointSink *sink,
+                    LiveFit *fit, Clock *clock, QObject *parent = nullptr);
+    ~SweepController() override;
+
+    void start();            // from options.firstStep; the rig must be connected (isReady)
+    void confirmLoadSet();   // the operator has set the load for the current step
+    // Manual entry: validated against the roles ("13,8 V", "145 mA"); returns the refusal, or
+    // an empty string when the reading was taken (it is then checked, committed and reported).
+    QString submitManualReading(const QString &voltageText, const QString &currentText);
+    void pause();            // by the operator; the current step restarts on resume()
+    void resume();           // after pause(), or to retry a failed commit
+    void stop();             // by the operator: opens a programmable load, records the event
+
+    SweepState state() const { return m_state; }
+    int currentStep() const { return m_step; }       // plan step index
+    int stepCount() const;
+    bool isManual() const { return m_rig == nullptr; }
+    bool hasProgrammableLoad() const;
+    const Plan &plan() const { return m_plan; }
+    const SweepOptions &options() const { return m_options; }
+    QString instruction(int step) const;             // the text stepStarted carries
+    int recordedCount() const { return m_recorded; }
+    QString pauseReason() const { return m_pauseReason; }
+
+signals:
+    void stateChanged(sagline::SweepState state);
+    void stepStarted(int step, const QString &instruction);
+    void pointRecorded(const sagline::Reading &reading, const sagline::LiveFitSnapshot &fit);
+    void safetyStop(const sagline::SafetyTrip &trip, const sagline::Reading &reading);
+    void linkLost(const QString &message);
+    void linkRestored(const QString &message);
+    void notice(const QString &message);             // instrument errors, unreadable replies, flagged points
+    void paused(const QString &reason);
+    void finished(sagline::SweepOutcome outcome);
+
+private:
+    struct PendingRead;
+    void setState(SweepState state);
+    void beginStep();
+    void loadReady();
+    void startMeasuring();
+    void readPair();
+    void handlePair(const MeterValue &voltage, std::int64_t voltageMs, const MeterValue &current,
+                    std::int64_t currentMs);
+    void scheduleRead();
+    void acceptPoint(Reading reading);
+    bool commitAndReport(Reading reading);
+    void tripSafety(const SafetyTrip &trip, Reading reading);
+    void nextStep();
+    void finish(SweepOutcome outcome);
+    void cancelTimers();
+    void openLoad();
+    void handleRigLost(const QString &message);
+    void handleRigRestored(const QString &message);
+    void event(const QString &text);
+    Reading makeReading(double currentA, double voltageV) const;
+    double expectedVoltage() const;
+
+    Plan m_plan;
+    SweepOptions m_options;
+    InstrumentRig *m_rig;
+    PointSink *m_sink;
+    LiveFit *m_fit;
+    Clock *m_clock;
+    StabilityTracker m_tracker;
+    SweepState m_state = SweepState::Idle;
+    int m_stepIndex = 0;      // index into m_plan.steps
+    int m_step = 0;           // m_plan.steps[m_stepIndex].index
+    int m_recorded = 0;
+    int m_timer = 0;          // pending clock callback, 0 if none
+    int m_readSerial = 0;     // bumps to drop replies of an abandoned read
+    bool m_loadConfirmed = false;
+    bool m_linkDown = false;
+    bool m_operatorPaused = false;
+    std::optional<Reading> m_uncommitted; // a reading whose commit failed; retried on resume()
+    std::optional<std::pair<double, double>> m_lastPair; // (V, I) of the last good read
+    QString m_lastRaw;
+    QString m_pauseReason;
+};
+
+} // namespace sagline
+
+Q_DECLARE_METATYPE(sagline::Reading)
+Q_DECLARE_METATYPE(sagline::LiveFitSnapshot)
+Q_DECLARE_METATYPE(sagline::SafetyTrip)
