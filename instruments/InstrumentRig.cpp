@@ -124,11 +124,11 @@ void InstrumentRig::checkAllReady(bool restoring, const QString &message)
     }
 }
 
-QList<InstrumentRecord> InstrumentRig::records() const
+QList<InstrumentIdentityRecord> InstrumentRig::records() const
 {
-    QList<InstrumentRecord> records;
+    QList<InstrumentIdentityRecord> records;
     for (ScpiInstrument *instrument : allInstruments()) {
-        InstrumentRecord record;
+        InstrumentIdentityRecord record;
         QStringList keys;
         QStringList accuracy;
         for (const RoleConfig &role : instrument->roles()) {

@@ -33,7 +33,7 @@ public:
     void connectAll();    // emits ready() once every instrument is, or connectFailed()
     void disconnectAll();
     bool isReady() const;
-    QList<InstrumentRecord> records() const; // for the session
+    QList<InstrumentIdentityRecord> records() const; // for the session
 
 signals:
     void ready();

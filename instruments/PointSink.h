@@ -18,7 +18,7 @@ struct CommitResult {
     QString error;       // when !ok: what failed (disk full, file gone...)
 };
 
-struct InstrumentRecord {
+struct InstrumentIdentityRecord {
     QString roleKeys;     // "secondary_voltage,secondary_current"
     QString identity;     // the *IDN? reply, four fields
     QString address;      // link description
@@ -31,7 +31,7 @@ public:
     virtual CommitResult commitReading(const Reading &reading) = 0;
     virtual CommitResult recordSafetyStop(const SafetyTrip &trip, std::int64_t readingId, int step,
                                           const QString &timeUtc) = 0;
-    virtual CommitResult recordInstrument(const InstrumentRecord &instrument) = 0;
+    virtual CommitResult recordInstrument(const InstrumentIdentityRecord &instrument) = 0;
     // A reading kept in the session but left out of fits (e.g. the one that tripped a safety stop).
     virtual CommitResult excludeReading(std::int64_t readingId, const QString &reason) = 0;
     // Link lost/restored, instrument errors, operator stop: kept with the session as notes.

@@ -168,7 +168,7 @@ void SweepController::start()
         return;
     }
     if (m_rig && m_sink) {
-        for (const InstrumentRecord &record : m_rig->records()) {
+        for (const InstrumentIdentityRecord &record : m_rig->records()) {
             const CommitResult result = m_sink->recordInstrument(record);
             if (!result.ok)
                 emit notice(tr("could not record the instrument %1: %2").arg(record.identity, result.error));
