@@ -1,0 +1,326 @@
+#include "CsvReadings.h"
+
+#include <charconv>
+#include <cmath>
+#include <fstream>
+#include <optional>
+#include <sstream>
+
+namespace sagline {
+
+namespace {
+
+constexpr std::size_t maxErrors = 100;
+
+enum class Column { Current, Voltage, UCurrent, UVoltage, Step, Time, Flags, Excluded };
+
+struct KnownColumn {
+    std::string_view name;
+    Column column;
+};
+
+constexpr KnownColumn knownColumns[] = {
+    {"current_a", Column::Current}, {"voltage_v", Column::Voltage}, {"u_current_a", Column::UCurrent},
+    {"u_voltage_v", Column::UVoltage}, {"step", Column::Step}, {"time_utc", Column::Time},
+    {"flags", Column::Flags}, {"excluded", Column::Excluded},
+};
+
+std::string_view trim(std::string_view s)
+{
+    const auto isSpace = [](char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\n'; };
+    while (!s.empty() && isSpace(s.front()))
+        s.remove_prefix(1);
+    while (!s.empty() && isSpace(s.back()))
+        s.remove_suffix(1);
+    return s;
+}
+
+// Splits one line on commas; a cell may be double-quoted ("" is a literal quote).
+// Returns false for an unterminated quote.
+bool splitCells(std::string_view line, std::vector<std::string> &cells)
+{
+    cells.clear();
+    std::string cell;
+    bool quoted = false;
+    bool wasQuoted = false;
+    for (std::size_t i = 0; i < line.size(); ++i) {
+        const char c = line[i];
+        if (quoted) {
+            if (c == '"' && i + 1 < line.size() && line[i + 1] == '"') {
+                cell += '"';
+                ++i;
+            } else if (c == '"') {
+                quoted = false;
+            } else {
+                cell += c;
+            }
+        } else if (c == '"' && trim(cell).empty() && !wasQuoted) {
+            cell.clear();
+            quoted = true;
+            wasQuoted = true;
+        } else if (c == ',') {
+            cells.push_back(wasQuoted ? cell : std::string(trim(cell)));
+            cell.clear();
+            wasQuoted = false;
+        } else if (!wasQuoted || c != ' ') {
+            cell += c;
+        }
+    }
+    if (quoted)
+        return false;
+    cells.push_back(wasQuoted ? cell : std::string(trim(cell)));
+    return true;
+}
+
+std::optional<double> parseNumber(std::string_view text)
+{
+    if (!text.empty() && text.front() == '+')
+        text.remove_prefix(1);
+    if (text.empty() || text.front() == '+')
+        return std::nullopt;
+    double value = 0.0;
+    const auto [end, error] = std::from_chars(text.data(), text.data() + text.size(), value);
+    if (error != std::errc() || end != text.data() + text.size() || !std::isfinite(value))
+        return std::nullopt;
+    return value;
+}
+
+std::optional<std::uint32_t> parseFlags(std::string_view text)
+{
+    std::uint32_t flags = flagNone;
+    while (!text.empty()) {
+        const std::size_t bar = text.find('|');
+        const std::string_view name = trim(text.substr(0, bar));
+        bool found = false;
+        for (int bit = 0; bit < 32 && !found; ++bit) {
+            const std::uint32_t value = 1u << bit;
+            if (!name.empty() && flagsToString(value) == name) {
+                flags |= value;
+                found = true;
+            }
+        }
+        if (!found)
+            return std::nullopt;
+        text = bar == std::string_view::npos ? std::string_view() : text.substr(bar + 1);
+    }
+    return flags;
+}
+
+std::optional<bool> parseBool(std::string_view text)
+{
+    if (text == "true" || text == "1" || text == "yes")
+        return true;
+    if (text == "false" || text == "0" || text == "no" || text.empty())
+        return false;
+    return std::nullopt;
+}
+
+class Parser {
+public:
+    ReadingsCsvParse run(std::string_view text);
+
+private:
+    void error(int line, std::string_view column, std::string rule)
+    {
+        if (m_result.errors.size() < maxErrors)
+            m_result.errors.push_back({"line " + std::to_string(line) + (column.empty() ? "" : ", column " + std::string(column)),
+                                       std::move(rule)});
+    }
+    bool parseHeader(int line, const std::vector<std::string> &cells);
+    void parseRow(int line, const std::vector<std::string> &cells);
+
+    ReadingsCsvParse m_result;
+    std::vector<Column> m_columns;
+    std::vector<std::string> m_names;
+};
+
+bool Parser::parseHeader(int line, const std::vector<std::string> &cells)
+{
+    bool good = true;
+    for (const std::string &cell : cells) {
+        const KnownColumn *match = nullptr;
+        for (const auto &known : knownColumns)
+            if (known.name == cell)
+                match = &known;
+        if (!match) {
+            error(line, cell, "unknown column; expected current_a, voltage_v, u_current_a, u_voltage_v, step, "
+                              "time_utc, flags or excluded");
+            good = false;
+            continue;
+        }
+        for (const auto &name : m_names)
+            if (name == cell) {
+                error(line, cell, "column appears twice");
+                good = false;
+            }
+        m_columns.push_back(match->column);
+        m_names.push_back(cell);
+    }
+    for (const char *required : {"current_a", "voltage_v"}) {
+        bool present = false;
+        for (const auto &name : m_names)
+            present = present || name == required;
+        if (!present) {
+            error(line, required, "required column missing from the header (needs current_a,voltage_v)");
+            good = false;
+        }
+    }
+    for (Column c : m_columns) {
+        m_result.hasCurrentUncertainty = m_result.hasCurrentUncertainty || c == Column::UCurrent;
+        m_result.hasVoltageUncertainty = m_result.hasVoltageUncertainty || c == Column::UVoltage;
+    }
+    return good;
+}
+
+void Parser::parseRow(int line, const std::vector<std::string> &cells)
+{
+    if (cells.size() != m_columns.size()) {
+        error(line, "", "has " + std::to_string(cells.size()) + " cells, the header has " + std::to_string(m_columns.size()));
+        return;
+    }
+    Reading reading;
+    bool good = true;
+    for (std::size_t i = 0; i < cells.size(); ++i) {
+        const std::string &cell = cells[i];
+        const std::string &name = m_names[i];
+        switch (m_columns[i]) {
+        case Column::Current:
+        case Column::Voltage: {
+            const auto value = parseNumber(cell);
+            if (cell.empty()) {
+                error(line, name, "is empty; a number is required");
+                good = false;
+            } else if (!value) {
+                error(line, name, "not a finite number: '" + cell + "' (use '.' as the decimal point, SI units)");
+                good = false;
+            } else if (*value < 0.0) {
+                error(line, name, "must be zero or above (an RMS value), got " + cell);
+                good = false;
+            } else {
+                (m_columns[i] == Column::Current ? reading.currentA : reading.voltageV) = *value;
+            }
+            break;
+        }
+        case Column::UCurrent:
+        case Column::UVoltage: {
+            if (cell.empty())
+                break;
+            const auto value = parseNumber(cell);
+            if (!value) {
+                error(line, name, "not a finite number: '" + cell + "'");
+                good = false;
+            } else if (!(*value > 0.0)) {
+                error(line, name, "a standard uncertainty must be above zero, got " + cell);
+                good = false;
+            } else {
+                (m_columns[i] == Column::UCurrent ? reading.uCurrentA : reading.uVoltageV) = *value;
+            }
+            break;
+        }
+        case Column::Step: {
+            if (cell.empty())
+                break;
+            int step = -1;
+            const auto [end, ec] = std::from_chars(cell.data(), cell.data() + cell.size(), step);
+            if (ec != std::errc() || end != cell.data() + cell.size() || step < 0) {
+                error(line, name, "must be a whole number of 0 or more, got '" + cell + "'");
+                good = false;
+            } else {
+                reading.step = step;
+            }
+            break;
+        }
+        case Column::Time: reading.timeUtc = cell; break;
+        case Column::Flags: {
+            const auto flags = parseFlags(cell);
+            if (!flags) {
+                error(line, name, "unknown flag in '" + cell + "'; flags are names joined by '|', e.g. unstable|outlier");
+                good = false;
+            } else {
+                reading.flags = *flags;
+            }
+            break;
+        }
+        case Column::Excluded: {
+            const auto excluded = parseBool(cell);
+            if (!excluded) {
+                error(line, name, "must be true or false, got '" + cell + "'");
+                good = false;
+            } else {
+                reading.excluded = *excluded;
+            }
+            break;
+        }
+        }
+    }
+    if (good) {
+        m_result.readings.push_back(std::move(reading));
+        m_result.lineNumbers.push_back(line);
+    }
+}
+
+ReadingsCsvParse Parser::run(std::string_view text)
+{
+    if (text.substr(0, 3) == "\xEF\xBB\xBF")
+        text.remove_prefix(3);
+    bool haveHeader = false;
+    bool headerGood = false;
+    int lineNumber = 0;
+    std::vector<std::string> cells;
+    while (!text.empty()) {
+        const std::size_t end = text.find('\n');
+        std::string_view line = text.substr(0, end);
+        text = end == std::string_view::npos ? std::string_view() : text.substr(end + 1);
+        ++lineNumber;
+        if (trim(line).empty())
+            continue;
+        if (!splitCells(line, cells)) {
+            error(lineNumber, "", "a double quote is not closed");
+            continue;
+        }
+        if (!haveHeader) {
+            haveHeader = true;
+            headerGood = parseHeader(lineNumber, cells);
+            if (!headerGood)
+                break;
+            continue;
+        }
+        parseRow(lineNumber, cells);
+    }
+    if (!haveHeader)
+        m_result.errors.push_back({"file", "is empty; expected a header row current_a,voltage_v"});
+    else if (headerGood && m_result.readings.empty() && m_result.errors.empty())
+        m_result.errors.push_back({"file", "has a header but no readings"});
+    if (!m_result.errors.empty()) {
+        m_result.readings.clear();
+        m_result.lineNumbers.clear();
+    }
+    return std::move(m_result);
+}
+
+} // namespace
+
+ReadingsCsvParse parseReadingsCsv(std::string_view text)
+{
+    return Parser().run(text);
+}
+
+ReadingsCsvParse loadReadingsCsv(const std::string &path)
+{
+    std::ifstream in(path, std::ios::binary);
+    if (!in) {
+        ReadingsCsvParse result;
+        result.errors.push_back({"file", "cannot open '" + path + "' for reading"});
+        return result;
+    }
+    std::ostringstream buffer;
+    buffer << in.rdbuf();
+    if (in.bad()) {
+        ReadingsCsvParse result;
+        result.errors.push_back({"file", "read error on '" + path + "'"});
+        return result;
+    }
+    return parseReadingsCsv(buffer.str());
+}
+
+} // namespace sagline

@@ -1,0 +1,35 @@
+// The readings CSV of DESIGN.md: a header row, then one point per line, comma separated,
+// '.' decimal point, SI units. Columns (any order): current_a, voltage_v (required),
+// u_current_a, u_voltage_v (optional standard uncertainties; a blank cell means "not known"),
+// and the export's step, time_utc, flags, excluded (optional). Tolerates a UTF-8 BOM, CRLF line
+// ends, blank lines, spaces around cells and double-quoted cells. Never throws.
+#pragma once
+
+#include "FieldError.h"
+#include "Reading.h"
+
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace sagline {
+
+struct ReadingsCsvParse {
+    std::vector<Reading> readings; // one per data line, in file order (empty if errors)
+    std::vector<int> lineNumbers;  // the 1-based file line of each reading, parallel to readings
+    bool hasCurrentUncertainty = false; // the u_current_a column is present
+    bool hasVoltageUncertainty = false; // the u_voltage_v column is present
+    FieldErrors errors;            // each names "line N, column NAME" (or "file") and the rule
+
+    bool ok() const { return errors.empty(); }
+};
+
+// Parses CSV text. Rules per cell: current_a and voltage_v finite and >= 0 (RMS values);
+// u_* finite and > 0 or blank; step an integer >= 0 or blank; flags names joined by '|'
+// (see flagsToString); excluded true/false/1/0/yes/no or blank. At most 100 errors are listed.
+ReadingsCsvParse parseReadingsCsv(std::string_view text);
+
+// Reads the file, then parses it; an unreadable file is an error on the field "file".
+ReadingsCsvParse loadReadingsCsv(const std::string &path);
+
+} // namespace sagline

@@ -1,0 +1,331 @@
+#include "FitSummary.h"
+
+#include "Distributions.h"
+#include "CurvatureCheck.h"
+#include "YorkFit.h"
+
+#include <algorithm>
+#include <cmath>
+
+namespace sagline {
+
+namespace {
+
+// The rows that enter the fit, with their values and weights (1, 1/u(V)², or York's W_i).
+struct FitInput {
+    std::vector<std::size_t> rows;
+    std::vector<double> x, y, sx, sy;
+    std::vector<double> weights;
+};
+
+bool isFitted(const Reading &reading)
+{
+    return !reading.excluded && !(reading.flags & (flagOverload | flagNotANumber));
+}
+
+FitSummary failure(FitSummary summary, FitStatus status, std::string message)
+{
+    summary.status = status;
+    summary.message = std::move(message);
+    return summary;
+}
+
+std::string rowName(std::size_t row)
+{
+    return "row " + std::to_string(row);
+}
+
+// Checks the values and uncertainties the method needs; empty string when all is well.
+FitStatus gatherInput(const std::vector<Reading> &readings, FitMethod method, FitInput &input, std::string &message)
+{
+    for (std::size_t row = 0; row < readings.size(); ++row) {
+        const Reading &reading = readings[row];
+        if (!isFitted(reading))
+            continue;
+        if (!std::isfinite(reading.currentA) || !std::isfinite(reading.voltageV)) {
+            message = rowName(row) + ": the current or the voltage is not a finite number";
+            return FitStatus::NonFiniteValue;
+        }
+        const bool needU = method != FitMethod::Ols;
+        const bool needUI = method == FitMethod::York;
+        if (needU && !reading.uVoltageV) {
+            message = rowName(row) + ": method " + toString(method) + " needs the voltage uncertainty u_voltage_v";
+            return FitStatus::MissingUncertainty;
+        }
+        if (needUI && !reading.uCurrentA) {
+            message = rowName(row) + ": method york needs the current uncertainty u_current_a";
+            return FitStatus::MissingUncertainty;
+        }
+        const double uV = reading.uVoltageV.value_or(1.0);
+        const double uI = reading.uCurrentA.value_or(1.0);
+        if ((needU && !std::isfinite(uV)) || (needUI && !std::isfinite(uI))) {
+            message = rowName(row) + ": an uncertainty is not a finite number";
+            return FitStatus::NonFiniteValue;
+        }
+        if ((needU && !(uV > 0.0)) || (needUI && !(uI > 0.0))) {
+            message = rowName(row) + ": a standard uncertainty must be above zero";
+            return FitStatus::InvalidUncertainty;
+        }
+        input.rows.push_back(row);
+        input.x.push_back(reading.currentA);
+        input.y.push_back(reading.voltageV);
+        input.sx.push_back(uI);
+        input.sy.push_back(uV);
+        input.weights.push_back(method == FitMethod::Wls ? 1.0 / (uV * uV) : 1.0);
+    }
+    return FitStatus::Ok;
+}
+
+// Two-pass weighted line: means first, then centred sums (the accurate batch form).
+LineFitResult batchLine(const FitInput &input, bool absoluteWeights)
+{
+    LineFit probe; // for the degenerate checks and the status texts
+    double sumW = 0.0, meanX = 0.0, meanY = 0.0;
+    for (std::size_t i = 0; i < input.x.size(); ++i) {
+        sumW += input.weights[i];
+        meanX += input.weights[i] * input.x[i];
+        meanY += input.weights[i] * input.y[i];
+        probe.add(input.x[i], input.y[i], input.weights[i]);
+    }
+    LineFitResult r = absoluteWeights ? probe.weightedResult() : probe.result();
+    if (!r.ok())
+        return r;
+    meanX /= sumW;
+    meanY /= sumW;
+    double sxx = 0.0, sxy = 0.0;
+    for (std::size_t i = 0; i < input.x.size(); ++i) {
+        const double dx = input.x[i] - meanX;
+        sxx += input.weights[i] * dx * dx;
+        sxy += input.weights[i] * dx * (input.y[i] - meanY);
+    }
+    r.slope = sxy / sxx;
+    r.intercept = meanY - r.slope * meanX;
+    r.meanX = meanX;
+    r.meanY = meanY;
+    r.sxx = sxx;
+    double ssr = 0.0, sst = 0.0;
+    for (std::size_t i = 0; i < input.x.size(); ++i) {
+        const double e = input.y[i] - r.intercept - r.slope * input.x[i];
+        const double dy = input.y[i] - meanY;
+        ssr += input.weights[i] * e * e;
+        sst += input.weights[i] * dy * dy;
+    }
+    r.rSquared.reset();
+    if (sst > 0.0)
+        r.rSquared = std::clamp(1.0 - ssr / sst, 0.0, 1.0);
+    const std::size_t n = input.x.size();
+    if (absoluteWeights) {
+        r.slopeSe = std::sqrt(1.0 / sxx);
+        r.interceptSe = std::sqrt(1.0 / sumW + meanX * meanX / sxx);
+        r.covariance = -meanX / sxx;
+    } else if (n >= 3) {
+        const double s2 = ssr / static_cast<double>(n - 2);
+        r.residualSd = std::sqrt(s2);
+        r.slopeSe = std::sqrt(s2 / sxx);
+        r.interceptSe = std::sqrt(s2 * (1.0 / sumW + meanX * meanX / sxx));
+        r.covariance = -meanX * s2 / sxx;
+    }
+    return r;
+}
+
+// Externally studentized residuals with weights w (hat values of the weighted line fit).
+void studentize(FitSummary &summary, const FitInput &input, const FitOptions &options)
+{
+    const std::size_t n = input.x.size();
+    if (n < 4)
+        return;
+    double sumW = 0.0, meanX = 0.0, maxAbsY = 0.0;
+    for (std::size_t i = 0; i < n; ++i) {
+        sumW += input.weights[i];
+        meanX += input.weights[i] * input.x[i];
+        maxAbsY = std::max(maxAbsY, std::fabs(input.y[i]));
+    }
+    meanX /= sumW;
+    double sxx = 0.0, ssr = 0.0, plain = 0.0;
+    for (std::size_t i = 0; i < n; ++i) {
+        const double e = summary.points[input.rows[i]].residualV;
+        sxx += input.weights[i] * (input.x[i] - meanX) * (input.x[i] - meanX);
+        ssr += input.weights[i] * e * e;
+        plain += e * e;
+    }
+    // Residuals at rounding level (exact data): their ratios would be noise, flag nothing.
+    if (std::sqrt(plain / static_cast<double>(n)) <= 1e-12 * maxAbsY || !(sxx > 0.0))
+        return;
+    const double p = 2.0;
+    const double s2 = ssr / (static_cast<double>(n) - p);
+    for (std::size_t i = 0; i < n; ++i) {
+        PointFit &point = summary.points[input.rows[i]];
+        const double dx = input.x[i] - meanX;
+        const double leverage = input.weights[i] * (1.0 / sumW + dx * dx / sxx);
+        if (!(leverage < 1.0 - 1e-12))
+            continue; // the line passes through this point by construction
+        const double internal = std::sqrt(input.weights[i]) * point.residualV / std::sqrt(s2 * (1.0 - leverage));
+        const double rest = static_cast<double>(n) - p - internal * internal;
+        if (!(rest > 1e-12))
+            continue;
+        point.studentized = internal * std::sqrt((static_cast<double>(n) - p - 1.0) / rest);
+        point.outlier = std::fabs(*point.studentized) > options.outlierThreshold;
+        if (point.outlier)
+            summary.outlierRows.push_back(point.row);
+    }
+}
+
+} // namespace
+
+std::string toString(FitMethod method)
+{
+    switch (method) {
+    case FitMethod::Ols: return "ols";
+    case FitMethod::Wls: return "wls";
+    case FitMethod::York: return "york";
+    }
+    return "ols";
+}
+
+std::optional<FitMethod> fitMethodFromString(std::string_view text)
+{
+    for (FitMethod m : {FitMethod::Ols, FitMethod::Wls, FitMethod::York})
+        if (text == toString(m))
+            return m;
+    return std::nullopt;
+}
+
+std::optional<double> FitSummary::analysisSlopeSe() const
+{
+    if (!slopeSe)
+        return std::nullopt;
+    return *slopeSe * std::sqrt(std::max(1.0, mswd.value_or(1.0)));
+}
+
+std::optional<double> FitSummary::analysisInterceptSe() const
+{
+    if (!interceptSe)
+        return std::nullopt;
+    return *interceptSe * std::sqrt(std::max(1.0, mswd.value_or(1.0)));
+}
+
+std::optional<double> FitSummary::analysisCovariance() const
+{
+    if (!covariance)
+        return std::nullopt;
+    return *covariance * std::max(1.0, mswd.value_or(1.0));
+}
+
+FitSummary fitReadings(const std::vector<Reading> &readings, FitMethod method, const FitOptions &options)
+{
+    FitSummary summary;
+    summary.method = method;
+    summary.confidence = options.confidence;
+    FitInput input;
+    std::string message;
+    const FitStatus inputStatus = gatherInput(readings, method, input, message);
+    if (inputStatus != FitStatus::Ok)
+        return failure(std::move(summary), inputStatus, std::move(message));
+    const std::size_t n = input.x.size();
+    summary.n = n;
+    summary.degreesOfFreedom = n >= 2 ? static_cast<int>(n) - 2 : 0;
+    if (n < 2)
+        return failure(std::move(summary), FitStatus::TooFewPoints,
+                       "a line needs at least 2 fitted readings, got " + std::to_string(n)
+                           + (readings.size() > n ? " (the others are excluded or flagged)" : ""));
+
+    if (method == FitMethod::York) {
+        YorkOptions york;
+        york.maxIterations = options.yorkMaxIterations;
+        york.tolerance = options.yorkTolerance;
+        const YorkFitResult r = yorkFit(input.x, input.y, input.sx, input.sy, {}, york);
+        if (!r.ok())
+            return failure(std::move(summary), r.status, r.message);
+        summary.slope = r.slope;
+        summary.intercept = r.intercept;
+        summary.slopeSe = r.slopeSe;
+        summary.interceptSe = r.interceptSe;
+        summary.covariance = r.covariance;
+        summary.iterations = r.iterations;
+        input.weights = r.weights;
+        if (n >= 3)
+            summary.chiSquared = r.chiSquared;
+    } else {
+        const LineFitResult r = batchLine(input, method == FitMethod::Wls);
+        if (!r.ok())
+            return failure(std::move(summary), r.status, r.message);
+        summary.slope = r.slope;
+        summary.intercept = r.intercept;
+        summary.slopeSe = r.slopeSe;
+        summary.interceptSe = r.interceptSe;
+        summary.covariance = r.covariance;
+    }
+    summary.status = FitStatus::Ok;
+
+    // Residuals of every row; sums over the fitted ones.
+    summary.points.resize(readings.size());
+    for (std::size_t row = 0; row < readings.size(); ++row) {
+        PointFit &point = summary.points[row];
+        point.row = row;
+        const Reading &reading = readings[row];
+        if (std::isfinite(reading.currentA) && std::isfinite(reading.voltageV))
+            point.residualV = reading.voltageV - summary.intercept - summary.slope * reading.currentA;
+    }
+    double sumW = 0.0, meanY = 0.0, ssrPlain = 0.0, ssrWeighted = 0.0, sst = 0.0;
+    for (std::size_t i = 0; i < n; ++i) {
+        summary.points[input.rows[i]].used = true;
+        sumW += input.weights[i];
+        meanY += input.weights[i] * input.y[i];
+    }
+    meanY /= sumW;
+    for (std::size_t i = 0; i < n; ++i) {
+        const double e = summary.points[input.rows[i]].residualV;
+        ssrPlain += e * e;
+        ssrWeighted += input.weights[i] * e * e;
+        sst += input.weights[i] * (input.y[i] - meanY) * (input.y[i] - meanY);
+    }
+    if (sst > 0.0)
+        summary.rSquared = std::clamp(1.0 - ssrWeighted / sst, 0.0, 1.0);
+    if (n >= 3) {
+        const double dof = static_cast<double>(n - 2);
+        summary.residualSdV = std::sqrt(ssrPlain / dof);
+        if (method != FitMethod::Ols) {
+            summary.chiSquared = method == FitMethod::Wls ? ssrWeighted : summary.chiSquared;
+            summary.mswd = *summary.chiSquared / dof;
+            summary.slopeSeScaled = *summary.slopeSe * std::sqrt(*summary.mswd);
+            summary.interceptSeScaled = *summary.interceptSe * std::sqrt(*summary.mswd);
+        }
+        const double t = studentTCoverageFactor(options.confidence, dof);
+        const double half = t * *summary.analysisSlopeSe();
+        const double r = summary.seriesResistanceOhm();
+        summary.seriesResistanceCi = Interval{r - half, r + half};
+    }
+    studentize(summary, input, options);
+
+    const QuadraticFitResult quadratic = fitQuadratic(input.x, input.y, input.weights);
+    if (quadratic.ok() && quadratic.curvatureP) {
+        summary.curvatureP = quadratic.curvatureP;
+        summary.curvatureCoefficient = quadratic.c2;
+    }
+    return summary;
+}
+
+LinePrediction predictVoltage(const FitSummary &summary, double currentA, std::optional<double> uNewReadingV)
+{
+    LinePrediction p;
+    if (!summary.ok() || !std::isfinite(currentA))
+        return p;
+    p.value = summary.intercept + summary.slope * currentA;
+    const auto varA = summary.analysisInterceptSe();
+    const auto varB = summary.analysisSlopeSe();
+    const auto cov = summary.analysisCovariance();
+    if (!varA || !varB || !cov || summary.degreesOfFreedom < 1)
+        return p;
+    const double lineVariance =
+        std::max(0.0, *varA * *varA + currentA * currentA * *varB * *varB + 2.0 * currentA * *cov);
+    const double newVariance = uNewReadingV ? *uNewReadingV * *uNewReadingV
+                                            : summary.residualSdV.value_or(0.0) * summary.residualSdV.value_or(0.0);
+    const double t = studentTCoverageFactor(summary.confidence, summary.degreesOfFreedom);
+    p.standardError = std::sqrt(lineVariance);
+    p.confidence = Interval{p.value - t * *p.standardError, p.value + t * *p.standardError};
+    const double halfNew = t * std::sqrt(lineVariance + newVariance);
+    p.prediction = Interval{p.value - halfNew, p.value + halfNew};
+    return p;
+}
+
+} // namespace sagline

@@ -1,0 +1,98 @@
+// The one batch fit of a session's readings that the UI, the report and the CLI all show:
+// V = V0 - R·I by ordinary least squares, weighted least squares (per-point u(V)) or York (2004)
+// with uncertainties in both I and V; residuals, externally studentized residuals and outlier
+// flags; the quadratic (curvature) check. Nobody recomputes a fit in their own layer.
+#pragma once
+
+#include "FitStatus.h"
+#include "LineFit.h"
+#include "Reading.h"
+
+#include <cstddef>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace sagline {
+
+enum class FitMethod {
+    Ols,  // ordinary least squares of V on I; standard errors from the residual scatter
+    Wls,  // weighted least squares, w = 1/u(V)²; standard errors from the weights (absolute)
+    York, // York et al. (2004), Am. J. Phys. 72(3) 367: errors in I and V; intrinsic standard errors
+};
+
+std::string toString(FitMethod method);                           // "ols", "wls", "york"
+std::optional<FitMethod> fitMethodFromString(std::string_view text); // inverse of toString
+
+struct FitOptions {
+    double outlierThreshold = 3.0;  // |studentized residual| above this flags an outlier
+    double confidence = 0.95;       // level of the interval of R and of predictions
+    int yorkMaxIterations = 200;    // York: iterations before NotConverged
+    double yorkTolerance = 1e-14;   // York: stop when |Δb/b| is below this
+};
+
+// What the fit says about one input row (readings[row]).
+struct PointFit {
+    std::size_t row = 0;                 // index into the readings passed to fitReadings
+    bool used = false;                   // false: excluded, or flagged overload / not-a-number
+    double residualV = 0.0;              // V_i - (V0 - R·I_i), V (also for rows not used)
+    std::optional<double> studentized;   // externally studentized residual (used rows, n >= 4)
+    bool outlier = false;                // |studentized| > FitOptions::outlierThreshold
+};
+
+struct FitSummary {
+    FitStatus status = FitStatus::TooFewPoints;
+    std::string message;                 // empty when ok; else says what is wrong, naming the row
+    FitMethod method = FitMethod::Ols;
+    std::size_t n = 0;                   // points used
+    int degreesOfFreedom = 0;            // n - 2
+
+    double slope = 0.0;                  // b, V/A (negative for a loaded transformer)
+    double intercept = 0.0;              // a, V
+    // Standard errors and covariance of the fit (OLS: from the scatter, needs n >= 3;
+    // WLS and York: intrinsic, from the given uncertainties only, as York 2004 and gsl_fit_wlinear).
+    std::optional<double> slopeSe;       // V/A  (also the standard error of R)
+    std::optional<double> interceptSe;   // V    (the standard error of V0)
+    std::optional<double> covariance;    // cov(slope, intercept), V²/A
+    // WLS and York only, n >= 3: S = Σ weighted squared residuals, MSWD = S/(n-2), and the
+    // standard errors multiplied by sqrt(MSWD) (Birge ratio).
+    std::optional<double> chiSquared;    // S, dimensionless
+    std::optional<double> mswd;          // S/(n-2)
+    std::optional<double> slopeSeScaled; // V/A
+    std::optional<double> interceptSeScaled; // V
+
+    std::optional<double> residualSdV;   // sqrt(Σ e²/(n-2)) of the plain residuals, V, n >= 3
+    std::optional<double> rSquared;      // 1 - SSR/SST (weighted for WLS and York)
+    double confidence = 0.95;            // level of seriesResistanceCi
+    std::optional<Interval> seriesResistanceCi; // interval of R, Ω (see analysisSlopeSe)
+    int iterations = 0;                  // York iterations used (0 for OLS and WLS)
+
+    std::vector<PointFit> points;        // one per input row, in input order
+    std::vector<std::size_t> outlierRows; // rows flagged as outliers, ascending
+    std::optional<double> curvatureP;    // p-value of the quadratic term (n >= 4, 3+ distinct I)
+    std::optional<double> curvatureCoefficient; // c of V = a + b I + c I², V/A²
+
+    bool ok() const { return status == FitStatus::Ok; }
+    double seriesResistanceOhm() const { return -slope; } // R, Ω
+    double noLoadVoltageV() const { return intercept; }    // V0, V
+    // The standard uncertainties the analysis propagates: OLS as fitted; WLS and York the
+    // intrinsic ones, enlarged by sqrt(MSWD) when MSWD > 1 (the scatter exceeds the stated
+    // uncertainties), never reduced (common practice). Empty when there is none.
+    std::optional<double> analysisSlopeSe() const;
+    std::optional<double> analysisInterceptSe() const;
+    std::optional<double> analysisCovariance() const;
+};
+
+// Fits the readings that are not excluded and not flagged overload or not-a-number.
+// WLS needs u_voltage_v on every used reading; York needs u_current_a and u_voltage_v.
+// Degenerate input gives a status and a message, never NaN and never a throw.
+FitSummary fitReadings(const std::vector<Reading> &readings, FitMethod method, const FitOptions &options = {});
+
+// The fitted voltage at a current, with the interval where the line lies and where one new
+// reading is expected (Student t, n - 2 dof, at summary.confidence). uNewReadingV is the
+// standard uncertainty of that reading; absent, the residual SD is used (OLS practice).
+LinePrediction predictVoltage(const FitSummary &summary, double currentA,
+                              std::optional<double> uNewReadingV = std::nullopt);
+
+} // namespace sagline
