@@ -1,0 +1,95 @@
+// LTTB display thinning (core/Downsample.h). The expected picks below are worked by hand from
+// the algorithm as published by Steinarsson (2013), chapter 4: equal buckets, largest
+// triangle with the previous pick and the next bucket's mean.
+#include "Downsample.h"
+
+#include <gtest/gtest.h>
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <random>
+#include <vector>
+
+using sagline::lttbDownsample;
+using sagline::lttbIndices;
+using sagline::PlotPoint;
+
+TEST(Downsample, KeepsEverythingWhenThresholdIsNotBelowCount)
+{
+    const std::vector<PlotPoint> points{{0, 1}, {1, 2}, {2, 0}};
+    EXPECT_EQ(lttbIndices(points, 3), (std::vector<std::size_t>{0, 1, 2}));
+    EXPECT_EQ(lttbIndices(points, 10), (std::vector<std::size_t>{0, 1, 2}));
+    EXPECT_TRUE(lttbIndices({}, 5).empty());
+}
+
+TEST(Downsample, ThresholdBelowThreeKeepsEverything)
+{
+    const std::vector<PlotPoint> points{{0, 1}, {1, 2}, {2, 0}, {3, 4}};
+    EXPECT_EQ(lttbIndices(points, 2).size(), 4u);
+    EXPECT_EQ(lttbIndices(points, 0).size(), 4u);
+}
+
+TEST(Downsample, OneBucketPicksTheTallestTriangle)
+{
+    // Hand-worked: one bucket {1, 2, 3} between (0,0) and (4,0); the triangle's area is
+    // 2·|y|, so (1, 5) wins.
+    const std::vector<PlotPoint> points{{0, 0}, {1, 5}, {2, 1}, {3, 0}, {4, 0}};
+    EXPECT_EQ(lttbIndices(points, 3), (std::vector<std::size_t>{0, 1, 4}));
+}
+
+TEST(Downsample, TwoBucketsUseTheNextBucketMean)
+{
+    // Hand-worked: n = 6, threshold 4, buckets {1,2} and {3,4}.
+    // Bucket 1: previous (0,0), next-bucket mean (3.5, 5): doubled areas 1.5 for (1,1) and
+    // 0.5 for (2,3), so index 1. Bucket 2: previous (1,1), last point (5,0): doubled areas 6
+    // for (3,2) and 31 for (4,8), so index 4.
+    const std::vector<PlotPoint> points{{0, 0}, {1, 1}, {2, 3}, {3, 2}, {4, 8}, {5, 0}};
+    EXPECT_EQ(lttbIndices(points, 4), (std::vector<std::size_t>{0, 1, 4, 5}));
+    const auto kept = lttbDownsample(points, 4);
+    ASSERT_EQ(kept.size(), 4u);
+    EXPECT_DOUBLE_EQ(kept[2].x, 4.0);
+    EXPECT_DOUBLE_EQ(kept[2].y, 8.0);
+}
+
+TEST(Downsample, ExactCountFirstLastAndOrderOnLargeInput)
+{
+    std::mt19937 rng(42);
+    std::normal_distribution<double> noise(0.0, 0.05);
+    std::vector<PlotPoint> points;
+    for (int i = 0; i < 100000; ++i) {
+        const double current = i * 1e-5;
+        points.push_back({current, 26.4 - 2.0 * current + noise(rng)});
+    }
+    const auto indices = lttbIndices(points, 1000);
+    ASSERT_EQ(indices.size(), 1000u);
+    EXPECT_EQ(indices.front(), 0u);
+    EXPECT_EQ(indices.back(), points.size() - 1);
+    for (std::size_t k = 1; k < indices.size(); ++k)
+        EXPECT_LT(indices[k - 1], indices[k]);
+}
+
+TEST(Downsample, KeepsAnIsolatedSpike)
+{
+    // A single deviating reading must survive thinning: it is what an engineer needs to see.
+    std::vector<PlotPoint> points;
+    for (int i = 0; i < 10000; ++i)
+        points.push_back({static_cast<double>(i), 1.0});
+    points[6543].y = 50.0;
+    const auto indices = lttbIndices(points, 100);
+    EXPECT_NE(std::find(indices.begin(), indices.end(), 6543u), indices.end());
+}
+
+TEST(Downsample, NeverKeepsNonFinitePoints)
+{
+    const double nan = std::numeric_limits<double>::quiet_NaN();
+    const double inf = std::numeric_limits<double>::infinity();
+    std::vector<PlotPoint> points{{0, 0}, {1, nan}, {2, 1}, {inf, 3}, {4, 0}, {5, 2}, {6, 0}};
+    for (std::size_t threshold : {3u, 4u, 100u}) {
+        for (const auto &p : lttbDownsample(points, threshold)) {
+            EXPECT_TRUE(std::isfinite(p.x));
+            EXPECT_TRUE(std::isfinite(p.y));
+        }
+    }
+    EXPECT_EQ(lttbIndices(points, 100).size(), 5u);
+}
