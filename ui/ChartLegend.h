@@ -1,0 +1,31 @@
+// A legend row under a chart, drawn by us so each entry shows exactly the marker, line style
+// or fill its series uses (Qt Charts' own legend cannot show a light marker on a pen-less
+// series).
+#pragma once
+
+#include "ChartStyle.h"
+
+#include <QPen>
+#include <QWidget>
+
+class QHBoxLayout;
+
+namespace sagline {
+
+class ChartLegend : public QWidget {
+    Q_OBJECT
+public:
+    explicit ChartLegend(QWidget *parent = nullptr);
+    void clear();
+    void addMarker(MarkerShape shape, const QColor &colour, const QString &text);
+    void addLine(const QPen &pen, const QString &text);
+    void addFill(const QBrush &brush, const QPen &edge, const QString &text);
+    QStringList entries() const;
+
+private:
+    void addEntry(const QPixmap &icon, const QString &text);
+    QHBoxLayout *m_layout;
+    QStringList m_entries;
+};
+
+} // namespace sagline

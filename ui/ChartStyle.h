@@ -1,0 +1,34 @@
+// Colours and marker shapes shared by the charts and their legends. Hues come from the
+// Okabe–Ito colour-universal-design palette (Okabe & Ito 2008), which stays distinct for the
+// common colour-vision deficiencies; every series also differs by marker shape or line style,
+// so nothing depends on hue alone. Light and dark variants follow the desktop palette.
+#pragma once
+
+#include <QColor>
+#include <QImage>
+#include <QPalette>
+
+namespace sagline {
+
+enum class MarkerShape { FilledCircle, HollowSquare, FilledDiamond };
+
+struct ChartColours {
+    QColor background;
+    QColor text;
+    QColor grid;
+    QColor measured;      // included points
+    QColor excluded;      // excluded points
+    QColor fitLine;
+    QColor band;          // 95 % confidence band fill (translucent)
+    QColor predicted;     // next-step prediction and its interval
+    QColor ratedCurrent;  // rated-current line
+    QColor vaCurve;       // rated-VA curve
+    QColor unsafe;        // hatching of the unsafe region and its edge
+};
+
+bool isDarkPalette(const QPalette &palette);
+ChartColours chartColours(bool dark);
+// A marker drawn once and handed to QXYSeries::setLightMarker (no graphics item per point).
+QImage markerImage(MarkerShape shape, const QColor &colour, int sizePx);
+
+} // namespace sagline

@@ -1,0 +1,108 @@
+#include "PlanPanel.h"
+
+#include "PlanTableModel.h"
+#include "UiFormat.h"
+
+#include <QHeaderView>
+#include <QLabel>
+#include <QPushButton>
+#include <QTableView>
+#include <QVBoxLayout>
+
+namespace sagline {
+
+namespace {
+
+QString row(const QString &name, const QString &value, const QString &note = {})
+{
+    QString html = QStringLiteral("<tr><td>") + name.toHtmlEscaped() + QStringLiteral("</td><td align=right><b>")
+                   + value.toHtmlEscaped() + QStringLiteral("</b></td>");
+    if (!note.isEmpty())
+        html += QStringLiteral("<td><i>") + note.toHtmlEscaped() + QStringLiteral("</i></td>");
+    return html + QStringLiteral("</tr>");
+}
+
+} // namespace
+
+PlanPanel::PlanPanel(QWidget *parent)
+    : QWidget(parent), m_summary(new QLabel), m_warnings(new QLabel), m_table(new QTableView),
+      m_model(new PlanTableModel(this)), m_accept(new QPushButton(tr("Accept plan and start the sweep")))
+{
+    auto *layout = new QVBoxLayout(this);
+    m_summary->setTextFormat(Qt::RichText);
+    m_summary->setWordWrap(true);
+    m_summary->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    m_warnings->setWordWrap(true);
+    m_warnings->setStyleSheet(QStringLiteral("QLabel { color: #b35000; font-weight: bold; }"));
+    m_warnings->hide();
+    m_table->setModel(m_model);
+    m_table->verticalHeader()->hide();
+    m_table->setSelectionBehavior(QAbstractItemView::SelectRows);
+    m_table->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    m_table->setAccessibleName(tr("Planned load steps"));
+    m_accept->setEnabled(false);
+    m_accept->setMinimumHeight(36);
+    layout->addWidget(m_summary);
+    layout->addWidget(m_warnings);
+    layout->addWidget(m_table, 1);
+    layout->addWidget(m_accept);
+    connect(m_accept, &QPushButton::clicked, this, &PlanPanel::acceptRequested);
+    setPlan(std::nullopt);
+}
+
+void PlanPanel::setPlan(const std::optional<Plan> &plan)
+{
+    m_model->setPlan(plan);
+    m_accept->setEnabled(plan.has_value());
+    if (!plan) {
+        m_summary->setText(tr("<i>No plan yet: complete the nameplate; the rule each field breaks is shown under it.</i>"));
+        m_warnings->hide();
+        return;
+    }
+    const Plan &p = *plan;
+    QString html = QStringLiteral("<table cellspacing=0 cellpadding=2>");
+    html += row(tr("Rated secondary current"), formatQuantity(p.ratedSecondaryCurrentA, Unit::Ampere));
+    html += row(tr("Rated primary current"), formatQuantity(p.ratedPrimaryCurrentA, Unit::Ampere));
+    html += row(tr("No-load voltage"), formatQuantity(p.noLoadVoltageV, Unit::Volt));
+    html += row(tr("Turns ratio (V1 / V2 no-load)"), formatNumber(p.turnsRatio));
+    html += row(tr("Series resistance (secondary, estimated)"), formatQuantity(p.seriesResistanceOhm, Unit::Ohm));
+    html += row(tr("Regulation (nameplate)"), formatQuantity(p.regulationPercent, Unit::Percent, 3));
+    html += row(tr("Hard stop above"), formatQuantity(p.overloadLimitVa, Unit::VoltAmpere, 3),
+                tr("rated VA × overload factor"));
+    if (p.rheostatSafeCurrentA)
+        html += row(tr("Rheostat safe current"), formatQuantity(*p.rheostatSafeCurrentA, Unit::Ampere),
+                    tr("√(P rated / R track)"));
+    const auto &fuse = p.recommendedFuse;
+    html += row(tr("Recommended primary fuse"),
+                formatQuantity(fuse.ratingA, Unit::Ampere, 3) + QLatin1Char(' ')
+                    + (fuse.type == FuseType::TimeLag ? tr("time-lag (T)") : tr("quick-acting (F)")),
+                tr("smallest IEC 60127 rating ≥ %1 × rated primary current").arg(formatNumber(fuse.factor, 3)));
+    html += row(tr("NEC 450.3(B) primary-only ceiling"), formatQuantity(p.maxPrimaryProtectionA, Unit::Ampere, 3),
+                tr("the most a primary-only protective device may be rated where NEC applies"));
+    html += row(tr("Sweep time"), formatQuantity(p.totalTimeS, Unit::Second, 3));
+    html += QStringLiteral("</table>");
+    if (!p.defaultsUsed.empty()) {
+        QStringList names;
+        for (const auto &name : p.defaultsUsed)
+            names << QString::fromStdString(name);
+        html += QStringLiteral("<p><i>") + tr("Defaults used (common practice): %1").arg(names.join(QStringLiteral(", ")).toHtmlEscaped())
+                + QStringLiteral("</i></p>");
+    }
+    m_summary->setText(html);
+    QStringList warnings;
+    for (const auto &warning : p.warnings)
+        warnings << QStringLiteral("▲ ") + QString::fromStdString(warning);
+    m_warnings->setText(warnings.join(QLatin1Char('\n')));
+    m_warnings->setVisible(!warnings.isEmpty());
+}
+
+void PlanPanel::setAccepted(bool accepted)
+{
+    m_accept->setText(accepted ? tr("Plan accepted: sweep in progress") : tr("Accept plan and start the sweep"));
+    if (accepted)
+        m_accept->setEnabled(false);
+}
+
+QString PlanPanel::summaryText() const { return m_summary->text(); }
+
+} // namespace sagline

@@ -1,0 +1,194 @@
+#include "ResidualChart.h"
+
+#include "ChartLegend.h"
+#include "VoltageCurrentChart.h"
+
+#include <QChart>
+#include <QChartView>
+#include <QLineSeries>
+#include <QValueAxis>
+#include <QVBoxLayout>
+
+#include <algorithm>
+#include <cmath>
+
+namespace sagline {
+
+namespace {
+constexpr int markerPx = 8;
+constexpr double millivoltsPerVolt = 1000.0;
+} // namespace
+
+ResidualChart::ResidualChart(QWidget *parent)
+    : QWidget(parent), m_view(new QChartView), m_chart(new QChart), m_legend(new ChartLegend),
+      m_axisX(new QValueAxis), m_axisY(new QValueAxis)
+{
+    m_chart->legend()->hide();
+    m_chart->setAnimationOptions(QChart::NoAnimation);
+    m_chart->setMargins(QMargins(4, 2, 8, 2));
+    m_chart->addAxis(m_axisX, Qt::AlignBottom);
+    m_chart->addAxis(m_axisY, Qt::AlignLeft);
+    m_axisX->setTitleText(tr("Secondary current I (A)"));
+    m_axisY->setTitleText(tr("Residual (mV)"));
+    for (QLineSeries **series : {&m_zero, &m_upperGuide, &m_lowerGuide, &m_excluded, &m_included}) {
+        *series = new QLineSeries;
+        m_chart->addSeries(*series);
+        (*series)->attachAxis(m_axisX);
+        (*series)->attachAxis(m_axisY);
+    }
+    m_view->setChart(m_chart);
+    m_view->setRenderHint(QPainter::Antialiasing);
+    m_view->setMinimumSize(420, 150);
+    m_view->setFocusPolicy(Qt::NoFocus);
+    m_view->setAccessibleName(tr("Residuals chart"));
+    auto *layout = new QVBoxLayout(this);
+    layout->setContentsMargins(0, 0, 0, 0);
+    layout->setSpacing(0);
+    layout->addWidget(m_view, 1);
+    layout->addWidget(m_legend);
+    m_flushTimer.setSingleShot(true);
+    m_flushTimer.setInterval(100);
+    connect(&m_flushTimer, &QTimer::timeout, this, &ResidualChart::flushNow);
+    applyColours(false);
+}
+
+void ResidualChart::applyColours(bool dark)
+{
+    m_colours = chartColours(dark);
+    const auto &c = m_colours;
+    m_chart->setBackgroundBrush(c.background);
+    m_view->setBackgroundBrush(c.background);
+    QFont labelFont = font();
+    labelFont.setPointSizeF(labelFont.pointSizeF() * 1.1);
+    QFont titleFont = labelFont;
+    titleFont.setBold(true);
+    for (auto *axis : {m_axisX, m_axisY}) {
+        axis->setLabelsColor(c.text);
+        axis->setTitleBrush(c.text);
+        axis->setLabelsFont(labelFont);
+        axis->setTitleFont(titleFont);
+        axis->setGridLineColor(c.grid);
+        axis->setLinePenColor(c.text);
+    }
+    m_zero->setPen(QPen(c.fitLine, 1.5));
+    m_upperGuide->setPen(QPen(c.text, 1, Qt::DotLine));
+    m_lowerGuide->setPen(QPen(c.text, 1, Qt::DotLine));
+    for (auto *points : {m_included, m_excluded}) {
+        points->setPen(Qt::NoPen);
+        points->setMarkerSize(markerPx);
+    }
+    m_included->setLightMarker(markerImage(MarkerShape::FilledCircle, c.measured, markerPx));
+    m_excluded->setLightMarker(markerImage(MarkerShape::HollowSquare, c.excluded, markerPx));
+    m_legend->clear();
+    m_legend->addMarker(MarkerShape::FilledCircle, c.measured, tr("measured − fitted"));
+    m_legend->addMarker(MarkerShape::HollowSquare, c.excluded, tr("excluded"));
+    m_legend->addLine(QPen(c.text, 1, Qt::DotLine), tr("± 2 × residual SD"));
+    m_dirty = true;
+    scheduleFlush();
+}
+
+void ResidualChart::addPoint(std::int64_t id, double currentA, double voltageV, bool excluded)
+{
+    m_points.insert(id, currentA, voltageV, excluded);
+    m_dirty = true;
+    scheduleFlush();
+}
+
+void ResidualChart::setExcluded(std::int64_t id, bool excluded)
+{
+    if (m_points.setExcluded(id, excluded)) {
+        m_dirty = true;
+        scheduleFlush();
+    }
+}
+
+void ResidualChart::clearPoints()
+{
+    m_points.clear();
+    m_residual = {};
+    m_x = m_y = {};
+    m_dirty = true;
+    scheduleFlush();
+}
+
+void ResidualChart::setResidualFunction(ResidualFunction residual, double residualSdV)
+{
+    m_residual = std::move(residual);
+    m_residualSdV = std::isfinite(residualSdV) ? residualSdV : 0.0;
+    m_dirty = true;
+    scheduleFlush();
+}
+
+void ResidualChart::setCurrentSpan(double maxCurrentA)
+{
+    m_maxCurrentA = maxCurrentA;
+    m_dirty = true;
+    scheduleFlush();
+}
+
+void ResidualChart::scheduleFlush()
+{
+    if (!m_flushTimer.isActive())
+        m_flushTimer.start();
+}
+
+void ResidualChart::flushNow()
+{
+    m_flushTimer.stop();
+    if (!m_dirty)
+        return;
+    m_dirty = false;
+    std::vector<PlotPoint> included;
+    std::vector<PlotPoint> excluded;
+    if (m_residual) {
+        const auto inMillivolts = [this](double current, double voltage) {
+            return m_residual(current, voltage) * millivoltsPerVolt;
+        };
+        included = m_points.collect(false, inMillivolts);
+        excluded = m_points.collect(true, inMillivolts);
+    }
+    double largest = 2.0 * m_residualSdV * millivoltsPerVolt;
+    for (const auto *set : {&included, &excluded}) {
+        for (const auto &p : *set)
+            largest = std::max(largest, std::abs(p.y));
+    }
+    if (!(largest > 0.0))
+        largest = 1.0;
+    // The residual axis is symmetric about zero and rescales both ways: residuals shrink as
+    // the fit settles, and a fixed wide axis would flatten them into the zero line.
+    const AxisSpan y{-largest * 1.2, largest * 1.2};
+    const double top = std::max(m_maxCurrentA, m_points.maxCurrent());
+    const AxisSpan x = grownSpan(m_x, 0.0, top > 0.0 ? top : 1.0, 0.12);
+    if (std::abs(y.high - m_y.high) > 0.25 * m_y.high || m_y.isEmpty() || y.high > m_y.high) {
+        applySpan(m_axisY, y, 5);
+        m_y = {m_axisY->min(), m_axisY->max()};
+    }
+    if (x.high != m_x.high || x.low != m_x.low) {
+        applySpan(m_axisX, {std::max(0.0, x.low), x.high});
+        m_x = {m_axisX->min(), m_axisX->max()};
+    }
+    const auto limit = VoltageCurrentChart::displayLimit;
+    const auto toQt = [limit](const std::vector<PlotPoint> &points) {
+        const auto shown = points.size() > limit ? lttbDownsample(points, limit) : points;
+        QList<QPointF> out;
+        out.reserve(static_cast<qsizetype>(shown.size()));
+        for (const auto &p : shown)
+            out.append(QPointF(p.x, p.y));
+        return out;
+    };
+    m_included->replace(toQt(included));
+    m_excluded->replace(toQt(excluded));
+    m_zero->replace({QPointF(m_x.low, 0.0), QPointF(m_x.high, 0.0)});
+    const double guide = 2.0 * m_residualSdV * millivoltsPerVolt;
+    if (guide > 0.0) {
+        m_upperGuide->replace({QPointF(m_x.low, guide), QPointF(m_x.high, guide)});
+        m_lowerGuide->replace({QPointF(m_x.low, -guide), QPointF(m_x.high, -guide)});
+    } else {
+        m_upperGuide->clear();
+        m_lowerGuide->clear();
+    }
+}
+
+int ResidualChart::drawnIncludedCount() const { return static_cast<int>(m_included->count()); }
+
+} // namespace sagline

@@ -1,0 +1,66 @@
+// Residuals (measured minus fitted voltage, in mV) against current, under the V–I chart: a
+// bend or a drift shows here long before it shows on the line. The residual of each point is
+// supplied by core through `setResidualFunction`; this class lays the values out, batched and
+// thinned like the V–I chart.
+#pragma once
+
+#include "ChartAxes.h"
+#include "ChartStyle.h"
+#include "DisplayPoints.h"
+
+#include <QTimer>
+#include <QWidget>
+
+#include <functional>
+
+class QChart;
+class QChartView;
+class QLineSeries;
+class QValueAxis;
+
+namespace sagline {
+
+class ChartLegend;
+
+class ResidualChart : public QWidget {
+    Q_OBJECT
+public:
+    // Residual in volts of a point (current A, voltage V) against the current fit.
+    using ResidualFunction = std::function<double(double, double)>;
+
+    explicit ResidualChart(QWidget *parent = nullptr);
+    void addPoint(std::int64_t id, double currentA, double voltageV, bool excluded);
+    void setExcluded(std::int64_t id, bool excluded);
+    void clearPoints();
+    // An empty function (no fit yet) hides the points. `residualSdV` draws ±2 s guide lines.
+    void setResidualFunction(ResidualFunction residual, double residualSdV);
+    void setCurrentSpan(double maxCurrentA);
+    void applyColours(bool dark);
+    void flushNow();
+    int drawnIncludedCount() const;
+
+private:
+    void scheduleFlush();
+
+    QChartView *m_view;
+    QChart *m_chart;
+    ChartLegend *m_legend;
+    QValueAxis *m_axisX;
+    QValueAxis *m_axisY;
+    QLineSeries *m_zero;
+    QLineSeries *m_upperGuide;
+    QLineSeries *m_lowerGuide;
+    QLineSeries *m_excluded;
+    QLineSeries *m_included;
+    ChartColours m_colours;
+    DisplayPoints m_points;
+    ResidualFunction m_residual;
+    double m_residualSdV = 0.0;
+    double m_maxCurrentA = 0.0;
+    AxisSpan m_x;
+    AxisSpan m_y;
+    bool m_dirty = false;
+    QTimer m_flushTimer;
+};
+
+} // namespace sagline

@@ -1,0 +1,228 @@
+#include "SetupForm.h"
+
+#include "QuantityField.h"
+#include "UiFormat.h"
+
+#include <QCheckBox>
+#include <QComboBox>
+#include <QFormLayout>
+#include <QGroupBox>
+#include <QJsonDocument>
+#include <QJsonObject>
+#include <QLabel>
+#include <QLineEdit>
+#include <QVBoxLayout>
+
+namespace sagline {
+
+namespace {
+
+QString plain(double value) { return QString::number(value, 'g', 10); }
+QString plain(double value, Unit unit) { return plain(value) + QLatin1Char(' ') + unitText(unit); }
+
+// Puts `value` at the dotted `path` of `root`, creating objects on the way.
+void insertAt(QJsonObject &root, const QStringList &path, const QJsonValue &value)
+{
+    if (path.size() == 1) {
+        root.insert(path.front(), value);
+        return;
+    }
+    QJsonObject child = root.value(path.front()).toObject();
+    insertAt(child, path.mid(1), value);
+    root.insert(path.front(), child);
+}
+
+} // namespace
+
+SetupForm::SetupForm(QWidget *parent)
+    : QWidget(parent), m_construction(new QComboBox), m_material(new QComboBox), m_fuseType(new QComboBox),
+      m_allowOverload(new QCheckBox(tr("Allow overload up to the factor"))), m_operator(new QLineEdit),
+      m_serial(new QLineEdit), m_otherErrors(new QLabel)
+{
+    auto *layout = new QVBoxLayout(this);
+    m_otherErrors->setWordWrap(true);
+    m_otherErrors->setStyleSheet(QStringLiteral("QLabel { color: #d55e00; font-weight: bold; }"));
+    m_otherErrors->hide();
+    layout->addWidget(m_otherErrors);
+
+    auto *nameplateBox = new QGroupBox(tr("Nameplate"));
+    auto *nameplate = new QFormLayout(nameplateBox);
+    addQuantity(nameplate, tr("Rated power"), QStringLiteral("nameplate.rated_power_va"), Unit::VoltAmpere, tr("e.g. 50 VA"));
+    addQuantity(nameplate, tr("Rated primary voltage"), QStringLiteral("nameplate.primary_voltage_v"), Unit::Volt, tr("e.g. 120 V"));
+    addQuantity(nameplate, tr("Frequency"), QStringLiteral("nameplate.frequency_hz"), Unit::Hertz, tr("e.g. 60 Hz"));
+    addQuantity(nameplate, tr("Rated secondary voltage (full load)"), QStringLiteral("nameplate.secondary_voltage_v"), Unit::Volt, tr("e.g. 24 V"));
+    addQuantity(nameplate, tr("Secondary no-load voltage"), QStringLiteral("nameplate.secondary_no_load_voltage_v"), Unit::Volt, tr("this or regulation"));
+    addQuantity(nameplate, tr("Regulation"), QStringLiteral("nameplate.regulation_percent"), Unit::Percent, tr("this or no-load voltage"));
+    m_construction->addItem(tr("Laminated (E-I core)"), QStringLiteral("laminated"));
+    m_construction->addItem(tr("Toroidal"), QStringLiteral("toroidal"));
+    m_construction->addItem(tr("Other"), QStringLiteral("other"));
+    m_construction->setAccessibleName(QStringLiteral("nameplate.construction"));
+    nameplate->addRow(tr("Construction"), m_construction);
+    m_material->addItem(tr("Copper"), QStringLiteral("copper"));
+    m_material->addItem(tr("Aluminium"), QStringLiteral("aluminium"));
+    m_material->setAccessibleName(QStringLiteral("nameplate.winding_material"));
+    nameplate->addRow(tr("Winding material"), m_material);
+    layout->addWidget(nameplateBox);
+
+    auto *benchBox = new QGroupBox(tr("Bench and sweep"));
+    auto *bench = new QFormLayout(benchBox);
+    addQuantity(bench, tr("Load steps"), QStringLiteral("bench.steps"), Unit::None, tr("e.g. 10"));
+    addQuantity(bench, tr("Top step (fraction of rated current)"), QStringLiteral("bench.top_fraction"), Unit::None, tr("default 1.0"));
+    addQuantity(bench, tr("Overload factor (hard stop at rated VA ×)"), QStringLiteral("bench.overload_factor"), Unit::None, tr("default 1.0"));
+    bench->addRow(QString(), m_allowOverload);
+    addQuantity(bench, tr("Rheostat track resistance"), QStringLiteral("bench.rheostat.total_resistance_ohm"), Unit::Ohm, tr("blank: not checked"));
+    addQuantity(bench, tr("Rheostat power rating"), QStringLiteral("bench.rheostat.power_rating_w"), Unit::Watt, tr("whole track"));
+    addQuantity(bench, tr("Primary fuse fitted"), QStringLiteral("bench.fuse.rating_a"), Unit::Ampere, tr("blank: none known"));
+    m_fuseType->addItem(tr("Time-lag (T)"), QStringLiteral("time-lag"));
+    m_fuseType->addItem(tr("Quick-acting (F)"), QStringLiteral("quick-acting"));
+    m_fuseType->setAccessibleName(QStringLiteral("bench.fuse.type"));
+    bench->addRow(tr("Fuse type"), m_fuseType);
+    addQuantity(bench, tr("Fuse factor (× rated primary current)"), QStringLiteral("bench.fuse_factor"), Unit::None, tr("default per construction"));
+    addQuantity(bench, tr("Magnetizing current (fraction of rated)"), QStringLiteral("bench.magnetizing_fraction"), Unit::None, tr("default per construction"));
+    addQuantity(bench, tr("Dwell per step"), QStringLiteral("bench.dwell_s"), Unit::Second, tr("e.g. 10 s"));
+    layout->addWidget(benchBox);
+
+    auto *sessionBox = new QGroupBox(tr("Session"));
+    auto *session = new QFormLayout(sessionBox);
+    m_operator->setAccessibleName(QStringLiteral("session.operator"));
+    m_serial->setAccessibleName(QStringLiteral("session.unit_serial"));
+    session->addRow(tr("Operator"), m_operator);
+    session->addRow(tr("Unit serial number"), m_serial);
+    addQuantity(session, tr("Ambient temperature"), QStringLiteral("session.ambient_temperature_c"), Unit::Celsius, tr("e.g. 23 °C"));
+    addQuantity(session, tr("Winding temperature"), QStringLiteral("session.winding_temperature_c"), Unit::Celsius, tr("blank: ambient"));
+    layout->addWidget(sessionBox);
+    layout->addStretch(1);
+
+    for (auto *combo : {m_construction, m_material, m_fuseType})
+        connect(combo, &QComboBox::currentIndexChanged, this, &SetupForm::changed);
+    connect(m_allowOverload, &QCheckBox::toggled, this, &SetupForm::changed);
+}
+
+QuantityField *SetupForm::addQuantity(QFormLayout *form, const QString &label, const QString &field, Unit unit,
+                                      const QString &placeholder)
+{
+    auto *quantity = new QuantityField(field, unit, placeholder);
+    const QString suffix = unitText(unit);
+    form->addRow(suffix.isEmpty() ? label : label + QStringLiteral(" (") + suffix + QLatin1Char(')'), quantity);
+    m_fields.insert(field, quantity);
+    if (!field.startsWith(QLatin1String("session.")))
+        connect(quantity, &QuantityField::edited, this, &SetupForm::changed);
+    return quantity;
+}
+
+QuantityField *SetupForm::quantityField(const QString &field) const { return m_fields.value(field); }
+
+QString SetupForm::setupJson() const
+{
+    QJsonObject root;
+    for (auto it = m_fields.cbegin(); it != m_fields.cend(); ++it) {
+        if (it.key().startsWith(QLatin1String("session.")) || it.value()->isBlank())
+            continue;
+        const QString text = it.value()->text().trimmed();
+        QJsonValue value(text);
+        bool isInteger = false;
+        const int asInteger = text.toInt(&isInteger);
+        if (it.key() == QLatin1String("bench.steps") && isInteger)
+            value = asInteger;
+        insertAt(root, it.key().split(QLatin1Char('.')), value);
+    }
+    insertAt(root, {QStringLiteral("nameplate"), QStringLiteral("construction")}, m_construction->currentData().toString());
+    insertAt(root, {QStringLiteral("nameplate"), QStringLiteral("winding_material")}, m_material->currentData().toString());
+    insertAt(root, {QStringLiteral("bench"), QStringLiteral("allow_overload")}, m_allowOverload->isChecked());
+    if (!m_fields.value(QStringLiteral("bench.fuse.rating_a"))->isBlank())
+        insertAt(root, {QStringLiteral("bench"), QStringLiteral("fuse"), QStringLiteral("type")}, m_fuseType->currentData().toString());
+    return QString::fromUtf8(QJsonDocument(root).toJson(QJsonDocument::Compact));
+}
+
+void SetupForm::loadSetup(const Setup &setup)
+{
+    const auto set = [this](const char *field, const QString &text) { m_fields.value(QLatin1String(field))->setText(text); };
+    const auto &n = setup.nameplate;
+    set("nameplate.rated_power_va", plain(n.ratedPowerVa, Unit::VoltAmpere));
+    set("nameplate.primary_voltage_v", plain(n.primaryVoltageV, Unit::Volt));
+    set("nameplate.frequency_hz", plain(n.frequencyHz, Unit::Hertz));
+    set("nameplate.secondary_voltage_v", plain(n.secondaryVoltageV, Unit::Volt));
+    set("nameplate.secondary_no_load_voltage_v", n.secondaryNoLoadVoltageV ? plain(*n.secondaryNoLoadVoltageV, Unit::Volt) : QString());
+    set("nameplate.regulation_percent", n.regulationPercent ? plain(*n.regulationPercent, Unit::Percent) : QString());
+    m_construction->setCurrentIndex(m_construction->findData(QString::fromStdString(toString(n.construction))));
+    m_material->setCurrentIndex(m_material->findData(QString::fromStdString(toString(n.windingMaterial))));
+    const auto &b = setup.bench;
+    set("bench.steps", QString::number(b.steps));
+    set("bench.top_fraction", plain(b.topFraction));
+    set("bench.overload_factor", plain(b.overloadFactor));
+    m_allowOverload->setChecked(b.allowOverload);
+    set("bench.rheostat.total_resistance_ohm", b.rheostat ? plain(b.rheostat->totalResistanceOhm, Unit::Ohm) : QString());
+    set("bench.rheostat.power_rating_w", b.rheostat ? plain(b.rheostat->powerRatingW, Unit::Watt) : QString());
+    set("bench.fuse.rating_a", b.fuse ? plain(b.fuse->ratingA, Unit::Ampere) : QString());
+    if (b.fuse)
+        m_fuseType->setCurrentIndex(m_fuseType->findData(QString::fromStdString(toString(b.fuse->type))));
+    set("bench.fuse_factor", b.fuseFactor ? plain(*b.fuseFactor) : QString());
+    set("bench.magnetizing_fraction", b.magnetizingFraction ? plain(*b.magnetizingFraction) : QString());
+    set("bench.dwell_s", plain(b.dwellS, Unit::Second));
+    emit changed();
+}
+
+SessionDetails SetupForm::sessionDetails() const
+{
+    return {m_operator->text().trimmed(), m_serial->text().trimmed(),
+            m_fields.value(QStringLiteral("session.ambient_temperature_c"))->text().trimmed(),
+            m_fields.value(QStringLiteral("session.winding_temperature_c"))->text().trimmed()};
+}
+
+void SetupForm::setSessionDetails(const SessionDetails &details)
+{
+    m_operator->setText(details.operatorName);
+    m_serial->setText(details.unitSerial);
+    m_fields.value(QStringLiteral("session.ambient_temperature_c"))->setText(details.ambientTemperature);
+    m_fields.value(QStringLiteral("session.winding_temperature_c"))->setText(details.windingTemperature);
+}
+
+void SetupForm::showErrors(const FieldErrors &errors)
+{
+    for (auto *field : std::as_const(m_fields))
+        field->setError(QString());
+    QStringList other;
+    for (const auto &error : errors) {
+        const QString name = QString::fromStdString(error.field);
+        const QString rule = QString::fromStdString(error.rule);
+        // A rule about a group ("bench.rheostat") goes under its first field.
+        QuantityField *target = m_fields.value(name);
+        if (!target) {
+            for (auto it = m_fields.cbegin(); it != m_fields.cend() && !target; ++it) {
+                if (it.key().startsWith(name + QLatin1Char('.')))
+                    target = it.value();
+            }
+        }
+        if (target && target->error().isEmpty())
+            target->setError(rule);
+        else
+            other << QString::fromStdString(error.message());
+    }
+    m_otherErrors->setText(other.isEmpty() ? QString() : QStringLiteral("✖ ") + other.join(QStringLiteral("\n✖ ")));
+    m_otherErrors->setVisible(!other.isEmpty());
+}
+
+QStringList SetupForm::shownErrors() const
+{
+    QStringList shown;
+    for (auto it = m_fields.cbegin(); it != m_fields.cend(); ++it) {
+        if (!it.value()->error().isEmpty())
+            shown << it.key() + QStringLiteral(": ") + it.value()->error();
+    }
+    if (!m_otherErrors->isHidden())
+        shown << m_otherErrors->text();
+    return shown;
+}
+
+void SetupForm::setLocked(bool locked)
+{
+    for (auto *field : std::as_const(m_fields)) {
+        if (!field->field().startsWith(QLatin1String("session.")))
+            field->setReadOnly(locked);
+    }
+    for (auto *combo : {m_construction, m_material, m_fuseType})
+        combo->setEnabled(!locked);
+    m_allowOverload->setEnabled(!locked);
+}
+
+} // namespace sagline

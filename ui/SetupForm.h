@@ -1,0 +1,66 @@
+// The nameplate, bench and session form. It holds text as typed; core reads it (the form
+// hands core a setup JSON built from the raw strings, so every rule and message is core's)
+// and the errors come back here to be shown under the field they name.
+#pragma once
+
+#include "FieldError.h"
+#include "Setup.h"
+#include "Units.h"
+
+#include <QHash>
+#include <QWidget>
+
+class QCheckBox;
+class QComboBox;
+class QFormLayout;
+class QLabel;
+class QLineEdit;
+
+namespace sagline {
+
+class QuantityField;
+
+// Who ran the test and on what, stored with the session.
+struct SessionDetails {
+    QString operatorName;
+    QString unitSerial;
+    QString ambientTemperature; // as typed, e.g. "23 °C"
+    QString windingTemperature; // as typed; blank = same as ambient
+};
+
+class SetupForm : public QWidget {
+    Q_OBJECT
+public:
+    explicit SetupForm(QWidget *parent = nullptr);
+
+    // The setup file JSON (DESIGN.md) built from the fields as typed; blank fields are left
+    // out so core applies its documented defaults.
+    QString setupJson() const;
+    void loadSetup(const Setup &setup);
+    SessionDetails sessionDetails() const;
+    void setSessionDetails(const SessionDetails &details);
+
+    // Shows each error under its field; errors naming no field of this form are listed at
+    // the top. An empty list clears every message.
+    void showErrors(const FieldErrors &errors);
+    QStringList shownErrors() const; // "field: rule" for every error on display
+    void setLocked(bool locked);     // read-only once readings exist
+    QuantityField *quantityField(const QString &field) const;
+
+signals:
+    void changed();
+
+private:
+    QuantityField *addQuantity(QFormLayout *form, const QString &label, const QString &field,
+                               Unit unit, const QString &placeholder);
+    QHash<QString, QuantityField *> m_fields;
+    QComboBox *m_construction;
+    QComboBox *m_material;
+    QComboBox *m_fuseType;
+    QCheckBox *m_allowOverload;
+    QLineEdit *m_operator;
+    QLineEdit *m_serial;
+    QLabel *m_otherErrors;
+};
+
+} // namespace sagline

@@ -1,0 +1,57 @@
+#include "UiFormat.h"
+
+#include <algorithm>
+#include <cmath>
+
+namespace sagline {
+
+namespace {
+
+int decimalsFor(double value, int significantDigits)
+{
+    if (value == 0.0)
+        return std::max(0, significantDigits - 1);
+    const int magnitude = static_cast<int>(std::floor(std::log10(std::abs(value))));
+    return std::clamp(significantDigits - 1 - magnitude, 0, 9);
+}
+
+QString withUnit(const QString &number, Unit unit)
+{
+    const QString symbol = unitText(unit);
+    if (symbol.isEmpty())
+        return number;
+    // U+202F narrow no-break space keeps number and unit on one line.
+    return number + QChar(0x202F) + symbol;
+}
+
+} // namespace
+
+QString unitText(Unit unit) { return QString::fromStdString(unitSymbol(unit)); }
+
+QString formatNumber(double value, int significantDigits)
+{
+    if (!std::isfinite(value))
+        return QStringLiteral("—");
+    return QString::number(value, 'f', decimalsFor(value, significantDigits));
+}
+
+QString formatQuantity(double value, Unit unit, int significantDigits)
+{
+    if (!std::isfinite(value))
+        return QStringLiteral("—");
+    return withUnit(formatNumber(value, significantDigits), unit);
+}
+
+QString formatWithUncertainty(double value, double uncertainty, Unit unit)
+{
+    if (!std::isfinite(value))
+        return QStringLiteral("—");
+    if (!std::isfinite(uncertainty) || uncertainty <= 0.0)
+        return formatQuantity(value, unit);
+    const int decimals = decimalsFor(uncertainty, 2);
+    const QString text = QString::number(value, 'f', decimals) + QStringLiteral(" ± ")
+                         + QString::number(uncertainty, 'f', decimals);
+    return withUnit(text, unit);
+}
+
+} // namespace sagline
