@@ -1,0 +1,113 @@
+#include "ReadingsTableModel.h"
+
+#include "UiFormat.h"
+
+#include <QColor>
+
+#include <cmath>
+
+namespace sagline {
+
+ReadingsTableModel::ReadingsTableModel(QObject *parent) : QAbstractTableModel(parent) {}
+
+void ReadingsTableModel::append(const Reading &reading)
+{
+    const int row = static_cast<int>(m_rows.size());
+    beginInsertRows({}, row, row);
+    m_rows.push_back({reading, {}, {}});
+    endInsertRows();
+}
+
+void ReadingsTableModel::clear()
+{
+    beginResetModel();
+    m_rows.clear();
+    endResetModel();
+}
+
+void ReadingsTableModel::setResidualFunction(ResidualFunction residual)
+{
+    m_residual = std::move(residual);
+    if (!m_rows.empty())
+        emit dataChanged(index(0, Residual), index(rowCount() - 1, Residual), {Qt::DisplayRole});
+}
+
+void ReadingsTableModel::setExcluded(int row, bool excluded, const QString &reason)
+{
+    if (row < 0 || row >= rowCount())
+        return;
+    auto &r = m_rows[static_cast<std::size_t>(row)];
+    r.reading.excluded = excluded;
+    r.reason = reason;
+    emit dataChanged(index(row, 0), index(row, ColumnCount - 1));
+}
+
+void ReadingsTableModel::setNote(int row, const QString &note)
+{
+    if (row < 0 || row >= rowCount())
+        return;
+    m_rows[static_cast<std::size_t>(row)].note = note;
+    emit dataChanged(index(row, Note), index(row, Note));
+}
+
+int ReadingsTableModel::rowCount(const QModelIndex &parent) const
+{
+    return parent.isValid() ? 0 : static_cast<int>(m_rows.size());
+}
+
+int ReadingsTableModel::columnCount(const QModelIndex &parent) const { return parent.isValid() ? 0 : ColumnCount; }
+
+QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
+{
+    if (!index.isValid() || index.row() >= rowCount())
+        return {};
+    const Row &row = m_rows[static_cast<std::size_t>(index.row())];
+    const Reading &r = row.reading;
+    if (role == Qt::TextAlignmentRole) {
+        const int c = index.column();
+        return (c == Current || c == Voltage || c == Residual || c == Step) ? int(Qt::AlignRight | Qt::AlignVCenter)
+                                                                             : int(Qt::AlignLeft | Qt::AlignVCenter);
+    }
+    if (role == Qt::ForegroundRole && r.excluded)
+        return QColor(0x80, 0x80, 0x80);
+    if (role == Qt::ToolTipRole && index.column() == Excluded && r.excluded)
+        return row.reason;
+    if (role != Qt::DisplayRole)
+        return {};
+    switch (index.column()) {
+    case Step: return r.step >= 0 ? QVariant(r.step) : QVariant(QStringLiteral("–"));
+    case Time: return QString::fromStdString(r.timeUtc);
+    case Current: return formatQuantity(r.currentA, Unit::Ampere, 5);
+    case Voltage: return formatQuantity(r.voltageV, Unit::Volt, 5);
+    case Residual: {
+        if (!m_residual)
+            return QStringLiteral("—");
+        const double residual = m_residual(r.currentA, r.voltageV);
+        return std::isfinite(residual) ? formatQuantity(residual * 1000.0, Unit::None, 3) + QStringLiteral(" mV")
+                                       : QStringLiteral("—");
+    }
+    case Flags: return QString::fromStdString(flagsToString(r.flags));
+    case Excluded: return r.excluded ? tr("excluded: %1").arg(row.reason) : QString();
+    case Note: return row.note;
+    }
+    return {};
+}
+
+QVariant ReadingsTableModel::headerData(int section, Qt::Orientation orientation, int role) const
+{
+    if (orientation != Qt::Horizontal || role != Qt::DisplayRole)
+        return QAbstractTableModel::headerData(section, orientation, role);
+    switch (section) {
+    case Step: return tr("Step");
+    case Time: return tr("Time (UTC)");
+    case Current: return tr("Current");
+    case Voltage: return tr("Voltage");
+    case Residual: return tr("Residual");
+    case Flags: return tr("Flags");
+    case Excluded: return tr("Fit");
+    case Note: return tr("Note");
+    }
+    return {};
+}
+
+} // namespace sagline

@@ -1,0 +1,47 @@
+// Every recorded reading as a table: step, UTC time, I, V, residual, flags, exclusion (with
+// its reason) and a note. Residuals come from core through a function set by the workspace;
+// they are looked up when a row is drawn, so adding a point never walks the whole table.
+#pragma once
+
+#include "Reading.h"
+
+#include <QAbstractTableModel>
+
+#include <functional>
+#include <vector>
+
+namespace sagline {
+
+class ReadingsTableModel : public QAbstractTableModel {
+    Q_OBJECT
+public:
+    enum Column { Step, Time, Current, Voltage, Residual, Flags, Excluded, Note, ColumnCount };
+    using ResidualFunction = std::function<double(double, double)>; // (I, V) -> residual, V
+
+    explicit ReadingsTableModel(QObject *parent = nullptr);
+
+    void append(const Reading &reading);
+    void clear();
+    void setResidualFunction(ResidualFunction residual);
+    void setExcluded(int row, bool excluded, const QString &reason);
+    void setNote(int row, const QString &note);
+    const Reading &reading(int row) const { return m_rows[static_cast<std::size_t>(row)].reading; }
+    QString exclusionReason(int row) const { return m_rows[static_cast<std::size_t>(row)].reason; }
+    QString note(int row) const { return m_rows[static_cast<std::size_t>(row)].note; }
+
+    int rowCount(const QModelIndex &parent = {}) const override;
+    int columnCount(const QModelIndex &parent = {}) const override;
+    QVariant data(const QModelIndex &index, int role = Qt::DisplayRole) const override;
+    QVariant headerData(int section, Qt::Orientation orientation, int role = Qt::DisplayRole) const override;
+
+private:
+    struct Row {
+        Reading reading;
+        QString reason;
+        QString note;
+    };
+    std::vector<Row> m_rows;
+    ResidualFunction m_residual;
+};
+
+} // namespace sagline

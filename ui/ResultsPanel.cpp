@@ -1,0 +1,124 @@
+#include "ResultsPanel.h"
+
+#include <QGridLayout>
+#include <QLabel>
+#include <QVBoxLayout>
+
+namespace sagline {
+
+ResultsPanel::ResultsPanel(QWidget *parent)
+    : QWidget(parent), m_grid(new QGridLayout), m_verdict(new QLabel), m_rule(new QLabel), m_placeholder(new QLabel)
+{
+    auto *layout = new QVBoxLayout(this);
+    auto *title = new QLabel(tr("Results"));
+    QFont titleFont = title->font();
+    titleFont.setBold(true);
+    titleFont.setPointSizeF(titleFont.pointSizeF() * 1.25);
+    title->setFont(titleFont);
+    layout->addWidget(title);
+    m_verdict->setObjectName(QStringLiteral("verdict"));
+    QFont verdictFont = m_verdict->font();
+    verdictFont.setBold(true);
+    verdictFont.setPointSizeF(verdictFont.pointSizeF() * 1.6);
+    m_verdict->setFont(verdictFont);
+    m_verdict->setWordWrap(true);
+    m_rule->setWordWrap(true);
+    m_placeholder->setWordWrap(true);
+    m_placeholder->setText(tr("No points yet."));
+    layout->addWidget(m_verdict);
+    layout->addWidget(m_rule);
+    layout->addWidget(m_placeholder);
+    m_grid->setHorizontalSpacing(12);
+    m_grid->setVerticalSpacing(4);
+    m_grid->setColumnStretch(2, 1);
+    layout->addLayout(m_grid);
+    layout->addStretch(1);
+    setVerdict(VerdictState::None, QString(), QString());
+}
+
+void ResultsPanel::setLines(const QList<ResultLine> &lines)
+{
+    QStringList keys;
+    for (const auto &line : lines)
+        keys << line.key;
+    if (keys != m_keys) {
+        // The set of lines changed: rebuild the grid (rare; values change on every point).
+        while (QLayoutItem *item = m_grid->takeAt(0)) {
+            delete item->widget();
+            delete item;
+        }
+        m_rows.clear();
+        QFont valueFont = font();
+        valueFont.setPointSizeF(valueFont.pointSizeF() * 1.25);
+        valueFont.setBold(true);
+        int row = 0;
+        for (const auto &line : lines) {
+            Row widgets{new QLabel, new QLabel, new QLabel};
+            widgets.label->setWordWrap(true);
+            widgets.value->setFont(valueFont);
+            widgets.value->setObjectName(line.key);
+            widgets.value->setTextInteractionFlags(Qt::TextSelectableByMouse);
+            widgets.value->setAlignment(Qt::AlignRight | Qt::AlignVCenter);
+            widgets.note->setWordWrap(true);
+            m_grid->addWidget(widgets.label, row, 0);
+            m_grid->addWidget(widgets.value, row, 1);
+            m_grid->addWidget(widgets.note, row, 2);
+            m_rows.append(widgets);
+            ++row;
+        }
+        m_keys = keys;
+    }
+    m_values.clear();
+    for (qsizetype i = 0; i < lines.size(); ++i) {
+        const auto &line = lines[i];
+        const Row &widgets = m_rows[i];
+        widgets.label->setText(line.label);
+        widgets.value->setText(line.warning ? QStringLiteral("▲ ") + line.value : line.value);
+        if (widgets.value->property("warning").toBool() != line.warning) {
+            widgets.value->setProperty("warning", line.warning);
+            widgets.value->setStyleSheet(line.warning ? QStringLiteral("QLabel { color: #b35000; }") : QString());
+        }
+        widgets.note->setText(line.note);
+        m_values.insert(line.key, line.value);
+    }
+    m_placeholder->setVisible(lines.isEmpty());
+}
+
+void ResultsPanel::setVerdict(VerdictState state, const QString &text, const QString &rule)
+{
+    QString symbol;
+    QString style;
+    switch (state) {
+    case VerdictState::None:
+        m_verdict->hide();
+        m_rule->hide();
+        return;
+    case VerdictState::Pass:
+        symbol = QStringLiteral("✔ ");
+        style = QStringLiteral("QLabel { background: #009e73; color: white; padding: 6px; }");
+        break;
+    case VerdictState::Fail:
+        symbol = QStringLiteral("✖ ");
+        style = QStringLiteral("QLabel { background: #d55e00; color: white; padding: 6px; }");
+        break;
+    case VerdictState::Undecided:
+        symbol = QStringLiteral("? ");
+        style = QStringLiteral("QLabel { background: #f0e442; color: #1a1a1a; padding: 6px; }");
+        break;
+    }
+    m_verdict->setText(symbol + text);
+    m_verdict->setStyleSheet(style);
+    m_rule->setText(rule);
+    m_verdict->show();
+    m_rule->setVisible(!rule.isEmpty());
+}
+
+void ResultsPanel::setPlaceholder(const QString &text)
+{
+    m_placeholder->setText(text);
+}
+
+QString ResultsPanel::value(const QString &key) const { return m_values.value(key); }
+QString ResultsPanel::verdictText() const { return m_verdict->isHidden() ? QString() : m_verdict->text(); }
+
+} // namespace sagline

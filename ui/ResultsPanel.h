@@ -1,0 +1,49 @@
+// The results as they update with each point: one line per quantity (name, value with unit
+// and expanded uncertainty, a short note), and the verdict with its decision rule shown large
+// with a symbol, so it reads at arm's length and without colour.
+#pragma once
+
+#include <QHash>
+#include <QWidget>
+
+class QGridLayout;
+class QLabel;
+
+namespace sagline {
+
+enum class VerdictState { None, Pass, Fail, Undecided };
+
+struct ResultLine {
+    QString key;   // stable name for tests and layout ("series_resistance")
+    QString label; // "Series resistance R (secondary)"
+    QString value; // "1.952 ± 0.023 Ω"
+    QString note;  // "k = 2, 95 %"
+    bool warning = false;
+};
+
+class ResultsPanel : public QWidget {
+    Q_OBJECT
+public:
+    explicit ResultsPanel(QWidget *parent = nullptr);
+    void setLines(const QList<ResultLine> &lines);
+    void setVerdict(VerdictState state, const QString &text, const QString &rule);
+    void setPlaceholder(const QString &text);
+    QString value(const QString &key) const;
+    QString verdictText() const;
+
+private:
+    QGridLayout *m_grid;
+    QLabel *m_verdict;
+    QLabel *m_rule;
+    QLabel *m_placeholder;
+    struct Row {
+        QLabel *label;
+        QLabel *value;
+        QLabel *note;
+    };
+    QList<Row> m_rows;
+    QStringList m_keys;
+    QHash<QString, QString> m_values;
+};
+
+} // namespace sagline
