@@ -1,0 +1,87 @@
+// sagline: the desktop app (live sweep workspace). Wiring only: names the app, reads the
+// command line, builds the main window, runs the event loop.
+#include "BuildInfo.h"
+#include "DemoSweep.h"
+#include "MainWindow.h"
+#include "SetupJson.h"
+
+#include <QApplication>
+#include <QCommandLineParser>
+#include <QFile>
+#include <QTextStream>
+#include <QTimer>
+
+#include <cstdio>
+
+namespace {
+
+bool hasDisplay()
+{
+    return qEnvironmentVariableIsSet("QT_QPA_PLATFORM") || qEnvironmentVariableIsSet("DISPLAY")
+           || qEnvironmentVariableIsSet("WAYLAND_DISPLAY");
+}
+
+} // namespace
+
+int main(int argc, char **argv)
+{
+    if (!hasDisplay()) {
+        std::fputs("sagline: no display (neither DISPLAY nor WAYLAND_DISPLAY is set); run sagline-cli for a headless "
+                   "sweep, or set QT_QPA_PLATFORM=offscreen\n",
+                   stderr);
+        return 1;
+    }
+    QApplication app(argc, argv);
+    QApplication::setOrganizationName(QStringLiteral("Sagline"));
+    QApplication::setApplicationName(QStringLiteral("sagline"));
+    QApplication::setApplicationVersion(QString::fromLatin1(sagline::buildinfo::version));
+
+    QCommandLineParser parser;
+    parser.setApplicationDescription(QStringLiteral("Plan, run and review the load test of a small mains transformer."));
+    parser.addHelpOption();
+    parser.addVersionOption();
+    QCommandLineOption screenshot(QStringLiteral("screenshot"),
+                                  QStringLiteral("Run a demo sweep, save the window as PNG into DIR, and quit."),
+                                  QStringLiteral("DIR"));
+    QCommandLineOption dark(QStringLiteral("dark"), QStringLiteral("With --screenshot: also save a dark-palette PNG."));
+    QCommandLineOption demo(QStringLiteral("demo"), QStringLiteral("Run a demo sweep of typed-in readings on start."));
+    QCommandLineOption folder(QStringLiteral("session-folder"), QStringLiteral("Where new session files go."),
+                              QStringLiteral("DIR"));
+    parser.addOptions({screenshot, dark, demo, folder});
+    parser.addPositionalArgument(QStringLiteral("SESSION"), QStringLiteral("A .sagline session file to open."),
+                                 QStringLiteral("[SESSION]"));
+    parser.process(app);
+
+    sagline::MainWindow window;
+    if (parser.isSet(folder))
+        window.setSessionFolder(parser.value(folder));
+    QFile demoSetup(QStringLiteral(":/sagline/demo-setup.json"));
+    if (demoSetup.open(QIODevice::ReadOnly)) {
+        const auto parsed = sagline::parseSetupJson(demoSetup.readAll().toStdString());
+        if (parsed.setup)
+            window.loadSetup(*parsed.setup);
+    }
+    if (!parser.positionalArguments().isEmpty())
+        window.openSessionFile(parser.positionalArguments().front());
+
+    if (parser.isSet(screenshot)) {
+        if (!parser.isSet(folder))
+            window.setSessionFolder(parser.value(screenshot) + QStringLiteral("/sessions"));
+        window.resize(1600, 1000);
+        window.show();
+        const auto result = sagline::runTypedDemoSweep(window);
+        QTextStream out(stdout);
+        if (!result.ok) {
+            QTextStream(stderr) << "sagline: demo sweep failed: " << result.message << '\n';
+            return 1;
+        }
+        out << "demo sweep: " << result.points << " points, session " << result.message << '\n';
+        for (const QString &path : sagline::saveScreenshots(window, parser.value(screenshot), parser.isSet(dark)))
+            out << "screenshot: " << path << '\n';
+        return 0;
+    }
+    window.show();
+    if (parser.isSet(demo))
+        QTimer::singleShot(0, &window, [&window] { sagline::runTypedDemoSweep(window); });
+    return app.exec();
+}

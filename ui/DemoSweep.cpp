@@ -1,0 +1,122 @@
+#include "DemoSweep.h"
+
+#include "MainWindow.h"
+#include "NextStepStrip.h"
+#include "PlanPanel.h"
+#include "InstrumentsPanel.h"
+#include "QuantityField.h"
+#include "SetupForm.h"
+#include "SweepWorkspace.h"
+
+#include <QApplication>
+#include <QDir>
+#include <QLineEdit>
+#include <QPushButton>
+#include <QStyleFactory>
+
+#include <cmath>
+
+namespace sagline {
+
+namespace {
+
+// Demo transformer: sags a little more than the nameplate suggests, with ±15 mV of
+// deterministic "noise" (a fixed pattern, so screenshots are reproducible).
+constexpr double demoNoiseV[] = {0.012, -0.008, 0.004, -0.015, 0.009, -0.002, 0.014, -0.011, 0.006, -0.004, 0.010};
+
+QPalette darkPalette()
+{
+    QPalette p;
+    const QColor window(0x2b, 0x2d, 0x30);
+    const QColor base(0x20, 0x22, 0x25);
+    const QColor text(0xe8, 0xe8, 0xe8);
+    p.setColor(QPalette::Window, window);
+    p.setColor(QPalette::WindowText, text);
+    p.setColor(QPalette::Base, base);
+    p.setColor(QPalette::AlternateBase, QColor(0x33, 0x36, 0x3a));
+    p.setColor(QPalette::Text, text);
+    p.setColor(QPalette::Button, window);
+    p.setColor(QPalette::ButtonText, text);
+    p.setColor(QPalette::ToolTipBase, base);
+    p.setColor(QPalette::ToolTipText, text);
+    p.setColor(QPalette::Highlight, QColor(0x56, 0xb4, 0xe9));
+    p.setColor(QPalette::HighlightedText, QColor(0x10, 0x10, 0x10));
+    p.setColor(QPalette::PlaceholderText, QColor(0x99, 0x99, 0x99));
+    p.setColor(QPalette::Disabled, QPalette::Text, QColor(0x80, 0x80, 0x80));
+    p.setColor(QPalette::Disabled, QPalette::WindowText, QColor(0x80, 0x80, 0x80));
+    p.setColor(QPalette::Disabled, QPalette::ButtonText, QColor(0x80, 0x80, 0x80));
+    return p;
+}
+
+} // namespace
+
+DemoResult runTypedDemoSweep(MainWindow &window, const QString &operatorName, const QString &unitSerial)
+{
+    DemoResult result;
+    SessionDetails details = window.setupForm()->sessionDetails();
+    details.operatorName = operatorName;
+    details.unitSerial = unitSerial;
+    if (details.ambientTemperature.isEmpty())
+        details.ambientTemperature = QStringLiteral("23 °C");
+    window.setupForm()->setSessionDetails(details);
+    SweepWorkspace *workspace = window.workspace();
+    const auto &plan = workspace->plan();
+    if (!plan) {
+        result.message = QStringLiteral("the demo setup has no plan: ")
+                         + QString::fromStdString(workspace->errors().empty() ? std::string() : workspace->errors().front().message());
+        return result;
+    }
+    const auto steps = plan->steps; // copy: the plan may be replaced while the sweep runs
+    const double v0 = plan->noLoadVoltageV * 1.004;
+    const double r = plan->seriesResistanceOhm * 1.08;
+    window.instrumentsPanel()->setChoice({ReadingSource::TypedIn, {}, {}});
+    // Through the window, as a person would: accept, then type each reading and record.
+    window.planPanel()->acceptButton()->click();
+    if (!workspace->isRunning()) {
+        result.message = window.lastMessage();
+        return result;
+    }
+    std::size_t k = 0;
+    for (const auto &step : steps) {
+        const double voltage = v0 - r * step.currentA + demoNoiseV[k % std::size(demoNoiseV)];
+        window.nextStep()->currentField()->setText(QString::number(step.currentA, 'f', 4) + QStringLiteral(" A"));
+        window.nextStep()->voltageField()->setText(QString::number(voltage, 'f', 3) + QStringLiteral(" V"));
+        window.nextStep()->recordButton()->click();
+        if (workspace->readings().size() != k + 1) {
+            result.message = window.lastMessage();
+            return result;
+        }
+        ++k;
+        QApplication::processEvents();
+    }
+    window.flushCharts();
+    result.ok = true;
+    result.points = static_cast<int>(workspace->readings().size());
+    result.message = workspace->sessionPath();
+    return result;
+}
+
+QStringList saveScreenshots(MainWindow &window, const QString &folder, bool dark)
+{
+    QDir().mkpath(folder);
+    QStringList saved;
+    const auto shoot = [&](const QString &name) {
+        window.flushCharts();
+        QApplication::processEvents();
+        const QString path = QDir(folder).filePath(name);
+        if (window.grab().save(path))
+            saved << path;
+    };
+    shoot(QStringLiteral("sagline-light.png"));
+    if (dark) {
+        const QPalette original = QApplication::palette();
+        QApplication::setPalette(darkPalette());
+        window.applyColourScheme();
+        shoot(QStringLiteral("sagline-dark.png"));
+        QApplication::setPalette(original);
+        window.applyColourScheme();
+    }
+    return saved;
+}
+
+} // namespace sagline

@@ -1,0 +1,25 @@
+// A demo sweep for screenshots, the benchmark and first-time users: fills in the session
+// details, accepts the plan and records one reading per planned step through the same path
+// as a person typing them in (controller, store, fit). The readings come from an invented
+// transformer of our own (V0 and R near the plan's, a little noise): demo data only.
+#pragma once
+
+#include <QString>
+
+namespace sagline {
+
+class MainWindow;
+
+struct DemoResult {
+    bool ok = false;
+    QString message; // what failed, or where the session went
+    int points = 0;
+};
+
+DemoResult runTypedDemoSweep(MainWindow &window, const QString &operatorName = QStringLiteral("Demo operator"),
+                             const QString &unitSerial = QStringLiteral("DEMO-0001"));
+
+// Saves the main window as PNG (light, and dark when `dark`) into `folder`; returns the paths.
+QStringList saveScreenshots(MainWindow &window, const QString &folder, bool dark);
+
+} // namespace sagline

@@ -1,0 +1,104 @@
+#include "InstrumentsPanel.h"
+
+#include <QComboBox>
+#include <QFormLayout>
+#include <QLabel>
+#include <QLineEdit>
+#include <QPushButton>
+#include <QSerialPortInfo>
+#include <QStackedWidget>
+#include <QVBoxLayout>
+
+namespace sagline {
+
+InstrumentsPanel::InstrumentsPanel(QWidget *parent)
+    : QWidget(parent), m_source(new QComboBox), m_details(new QStackedWidget), m_port(new QComboBox),
+      m_address(new QLineEdit), m_status(new QLabel)
+{
+    auto *layout = new QVBoxLayout(this);
+    auto *form = new QFormLayout;
+    m_source->addItem(tr("Virtual bench (simulated transformer and meters)"), int(ReadingSource::VirtualBench));
+    m_source->addItem(tr("SCPI meter on a serial port"), int(ReadingSource::SerialPort));
+    m_source->addItem(tr("SCPI meter on the LAN (raw socket)"), int(ReadingSource::Lan));
+    m_source->addItem(tr("Readings typed in by hand"), int(ReadingSource::TypedIn));
+    m_source->setAccessibleName(tr("Reading source"));
+    form->addRow(tr("Readings from"), m_source);
+    layout->addLayout(form);
+
+    auto *none = new QLabel(tr("No connection needed."));
+    auto *serial = new QWidget;
+    auto *serialForm = new QFormLayout(serial);
+    m_port->setEditable(true);
+    m_port->setAccessibleName(tr("Serial port"));
+    m_port->lineEdit()->setPlaceholderText(tr("pick a port or type a path, e.g. /dev/ttyUSB0"));
+    auto *rescan = new QPushButton(tr("Rescan ports"));
+    serialForm->addRow(tr("Port"), m_port);
+    serialForm->addRow(QString(), rescan);
+    auto *lan = new QWidget;
+    auto *lanForm = new QFormLayout(lan);
+    m_address->setPlaceholderText(tr("host or address, port 5025 unless given: 192.168.1.20:5025"));
+    m_address->setAccessibleName(tr("LAN address"));
+    lanForm->addRow(tr("Address"), m_address);
+    auto *typed = new QLabel(tr("Type each reading into the current and voltage fields of the next-step strip; "
+                                "values are checked as an instrument's would be."));
+    typed->setWordWrap(true);
+    m_details->addWidget(none);
+    m_details->addWidget(serial);
+    m_details->addWidget(lan);
+    m_details->addWidget(typed);
+    layout->addWidget(m_details);
+
+    auto *roles = new QLabel(tr("<b>Meter roles</b><br>Secondary voltmeter: AC V RMS (MEASure:VOLTage:AC?)<br>"
+                                "Secondary ammeter: AC A RMS (MEASure:CURRent:AC?)<br>"
+                                "Accuracy: ±(% of reading + counts); standard uncertainty a/√3 (GUM 4.3.7)."));
+    roles->setWordWrap(true);
+    layout->addWidget(roles);
+    m_status->setWordWrap(true);
+    m_status->setTextInteractionFlags(Qt::TextSelectableByMouse);
+    layout->addWidget(m_status);
+    layout->addStretch(1);
+
+    connect(m_source, &QComboBox::currentIndexChanged, this, [this](int index) {
+        m_details->setCurrentIndex(index);
+        emit choiceChanged();
+    });
+    connect(rescan, &QPushButton::clicked, this, &InstrumentsPanel::refreshPorts);
+    refreshPorts();
+    setStatus(tr("Not connected."));
+}
+
+void InstrumentsPanel::refreshPorts()
+{
+    const QString typed = m_port->currentText();
+    m_port->clear();
+    for (const auto &info : QSerialPortInfo::availablePorts())
+        m_port->addItem(info.systemLocation() + QStringLiteral("  ") + info.description(), info.systemLocation());
+    m_port->setEditText(typed);
+}
+
+SourceChoice InstrumentsPanel::choice() const
+{
+    SourceChoice c;
+    c.source = static_cast<ReadingSource>(m_source->currentData().toInt());
+    const int index = m_port->findText(m_port->currentText());
+    c.serialPort = index >= 0 ? m_port->itemData(index).toString() : m_port->currentText().trimmed();
+    c.lanAddress = m_address->text().trimmed();
+    return c;
+}
+
+void InstrumentsPanel::setChoice(const SourceChoice &choice)
+{
+    m_source->setCurrentIndex(m_source->findData(int(choice.source)));
+    m_port->setEditText(choice.serialPort);
+    m_address->setText(choice.lanAddress);
+}
+
+void InstrumentsPanel::setStatus(const QString &status) { m_status->setText(tr("Status: %1").arg(status)); }
+
+void InstrumentsPanel::setLocked(bool locked)
+{
+    m_source->setEnabled(!locked);
+    m_details->setEnabled(!locked);
+}
+
+} // namespace sagline

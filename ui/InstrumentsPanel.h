@@ -1,0 +1,38 @@
+// Where readings come from: the virtual bench (default), a serial port (listed ports, or a
+// path typed in), a LAN address, or readings typed in by hand; and what is connected.
+#pragma once
+
+#include "SweepWorkspace.h"
+
+#include <QWidget>
+
+class QComboBox;
+class QLabel;
+class QLineEdit;
+class QStackedWidget;
+
+namespace sagline {
+
+class InstrumentsPanel : public QWidget {
+    Q_OBJECT
+public:
+    explicit InstrumentsPanel(QWidget *parent = nullptr);
+    SourceChoice choice() const;
+    void setChoice(const SourceChoice &choice);
+    void setStatus(const QString &status);
+    void setLocked(bool locked);
+    QComboBox *sourceBox() const { return m_source; }
+
+signals:
+    void choiceChanged();
+
+private:
+    void refreshPorts();
+    QComboBox *m_source;
+    QStackedWidget *m_details;
+    QComboBox *m_port;
+    QLineEdit *m_address;
+    QLabel *m_status;
+};
+
+} // namespace sagline

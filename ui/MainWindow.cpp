@@ -1,0 +1,307 @@
+#include "MainWindow.h"
+
+#include "CautionStrip.h"
+#include "ChartStyle.h"
+#include "FitPresentation.h"
+#include "InstrumentsPanel.h"
+#include "NextStepStrip.h"
+#include "PlanPanel.h"
+#include "QuantityField.h"
+#include "ReadingsTableModel.h"
+#include "ResidualChart.h"
+#include "ResultsPanel.h"
+#include "SetupForm.h"
+#include "SweepWorkspace.h"
+#include "VoltageCurrentChart.h"
+
+#include <QAction>
+#include <QApplication>
+#include <QHeaderView>
+#include <QLabel>
+#include <QMenuBar>
+#include <QPushButton>
+#include <QScrollArea>
+#include <QSplitter>
+#include <QStatusBar>
+#include <QTabWidget>
+#include <QTableView>
+#include <QVBoxLayout>
+
+namespace sagline {
+
+namespace {
+constexpr int bandGridPoints = 150; // the band is drawn on a grid, not one point per reading
+} // namespace
+
+MainWindow::MainWindow(QWidget *parent)
+    : QMainWindow(parent), m_workspace(new SweepWorkspace(this)), m_caution(new CautionStrip),
+      m_nextStep(new NextStepStrip), m_leftTabs(new QTabWidget), m_setupForm(new SetupForm),
+      m_planPanel(new PlanPanel), m_instruments(new InstrumentsPanel), m_chart(new VoltageCurrentChart),
+      m_residuals(new ResidualChart), m_results(new ResultsPanel), m_readingsModel(new ReadingsTableModel(this)),
+      m_readingsView(new QTableView), m_mainSplitter(new QSplitter(Qt::Horizontal)),
+      m_chartSplitter(new QSplitter(Qt::Vertical)), m_rightSplitter(new QSplitter(Qt::Vertical)),
+      m_statusSource(new QLabel), m_statusSession(new QLabel), m_statusPoints(new QLabel), m_recentMenu(nullptr)
+{
+    setWindowTitle(tr("Sagline: transformer load test"));
+    setAcceptDrops(true);
+    createLayout();
+    createActions();
+    wireWorkspace();
+    m_resultsTimer.setSingleShot(true);
+    m_resultsTimer.setInterval(100);
+    connect(&m_resultsTimer, &QTimer::timeout, this, &MainWindow::refreshFitViews);
+    readSettings();
+    applyColourScheme();
+    handleSetupChanged();
+}
+
+MainWindow::~MainWindow() = default;
+
+void MainWindow::createLayout()
+{
+    auto *setupScroll = new QScrollArea;
+    setupScroll->setWidget(m_setupForm);
+    setupScroll->setWidgetResizable(true);
+    m_leftTabs->addTab(setupScroll, tr("&1 Setup"));
+    m_leftTabs->addTab(m_planPanel, tr("&2 Plan"));
+    m_leftTabs->addTab(m_instruments, tr("&3 Instruments"));
+
+    m_chartSplitter->addWidget(m_chart);
+    m_chartSplitter->addWidget(m_residuals);
+    m_chartSplitter->setStretchFactor(0, 3);
+    m_chartSplitter->setStretchFactor(1, 1);
+
+    m_readingsView->setModel(m_readingsModel);
+    m_readingsView->setSelectionBehavior(QAbstractItemView::SelectRows);
+    m_readingsView->setSelectionMode(QAbstractItemView::SingleSelection);
+    m_readingsView->verticalHeader()->hide();
+    m_readingsView->verticalHeader()->setDefaultSectionSize(m_readingsView->fontMetrics().height() + 6);
+    m_readingsView->horizontalHeader()->setStretchLastSection(true);
+    m_readingsView->setAccessibleName(tr("Readings"));
+    m_readingsView->setContextMenuPolicy(Qt::ActionsContextMenu);
+    auto *resultsScroll = new QScrollArea;
+    resultsScroll->setWidget(m_results);
+    resultsScroll->setWidgetResizable(true);
+    m_rightSplitter->addWidget(resultsScroll);
+    m_rightSplitter->addWidget(m_readingsView);
+    m_rightSplitter->setStretchFactor(0, 1);
+    m_rightSplitter->setStretchFactor(1, 1);
+
+    m_mainSplitter->addWidget(m_leftTabs);
+    m_mainSplitter->addWidget(m_chartSplitter);
+    m_mainSplitter->addWidget(m_rightSplitter);
+    m_mainSplitter->setStretchFactor(0, 2);
+    m_mainSplitter->setStretchFactor(1, 4);
+    m_mainSplitter->setStretchFactor(2, 3);
+    m_mainSplitter->setChildrenCollapsible(false);
+
+    auto *central = new QWidget;
+    auto *layout = new QVBoxLayout(central);
+    layout->setContentsMargins(6, 6, 6, 0);
+    layout->addWidget(m_caution);
+    layout->addWidget(m_nextStep);
+    layout->addWidget(m_mainSplitter, 1);
+    setCentralWidget(central);
+
+    statusBar()->addWidget(m_statusSource);
+    statusBar()->addWidget(m_statusPoints);
+    statusBar()->addPermanentWidget(m_statusSession);
+    m_nextStep->setInstruction(tr("Complete the setup, then accept the plan"),
+                               tr("The plan tab shows each load step, the recommended fuse and the limits."));
+}
+
+void MainWindow::wireWorkspace()
+{
+    connect(m_setupForm, &SetupForm::changed, this, &MainWindow::handleSetupChanged);
+    connect(m_workspace, &SweepWorkspace::planChanged, this, &MainWindow::handlePlanChanged);
+    connect(m_planPanel, &PlanPanel::acceptRequested, this, &MainWindow::handleAccept);
+    connect(m_nextStep, &NextStepStrip::recordRequested, this, &MainWindow::handleRecord);
+    connect(m_nextStep, &NextStepStrip::pauseRequested, m_workspace, &SweepWorkspace::pauseOrResume);
+    connect(m_nextStep, &NextStepStrip::stopRequested, m_workspace, &SweepWorkspace::stop);
+    connect(m_workspace, &SweepWorkspace::readingRecorded, this, &MainWindow::handleReadingRecorded);
+    connect(m_workspace, &SweepWorkspace::readingChanged, this, &MainWindow::handleReadingChanged);
+    connect(m_workspace, &SweepWorkspace::fitChanged, this, [this] {
+        if (!m_resultsTimer.isActive())
+            m_resultsTimer.start();
+    });
+    connect(m_workspace, &SweepWorkspace::stepChanged, this, &MainWindow::handleStep);
+    connect(m_workspace, &SweepWorkspace::safetyStopped, this, &MainWindow::handleSafetyStop);
+    connect(m_workspace, &SweepWorkspace::notice, this, [this](const QString &text) { showMessage(text); });
+    connect(m_workspace, &SweepWorkspace::runningChanged, this, &MainWindow::handleRunningChanged);
+    connect(m_workspace, &SweepWorkspace::sessionChanged, this, [this] {
+        m_statusSession->setText(tr("Session: %1").arg(m_workspace->sessionPath()));
+    });
+    connect(m_instruments, &InstrumentsPanel::choiceChanged, this, [this] {
+        m_nextStep->setTypedEntry(m_instruments->choice().source == ReadingSource::TypedIn);
+        m_statusSource->setText(m_instruments->sourceBox()->currentText());
+    });
+    m_nextStep->setTypedEntry(m_instruments->choice().source == ReadingSource::TypedIn);
+    m_statusSource->setText(m_instruments->sourceBox()->currentText());
+}
+
+void MainWindow::loadSetup(const Setup &setup) { m_setupForm->loadSetup(setup); }
+
+void MainWindow::handleSetupChanged() { m_workspace->setSetupJson(m_setupForm->setupJson()); }
+
+void MainWindow::handlePlanChanged()
+{
+    m_setupForm->showErrors(m_workspace->errors());
+    const auto &plan = m_workspace->plan();
+    m_planPanel->setPlan(plan);
+    if (m_workspace->setup())
+        m_caution->setPrimaryVoltage(m_workspace->setup()->nameplate.primaryVoltageV);
+    if (plan && m_workspace->readings().empty()) {
+        m_chart->setLimits(chartLimits(*plan, m_workspace->setup()->nameplate.ratedPowerVa));
+        m_residuals->setCurrentSpan(plan->steps.empty() ? 0.0 : plan->steps.back().currentA);
+    }
+    if (!plan && !m_workspace->errors().empty())
+        showMessage(QString::fromStdString(m_workspace->errors().front().message()), true);
+    else if (plan)
+        showMessage(tr("Plan ready: %1 steps.").arg(plan->steps.size()));
+}
+
+void MainWindow::handleAccept()
+{
+    const QString error = m_workspace->startSweep(m_setupForm->sessionDetails(), m_sessionFolder, m_instruments->choice());
+    if (!error.isEmpty()) {
+        showMessage(error, true);
+        m_setupForm->showErrors({{error.section(QLatin1Char(':'), 0, 0).toStdString(), error.section(QLatin1Char(':'), 1).trimmed().toStdString()}});
+        m_leftTabs->setCurrentIndex(0);
+        return;
+    }
+    rememberRecent(m_workspace->sessionPath());
+    m_planPanel->setAccepted(true);
+    m_setupForm->setLocked(true);
+    m_instruments->setLocked(true);
+    m_caution->clearAlarm();
+    if (m_workspace->isTypedIn())
+        m_nextStep->clearEntry();
+}
+
+void MainWindow::handleRecord()
+{
+    if (!m_workspace->isTypedIn()) {
+        m_workspace->confirmLoadSet(); // the meters take the reading
+        return;
+    }
+    auto *current = m_nextStep->currentField();
+    auto *voltage = m_nextStep->voltageField();
+    current->setError(QString());
+    voltage->setError(QString());
+    const QString refusal = m_workspace->submitTyped(current->text(), voltage->text());
+    if (refusal.isEmpty()) {
+        m_nextStep->clearEntry();
+        return;
+    }
+    // The refusal names its field ("reading.current_a: ..."); show it under that field.
+    const bool aboutCurrent = refusal.startsWith(current->field());
+    const QString rule = refusal.section(QLatin1Char(':'), 1).trimmed();
+    (aboutCurrent ? current : voltage)->setError(rule);
+    showMessage(refusal, true);
+}
+
+void MainWindow::handleReadingRecorded(int row)
+{
+    const Reading &reading = m_workspace->readings()[static_cast<std::size_t>(row)];
+    m_readingsModel->append(reading);
+    m_chart->addPoint(row, reading.currentA, reading.voltageV, reading.excluded);
+    m_residuals->addPoint(row, reading.currentA, reading.voltageV, reading.excluded);
+    m_statusPoints->setText(tr("%n point(s) recorded", nullptr, row + 1));
+    if (!m_resultsTimer.isActive())
+        m_resultsTimer.start();
+}
+
+void MainWindow::handleReadingChanged(int row)
+{
+    const Reading &reading = m_workspace->readings()[static_cast<std::size_t>(row)];
+    m_readingsModel->setExcluded(row, reading.excluded, reading.excluded ? m_readingsModel->exclusionReason(row) : QString());
+    m_chart->setExcluded(row, reading.excluded);
+    m_residuals->setExcluded(row, reading.excluded);
+    refreshFitViews();
+}
+
+void MainWindow::refreshFitViews()
+{
+    m_resultsTimer.stop();
+    const LineFit &fit = m_workspace->liveFit();
+    m_chart->setFitOverlay(fitOverlay(fit, m_chart->gridCurrents(bandGridPoints), m_workspace->nextCurrentA()));
+    const auto result = fit.result();
+    SweepWorkspace *workspace = m_workspace;
+    auto residual = result.ok() ? ReadingsTableModel::ResidualFunction([workspace](double i, double v) {
+        return workspace->residualOf(i, v);
+    })
+                                : ReadingsTableModel::ResidualFunction();
+    m_residuals->setResidualFunction(residual, result.residualSd.value_or(0.0));
+    m_readingsModel->setResidualFunction(residual);
+    const auto &plan = m_workspace->plan();
+    m_results->setLines(resultLines(fit, m_workspace->summary(), plan ? &*plan : nullptr));
+}
+
+void MainWindow::flushCharts()
+{
+    if (m_resultsTimer.isActive())
+        refreshFitViews();
+    m_chart->flushNow();
+    m_residuals->flushNow();
+}
+
+void MainWindow::handleStep(int step, const QString &instruction)
+{
+    const auto &plan = m_workspace->plan();
+    QString heading = tr("Step %1").arg(step);
+    if (plan && !plan->steps.empty())
+        heading = tr("Step %1 of %2").arg(step).arg(plan->steps.back().index);
+    m_nextStep->setInstruction(heading, instruction);
+}
+
+void MainWindow::handleSafetyStop(const QString &text)
+{
+    m_caution->showAlarm(text);
+    QApplication::beep();
+    showMessage(text, true);
+}
+
+void MainWindow::handleRunningChanged(bool running)
+{
+    m_nextStep->setRunning(running);
+    m_nextStep->setPaused(m_workspace->isPaused());
+    if (!running) {
+        m_planPanel->setAccepted(false);
+        m_planPanel->acceptButton()->setEnabled(false);
+    }
+}
+
+void MainWindow::applyColourScheme()
+{
+    const bool dark = isDarkPalette(palette());
+    m_chart->applyColours(dark);
+    m_residuals->applyColours(dark);
+    QPalette stripPalette = m_nextStep->palette();
+    stripPalette.setColor(QPalette::Window, palette().color(QPalette::AlternateBase));
+    m_nextStep->setPalette(stripPalette);
+}
+
+void MainWindow::changeEvent(QEvent *event)
+{
+    if (event->type() == QEvent::PaletteChange)
+        applyColourScheme();
+    QMainWindow::changeEvent(event);
+}
+
+void MainWindow::showMessage(const QString &text, bool error)
+{
+    m_lastMessage = text;
+    statusBar()->showMessage(error ? QStringLiteral("✖ ") + text : text, error ? 0 : 8000);
+}
+
+void MainWindow::resetViews()
+{
+    m_readingsModel->clear();
+    m_chart->clearPoints();
+    m_residuals->clearPoints();
+    m_results->setLines({});
+    m_caution->clearAlarm();
+    m_statusPoints->clear();
+}
+
+} // namespace sagline

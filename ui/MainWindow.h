@@ -1,0 +1,122 @@
+// The live sweep workspace: setup and plan on the left, the V–I and residual charts in the
+// middle, results and readings on the right, the caution strip and the next-step strip on
+// top. It builds and wires the panels; SweepWorkspace (and through it core and the
+// instruments layer) does the work.
+#pragma once
+
+#include <QMainWindow>
+#include <QStringList>
+#include <QTimer>
+
+class QAction;
+class QLabel;
+class QMenu;
+class QSplitter;
+class QTabWidget;
+class QTableView;
+
+namespace sagline {
+
+class CautionStrip;
+class InstrumentsPanel;
+class NextStepStrip;
+class PlanPanel;
+class ReadingsTableModel;
+class ResidualChart;
+class ResultsPanel;
+class SetupForm;
+class SweepWorkspace;
+class VoltageCurrentChart;
+struct Setup;
+
+class MainWindow : public QMainWindow {
+    Q_OBJECT
+public:
+    explicit MainWindow(QWidget *parent = nullptr);
+    ~MainWindow() override;
+
+    void loadSetup(const Setup &setup);
+    // Where new session files go (default: the user's documents folder, "Sagline sessions").
+    void setSessionFolder(const QString &folder);
+    bool openSessionFile(const QString &path);
+    void applyColourScheme();
+    // Pushes pending chart updates now (the timers do it ~10 times a second).
+    void flushCharts();
+
+    SweepWorkspace *workspace() const { return m_workspace; }
+    SetupForm *setupForm() const { return m_setupForm; }
+    PlanPanel *planPanel() const { return m_planPanel; }
+    InstrumentsPanel *instrumentsPanel() const { return m_instruments; }
+    NextStepStrip *nextStep() const { return m_nextStep; }
+    VoltageCurrentChart *chart() const { return m_chart; }
+    ResidualChart *residualChart() const { return m_residuals; }
+    ResultsPanel *results() const { return m_results; }
+    CautionStrip *caution() const { return m_caution; }
+    ReadingsTableModel *readingsModel() const { return m_readingsModel; }
+    QTableView *readingsView() const { return m_readingsView; }
+    QString lastMessage() const { return m_lastMessage; }
+
+protected:
+    void closeEvent(QCloseEvent *event) override;
+    void changeEvent(QEvent *event) override;
+    void dragEnterEvent(QDragEnterEvent *event) override;
+    void dropEvent(QDropEvent *event) override;
+
+private:
+    void createLayout();
+    void createActions();
+    void readSettings();
+    void writeSettings() const;
+    void wireWorkspace();
+
+    void handleSetupChanged();
+    void handlePlanChanged();
+    void handleAccept();
+    void handleRecord();
+    void handleReadingRecorded(int row);
+    void handleReadingChanged(int row);
+    void refreshFitViews();
+    void handleStep(int step, const QString &instruction);
+    void handleSafetyStop(const QString &text);
+    void handleRunningChanged(bool running);
+    void excludeSelected();
+    void restoreSelected();
+    void addNote();
+    void resetViews();
+
+    void newSession();
+    void openSessionDialog();
+    void saveCopyAs();
+    void exportCsv();
+    void reportPdf();
+    void rememberRecent(const QString &path);
+    void rebuildRecentMenu();
+    void showMessage(const QString &text, bool error = false);
+
+    SweepWorkspace *m_workspace;
+    CautionStrip *m_caution;
+    NextStepStrip *m_nextStep;
+    QTabWidget *m_leftTabs;
+    SetupForm *m_setupForm;
+    PlanPanel *m_planPanel;
+    InstrumentsPanel *m_instruments;
+    VoltageCurrentChart *m_chart;
+    ResidualChart *m_residuals;
+    ResultsPanel *m_results;
+    ReadingsTableModel *m_readingsModel;
+    QTableView *m_readingsView;
+    QSplitter *m_mainSplitter;
+    QSplitter *m_chartSplitter;
+    QSplitter *m_rightSplitter;
+    QLabel *m_statusSource;
+    QLabel *m_statusSession;
+    QLabel *m_statusPoints;
+    QMenu *m_recentMenu;
+    QStringList m_recentFiles;
+    QString m_sessionFolder;
+    QString m_lastMessage;
+    QTimer m_resultsTimer;
+    bool m_resultsPending = false;
+};
+
+} // namespace sagline

@@ -1,0 +1,265 @@
+// MainWindow: menus and actions, files (new, open, recent, drop, copy, CSV, PDF), readings
+// table actions, and the settings kept between runs.
+#include "MainWindow.h"
+
+#include "InstrumentsPanel.h"
+#include "PlanPanel.h"
+#include "ReadingsTableModel.h"
+#include "SessionStore.h"
+#include "SetupForm.h"
+#include "SweepWorkspace.h"
+
+#include <QAction>
+#include <QCloseEvent>
+#include <QDir>
+#include <QFileDialog>
+#include <QFileInfo>
+#include <QInputDialog>
+#include <QMenuBar>
+#include <QMessageBox>
+#include <QMimeData>
+#include <QSettings>
+#include <QSplitter>
+#include <QStandardPaths>
+#include <QTableView>
+
+namespace sagline {
+
+namespace {
+constexpr int maxRecentFiles = 8;
+const QString sessionFilter = QStringLiteral("Sagline sessions (*.sagline)");
+} // namespace
+
+void MainWindow::createActions()
+{
+    QMenu *file = menuBar()->addMenu(tr("&File"));
+    file->addAction(tr("&New session"), QKeySequence::New, this, &MainWindow::newSession);
+    file->addAction(tr("&Open session…"), QKeySequence::Open, this, &MainWindow::openSessionDialog);
+    m_recentMenu = file->addMenu(tr("Open &recent"));
+    file->addSeparator();
+    file->addAction(tr("Save a &copy as…"), QKeySequence::SaveAs, this, &MainWindow::saveCopyAs);
+    file->addAction(tr("&Report to PDF…"), QKeySequence(Qt::CTRL | Qt::Key_P), this, &MainWindow::reportPdf);
+    file->addAction(tr("&Export readings to CSV…"), QKeySequence(Qt::CTRL | Qt::Key_E), this, &MainWindow::exportCsv);
+    file->addSeparator();
+    file->addAction(tr("&Quit"), QKeySequence::Quit, this, &QWidget::close);
+
+    QMenu *sweep = menuBar()->addMenu(tr("&Sweep"));
+    sweep->addAction(tr("&Accept plan and start"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_A), this,
+                     &MainWindow::handleAccept);
+    sweep->addAction(tr("&Record (Ctrl+Enter)"), this, &MainWindow::handleRecord);
+    sweep->addAction(tr("&Pause or resume"), QKeySequence(Qt::CTRL | Qt::Key_Period), m_workspace,
+                     &SweepWorkspace::pauseOrResume);
+    sweep->addAction(tr("&Stop"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_S), m_workspace, &SweepWorkspace::stop);
+
+    QMenu *readings = menuBar()->addMenu(tr("&Readings"));
+    auto *exclude = readings->addAction(tr("E&xclude selected point…"), QKeySequence(Qt::CTRL | Qt::Key_Delete), this,
+                                        &MainWindow::excludeSelected);
+    auto *restore = readings->addAction(tr("Re&store selected point…"), QKeySequence(Qt::CTRL | Qt::Key_Insert), this,
+                                        &MainWindow::restoreSelected);
+    auto *note = readings->addAction(tr("Add a &note…"), QKeySequence(Qt::CTRL | Qt::Key_N | Qt::SHIFT), this,
+                                     &MainWindow::addNote);
+    m_readingsView->addActions({exclude, restore, note});
+
+    QMenu *view = menuBar()->addMenu(tr("&View"));
+    view->addAction(tr("&Setup"), QKeySequence(Qt::ALT | Qt::Key_1), this, [this] { m_leftTabs->setCurrentIndex(0); });
+    view->addAction(tr("&Plan"), QKeySequence(Qt::ALT | Qt::Key_2), this, [this] { m_leftTabs->setCurrentIndex(1); });
+    view->addAction(tr("&Instruments"), QKeySequence(Qt::ALT | Qt::Key_3), this, [this] { m_leftTabs->setCurrentIndex(2); });
+    view->addAction(tr("R&eadings table"), QKeySequence(Qt::ALT | Qt::Key_4), this, [this] { m_readingsView->setFocus(); });
+    rebuildRecentMenu();
+}
+
+void MainWindow::readSettings()
+{
+    QSettings settings;
+    restoreGeometry(settings.value(QStringLiteral("window/geometry")).toByteArray());
+    m_mainSplitter->restoreState(settings.value(QStringLiteral("window/mainSplitter")).toByteArray());
+    m_chartSplitter->restoreState(settings.value(QStringLiteral("window/chartSplitter")).toByteArray());
+    m_rightSplitter->restoreState(settings.value(QStringLiteral("window/rightSplitter")).toByteArray());
+    m_recentFiles = settings.value(QStringLiteral("files/recent")).toStringList();
+    m_sessionFolder = settings.value(QStringLiteral("files/sessionFolder")).toString();
+    if (m_sessionFolder.isEmpty())
+        m_sessionFolder = QStandardPaths::writableLocation(QStandardPaths::DocumentsLocation)
+                          + QStringLiteral("/Sagline sessions");
+    SourceChoice choice;
+    choice.source = static_cast<ReadingSource>(settings.value(QStringLiteral("instruments/source"), 0).toInt());
+    choice.serialPort = settings.value(QStringLiteral("instruments/serialPort")).toString();
+    choice.lanAddress = settings.value(QStringLiteral("instruments/lanAddress")).toString();
+    m_instruments->setChoice(choice);
+    SessionDetails details;
+    details.operatorName = settings.value(QStringLiteral("session/operator")).toString();
+    m_setupForm->setSessionDetails(details);
+    rebuildRecentMenu();
+}
+
+void MainWindow::writeSettings() const
+{
+    QSettings settings;
+    settings.setValue(QStringLiteral("window/geometry"), saveGeometry());
+    settings.setValue(QStringLiteral("window/mainSplitter"), m_mainSplitter->saveState());
+    settings.setValue(QStringLiteral("window/chartSplitter"), m_chartSplitter->saveState());
+    settings.setValue(QStringLiteral("window/rightSplitter"), m_rightSplitter->saveState());
+    settings.setValue(QStringLiteral("files/recent"), m_recentFiles);
+    const SourceChoice choice = m_instruments->choice();
+    settings.setValue(QStringLiteral("instruments/source"), int(choice.source));
+    settings.setValue(QStringLiteral("instruments/serialPort"), choice.serialPort);
+    settings.setValue(QStringLiteral("instruments/lanAddress"), choice.lanAddress);
+    settings.setValue(QStringLiteral("session/operator"), m_setupForm->sessionDetails().operatorName);
+}
+
+void MainWindow::setSessionFolder(const QString &folder) { m_sessionFolder = folder; }
+
+void MainWindow::closeEvent(QCloseEvent *event)
+{
+    // Every reading is already committed to the session file; nothing needs saving.
+    if (m_workspace->isRunning())
+        m_workspace->stop();
+    writeSettings();
+    event->accept();
+}
+
+void MainWindow::dragEnterEvent(QDragEnterEvent *event)
+{
+    const auto urls = event->mimeData()->urls();
+    if (urls.size() == 1 && urls.front().isLocalFile() && urls.front().toLocalFile().endsWith(QLatin1String(".sagline")))
+        event->acceptProposedAction();
+}
+
+void MainWindow::dropEvent(QDropEvent *event)
+{
+    openSessionFile(event->mimeData()->urls().front().toLocalFile());
+    event->acceptProposedAction();
+}
+
+void MainWindow::newSession()
+{
+    if (m_workspace->isRunning()
+        && QMessageBox::question(this, tr("New session"),
+                                 tr("A sweep is running. Stop it? Every recorded point stays in its session file."))
+               != QMessageBox::Yes)
+        return;
+    if (m_workspace->isRunning())
+        m_workspace->stop();
+    m_workspace->openSession(QString());
+    resetViews();
+    m_setupForm->setLocked(false);
+    m_instruments->setLocked(false);
+    m_planPanel->setAccepted(false);
+    m_statusSession->clear();
+    handleSetupChanged();
+}
+
+void MainWindow::openSessionDialog()
+{
+    const QString path = QFileDialog::getOpenFileName(this, tr("Open session"), m_sessionFolder, sessionFilter);
+    if (!path.isEmpty())
+        openSessionFile(path);
+}
+
+bool MainWindow::openSessionFile(const QString &path)
+{
+    if (m_workspace->isRunning())
+        m_workspace->stop();
+    resetViews();
+    const QString error = m_workspace->openSession(path);
+    if (!error.isEmpty()) {
+        showMessage(tr("Cannot open %1: %2").arg(path, error), true);
+        return false;
+    }
+    if (m_workspace->setup())
+        m_setupForm->loadSetup(*m_workspace->setup());
+    m_setupForm->setLocked(true);
+    m_instruments->setLocked(true);
+    for (int row = 0; row < static_cast<int>(m_workspace->readings().size()); ++row)
+        handleReadingRecorded(row);
+    refreshFitViews();
+    rememberRecent(path);
+    showMessage(tr("Opened %1").arg(path));
+    return true;
+}
+
+void MainWindow::saveCopyAs()
+{
+    if (!m_workspace->store()) {
+        showMessage(tr("No session is open."), true);
+        return;
+    }
+    const QString path = QFileDialog::getSaveFileName(this, tr("Save a copy"), m_sessionFolder, sessionFilter);
+    if (path.isEmpty())
+        return;
+    const auto status = m_workspace->store()->saveCopyAs(path.toStdString());
+    showMessage(status.ok() ? tr("Copy written to %1").arg(path) : QString::fromStdString(status.message), !status.ok());
+}
+
+void MainWindow::rememberRecent(const QString &path)
+{
+    if (path.isEmpty())
+        return;
+    const QString absolute = QFileInfo(path).absoluteFilePath();
+    m_recentFiles.removeAll(absolute);
+    m_recentFiles.prepend(absolute);
+    while (m_recentFiles.size() > maxRecentFiles)
+        m_recentFiles.removeLast();
+    rebuildRecentMenu();
+}
+
+void MainWindow::rebuildRecentMenu()
+{
+    if (!m_recentMenu)
+        return;
+    m_recentMenu->clear();
+    for (const QString &path : std::as_const(m_recentFiles))
+        m_recentMenu->addAction(QFileInfo(path).fileName(), this, [this, path] { openSessionFile(path); })->setToolTip(path);
+    m_recentMenu->setEnabled(!m_recentFiles.isEmpty());
+}
+
+void MainWindow::excludeSelected()
+{
+    const auto rows = m_readingsView->selectionModel()->selectedRows();
+    if (rows.isEmpty()) {
+        showMessage(tr("Select a reading in the table first."), true);
+        return;
+    }
+    bool ok = false;
+    const QString reason = QInputDialog::getText(this, tr("Exclude point"), tr("Reason (kept with the session):"),
+                                                 QLineEdit::Normal, QString(), &ok);
+    if (!ok)
+        return;
+    const QString error = m_workspace->exclude(rows.front().row(), reason);
+    if (!error.isEmpty())
+        showMessage(error, true);
+    else
+        m_readingsModel->setExcluded(rows.front().row(), true, reason);
+}
+
+void MainWindow::restoreSelected()
+{
+    const auto rows = m_readingsView->selectionModel()->selectedRows();
+    if (rows.isEmpty()) {
+        showMessage(tr("Select a reading in the table first."), true);
+        return;
+    }
+    bool ok = false;
+    const QString reason = QInputDialog::getText(this, tr("Restore point"), tr("Reason (kept with the session):"),
+                                                 QLineEdit::Normal, QString(), &ok);
+    if (!ok)
+        return;
+    const QString error = m_workspace->restore(rows.front().row(), reason);
+    if (!error.isEmpty())
+        showMessage(error, true);
+}
+
+void MainWindow::addNote()
+{
+    bool ok = false;
+    const QString text = QInputDialog::getMultiLineText(this, tr("Add a note"), tr("Note (kept with the session):"),
+                                                        QString(), &ok);
+    if (!ok || text.trimmed().isEmpty())
+        return;
+    const QString error = m_workspace->addNote(text);
+    showMessage(error.isEmpty() ? tr("Note recorded.") : error, !error.isEmpty());
+    const auto rows = m_readingsView->selectionModel()->selectedRows();
+    if (error.isEmpty() && !rows.isEmpty())
+        m_readingsModel->setNote(rows.front().row(), text);
+}
+
+} // namespace sagline

@@ -1,0 +1,301 @@
+#include "SweepWorkspace.h"
+
+#include "BuildInfo.h"
+#include "ManualEntry.h"
+#include "PlanJson.h"
+#include "SessionStore.h"
+#include "SetupJson.h"
+#include "SweepRun.h"
+#include "Units.h"
+
+#include <QDateTime>
+#include <QDir>
+#include <QRegularExpression>
+
+namespace sagline {
+
+namespace {
+
+// Above this many points the full summary (O(n), with the quadratic check) is refreshed at
+// most once a second; the live fit, the band and the results stay current on every point.
+constexpr std::size_t summaryEveryPointUpTo = 5000;
+constexpr qint64 summaryIntervalMs = 1000;
+
+bool entersFit(const Reading &reading)
+{
+    return !reading.excluded && (reading.flags & (flagOverload | flagNotANumber)) == 0;
+}
+
+// "12 °C" -> value; blank -> none; unreadable -> the error naming the field.
+std::optional<double> temperature(const QString &text, const char *field, QString *error)
+{
+    if (text.trimmed().isEmpty())
+        return std::nullopt;
+    const auto parsed = parseQuantity(text.toStdString(), Unit::Celsius);
+    if (!parsed.ok) {
+        *error = QString::fromLatin1(field) + QStringLiteral(": ") + QString::fromStdString(parsed.error);
+        return std::nullopt;
+    }
+    return parsed.value;
+}
+
+} // namespace
+
+SweepWorkspace::SweepWorkspace(QObject *parent) : QObject(parent) {}
+
+SweepWorkspace::~SweepWorkspace() = default;
+
+void SweepWorkspace::setSetupJson(const QString &json)
+{
+    m_errors.clear();
+    m_plan.reset();
+    auto parsed = parseSetupJson(json.toStdString());
+    m_setup = parsed.setup;
+    if (!parsed.errors.empty()) {
+        m_errors = parsed.errors;
+    } else if (m_setup) {
+        auto planned = makePlan(*m_setup);
+        m_plan = planned.plan;
+        m_errors = planned.errors;
+    }
+    emit planChanged();
+}
+
+QString SweepWorkspace::startSweep(const SessionDetails &details, const QString &sessionFolder, const SourceChoice &source)
+{
+    if (!m_setup || !m_plan)
+        return tr("plan: complete the setup first; the rule each field breaks is shown under it");
+    if (isRunning())
+        return tr("sweep: one is already running");
+    if (m_store && !m_readings.empty())
+        return tr("session: this session already holds readings; start a new session (File, New session)");
+    QString error;
+    const auto ambient = temperature(details.ambientTemperature, "session.ambient_temperature_c", &error);
+    const auto winding = temperature(details.windingTemperature, "session.winding_temperature_c", &error);
+    if (!error.isEmpty())
+        return error;
+    if (!QDir().mkpath(sessionFolder))
+        return tr("session folder: cannot create %1").arg(sessionFolder);
+    QString serial = details.unitSerial;
+    serial.replace(QRegularExpression(QStringLiteral("[^A-Za-z0-9_.-]+")), QStringLiteral("_"));
+    const QString stamp = QDateTime::currentDateTimeUtc().toString(QStringLiteral("yyyyMMdd-HHmmss-zzz"));
+    const QString path = QDir(sessionFolder).filePath((serial.isEmpty() ? QStringLiteral("unit") : serial)
+                                                      + QLatin1Char('-') + stamp + QStringLiteral(".sagline"));
+    NewSession session;
+    session.setupJson = setupToJson(*m_setup);
+    session.planJson = planToJson(*m_plan);
+    session.operatorName = details.operatorName.toStdString();
+    session.unitSerial = details.unitSerial.toStdString();
+    session.ambientTemperatureC = ambient;
+    session.windingTemperatureC = winding;
+    session.softwareVersion = std::string("sagline ") + buildinfo::version;
+    auto created = SessionStore::create(path.toStdString(), session);
+    if (!created.ok())
+        return QString::fromStdString(created.message);
+    m_run.reset();
+    m_store = std::move(created.value);
+    m_details = details;
+    m_source = source;
+    resetReadings();
+    emit sessionChanged();
+    auto run = std::make_unique<SweepRun>(this, *m_setup, *m_plan, source);
+    if (!run->errorString().isEmpty())
+        return run->errorString();
+    m_run = std::move(run);
+    m_paused = false;
+    emit runningChanged(true);
+    m_run->start();
+    return {};
+}
+
+QString SweepWorkspace::submitTyped(const QString &currentText, const QString &voltageText)
+{
+    if (!m_run)
+        return tr("reading: no sweep is running; accept the plan first");
+    // Checked per field first so each refusal lands under its own field.
+    const ManualValue current = parseManualValue(MeterRole::SecondaryCurrent, currentText);
+    if (!current.ok)
+        return QStringLiteral("reading.current_a: ") + current.error;
+    const ManualValue voltage = parseManualValue(MeterRole::SecondaryVoltage, voltageText);
+    if (!voltage.ok)
+        return QStringLiteral("reading.voltage_v: ") + voltage.error;
+    const QString refusal = m_run->controller()->submitManualReading(voltageText, currentText);
+    return refusal.isEmpty() ? QString() : QStringLiteral("reading: ") + refusal;
+}
+
+void SweepWorkspace::confirmLoadSet()
+{
+    if (m_run)
+        m_run->controller()->confirmLoadSet();
+}
+
+void SweepWorkspace::pauseOrResume()
+{
+    if (!isRunning())
+        return;
+    m_paused = !m_paused;
+    if (m_paused)
+        m_run->controller()->pause();
+    else
+        m_run->controller()->resume();
+    emit runningChanged(true);
+}
+
+void SweepWorkspace::stop()
+{
+    if (isRunning())
+        m_run->controller()->stop();
+}
+
+bool SweepWorkspace::isRunning() const
+{
+    if (!m_run)
+        return false;
+    const SweepState state = m_run->controller()->state();
+    return state != SweepState::Idle && state != SweepState::Finished && state != SweepState::Stopped;
+}
+
+QString SweepWorkspace::openSession(const QString &path)
+{
+    m_run.reset();
+    m_store.reset();
+    resetReadings();
+    m_paused = false;
+    emit runningChanged(false);
+    if (path.isEmpty())
+        return {};
+    auto opened = SessionStore::openForWriting(path.toStdString());
+    if (opened.code == StoreCode::NewerVersion || opened.code == StoreCode::ReadOnly || opened.code == StoreCode::Busy)
+        opened = SessionStore::openForReview(path.toStdString());
+    if (!opened.ok())
+        return QString::fromStdString(opened.message);
+    auto info = opened.value->info();
+    auto readings = opened.value->readings();
+    if (!info.ok())
+        return QString::fromStdString(info.message);
+    if (!readings.ok())
+        return QString::fromStdString(readings.message);
+    m_store = std::move(opened.value);
+    m_details.operatorName = QString::fromStdString(info.value.operatorName);
+    m_details.unitSerial = QString::fromStdString(info.value.unitSerial);
+    setSetupJson(QString::fromStdString(info.value.setupJson));
+    for (const auto &reading : readings.value) {
+        m_readings.push_back(reading);
+        if (entersFit(reading))
+            m_fit.add(reading.currentA, reading.voltageV);
+    }
+    fitUpdated();
+    emit sessionChanged();
+    if (!m_store->notice().empty())
+        emit notice(QString::fromStdString(m_store->notice()));
+    return {};
+}
+
+QString SweepWorkspace::sessionPath() const { return m_store ? QString::fromStdString(m_store->path()) : QString(); }
+
+QString SweepWorkspace::exclude(int row, const QString &reason)
+{
+    if (!m_store || row < 0 || row >= static_cast<int>(m_readings.size()))
+        return tr("exclude: no such reading");
+    Reading &reading = m_readings[static_cast<std::size_t>(row)];
+    if (reading.excluded)
+        return tr("exclude: this reading is already excluded");
+    const auto result = m_store->excludeReading(reading.id, reason.trimmed().toStdString(), operatorName().toStdString());
+    if (!result.ok())
+        return QString::fromStdString(result.message);
+    const bool wasInFit = entersFit(reading);
+    reading.excluded = true;
+    if (wasInFit)
+        m_fit.remove(reading.currentA, reading.voltageV);
+    fitUpdated();
+    emit readingChanged(row);
+    emit fitChanged();
+    return {};
+}
+
+QString SweepWorkspace::restore(int row, const QString &reason)
+{
+    if (!m_store || row < 0 || row >= static_cast<int>(m_readings.size()))
+        return tr("restore: no such reading");
+    Reading &reading = m_readings[static_cast<std::size_t>(row)];
+    if (!reading.excluded)
+        return tr("restore: this reading is not excluded");
+    const auto result = m_store->restoreReading(reading.id, reason.trimmed().toStdString(), operatorName().toStdString());
+    if (!result.ok())
+        return QString::fromStdString(result.message);
+    reading.excluded = false;
+    if (entersFit(reading))
+        m_fit.add(reading.currentA, reading.voltageV);
+    fitUpdated();
+    emit readingChanged(row);
+    emit fitChanged();
+    return {};
+}
+
+QString SweepWorkspace::addNote(const QString &text)
+{
+    if (!m_store)
+        return tr("note: no session is open");
+    const QString author = operatorName().isEmpty() ? tr("operator") : operatorName();
+    const auto result = m_store->addNote(author.toStdString(), text.trimmed().toStdString());
+    return result.ok() ? QString() : QString::fromStdString(result.message);
+}
+
+void SweepWorkspace::acceptRecorded(const Reading &reading)
+{
+    m_readings.push_back(reading);
+    if (entersFit(reading))
+        m_fit.add(reading.currentA, reading.voltageV);
+    fitUpdated();
+    emit readingRecorded(static_cast<int>(m_readings.size()) - 1);
+    emit fitChanged();
+}
+
+const FitSummary &SweepWorkspace::summary()
+{
+    QElapsedTimer &sinceLast = m_summaryClock;
+    if (!m_summaryStale)
+        return m_summary;
+    const bool large = m_readings.size() > summaryEveryPointUpTo;
+    if (large && sinceLast.isValid() && sinceLast.elapsed() < summaryIntervalMs)
+        return m_summary;
+    m_summary = fitReadings(m_readings, FitMethod::Ols);
+    m_summaryStale = false;
+    sinceLast.start();
+    return m_summary;
+}
+
+double SweepWorkspace::residualOf(double currentA, double voltageV) const
+{
+    return voltageV - m_line.intercept - m_line.slope * currentA;
+}
+
+void SweepWorkspace::resetReadings()
+{
+    m_readings.clear();
+    m_fit.clear();
+    m_summary = {};
+    m_nextCurrentA.reset();
+    fitUpdated();
+}
+
+void SweepWorkspace::fitUpdated()
+{
+    m_summaryStale = true;
+    const LineFitResult result = m_fit.result();
+    m_line = result.ok() ? Line{result.slope, result.intercept} : Line{};
+}
+
+void SweepWorkspace::setNextStep(int step)
+{
+    m_nextCurrentA.reset();
+    if (m_plan) {
+        for (const auto &planned : m_plan->steps) {
+            if (planned.index == step)
+                m_nextCurrentA = planned.currentA;
+        }
+    }
+    emit fitChanged();
+}
+
+} // namespace sagline

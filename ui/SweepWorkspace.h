@@ -1,0 +1,120 @@
+// The open session as the window sees it: the setup and its plan (core's planner), the
+// session file (core's store, always committed), the sweep (the instruments layer's
+// controller, with the virtual bench, meters or typed-in readings), and the fits (core's live
+// LineFit for every point and FitSummary for residuals, outliers and curvature). The window
+// only shows what this class reports; it never computes.
+#pragma once
+
+#include "FieldError.h"
+#include "FitSummary.h"
+#include "LineFit.h"
+#include "Planner.h"
+#include "Reading.h"
+#include "SetupForm.h"
+
+#include <QElapsedTimer>
+#include <QObject>
+#include <QString>
+
+#include <limits>
+#include <memory>
+#include <optional>
+#include <vector>
+
+namespace sagline {
+
+class SessionStore;
+class SweepRun;
+
+enum class ReadingSource { VirtualBench, SerialPort, Lan, TypedIn };
+
+struct SourceChoice {
+    ReadingSource source = ReadingSource::VirtualBench;
+    QString serialPort;  // "/dev/ttyUSB0"
+    QString lanAddress;  // "192.168.1.20:5025"
+};
+
+class SweepWorkspace : public QObject {
+    Q_OBJECT
+public:
+    explicit SweepWorkspace(QObject *parent = nullptr);
+    ~SweepWorkspace() override;
+
+    // Reads the setup JSON and plans it; planChanged() follows either way.
+    void setSetupJson(const QString &json);
+    const std::optional<Setup> &setup() const { return m_setup; }
+    const std::optional<Plan> &plan() const { return m_plan; }
+    const FieldErrors &errors() const { return m_errors; }
+
+    // Creates the session file and starts the sweep. Returns "" or what is wrong, naming the field.
+    QString startSweep(const SessionDetails &details, const QString &sessionPath, const SourceChoice &source);
+    // Typed-in readings: "" when taken, else the refusal naming the field and the rule.
+    QString submitTyped(const QString &currentText, const QString &voltageText);
+    // Instruments: the operator has set the load for this step; the meters read it.
+    void confirmLoadSet();
+    void pauseOrResume();
+    void stop();
+    bool isRunning() const;
+    bool isPaused() const { return m_paused; }
+    bool isTypedIn() const { return m_source.source == ReadingSource::TypedIn; }
+
+    // Opens a saved session (review and continuation of notes/exclusions). "" or the reason.
+    QString openSession(const QString &path);
+    QString sessionPath() const;
+    SessionStore *store() const { return m_store.get(); }
+
+    QString exclude(int row, const QString &reason);
+    QString restore(int row, const QString &reason);
+    QString addNote(const QString &text);
+    QString operatorName() const { return m_details.operatorName; }
+
+    const std::vector<Reading> &readings() const { return m_readings; }
+    const LineFit &liveFit() const { return m_fit; }
+    // The full fit (residuals, outliers, curvature); refreshed after each point while small,
+    // then at most a few times a second, and always on demand here.
+    const FitSummary &summary();
+    double residualOf(double currentA, double voltageV) const;
+    std::optional<double> nextCurrentA() const { return m_nextCurrentA; }
+
+    // For the controller (instruments) and for tests: a reading that the store has committed.
+    void acceptRecorded(const Reading &reading);
+
+signals:
+    void planChanged();
+    void sessionChanged();                 // a session was created or opened
+    void readingRecorded(int row);
+    void readingChanged(int row);          // excluded or restored
+    void fitChanged();
+    void stepChanged(int step, const QString &instruction);
+    void safetyStopped(const QString &text);
+    void notice(const QString &text);
+    void runningChanged(bool running);
+
+private:
+    friend class SweepRun;
+    void resetReadings();
+    void fitUpdated(); // after every change to m_fit
+    void setNextStep(int stepIndex);
+
+    std::optional<Setup> m_setup;
+    std::optional<Plan> m_plan;
+    FieldErrors m_errors;
+    SessionDetails m_details;
+    SourceChoice m_source;
+    std::unique_ptr<SessionStore> m_store;
+    std::unique_ptr<SweepRun> m_run;
+    std::vector<Reading> m_readings;
+    LineFit m_fit;
+    struct Line {
+        double slope = 0.0;
+        double intercept = std::numeric_limits<double>::quiet_NaN(); // NaN: no fit yet
+    };
+    Line m_line;                 // the live fit's line, cached for per-row residuals
+    FitSummary m_summary;
+    QElapsedTimer m_summaryClock;
+    bool m_summaryStale = true;
+    bool m_paused = false;
+    std::optional<double> m_nextCurrentA;
+};
+
+} // namespace sagline
