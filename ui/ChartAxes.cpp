@@ -22,22 +22,42 @@ AxisSpan grownSpan(const AxisSpan &current, double lowNeeded, double highNeeded,
     return {std::min(current.low, needed.low), std::max(current.high, needed.high)};
 }
 
+namespace {
+
+// The "nice" step (1, 2 or 5 × 10^k) at or above `raw`.
+double niceStep(double raw)
+{
+    const double magnitude = std::pow(10.0, std::floor(std::log10(raw)));
+    const double fraction = raw / magnitude;
+    const double nice = fraction <= 1.0 ? 1.0 : fraction <= 2.0 ? 2.0 : fraction <= 5.0 ? 5.0 : 10.0;
+    return nice * magnitude;
+}
+
+} // namespace
+
 void applySpan(QValueAxis *axis, const AxisSpan &span, int ticks)
 {
-    axis->setTickCount(ticks);
-    axis->setRange(span.low, span.high);
-    axis->applyNiceNumbers();
-    const double interval = (axis->max() - axis->min()) / std::max(1, axis->tickCount() - 1);
-    int decimals = 2;
-    if (interval > 0.0) {
+    double low = span.low;
+    double high = span.high;
+    if (!(high > low))
+        high = low + 1.0;
+    const double step = niceStep((high - low) / std::max(1, ticks - 1));
+    const double first = std::floor(low / step + 1e-9) * step;
+    const double last = std::ceil(high / step - 1e-9) * step;
+    // A little room beyond the outer ticks so markers on the edge (the open-circuit point at
+    // I = 0) are drawn whole; ticks stay on round values anchored at the first one.
+    const double pad = 0.015 * (last - first);
+    axis->setTickType(QValueAxis::TicksDynamic);
+    axis->setTickAnchor(first);
+    axis->setTickInterval(step);
+    axis->setRange(first - pad, last + pad);
+    int decimals = std::clamp(static_cast<int>(std::ceil(-std::log10(step) - 1e-9)), 0, 6);
+    while (decimals < 6) {
         // Fewest decimals that show every tick exactly (0.25 needs two, 0.5 one, 5 none).
-        decimals = std::clamp(static_cast<int>(std::ceil(-std::log10(interval) - 1e-9)), 0, 6);
-        while (decimals < 6) {
-            const double scaled = interval * std::pow(10.0, decimals);
-            if (std::abs(scaled - std::round(scaled)) < 1e-6)
-                break;
-            ++decimals;
-        }
+        const double scaled = step * std::pow(10.0, decimals);
+        if (std::abs(scaled - std::round(scaled)) < 1e-6)
+            break;
+        ++decimals;
     }
     axis->setLabelFormat(QStringLiteral("%.%1f").arg(decimals));
 }

@@ -16,6 +16,7 @@
 
 #include <QAction>
 #include <QApplication>
+#include <QComboBox>
 #include <QHeaderView>
 #include <QLabel>
 #include <QMenuBar>
@@ -94,6 +95,9 @@ void MainWindow::createLayout()
     m_mainSplitter->setStretchFactor(1, 4);
     m_mainSplitter->setStretchFactor(2, 3);
     m_mainSplitter->setChildrenCollapsible(false);
+    m_leftTabs->setMinimumWidth(440);
+    m_rightSplitter->setMinimumWidth(420);
+    m_mainSplitter->setSizes({460, 760, 480}); // replaced by the saved layout, if any
 
     auto *central = new QWidget;
     auto *layout = new QVBoxLayout(central);
@@ -165,7 +169,8 @@ void MainWindow::handleAccept()
     const QString error = m_workspace->startSweep(m_setupForm->sessionDetails(), m_sessionFolder, m_instruments->choice());
     if (!error.isEmpty()) {
         showMessage(error, true);
-        m_setupForm->showErrors({{error.section(QLatin1Char(':'), 0, 0).toStdString(), error.section(QLatin1Char(':'), 1).trimmed().toStdString()}});
+        const qsizetype colon = error.indexOf(QLatin1Char(':'));
+        m_setupForm->showErrors({{error.left(colon).toStdString(), error.mid(colon + 1).trimmed().toStdString()}});
         m_leftTabs->setCurrentIndex(0);
         return;
     }
@@ -195,7 +200,7 @@ void MainWindow::handleRecord()
     }
     // The refusal names its field ("reading.current_a: ..."); show it under that field.
     const bool aboutCurrent = refusal.startsWith(current->field());
-    const QString rule = refusal.section(QLatin1Char(':'), 1).trimmed();
+    const QString rule = refusal.mid(refusal.indexOf(QLatin1Char(':')) + 1).trimmed();
     (aboutCurrent ? current : voltage)->setError(rule);
     showMessage(refusal, true);
 }
@@ -268,6 +273,11 @@ void MainWindow::handleRunningChanged(bool running)
     if (!running) {
         m_planPanel->setAccepted(false);
         m_planPanel->acceptButton()->setEnabled(false);
+        const int points = static_cast<int>(m_workspace->readings().size());
+        if (m_workspace->store())
+            m_nextStep->setInstruction(tr("Sweep ended: %n point(s) recorded", nullptr, points),
+                                       tr("Every reading is in the session file; exclude, restore or annotate points "
+                                          "in the readings table, or start a new session (Ctrl+N)."));
     }
 }
 

@@ -15,6 +15,7 @@
 #include <QFileDialog>
 #include <QFileInfo>
 #include <QInputDialog>
+#include <QLabel>
 #include <QMenuBar>
 #include <QMessageBox>
 #include <QMimeData>
@@ -56,7 +57,7 @@ void MainWindow::createActions()
                                         &MainWindow::excludeSelected);
     auto *restore = readings->addAction(tr("Re&store selected point…"), QKeySequence(Qt::CTRL | Qt::Key_Insert), this,
                                         &MainWindow::restoreSelected);
-    auto *note = readings->addAction(tr("Add a &note…"), QKeySequence(Qt::CTRL | Qt::Key_N | Qt::SHIFT), this,
+    auto *note = readings->addAction(tr("Add a &note…"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_N), this,
                                      &MainWindow::addNote);
     m_readingsView->addActions({exclude, restore, note});
 

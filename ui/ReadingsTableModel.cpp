@@ -72,11 +72,18 @@ QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
         return QColor(0x80, 0x80, 0x80);
     if (role == Qt::ToolTipRole && index.column() == Excluded && r.excluded)
         return row.reason;
+    if (role == Qt::ToolTipRole && index.column() == Time)
+        return QString::fromStdString(r.timeUtc);
     if (role != Qt::DisplayRole)
         return {};
     switch (index.column()) {
     case Step: return r.step >= 0 ? QVariant(r.step) : QVariant(QStringLiteral("–"));
-    case Time: return QString::fromStdString(r.timeUtc);
+    case Time: {
+        // The time of day is what matters at the bench; the full UTC stamp is the tooltip.
+        const QString full = QString::fromStdString(r.timeUtc);
+        const qsizetype t = full.indexOf(QLatin1Char('T'));
+        return t >= 0 ? full.mid(t + 1, 8) : full;
+    }
     case Current: return formatQuantity(r.currentA, Unit::Ampere, 5);
     case Voltage: return formatQuantity(r.voltageV, Unit::Volt, 5);
     case Residual: {

@@ -30,7 +30,7 @@ ResultsPanel::ResultsPanel(QWidget *parent)
     layout->addWidget(m_placeholder);
     m_grid->setHorizontalSpacing(12);
     m_grid->setVerticalSpacing(4);
-    m_grid->setColumnStretch(2, 1);
+    m_grid->setColumnStretch(0, 1);
     layout->addLayout(m_grid);
     layout->addStretch(1);
     setVerdict(VerdictState::None, QString(), QString());
@@ -55,16 +55,21 @@ void ResultsPanel::setLines(const QList<ResultLine> &lines)
         for (const auto &line : lines) {
             Row widgets{new QLabel, new QLabel, new QLabel};
             widgets.label->setWordWrap(true);
+            widgets.note->setWordWrap(true);
+            QFont small = widgets.note->font();
+            small.setPointSizeF(small.pointSizeF() * 0.9);
+            widgets.note->setFont(small);
+            widgets.note->setForegroundRole(QPalette::PlaceholderText);
             widgets.value->setFont(valueFont);
             widgets.value->setObjectName(line.key);
             widgets.value->setTextInteractionFlags(Qt::TextSelectableByMouse);
             widgets.value->setAlignment(Qt::AlignRight | Qt::AlignVCenter);
-            widgets.note->setWordWrap(true);
+            // Label with its note beneath on the left, the value large on the right.
             m_grid->addWidget(widgets.label, row, 0);
-            m_grid->addWidget(widgets.value, row, 1);
-            m_grid->addWidget(widgets.note, row, 2);
+            m_grid->addWidget(widgets.value, row, 1, 2, 1);
+            m_grid->addWidget(widgets.note, row + 1, 0);
             m_rows.append(widgets);
-            ++row;
+            row += 2;
         }
         m_keys = keys;
     }

@@ -36,7 +36,7 @@ void insertAt(QJsonObject &root, const QStringList &path, const QJsonValue &valu
 
 SetupForm::SetupForm(QWidget *parent)
     : QWidget(parent), m_construction(new QComboBox), m_material(new QComboBox), m_fuseType(new QComboBox),
-      m_allowOverload(new QCheckBox(tr("Allow overload up to the factor"))), m_operator(new QLineEdit),
+      m_allowOverload(new QCheckBox(tr("Allow overload"))), m_operator(new QLineEdit),
       m_serial(new QLineEdit), m_otherErrors(new QLabel)
 {
     auto *layout = new QVBoxLayout(this);
@@ -48,11 +48,11 @@ SetupForm::SetupForm(QWidget *parent)
     auto *nameplateBox = new QGroupBox(tr("Nameplate"));
     auto *nameplate = new QFormLayout(nameplateBox);
     addQuantity(nameplate, tr("Rated power"), QStringLiteral("nameplate.rated_power_va"), Unit::VoltAmpere, tr("e.g. 50 VA"));
-    addQuantity(nameplate, tr("Rated primary voltage"), QStringLiteral("nameplate.primary_voltage_v"), Unit::Volt, tr("e.g. 120 V"));
+    addQuantity(nameplate, tr("Primary voltage"), QStringLiteral("nameplate.primary_voltage_v"), Unit::Volt, tr("e.g. 120 V"));
     addQuantity(nameplate, tr("Frequency"), QStringLiteral("nameplate.frequency_hz"), Unit::Hertz, tr("e.g. 60 Hz"));
-    addQuantity(nameplate, tr("Rated secondary voltage (full load)"), QStringLiteral("nameplate.secondary_voltage_v"), Unit::Volt, tr("e.g. 24 V"));
-    addQuantity(nameplate, tr("Secondary no-load voltage"), QStringLiteral("nameplate.secondary_no_load_voltage_v"), Unit::Volt, tr("this or regulation"));
-    addQuantity(nameplate, tr("Regulation"), QStringLiteral("nameplate.regulation_percent"), Unit::Percent, tr("this or no-load voltage"));
+    addQuantity(nameplate, tr("Secondary V, full load"), QStringLiteral("nameplate.secondary_voltage_v"), Unit::Volt, tr("e.g. 24 V"));
+    addQuantity(nameplate, tr("Secondary V, no load"), QStringLiteral("nameplate.secondary_no_load_voltage_v"), Unit::Volt, tr("or give regulation"));
+    addQuantity(nameplate, tr("Regulation"), QStringLiteral("nameplate.regulation_percent"), Unit::Percent, tr("or give no-load V"));
     m_construction->addItem(tr("Laminated (E-I core)"), QStringLiteral("laminated"));
     m_construction->addItem(tr("Toroidal"), QStringLiteral("toroidal"));
     m_construction->addItem(tr("Other"), QStringLiteral("other"));
@@ -67,18 +67,18 @@ SetupForm::SetupForm(QWidget *parent)
     auto *benchBox = new QGroupBox(tr("Bench and sweep"));
     auto *bench = new QFormLayout(benchBox);
     addQuantity(bench, tr("Load steps"), QStringLiteral("bench.steps"), Unit::None, tr("e.g. 10"));
-    addQuantity(bench, tr("Top step (fraction of rated current)"), QStringLiteral("bench.top_fraction"), Unit::None, tr("default 1.0"));
-    addQuantity(bench, tr("Overload factor (hard stop at rated VA ×)"), QStringLiteral("bench.overload_factor"), Unit::None, tr("default 1.0"));
+    addQuantity(bench, tr("Top step (× rated I2)"), QStringLiteral("bench.top_fraction"), Unit::None, tr("default 1.0"));
+    addQuantity(bench, tr("Hard stop at (× rated VA)"), QStringLiteral("bench.overload_factor"), Unit::None, tr("default 1.0"));
     bench->addRow(QString(), m_allowOverload);
-    addQuantity(bench, tr("Rheostat track resistance"), QStringLiteral("bench.rheostat.total_resistance_ohm"), Unit::Ohm, tr("blank: not checked"));
-    addQuantity(bench, tr("Rheostat power rating"), QStringLiteral("bench.rheostat.power_rating_w"), Unit::Watt, tr("whole track"));
+    addQuantity(bench, tr("Rheostat track"), QStringLiteral("bench.rheostat.total_resistance_ohm"), Unit::Ohm, tr("blank: not checked"));
+    addQuantity(bench, tr("Rheostat rating"), QStringLiteral("bench.rheostat.power_rating_w"), Unit::Watt, tr("whole track"));
     addQuantity(bench, tr("Primary fuse fitted"), QStringLiteral("bench.fuse.rating_a"), Unit::Ampere, tr("blank: none known"));
     m_fuseType->addItem(tr("Time-lag (T)"), QStringLiteral("time-lag"));
     m_fuseType->addItem(tr("Quick-acting (F)"), QStringLiteral("quick-acting"));
     m_fuseType->setAccessibleName(QStringLiteral("bench.fuse.type"));
     bench->addRow(tr("Fuse type"), m_fuseType);
-    addQuantity(bench, tr("Fuse factor (× rated primary current)"), QStringLiteral("bench.fuse_factor"), Unit::None, tr("default per construction"));
-    addQuantity(bench, tr("Magnetizing current (fraction of rated)"), QStringLiteral("bench.magnetizing_fraction"), Unit::None, tr("default per construction"));
+    addQuantity(bench, tr("Fuse factor (× rated I1)"), QStringLiteral("bench.fuse_factor"), Unit::None, tr("default: per construction"));
+    addQuantity(bench, tr("Magnetizing I (× rated I1)"), QStringLiteral("bench.magnetizing_fraction"), Unit::None, tr("default: per construction"));
     addQuantity(bench, tr("Dwell per step"), QStringLiteral("bench.dwell_s"), Unit::Second, tr("e.g. 10 s"));
     layout->addWidget(benchBox);
 

@@ -112,6 +112,7 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
     connect(controller, &SweepController::linkRestored, workspace,
             [workspace](const QString &message) { emit workspace->notice(tr("Link restored: %1").arg(message)); });
     connect(controller, &SweepController::finished, workspace, [workspace](SweepOutcome outcome) {
+        workspace->setNextStep(-1); // no next step: the prediction marker goes
         emit workspace->notice(tr("Sweep ended: %1").arg(toString(outcome)));
         emit workspace->runningChanged(false);
     });

@@ -245,6 +245,7 @@ void VoltageCurrentChart::growRanges()
 void VoltageCurrentChart::rebuildLimitSeries()
 {
     const double x1 = m_x.high;
+    const double x0 = m_x.low;
     const double y0 = m_y.low;
     const double y1 = m_y.high;
     QList<QPointF> va;
@@ -258,14 +259,14 @@ void VoltageCurrentChart::rebuildLimitSeries()
         if (m_limits.fuseRiskCurrentA)
             currentLimit = std::min(currentLimit, *m_limits.fuseRiskCurrentA);
         for (int i = 0; i <= unsafeGridPoints; ++i) {
-            const double current = x1 * i / unsafeGridPoints;
-            if (current > currentLimit)
-                break;
-            const double atLimit = current > 0.0 ? m_limits.hardStopVa / current : y1;
-            lower.append(QPointF(current, std::clamp(atLimit, y0, y1)));
+            const double current = std::max(0.0, x0) + (x1 - std::max(0.0, x0)) * i / unsafeGridPoints;
             const double atRated = current > 0.0 ? m_limits.ratedVa / current : y1 * 4;
             if (atRated <= y1 * 4)
                 va.append(QPointF(current, atRated));
+            if (current > currentLimit)
+                continue;
+            const double atLimit = current > 0.0 ? m_limits.hardStopVa / current : y1;
+            lower.append(QPointF(current, std::clamp(atLimit, y0, y1)));
         }
         if (currentLimit <= x1) {
             const double atLimit = m_limits.hardStopVa / currentLimit;
@@ -275,12 +276,13 @@ void VoltageCurrentChart::rebuildLimitSeries()
         }
         rated = {QPointF(m_limits.ratedCurrentA, y0), QPointF(m_limits.ratedCurrentA, y1)};
     }
-    m_unsafeUpper->replace(lower.isEmpty() ? QList<QPointF>{} : QList<QPointF>{QPointF(0.0, y1), QPointF(x1, y1)});
+    m_unsafeUpper->replace(lower.isEmpty() ? QList<QPointF>{} : QList<QPointF>{QPointF(x0, y1), QPointF(x1, y1)});
     m_unsafeLower->replace(lower);
-    // The edge is drawn only where it lies inside the plot (not along the top border).
+    // The edge is the limit itself: the VA curve where it lies inside the plot, then the drop
+    // at the current limit; not the plot's own border.
     QList<QPointF> edge;
     for (const auto &p : lower) {
-        if (p.y() < y1)
+        if (p.y() < y1 && !(p.y() <= y0 && p.x() >= x1))
             edge.append(p);
     }
     m_unsafeEdge->replace(edge);

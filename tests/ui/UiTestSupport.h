@@ -1,0 +1,48 @@
+// Helpers shared by the UI tests: a main window on the demo setup with its sessions in a
+// temporary folder, and typing into fields the way a person does.
+#pragma once
+
+#include "MainWindow.h"
+#include "QuantityField.h"
+#include "SetupForm.h"
+#include "SetupJson.h"
+
+#include <QLineEdit>
+#include <QTemporaryDir>
+#include <QTest>
+
+#include <memory>
+
+namespace sagline::test {
+
+inline void typeInto(QLineEdit *edit, const QString &text)
+{
+    edit->setFocus();
+    edit->selectAll();
+    QTest::keyClick(edit, Qt::Key_Backspace);
+    QTest::keyClicks(edit, text);
+}
+
+inline void typeInto(QuantityField *field, const QString &text) { typeInto(field->lineEdit(), text); }
+
+inline QString text(QuantityField *field) { return field->text(); }
+
+// A window showing the repository's demo setup, sessions going to `folder`.
+inline std::unique_ptr<MainWindow> demoWindow(const QString &folder)
+{
+    auto window = std::make_unique<MainWindow>();
+    window->setSessionFolder(folder);
+    const auto parsed = loadSetupFile(std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-setup.json");
+    if (parsed.setup)
+        window->loadSetup(*parsed.setup);
+    window->resize(1400, 900);
+    return window;
+}
+
+// The number at the start of a shown value such as "0.5184 ± 0.0069 Ω".
+inline double leadingNumber(const QString &shown)
+{
+    return shown.section(QLatin1Char(' '), 0, 0).toDouble();
+}
+
+} // namespace sagline::test
