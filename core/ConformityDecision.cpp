@@ -1,6 +1,7 @@
 #include "ConformityDecision.h"
 
 #include "NumberFormat.h"
+#include "UncertaintyFormat.h"
 
 #include <cmath>
 
@@ -63,7 +64,7 @@ ConformityDecision decideAgainstUpperLimit(double measured, double expandedUncer
     d.guardBand = expandedUncertainty;
     d.acceptanceLimit = upperLimit - expandedUncertainty;
     d.ruleName = "ILAC-G8:09/2019 guarded acceptance (guard band w = U, k = 2)";
-    const std::string withU = value + " ± " + formatSignificant(expandedUncertainty, 2);
+    const std::string withU = formatWithUncertainty(measured, expandedUncertainty, "");
     if (measured <= d.acceptanceLimit) {
         d.outcome = ConformityOutcome::Pass;
         d.explanation = withU + " lies wholly within the limit " + limit + ".";

@@ -1,5 +1,7 @@
 #include "ResultAnalysis.h"
 
+#include "TransformerFormulas.h"
+
 #include <cmath>
 
 namespace sagline {
@@ -22,6 +24,31 @@ UncertainValue withUncertainty(double value, std::optional<double> variance, dou
 std::string toString(RegulationBase base)
 {
     return base == RegulationBase::FullLoad ? "full-load" : "no-load";
+}
+
+AnalysisInput analysisInputFor(const Nameplate &nameplate)
+{
+    AnalysisInput input;
+    if (nameplate.secondaryVoltageV > 0.0)
+        input.ratedCurrentA = formulas::ratedCurrent(nameplate.ratedPowerVa, nameplate.secondaryVoltageV);
+    std::optional<double> noLoad = nameplate.secondaryNoLoadVoltageV;
+    if (!noLoad && nameplate.regulationPercent)
+        noLoad = formulas::noLoadVoltageFromRegulation(nameplate.secondaryVoltageV, *nameplate.regulationPercent);
+    if (noLoad && *noLoad > 0.0 && nameplate.primaryVoltageV > 0.0)
+        input.turnsRatio = formulas::turnsRatio(nameplate.primaryVoltageV, *noLoad);
+    input.temperatureConstant = nameplate.windingMaterial == WindingMaterial::Aluminium
+                                    ? TemperatureConstant::Aluminium
+                                    : TemperatureConstant::CopperIeee;
+    return input;
+}
+
+std::optional<double> nameplateRegulationPercent(const Nameplate &nameplate)
+{
+    if (nameplate.regulationPercent && std::isfinite(*nameplate.regulationPercent))
+        return nameplate.regulationPercent;
+    if (nameplate.secondaryNoLoadVoltageV && nameplate.secondaryVoltageV > 0.0)
+        return formulas::regulationPercent(*nameplate.secondaryNoLoadVoltageV, nameplate.secondaryVoltageV);
+    return std::nullopt;
 }
 
 AnalysisResult analyseFit(const FitSummary &fit, const AnalysisInput &input)

@@ -6,6 +6,7 @@
 
 #include "FieldError.h"
 #include "FitSummary.h"
+#include "Setup.h"
 #include "TemperatureCorrection.h"
 
 #include <optional>
@@ -54,6 +55,13 @@ struct AnalysisResult {
 
     bool ok() const { return errors.empty(); }
 };
+
+// From the nameplate: I_rated = S/V2 (full-load), a = V1/V2nl, T_k from the winding material
+// (copper: IEEE C57.12.90's 234.5 °C unless the caller changes it). Temperatures stay empty.
+AnalysisInput analysisInputFor(const Nameplate &nameplate);
+// The nameplate's regulation in % of the full-load voltage: regulationPercent, or from the
+// no-load voltage (V2nl - V2)/V2·100. Empty when neither is usable.
+std::optional<double> nameplateRegulationPercent(const Nameplate &nameplate);
 
 // The fit must be ok. The uncertainties come from FitSummary::analysis*Se() and
 // analysisCovariance() (OLS as fitted; WLS and York enlarged by sqrt(MSWD) when above 1).

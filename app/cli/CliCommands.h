@@ -17,5 +17,6 @@ enum ExitCode : int {
 using Arguments = std::vector<std::string>; // the words after the command name
 
 int runPlan(const Arguments &args);
+int runFit(const Arguments &args);
 
 } // namespace sagline::cli

@@ -16,6 +16,8 @@ struct Command {
 
 constexpr Command commands[] = {
     {"plan", sagline::cli::runPlan, "plan SETUP.json [--json]          plan a safe load sweep from the nameplate"},
+    {"fit", sagline::cli::runFit, "fit DATA.csv|SESSION.sagline [--method ols|wls|york] [--json] [--setup SETUP.json]\n"
+                                  "                                     fit V = V0 - R·I; with a nameplate, regulation and verdict"},
 };
 
 void printUsage(std::ostream &out)

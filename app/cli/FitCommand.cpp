@@ -1,0 +1,224 @@
+// sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json] [--setup SETUP.json]
+//   [--rule simple|guarded] [--regulation-limit PERCENT] [--winding-temperature C]
+//   [--reference-temperature C] [--temperature-constant copper-ieee|copper-iec|aluminium]
+// Fits V = V0 - R·I to the readings; with a nameplate (a session's setup, or --setup) it adds
+// the analysis at rated current and the verdict against the nameplate's regulation.
+#include "CliCommands.h"
+#include "FitOutput.h"
+
+#include "CsvReadings.h"
+#include "SessionStore.h"
+#include "SetupJson.h"
+
+#include <charconv>
+#include <cmath>
+#include <iostream>
+
+namespace sagline::cli {
+
+namespace {
+
+constexpr const char *usage =
+    "usage: sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json]\n"
+    "         [--setup SETUP.json] [--rule simple|guarded] [--regulation-limit PERCENT]\n"
+    "         [--winding-temperature C] [--reference-temperature C]\n"
+    "         [--temperature-constant copper-ieee|copper-iec|aluminium]\n";
+
+struct FitArguments {
+    std::string dataPath;
+    FitMethod method = FitMethod::Ols;
+    bool json = false;
+    std::string setupPath;
+    DecisionRule rule = DecisionRule::GuardedAcceptance;
+    std::optional<double> regulationLimit;
+    std::optional<double> windingTemperatureC;
+    std::optional<double> referenceTemperatureC;
+    std::optional<TemperatureConstant> temperatureConstant;
+};
+
+int invalid(const std::string &message)
+{
+    std::cerr << "sagline-cli fit: " << message << '\n';
+    return exitInvalidInput;
+}
+
+std::optional<double> parseNumber(const std::string &text)
+{
+    double value = 0.0;
+    const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
+    if (ec != std::errc() || end != text.data() + text.size() || !std::isfinite(value))
+        return std::nullopt;
+    return value;
+}
+
+// Returns an error message, or nothing when the arguments are valid.
+std::optional<std::string> parseArguments(const Arguments &args, FitArguments &out)
+{
+    for (std::size_t i = 0; i < args.size(); ++i) {
+        const std::string &arg = args[i];
+        const auto value = [&]() -> std::optional<std::string> {
+            if (i + 1 >= args.size())
+                return std::nullopt;
+            return args[++i];
+        };
+        if (arg == "--json") {
+            out.json = true;
+        } else if (arg == "--method" || arg == "--rule" || arg == "--setup" || arg == "--regulation-limit"
+                   || arg == "--winding-temperature" || arg == "--reference-temperature"
+                   || arg == "--temperature-constant") {
+            const auto text = value();
+            if (!text)
+                return arg + " needs a value";
+            if (arg == "--method") {
+                const auto method = fitMethodFromString(*text);
+                if (!method)
+                    return "--method: unknown method '" + *text + "'; use ols, wls or york";
+                out.method = *method;
+            } else if (arg == "--rule") {
+                const auto rule = decisionRuleFromString(*text);
+                if (!rule)
+                    return "--rule: unknown decision rule '" + *text + "'; use simple or guarded";
+                out.rule = *rule;
+            } else if (arg == "--setup") {
+                out.setupPath = *text;
+            } else if (arg == "--temperature-constant") {
+                out.temperatureConstant = temperatureConstantFromString(*text);
+                if (!out.temperatureConstant)
+                    return "--temperature-constant: use copper-ieee (234.5 °C), copper-iec (235 °C) or aluminium (225 °C)";
+            } else {
+                const auto number = parseNumber(*text);
+                if (!number)
+                    return arg + ": not a finite number: '" + *text + "'";
+                (arg == "--regulation-limit"      ? out.regulationLimit
+                 : arg == "--winding-temperature" ? out.windingTemperatureC
+                                                  : out.referenceTemperatureC) = *number;
+            }
+        } else if (!arg.empty() && arg[0] == '-') {
+            return "unknown option '" + arg + "'";
+        } else if (out.dataPath.empty()) {
+            out.dataPath = arg;
+        } else {
+            return "more than one data file given ('" + out.dataPath + "' and '" + arg + "')";
+        }
+    }
+    if (out.dataPath.empty())
+        return "no data file given";
+    if (out.windingTemperatureC.has_value() != out.referenceTemperatureC.has_value())
+        return "--winding-temperature and --reference-temperature go together";
+    return std::nullopt;
+}
+
+bool endsWith(const std::string &text, const std::string &suffix)
+{
+    return text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0;
+}
+
+// Loads the readings (and a session's setup). Returns an exit code on failure.
+std::optional<int> loadData(const FitArguments &args, std::vector<Reading> &readings, FitReport &report,
+                            std::optional<Setup> &setup)
+{
+    if (endsWith(args.dataPath, ".sagline")) {
+        auto store = SessionStore::openForReview(args.dataPath);
+        if (!store.ok()) {
+            std::cerr << "sagline-cli fit: " << args.dataPath << ": " << store.message << '\n';
+            return store.code == StoreCode::IoError ? exitRuntimeFailure : exitInvalidInput;
+        }
+        auto stored = store.value->readings();
+        auto info = store.value->info();
+        if (!stored.ok() || !info.ok()) {
+            std::cerr << "sagline-cli fit: " << args.dataPath << ": " << (stored.ok() ? info.message : stored.message) << '\n';
+            return exitRuntimeFailure;
+        }
+        readings = std::move(stored.value);
+        const SetupParse parsed = parseSetupJson(info.value.setupJson);
+        if (parsed.setup)
+            setup = parsed.setup;
+        return std::nullopt;
+    }
+    const ReadingsCsvParse csv = loadReadingsCsv(args.dataPath);
+    if (!csv.ok()) {
+        for (const FieldError &e : csv.errors)
+            std::cerr << "sagline-cli fit: " << args.dataPath << ", " << e.message() << '\n';
+        return exitInvalidInput;
+    }
+    if (args.method == FitMethod::Wls && !csv.hasVoltageUncertainty)
+        return invalid(args.dataPath + ": --method wls needs the column u_voltage_v (standard uncertainty of each voltage)");
+    if (args.method == FitMethod::York && !(csv.hasVoltageUncertainty && csv.hasCurrentUncertainty))
+        return invalid(args.dataPath + ": --method york needs the columns u_current_a and u_voltage_v (standard uncertainties)");
+    readings = csv.readings;
+    report.lineNumbers = csv.lineNumbers;
+    return std::nullopt;
+}
+
+} // namespace
+
+int runFit(const Arguments &arguments)
+{
+    FitArguments args;
+    if (const auto error = parseArguments(arguments, args)) {
+        std::cerr << "sagline-cli fit: " << *error << '\n' << usage;
+        return exitInvalidInput;
+    }
+    FitReport report;
+    report.source = args.dataPath;
+    std::vector<Reading> readings;
+    std::optional<Setup> setup;
+    if (const auto code = loadData(args, readings, report, setup))
+        return *code;
+    if (!args.setupPath.empty()) {
+        const SetupParse parsed = loadSetupFile(args.setupPath);
+        if (!parsed.setup) {
+            for (const FieldError &e : parsed.errors)
+                std::cerr << "sagline-cli fit: " << args.setupPath << ", " << e.message() << '\n';
+            return exitInvalidInput;
+        }
+        setup = parsed.setup;
+    }
+
+    report.fit = fitReadings(readings, args.method);
+    if (!report.fit.ok()) {
+        std::string message = report.fit.message;
+        // Name the CSV line as well as the row.
+        const std::size_t at = message.rfind("row ", 0) == 0 ? 4 : std::string::npos;
+        if (at != std::string::npos && !report.lineNumbers.empty()) {
+            const std::size_t row = std::stoul(message.substr(at));
+            if (row < report.lineNumbers.size())
+                message = "line " + std::to_string(report.lineNumbers[row]) + " (" + message.substr(0, message.find(':'))
+                          + ")" + message.substr(message.find(':'));
+        }
+        return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + message);
+    }
+    report.warnings = fitWarnings(report.fit, report.lineNumbers);
+
+    if (setup) {
+        AnalysisInput input = analysisInputFor(setup->nameplate);
+        input.windingTemperatureC = args.windingTemperatureC;
+        input.referenceTemperatureC = args.referenceTemperatureC;
+        if (args.temperatureConstant)
+            input.temperatureConstant = *args.temperatureConstant;
+        report.analysis = analyseFit(report.fit, input);
+        if (!report.analysis->ok()) {
+            for (const FieldError &e : report.analysis->errors)
+                report.warnings.push_back("no analysis at rated current: " + e.message());
+        }
+        report.regulationLimitPercent = args.regulationLimit ? args.regulationLimit
+                                                             : nameplateRegulationPercent(setup->nameplate);
+    } else if (args.regulationLimit || args.windingTemperatureC) {
+        return invalid("--regulation-limit and the temperatures need the nameplate: give --setup SETUP.json or a session");
+    }
+    if (report.analysis && report.analysis->ok() && report.regulationLimitPercent) {
+        const UncertainValue &reg = report.analysis->regulationPercent;
+        report.decision = decideAgainstUpperLimit(reg.value, reg.expandedUncertainty.value_or(0.0),
+                                                  *report.regulationLimitPercent, args.rule);
+        if (!reg.expandedUncertainty)
+            report.warnings.push_back("the verdict ignores uncertainty: the fit has too few points to give one");
+    }
+
+    if (args.json)
+        std::cout << fitReportJson(report).dump(2) << '\n';
+    else
+        printFitReport(report, std::cout);
+    return exitSuccess;
+}
+
+} // namespace sagline::cli

@@ -1,0 +1,34 @@
+// Output of `sagline-cli fit`: the JSON object of DESIGN.md and the aligned human summary.
+#pragma once
+
+#include "ConformityDecision.h"
+#include "FitSummary.h"
+#include "ResultAnalysis.h"
+
+#include <nlohmann/json.hpp>
+
+#include <optional>
+#include <ostream>
+#include <string>
+#include <vector>
+
+namespace sagline::cli {
+
+// Everything the fit command computed, for either output form.
+struct FitReport {
+    std::string source;                      // the input file as given
+    std::vector<int> lineNumbers;            // CSV line of each row (empty for a session)
+    FitSummary fit;
+    std::optional<AnalysisResult> analysis;  // when a nameplate is known
+    std::optional<double> regulationLimitPercent;
+    std::optional<ConformityDecision> decision;
+    std::vector<std::string> warnings;
+};
+
+// Warnings a reader should see: bending, outliers, scatter beyond the stated uncertainties.
+std::vector<std::string> fitWarnings(const FitSummary &fit, const std::vector<int> &lineNumbers);
+
+nlohmann::json fitReportJson(const FitReport &report);
+void printFitReport(const FitReport &report, std::ostream &out);
+
+} // namespace sagline::cli

@@ -1,0 +1,113 @@
+// sagline-cli fit: exit codes, messages naming the line and column, and the JSON keys of DESIGN.md.
+#include "RunProgram.h"
+
+#include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
+
+#include <filesystem>
+#include <fstream>
+
+using sagline::testing::runProgram;
+
+namespace {
+
+const std::string cli = SAGLINE_CLI_PATH;
+const std::string demoReadings = std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-readings.csv";
+const std::string demoSetup = std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-setup.json";
+
+std::string writeTemp(const std::string &name, const std::string &text)
+{
+    const auto path = std::filesystem::temp_directory_path() / ("sagline-fit-test-" + name);
+    std::ofstream(path) << text;
+    return path.string();
+}
+
+const char *const designKeys[] = {"n", "method", "slope", "intercept", "series_resistance_ohm",
+                                  "series_resistance_se_ohm", "no_load_voltage_v", "no_load_voltage_se_v",
+                                  "r_squared", "residual_sd_v", "series_resistance_ci95_ohm", "outliers",
+                                  "curvature_p"};
+
+} // namespace
+
+TEST(FitCommand, JsonHasEveryDesignKeyForEachMethod)
+{
+    for (const char *method : {"ols", "wls", "york"}) {
+        const auto r = runProgram(cli, {"fit", demoReadings, "--method", method, "--json"});
+        ASSERT_EQ(r.exitCode, 0) << method << ": " << r.err;
+        const auto j = nlohmann::json::parse(r.out);
+        for (const char *key : designKeys)
+            EXPECT_TRUE(j.contains(key)) << method << ": " << key;
+        EXPECT_EQ(j["method"], method);
+        EXPECT_EQ(j["n"], 9);
+        EXPECT_DOUBLE_EQ(j["series_resistance_ohm"].get<double>(), -j["slope"].get<double>());
+        EXPECT_DOUBLE_EQ(j["no_load_voltage_v"].get<double>(), j["intercept"].get<double>());
+        ASSERT_TRUE(j["series_resistance_ci95_ohm"].is_array());
+        EXPECT_EQ(j["series_resistance_ci95_ohm"].size(), 2u);
+        EXPECT_TRUE(j["outliers"].is_array());
+        EXPECT_TRUE(j["curvature_p"].is_number());
+        if (std::string(method) == "york") {
+            for (const char *key : {"series_resistance_se_scaled_ohm", "no_load_voltage_se_scaled_v", "mswd"})
+                EXPECT_TRUE(j[key].is_number()) << key;
+        }
+    }
+}
+
+TEST(FitCommand, HumanSummaryShowsUnitsUncertaintyAndVerdict)
+{
+    const auto r = runProgram(cli, {"fit", demoReadings, "--setup", demoSetup});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    EXPECT_NE(r.out.find("Series resistance R"), std::string::npos);
+    EXPECT_NE(r.out.find("mΩ ± "), std::string::npos);
+    EXPECT_NE(r.out.find("(k = 2)"), std::string::npos);
+    EXPECT_NE(r.out.find("Regulation"), std::string::npos);
+    EXPECT_NE(r.out.find("ILAC-G8:09/2019"), std::string::npos);
+    const auto j = nlohmann::json::parse(runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--json"}).out);
+    EXPECT_TRUE(j["analysis"]["regulation_percent"]["expanded_uncertainty"].is_number());
+    EXPECT_TRUE(j["verdict"]["outcome"].is_string());
+}
+
+TEST(FitCommand, CsvErrorsNameLineAndColumnAndExitTwo)
+{
+    const auto path = writeTemp("bad.csv", "current_a,voltage_v\n0,19.6\n1,abc\n");
+    const auto r = runProgram(cli, {"fit", path});
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("line 3, column voltage_v"), std::string::npos) << r.err;
+    EXPECT_TRUE(r.out.empty());
+}
+
+TEST(FitCommand, WeightedMethodsSayWhichColumnIsMissing)
+{
+    const auto path = writeTemp("plain.csv", "current_a,voltage_v\n0,19.6\n1,19.1\n2,18.7\n");
+    const auto wls = runProgram(cli, {"fit", path, "--method", "wls"});
+    EXPECT_EQ(wls.exitCode, 2);
+    EXPECT_NE(wls.err.find("u_voltage_v"), std::string::npos) << wls.err;
+    const auto york = runProgram(cli, {"fit", path, "--method", "york"});
+    EXPECT_EQ(york.exitCode, 2);
+    EXPECT_NE(york.err.find("u_current_a"), std::string::npos) << york.err;
+}
+
+TEST(FitCommand, UsageAndDegenerateDataExitTwo)
+{
+    EXPECT_EQ(runProgram(cli, {"fit"}).exitCode, 2);
+    EXPECT_EQ(runProgram(cli, {"fit", demoReadings, "--method", "odr"}).exitCode, 2);
+    EXPECT_EQ(runProgram(cli, {"fit", demoReadings, "--frobnicate"}).exitCode, 2);
+    EXPECT_EQ(runProgram(cli, {"fit", "/nonexistent/data.csv"}).exitCode, 2);
+    const auto same = writeTemp("same.csv", "current_a,voltage_v\n1,19.6\n1,19.1\n1,18.7\n");
+    const auto r = runProgram(cli, {"fit", same});
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("degenerate-current"), std::string::npos) << r.err;
+    const auto zeroU = writeTemp("zero-u.csv", "current_a,voltage_v,u_voltage_v\n0,19.6,0.01\n1,19.1,0\n");
+    EXPECT_EQ(runProgram(cli, {"fit", zeroU, "--method", "wls"}).exitCode, 2);
+}
+
+TEST(FitCommand, TwoPointsGiveNullUncertaintiesNotNaN)
+{
+    const auto path = writeTemp("two.csv", "current_a,voltage_v\n0,19.6\n2,18.6\n");
+    const auto r = runProgram(cli, {"fit", path, "--json"});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const auto j = nlohmann::json::parse(r.out);
+    EXPECT_DOUBLE_EQ(j["series_resistance_ohm"].get<double>(), 0.5);
+    EXPECT_TRUE(j["series_resistance_se_ohm"].is_null());
+    EXPECT_TRUE(j["curvature_p"].is_null());
+    EXPECT_EQ(r.out.find("nan"), std::string::npos);
+}
