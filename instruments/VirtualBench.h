@@ -1,0 +1,93 @@
+// The virtual bench: a transformer (core/TransformerModel) fed through a primary fuse
+// (core/FuseModel), a programmable load, and meters with resolution, noise, a fixed gain
+// error within their accuracy spec and a range (overload above it). Time comes from the
+// injected Clock, so copper heating and fuse heating follow simulated or wall time alike.
+// The SCPI side (SimInstrument) and the transports (pty, TCP, in-process) are separate.
+#pragma once
+
+#include "Clock.h"
+#include "FuseModel.h"
+#include "MeterRole.h"
+#include "Planner.h"
+#include "TransformerModel.h"
+
+#include <QObject>
+
+#include <memory>
+#include <optional>
+#include <random>
+
+namespace sagline {
+
+struct SimMeterSpec {
+    double resolution = 0.001;     // one count, V or A
+    double noiseSd = 0.002;        // reading noise, standard deviation, V or A
+    AccuracySpec accuracy{0.5, 3}; // the meter's gain error is drawn once inside this limit
+    double rangeMax = 100.0;       // above this the meter reports overload (9.9E37)
+};
+
+struct VirtualBenchOptions {
+    TransformerParameters transformer;
+    std::optional<FuseSpec> fuse;  // the primary fuse; none = no fuse fitted
+    SimMeterSpec voltmeter;
+    SimMeterSpec ammeter;
+    std::uint64_t seed = 1;
+};
+
+// A bench for a setup: the transformer its nameplate describes (magnetizing current from the
+// plan's fraction), its fuse, meters ranged and specified like ordinary bench meters.
+VirtualBenchOptions virtualBenchOptionsFor(const Setup &setup, const Plan &plan, std::uint64_t seed);
+
+class SimInstrument;
+
+class VirtualBench : public QObject {
+    Q_OBJECT
+public:
+    VirtualBench(const VirtualBenchOptions &options, Clock *clock, QObject *parent = nullptr);
+    ~VirtualBench() override;
+
+    const VirtualBenchOptions &options() const { return m_options; }
+    Clock *clock() const { return m_clock; }
+
+    void setLoad(std::optional<double> resistanceOhm); // nullopt = open circuit
+    std::optional<double> load() const;
+    TransformerState state();                          // brought up to the clock's present time
+    bool isFuseOpen();
+    void replaceFuse();
+
+    // Meter readings as the meters show them (gain error, noise, resolution). nullopt = overload.
+    std::optional<double> readVoltage();
+    std::optional<double> readCurrent();
+
+    // The instruments on this bench (owned by it): a voltmeter, an ammeter, a two-channel
+    // power meter (both secondary V and I) and the programmable load.
+    SimInstrument *voltmeter() const { return m_voltmeter; }
+    SimInstrument *ammeter() const { return m_ammeter; }
+    SimInstrument *powerMeter() const { return m_powerMeter; }
+    SimInstrument *loadInstrument() const { return m_load; }
+    QList<SimInstrument *> instruments() const { return {m_voltmeter, m_ammeter, m_powerMeter, m_load}; }
+
+    std::mt19937_64 &random() { return m_random; }
+
+signals:
+    void fuseOpened(double primaryCurrentA);
+
+private:
+    void update();
+    std::optional<double> meterReading(double trueValue, const SimMeterSpec &spec, double gain);
+
+    VirtualBenchOptions m_options;
+    Clock *m_clock;
+    TransformerModel m_transformer;
+    std::unique_ptr<FuseModel> m_fuse;
+    std::int64_t m_lastUpdateMs = 0;
+    std::mt19937_64 m_random;
+    double m_voltmeterGain = 1.0;
+    double m_ammeterGain = 1.0;
+    SimInstrument *m_voltmeter;
+    SimInstrument *m_ammeter;
+    SimInstrument *m_powerMeter;
+    SimInstrument *m_load;
+};
+
+} // namespace sagline
