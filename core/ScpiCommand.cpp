@@ -38,22 +38,36 @@ struct PatternNode {
 
 std::vector<PatternNode> parsePattern(std::string_view pattern)
 {
+    // "[SOURce:]RESistance[:LEVel]" -> SOURce (optional), RESistance, LEVel (optional)
     std::vector<PatternNode> nodes;
     std::size_t i = 0;
     while (i < pattern.size()) {
+        if (pattern[i] == ':') {
+            ++i;
+            continue;
+        }
         bool optional = false;
+        std::size_t end = i;
         if (pattern[i] == '[') {
             optional = true;
             ++i;
+            end = pattern.find(']', i);
+            if (end == std::string_view::npos)
+                end = pattern.size();
+        } else {
+            while (end < pattern.size() && pattern[end] != ':' && pattern[end] != '[')
+                ++end;
         }
-        if (i < pattern.size() && pattern[i] == ':')
-            ++i;
-        const std::size_t start = i;
-        while (i < pattern.size() && pattern[i] != ':' && pattern[i] != '[' && pattern[i] != ']')
-            ++i;
-        nodes.push_back({pattern.substr(start, i - start), optional});
-        if (i < pattern.size() && pattern[i] == ']')
-            ++i;
+        std::string_view group = pattern.substr(i, end - i);
+        std::size_t start = 0;
+        for (std::size_t k = 0; k <= group.size(); ++k) {
+            if (k == group.size() || group[k] == ':') {
+                if (k > start)
+                    nodes.push_back({group.substr(start, k - start), optional});
+                start = k + 1;
+            }
+        }
+        i = (optional && end < pattern.size()) ? end + 1 : end;
     }
     return nodes;
 }
