@@ -40,8 +40,8 @@ VirtualBenchOptions virtualBenchOptionsFor(const Setup &setup, const Plan &plan,
     // One count on a 4½-digit display for that range (common practice).
     options.voltmeter.resolution = options.voltmeter.rangeMax / 20000.0;
     options.ammeter.resolution = options.ammeter.rangeMax / 20000.0;
-    options.voltmeter.noiseSd = 2.0 * options.voltmeter.resolution;
-    options.ammeter.noiseSd = 2.0 * options.ammeter.resolution;
+    options.voltmeter.noiseSd = options.voltmeter.resolution;
+    options.ammeter.noiseSd = options.ammeter.resolution;
     options.voltmeter.accuracy = {0.5, 3.0};
     options.ammeter.accuracy = {1.0, 3.0};
     return options;
