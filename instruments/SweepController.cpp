@@ -32,6 +32,9 @@ QString formatResistance(double ohms)
     return sig3(ohms) + QStringLiteral(" Ω");
 }
 
+// Below this many points the scatter estimate is too rough to call a reading an outlier.
+constexpr int minPointsForPredictionCheck = 4;
+
 } // namespace
 
 QString toString(SweepState state)
@@ -184,6 +187,8 @@ void SweepController::beginStep()
     const int serial = ++m_readSerial;
     m_step = m_plan.steps[m_stepIndex].index;
     emit stepStarted(m_step, instruction(m_step));
+    if (serial != m_readSerial)
+        return; // a handler paused or stopped the sweep, or the link dropped meanwhile
     if (!m_rig) {
         setState(SweepState::WaitingForEntry);
         return;
@@ -389,13 +394,22 @@ void SweepController::acceptPoint(Reading reading)
 {
     cancelTimers();
     ++m_readSerial;
-    if (m_fit) {
+    if (m_fit && m_fit->snapshot().pointCount >= minPointsForPredictionCheck) {
         if (auto band = m_fit->predict(reading.currentA, m_options.predictionLevel)) {
-            if (reading.voltageV < band->lowV || reading.voltageV > band->highV) {
+            // The fit's interval knows the scatter so far; the new reading also carries its own
+            // meter uncertainty (resolution, accuracy), which a few points cannot reveal.
+            const double half = (band->highV - band->lowV) / 2.0;
+            const double meter = 3.0 * reading.uVoltageV.value_or(0.0);
+            const double widened = std::sqrt(half * half + meter * meter);
+            const double low = band->predictedV - widened;
+            const double high = band->predictedV + widened;
+            if (reading.voltageV < low || reading.voltageV > high) {
                 reading.flags |= flagOutsidePrediction;
                 emit notice(tr("step %1: %2 V is far outside the expected %3 .. %4 V (wrong range, loose lead?)")
                                 .arg(m_step)
-                                .arg(sig3(reading.voltageV), sig3(band->lowV), sig3(band->highV)));
+                                .arg(reading.voltageV, 0, 'f', 4)
+                                .arg(low, 0, 'f', 4)
+                                .arg(high, 0, 'f', 4));
             }
         }
     }
@@ -453,14 +467,19 @@ void SweepController::tripSafety(const SafetyTrip &trip, Reading reading)
 
 void SweepController::nextStep()
 {
-    ++m_stepIndex;
+    // A pointRecorded handler may have paused or stopped the sweep (or the link dropped).
+    if (m_state == SweepState::Stopped || m_state == SweepState::Finished)
+        return;
     m_loadConfirmed = false;
-    if (m_stepIndex >= static_cast<int>(m_plan.steps.size())) {
-        m_stepIndex = static_cast<int>(m_plan.steps.size()) - 1;
+    if (m_stepIndex + 1 >= static_cast<int>(m_plan.steps.size())) {
         openLoad();
         finish(SweepOutcome::Completed);
         return;
     }
+    ++m_stepIndex;
+    m_step = m_plan.steps[m_stepIndex].index;
+    if (m_state == SweepState::Paused)
+        return; // resume() starts the new step
     beginStep();
 }
 
@@ -535,6 +554,7 @@ void SweepController::resume()
     }
     m_operatorPaused = false;
     if (m_uncommitted) {
+        setState(SweepState::Measuring); // retrying the held point's commit
         Reading reading = *m_uncommitted;
         if (commitAndReport(reading))
             nextStep();
@@ -582,6 +602,7 @@ void SweepController::handleRigRestored(const QString &message)
     if (m_state != SweepState::Paused || m_operatorPaused)
         return;
     if (m_uncommitted) {
+        setState(SweepState::Measuring); // retrying the held point's commit
         Reading reading = *m_uncommitted;
         if (commitAndReport(reading))
             nextStep();
