@@ -18,5 +18,6 @@ using Arguments = std::vector<std::string>; // the words after the command name
 
 int runPlan(const Arguments &args);
 int runFit(const Arguments &args);
+int runRun(const Arguments &args);
 
 } // namespace sagline::cli

@@ -18,6 +18,8 @@ constexpr Command commands[] = {
     {"plan", sagline::cli::runPlan, "plan SETUP.json [--json]          plan a safe load sweep from the nameplate"},
     {"fit", sagline::cli::runFit, "fit DATA.csv|SESSION.sagline [--method ols|wls|york] [--json] [--setup SETUP.json]\n"
                                   "                                     fit V = V0 - R·I; with a nameplate, regulation and verdict"},
+    {"run", sagline::cli::runRun, "run SETUP.json (--sim | --voltmeter ADDR --ammeter ADDR | --meter ADDR) -o SESSION.sagline\n"
+            "                                     run a load sweep headless (see run --help)"},
 };
 
 void printUsage(std::ostream &out)

@@ -1,0 +1,361 @@
+// sagline-cli run: a whole load sweep, headless. One line per recorded point on stdout
+// (step, I, V, live R), instructions and notices on stderr, then the final fit.
+// With --sim the virtual bench runs in this process (its load is programmable; simulated time
+// unless --sim-realtime); with real meters the operator sets the load and presses Enter.
+#include "CliCommands.h"
+#include "FitOutput.h"
+
+#include "BuildInfo.h"
+#include "Clock.h"
+#include "InstrumentRig.h"
+#include "LineFitLiveFit.h"
+#include "LinkAddress.h"
+#include "PlanJson.h"
+#include "Planner.h"
+#include "ResultAnalysis.h"
+#include "SessionStore.h"
+#include "SessionStoreSink.h"
+#include "SetupJson.h"
+#include "SweepController.h"
+#include "VirtualBench.h"
+
+#include <QCoreApplication>
+#include <QDateTime>
+#include <QSocketNotifier>
+#include <QTimer>
+
+#include <cstdio>
+#include <iostream>
+#include <memory>
+#include <optional>
+
+namespace sagline::cli {
+
+namespace {
+
+struct RunArguments {
+    std::string setupPath;
+    std::string outputPath;
+    bool sim = false;
+    bool simRealtime = false;
+    bool simSingleMeter = false;
+    std::uint64_t seed = 1;
+    std::optional<double> simFuseRatingA;
+    RigAddresses addresses;
+    std::optional<double> dwellS;
+    std::string operatorName;
+    std::string unitSerial;
+    std::optional<double> ambientC;
+};
+
+const char *usage =
+    "usage: sagline-cli run SETUP.json (--sim | --voltmeter ADDR --ammeter ADDR | --meter ADDR) -o SESSION.sagline\n"
+    "         [--load ADDR] [--operator NAME] [--serial UNIT] [--ambient C] [--dwell S] [--timeout-ms MS] [--reset]\n"
+    "         [--seed N] [--sim-realtime] [--sim-single-meter] [--sim-fuse-rating A]\n"
+    "  ADDR: a serial port PORT[,BAUD[,8N1[,rtscts|xonxoff]]] or tcp:HOST[:PORT] (SCPI raw socket, default 5025)\n";
+
+int invalid(const std::string &message)
+{
+    std::cerr << "sagline-cli run: " << message << "\n\n" << usage;
+    return exitInvalidInput;
+}
+
+std::optional<double> number(const std::string &text)
+{
+    try {
+        std::size_t used = 0;
+        const double v = std::stod(text, &used);
+        if (used != text.size() || !std::isfinite(v))
+            return std::nullopt;
+        return v;
+    } catch (...) {
+        return std::nullopt;
+    }
+}
+
+std::string parseArguments(const Arguments &args, RunArguments *out)
+{
+    for (std::size_t i = 0; i < args.size(); ++i) {
+        const std::string &a = args[i];
+        auto value = [&](std::string *target) -> std::string {
+            if (i + 1 >= args.size())
+                return a + " needs a value";
+            *target = args[++i];
+            return {};
+        };
+        auto numeric = [&](std::optional<double> *target, double min) -> std::string {
+            std::string text;
+            if (std::string e = value(&text); !e.empty())
+                return e;
+            *target = number(text);
+            if (!*target || **target < min)
+                return a + ": '" + text + "' must be a number >= " + std::to_string(min);
+            return {};
+        };
+        std::string error;
+        QString *address = nullptr;
+        if (a == "-o" || a == "--output")
+            error = value(&out->outputPath);
+        else if (a == "--sim")
+            out->sim = true;
+        else if (a == "--sim-realtime")
+            out->sim = out->simRealtime = true;
+        else if (a == "--sim-single-meter")
+            out->sim = out->simSingleMeter = true;
+        else if (a == "--sim-fuse-rating")
+            error = numeric(&out->simFuseRatingA, 0.0);
+        else if (a == "--voltmeter")
+            address = &out->addresses.voltmeter;
+        else if (a == "--ammeter")
+            address = &out->addresses.ammeter;
+        else if (a == "--meter")
+            address = &out->addresses.meter;
+        else if (a == "--load")
+            address = &out->addresses.load;
+        else if (a == "--reset")
+            out->addresses.resetOnConnect = true;
+        else if (a == "--operator")
+            error = value(&out->operatorName);
+        else if (a == "--serial")
+            error = value(&out->unitSerial);
+        else if (a == "--ambient")
+            error = numeric(&out->ambientC, -60.0);
+        else if (a == "--dwell")
+            error = numeric(&out->dwellS, 0.0);
+        else if (a == "--timeout-ms" || a == "--seed") {
+            std::optional<double> v;
+            error = numeric(&v, a == "--seed" ? 0.0 : 50.0);
+            if (error.empty() && a == "--seed")
+                out->seed = static_cast<std::uint64_t>(*v);
+            else if (error.empty())
+                out->addresses.timeoutMs = static_cast<int>(*v);
+        } else if (!a.empty() && a[0] == '-')
+            error = "unknown option " + a;
+        else if (out->setupPath.empty())
+            out->setupPath = a;
+        else
+            error = "unexpected argument '" + a + "'";
+        if (address) {
+            std::string text;
+            error = value(&text);
+            *address = QString::fromStdString(text);
+        }
+        if (!error.empty())
+            return error;
+    }
+    if (out->setupPath.empty())
+        return "give the setup file";
+    if (out->outputPath.empty())
+        return "give the session file to write with -o SESSION.sagline";
+    const bool meters = !out->addresses.voltmeter.isEmpty() || !out->addresses.ammeter.isEmpty() || !out->addresses.meter.isEmpty();
+    if (out->sim == meters)
+        return "give either --sim or the meters (--voltmeter and --ammeter, or --meter)";
+    if (out->sim && !out->addresses.load.isEmpty())
+        return "--load is for real instruments; the virtual bench has its own load";
+    return {};
+}
+
+QString formatPoint(const Reading &reading, const LiveFitSnapshot &fit)
+{
+    QString r = fit.valid ? QStringLiteral("%1 Ω").arg(fit.seriesResistanceOhm, 0, 'f', 4) : QStringLiteral("-");
+    QString line = QStringLiteral("%1  I %2 A  V %3 V  live R %4")
+                       .arg(reading.step, 2)
+                       .arg(reading.currentA, 8, 'f', 4)
+                       .arg(reading.voltageV, 8, 'f', 4)
+                       .arg(r);
+    const std::string flags = flagsToString(reading.flags & ~static_cast<std::uint32_t>(flagSimulated));
+    if (!flags.empty())
+        line += QStringLiteral("  [%1]").arg(QString::fromStdString(flags));
+    return line;
+}
+
+} // namespace
+
+int runRun(const Arguments &rawArgs)
+{
+    for (const std::string &a : rawArgs) {
+        if (a == "--help" || a == "-h") {
+            std::cout << usage;
+            return exitSuccess;
+        }
+    }
+    RunArguments args;
+    if (std::string error = parseArguments(rawArgs, &args); !error.empty())
+        return invalid(error);
+    const SetupParse parsed = loadSetupFile(args.setupPath);
+    if (!parsed.setup) {
+        for (const FieldError &e : parsed.errors)
+            std::cerr << "sagline-cli run: " << args.setupPath << ", " << e.message() << '\n';
+        return exitInvalidInput;
+    }
+    const Setup &setup = *parsed.setup;
+    const PlanResult planned = makePlan(setup);
+    if (!planned.plan) {
+        for (const FieldError &e : planned.errors)
+            std::cerr << "sagline-cli run: plan refused: " << e.message() << '\n';
+        return exitInvalidInput;
+    }
+    const Plan &plan = *planned.plan;
+
+    int argc = 1;
+    char name[] = "sagline-cli";
+    char *argv[] = {name, nullptr};
+    QCoreApplication app(argc, argv);
+
+    // Instruments first: no session file for a bench that is not there.
+    std::unique_ptr<Clock> clock;
+    VirtualClock *virtualClock = nullptr;
+    std::unique_ptr<VirtualBench> bench;
+    std::unique_ptr<InstrumentRig> rig;
+    if (args.sim && !args.simRealtime) {
+        auto vc = std::make_unique<VirtualClock>(QDateTime::currentMSecsSinceEpoch());
+        virtualClock = vc.get();
+        clock = std::move(vc);
+    } else {
+        clock = std::make_unique<SystemClock>();
+    }
+    if (args.sim) {
+        VirtualBenchOptions options = virtualBenchOptionsFor(setup, plan, args.seed);
+        if (args.simFuseRatingA && options.fuse)
+            options.fuse->ratingA = *args.simFuseRatingA;
+        bench = std::make_unique<VirtualBench>(options, clock.get());
+        rig.reset(makeVirtualBenchRig(bench.get(), args.simSingleMeter));
+    } else {
+        QString error;
+        rig.reset(makeRig(args.addresses, &error));
+        if (!rig)
+            return invalid(error.toStdString());
+    }
+    if (const QString problem = rig->validate(); !problem.isEmpty())
+        return invalid(problem.toStdString());
+
+    std::optional<QString> connectError;
+    bool connected = false;
+    QObject::connect(rig.get(), &InstrumentRig::ready, [&] { connected = true; app.quit(); });
+    QObject::connect(rig.get(), &InstrumentRig::connectFailed, [&](const QString &m) { connectError = m; app.quit(); });
+    QObject::connect(rig.get(), &InstrumentRig::instrumentError,
+                     [](const QString &m) { std::cerr << "instrument: " << m.toStdString() << '\n'; });
+    rig->connectAll();
+    app.exec();
+    if (!connected) {
+        std::cerr << "sagline-cli run: cannot connect: " << connectError.value_or(QStringLiteral("unknown error")).toStdString() << '\n';
+        return exitRuntimeFailure;
+    }
+    for (ScpiInstrument *instrument : rig->instruments())
+        std::cerr << "connected " << instrument->name().toStdString() << ": " << instrument->identityText().toStdString()
+                  << " (" << instrument->link()->description().toStdString() << ")\n";
+
+    NewSession session;
+    session.setupJson = setupToJson(setup);
+    session.planJson = planToJson(plan);
+    session.operatorName = !args.operatorName.empty() ? args.operatorName
+                           : qEnvironmentVariableIsSet("USER") ? qEnvironmentVariable("USER").toStdString()
+                                                               : std::string("operator");
+    session.unitSerial = !args.unitSerial.empty() ? args.unitSerial
+                         : args.sim ? "virtual-bench-seed-" + std::to_string(args.seed)
+                                    : std::string("unspecified");
+    session.ambientTemperatureC = args.ambientC;
+    session.softwareVersion = std::string("sagline-cli ") + buildinfo::version;
+    auto created = SessionStore::create(args.outputPath, session);
+    if (!created.ok()) {
+        std::cerr << "sagline-cli run: " << args.outputPath << ": " << created.status().message << '\n';
+        return created.status().code == StoreCode::FileExists ? exitInvalidInput : exitRuntimeFailure;
+    }
+    std::unique_ptr<SessionStore> store = std::move(created.value);
+    SessionStoreSink sink(store.get(), QStringLiteral("sagline-cli run"));
+    LineFitLiveFit fit;
+
+    SweepOptions options = sweepOptionsFor(setup, plan);
+    options.simulated = args.sim;
+    if (args.dwellS)
+        options.dwellMs = static_cast<std::int64_t>(*args.dwellS * 1000.0);
+    SweepController controller(plan, options, rig.get(), &sink, &fit, clock.get());
+
+    std::optional<SweepOutcome> outcome;
+    const bool waitForEnter = !controller.hasProgrammableLoad();
+    QSocketNotifier stdinNotifier(fileno(stdin), QSocketNotifier::Read);
+    stdinNotifier.setEnabled(false);
+    QObject::connect(&stdinNotifier, &QSocketNotifier::activated, [&] {
+        std::string line;
+        if (!std::getline(std::cin, line)) {
+            stdinNotifier.setEnabled(false);
+            std::cerr << "standard input closed: stopping the sweep\n";
+            controller.stop();
+            return;
+        }
+        if (controller.state() == SweepState::WaitingForLoad)
+            controller.confirmLoadSet();
+    });
+    QObject::connect(&controller, &SweepController::stepStarted, [&](int step, const QString &text) {
+        std::cerr << "step " << step << ": " << text.toStdString()
+                  << (waitForEnter ? " -- press Enter when it is set" : "") << '\n';
+    });
+    QObject::connect(&controller, &SweepController::stateChanged, [&](SweepState state) {
+        stdinNotifier.setEnabled(state == SweepState::WaitingForLoad);
+    });
+    QObject::connect(&controller, &SweepController::pointRecorded, [](const Reading &reading, const LiveFitSnapshot &snapshot) {
+        std::cout << formatPoint(reading, snapshot).toStdString() << std::endl;
+    });
+    QObject::connect(&controller, &SweepController::notice, [](const QString &m) { std::cerr << "note: " << m.toStdString() << '\n'; });
+    QObject::connect(&controller, &SweepController::linkLost, [](const QString &m) { std::cerr << "PAUSED: " << m.toStdString() << '\n'; });
+    QObject::connect(&controller, &SweepController::linkRestored,
+                     [](const QString &m) { std::cerr << "link restored (" << m.toStdString() << "); resuming\n"; });
+    QObject::connect(&controller, &SweepController::paused, [&](const QString &reason) {
+        if (!controller.isManual() && reason.startsWith(QStringLiteral("link lost")))
+            return; // waits for the link by itself
+        std::cerr << "PAUSED: " << reason.toStdString() << "\n";
+        if (reason.startsWith(QStringLiteral("could not record"))) {
+            outcome = SweepOutcome::Failed; // a headless run cannot wait for someone to free the disk
+            app.quit();
+        }
+    });
+    QObject::connect(&controller, &SweepController::safetyStop, [](const SafetyTrip &trip, const Reading &reading) {
+        std::cerr << "SAFETY STOP at step " << reading.step << " (" << toString(trip.limit) << "): " << trip.message << '\n';
+    });
+    QObject::connect(&controller, &SweepController::finished, [&](SweepOutcome o) {
+        outcome = o;
+        // Let the load's switch-off command go out before leaving.
+        QTimer::singleShot(args.sim ? 0 : 300, &app, &QCoreApplication::quit);
+    });
+    if (virtualClock)
+        virtualClock->setAutoAdvance(true);
+    QTimer::singleShot(0, &controller, &SweepController::start);
+    app.exec();
+    if (virtualClock)
+        virtualClock->setAutoAdvance(false);
+
+    const SweepOutcome result = outcome.value_or(SweepOutcome::Failed);
+    std::cerr << "sweep " << toString(result).toStdString() << "; " << controller.recordedCount() << " points recorded in "
+              << args.outputPath << '\n';
+
+    auto readings = store->includedReadings();
+    if (readings.ok()) {
+        FitReport report;
+        report.source = args.outputPath;
+        report.fit = fitReadings(readings.value, FitMethod::Ols);
+        if (report.fit.ok()) {
+            report.warnings = fitWarnings(report.fit, {});
+            report.analysis = analyseFit(report.fit, analysisInputFor(setup.nameplate));
+            std::cout << '\n';
+            printFitReport(report, std::cout);
+        } else {
+            std::cout << "\nno fit: " << report.fit.message << '\n';
+        }
+    }
+    if (bench) {
+        const TransformerParameters &t = bench->options().transformer;
+        const TransformerState s = bench->state();
+        std::cout << "\nvirtual bench (seed " << args.seed << "): V0 " << QString::number(t.noLoadVoltageV(), 'f', 4).toStdString()
+                  << " V, R " << QString::number(t.seriesResistanceOhm, 'f', 4).toStdString() << " Ω at "
+                  << t.referenceTemperatureC << " °C; copper now " << QString::number(s.copperTemperatureC, 'f', 2).toStdString()
+                  << " °C (R " << QString::number(s.seriesResistanceOhm, 'f', 4).toStdString() << " Ω)"
+                  << (bench->isFuseOpen() ? "; primary fuse OPEN" : "") << '\n';
+    }
+    switch (result) {
+    case SweepOutcome::Completed: return exitSuccess;
+    case SweepOutcome::SafetyStop: return exitSafetyStop;
+    default: return exitRuntimeFailure;
+    }
+}
+
+} // namespace sagline::cli
