@@ -1,0 +1,193 @@
+// Whole sweeps over real pseudo-terminals and loopback TCP in wall time (short dwell): a link
+// unplugged mid-sweep, the pairing window, and the CLI on the virtual bench.
+#include "InstrumentsTestSupport.h"
+
+#include "InstrumentRig.h"
+#include "LineFitLiveFit.h"
+#include "SerialLink.h"
+#include "SimEndpoints.h"
+#include "SimInstrument.h"
+#include "SweepController.h"
+#include "TcpLink.h"
+#include "VirtualBench.h"
+
+#include <QProcess>
+#include <QRegularExpression>
+#include <QTemporaryDir>
+
+#include <memory>
+
+using namespace sagline;
+using namespace sagline::test;
+
+namespace {
+
+// The virtual bench served on a pty (voltmeter), TCP (ammeter) and a pty (load), with a rig of
+// real SerialLink / TcpLink instruments on the other side.
+struct WiredBench {
+    WiredBench()
+    {
+        const sagline::Setup setup = demoSetup();
+        plan = planFor(setup);
+        bench = std::make_unique<VirtualBench>(virtualBenchOptionsFor(setup, plan, 11), &clock);
+        voltmeterPty = std::make_unique<PtyEndpoint>(bench->voltmeter(), dir.path() + QStringLiteral("/voltmeter"));
+        loadPty = std::make_unique<PtyEndpoint>(bench->loadInstrument(), dir.path() + QStringLiteral("/load"));
+        ammeterTcp = std::make_unique<TcpEndpoint>(bench->ammeter());
+        QString error;
+        EXPECT_TRUE(voltmeterPty->start(&error) && loadPty->start(&error) && ammeterTcp->start(0, &error))
+            << error.toStdString();
+
+        auto serial = [](const QString &path) {
+            SerialSettings settings;
+            settings.portName = path;
+            settings.baudRate = 115200;
+            auto *link = new SerialLink(settings);
+            link->setTimeoutMs(400);
+            return link;
+        };
+        auto *voltmeter = new ScpiInstrument(QStringLiteral("voltmeter"), serial(voltmeterPty->linkPath()));
+        voltmeter->setRoles({defaultRoleConfig(MeterRole::SecondaryVoltage)});
+        auto *tcp = new TcpLink(QStringLiteral("127.0.0.1"), ammeterTcp->port());
+        tcp->setTimeoutMs(400);
+        auto *ammeter = new ScpiInstrument(QStringLiteral("ammeter"), tcp);
+        ammeter->setRoles({defaultRoleConfig(MeterRole::SecondaryCurrent)});
+        rig = std::make_unique<InstrumentRig>();
+        rig->addInstrument(voltmeter);
+        rig->addInstrument(ammeter);
+        rig->setLoadInstrument(new ScpiInstrument(QStringLiteral("load"), serial(loadPty->linkPath())));
+        for (ScpiInstrument *i : rig->instruments())
+            i->setReconnectIntervalMs(50);
+        rig->connectAll();
+        EXPECT_TRUE(waitUntil([this] { return rig->isReady(); }));
+
+        options = sweepOptionsFor(setup, plan);
+        options.dwellMs = 20;
+        options.readIntervalMs = 10;
+        options.stability.maxTimeS = 1.0;
+    }
+
+    SystemClock clock;
+    QTemporaryDir dir;
+    Plan plan;
+    std::unique_ptr<VirtualBench> bench;
+    std::unique_ptr<PtyEndpoint> voltmeterPty;
+    std::unique_ptr<PtyEndpoint> loadPty;
+    std::unique_ptr<TcpEndpoint> ammeterTcp;
+    std::unique_ptr<InstrumentRig> rig;
+    SweepOptions options;
+    MemorySink sink;
+    LineFitLiveFit fit;
+};
+
+} // namespace
+
+TEST(RealLinkSweep, UnpluggedMidSweepItPausesAndResumesWithNothingLost)
+{
+    WiredBench w;
+    SweepController c(w.plan, w.options, w.rig.get(), &w.sink, &w.fit, &w.clock);
+    std::vector<int> steps;
+    int lost = 0;
+    int restored = 0;
+    std::optional<SweepOutcome> outcome;
+    QObject::connect(&c, &SweepController::pointRecorded, [&](const Reading &r, const LiveFitSnapshot &) {
+        steps.push_back(r.step);
+        if (r.step == 4)
+            w.bench->voltmeter()->vanish(400); // the voltmeter's cable is pulled for 0.4 s
+    });
+    QObject::connect(&c, &SweepController::linkLost, [&](const QString &) { ++lost; });
+    QObject::connect(&c, &SweepController::linkRestored, [&](const QString &) { ++restored; });
+    QObject::connect(&c, &SweepController::finished, [&](SweepOutcome o) { outcome = o; });
+    c.start();
+    ASSERT_TRUE(waitUntil([&] { return outcome.has_value(); }, 20000)) << toString(c.state()).toStdString();
+    EXPECT_EQ(*outcome, SweepOutcome::Completed);
+    EXPECT_EQ(lost, 1);
+    EXPECT_EQ(restored, 1);
+    ASSERT_EQ(steps.size(), w.plan.steps.size());
+    for (std::size_t i = 0; i < steps.size(); ++i)
+        EXPECT_EQ(steps[i], static_cast<int>(i));
+    EXPECT_EQ(w.sink.readings.size(), w.plan.steps.size());
+}
+
+TEST(RealLinkSweep, VoltageAndCurrentReadTooFarApartAreNotPaired)
+{
+    WiredBench w;
+    w.options.pairWindowMs = 100;
+    SimFaultRates rates;
+    rates.slowDelayMs = 250; // within the 400 ms timeout, beyond the 100 ms window
+    w.bench->ammeter()->setFaultRates(rates);
+    SweepController c(w.plan, w.options, w.rig.get(), &w.sink, &w.fit, &w.clock);
+    QStringList notices;
+    std::optional<SweepOutcome> outcome;
+    QObject::connect(&c, &SweepController::notice, [&](const QString &m) { notices << m; });
+    QObject::connect(&c, &SweepController::stepStarted, [&](int step, const QString &) {
+        if (step == 2)
+            w.bench->ammeter()->injectFault(SimFault::Slow);
+    });
+    QObject::connect(&c, &SweepController::finished, [&](SweepOutcome o) { outcome = o; });
+    c.start();
+    ASSERT_TRUE(waitUntil([&] { return outcome.has_value(); }, 20000));
+    EXPECT_EQ(*outcome, SweepOutcome::Completed);
+    EXPECT_TRUE(notices.join('\n').contains(QStringLiteral("ms apart"))) << notices.join('\n').toStdString();
+    EXPECT_EQ(w.sink.readings.size(), w.plan.steps.size());
+}
+
+TEST(RunCommand, ASimulatedSweepFitsTheSimulatedTransformer)
+{
+    QTemporaryDir dir;
+    const QString session = dir.path() + QStringLiteral("/demo.sagline");
+    QProcess cli;
+    cli.start(QStringLiteral(SAGLINE_CLI_PATH),
+              {QStringLiteral("run"), QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"), QStringLiteral("--sim"),
+               QStringLiteral("--seed"), QStringLiteral("5"), QStringLiteral("-o"), session});
+    ASSERT_TRUE(cli.waitForFinished(30000));
+    const QString out = QString::fromUtf8(cli.readAllStandardOutput());
+    const QString err = QString::fromUtf8(cli.readAllStandardError());
+    ASSERT_EQ(cli.exitCode(), 0) << err.toStdString();
+    // One line per point, starting with its step number.
+    const QRegularExpression pointLine(QStringLiteral("^ ?(\\d+)  I +([0-9.]+) A  V +([0-9.]+) V  live R"),
+                                       QRegularExpression::MultilineOption);
+    int points = 0;
+    for (auto it = pointLine.globalMatch(out); it.hasNext(); it.next())
+        ++points;
+    EXPECT_EQ(points, 9) << out.toStdString();
+    // The final fit against the simulated transformer (demo: V0 19.6 V, R 0.48 Ω at 20 °C):
+    // within the fit's expanded uncertainty plus the meters' fixed gain errors (<= 0.17 % V,
+    // 0.33 % I) and a little copper heating.
+    const QRegularExpression r(QStringLiteral("Series resistance R +([0-9.]+) mΩ ± ([0-9.]+) mΩ"));
+    const QRegularExpression v0(QStringLiteral("No-load voltage V0 +([0-9.]+) V ± ([0-9.]+) V"));
+    const auto rm = r.match(out);
+    const auto vm = v0.match(out);
+    ASSERT_TRUE(rm.hasMatch() && vm.hasMatch()) << out.toStdString();
+    EXPECT_NEAR(rm.captured(1).toDouble(), 480.0, rm.captured(2).toDouble() + 0.006 * 480.0 + 5.0);
+    EXPECT_NEAR(vm.captured(1).toDouble(), 19.6, vm.captured(2).toDouble() + 0.002 * 19.6);
+    EXPECT_TRUE(QFile::exists(session));
+}
+
+TEST(RunCommand, ASafetyStopExitsWithThree)
+{
+    QTemporaryDir dir;
+    QProcess cli;
+    cli.start(QStringLiteral(SAGLINE_CLI_PATH),
+              {QStringLiteral("run"), QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"), QStringLiteral("--sim"),
+               QStringLiteral("--sim-fuse-rating"), QStringLiteral("0.1"), QStringLiteral("-o"),
+               dir.path() + QStringLiteral("/stop.sagline")});
+    ASSERT_TRUE(cli.waitForFinished(30000));
+    EXPECT_EQ(cli.exitCode(), 3);
+    EXPECT_TRUE(QString::fromUtf8(cli.readAllStandardError()).contains(QStringLiteral("SAFETY STOP at step")));
+}
+
+TEST(RunCommand, BadArgumentsExitWithTwoAndSayWhy)
+{
+    QProcess cli;
+    cli.start(QStringLiteral(SAGLINE_CLI_PATH), {QStringLiteral("run"), QStringLiteral("x.json"), QStringLiteral("--sim")});
+    ASSERT_TRUE(cli.waitForFinished(10000));
+    EXPECT_EQ(cli.exitCode(), 2);
+    EXPECT_TRUE(QString::fromUtf8(cli.readAllStandardError()).contains(QStringLiteral("-o SESSION.sagline")));
+    cli.start(QStringLiteral(SAGLINE_CLI_PATH), {QStringLiteral("run"), QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"),
+                                                 QStringLiteral("--voltmeter"), QStringLiteral("tcp:localhost:99999"),
+                                                 QStringLiteral("--ammeter"), QStringLiteral("/dev/null"), QStringLiteral("-o"),
+                                                 QStringLiteral("/tmp/never.sagline")});
+    ASSERT_TRUE(cli.waitForFinished(10000));
+    EXPECT_EQ(cli.exitCode(), 2);
+    EXPECT_TRUE(QString::fromUtf8(cli.readAllStandardError()).contains(QStringLiteral("voltmeter address")));
+}
