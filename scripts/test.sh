@@ -13,3 +13,6 @@ ctest --preset ci
 cmake --preset asan-ubsan
 cmake --build --preset asan-ubsan
 ctest --preset asan-ubsan
+
+# libFuzzer targets (clang), each run for about 30 s under the ctest label "fuzz".
+scripts/fuzz.sh
