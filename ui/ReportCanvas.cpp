@@ -211,7 +211,8 @@ void ReportCanvas::signatureLines(const QStringList &captions)
     const QFont f = font(8.0);
     const QRectF block = takeBlock(44.0);
     const double gap = 18.0;
-    const double width = (contentWidthPt() - gap * (captions.size() - 1)) / captions.size();
+    const double count = static_cast<double>(captions.size());
+    const double width = (contentWidthPt() - gap * (count - 1.0)) / count;
     m_painter.setFont(f);
     for (int i = 0; i < captions.size(); ++i) {
         const double left = block.left() + toDevice(i * (width + gap));
