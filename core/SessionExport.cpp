@@ -1,0 +1,171 @@
+#include "SessionExport.h"
+
+#include <nlohmann/json.hpp>
+
+#include <cmath>
+#include <cstdio>
+
+namespace sagline {
+
+namespace {
+
+using nlohmann::json;
+
+// Shortest text that reads back to the same double ("%.17g" always does).
+std::string exact(double value)
+{
+    if (!std::isfinite(value))
+        return {};
+    char text[40];
+    std::snprintf(text, sizeof text, "%.17g", value);
+    return text;
+}
+
+std::string exact(const std::optional<double> &value)
+{
+    return value ? exact(*value) : std::string();
+}
+
+// RFC 4180 quoting when a cell holds a comma, a quote or a line break.
+std::string cell(const std::string &text)
+{
+    if (text.find_first_of(",\"\r\n") == std::string::npos)
+        return text;
+    std::string quoted = "\"";
+    for (char c : text) {
+        if (c == '"')
+            quoted += '"';
+        quoted += c;
+    }
+    return quoted + '"';
+}
+
+json optionalNumber(const std::optional<double> &value)
+{
+    return value && std::isfinite(*value) ? json(*value) : json(nullptr);
+}
+
+json number(double value)
+{
+    return std::isfinite(value) ? json(value) : json(nullptr);
+}
+
+json fitToJson(const FitSummary &fit)
+{
+    json out;
+    out["status"] = toString(fit.status);
+    out["message"] = fit.message;
+    out["n"] = fit.n;
+    out["method"] = toString(fit.method);
+    if (!fit.ok())
+        return out;
+    out["slope"] = number(fit.slope);
+    out["intercept"] = number(fit.intercept);
+    out["series_resistance_ohm"] = number(fit.seriesResistanceOhm());
+    out["series_resistance_se_ohm"] = optionalNumber(fit.slopeSe);
+    out["no_load_voltage_v"] = number(fit.noLoadVoltageV());
+    out["no_load_voltage_se_v"] = optionalNumber(fit.interceptSe);
+    out["r_squared"] = optionalNumber(fit.rSquared);
+    out["residual_sd_v"] = optionalNumber(fit.residualSdV);
+    if (fit.seriesResistanceCi)
+        out["series_resistance_ci95_ohm"] = json::array({number(fit.seriesResistanceCi->low), number(fit.seriesResistanceCi->high)});
+    else
+        out["series_resistance_ci95_ohm"] = nullptr;
+    out["outliers"] = fit.outlierRows;
+    out["curvature_p"] = optionalNumber(fit.curvatureP);
+    if (fit.method != FitMethod::Ols) {
+        out["series_resistance_se_scaled_ohm"] = optionalNumber(fit.slopeSeScaled);
+        out["no_load_voltage_se_scaled_v"] = optionalNumber(fit.interceptSeScaled);
+        out["mswd"] = optionalNumber(fit.mswd);
+    }
+    return out;
+}
+
+} // namespace
+
+std::string readingsToCsv(const std::vector<Reading> &readings)
+{
+    std::string out = "current_a,voltage_v,u_current_a,u_voltage_v,step,time_utc,flags,excluded\r\n";
+    for (const Reading &reading : readings) {
+        out += exact(reading.currentA) + ',' + exact(reading.voltageV) + ',' + exact(reading.uCurrentA) + ',' +
+               exact(reading.uVoltageV) + ',' + (reading.step >= 0 ? std::to_string(reading.step) : std::string()) + ',' +
+               cell(reading.timeUtc) + ',' + cell(flagsToString(reading.flags)) + ',' +
+               (reading.excluded ? "true" : "false") + "\r\n";
+    }
+    return out;
+}
+
+std::string fitResultsToCsv(const SessionSummary &summary)
+{
+    const FitSummary &fit = summary.fit;
+    std::string out = "quantity,value,standard_uncertainty,unit\r\n";
+    auto row = [&out](const std::string &quantity, const std::string &value, const std::string &u, const std::string &unit) {
+        out += cell(quantity) + ',' + value + ',' + u + ',' + cell(unit) + "\r\n";
+    };
+    row("fit_method", toString(fit.method), "", "");
+    row("fit_status", toString(fit.status), "", "");
+    row("points_used", std::to_string(fit.n), "", "");
+    if (fit.ok()) {
+        row("series_resistance", exact(fit.seriesResistanceOhm()), exact(fit.analysisSlopeSe()), "ohm");
+        row("no_load_voltage", exact(fit.noLoadVoltageV()), exact(fit.analysisInterceptSe()), "V");
+        row("r_squared", exact(fit.rSquared), "", "");
+        row("residual_sd", exact(fit.residualSdV), "", "V");
+        row("curvature_p", exact(fit.curvatureP), "", "");
+        if (fit.seriesResistanceCi) {
+            row("series_resistance_ci95_low", exact(fit.seriesResistanceCi->low), "", "ohm");
+            row("series_resistance_ci95_high", exact(fit.seriesResistanceCi->high), "", "ohm");
+        }
+        for (const PointFit &point : fit.points) {
+            if (point.row >= summary.readings.size())
+                continue;
+            const std::string id = std::to_string(summary.readings[point.row].id);
+            row("residual_reading_" + id, exact(point.residualV), "", "V");
+            if (point.studentized)
+                row("studentized_residual_reading_" + id, exact(*point.studentized), "", "");
+        }
+    }
+    return out;
+}
+
+std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
+{
+    json out;
+    out["session"] = {{"file", summary.path},
+                      {"created_utc", summary.info.createdUtc},
+                      {"operator", summary.info.operatorName},
+                      {"unit_serial", summary.info.unitSerial},
+                      {"software_version", summary.info.softwareVersion},
+                      {"schema_version", summary.info.schemaVersion},
+                      {"notice", summary.notice}};
+    const json setup = json::parse(summary.info.setupJson, nullptr, false);
+    out["setup"] = setup.is_discarded() ? json(nullptr) : setup;
+    const json plan = json::parse(summary.info.planJson, nullptr, false);
+    out["plan"] = plan.is_discarded() ? json(nullptr) : plan;
+    out["temperatures"] = json::array();
+    for (const auto &t : summary.temperatures)
+        out["temperatures"].push_back({{"time_utc", t.timeUtc}, {"kind", toString(t.kind)}, {"celsius", number(t.celsius)}, {"source", t.source}});
+    out["instruments"] = json::array();
+    for (const auto &i : summary.instruments)
+        out["instruments"].push_back({{"time_utc", i.timeUtc}, {"role", i.role}, {"identity", i.identity}, {"accuracy", i.accuracy}});
+    out["readings"] = {{"total", summary.readings.size()}, {"excluded", summary.excludedCount()}};
+    out["fit"] = fitToJson(summary.fit);
+    out["exclusions"] = json::array();
+    for (const auto &e : summary.exclusions)
+        out["exclusions"].push_back({{"reading_id", e.readingId}, {"excluded", e.excluded}, {"reason", e.reason},
+                                     {"author", e.author}, {"time_utc", e.timeUtc}});
+    out["safety_stops"] = json::array();
+    for (const auto &s : summary.safetyStops)
+        out["safety_stops"].push_back({{"time_utc", s.timeUtc}, {"step", s.step}, {"rule", s.rule}, {"message", s.message},
+                                       {"measured", optionalNumber(s.measured)}, {"limit", optionalNumber(s.limitValue)}});
+    out["notes"] = json::array();
+    for (const auto &n : summary.notes)
+        out["notes"].push_back({{"time_utc", n.timeUtc}, {"author", n.author}, {"text", n.text}});
+    out["sign_offs"] = json::array();
+    for (const auto &s : summary.signOffs)
+        out["sign_offs"].push_back({{"time_utc", s.timeUtc}, {"reviewer", s.reviewer}, {"verdict", toString(s.verdict)},
+                                    {"comment", s.comment}});
+    // Text from the file may hold invalid UTF-8: replace it instead of throwing.
+    return out.dump(indent, ' ', false, json::error_handler_t::replace);
+}
+
+} // namespace sagline

@@ -1,0 +1,138 @@
+#include "SessionSummary.h"
+
+#include "SetupJson.h"
+
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+#include <cmath>
+
+namespace sagline {
+
+namespace {
+
+std::optional<double> number(const nlohmann::json &object, const char *key)
+{
+    const auto found = object.find(key);
+    if (found == object.end() || !found->is_number())
+        return std::nullopt;
+    const double value = found->get<double>();
+    return std::isfinite(value) ? std::optional<double>(value) : std::nullopt;
+}
+
+template <typename T>
+StoreStatus take(StoreResult<T> result, T &into)
+{
+    if (!result.ok())
+        return result.status();
+    into = std::move(result.value);
+    return StoreStatus::success();
+}
+
+} // namespace
+
+StoredPlan parseStoredPlan(const std::string &planJson)
+{
+    StoredPlan plan;
+    if (planJson.empty())
+        return plan;
+    plan.present = true;
+    const nlohmann::json root = nlohmann::json::parse(planJson, nullptr, false);
+    if (root.is_discarded() || !root.is_object()) {
+        plan.problem = "the stored plan is not a JSON object";
+        return plan;
+    }
+    plan.ratedSecondaryCurrentA = number(root, "rated_secondary_current_a");
+    plan.ratedPrimaryCurrentA = number(root, "rated_primary_current_a");
+    plan.turnsRatio = number(root, "turns_ratio");
+    plan.seriesResistanceOhm = number(root, "series_resistance_ohm");
+    plan.regulationPercent = number(root, "regulation_percent");
+    if (const auto fuse = root.find("recommended_fuse"); fuse != root.end() && fuse->is_object()) {
+        plan.recommendedFuseA = number(*fuse, "rating_a");
+        if (const auto type = fuse->find("type"); type != fuse->end() && type->is_string())
+            plan.recommendedFuseType = type->get<std::string>();
+    }
+    if (const auto warnings = root.find("warnings"); warnings != root.end() && warnings->is_array()) {
+        for (const auto &warning : *warnings)
+            if (warning.is_string())
+                plan.warnings.push_back(warning.get<std::string>());
+    }
+    if (const auto steps = root.find("steps"); steps != root.end() && steps->is_array()) {
+        for (const auto &step : *steps) {
+            if (!step.is_object())
+                continue;
+            StoredPlanStep entry;
+            const auto index = number(step, "index");
+            entry.index = index && std::abs(*index) < 1e6 ? static_cast<int>(*index) : 0;
+            entry.currentA = number(step, "current_a").value_or(NAN);
+            entry.predictedVoltageV = number(step, "predicted_voltage_v").value_or(NAN);
+            entry.loadResistanceOhm = number(step, "load_resistance_ohm");
+            entry.outputVa = number(step, "output_va").value_or(NAN);
+            if (const auto outlook = step.find("fuse_outlook"); outlook != step.end() && outlook->is_string())
+                entry.fuseOutlook = outlook->get<std::string>();
+            plan.steps.push_back(entry);
+        }
+    }
+    return plan;
+}
+
+std::size_t SessionSummary::excludedCount() const
+{
+    return static_cast<std::size_t>(
+        std::count_if(readings.begin(), readings.end(), [](const Reading &reading) { return reading.excluded; }));
+}
+
+std::optional<double> SessionSummary::latestTemperatureC(TemperatureKind kind) const
+{
+    for (auto it = temperatures.rbegin(); it != temperatures.rend(); ++it)
+        if (it->kind == kind)
+            return it->celsius;
+    return std::nullopt;
+}
+
+std::string SessionSummary::exclusionReason(std::int64_t readingId) const
+{
+    for (auto it = exclusions.rbegin(); it != exclusions.rend(); ++it)
+        if (it->readingId == readingId)
+            return it->reason;
+    return {};
+}
+
+StoreResult<SessionSummary> summarizeSession(const SessionStore &store, FitMethod method)
+{
+    SessionSummary summary;
+    summary.path = store.path();
+    summary.notice = store.notice();
+    const StoreStatus statuses[] = {
+        take(store.info(), summary.info),
+        take(store.readings(), summary.readings),
+        take(store.exclusions(), summary.exclusions),
+        take(store.temperatures(), summary.temperatures),
+        take(store.instruments(), summary.instruments),
+        take(store.notes(), summary.notes),
+        take(store.safetyStops(), summary.safetyStops),
+        take(store.signOffs(), summary.signOffs),
+    };
+    for (const StoreStatus &status : statuses)
+        if (!status.ok())
+            return StoreResult<SessionSummary>::failure(status);
+
+    SetupParse setup = parseSetupJson(summary.info.setupJson);
+    if (setup.errors.empty())
+        summary.setup = std::move(setup.setup);
+    else
+        summary.setupProblem = setup.errors.front().message();
+    summary.plan = parseStoredPlan(summary.info.planJson);
+    summary.fit = fitReadings(summary.readings, method);
+    return summary;
+}
+
+StoreResult<SessionSummary> loadSessionSummary(const std::string &path, FitMethod method)
+{
+    auto opened = SessionStore::openForReview(path);
+    if (!opened.ok())
+        return StoreResult<SessionSummary>::failure(opened.status());
+    return summarizeSession(*opened.value, method);
+}
+
+} // namespace sagline

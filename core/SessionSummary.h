@@ -1,0 +1,74 @@
+// Everything a review, an export or a report shows about one session, read once from the store
+// and fitted once with core's batch fit: the single source for the CLI, the JSON/CSV export
+// and the PDF report, so none of them recomputes anything.
+#pragma once
+
+#include "FitSummary.h"
+#include "Reading.h"
+#include "SessionRecords.h"
+#include "SessionStore.h"
+#include "Setup.h"
+#include "StoreResult.h"
+
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace sagline {
+
+// One step of the plan as stored in the session (the plan JSON of DESIGN.md).
+struct StoredPlanStep {
+    int index = 0;
+    double currentA = 0.0;                   // A
+    double predictedVoltageV = 0.0;          // V
+    std::optional<double> loadResistanceOhm; // Ω, none at k = 0
+    double outputVa = 0.0;                   // VA
+    std::string fuseOutlook;                 // "holds", "may-open", "opens"
+};
+
+// The parts of the stored plan a reviewer sees; absent keys stay empty.
+struct StoredPlan {
+    bool present = false;                    // the session carries a plan
+    std::string problem;                     // why the stored plan could not be read, "" if fine
+    std::optional<double> ratedSecondaryCurrentA;
+    std::optional<double> ratedPrimaryCurrentA;
+    std::optional<double> turnsRatio;
+    std::optional<double> seriesResistanceOhm;
+    std::optional<double> regulationPercent;
+    std::optional<double> recommendedFuseA;
+    std::string recommendedFuseType;
+    std::vector<std::string> warnings;
+    std::vector<StoredPlanStep> steps;
+};
+
+// Reads the plan JSON written by planToJson; never throws.
+StoredPlan parseStoredPlan(const std::string &planJson);
+
+struct SessionSummary {
+    std::string path;
+    std::string notice;                      // from the store (newer version, recovered copy)
+    SessionInfo info;
+    std::optional<Setup> setup;              // parsed from info.setupJson
+    std::string setupProblem;                // why it did not parse, "" if it did
+    StoredPlan plan;
+    std::vector<Reading> readings;           // every reading, `excluded` resolved
+    std::vector<ExclusionRecord> exclusions; // the full history
+    std::vector<TemperatureRecord> temperatures;
+    std::vector<InstrumentRecord> instruments;
+    std::vector<NoteRecord> notes;
+    std::vector<SafetyStopRecord> safetyStops;
+    std::vector<SignOffRecord> signOffs;
+    FitSummary fit;                          // fitReadings(readings, method)
+
+    std::size_t excludedCount() const;
+    // The latest recorded temperature of a kind, °C.
+    std::optional<double> latestTemperatureC(TemperatureKind kind) const;
+    // The reason of the latest exclusion row of a reading, "" when it has none.
+    std::string exclusionReason(std::int64_t readingId) const;
+};
+
+StoreResult<SessionSummary> summarizeSession(const SessionStore &store, FitMethod method);
+// Opens `path` for review (read-only, untrusted) and summarizes it.
+StoreResult<SessionSummary> loadSessionSummary(const std::string &path, FitMethod method);
+
+} // namespace sagline
