@@ -9,7 +9,7 @@ namespace sagline {
 
 namespace {
 
-using nlohmann::json;
+using json = nlohmann::ordered_json; // keys in the order written: session first
 
 // Shortest text that reads back to the same double ("%.17g" always does).
 std::string exact(double value)

@@ -106,11 +106,27 @@ StoreStatus SessionStore::requireWritable() const
 
 StoreOpen SessionStore::create(const std::string &path, const NewSession &session)
 {
+    StoreOpen result = createFile(path, session);
+    if (!result.ok() && result.code != StoreCode::FileExists && result.code != StoreCode::InvalidArgument) {
+        // Nothing was committed, or the commit failed: leave no half-made session behind.
+        std::error_code ignored;
+        std::filesystem::remove(path + "-journal", ignored);
+        std::filesystem::remove(path, ignored);
+    }
+    return result;
+}
+
+StoreOpen SessionStore::createFile(const std::string &path, const NewSession &session)
+{
     const std::pair<const std::string *, const char *> required[] = {
         {&session.setupJson, "setup"}, {&session.operatorName, "operator"}, {&session.unitSerial, "unit serial"}};
     for (const auto &[value, name] : required) {
         if (value->empty())
             return StoreOpen::failure(StoreCode::InvalidArgument, std::string(name) + ": required for a new session");
+    }
+    for (const auto &celsius : {session.ambientTemperatureC, session.windingTemperatureC}) {
+        if (celsius && (!std::isfinite(*celsius) || *celsius < -273.15 || *celsius > 1000.0))
+            return StoreOpen::failure(StoreCode::InvalidArgument, "temperature: must be between -273.15 and 1000 °C");
     }
     std::error_code error;
     if (std::filesystem::exists(path, error) || std::filesystem::exists(path + "-journal", error))
@@ -149,11 +165,10 @@ StoreOpen SessionStore::create(const std::string &path, const NewSession &sessio
         if (rc == SQLITE_OK) {
             temperature.bind(1, created).bind(2, std::string_view(toString(kind))).bind(3, *celsius);
             temperature.bind(4, std::string_view("entered at start"));
-            rc = std::isfinite(*celsius) ? temperature.step() : SQLITE_CONSTRAINT;
+            rc = temperature.step();
         }
         if (rc != SQLITE_DONE)
-            return StoreOpen::failure(StoreCode::InvalidArgument,
-                                      std::string(toString(kind)) + " temperature: must be a finite number of °C");
+            return StoreOpen::failure(sqliteFailure(handle, rc, path + ": cannot record the temperature"));
     }
     if (rc = transaction.commit(); rc != SQLITE_OK)
         return StoreOpen::failure(sqliteFailure(handle, rc, path + ": cannot commit the new session"));

@@ -65,6 +65,8 @@ public:
     // and voltage must be finite unless flags carry flagOverload or flagNotANumber (then a
     // non-finite value is stored as "no value"); uncertainties, when given, finite and ≥ 0.
     StoreResult<std::int64_t> appendReading(const Reading &reading);
+    // Records several readings in one transaction (an import): all or none. Returns their ids.
+    StoreResult<std::vector<std::int64_t>> appendReadings(const std::vector<Reading> &readings);
     // Excludes a reading from the fit, or restores it; reason required. NotFound for an
     // unknown reading id.
     StoreResult<std::int64_t> excludeReading(std::int64_t readingId, const std::string &reason, const std::string &author);
@@ -102,10 +104,12 @@ public:
 private:
     SessionStore(std::string path, SqliteHandle db, bool readOnly, int fileVersion);
     static StoreResult<std::unique_ptr<SessionStore>> open(const std::string &path, bool forWriting);
+    static StoreResult<std::unique_ptr<SessionStore>> createFile(const std::string &path, const NewSession &session);
     StoreStatus requireWritable() const;
     StoreResult<std::int64_t> insertExclusion(std::int64_t readingId, bool excluded, const std::string &reason,
                                               const std::string &author);
     std::string now() const;
+    StoreStatus checkReading(const Reading &reading) const;
 
     std::string m_path;
     SqliteHandle m_db;        // the file, or an upgraded in-memory copy for review of an old file

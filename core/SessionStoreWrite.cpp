@@ -34,27 +34,79 @@ StoreResult<std::int64_t> insertRow(sqlite3 *db, const char *sql, const std::str
 
 } // namespace
 
+StoreStatus SessionStore::checkReading(const Reading &reading) const
+{
+    const bool mayLackValue = (reading.flags & (flagOverload | flagNotANumber)) != 0;
+    if (!mayLackValue && (!std::isfinite(reading.currentA) || !std::isfinite(reading.voltageV)))
+        return StoreStatus::failure(StoreCode::InvalidArgument,
+                                    "reading: current and voltage must be finite numbers unless the reading is flagged "
+                                    "overload or not-a-number");
+    if (!isFiniteOrAbsent(reading.uCurrentA) || !isFiniteOrAbsent(reading.uVoltageV))
+        return StoreStatus::failure(StoreCode::InvalidArgument, "reading: standard uncertainties must be finite and not negative");
+    return StoreStatus::success();
+}
+
+namespace {
+
+constexpr const char *insertReadingSql =
+    "INSERT INTO reading (time_utc, step, current_a, voltage_v, u_current_a, u_voltage_v, flags, raw_text) "
+    "VALUES (?, ?, ?, ?, ?, ?, ?, ?)";
+
+void bindReading(SqliteStatement &insert, const Reading &reading, const std::string &time)
+{
+    insert.bind(1, time).bind(2, reading.step).bind(3, reading.currentA).bind(4, reading.voltageV);
+    insert.bind(5, reading.uCurrentA).bind(6, reading.uVoltageV);
+    insert.bind(7, static_cast<std::int64_t>(reading.flags)).bind(8, reading.rawText);
+}
+
+} // namespace
+
 StoreResult<std::int64_t> SessionStore::appendReading(const Reading &reading)
 {
     using Result = StoreResult<std::int64_t>;
     if (StoreStatus status = requireWritable(); !status.ok())
         return Result::failure(status);
-    const bool mayLackValue = (reading.flags & (flagOverload | flagNotANumber)) != 0;
-    if (!mayLackValue && (!std::isfinite(reading.currentA) || !std::isfinite(reading.voltageV)))
-        return Result::failure(StoreCode::InvalidArgument,
-                               "reading: current and voltage must be finite numbers unless the reading is flagged "
-                               "overload or not-a-number");
-    if (!isFiniteOrAbsent(reading.uCurrentA) || !isFiniteOrAbsent(reading.uVoltageV))
-        return Result::failure(StoreCode::InvalidArgument, "reading: standard uncertainties must be finite and not negative");
+    if (StoreStatus status = checkReading(reading); !status.ok())
+        return Result::failure(status);
     const std::string time = reading.timeUtc.empty() ? now() : reading.timeUtc;
-    return insertRow(m_db.get(),
-                     "INSERT INTO reading (time_utc, step, current_a, voltage_v, u_current_a, u_voltage_v, flags, raw_text) "
-                     "VALUES (?, ?, ?, ?, ?, ?, ?, ?)",
-                     "reading", [&](SqliteStatement &insert) {
-                         insert.bind(1, time).bind(2, reading.step).bind(3, reading.currentA).bind(4, reading.voltageV);
-                         insert.bind(5, reading.uCurrentA).bind(6, reading.uVoltageV);
-                         insert.bind(7, static_cast<std::int64_t>(reading.flags)).bind(8, reading.rawText);
-                     });
+    return insertRow(m_db.get(), insertReadingSql, "reading",
+                     [&](SqliteStatement &insert) { bindReading(insert, reading, time); });
+}
+
+StoreResult<std::vector<std::int64_t>> SessionStore::appendReadings(const std::vector<Reading> &readings)
+{
+    using Result = StoreResult<std::vector<std::int64_t>>;
+    if (StoreStatus status = requireWritable(); !status.ok())
+        return Result::failure(status);
+    for (std::size_t i = 0; i < readings.size(); ++i) {
+        if (StoreStatus status = checkReading(readings[i]); !status.ok())
+            return Result::failure(status.code, "reading " + std::to_string(i + 1) + " of " +
+                                                    std::to_string(readings.size()) + ": " + status.message);
+    }
+    SqliteTransaction transaction(m_db.get());
+    if (transaction.beginCode() != SQLITE_OK)
+        return Result::failure(sqliteFailure(m_db.get(), transaction.beginCode(), "cannot record the readings"));
+    SqliteStatement insert;
+    int rc = insert.prepare(m_db.get(), insertReadingSql);
+    std::vector<std::int64_t> ids;
+    ids.reserve(readings.size());
+    const std::string stamp = now();
+    for (const Reading &reading : readings) {
+        if (rc != SQLITE_OK)
+            break;
+        bindReading(insert, reading, reading.timeUtc.empty() ? stamp : reading.timeUtc);
+        rc = insert.step();
+        if (rc != SQLITE_DONE)
+            break;
+        rc = SQLITE_OK;
+        ids.push_back(sqlite3_last_insert_rowid(m_db.get()));
+        insert.reset();
+    }
+    if (rc == SQLITE_OK)
+        rc = transaction.commit();
+    if (rc != SQLITE_OK)
+        return Result::failure(sqliteFailure(m_db.get(), rc, "cannot record the readings; none was recorded"));
+    return ids;
 }
 
 StoreResult<std::int64_t> SessionStore::insertExclusion(std::int64_t readingId, bool excluded, const std::string &reason,

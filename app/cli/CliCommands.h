@@ -19,5 +19,7 @@ using Arguments = std::vector<std::string>; // the words after the command name
 int runPlan(const Arguments &args);
 int runFit(const Arguments &args);
 int runRun(const Arguments &args);
+int runImport(const Arguments &args);
+int runExport(const Arguments &args);
 
 } // namespace sagline::cli

@@ -20,6 +20,8 @@ constexpr Command commands[] = {
                                   "                                     fit V = V0 - R·I; with a nameplate, regulation and verdict"},
     {"run", sagline::cli::runRun, "run SETUP.json (--sim | --voltmeter ADDR --ammeter ADDR | --meter ADDR) -o SESSION.sagline\n"
             "                                     run a load sweep headless (see run --help)"},
+    {"import", sagline::cli::runImport, "import DATA.csv --setup SETUP.json -o SESSION.sagline   readings from a CSV into a new session"},
+    {"export", sagline::cli::runExport, "export SESSION.sagline --csv OUT.csv [--fit-csv F.csv] [--json OUT.json]   readings, fit, summary"},
 };
 
 void printUsage(std::ostream &out)

@@ -234,3 +234,20 @@ TEST(SessionStore, LeavesNoSideFileAfterACommit)
     ASSERT_TRUE(mailed.ok()) << mailed.message;
     EXPECT_EQ(mailed.value->readingCount().value, 1);
 }
+
+TEST(SessionStore, BatchAppendIsAllOrNothing)
+{
+    TempFolder folder;
+    auto created = SessionStore::create(folder.file("unit.sagline"), sampleSession());
+    auto &store = *created.value;
+    std::vector<Reading> batch{sampleReading(0, 0.0, 26.4), sampleReading(1, 0.2, 26.2), sampleReading(2, NAN, 26.0)};
+    const auto refused = store.appendReadings(batch);
+    EXPECT_EQ(refused.code, StoreCode::InvalidArgument);
+    EXPECT_NE(refused.message.find("reading 3 of 3"), std::string::npos) << refused.message;
+    EXPECT_EQ(store.readingCount().value, 0);
+    batch.pop_back();
+    const auto ids = store.appendReadings(batch);
+    ASSERT_TRUE(ids.ok()) << ids.message;
+    EXPECT_EQ(ids.value, (std::vector<std::int64_t>{1, 2}));
+    EXPECT_EQ(store.readingCount().value, 2);
+}

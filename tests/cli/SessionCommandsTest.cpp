@@ -1,0 +1,131 @@
+// sagline-cli import and export: a CSV goes into a session and comes back out unchanged; bad
+// input names the line and column; nothing is overwritten; exit codes follow DESIGN.md.
+#include "RunProgram.h"
+
+#include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
+
+#include <filesystem>
+#include <fstream>
+#include <random>
+
+using sagline::testing::readWholeFile;
+using sagline::testing::runProgram;
+
+namespace {
+
+const std::string cli = SAGLINE_CLI_PATH;
+const std::string demoSetup = std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-setup.json";
+const std::string demoReadings = std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-readings.csv";
+
+class SessionCommands : public ::testing::Test {
+protected:
+    void SetUp() override
+    {
+        std::random_device seed;
+        m_dir = std::filesystem::temp_directory_path() / ("sagline-cli-session-" + std::to_string(seed()));
+        std::filesystem::create_directories(m_dir);
+    }
+    void TearDown() override { std::filesystem::remove_all(m_dir); }
+    std::string path(const std::string &name) const { return (m_dir / name).string(); }
+    std::string write(const std::string &name, const std::string &text) const
+    {
+        std::ofstream(path(name), std::ios::binary) << text;
+        return path(name);
+    }
+
+private:
+    std::filesystem::path m_dir;
+};
+
+} // namespace
+
+TEST_F(SessionCommands, ImportThenExportGivesTheSameReadings)
+{
+    const auto imported = runProgram(cli, {"import", demoReadings, "--setup", demoSetup, "-o", path("s.sagline"),
+                                           "--serial", "T60-0421", "--operator", "R. Okafor", "--ambient", "22.5 °C"});
+    ASSERT_EQ(imported.exitCode, 0) << imported.err;
+    EXPECT_NE(imported.out.find("Recorded 9 readings"), std::string::npos) << imported.out;
+
+    const auto exported = runProgram(cli, {"export", path("s.sagline"), "--csv", path("out.csv"), "--json", path("out.json")});
+    ASSERT_EQ(exported.exitCode, 0) << exported.err;
+    // The exported CSV imports again (it is the DESIGN.md readings format) and fits the same.
+    const auto again = runProgram(cli, {"import", path("out.csv"), "--setup", demoSetup, "-o", path("again.sagline")});
+    ASSERT_EQ(again.exitCode, 0) << again.err;
+    const auto json = nlohmann::json::parse(readWholeFile(path("out.json")));
+    EXPECT_EQ(json["session"]["unit_serial"], "T60-0421");
+    EXPECT_EQ(json["session"]["operator"], "R. Okafor");
+    EXPECT_EQ(json["readings"]["total"], 9);
+    EXPECT_EQ(json["temperatures"][0]["celsius"], 22.5);
+    EXPECT_EQ(json["fit"]["n"], 9);
+    for (const char *key : {"slope", "intercept", "series_resistance_ohm", "series_resistance_se_ohm", "no_load_voltage_v",
+                            "no_load_voltage_se_v", "r_squared", "residual_sd_v", "series_resistance_ci95_ohm", "outliers",
+                            "curvature_p"})
+        EXPECT_TRUE(json["fit"].contains(key)) << key;
+    EXPECT_EQ(json["setup"]["nameplate"]["rated_power_va"], 60);
+    EXPECT_FALSE(json["plan"]["steps"].empty());
+
+    // Values survive import and export bit for bit (17 significant digits).
+    const std::string csv = readWholeFile(path("out.csv"));
+    EXPECT_EQ(csv.rfind("current_a,voltage_v,u_current_a,u_voltage_v,step,time_utc,flags,excluded\r\n", 0), 0u) << csv;
+    EXPECT_NE(csv.find("\r\n0.41699999999999998,19.364000000000001,"), std::string::npos) << csv;
+}
+
+TEST_F(SessionCommands, ImportReadsBomCrlfBlankLinesAndSpaces)
+{
+    const std::string csv = write("messy.csv", "\xEF\xBB\xBF current_a , voltage_v \r\n 0 , 12.6 \r\n0.5,12.1\r\n1.0 ,11.7\r\n\r\n\r\n");
+    const auto r = runProgram(cli, {"import", csv, "--setup", demoSetup, "-o", path("m.sagline")});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    EXPECT_NE(r.out.find("Recorded 3 readings"), std::string::npos) << r.out;
+}
+
+TEST_F(SessionCommands, ImportNamesLineAndColumnAndLeavesNoFile)
+{
+    const std::string csv = write("bad.csv", "current_a,voltage_v\n0,12.6\n0.5,twelve\n");
+    const auto r = runProgram(cli, {"import", csv, "--setup", demoSetup, "-o", path("bad.sagline")});
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("line 3"), std::string::npos) << r.err;
+    EXPECT_NE(r.err.find("voltage_v"), std::string::npos) << r.err;
+    EXPECT_FALSE(std::filesystem::exists(path("bad.sagline")));
+}
+
+TEST_F(SessionCommands, ImportKeepsExclusionsWithAReason)
+{
+    const std::string csv = write("ex.csv", "current_a,voltage_v,excluded\n0,12.6,no\n0.5,12.1,yes\n1.0,11.7,\n");
+    ASSERT_EQ(runProgram(cli, {"import", csv, "--setup", demoSetup, "-o", path("ex.sagline")}).exitCode, 0);
+    const auto r = runProgram(cli, {"export", path("ex.sagline"), "--json", "-"});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const auto json = nlohmann::json::parse(r.out);
+    EXPECT_EQ(json["readings"]["excluded"], 1);
+    EXPECT_EQ(json["fit"]["n"], 2);
+    ASSERT_EQ(json["exclusions"].size(), 1u);
+    EXPECT_NE(json["exclusions"][0]["reason"].get<std::string>().find("ex.csv line 3"), std::string::npos);
+}
+
+TEST_F(SessionCommands, ImportNeverOverwrites)
+{
+    const std::string existing = write("taken.sagline", "precious");
+    const auto r = runProgram(cli, {"import", demoReadings, "--setup", demoSetup, "-o", existing});
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("already exists"), std::string::npos) << r.err;
+    EXPECT_EQ(readWholeFile(existing), "precious");
+}
+
+TEST_F(SessionCommands, ImportNamesTheSetupField)
+{
+    const std::string setup = write("setup.json", R"({"nameplate":{"rated_power_va":-5}})");
+    const auto r = runProgram(cli, {"import", demoReadings, "--setup", setup, "-o", path("x.sagline")});
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("nameplate.rated_power_va"), std::string::npos) << r.err;
+}
+
+TEST_F(SessionCommands, ExportRefusesFilesThatAreNotSessions)
+{
+    const auto r = runProgram(cli, {"export", demoReadings, "--csv", path("o.csv")});
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("not a Sagline session"), std::string::npos) << r.err;
+    EXPECT_FALSE(std::filesystem::exists(path("o.csv")));
+    const auto usage = runProgram(cli, {"export", demoReadings});
+    EXPECT_EQ(usage.exitCode, 2);
+    EXPECT_NE(usage.err.find("usage"), std::string::npos);
+}
