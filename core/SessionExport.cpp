@@ -81,6 +81,52 @@ json fitToJson(const FitSummary &fit)
     return out;
 }
 
+json uncertain(const UncertainValue &value)
+{
+    return {{"value", number(value.value)},
+            {"standard_uncertainty", optionalNumber(value.standardUncertainty)},
+            {"expanded_uncertainty", optionalNumber(value.expandedUncertainty)}};
+}
+
+json analysisToJson(const SessionSummary &summary)
+{
+    if (!summary.analysis)
+        return {{"available", false}, {"reason", summary.analysisProblem}};
+    const AnalysisResult &a = *summary.analysis;
+    json out = {{"available", true},
+                {"coverage_factor", number(a.coverageFactor)},
+                {"series_resistance_ohm", uncertain(a.seriesResistanceOhm)},
+                {"no_load_voltage_v", uncertain(a.noLoadVoltageV)},
+                {"full_load_voltage_v", uncertain(a.fullLoadVoltageV)},
+                {"regulation_percent", uncertain(a.regulationPercent)},
+                {"regulation_base", toString(a.regulationBase)},
+                {"copper_loss_w", uncertain(a.copperLossW)}};
+    out["primary_resistance_ohm"] = a.primaryResistanceOhm ? uncertain(*a.primaryResistanceOhm) : json(nullptr);
+    out["reference_resistance_ohm"] = a.referenceResistanceOhm ? uncertain(*a.referenceResistanceOhm) : json(nullptr);
+    out["winding_temperature_c"] = optionalNumber(summary.latestTemperatureC(TemperatureKind::Winding));
+    out["reference_temperature_c"] = a.referenceResistanceOhm ? optionalNumber(summary.options.referenceTemperatureC
+                                                                                   ? summary.options.referenceTemperatureC
+                                                                                   : std::optional<double>(defaultReferenceTemperatureC))
+                                                              : json(nullptr);
+    out["reference_temperature_defaulted"] = summary.referenceTemperatureDefaulted;
+    out["temperature_convention"] = a.temperatureCorrection ? json(a.temperatureCorrection->convention) : json(nullptr);
+    return out;
+}
+
+json verdictToJson(const SessionSummary &summary)
+{
+    if (!summary.decision)
+        return nullptr;
+    const ConformityDecision &d = *summary.decision;
+    if (!d.ok)
+        return {{"outcome", nullptr}, {"error", d.error}};
+    return {{"outcome", toString(d.outcome)},        {"rule", toString(d.rule)},
+            {"rule_name", d.ruleName},               {"measured_percent", number(d.measured)},
+            {"expanded_uncertainty_percent", number(d.expandedUncertainty)},
+            {"upper_limit_percent", number(d.upperLimit)}, {"acceptance_limit_percent", number(d.acceptanceLimit)},
+            {"explanation", d.explanation}};
+}
+
 } // namespace
 
 std::string readingsToCsv(const std::vector<Reading> &readings)
@@ -115,6 +161,20 @@ std::string fitResultsToCsv(const SessionSummary &summary)
             row("series_resistance_ci95_low", exact(fit.seriesResistanceCi->low), "", "ohm");
             row("series_resistance_ci95_high", exact(fit.seriesResistanceCi->high), "", "ohm");
         }
+        if (const auto &a = summary.analysis) {
+            auto add = [&](const std::string &name, const UncertainValue &v, const std::string &unit) {
+                row(name, exact(v.value), exact(v.standardUncertainty), unit);
+            };
+            add("full_load_voltage", a->fullLoadVoltageV, "V");
+            add("regulation_" + toString(a->regulationBase), a->regulationPercent, "%");
+            add("copper_loss_at_rated_current", a->copperLossW, "W");
+            if (a->primaryResistanceOhm)
+                add("series_resistance_referred_to_primary", *a->primaryResistanceOhm, "ohm");
+            if (a->referenceResistanceOhm)
+                add("series_resistance_at_reference_temperature", *a->referenceResistanceOhm, "ohm");
+        }
+        if (summary.decision && summary.decision->ok)
+            row("verdict_" + toString(summary.decision->rule), toString(summary.decision->outcome), "", "");
         for (const PointFit &point : fit.points) {
             if (point.row >= summary.readings.size())
                 continue;
@@ -149,6 +209,8 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
         out["instruments"].push_back({{"time_utc", i.timeUtc}, {"role", i.role}, {"identity", i.identity}, {"accuracy", i.accuracy}});
     out["readings"] = {{"total", summary.readings.size()}, {"excluded", summary.excludedCount()}};
     out["fit"] = fitToJson(summary.fit);
+    out["analysis"] = analysisToJson(summary);
+    out["verdict"] = verdictToJson(summary);
     out["exclusions"] = json::array();
     for (const auto &e : summary.exclusions)
         out["exclusions"].push_back({{"reading_id", e.readingId}, {"excluded", e.excluded}, {"reason", e.reason},

@@ -98,9 +98,50 @@ std::string SessionSummary::exclusionReason(std::int64_t readingId) const
     return {};
 }
 
-StoreResult<SessionSummary> summarizeSession(const SessionStore &store, FitMethod method)
+namespace {
+
+// Analysis at rated current and the verdict on regulation, from the session's own nameplate
+// and winding temperature; what is missing is said in analysisProblem.
+void analyse(SessionSummary &summary)
+{
+    if (!summary.setup) {
+        summary.analysisProblem = "the session's setup could not be read: " + summary.setupProblem;
+        return;
+    }
+    if (!summary.fit.ok()) {
+        summary.analysisProblem = "no fit: " + summary.fit.message;
+        return;
+    }
+    const ReviewOptions &options = summary.options;
+    AnalysisInput input = analysisInputFor(summary.setup->nameplate);
+    if (options.temperatureConstant)
+        input.temperatureConstant = *options.temperatureConstant;
+    input.windingTemperatureC = summary.latestTemperatureC(TemperatureKind::Winding);
+    if (input.windingTemperatureC) {
+        input.referenceTemperatureC = options.referenceTemperatureC.value_or(defaultReferenceTemperatureC);
+        summary.referenceTemperatureDefaulted = !options.referenceTemperatureC.has_value();
+    }
+    AnalysisResult analysis = analyseFit(summary.fit, input);
+    if (!analysis.ok()) {
+        summary.analysisProblem = analysis.errors.front().message();
+        return;
+    }
+    summary.regulationLimitPercent = options.regulationLimitPercent ? options.regulationLimitPercent
+                                                                    : nameplateRegulationPercent(summary.setup->nameplate);
+    if (summary.regulationLimitPercent) {
+        const UncertainValue &regulation = analysis.regulationPercent;
+        summary.decision = decideAgainstUpperLimit(regulation.value, regulation.expandedUncertainty.value_or(0.0),
+                                                   *summary.regulationLimitPercent, options.rule);
+    }
+    summary.analysis = std::move(analysis);
+}
+
+} // namespace
+
+StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const ReviewOptions &options)
 {
     SessionSummary summary;
+    summary.options = options;
     summary.path = store.path();
     summary.notice = store.notice();
     const StoreStatus statuses[] = {
@@ -123,16 +164,17 @@ StoreResult<SessionSummary> summarizeSession(const SessionStore &store, FitMetho
     else
         summary.setupProblem = setup.errors.front().message();
     summary.plan = parseStoredPlan(summary.info.planJson);
-    summary.fit = fitReadings(summary.readings, method);
+    summary.fit = fitReadings(summary.readings, options.method);
+    analyse(summary);
     return summary;
 }
 
-StoreResult<SessionSummary> loadSessionSummary(const std::string &path, FitMethod method)
+StoreResult<SessionSummary> loadSessionSummary(const std::string &path, const ReviewOptions &options)
 {
     auto opened = SessionStore::openForReview(path);
     if (!opened.ok())
         return StoreResult<SessionSummary>::failure(opened.status());
-    return summarizeSession(*opened.value, method);
+    return summarizeSession(*opened.value, options);
 }
 
 } // namespace sagline

@@ -3,8 +3,10 @@
 // and the PDF report, so none of them recomputes anything.
 #pragma once
 
+#include "ConformityDecision.h"
 #include "FitSummary.h"
 #include "Reading.h"
+#include "ResultAnalysis.h"
 #include "SessionRecords.h"
 #include "SessionStore.h"
 #include "Setup.h"
@@ -44,6 +46,19 @@ struct StoredPlan {
 // Reads the plan JSON written by planToJson; never throws.
 StoredPlan parseStoredPlan(const std::string &planJson);
 
+// How a reviewer wants the session judged; every choice is shown in the outputs.
+struct ReviewOptions {
+    FitMethod method = FitMethod::Ols;
+    DecisionRule rule = DecisionRule::GuardedAcceptance;        // ILAC-G8:2019
+    std::optional<double> regulationLimitPercent;               // default: the nameplate's regulation
+    std::optional<double> referenceTemperatureC;                // default: 75 °C when a winding temperature exists
+    std::optional<TemperatureConstant> temperatureConstant;     // default: from the winding material
+};
+
+// 75 °C: IEC 60076-1's reference temperature (from memory, FACTS.md §3), used for small
+// transformers too when nothing else is agreed (common practice).
+inline constexpr double defaultReferenceTemperatureC = 75.0;
+
 struct SessionSummary {
     std::string path;
     std::string notice;                      // from the store (newer version, recovered copy)
@@ -58,7 +73,13 @@ struct SessionSummary {
     std::vector<NoteRecord> notes;
     std::vector<SafetyStopRecord> safetyStops;
     std::vector<SignOffRecord> signOffs;
-    FitSummary fit;                          // fitReadings(readings, method)
+    ReviewOptions options;                   // as given
+    FitSummary fit;                          // fitReadings(readings, options.method)
+    std::optional<AnalysisResult> analysis;  // when the setup parsed and the fit is ok
+    std::string analysisProblem;             // why there is no analysis, "" when there is
+    bool referenceTemperatureDefaulted = false; // T_ref is defaultReferenceTemperatureC, not chosen
+    std::optional<double> regulationLimitPercent; // the limit the verdict used, %
+    std::optional<ConformityDecision> decision;   // the verdict on regulation
 
     std::size_t excludedCount() const;
     // The latest recorded temperature of a kind, °C.
@@ -67,8 +88,8 @@ struct SessionSummary {
     std::string exclusionReason(std::int64_t readingId) const;
 };
 
-StoreResult<SessionSummary> summarizeSession(const SessionStore &store, FitMethod method);
+StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const ReviewOptions &options = {});
 // Opens `path` for review (read-only, untrusted) and summarizes it.
-StoreResult<SessionSummary> loadSessionSummary(const std::string &path, FitMethod method);
+StoreResult<SessionSummary> loadSessionSummary(const std::string &path, const ReviewOptions &options = {});
 
 } // namespace sagline

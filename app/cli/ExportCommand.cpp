@@ -22,7 +22,7 @@ constexpr const char *usage =
 int runExport(const Arguments &args)
 {
     std::string sessionPath, csvPath, fitCsvPath, jsonPath;
-    FitMethod method = FitMethod::Ols;
+    ReviewOptions options;
     for (std::size_t i = 0; i < args.size(); ++i) {
         const std::string &arg = args[i];
         if (arg == "--csv" || arg == "--fit-csv" || arg == "--json" || arg == "--method") {
@@ -36,7 +36,7 @@ int runExport(const Arguments &args)
             else if (arg == "--json")
                 jsonPath = *value;
             else if (const auto parsed = fitMethodFromString(*value))
-                method = *parsed;
+                options.method = *parsed;
             else {
                 std::cerr << "sagline-cli export: --method: expected ols, wls or york, got '" << *value << "'\n";
                 return exitInvalidInput;
@@ -56,7 +56,7 @@ int runExport(const Arguments &args)
         return exitInvalidInput;
     }
 
-    const auto summary = loadSessionSummary(sessionPath, method);
+    const auto summary = loadSessionSummary(sessionPath, options);
     if (!summary.ok()) {
         std::cerr << "sagline-cli export: " << summary.message << '\n';
         return exitCodeFor(summary.code);
