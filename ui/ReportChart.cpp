@@ -209,7 +209,7 @@ void drawChart(QPainter &painter, const QRectF &area, double unit, const ChartSp
     painter.setPen(QPen(Qt::black, 0.6 * unit));
     for (const auto &series : spec.series)
         for (const QPointF &p : series.points)
-            drawMarker(painter, map(p), series.marker, 4.0 * unit);
+            drawMarker(painter, map(p), series.marker, (series.marker == ChartMarker::FilledCircle ? 4.5 : 5.5) * unit);
     painter.restore();
 
     painter.setPen(axisPen);

@@ -21,5 +21,6 @@ int runFit(const Arguments &args);
 int runRun(const Arguments &args);
 int runImport(const Arguments &args);
 int runExport(const Arguments &args);
+int runReport(const Arguments &args);
 
 } // namespace sagline::cli

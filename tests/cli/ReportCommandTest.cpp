@@ -1,0 +1,65 @@
+// sagline-cli report: a PDF from a session, headless (no DISPLAY), A4 and Letter, clear errors.
+#include "RunProgram.h"
+
+#include <gtest/gtest.h>
+
+#include <filesystem>
+#include <random>
+
+using sagline::testing::readWholeFile;
+using sagline::testing::runProgram;
+
+namespace {
+
+const std::string cli = SAGLINE_CLI_PATH;
+const std::string demoSetup = std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-setup.json";
+const std::string demoReadings = std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-readings.csv";
+
+class ReportCommand : public ::testing::Test {
+protected:
+    void SetUp() override
+    {
+        std::random_device seed;
+        m_dir = std::filesystem::temp_directory_path() / ("sagline-cli-report-" + std::to_string(seed()));
+        std::filesystem::create_directories(m_dir);
+        ASSERT_EQ(runProgram(cli, {"import", demoReadings, "--setup", demoSetup, "-o", path("s.sagline"), "--serial",
+                                   "T60-0421", "--winding", "23"})
+                      .exitCode,
+                  0);
+    }
+    void TearDown() override { std::filesystem::remove_all(m_dir); }
+    std::string path(const std::string &name) const { return (m_dir / name).string(); }
+
+private:
+    std::filesystem::path m_dir;
+};
+
+} // namespace
+
+TEST_F(ReportCommand, WritesAPdfWithoutADisplay)
+{
+    unsetenv("DISPLAY");
+    unsetenv("WAYLAND_DISPLAY");
+    unsetenv("QT_QPA_PLATFORM"); // the command must choose offscreen by itself
+    const auto r = runProgram(cli, {"report", path("s.sagline"), "-o", path("r.pdf")});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    EXPECT_EQ(readWholeFile(path("r.pdf")).substr(0, 5), "%PDF-");
+    EXPECT_FALSE(std::filesystem::exists(path("r.pdf.partial")));
+    const auto letter = runProgram(cli, {"report", path("s.sagline"), "-o", path("l.pdf"), "--page", "letter",
+                                         "--rule", "simple", "--reference-temperature", "85"});
+    ASSERT_EQ(letter.exitCode, 0) << letter.err;
+    EXPECT_GT(std::filesystem::file_size(path("l.pdf")), 10000u);
+}
+
+TEST_F(ReportCommand, RejectsBadOptionsAndFiles)
+{
+    const auto page = runProgram(cli, {"report", path("s.sagline"), "-o", path("x.pdf"), "--page", "a3"});
+    EXPECT_EQ(page.exitCode, 2);
+    EXPECT_NE(page.err.find("--page"), std::string::npos) << page.err;
+    const auto missing = runProgram(cli, {"report", path("s.sagline")});
+    EXPECT_EQ(missing.exitCode, 2);
+    const auto notSession = runProgram(cli, {"report", demoReadings, "-o", path("y.pdf")});
+    EXPECT_EQ(notSession.exitCode, 2);
+    EXPECT_NE(notSession.err.find("not a Sagline session"), std::string::npos) << notSession.err;
+    EXPECT_FALSE(std::filesystem::exists(path("y.pdf")));
+}

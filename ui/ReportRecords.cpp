@@ -1,0 +1,233 @@
+// Charts, the readings table, and the records (exclusions, safety stops, notes, cautions,
+// sign-off) of the session report.
+#include "ReportChart.h"
+#include "ReportCanvas.h"
+#include "ReportSections.h"
+#include "ReportText.h"
+#include "SessionSummary.h"
+
+#include <QPainter>
+
+#include <algorithm>
+#include <cmath>
+
+namespace sagline {
+
+using namespace reporttext;
+
+namespace {
+
+enum class PointRole { Used, Outlier, Excluded, NotFitted };
+
+PointRole roleOf(const SessionSummary &summary, std::size_t row)
+{
+    const Reading &reading = summary.readings[row];
+    const PointFit *point = row < summary.fit.points.size() ? &summary.fit.points[row] : nullptr;
+    if (reading.excluded)
+        return PointRole::Excluded;
+    if (point == nullptr || !point->used)
+        return PointRole::NotFitted;
+    return point->outlier ? PointRole::Outlier : PointRole::Used;
+}
+
+ChartSpec voltageCurrentChart(const SessionSummary &summary)
+{
+    ChartSpec spec;
+    spec.title = QStringLiteral("Secondary voltage against current");
+    spec.xLabel = QStringLiteral("secondary current I (A)");
+    spec.yLabel = QStringLiteral("secondary voltage V (V)");
+    ChartSeriesPoints used{QStringLiteral("used in the fit"), ChartMarker::FilledCircle, {}};
+    ChartSeriesPoints outliers{QStringLiteral("outlier"), ChartMarker::OpenSquare, {}};
+    ChartSeriesPoints excluded{QStringLiteral("excluded"), ChartMarker::OpenCircleCross, {}};
+    ChartSeriesPoints notFitted{QStringLiteral("not fitted (flagged)"), ChartMarker::OpenTriangle, {}};
+    double low = 0.0, high = 0.0;
+    for (std::size_t row = 0; row < summary.readings.size(); ++row) {
+        const Reading &reading = summary.readings[row];
+        if (!std::isfinite(reading.currentA) || !std::isfinite(reading.voltageV))
+            continue;
+        high = std::max(high, reading.currentA);
+        low = std::min(low, reading.currentA);
+        const QPointF point(reading.currentA, reading.voltageV);
+        switch (roleOf(summary, row)) {
+        case PointRole::Used: used.points.append(point); break;
+        case PointRole::Outlier: outliers.points.append(point); break;
+        case PointRole::Excluded: excluded.points.append(point); break;
+        case PointRole::NotFitted: notFitted.points.append(point); break;
+        }
+    }
+    if (summary.fit.ok() && high > low) {
+        ChartBand band{QStringLiteral("95 % confidence band of the line"), {}, {}};
+        constexpr int samples = 48;
+        for (int i = 0; i <= samples; ++i) {
+            const double current = low + (high - low) * i / samples;
+            const LinePrediction prediction = predictVoltage(summary.fit, current);
+            if (!prediction.confidence)
+                continue;
+            band.lower.append(QPointF(current, prediction.confidence->low));
+            band.upper.append(QPointF(current, prediction.confidence->high));
+        }
+        const LinePrediction atTop = predictVoltage(summary.fit, high);
+        if (atTop.confidence)
+            band.legend += QStringLiteral(" (± %1 at %2)")
+                               .arg(q(formatQuantity((atTop.confidence->high - atTop.confidence->low) / 2.0, "V", 2)),
+                                    q(formatQuantity(high, "A", 3)));
+        if (!band.lower.isEmpty())
+            spec.bands.append(band);
+        spec.lines.append({QStringLiteral("fitted line V = V0 − R·I"),
+                           {QPointF(low, summary.fit.intercept + summary.fit.slope * low),
+                            QPointF(high, summary.fit.intercept + summary.fit.slope * high)},
+                           false,
+                           1.0});
+    }
+    spec.series = {used, outliers, excluded, notFitted};
+    return spec;
+}
+
+ChartSpec residualChart(const SessionSummary &summary)
+{
+    ChartSpec spec;
+    spec.title = QStringLiteral("Residuals of the fit (measured − fitted)");
+    spec.xLabel = QStringLiteral("secondary current I (A)");
+    spec.yLabel = QStringLiteral("residual (mV)");
+    spec.includeZeroY = true;
+    ChartSeriesPoints used{QStringLiteral("used"), ChartMarker::FilledCircle, {}};
+    ChartSeriesPoints outliers{QStringLiteral("outlier"), ChartMarker::OpenSquare, {}};
+    ChartSeriesPoints excluded{QStringLiteral("excluded"), ChartMarker::OpenCircleCross, {}};
+    double low = 0.0, high = 0.0;
+    for (const PointFit &point : summary.fit.points) {
+        if (point.row >= summary.readings.size())
+            continue;
+        const Reading &reading = summary.readings[point.row];
+        if (!std::isfinite(reading.currentA) || !std::isfinite(point.residualV))
+            continue;
+        low = std::min(low, reading.currentA);
+        high = std::max(high, reading.currentA);
+        const QPointF at(reading.currentA, point.residualV * 1000.0);
+        const PointRole role = roleOf(summary, point.row);
+        (role == PointRole::Outlier ? outliers : role == PointRole::Excluded ? excluded : used).points.append(at);
+    }
+    spec.lines.append({QString(), {QPointF(low, 0.0), QPointF(high, 0.0)}, false, 0.8});
+    if (summary.fit.residualSdV) {
+        const double twoS = 2.0 * *summary.fit.residualSdV * 1000.0;
+        spec.lines.append({QStringLiteral("± 2 × residual SD"), {QPointF(low, twoS), QPointF(high, twoS)}, true, 0.6});
+        spec.lines.append({QString(), {QPointF(low, -twoS), QPointF(high, -twoS)}, true, 0.6});
+    }
+    spec.series = {used, outliers, excluded};
+    return spec;
+}
+
+} // namespace
+
+void drawCharts(ReportCanvas &canvas, const SessionSummary &summary)
+{
+    canvas.heading(QStringLiteral("Charts"));
+    if (summary.readings.empty()) {
+        canvas.paragraph(QStringLiteral("No readings were recorded."));
+        return;
+    }
+    const QRectF top = canvas.takeBlock(250.0);
+    drawChart(canvas.painter(), top, canvas.toDevice(1.0), voltageCurrentChart(summary));
+    canvas.skip(8.0);
+    if (summary.fit.ok()) {
+        const QRectF bottom = canvas.takeBlock(170.0);
+        drawChart(canvas.painter(), bottom, canvas.toDevice(1.0), residualChart(summary));
+    }
+}
+
+void drawReadingsTable(ReportCanvas &canvas, const SessionSummary &summary)
+{
+    canvas.heading(QStringLiteral("Readings"));
+    QList<QStringList> rows;
+    for (std::size_t row = 0; row < summary.readings.size(); ++row) {
+        const Reading &r = summary.readings[row];
+        const PointFit *point = row < summary.fit.points.size() ? &summary.fit.points[row] : nullptr;
+        QString status;
+        switch (roleOf(summary, row)) {
+        case PointRole::Used: status = QStringLiteral("used"); break;
+        case PointRole::Outlier: status = QStringLiteral("used, outlier"); break;
+        case PointRole::Excluded: status = QStringLiteral("excluded: ") + q(summary.exclusionReason(r.id)); break;
+        case PointRole::NotFitted: status = QStringLiteral("not fitted"); break;
+        }
+        const bool hasResidual = point != nullptr && summary.fit.ok() && std::isfinite(r.currentA);
+        rows.append({QString::number(r.id), r.step >= 0 ? QString::number(r.step) : QString(),
+                     r.timeUtc.size() >= 19 ? q(r.timeUtc.substr(11, 8)) : q(r.timeUtc), fixed(r.currentA, 4),
+                     fixed(r.uCurrentA, 5), fixed(r.voltageV, 4), fixed(r.uVoltageV, 4),
+                     hasResidual ? fixed(point->residualV * 1000.0, 2) : QString(),
+                     hasResidual && point->studentized ? fixed(*point->studentized, 2) : QString(), q(flagsToString(r.flags)),
+                     status});
+    }
+    const auto right = Qt::AlignRight;
+    canvas.table({{QStringLiteral("#"), 0.05, right},
+                  {QStringLiteral("Step"), 0.05, right},
+                  {QStringLiteral("Time UTC"), 0.09},
+                  {QStringLiteral("I (A)"), 0.08, right},
+                  {QStringLiteral("u(I) (A)"), 0.08, right},
+                  {QStringLiteral("V (V)"), 0.09, right},
+                  {QStringLiteral("u(V) (V)"), 0.08, right},
+                  {QStringLiteral("Resid. (mV)"), 0.09, right},
+                  {QStringLiteral("Stud."), 0.06, right},
+                  {QStringLiteral("Flags"), 0.11},
+                  {QStringLiteral("Status"), 0.22}},
+                 rows, 7.0);
+    canvas.paragraph(QStringLiteral("u(I), u(V): standard uncertainties of each reading. Stud.: externally studentized "
+                                    "residual; |Stud.| above 3 marks an outlier, which stays in the fit unless excluded "
+                                    "with a reason."),
+                     7.5, false, true);
+}
+
+void drawRecordsAndSignOff(ReportCanvas &canvas, const SessionSummary &summary)
+{
+    if (!summary.exclusions.empty()) {
+        canvas.heading(QStringLiteral("Exclusion history"));
+        QList<QStringList> rows;
+        for (const ExclusionRecord &e : summary.exclusions)
+            rows.append({readableUtc(e.timeUtc), QString::number(e.readingId),
+                         e.excluded ? QStringLiteral("excluded") : QStringLiteral("restored"), q(e.reason), q(e.author)});
+        canvas.table({{QStringLiteral("Time"), 0.2}, {QStringLiteral("Reading"), 0.08, Qt::AlignRight},
+                      {QStringLiteral("Action"), 0.1}, {QStringLiteral("Reason"), 0.44}, {QStringLiteral("By"), 0.18}},
+                     rows);
+    }
+    canvas.heading(QStringLiteral("Safety stops"));
+    if (summary.safetyStops.empty()) {
+        canvas.paragraph(QStringLiteral("No safety stop was recorded in this session."), 8.5);
+    } else {
+        QList<QStringList> rows;
+        for (const SafetyStopRecord &s : summary.safetyStops)
+            rows.append({readableUtc(s.timeUtc), s.step >= 0 ? QString::number(s.step) : QString(), q(s.rule), q(s.message),
+                         s.measured ? q(formatSignificant(*s.measured, 4)) : QString(),
+                         s.limitValue ? q(formatSignificant(*s.limitValue, 4)) : QString()});
+        canvas.table({{QStringLiteral("Time"), 0.18}, {QStringLiteral("Step"), 0.06, Qt::AlignRight},
+                      {QStringLiteral("Limit"), 0.14}, {QStringLiteral("What happened"), 0.42},
+                      {QStringLiteral("Measured"), 0.1, Qt::AlignRight}, {QStringLiteral("Limit value"), 0.1, Qt::AlignRight}},
+                     rows);
+    }
+    if (!summary.notes.empty()) {
+        canvas.heading(QStringLiteral("Notes"));
+        QList<QStringList> rows;
+        for (const NoteRecord &n : summary.notes)
+            rows.append({readableUtc(n.timeUtc), q(n.author), q(n.text)});
+        canvas.table({{QStringLiteral("Time"), 0.2}, {QStringLiteral("By"), 0.16}, {QStringLiteral("Note"), 0.64}}, rows);
+    }
+    canvas.heading(QStringLiteral("Cautions"));
+    canvas.paragraph(QStringLiteral(
+                         "The primary side of a transformer under test is at mains voltage, which can kill. Work only on a "
+                         "fused, isolated supply and switch it off before touching any connection. Use meters and leads rated "
+                         "for the measurement category and voltage of the circuit. Never exceed the transformer's rated VA or "
+                         "the rheostat's or load's ratings. Fuse and protection figures are planning aids: local electrical "
+                         "codes, the manufacturer's data and licensed practice decide."),
+                     8.0);
+    canvas.heading(QStringLiteral("Sign-off"));
+    if (!summary.signOffs.empty()) {
+        QList<QStringList> rows;
+        for (const SignOffRecord &s : summary.signOffs)
+            rows.append({readableUtc(s.timeUtc), q(s.reviewer), q(toString(s.verdict)), q(s.comment)});
+        canvas.table({{QStringLiteral("Time"), 0.2}, {QStringLiteral("Reviewer"), 0.18}, {QStringLiteral("Verdict"), 0.12},
+                      {QStringLiteral("Comment"), 0.5}},
+                     rows);
+    }
+    canvas.ensureSpace(100.0);
+    canvas.signatureLines({QStringLiteral("Tested by (name, signature)"), QStringLiteral("Date")});
+    canvas.signatureLines({QStringLiteral("Reviewed by (name, signature)"), QStringLiteral("Date")});
+}
+
+} // namespace sagline

@@ -1,0 +1,179 @@
+// Title block, results and verdict, nameplate and plan of the session report.
+#include "ReportSections.h"
+
+#include "ReportCanvas.h"
+#include "ReportText.h"
+#include "ReportWriter.h"
+#include "SessionSummary.h"
+
+#include <QFileInfo>
+
+namespace sagline {
+
+using namespace reporttext;
+
+void drawTitleBlock(ReportCanvas &canvas, const SessionSummary &summary, const ReportOptions &options)
+{
+    const SessionInfo &info = summary.info;
+    canvas.title(QStringLiteral("Transformer load test report"),
+                 QStringLiteral("Unit %1  ·  operator %2  ·  session started %3  ·  report made %4")
+                     .arg(q(info.unitSerial), q(info.operatorName), readableUtc(info.createdUtc),
+                          readableUtc(options.generatedUtc.toStdString())));
+    const auto ambient = summary.latestTemperatureC(TemperatureKind::Ambient);
+    const auto winding = summary.latestTemperatureC(TemperatureKind::Winding);
+    canvas.keyValues({
+        {QStringLiteral("Unit serial number"), q(info.unitSerial)},
+        {QStringLiteral("Operator"), q(info.operatorName)},
+        {QStringLiteral("Session file"), QFileInfo(q(summary.path)).fileName()},
+        {QStringLiteral("Recorded by"), q(info.softwareVersion) + QStringLiteral(" (schema %1)").arg(info.schemaVersion)},
+        {QStringLiteral("Readings"), QStringLiteral("%1 recorded, %2 excluded, %3 used in the fit")
+                                         .arg(summary.readings.size())
+                                         .arg(summary.excludedCount())
+                                         .arg(summary.fit.n)},
+        {QStringLiteral("Temperatures"), QStringLiteral("ambient %1, winding %2")
+                                             .arg(quantity(ambient, "°C", 3), quantity(winding, "°C", 3))},
+    });
+    if (!summary.notice.empty())
+        canvas.paragraph(QStringLiteral("Note: ") + q(summary.notice), 8.0, false, true);
+    if (summary.instruments.empty()) {
+        canvas.paragraph(QStringLiteral("Instruments: none recorded (readings typed in or imported)."), 8.5);
+        return;
+    }
+    QList<QStringList> rows;
+    for (const InstrumentRecord &instrument : summary.instruments)
+        rows.append({q(instrument.role), q(instrument.identity), q(instrument.accuracy)});
+    canvas.skip(4.0);
+    canvas.table({{QStringLiteral("Instrument role"), 0.16},
+                  {QStringLiteral("Identity (*IDN?)"), 0.42},
+                  {QStringLiteral("Accuracy specification"), 0.42}},
+                 rows);
+}
+
+void drawResultsAndVerdict(ReportCanvas &canvas, const SessionSummary &summary)
+{
+    canvas.heading(QStringLiteral("Results"));
+    const FitSummary &fit = summary.fit;
+    if (!fit.ok()) {
+        canvas.paragraph(QStringLiteral("No fit: %1").arg(q(fit.message)), 9.0, true);
+        return;
+    }
+    QList<QPair<QString, QString>> rows;
+    if (const auto &a = summary.analysis) {
+        rows = {
+            {QStringLiteral("Series resistance R (secondary)"), withU(a->seriesResistanceOhm, "Ω")},
+            {QStringLiteral("No-load voltage V0"), withU(a->noLoadVoltageV, "V")},
+            {QStringLiteral("Full-load voltage at rated current"), withU(a->fullLoadVoltageV, "V")},
+            {QStringLiteral("Regulation (%1 base)").arg(q(toString(a->regulationBase))), withU(a->regulationPercent, "%")},
+            {QStringLiteral("Copper loss at rated current"), withU(a->copperLossW, "W")},
+        };
+        if (a->primaryResistanceOhm)
+            rows.append({QStringLiteral("R referred to the primary"), withU(*a->primaryResistanceOhm, "Ω")});
+        if (a->referenceResistanceOhm && a->temperatureCorrection) {
+            const double reference = summary.options.referenceTemperatureC.value_or(defaultReferenceTemperatureC);
+            rows.append({QStringLiteral("R at %1 °C%2").arg(reference).arg(summary.referenceTemperatureDefaulted
+                                                                               ? QStringLiteral(" (default)")
+                                                                               : QString()),
+                         withU(*a->referenceResistanceOhm, "Ω") + QStringLiteral(", from winding at %1; %2")
+                                                                     .arg(quantity(summary.latestTemperatureC(TemperatureKind::Winding), "°C", 3),
+                                                                          q(a->temperatureCorrection->convention))});
+        } else {
+            rows.append({QStringLiteral("R at a reference temperature"),
+                         QStringLiteral("not computed: no winding temperature recorded")});
+        }
+    } else {
+        rows = {{QStringLiteral("Series resistance R"), q(formatQuantity(fit.seriesResistanceOhm(), "Ω"))},
+                {QStringLiteral("No-load voltage V0"), q(formatQuantity(fit.noLoadVoltageV(), "V"))},
+                {QStringLiteral("Analysis"), q(summary.analysisProblem)}};
+    }
+    canvas.keyValues(rows, 1);
+    QString fitLine = QStringLiteral("Fit: V = V0 − R·I by %1 on %2 points; R² = %3; residual SD %4")
+                          .arg(q(toString(fit.method)).toUpper())
+                          .arg(fit.n)
+                          .arg(fit.rSquared ? q(formatSignificant(*fit.rSquared, 7)) : QStringLiteral("—"),
+                               quantity(fit.residualSdV, "V", 3));
+    if (fit.seriesResistanceCi)
+        fitLine += QStringLiteral("; 95 % interval of R %1 to %2")
+                       .arg(q(formatQuantity(fit.seriesResistanceCi->low, "Ω")), q(formatQuantity(fit.seriesResistanceCi->high, "Ω")));
+    if (fit.curvatureP)
+        fitLine += QStringLiteral("; curvature check p = %1%2")
+                       .arg(q(formatSignificant(*fit.curvatureP, 2)),
+                            *fit.curvatureP < 0.05 ? QStringLiteral(" (the line bends: saturation or heating?)") : QString());
+    fitLine += QStringLiteral(". Uncertainties are expanded, U = k·u with k = 2 (GUM, JCGM 100:2008, 6.2).");
+    canvas.paragraph(fitLine, 8.0);
+
+    canvas.heading(QStringLiteral("Verdict"));
+    if (!summary.decision) {
+        canvas.framedText(QStringLiteral("NO VERDICT"),
+                          summary.analysis ? QStringLiteral("The nameplate gives no regulation to judge against.")
+                                           : q(summary.analysisProblem));
+        return;
+    }
+    const ConformityDecision &d = *summary.decision;
+    if (!d.ok) {
+        canvas.framedText(QStringLiteral("NO VERDICT"), q(d.error));
+        return;
+    }
+    const QString outcome = d.outcome == ConformityOutcome::Pass   ? QStringLiteral("PASS")
+                            : d.outcome == ConformityOutcome::Fail ? QStringLiteral("FAIL")
+                                                                   : QStringLiteral("CANNOT DECIDE");
+    canvas.framedText(QStringLiteral("%1  —  regulation %2 % ± %3 % against the limit %4 %")
+                          .arg(outcome, q(formatSignificant(d.measured, 4)), q(formatSignificant(d.expandedUncertainty, 2)),
+                               q(formatSignificant(d.upperLimit, 4))),
+                      QStringLiteral("Decision rule: %1. Acceptance limit %2 %. %3")
+                          .arg(q(d.ruleName), q(formatSignificant(d.acceptanceLimit, 4)), q(d.explanation)));
+}
+
+void drawNameplateAndPlan(ReportCanvas &canvas, const SessionSummary &summary)
+{
+    canvas.heading(QStringLiteral("Nameplate and bench"));
+    if (!summary.setup) {
+        canvas.paragraph(QStringLiteral("The stored setup could not be read: ") + q(summary.setupProblem), 9.0, true);
+    } else {
+        const Nameplate &n = summary.setup->nameplate;
+        const Bench &b = summary.setup->bench;
+        canvas.keyValues({
+            {QStringLiteral("Rated power"), q(formatQuantity(n.ratedPowerVa, "VA"))},
+            {QStringLiteral("Primary voltage, frequency"), q(formatQuantity(n.primaryVoltageV, "V")) + QStringLiteral(", ") +
+                                                               q(formatQuantity(n.frequencyHz, "Hz"))},
+            {QStringLiteral("Secondary, full load"), q(formatQuantity(n.secondaryVoltageV, "V"))},
+            {QStringLiteral("Secondary, no load"), n.secondaryNoLoadVoltageV ? q(formatQuantity(*n.secondaryNoLoadVoltageV, "V"))
+                                                                             : QStringLiteral("from regulation")},
+            {QStringLiteral("Regulation on the nameplate"), n.regulationPercent ? q(formatSignificant(*n.regulationPercent, 3)) + " %"
+                                                                                : QStringLiteral("from the voltages")},
+            {QStringLiteral("Construction, winding"), q(toString(n.construction)) + QStringLiteral(", ") + q(toString(n.windingMaterial))},
+            {QStringLiteral("Load steps, dwell"), QStringLiteral("%1 steps to %2 % of rated current, %3 each")
+                                                      .arg(b.steps)
+                                                      .arg(b.topFraction * 100.0)
+                                                      .arg(q(formatQuantity(b.dwellS, "s", 3)))},
+            {QStringLiteral("Primary fuse fitted"), b.fuse ? q(formatQuantity(b.fuse->ratingA, "A", 3)) + " " + q(toString(b.fuse->type))
+                                                           : QStringLiteral("not given")},
+        });
+    }
+    const StoredPlan &plan = summary.plan;
+    if (!plan.present || !plan.problem.empty()) {
+        canvas.paragraph(plan.present ? QStringLiteral("Plan: ") + q(plan.problem) : QStringLiteral("No plan stored with this session."), 8.5);
+        return;
+    }
+    canvas.paragraph(QStringLiteral("Plan as computed when the session was made: rated secondary current %1, estimated series "
+                                    "resistance %2, recommended primary fuse %3 %4.")
+                         .arg(quantity(plan.ratedSecondaryCurrentA, "A"), quantity(plan.seriesResistanceOhm, "Ω"),
+                              quantity(plan.recommendedFuseA, "A", 3), q(plan.recommendedFuseType)),
+                     8.5);
+    QList<QStringList> rows;
+    for (const StoredPlanStep &step : plan.steps)
+        rows.append({QString::number(step.index), fixed(step.currentA, 3), fixed(step.predictedVoltageV, 3),
+                     step.loadResistanceOhm ? fixed(*step.loadResistanceOhm, 2) : QStringLiteral("open"), fixed(step.outputVa, 2),
+                     q(step.fuseOutlook)});
+    const auto right = Qt::AlignRight;
+    canvas.table({{QStringLiteral("Step"), 0.08, right},
+                  {QStringLiteral("Current (A)"), 0.16, right},
+                  {QStringLiteral("Predicted V (V)"), 0.18, right},
+                  {QStringLiteral("Load (Ω)"), 0.16, right},
+                  {QStringLiteral("Output (VA)"), 0.16, right},
+                  {QStringLiteral("Fuse outlook"), 0.26}},
+                 rows);
+    for (const std::string &warning : plan.warnings)
+        canvas.paragraph(QStringLiteral("Plan warning: ") + q(warning), 8.0, false, true);
+}
+
+} // namespace sagline

@@ -1,0 +1,51 @@
+// Small text helpers shared by the report sections: core's number formats as QString.
+#pragma once
+
+#include "NumberFormat.h"
+#include "ResultAnalysis.h"
+#include "UncertaintyFormat.h"
+
+#include <QString>
+
+#include <optional>
+#include <string>
+
+namespace sagline::reporttext {
+
+inline QString q(const std::string &text)
+{
+    return QString::fromStdString(text);
+}
+
+// "0.4797 Ω ± 0.0057 Ω (k = 2)" or the value alone when there is no uncertainty.
+inline QString withU(const UncertainValue &value, const std::string &unit)
+{
+    if (value.expandedUncertainty)
+        return q(formatWithUncertainty(value.value, *value.expandedUncertainty, unit));
+    return q(formatQuantity(value.value, unit));
+}
+
+inline QString quantity(const std::optional<double> &value, const std::string &unit, int digits = 4)
+{
+    return value ? q(formatQuantity(*value, unit, digits)) : QStringLiteral("—");
+}
+
+inline QString fixed(double value, int decimals)
+{
+    return q(formatFixed(value, decimals));
+}
+
+inline QString fixed(const std::optional<double> &value, int decimals)
+{
+    return value ? fixed(*value, decimals) : QString();
+}
+
+// "2026-12-02T10:15:03.250Z" -> "2026-12-02 10:15:03 UTC"
+inline QString readableUtc(const std::string &iso)
+{
+    if (iso.size() < 19)
+        return q(iso);
+    return q(iso.substr(0, 10) + " " + iso.substr(11, 8) + " UTC");
+}
+
+} // namespace sagline::reporttext

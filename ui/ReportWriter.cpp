@@ -1,0 +1,82 @@
+#include "ReportWriter.h"
+
+#include "ReportCanvas.h"
+#include "ReportSections.h"
+#include "SessionSummary.h"
+
+#include <QBuffer>
+#include <QFile>
+#include <QFileInfo>
+#include <QPageLayout>
+#include <QPainter>
+#include <QPdfWriter>
+
+namespace sagline {
+
+namespace {
+
+// Lays the whole report out on `writer`; returns the number of pages, 0 if painting failed.
+int render(QPdfWriter &writer, const SessionSummary &summary, const ReportOptions &options, int totalPages)
+{
+    writer.setPageSize(QPageSize(options.pageSize));
+    writer.setPageMargins(QMarginsF(18, 18, 18, 16), QPageLayout::Millimeter);
+    writer.setResolution(600);
+    writer.setCreator(options.producedBy);
+    writer.setTitle(QStringLiteral("Load test report, unit %1").arg(QString::fromStdString(summary.info.unitSerial)));
+    QPainter painter;
+    if (!painter.begin(&writer))
+        return 0;
+    painter.setRenderHint(QPainter::Antialiasing);
+    const QString footer = QStringLiteral("Unit %1 · %2 · %3")
+                               .arg(QString::fromStdString(summary.info.unitSerial),
+                                    QFileInfo(QString::fromStdString(summary.path)).fileName(), options.producedBy);
+    ReportCanvas canvas(writer, painter, footer, totalPages);
+    drawTitleBlock(canvas, summary, options);
+    drawResultsAndVerdict(canvas, summary);
+    drawCharts(canvas, summary);
+    drawNameplateAndPlan(canvas, summary);
+    drawReadingsTable(canvas, summary);
+    drawRecordsAndSignOff(canvas, summary);
+    canvas.finish();
+    const int pages = canvas.pageNumber();
+    return painter.end() ? pages : 0;
+}
+
+} // namespace
+
+QString writeSessionReport(const SessionSummary &summary, const QString &pdfPath, const ReportOptions &options)
+{
+    if (options.pageSize != QPageSize::A4 && options.pageSize != QPageSize::Letter)
+        return QStringLiteral("page size: A4 or Letter");
+    // First pass into memory to count the pages, so every footer can say "page X of Y".
+    QBuffer scratch;
+    scratch.open(QIODevice::WriteOnly);
+    int pages = 0;
+    {
+        QPdfWriter counting(&scratch);
+        pages = render(counting, summary, options, 0);
+    }
+    if (pages == 0)
+        return QStringLiteral("cannot lay out the report");
+
+    const QString partial = pdfPath + QStringLiteral(".partial");
+    {
+        QPdfWriter writer(partial);
+        if (render(writer, summary, options, pages) != pages) {
+            QFile::remove(partial);
+            return QStringLiteral("%1: cannot write the PDF").arg(pdfPath);
+        }
+    }
+    if (!QFileInfo(partial).exists() || QFileInfo(partial).size() == 0) {
+        QFile::remove(partial);
+        return QStringLiteral("%1: cannot write the PDF (folder missing or not writable?)").arg(pdfPath);
+    }
+    QFile::remove(pdfPath);
+    if (!QFile::rename(partial, pdfPath)) {
+        QFile::remove(partial);
+        return QStringLiteral("%1: cannot write the PDF").arg(pdfPath);
+    }
+    return {};
+}
+
+} // namespace sagline
