@@ -24,7 +24,10 @@
 #include <QSocketNotifier>
 #include <QTimer>
 
+#include <cerrno>
 #include <cstdio>
+#include <cstring>
+#include <unistd.h>
 #include <iostream>
 #include <memory>
 #include <optional>
@@ -43,6 +46,7 @@ struct RunArguments {
     std::optional<double> simFuseRatingA;
     RigAddresses addresses;
     std::optional<double> dwellS;
+    std::optional<double> readIntervalS;
     std::string operatorName;
     std::string unitSerial;
     std::optional<double> ambientC;
@@ -50,7 +54,8 @@ struct RunArguments {
 
 const char *usage =
     "usage: sagline-cli run SETUP.json (--sim | --voltmeter ADDR --ammeter ADDR | --meter ADDR) -o SESSION.sagline\n"
-    "         [--load ADDR] [--operator NAME] [--serial UNIT] [--ambient C] [--dwell S] [--timeout-ms MS] [--reset]\n"
+    "         [--load ADDR] [--operator NAME] [--serial UNIT] [--ambient C] [--dwell S] [--read-interval S]\n"
+    "         [--timeout-ms MS] [--reset]\n"
     "         [--seed N] [--sim-realtime] [--sim-single-meter] [--sim-fuse-rating A]\n"
     "  ADDR: a serial port PORT[,BAUD[,8N1[,rtscts|xonxoff]]] or tcp:HOST[:PORT] (SCPI raw socket, default 5025)\n";
 
@@ -122,6 +127,8 @@ std::string parseArguments(const Arguments &args, RunArguments *out)
             error = numeric(&out->ambientC, -60.0);
         else if (a == "--dwell")
             error = numeric(&out->dwellS, 0.0);
+        else if (a == "--read-interval")
+            error = numeric(&out->readIntervalS, 0.0);
         else if (a == "--timeout-ms" || a == "--seed") {
             std::optional<double> v;
             error = numeric(&v, a == "--seed" ? 0.0 : 50.0);
@@ -269,29 +276,38 @@ int runRun(const Arguments &rawArgs)
     options.simulated = args.sim;
     if (args.dwellS)
         options.dwellMs = static_cast<std::int64_t>(*args.dwellS * 1000.0);
+    if (args.readIntervalS)
+        options.readIntervalMs = static_cast<std::int64_t>(*args.readIntervalS * 1000.0);
     SweepController controller(plan, options, rig.get(), &sink, &fit, clock.get());
 
     std::optional<SweepOutcome> outcome;
     const bool waitForEnter = !controller.hasProgrammableLoad();
-    QSocketNotifier stdinNotifier(fileno(stdin), QSocketNotifier::Read);
-    stdinNotifier.setEnabled(false);
+    // Enter confirms the load only while a step waits for it; an Enter pressed earlier (during
+    // a dwell, say) is dropped so that it cannot skip the next step's setting. Read with
+    // read(2), not std::cin, whose buffer would hide lines from the notifier.
+    QSocketNotifier stdinNotifier(STDIN_FILENO, QSocketNotifier::Read);
+    stdinNotifier.setEnabled(waitForEnter);
     QObject::connect(&stdinNotifier, &QSocketNotifier::activated, [&] {
-        std::string line;
-        if (!std::getline(std::cin, line)) {
+        char buffer[256];
+        const ssize_t n = ::read(STDIN_FILENO, buffer, sizeof buffer);
+        if (n < 0 && (errno == EAGAIN || errno == EINTR))
+            return;
+        if (n <= 0) {
+            if (n < 0)
+                std::cerr << "standard input: " << std::strerror(errno) << '\n';
             stdinNotifier.setEnabled(false);
-            std::cerr << "standard input closed: stopping the sweep\n";
-            controller.stop();
+            if (controller.state() != SweepState::Finished && controller.state() != SweepState::Stopped) {
+                std::cerr << "standard input closed: stopping the sweep\n";
+                controller.stop();
+            }
             return;
         }
-        if (controller.state() == SweepState::WaitingForLoad)
+        if (std::memchr(buffer, '\n', static_cast<std::size_t>(n)) && controller.state() == SweepState::WaitingForLoad)
             controller.confirmLoadSet();
     });
     QObject::connect(&controller, &SweepController::stepStarted, [&](int step, const QString &text) {
         std::cerr << "step " << step << ": " << text.toStdString()
                   << (waitForEnter ? " -- press Enter when it is set" : "") << '\n';
-    });
-    QObject::connect(&controller, &SweepController::stateChanged, [&](SweepState state) {
-        stdinNotifier.setEnabled(state == SweepState::WaitingForLoad);
     });
     QObject::connect(&controller, &SweepController::pointRecorded, [](const Reading &reading, const LiveFitSnapshot &snapshot) {
         std::cout << formatPoint(reading, snapshot).toStdString() << std::endl;

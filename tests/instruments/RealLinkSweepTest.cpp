@@ -191,3 +191,46 @@ TEST(RunCommand, BadArgumentsExitWithTwoAndSayWhy)
     EXPECT_EQ(cli.exitCode(), 2);
     EXPECT_TRUE(QString::fromUtf8(cli.readAllStandardError()).contains(QStringLiteral("voltmeter address")));
 }
+
+TEST(RunCommand, WithRealMetersItWaitsForEnterAtEachStep)
+{
+    // The bench's meters on loopback TCP; its load is not given to the CLI, so a person (here
+    // the test) sets it and presses Enter at each step.
+    VirtualClock clock(0);
+    const sagline::Setup setup = demoSetup();
+    const Plan plan = planFor(setup);
+    VirtualBench bench(virtualBenchOptionsFor(setup, plan, 2), &clock);
+    TcpEndpoint voltmeter(bench.voltmeter());
+    TcpEndpoint ammeter(bench.ammeter());
+    QString error;
+    ASSERT_TRUE(voltmeter.start(0, &error) && ammeter.start(0, &error)) << error.toStdString();
+    QTemporaryDir dir;
+    QProcess cli;
+    QString err;
+    int enters = 0;
+    QObject::connect(&cli, &QProcess::readyReadStandardError, [&] {
+        err += QString::fromUtf8(cli.readAllStandardError()); // prompts may arrive in pieces
+        static const QRegularExpression prompt(QStringLiteral("step (\\d+): .*press Enter"));
+        int seen = 0;
+        for (auto it = prompt.globalMatch(err); it.hasNext(); ++seen) {
+            const int step = it.next().captured(1).toInt();
+            if (seen < enters)
+                continue;
+            bench.setLoad(plan.steps[step].loadResistanceOhm); // the operator sets the load...
+            cli.write("\n");                                   // ...and presses Enter
+            ++enters;
+        }
+    });
+    cli.start(QStringLiteral(SAGLINE_CLI_PATH),
+              {QStringLiteral("run"), QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"),
+               QStringLiteral("--voltmeter"), QStringLiteral("tcp:127.0.0.1:%1").arg(voltmeter.port()),
+               QStringLiteral("--ammeter"), QStringLiteral("127.0.0.1:%1").arg(ammeter.port()), QStringLiteral("--dwell"),
+               QStringLiteral("0.02"), QStringLiteral("--read-interval"), QStringLiteral("0.01"), QStringLiteral("--operator"), QStringLiteral("test"), QStringLiteral("-o"),
+               dir.path() + QStringLiteral("/bench.sagline")});
+    ASSERT_TRUE(waitUntil([&] { return cli.state() == QProcess::NotRunning; }, 8000)) << err.toStdString() << QString::fromUtf8(cli.readAllStandardOutput()).toStdString();
+    EXPECT_EQ(cli.exitCode(), 0) << err.toStdString();
+    EXPECT_EQ(enters, 9);
+    const QString out = QString::fromUtf8(cli.readAllStandardOutput());
+    EXPECT_TRUE(out.contains(QStringLiteral(" 8  I "))) << out.toStdString();
+    EXPECT_TRUE(err.contains(QStringLiteral("connected voltmeter: Sagline Virtual Bench,VB-V1")));
+}
