@@ -177,4 +177,109 @@ LinePrediction LineFit::predict(double x, double confidence, double newWeight) c
     return p;
 }
 
+namespace {
+
+// Σ f(i) over [0, n) with four independent accumulators, so the compiler can keep several
+// additions in flight (strict IEEE order is kept inside each accumulator).
+template <typename Term>
+double sum4(std::size_t n, Term term)
+{
+    double s0 = 0.0, s1 = 0.0, s2 = 0.0, s3 = 0.0;
+    std::size_t i = 0;
+    for (; i + 4 <= n; i += 4) {
+        s0 += term(i);
+        s1 += term(i + 1);
+        s2 += term(i + 2);
+        s3 += term(i + 3);
+    }
+    for (; i < n; ++i)
+        s0 += term(i);
+    return (s0 + s1) + (s2 + s3);
+}
+
+} // namespace
+
+LineFitResult fitLine(std::span<const double> x, std::span<const double> y)
+{
+    LineFitResult r;
+    const std::size_t n = x.size();
+    r.n = n;
+    if (y.size() != n) {
+        r.message = "x and y differ in length";
+        return r;
+    }
+    if (n < 2) {
+        r.message = "a line needs at least 2 points, got " + std::to_string(n);
+        return r;
+    }
+    const double count = static_cast<double>(n);
+    const double meanX = sum4(n, [&](std::size_t i) { return x[i]; }) / count;
+    const double meanY = sum4(n, [&](std::size_t i) { return y[i]; }) / count;
+    // A NaN or an infinity anywhere makes a sum non-finite, so no separate pass is needed.
+    if (!std::isfinite(meanX) || !std::isfinite(meanY)) {
+        r.status = FitStatus::NonFiniteValue;
+        r.message = "a value is not a finite number (or the values are too large to sum)";
+        return r;
+    }
+    double sxx = 0.0, sxy = 0.0, syy = 0.0;
+    {
+        double a[4] = {}, b[4] = {}, c[4] = {};
+        std::size_t i = 0;
+        for (; i + 4 <= n; i += 4) {
+            for (std::size_t k = 0; k < 4; ++k) {
+                const double dx = x[i + k] - meanX;
+                const double dy = y[i + k] - meanY;
+                a[k] += dx * dx;
+                b[k] += dx * dy;
+                c[k] += dy * dy;
+            }
+        }
+        for (; i < n; ++i) {
+            const double dx = x[i] - meanX;
+            const double dy = y[i] - meanY;
+            a[0] += dx * dx;
+            b[0] += dx * dy;
+            c[0] += dy * dy;
+        }
+        sxx = (a[0] + a[1]) + (a[2] + a[3]);
+        sxy = (b[0] + b[1]) + (b[2] + b[3]);
+        syy = (c[0] + c[1]) + (c[2] + c[3]);
+    }
+    r.degreesOfFreedom = static_cast<int>(n) - 2;
+    r.meanX = meanX;
+    r.meanY = meanY;
+    r.sxx = sxx;
+    if (!std::isfinite(sxx) || !std::isfinite(syy)) {
+        r.status = FitStatus::NonFiniteValue;
+        r.message = "the values are too large to fit";
+        return r;
+    }
+    if (isDegenerate(sxx, count, std::max(std::fabs(meanX), std::sqrt(sxx / count)))) {
+        r.status = FitStatus::DegenerateCurrent;
+        r.message = "all currents are equal: the slope (series resistance) cannot be fitted";
+        return r;
+    }
+    r.status = FitStatus::Ok;
+    r.slope = sxy / sxx;
+    r.intercept = meanY - r.slope * meanX;
+    if (syy > 0.0)
+        r.rSquared = std::clamp(sxy / sxx * sxy / syy, 0.0, 1.0);
+    if (n < 3)
+        return r;
+    // Residuals directly: no cancellation when R² is close to 1.
+    const double slope = r.slope;
+    const double ssr = sum4(n, [&](std::size_t i) {
+        const double e = (y[i] - meanY) - slope * (x[i] - meanX);
+        return e * e;
+    });
+    const double s2 = ssr / r.degreesOfFreedom;
+    r.residualSd = std::sqrt(s2);
+    r.slopeSe = std::sqrt(s2 / sxx);
+    r.interceptSe = std::sqrt(s2 * (1.0 / count + meanX * meanX / sxx));
+    r.covariance = -meanX * s2 / sxx;
+    if (syy > 0.0)
+        r.rSquared = std::clamp(1.0 - ssr / syy, 0.0, 1.0);
+    return r;
+}
+
 } // namespace sagline

@@ -13,6 +13,7 @@
 
 #include <cstddef>
 #include <optional>
+#include <span>
 #include <string>
 
 namespace sagline {
@@ -94,5 +95,11 @@ private:
     double m_ssr = 0.0;       // Σ w e², residual sum of squares of the current line
     double m_maxAbsX = 0.0;   // for the degenerate-x test (never decreases; conservative)
 };
+
+// Batch ordinary least squares of y on x over arrays (x in A, y in V for Sagline), by three
+// passes: the means, the centred co-moments, the residual sum of squares. The same statistics
+// as LineFit::result(); the fastest accurate route for a large array (see bench/FitBenchmark).
+// x and y must have the same length.
+LineFitResult fitLine(std::span<const double> x, std::span<const double> y);
 
 } // namespace sagline

@@ -87,6 +87,12 @@ TEST(FitSummary, OlsAgreesWithGslFitLinear)
     expectRelative(*s.covariance, cov01, 1e-10);
     expectRelative(*s.residualSdV, std::sqrt(sumsq / static_cast<double>(x.size() - 2)), 1e-10);
 
+    const LineFitResult batch = fitLine(x, y); // the array batch form agrees too
+    expectRelative(batch.slope, c1, 1e-10);
+    expectRelative(batch.intercept, c0, 1e-10);
+    expectRelative(*batch.slopeSe, std::sqrt(cov11), 1e-10);
+    expectRelative(*batch.interceptSe, std::sqrt(cov00), 1e-10);
+
     LineFit live; // the incremental form agrees too
     for (std::size_t i = 0; i < x.size(); ++i)
         live.add(x[i], y[i]);

@@ -199,3 +199,23 @@ TEST(LineFit, PredictionIntervalFollowsTheTextbookFormula)
     EXPECT_NEAR(p.confidence->high - p.value, t * lineSe, 1e-9);
     EXPECT_NEAR(p.prediction->high - p.value, t * std::sqrt(lineSe * lineSe + s * s), 1e-9);
 }
+
+TEST(LineFit, BatchFitLineMatchesNorrisAndTheLiveFit)
+{
+    // NIST StRD Norris certified values, through the array batch fit (9 significant digits).
+    const auto data = test::loadColumns("nist-strd-norris.csv");
+    ASSERT_EQ(data.size(), 2u);
+    const LineFitResult r = fitLine(data[0], data[1]);
+    ASSERT_TRUE(r.ok()) << r.message;
+    expectRelative(r.intercept, norrisB0, 1e-9);
+    expectRelative(r.slope, norrisB1, 1e-9);
+    expectRelative(*r.interceptSe, norrisB0Sd, 1e-9);
+    expectRelative(*r.slopeSe, norrisB1Sd, 1e-9);
+    expectRelative(*r.residualSd, norrisResidualSd, 1e-9);
+    expectRelative(*r.rSquared, norrisRSquared, 1e-9);
+    const std::vector<double> same{1.0, 1.0, 1.0}, y{1.0, 2.0, 3.0};
+    EXPECT_EQ(fitLine(same, y).status, FitStatus::DegenerateCurrent);
+    const std::vector<double> bad{0.0, NAN, 1.0};
+    EXPECT_EQ(fitLine(bad, y).status, FitStatus::NonFiniteValue);
+    EXPECT_EQ(fitLine(std::vector<double>{1.0}, std::vector<double>{1.0}).status, FitStatus::TooFewPoints);
+}

@@ -1,0 +1,170 @@
+// Speed of the fit engine (issue 3): one point added to the live fit at several sizes, a batch
+// OLS of 1 000 000 points against GSL's gsl_fit_linear and against a loop that only sums x and y
+// (the memory-bandwidth floor), and York at 1 000 and 100 000 points.
+// Run: cmake --preset release && cmake --build --preset release --target FitBenchmark &&
+//      build/release/bench/FitBenchmark
+#include "FitSummary.h"
+#include "LineFit.h"
+#include "YorkFit.h"
+
+#include <benchmark/benchmark.h>
+
+#include <random>
+#include <vector>
+
+#if SAGLINE_HAVE_GSL
+#include <gsl/gsl_fit.h>
+#endif
+
+using namespace sagline;
+
+namespace {
+
+// A made-up sweep: V = 26.4 - 1.9 I with 10 mV noise, I uniform in [0, 2.1] A.
+struct Data {
+    std::vector<double> x, y, sx, sy;
+};
+
+const Data &data(std::size_t n)
+{
+    static std::vector<std::pair<std::size_t, Data>> cache;
+    for (const auto &[size, d] : cache)
+        if (size == n)
+            return d;
+    Data d;
+    std::mt19937_64 random(42);
+    std::uniform_real_distribution<double> current(0.0, 2.1);
+    std::normal_distribution<double> noise(0.0, 0.01);
+    for (std::size_t i = 0; i < n; ++i) {
+        const double x = current(random);
+        d.x.push_back(x + 0.001 * noise(random));
+        d.y.push_back(26.4 - 1.9 * x + noise(random));
+        d.sx.push_back(0.001);
+        d.sy.push_back(0.01);
+    }
+    cache.emplace_back(n, std::move(d));
+    return cache.back().second;
+}
+
+// Adding one point to a live fit that already holds n points (n grows by the iteration count;
+// the cost does not depend on it).
+void liveAdd(benchmark::State &state)
+{
+    const auto n = static_cast<std::size_t>(state.range(0));
+    const Data &d = data(n + 4096);
+    LineFit fit;
+    for (std::size_t i = 0; i < n; ++i)
+        fit.add(d.x[i], d.y[i]);
+    std::size_t k = 0;
+    for (auto _ : state) {
+        fit.add(d.x[n + (k & 4095)], d.y[n + (k & 4095)]);
+        ++k;
+        benchmark::DoNotOptimize(fit);
+    }
+    state.counters["n"] = static_cast<double>(n);
+}
+BENCHMARK(liveAdd)->Arg(10)->Arg(1000)->Arg(100000);
+
+// Adding then removing one point: n stays constant; both directions are O(1).
+void liveAddRemove(benchmark::State &state)
+{
+    const auto n = static_cast<std::size_t>(state.range(0));
+    const Data &d = data(n + 4096);
+    LineFit fit;
+    for (std::size_t i = 0; i < n; ++i)
+        fit.add(d.x[i], d.y[i]);
+    std::size_t k = 0;
+    for (auto _ : state) {
+        const std::size_t j = n + (k++ & 4095);
+        fit.add(d.x[j], d.y[j]);
+        fit.remove(d.x[j], d.y[j]);
+        benchmark::DoNotOptimize(fit);
+    }
+}
+BENCHMARK(liveAddRemove)->Arg(10)->Arg(1000)->Arg(100000);
+
+// The full statistics of the live fit (slope, SEs, R², residual SD): O(1).
+void liveResult(benchmark::State &state)
+{
+    const Data &d = data(1000);
+    LineFit fit;
+    for (std::size_t i = 0; i < 1000; ++i)
+        fit.add(d.x[i], d.y[i]);
+    for (auto _ : state)
+        benchmark::DoNotOptimize(fit.result());
+}
+BENCHMARK(liveResult);
+
+constexpr std::int64_t million = 1000000;
+
+void batchOls(benchmark::State &state)
+{
+    const Data &d = data(static_cast<std::size_t>(state.range(0)));
+    for (auto _ : state)
+        benchmark::DoNotOptimize(fitLine(d.x, d.y));
+    state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
+}
+BENCHMARK(batchOls)->Arg(million)->Unit(benchmark::kMillisecond);
+
+#if SAGLINE_HAVE_GSL
+void gslFitLinear(benchmark::State &state)
+{
+    const Data &d = data(static_cast<std::size_t>(state.range(0)));
+    for (auto _ : state) {
+        double c0, c1, cov00, cov01, cov11, sumsq;
+        gsl_fit_linear(d.x.data(), 1, d.y.data(), 1, d.x.size(), &c0, &c1, &cov00, &cov01, &cov11, &sumsq);
+        benchmark::DoNotOptimize(c1);
+        benchmark::DoNotOptimize(sumsq);
+    }
+    state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
+}
+BENCHMARK(gslFitLinear)->Arg(million)->Unit(benchmark::kMillisecond);
+#endif
+
+// The floor: one pass that only sums x and y.
+void sumOnly(benchmark::State &state)
+{
+    const Data &d = data(static_cast<std::size_t>(state.range(0)));
+    for (auto _ : state) {
+        double sx = 0.0, sy = 0.0;
+        for (std::size_t i = 0; i < d.x.size(); ++i) {
+            sx += d.x[i];
+            sy += d.y[i];
+        }
+        benchmark::DoNotOptimize(sx);
+        benchmark::DoNotOptimize(sy);
+    }
+    state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
+}
+BENCHMARK(sumOnly)->Arg(million)->Unit(benchmark::kMillisecond);
+
+void york(benchmark::State &state)
+{
+    const Data &d = data(static_cast<std::size_t>(state.range(0)));
+    int iterations = 0;
+    for (auto _ : state) {
+        const YorkFitResult r = yorkFit(d.x, d.y, d.sx, d.sy);
+        iterations = r.iterations;
+        benchmark::DoNotOptimize(r.slope);
+    }
+    state.counters["iterations"] = iterations;
+}
+BENCHMARK(york)->Arg(1000)->Arg(100000)->Unit(benchmark::kMillisecond);
+
+// The whole batch summary a UI refresh asks for (fit, residuals, studentized, curvature).
+void fitReadingsSummary(benchmark::State &state)
+{
+    const Data &d = data(static_cast<std::size_t>(state.range(0)));
+    std::vector<Reading> readings(d.x.size());
+    for (std::size_t i = 0; i < d.x.size(); ++i) {
+        readings[i].currentA = d.x[i];
+        readings[i].voltageV = d.y[i];
+    }
+    for (auto _ : state)
+        benchmark::DoNotOptimize(fitReadings(readings, FitMethod::Ols));
+}
+BENCHMARK(fitReadingsSummary)->Arg(20)->Arg(1000)->Unit(benchmark::kMicrosecond);
+
+} // namespace
+
+BENCHMARK_MAIN();
