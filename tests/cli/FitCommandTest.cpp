@@ -1,6 +1,8 @@
 // sagline-cli fit: exit codes, messages naming the line and column, and the JSON keys of DESIGN.md.
 #include "RunProgram.h"
 
+#include "SessionStore.h"
+
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
@@ -110,4 +112,31 @@ TEST(FitCommand, TwoPointsGiveNullUncertaintiesNotNaN)
     EXPECT_TRUE(j["series_resistance_se_ohm"].is_null());
     EXPECT_TRUE(j["curvature_p"].is_null());
     EXPECT_EQ(r.out.find("nan"), std::string::npos);
+}
+
+TEST(FitCommand, FitsASessionHonouringExclusionsAndItsNameplate)
+{
+    const auto dir = std::filesystem::temp_directory_path() / "sagline-fit-test-session";
+    std::filesystem::remove_all(dir);
+    std::filesystem::create_directories(dir);
+    const std::string session = (dir / "unit.sagline").string();
+    const auto imported = runProgram(cli, {"import", demoReadings, "--setup", demoSetup, "-o", session});
+    ASSERT_EQ(imported.exitCode, 0) << imported.err;
+    {
+        auto store = sagline::SessionStore::openForWriting(session);
+        ASSERT_TRUE(store.ok()) << store.message;
+        auto readings = store.value->readings();
+        ASSERT_TRUE(readings.ok());
+        ASSERT_EQ(readings.value.size(), 9u);
+        ASSERT_TRUE(store.value->excludeReading(readings.value[4].id, "lead slipped", "test").ok());
+    }
+    const auto r = runProgram(cli, {"fit", session, "--json"});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const auto j = nlohmann::json::parse(r.out);
+    for (const char *key : designKeys)
+        EXPECT_TRUE(j.contains(key)) << key;
+    EXPECT_EQ(j["n"], 8);
+    EXPECT_FALSE(j["points"][4]["used"].get<bool>());
+    EXPECT_TRUE(j["analysis"]["regulation_percent"]["value"].is_number()); // from the session's nameplate
+    std::filesystem::remove_all(dir);
 }

@@ -208,3 +208,25 @@ TEST(FitSummary, MethodNamesRoundTrip)
         EXPECT_EQ(fitMethodFromString(toString(m)), m);
     EXPECT_FALSE(fitMethodFromString("odr").has_value());
 }
+
+TEST(FitSummary, PredictionAgreesWithTheLiveFit)
+{
+    // Two routes to the same textbook interval: the covariance of (a, b) here, the centred
+    // sums in LineFit::predict.
+    const auto readings = randomReadings(12, 5);
+    const FitSummary s = fitReadings(readings, FitMethod::Ols);
+    LineFit live;
+    for (const auto &r : readings)
+        live.add(r.currentA, r.voltageV);
+    for (double current : {0.0, 1.0, 2.5}) {
+        const LinePrediction a = predictVoltage(s, current);
+        const LinePrediction b = live.predict(current);
+        ASSERT_TRUE(a.prediction && b.prediction);
+        EXPECT_NEAR(a.value, b.value, 1e-12);
+        EXPECT_NEAR(a.confidence->high, b.confidence->high, 1e-10);
+        EXPECT_NEAR(a.prediction->low, b.prediction->low, 1e-10);
+    }
+    const LinePrediction withU = predictVoltage(s, 1.0, 0.5);
+    EXPECT_GT(withU.prediction->high - withU.value, predictVoltage(s, 1.0).prediction->high - withU.value);
+    EXPECT_FALSE(predictVoltage(FitSummary{}, 1.0).prediction.has_value());
+}
