@@ -16,6 +16,8 @@ packages=(
     libgtest-dev libgmock-dev libbenchmark-dev libgsl-dev
     clang libclang-rt-14-dev
     xvfb xauth poppler-utils sqlite3 python3
+    # scripts/york-odr-check.py: regenerates the York test's independent ODR reference values
+    python3-scipy
 )
 
 missing=()

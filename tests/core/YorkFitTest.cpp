@@ -63,6 +63,24 @@ TEST(YorkFit, MatchesPublishedPearsonYorkSolution)
     EXPECT_LT(r.iterations, 50);
 }
 
+TEST(YorkFit, AgreesWithAnIndependentOrthogonalDistanceFit)
+{
+    // Independent general-purpose library: SciPy 1.10 scipy.odr (ODRPACK) from Debian's
+    // python3-scipy, weights wd = w(x), we = w(y); values printed by scripts/york-odr-check.py:
+    // a = 5.4799104319294, b = -0.48053345082549, sd_beta (scaled by the residual variance)
+    // 0.359246493612771 / 0.070620268173098, res_var 1.48329414929314. ODRPACK stops at its own
+    // convergence tolerance, so the agreement is held to 1e-6 relative.
+    const PearsonYork d = loadPearsonYork();
+    ASSERT_EQ(d.x.size(), 10u);
+    const YorkFitResult r = yorkFit(d.x, d.y, d.sx, d.sy);
+    ASSERT_TRUE(r.ok()) << r.message;
+    expectRelative(r.intercept, 5.4799104319294, 1e-6);
+    expectRelative(r.slope, -0.48053345082549, 1e-6);
+    expectRelative(*r.interceptSeScaled, 0.359246493612771, 1e-6);
+    expectRelative(*r.slopeSeScaled, 0.070620268173098, 1e-6);
+    expectRelative(*r.mswd, 1.48329414929314, 1e-6);
+}
+
 TEST(YorkFit, ReducesToWeightedLeastSquaresWhenXIsExact)
 {
     // With negligible u(x), York's W_i -> 1/u(y)² and the line is the WLS line (York 2004, §II).
