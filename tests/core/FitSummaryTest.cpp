@@ -167,6 +167,17 @@ TEST(FitSummary, FlagsAnOutlierWithoutDroppingIt)
     EXPECT_TRUE(s.points[4].outlier);
     EXPECT_LT(*s.points[4].studentized, -3.0);
     EXPECT_EQ(fitReadings(readingsOf(i, v), FitMethod::Ols, FitOptions{100.0}).outlierRows.size(), 0u);
+    // The weighted methods flag the same reading.
+    auto withU = readingsOf(i, v);
+    for (auto &r : withU) {
+        r.uVoltageV = 0.01;
+        r.uCurrentA = 0.0005;
+    }
+    EXPECT_EQ(fitReadings(withU, FitMethod::Wls).outlierRows, std::vector<std::size_t>{4});
+    const FitSummary york = fitReadings(withU, FitMethod::York);
+    ASSERT_TRUE(york.ok()) << york.message;
+    EXPECT_EQ(york.outlierRows, std::vector<std::size_t>{4});
+    EXPECT_GT(*york.mswd, 10.0); // the misread point makes the scatter exceed the stated u
 }
 
 TEST(FitSummary, DegenerateInputGivesStatusAndMessage)
