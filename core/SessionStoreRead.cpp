@@ -79,12 +79,22 @@ StoreResult<SessionInfo> SessionStore::info() const
 StoreResult<std::vector<Reading>> SessionStore::readings() const
 {
     // The latest exclusion row per reading decides (ids grow with time; nothing is deleted).
+    // Exclusions are few: read them once rather than a subquery per reading.
+    std::unordered_map<std::int64_t, bool> excludedById;
+    {
+        SqliteStatement query;
+        int rc = query.prepare(m_db.get(), "SELECT reading_id, excluded FROM exclusion ORDER BY id");
+        while (rc == SQLITE_OK && (rc = query.step()) == SQLITE_ROW) {
+            excludedById[query.columnInt64(0)] = query.columnInt64(1) != 0;
+            rc = SQLITE_OK;
+        }
+        if (rc != SQLITE_DONE)
+            return StoreResult<std::vector<Reading>>::failure(sqliteFailure(m_db.get(), rc, "cannot read the exclusions"));
+    }
     auto result = selectAll<Reading>(
         m_db.get(),
-        "SELECT r.id, r.time_utc, r.step, r.current_a, r.voltage_v, r.u_current_a, r.u_voltage_v, r.flags, r.raw_text, "
-        "coalesce((SELECT e.excluded FROM exclusion e WHERE e.reading_id = r.id ORDER BY e.id DESC LIMIT 1), 0) "
-        "FROM reading r ORDER BY r.id",
-        "reading", [](const SqliteStatement &row, Reading &reading) {
+        "SELECT id, time_utc, step, current_a, voltage_v, u_current_a, u_voltage_v, flags, raw_text FROM reading ORDER BY id",
+        "reading", [&excludedById](const SqliteStatement &row, Reading &reading) {
             std::string problem;
             reading.id = row.columnInt64(0);
             reading.timeUtc = row.columnText(1);
@@ -104,7 +114,8 @@ StoreResult<std::vector<Reading>> SessionStore::readings() const
             reading.uCurrentA = checkedUncertainty(row, 5, problem);
             reading.uVoltageV = checkedUncertainty(row, 6, problem);
             reading.rawText = row.columnText(8);
-            reading.excluded = row.columnInt64(9) != 0;
+            const auto exclusion = excludedById.find(reading.id);
+            reading.excluded = exclusion != excludedById.end() && exclusion->second;
             return problem;
         });
     return result;
