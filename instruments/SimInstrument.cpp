@@ -21,6 +21,7 @@ QString toString(SimInstrumentKind kind)
     case SimInstrumentKind::Ammeter: return QStringLiteral("ammeter");
     case SimInstrumentKind::PowerMeter: return QStringLiteral("power-meter");
     case SimInstrumentKind::Load: return QStringLiteral("load");
+    case SimInstrumentKind::PrimaryMeter: return QStringLiteral("primary-meter");
     }
     return {};
 }
@@ -59,7 +60,7 @@ QString SimInstrument::identity() const
 {
     // An identity of our own: manufacturer, model, serial, firmware (IEEE 488.2 *IDN?).
     static const char *models[] = {"VB-V1 virtual voltmeter", "VB-A1 virtual ammeter", "VB-P2 virtual power meter",
-                                   "VB-L1 virtual load"};
+                                   "VB-L1 virtual load", "VB-M1 virtual mains meter"};
     return QStringLiteral("Sagline Virtual Bench,%1,%2,%3")
         .arg(QLatin1String(models[static_cast<int>(m_kind)]), m_serial, QLatin1String(buildinfo::version));
 }
@@ -174,14 +175,16 @@ void SimInstrument::deliver(QByteArray reply, bool isMeasurement, ReplyFn replyF
 
 QByteArray SimInstrument::measure(bool voltage)
 {
-    const bool canVoltage = m_kind == SimInstrumentKind::Voltmeter || m_kind == SimInstrumentKind::PowerMeter;
-    const bool canCurrent = m_kind == SimInstrumentKind::Ammeter || m_kind == SimInstrumentKind::PowerMeter;
+    const bool primary = m_kind == SimInstrumentKind::PrimaryMeter;
+    const bool canVoltage = m_kind == SimInstrumentKind::Voltmeter || m_kind == SimInstrumentKind::PowerMeter || primary;
+    const bool canCurrent = m_kind == SimInstrumentKind::Ammeter || m_kind == SimInstrumentKind::PowerMeter || primary;
     if ((voltage && !canVoltage) || (!voltage && !canCurrent)) {
         pushError(-241, QStringLiteral("Hardware missing; this %1 cannot measure %2")
                             .arg(toString(m_kind), voltage ? QStringLiteral("voltage") : QStringLiteral("current")));
         return QByteArray("9.91000000E+37");
     }
-    const std::optional<double> value = voltage ? m_bench->readVoltage() : m_bench->readCurrent();
+    const std::optional<double> value = primary ? (voltage ? m_bench->readPrimaryVoltage() : m_bench->readPrimaryCurrent())
+                                                : (voltage ? m_bench->readVoltage() : m_bench->readCurrent());
     if (!value)
         return QByteArray("9.90000000E+37");
     return QByteArray::number(*value, 'E', 8);

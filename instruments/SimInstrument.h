@@ -18,8 +18,9 @@ namespace sagline {
 
 class VirtualBench;
 
-enum class SimInstrumentKind { Voltmeter, Ammeter, PowerMeter, Load };
-QString toString(SimInstrumentKind kind); // "voltmeter", "ammeter", "power-meter", "load"
+// PowerMeter: secondary V and I on one instrument; PrimaryMeter: primary V and I (mains side).
+enum class SimInstrumentKind { Voltmeter, Ammeter, PowerMeter, Load, PrimaryMeter };
+QString toString(SimInstrumentKind kind); // "voltmeter", "ammeter", "power-meter", "load", "primary-meter"
 
 enum class SimFault { Drop, Garbage, Slow, Overload, NotANumber, EndlessLine, Vanish };
 QString toString(SimFault fault);

@@ -4,6 +4,8 @@
 #include "ScpiInstrument.h"
 
 #include <cmath>
+#include <functional>
+#include <map>
 #include <memory>
 
 namespace sagline {
@@ -73,10 +75,8 @@ SweepOptions sweepOptionsFor(const Setup &setup, const Plan &plan)
 }
 
 struct SweepController::PendingRead {
-    std::optional<MeterValue> voltage;
-    std::optional<MeterValue> current;
-    std::int64_t voltageMs = 0;
-    std::int64_t currentMs = 0;
+    std::map<MeterRole, std::pair<MeterValue, std::int64_t>> values; // role -> (value, time read)
+    std::size_t expected = 0;
 };
 
 SweepController::SweepController(const Plan &plan, const SweepOptions &options, InstrumentRig *rig, PointSink *sink,
@@ -177,6 +177,12 @@ void SweepController::start()
                 emit notice(tr("could not record the instrument %1: %2").arg(record.identity, result.error));
         }
     }
+    if (m_rig) {
+        for (ScpiInstrument *instrument : m_rig->instruments()) {
+            for (const QString &message : instrument->errorLog())
+                event(tr("reported while connecting: %1").arg(message));
+        }
+    }
     event(tr("sweep started at step %1 (%2)").arg(m_step).arg(m_rig ? tr("instruments") : tr("typed-in readings")));
     beginStep();
 }
@@ -244,46 +250,70 @@ void SweepController::startMeasuring()
 void SweepController::readPair()
 {
     const int serial = ++m_readSerial;
-    ScpiInstrument *voltmeter = m_rig->instrumentFor(MeterRole::SecondaryVoltage);
-    ScpiInstrument *ammeter = m_rig->instrumentFor(MeterRole::SecondaryCurrent);
+    // The secondary pair, plus the optional primary meters when the rig has them. Instruments
+    // read in parallel; the roles of one instrument one after the other.
+    std::map<ScpiInstrument *, std::vector<MeterRole>> byInstrument;
     auto pending = std::make_shared<PendingRead>();
-    auto complete = [this, serial, pending] {
-        if (serial != m_readSerial || !pending->voltage || !pending->current)
-            return;
-        handlePair(*pending->voltage, pending->voltageMs, *pending->current, pending->currentMs);
-    };
-    auto readCurrent = [this, serial, pending, ammeter, complete] {
-        ammeter->measure(MeterRole::SecondaryCurrent, this, [this, serial, pending, complete](const MeterValue &value) {
+    for (MeterRole role : {MeterRole::SecondaryVoltage, MeterRole::SecondaryCurrent, MeterRole::PrimaryVoltage,
+                           MeterRole::PrimaryCurrent}) {
+        if (ScpiInstrument *instrument = m_rig->instrumentFor(role)) {
+            byInstrument[instrument].push_back(role);
+            ++pending->expected;
+        }
+    }
+    auto readChain = std::make_shared<std::function<void(ScpiInstrument *, std::vector<MeterRole>, std::size_t)>>();
+    std::weak_ptr<std::function<void(ScpiInstrument *, std::vector<MeterRole>, std::size_t)>> weakChain = readChain;
+    *readChain = [this, serial, pending, weakChain](ScpiInstrument *instrument, std::vector<MeterRole> roles,
+                                                    std::size_t index) {
+        instrument->measure(roles[index], this, [this, serial, pending, weakChain, instrument, roles, index](const MeterValue &value) {
             if (serial != m_readSerial)
                 return;
-            pending->current = value;
-            pending->currentMs = m_clock->nowMs();
-            complete();
+            pending->values[value.role] = {value, m_clock->nowMs()};
+            if (index + 1 < roles.size()) {
+                if (auto chain = weakChain.lock())
+                    (*chain)(instrument, roles, index + 1);
+            } else if (pending->values.size() == pending->expected) {
+                handleValues(pending->values);
+            }
         });
     };
-    // One instrument in both roles reads one after the other; two read at the same time.
-    const bool shared = voltmeter == ammeter;
-    voltmeter->measure(MeterRole::SecondaryVoltage, this,
-                       [this, serial, pending, complete, readCurrent, shared](const MeterValue &value) {
-                           if (serial != m_readSerial)
-                               return;
-                           pending->voltage = value;
-                           pending->voltageMs = m_clock->nowMs();
-                           if (shared)
-                               readCurrent();
-                           else
-                               complete();
-                       });
-    if (!shared)
-        readCurrent();
+    m_readChain = readChain; // kept alive until the next read
+    for (auto &[instrument, roles] : byInstrument)
+        (*readChain)(instrument, roles, 0);
+}
+
+void SweepController::handleValues(const std::map<MeterRole, std::pair<MeterValue, std::int64_t>> &values)
+{
+    const auto &[voltage, voltageMs] = values.at(MeterRole::SecondaryVoltage);
+    const auto &[current, currentMs] = values.at(MeterRole::SecondaryCurrent);
+    QString raw = QStringLiteral("V: %1; I: %2").arg(QString::fromLatin1(voltage.raw), QString::fromLatin1(current.raw));
+    for (MeterRole role : {MeterRole::PrimaryVoltage, MeterRole::PrimaryCurrent}) {
+        auto it = values.find(role);
+        if (it == values.end())
+            continue;
+        const MeterValue &v = it->second.first;
+        raw += QStringLiteral("; %1: %2").arg(role == MeterRole::PrimaryVoltage ? QStringLiteral("V1") : QStringLiteral("I1"),
+                                              v.status == MeterValue::Status::Failed ? QStringLiteral("(no reading)")
+                                                                                      : QString::fromLatin1(v.raw));
+        if (v.status == MeterValue::Status::Overload) {
+            SafetyPoint point;
+            point.overloadedRole = roleName(role).toStdString();
+            Reading reading = makeReading(current.isValue() ? current.value : 0.0, voltage.isValue() ? voltage.value : 0.0);
+            reading.rawText = raw.toStdString();
+            tripSafety(*checkSafety(m_options.limits, point), reading);
+            return;
+        }
+        if (v.status == MeterValue::Status::Failed)
+            emit notice(v.error); // an optional meter: noted, the secondary pair still counts
+    }
+    handlePair(voltage, voltageMs, current, currentMs, raw);
 }
 
 void SweepController::handlePair(const MeterValue &voltage, std::int64_t voltageMs, const MeterValue &current,
-                                 std::int64_t currentMs)
+                                 std::int64_t currentMs, const QString &raw)
 {
     if (m_state != SweepState::Measuring)
         return;
-    const QString raw = QStringLiteral("V: %1; I: %2").arg(QString::fromLatin1(voltage.raw), QString::fromLatin1(current.raw));
     for (const MeterValue *value : {&voltage, &current}) {
         if (value->status == MeterValue::Status::Overload) {
             SafetyPoint point;

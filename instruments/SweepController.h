@@ -16,6 +16,7 @@
 #include "Clock.h"
 #include "LiveFit.h"
 #include "ManualEntry.h"
+#include "MeterRole.h"
 #include "Planner.h"
 #include "PointSink.h"
 #include "Reading.h"
@@ -27,6 +28,8 @@
 #include <QPointer>
 #include <QString>
 
+#include <map>
+#include <memory>
 #include <optional>
 
 namespace sagline {
@@ -110,8 +113,9 @@ private:
     void loadReady();
     void startMeasuring();
     void readPair();
+    void handleValues(const std::map<MeterRole, std::pair<MeterValue, std::int64_t>> &values);
     void handlePair(const MeterValue &voltage, std::int64_t voltageMs, const MeterValue &current,
-                    std::int64_t currentMs);
+                    std::int64_t currentMs, const QString &raw);
     void scheduleRead();
     void acceptPoint(Reading reading);
     bool commitAndReport(Reading reading);
@@ -144,6 +148,7 @@ private:
     bool m_operatorPaused = false;
     std::optional<Reading> m_uncommitted; // a reading whose commit failed; retried on resume()
     std::optional<std::pair<double, double>> m_lastPair; // (V, I) of the last good read
+    std::shared_ptr<void> m_readChain;                   // keeps the current read's continuation alive
     QString m_lastRaw;
     QString m_pauseReason;
 };

@@ -62,6 +62,7 @@ VirtualBench::VirtualBench(const VirtualBenchOptions &options, Clock *clock, QOb
     m_ammeter = new SimInstrument(SimInstrumentKind::Ammeter, this, options.seed * 4 + 2, this);
     m_powerMeter = new SimInstrument(SimInstrumentKind::PowerMeter, this, options.seed * 4 + 3, this);
     m_load = new SimInstrument(SimInstrumentKind::Load, this, options.seed * 4 + 4, this);
+    m_primaryMeter = new SimInstrument(SimInstrumentKind::PrimaryMeter, this, options.seed * 4 + 5, this);
 }
 
 VirtualBench::~VirtualBench() = default;
@@ -152,6 +153,30 @@ std::optional<double> VirtualBench::readVoltage()
 std::optional<double> VirtualBench::readCurrent()
 {
     return meterReading(state().secondaryCurrentA, m_options.ammeter, m_ammeterGain);
+}
+
+} // namespace sagline
+
+namespace sagline {
+
+std::optional<double> VirtualBench::readPrimaryVoltage()
+{
+    // The mains meter sits on the supply side of the fuse (common practice: it shows the
+    // supply even when the fuse has opened). Ranged and specified like the secondary meters.
+    SimMeterSpec spec = m_options.voltmeter;
+    spec.rangeMax = 750.0;
+    spec.resolution = 0.1;
+    spec.noiseSd = 0.1;
+    return meterReading(m_options.transformer.primaryVoltageV, spec, m_voltmeterGain);
+}
+
+std::optional<double> VirtualBench::readPrimaryCurrent()
+{
+    SimMeterSpec spec = m_options.ammeter;
+    spec.rangeMax = 10.0;
+    spec.resolution = 0.0001;
+    spec.noiseSd = 0.0001;
+    return meterReading(state().primaryCurrentA, spec, m_ammeterGain);
 }
 
 } // namespace sagline

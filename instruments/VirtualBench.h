@@ -58,6 +58,8 @@ public:
     // Meter readings as the meters show them (gain error, noise, resolution). nullopt = overload.
     std::optional<double> readVoltage();
     std::optional<double> readCurrent();
+    std::optional<double> readPrimaryVoltage(); // the supply, V RMS (0 once the fuse opened)
+    std::optional<double> readPrimaryCurrent(); // through the fuse, A RMS
 
     // The instruments on this bench (owned by it): a voltmeter, an ammeter, a two-channel
     // power meter (both secondary V and I) and the programmable load.
@@ -65,7 +67,8 @@ public:
     SimInstrument *ammeter() const { return m_ammeter; }
     SimInstrument *powerMeter() const { return m_powerMeter; }
     SimInstrument *loadInstrument() const { return m_load; }
-    QList<SimInstrument *> instruments() const { return {m_voltmeter, m_ammeter, m_powerMeter, m_load}; }
+    SimInstrument *primaryMeter() const { return m_primaryMeter; } // mains-side V and I
+    QList<SimInstrument *> instruments() const { return {m_voltmeter, m_ammeter, m_powerMeter, m_load, m_primaryMeter}; }
 
     std::mt19937_64 &random() { return m_random; }
 
@@ -88,6 +91,7 @@ private:
     SimInstrument *m_ammeter;
     SimInstrument *m_powerMeter;
     SimInstrument *m_load;
+    SimInstrument *m_primaryMeter;
 };
 
 } // namespace sagline

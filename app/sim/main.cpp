@@ -82,7 +82,7 @@ void handleCommand(const QString &line, VirtualBench *bench)
         out << "ok\n";
     } else {
         out << "commands: state | fault INSTRUMENT drop|garbage|slow|overload|nan|endless|vanish [COUNT] | replace-fuse\n"
-               "instruments: voltmeter ammeter power-meter load\n";
+               "instruments: voltmeter ammeter power-meter load primary-meter\n";
     }
     out.flush();
 }
@@ -104,7 +104,7 @@ int main(int argc, char **argv)
     parser.addPositionalArgument(QStringLiteral("SETUP.json"), QStringLiteral("the setup file (nameplate and bench)"));
     const QList<QCommandLineOption> options{
         {QStringLiteral("seed"), QStringLiteral("random seed (repeatable runs), default 1"), QStringLiteral("N")},
-        {QStringLiteral("tcp-port"), QStringLiteral("first TCP port (voltmeter; then ammeter, power meter, load); 0 = any free; default 5025"), QStringLiteral("PORT")},
+        {QStringLiteral("tcp-port"), QStringLiteral("first TCP port (voltmeter; then ammeter, power meter, load, primary meter); 0 = any free; default 5025"), QStringLiteral("PORT")},
         {QStringLiteral("no-tcp"), QStringLiteral("do not open TCP ports")},
         {QStringLiteral("no-pty"), QStringLiteral("do not open pseudo-terminals")},
         {QStringLiteral("link-dir"), QStringLiteral("folder for the stable pty links (default: a new temporary folder)"), QStringLiteral("DIR")},

@@ -9,6 +9,7 @@
 #include "SimInstrument.h"
 #include "SweepController.h"
 #include "VirtualBench.h"
+#include "VirtualBenchLink.h"
 
 #include <QDateTime>
 
@@ -318,4 +319,24 @@ TEST(SweepController, AReadingFarOutsideThePredictionIntervalIsFlagged)
         EXPECT_FALSE(sink.readings[i].flags & flagOutsidePrediction) << i;
     EXPECT_TRUE(sink.readings[5].flags & flagOutsidePrediction);
     EXPECT_TRUE(notices.join('\n').contains(QStringLiteral("loose lead")));
+}
+
+TEST(SweepController, OptionalPrimaryMetersAreReadWithEveryPoint)
+{
+    VirtualSweep sweep(demoSetup());
+    auto *mains = new ScpiInstrument(QStringLiteral("mains meter"), new VirtualBenchLink(sweep.bench->primaryMeter()));
+    RoleConfig v1 = defaultRoleConfig(MeterRole::PrimaryVoltage);
+    RoleConfig i1 = defaultRoleConfig(MeterRole::PrimaryCurrent);
+    v1.configureCommands.clear();
+    i1.configureCommands.clear();
+    mains->setRoles({v1, i1});
+    sweep.rig->addInstrument(mains);
+    sweep.rig->connectAll();
+    ASSERT_TRUE(waitUntil([&] { return sweep.rig->isReady(); }));
+    ASSERT_TRUE(sweep.run());
+    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
+    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+    // 230 V supply; the last step draws about the plan's primary current (0.287 A).
+    EXPECT_NE(sweep.recorded.back().rawText.find("; V1: 2.30"), std::string::npos) << sweep.recorded.back().rawText;
+    EXPECT_NE(sweep.recorded.back().rawText.find("; I1: 2.8"), std::string::npos) << sweep.recorded.back().rawText;
 }
