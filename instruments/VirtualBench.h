@@ -71,6 +71,9 @@ public:
     QList<SimInstrument *> instruments() const { return {m_voltmeter, m_ammeter, m_powerMeter, m_load, m_primaryMeter}; }
 
     std::mt19937_64 &random() { return m_random; }
+    // The meters' fixed gain errors (reading = true value x gain), drawn once from the seed.
+    double voltmeterGain() const { return m_voltmeterGain; }
+    double ammeterGain() const { return m_ammeterGain; }
 
 signals:
     void fuseOpened(double primaryCurrentA);

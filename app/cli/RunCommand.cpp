@@ -366,6 +366,13 @@ int runRun(const Arguments &rawArgs)
                   << t.referenceTemperatureC << " °C; copper now " << QString::number(s.copperTemperatureC, 'f', 2).toStdString()
                   << " °C (R " << QString::number(s.seriesResistanceOhm, 'f', 4).toStdString() << " Ω)"
                   << (bench->isFuseOpen() ? "; primary fuse OPEN" : "") << '\n';
+        // What a perfect fit would give through these meters: V0 x gV and R x gV / gI.
+        const double gv = bench->voltmeterGain();
+        const double gi = bench->ammeterGain();
+        std::cout << "  meter gain errors: voltmeter " << QString::number((gv - 1.0) * 100.0, 'f', 3).toStdString()
+                  << " %, ammeter " << QString::number((gi - 1.0) * 100.0, 'f', 3).toStdString()
+                  << " %; seen through them: V0 " << QString::number(t.noLoadVoltageV() * gv, 'f', 4).toStdString() << " V, R "
+                  << QString::number(t.seriesResistanceOhm * gv / gi, 'f', 4).toStdString() << " Ω at 20 °C\n";
     }
     switch (result) {
     case SweepOutcome::Completed: return exitSuccess;
