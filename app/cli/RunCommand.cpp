@@ -25,6 +25,7 @@
 #include <QTimer>
 
 #include <cerrno>
+#include <csignal>
 #include <cstdio>
 #include <cstring>
 #include <unistd.h>
@@ -174,6 +175,16 @@ QString formatPoint(const Reading &reading, const LiveFitSnapshot &fit)
     if (!flags.empty())
         line += QStringLiteral("  [%1]").arg(QString::fromStdString(flags));
     return line;
+}
+
+// Ctrl-C or SIGTERM during a sweep: stop it the normal way (a programmable load is switched
+// off, the stop is recorded) instead of dying with the load on. Self-pipe: the handler only writes.
+int interruptPipe[2] = {-1, -1};
+
+void handleInterrupt(int)
+{
+    const char byte = 1;
+    [[maybe_unused]] const ssize_t written = ::write(interruptPipe[1], &byte, 1);
 }
 
 } // namespace
@@ -333,10 +344,27 @@ int runRun(const Arguments &rawArgs)
         // Let the load's switch-off command go out before leaving.
         QTimer::singleShot(args.sim ? 0 : 300, &app, &QCoreApplication::quit);
     });
+    std::unique_ptr<QSocketNotifier> interruptNotifier;
+    if (::pipe(interruptPipe) == 0) {
+        interruptNotifier = std::make_unique<QSocketNotifier>(interruptPipe[0], QSocketNotifier::Read);
+        QObject::connect(interruptNotifier.get(), &QSocketNotifier::activated, [&] {
+            char byte;
+            [[maybe_unused]] const ssize_t n = ::read(interruptPipe[0], &byte, 1);
+            std::cerr << "interrupted: stopping the sweep\n";
+            if (controller.state() == SweepState::Finished || controller.state() == SweepState::Stopped)
+                app.quit();
+            else
+                controller.stop();
+        });
+        std::signal(SIGINT, handleInterrupt);
+        std::signal(SIGTERM, handleInterrupt);
+    }
     if (virtualClock)
         virtualClock->setAutoAdvance(true);
     QTimer::singleShot(0, &controller, &SweepController::start);
     app.exec();
+    std::signal(SIGINT, SIG_DFL);
+    std::signal(SIGTERM, SIG_DFL);
     if (virtualClock)
         virtualClock->setAutoAdvance(false);
 
