@@ -3,6 +3,7 @@
 #include "InstrumentRig.h"
 #include "ScpiInstrument.h"
 
+#include <algorithm>
 #include <cmath>
 #include <functional>
 #include <map>
@@ -90,6 +91,13 @@ SweepController::SweepController(const Plan &plan, const SweepOptions &options, 
     qRegisterMetaType<sagline::SweepState>();
     qRegisterMetaType<sagline::SweepOutcome>();
     if (m_rig) {
+        // Readings quantized to one count cannot agree better than that: never ask for less
+        // than two counts of spread.
+        if (const RoleConfig *v = m_rig->roleConfig(MeterRole::SecondaryVoltage))
+            m_options.stability.voltageFloorV = std::max(m_options.stability.voltageFloorV, 2.0 * v->resolution);
+        if (const RoleConfig *i = m_rig->roleConfig(MeterRole::SecondaryCurrent))
+            m_options.stability.currentFloorA = std::max(m_options.stability.currentFloorA, 2.0 * i->resolution);
+        m_tracker = StabilityTracker(m_options.stability);
         connect(m_rig, &InstrumentRig::lost, this, &SweepController::handleRigLost);
         connect(m_rig, &InstrumentRig::restored, this, &SweepController::handleRigRestored);
         connect(m_rig, &InstrumentRig::instrumentError, this, [this](const QString &message) {

@@ -21,6 +21,7 @@
 
 #include <QCoreApplication>
 #include <QDateTime>
+#include <QFileInfo>
 #include <QSocketNotifier>
 #include <QTimer>
 
@@ -214,6 +215,10 @@ int runRun(const Arguments &rawArgs)
         return exitInvalidInput;
     }
     const Plan &plan = *planned.plan;
+    if (QFileInfo::exists(QString::fromStdString(args.outputPath))) {
+        std::cerr << "sagline-cli run: " << args.outputPath << " already exists; a session file is never overwritten\n";
+        return exitInvalidInput;
+    }
 
     int argc = 1;
     char name[] = "sagline-cli";
