@@ -22,5 +22,6 @@ int runRun(const Arguments &args);
 int runImport(const Arguments &args);
 int runExport(const Arguments &args);
 int runReport(const Arguments &args);
+int runCompare(const Arguments &args);
 
 } // namespace sagline::cli

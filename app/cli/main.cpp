@@ -23,6 +23,7 @@ constexpr Command commands[] = {
     {"import", sagline::cli::runImport, "import DATA.csv --setup SETUP.json -o SESSION.sagline   readings from a CSV into a new session"},
     {"export", sagline::cli::runExport, "export SESSION.sagline --csv OUT.csv [--fit-csv F.csv] [--json OUT.json]   readings, fit, summary"},
     {"report", sagline::cli::runReport, "report SESSION.sagline -o REPORT.pdf [--page a4|letter]   the printed test report (PDF)"},
+    {"compare", sagline::cli::runCompare, "compare FILES_OR_FOLDERS... [--csv OUT.csv] [--json]  compare saved sessions (review)"},
 };
 
 void printUsage(std::ostream &out)

@@ -1,0 +1,227 @@
+// sagline-cli compare FILES_OR_FOLDERS... [--csv OUT.csv] [--json]: one row per session, batch
+// statistics and the far-from-batch flag, for a lab lead's review. Every file is opened
+// untrusted and read-only; a bad file is listed with its reason and the others are compared.
+// Exit code 0 when every input was compared, 2 when some input could not be (the rest is still
+// printed and written), 1 when the CSV cannot be written.
+#include "CliCommands.h"
+
+#include "ComparisonExport.h"
+#include "NumberFormat.h"
+#include "SessionComparison.h"
+#include "SessionScan.h"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdlib>
+#include <fstream>
+#include <iostream>
+#include <sstream>
+
+namespace sagline::cli {
+
+namespace {
+
+constexpr const char *usage =
+    "usage: sagline-cli compare FILES_OR_FOLDERS... [--csv OUT.csv] [--json] [--method ols|wls|york]\n"
+    "                           [--reference-temperature °C] [--convention iec|ieee] [--rule guarded|simple]\n";
+
+// Display width of UTF-8 text: one column per code point (enough for Ω, ±, °).
+std::size_t displayWidth(const std::string &text)
+{
+    std::size_t width = 0;
+    for (unsigned char c : text)
+        width += (c & 0xC0) != 0x80 ? 1 : 0;
+    return width;
+}
+
+std::string pad(const std::string &text, std::size_t width, bool right = false)
+{
+    const std::size_t w = displayWidth(text);
+    const std::string fill(w < width ? width - w : 0, ' ');
+    return right ? fill + text : text + fill;
+}
+
+// "1.952 ± 0.023": U to two significant digits, the value to the same decimal place (GUM 7.2.6).
+std::string withUncertainty(std::optional<double> value, std::optional<double> expanded)
+{
+    if (!value || !std::isfinite(*value))
+        return "n/a";
+    if (!expanded || !std::isfinite(*expanded) || *expanded <= 0.0)
+        return formatSignificant(*value, 4);
+    const int magnitude = static_cast<int>(std::floor(std::log10(*expanded)));
+    const int decimals = std::max(0, std::min(9, 1 - magnitude));
+    return formatFixed(*value, decimals) + " ± " + formatFixed(*expanded, decimals);
+}
+
+struct Options {
+    std::vector<std::string> inputs;
+    std::string csvPath;
+    bool asJson = false;
+    ComparisonOptions comparison;
+};
+
+// Parses the arguments; an error message names the option and the rule.
+std::string parseArguments(const Arguments &args, Options &options)
+{
+    for (std::size_t i = 0; i < args.size(); ++i) {
+        const std::string &arg = args[i];
+        auto value = [&](std::string &out) -> bool {
+            if (i + 1 >= args.size())
+                return false;
+            out = args[++i];
+            return true;
+        };
+        std::string text;
+        if (arg == "--json") {
+            options.asJson = true;
+        } else if (arg == "--csv") {
+            if (!value(options.csvPath) || options.csvPath.empty())
+                return "--csv needs a file name";
+        } else if (arg == "--method") {
+            if (!value(text))
+                return "--method needs ols, wls or york";
+            const auto method = fitMethodFromString(text);
+            if (!method)
+                return "--method must be ols, wls or york, got '" + text + "'";
+            options.comparison.method = *method;
+        } else if (arg == "--reference-temperature") {
+            if (!value(text))
+                return "--reference-temperature needs a temperature in °C";
+            char *end = nullptr;
+            const double t = std::strtod(text.c_str(), &end);
+            if (end == text.c_str() || *end != '\0' || !std::isfinite(t) || t < -50.0 || t > 250.0)
+                return "--reference-temperature must be a number of °C from -50 to 250, got '" + text + "'";
+            options.comparison.figures.referenceTemperatureC = t;
+        } else if (arg == "--convention") {
+            if (!value(text) || (text != "iec" && text != "ieee"))
+                return "--convention must be iec (copper 235 °C) or ieee (copper 234.5 °C)";
+            options.comparison.figures.convention = text == "iec" ? TemperatureConvention::Iec : TemperatureConvention::Ieee;
+        } else if (arg == "--rule") {
+            if (!value(text) || (text != "guarded" && text != "simple"))
+                return "--rule must be guarded or simple (ILAC-G8:09/2019 decision rules)";
+            options.comparison.figures.rule = text == "simple" ? DecisionRule::SimpleAcceptance : DecisionRule::GuardedAcceptance;
+        } else if (!arg.empty() && arg[0] == '-') {
+            return "unknown option '" + arg + "'";
+        } else {
+            options.inputs.push_back(arg);
+        }
+    }
+    if (options.inputs.empty())
+        return "give at least one session file or folder";
+    return {};
+}
+
+void printTable(const std::vector<SessionRow> &rows, const BatchStatistics &stats, const ComparisonOptions &options,
+                std::ostream &out)
+{
+    const std::string refTitle = "R at " + formatSignificant(options.figures.referenceTemperatureC, 3) + " °C (Ω)";
+    const std::vector<std::string> titles = {"unit",    "date (UTC)", "operator", "points",  "R (Ω)",  refTitle,
+                                             "V0 (V)",  "regulation (%)", "verdict", "stops", "review", "z"};
+    std::vector<std::vector<std::string>> cells;
+    for (std::size_t i = 0; i < rows.size(); ++i) {
+        const SessionRow &row = rows[i];
+        if (!row.opened)
+            continue;
+        const SessionFigures &f = row.figures;
+        const std::optional<double> r = f.ok ? std::optional<double>(f.resistanceOhm) : std::nullopt;
+        const std::optional<double> v0 = f.ok ? std::optional<double>(f.noLoadVoltageV) : std::nullopt;
+        const auto z = stats.robustZ[i];
+        bool far = false;
+        for (auto k : stats.farFromBatch)
+            far = far || k == i;
+        cells.push_back({row.unitSerial, row.createdUtc.substr(0, 10), row.operatorName,
+                         std::to_string(row.pointsUsed) + "/" + std::to_string(row.readingCount),
+                         withUncertainty(r, f.resistanceUOhm), withUncertainty(f.resistanceRefOhm, f.resistanceRefUOhm),
+                         withUncertainty(v0, f.noLoadVoltageUV), withUncertainty(f.regulationPercent, f.regulationUPercent),
+                         toString(f.verdict), std::to_string(row.safetyStops.size()), row.reviewState(),
+                         (z ? formatFixed(*z, 2) : std::string("n/a")) + (far ? " FAR" : "")});
+    }
+    std::vector<std::size_t> widths(titles.size());
+    for (std::size_t c = 0; c < titles.size(); ++c) {
+        widths[c] = displayWidth(titles[c]);
+        for (const auto &line : cells)
+            widths[c] = std::max(widths[c], displayWidth(line[c]));
+    }
+    auto printLine = [&](const std::vector<std::string> &line) {
+        std::string text;
+        for (std::size_t c = 0; c < line.size(); ++c)
+            text += (c ? "  " : "") + pad(line[c], widths[c], c >= 3 && c <= 7);
+        while (!text.empty() && text.back() == ' ')
+            text.pop_back();
+        out << text << '\n';
+    };
+    printLine(titles);
+    for (const auto &line : cells)
+        printLine(line);
+}
+
+void printSummary(const BatchStatistics &stats, const ComparisonOptions &options, std::ostream &out)
+{
+    const std::string basis = stats.atReferenceTemperature
+                                  ? "at " + formatSignificant(options.figures.referenceTemperatureC, 3) + " °C"
+                                  : "as measured (not every session has a winding temperature)";
+    out << "\nBatch: " << stats.sessions << " sessions, " << stats.unreadable << " unreadable, " << stats.withoutFit
+        << " without a fit\n";
+    if (stats.meanOhm) {
+        out << "  R " << basis << ": mean " << formatQuantity(*stats.meanOhm, "Ω");
+        if (stats.sdOhm)
+            out << ", standard deviation " << formatQuantity(*stats.sdOhm, "Ω");
+        out << ", median " << formatQuantity(*stats.medianOhm, "Ω") << ", range " << formatQuantity(*stats.minOhm, "Ω")
+            << " to " << formatQuantity(*stats.maxOhm, "Ω") << " (" << stats.resistanceCount << " units)\n";
+    }
+    out << "  Verdicts (" << describe(options.figures.rule) << "):\n    pass " << stats.pass << ", fail " << stats.fail
+        << ", undecided " << stats.undecided << ", n/a " << stats.noVerdict << '\n';
+    out << "  Review: accepted " << stats.accepted << ", rejected " << stats.rejected << ", retest " << stats.retest
+        << ", not reviewed " << stats.notReviewed << "; safety stops in " << stats.safetyStopped
+        << " sessions; lab-sheet limit hit in " << stats.limitHit << '\n';
+    out << "  Far from the batch: " << stats.ruleNote << '\n';
+    out << "  Fit: " << toString(options.method) << "; uncertainties expanded with k = "
+        << formatSignificant(options.figures.coverageFactor, 2) << "\n";
+}
+
+} // namespace
+
+int runCompare(const Arguments &args)
+{
+    Options options;
+    if (const std::string error = parseArguments(args, options); !error.empty()) {
+        std::cerr << "sagline-cli compare: " << error << '\n' << usage;
+        return exitInvalidInput;
+    }
+    const SessionFileList found = findSessionFiles(options.inputs);
+    const std::vector<SessionRow> rows = loadSessionRows(found.files, options.comparison);
+    const BatchStatistics stats = summarizeBatch(rows);
+
+    bool incomplete = !found.problems.empty();
+    for (const auto &problem : found.problems)
+        std::cerr << "sagline-cli compare: " << problem.path << ": " << problem.reason << '\n';
+    for (const auto &row : rows) {
+        if (!row.opened) {
+            incomplete = true;
+            std::cerr << "sagline-cli compare: skipped " << row.path << ": " << row.problem << '\n';
+        } else if (!row.notice.empty()) {
+            std::cerr << "sagline-cli compare: note: " << row.notice << '\n';
+        }
+    }
+    if (found.files.empty())
+        std::cerr << "sagline-cli compare: no session files (*.sagline) found\n";
+
+    if (!options.csvPath.empty()) {
+        std::ofstream csv(options.csvPath, std::ios::binary | std::ios::trunc);
+        csv << comparisonCsv(rows, stats);
+        csv.flush();
+        if (!csv) {
+            std::cerr << "sagline-cli compare: cannot write " << options.csvPath << '\n';
+            return exitRuntimeFailure;
+        }
+    }
+    if (options.asJson) {
+        std::cout << comparisonJson(rows, stats, options.comparison) << '\n';
+    } else {
+        printTable(rows, stats, options.comparison, std::cout);
+        printSummary(stats, options.comparison, std::cout);
+    }
+    return incomplete || found.files.empty() ? exitInvalidInput : exitSuccess;
+}
+
+} // namespace sagline::cli

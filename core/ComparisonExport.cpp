@@ -1,0 +1,177 @@
+#include "ComparisonExport.h"
+
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <sstream>
+
+namespace sagline {
+
+using nlohmann::json;
+
+namespace {
+
+std::string number(std::optional<double> value)
+{
+    if (!value || !std::isfinite(*value))
+        return {};
+    char text[40];
+    std::snprintf(text, sizeof text, "%.10g", *value);
+    return text;
+}
+
+json jsonNumber(std::optional<double> value)
+{
+    if (!value || !std::isfinite(*value))
+        return nullptr;
+    return *value;
+}
+
+std::optional<double> fitted(const SessionRow &row, double value)
+{
+    return row.opened && row.figures.ok ? std::optional<double>(value) : std::nullopt;
+}
+
+bool isFar(const BatchStatistics &stats, std::size_t index)
+{
+    return std::find(stats.farFromBatch.begin(), stats.farFromBatch.end(), index) != stats.farFromBatch.end();
+}
+
+std::string labSheetName(const SessionRow &row)
+{
+    return row.supervision.labSheet ? row.supervision.labSheet->title : std::string();
+}
+
+std::string latestReviewer(const SessionRow &row)
+{
+    return row.signOffs.empty() ? std::string() : row.signOffs.back().reviewer;
+}
+
+} // namespace
+
+std::string csvField(const std::string &text)
+{
+    if (text.find_first_of(",\"\r\n") == std::string::npos)
+        return text;
+    std::string quoted = "\"";
+    for (char c : text) {
+        if (c == '"')
+            quoted += '"';
+        quoted += c;
+    }
+    return quoted + "\"";
+}
+
+std::vector<std::string> comparisonCsvColumns()
+{
+    return {"file", "unit_serial", "date_utc", "operator", "instruments", "readings", "points_used",
+            "series_resistance_ohm", "series_resistance_u_ohm", "winding_temperature_c", "reference_temperature_c",
+            "temperature_constant_c", "series_resistance_ref_ohm", "series_resistance_ref_u_ohm", "no_load_voltage_v",
+            "no_load_voltage_u_v", "rated_current_a", "regulation_percent", "regulation_u_percent",
+            "regulation_limit_percent", "verdict", "decision_rule", "safety_stops", "review_state", "reviewer",
+            "lab_sheet", "limit_hits", "robust_z", "far_from_batch", "problem"};
+}
+
+std::string comparisonCsv(const std::vector<SessionRow> &rows, const BatchStatistics &stats)
+{
+    std::ostringstream out;
+    const auto columns = comparisonCsvColumns();
+    for (std::size_t i = 0; i < columns.size(); ++i)
+        out << (i ? "," : "") << columns[i];
+    out << '\n';
+    for (std::size_t i = 0; i < rows.size(); ++i) {
+        const SessionRow &row = rows[i];
+        const SessionFigures &f = row.figures;
+        const std::optional<double> z = i < stats.robustZ.size() ? stats.robustZ[i] : std::nullopt;
+        const std::vector<std::string> fields = {
+            row.path, row.unitSerial, row.createdUtc, row.operatorName, row.instruments,
+            row.opened ? std::to_string(row.readingCount) : std::string(),
+            row.opened ? std::to_string(row.pointsUsed) : std::string(),
+            number(fitted(row, f.resistanceOhm)), number(f.resistanceUOhm), number(f.windingTemperatureC),
+            number(fitted(row, f.referenceTemperatureC)), number(fitted(row, f.temperatureConstantC)),
+            number(f.resistanceRefOhm), number(f.resistanceRefUOhm), number(fitted(row, f.noLoadVoltageV)),
+            number(f.noLoadVoltageUV), number(fitted(row, f.ratedCurrentA)), number(f.regulationPercent),
+            number(f.regulationUPercent), number(f.regulationLimitPercent),
+            row.opened ? toString(f.verdict) : std::string(), row.opened ? toString(f.rule) : std::string(),
+            row.opened ? std::to_string(row.safetyStops.size()) : std::string(),
+            row.opened ? row.reviewState() : std::string(), latestReviewer(row), labSheetName(row),
+            row.opened ? std::to_string(row.supervision.limitHits.size()) : std::string(), number(z),
+            row.opened ? (isFar(stats, i) ? "yes" : "no") : std::string(),
+            row.opened ? (f.ok ? std::string() : f.message) : row.problem,
+        };
+        for (std::size_t k = 0; k < fields.size(); ++k)
+            out << (k ? "," : "") << csvField(fields[k]);
+        out << '\n';
+    }
+    return out.str();
+}
+
+std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStatistics &stats,
+                           const ComparisonOptions &options)
+{
+    json sessions = json::array();
+    for (std::size_t i = 0; i < rows.size(); ++i) {
+        const SessionRow &row = rows[i];
+        if (!row.opened) {
+            sessions.push_back({{"file", row.path}, {"opened", false}, {"problem", row.problem}});
+            continue;
+        }
+        const SessionFigures &f = row.figures;
+        json signOffs = json::array();
+        for (const auto &s : row.signOffs)
+            signOffs.push_back({{"time_utc", s.timeUtc}, {"reviewer", s.reviewer}, {"verdict", toString(s.verdict)},
+                                {"comment", s.comment}});
+        json stops = json::array();
+        for (const auto &s : row.safetyStops)
+            stops.push_back({{"time_utc", s.timeUtc}, {"step", s.step}, {"rule", s.rule}, {"message", s.message},
+                             {"measured", jsonNumber(s.measured)}, {"limit", jsonNumber(s.limitValue)}});
+        json session = {
+            {"file", row.path}, {"opened", true}, {"notice", row.notice}, {"unit_serial", row.unitSerial},
+            {"date_utc", row.createdUtc}, {"operator", row.operatorName}, {"instruments", row.instruments},
+            {"readings", row.readingCount}, {"points_used", row.pointsUsed}, {"fit_ok", f.ok},
+            {"fit_message", f.message},
+            {"series_resistance_ohm", jsonNumber(fitted(row, f.resistanceOhm))},
+            {"series_resistance_u_ohm", jsonNumber(f.resistanceUOhm)},
+            {"winding_temperature_c", jsonNumber(f.windingTemperatureC)},
+            {"series_resistance_ref_ohm", jsonNumber(f.resistanceRefOhm)},
+            {"series_resistance_ref_u_ohm", jsonNumber(f.resistanceRefUOhm)},
+            {"no_load_voltage_v", jsonNumber(fitted(row, f.noLoadVoltageV))},
+            {"no_load_voltage_u_v", jsonNumber(f.noLoadVoltageUV)},
+            {"rated_current_a", jsonNumber(fitted(row, f.ratedCurrentA))},
+            {"regulation_percent", jsonNumber(f.regulationPercent)},
+            {"regulation_u_percent", jsonNumber(f.regulationUPercent)},
+            {"regulation_limit_percent", jsonNumber(f.regulationLimitPercent)},
+            {"verdict", toString(f.verdict)}, {"decision_rule", toString(f.rule)},
+            {"safety_stops", stops}, {"review_state", row.reviewState()}, {"sign_offs", signOffs},
+            {"lab_sheet", row.supervision.labSheet ? json(row.supervision.labSheet->title) : json(nullptr)},
+            {"lab_sheet_fingerprint",
+             row.supervision.labSheet ? json(row.supervision.labSheet->fingerprint) : json(nullptr)},
+            {"limit_hits", row.supervision.limitHits.size()},
+            {"robust_z", jsonNumber(i < stats.robustZ.size() ? stats.robustZ[i] : std::nullopt)},
+            {"far_from_batch", isFar(stats, i)},
+        };
+        sessions.push_back(session);
+    }
+    const json batch = {
+        {"sessions", stats.sessions}, {"unreadable", stats.unreadable}, {"without_fit", stats.withoutFit},
+        {"resistance_basis", stats.atReferenceTemperature ? "reference temperature" : "as measured"},
+        {"resistance_count", stats.resistanceCount},
+        {"mean_ohm", jsonNumber(stats.meanOhm)}, {"sd_ohm", jsonNumber(stats.sdOhm)},
+        {"min_ohm", jsonNumber(stats.minOhm)}, {"max_ohm", jsonNumber(stats.maxOhm)},
+        {"median_ohm", jsonNumber(stats.medianOhm)}, {"mad_ohm", jsonNumber(stats.madOhm)},
+        {"verdicts", {{"pass", stats.pass}, {"fail", stats.fail}, {"undecided", stats.undecided}, {"n/a", stats.noVerdict}}},
+        {"review", {{"accepted", stats.accepted}, {"rejected", stats.rejected}, {"retest", stats.retest},
+                    {"not_reviewed", stats.notReviewed}}},
+        {"safety_stopped", stats.safetyStopped}, {"limit_hit", stats.limitHit},
+        {"far_from_batch_rule", stats.ruleNote},
+        {"method", toString(options.method)},
+        {"reference_temperature_c", options.figures.referenceTemperatureC},
+        {"temperature_convention", toString(options.figures.convention)},
+        {"coverage_factor", options.figures.coverageFactor},
+    };
+    return json{{"sessions", sessions}, {"batch", batch}}.dump(2);
+}
+
+} // namespace sagline

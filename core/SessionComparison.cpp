@@ -1,0 +1,271 @@
+#include "SessionComparison.h"
+
+#include "SessionStore.h"
+#include "SetupJson.h"
+
+#include <algorithm>
+#include <cmath>
+#include <numeric>
+
+namespace sagline {
+
+std::optional<double> SessionRow::comparedResistanceOhm(bool atReference) const
+{
+    if (!opened || !figures.ok)
+        return std::nullopt;
+    if (atReference)
+        return figures.resistanceRefOhm;
+    return figures.resistanceOhm;
+}
+
+std::string SessionRow::reviewState() const
+{
+    if (signOffs.empty())
+        return "not reviewed";
+    return toString(signOffs.back().verdict);
+}
+
+std::string instrumentShortName(const std::string &identity)
+{
+    auto trim = [](std::string text) {
+        const auto first = text.find_first_not_of(" \t\r\n");
+        if (first == std::string::npos)
+            return std::string();
+        const auto last = text.find_last_not_of(" \t\r\n");
+        return text.substr(first, last - first + 1);
+    };
+    const auto comma = identity.find(',');
+    if (comma == std::string::npos)
+        return trim(identity);
+    const auto second = identity.find(',', comma + 1);
+    const std::string maker = trim(identity.substr(0, comma));
+    const std::string model = trim(identity.substr(comma + 1, second == std::string::npos ? std::string::npos
+                                                                                         : second - comma - 1));
+    return model.empty() ? maker : maker + " " + model;
+}
+
+namespace {
+
+std::optional<double> meanOf(const std::vector<TemperatureRecord> &records, TemperatureKind kind)
+{
+    double sum = 0.0;
+    std::size_t count = 0;
+    for (const auto &record : records) {
+        if (record.kind == kind && std::isfinite(record.celsius)) {
+            sum += record.celsius;
+            ++count;
+        }
+    }
+    if (count == 0)
+        return std::nullopt;
+    return sum / static_cast<double>(count);
+}
+
+SessionRow failedRow(SessionRow row, const std::string &what, const std::string &message)
+{
+    row.opened = false;
+    row.problem = message.empty() ? what : what + ": " + message;
+    return row;
+}
+
+} // namespace
+
+SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &options)
+{
+    SessionRow row;
+    row.path = path;
+    auto opened = SessionStore::openForReview(path);
+    if (!opened.ok())
+        return failedRow(row, toString(opened.code), opened.message);
+    const SessionStore &store = *opened.value;
+    row.notice = store.notice();
+
+    const auto info = store.info();
+    if (!info.ok())
+        return failedRow(row, toString(info.code), info.message);
+    row.unitSerial = info.value.unitSerial;
+    row.operatorName = info.value.operatorName;
+    row.createdUtc = info.value.createdUtc;
+
+    const auto readings = store.readings();
+    const auto temperatures = store.temperatures();
+    const auto instruments = store.instruments();
+    const auto stops = store.safetyStops();
+    const auto signOffs = store.signOffs();
+    const auto notes = store.notes();
+    for (const StoreStatus &status : {readings.status(), temperatures.status(), instruments.status(), stops.status(),
+                                      signOffs.status(), notes.status()}) {
+        if (!status.ok())
+            return failedRow(row, toString(status.code), status.message);
+    }
+
+    std::vector<std::string> names;
+    for (const auto &instrument : instruments.value) {
+        std::string name = instrumentShortName(instrument.identity);
+        if (name.empty())
+            name = "unidentified";
+        name += " (" + instrument.role + ")";
+        if (std::find(names.begin(), names.end(), name) == names.end())
+            names.push_back(name);
+    }
+    for (std::size_t i = 0; i < names.size(); ++i)
+        row.instruments += (i ? "; " : "") + names[i];
+
+    row.safetyStops = stops.value;
+    row.signOffs = signOffs.value;
+    row.supervision = summarizeSupervision(notes.value);
+    row.readingCount = readings.value.size();
+
+    row.fit = fitReadings(readings.value, options.method);
+    row.points.reserve(readings.value.size());
+    for (std::size_t i = 0; i < readings.value.size(); ++i) {
+        const Reading &reading = readings.value[i];
+        const bool used = i < row.fit.points.size() ? row.fit.points[i].used : false;
+        if (std::isfinite(reading.currentA) && std::isfinite(reading.voltageV))
+            row.points.push_back({reading.currentA, reading.voltageV, used});
+    }
+    row.pointsUsed = row.fit.n;
+
+    const SetupParse setup = parseSetupJson(info.value.setupJson);
+    if (!setup.setup) {
+        row.opened = true;
+        row.figures.message = "the session's setup cannot be read: "
+                              + (setup.errors.empty() ? std::string("unknown error") : setup.errors.front().message());
+        return row;
+    }
+    // R was measured at the winding temperature: the mean of the winding temperatures recorded;
+    // with none, the mean ambient (the winding taken to be at ambient).
+    std::optional<double> winding = meanOf(temperatures.value, TemperatureKind::Winding);
+    if (!winding)
+        winding = meanOf(temperatures.value, TemperatureKind::Ambient);
+    row.figures = computeSessionFigures(row.fit, *setup.setup, winding, options.figures);
+    row.opened = true;
+    return row;
+}
+
+std::vector<SessionRow> loadSessionRows(const std::vector<std::string> &paths, const ComparisonOptions &options,
+                                        const std::function<bool(std::size_t done, std::size_t total)> &progress)
+{
+    std::vector<SessionRow> rows;
+    rows.reserve(paths.size());
+    for (const auto &path : paths) {
+        rows.push_back(loadSessionRow(path, options));
+        if (progress && !progress(rows.size(), paths.size()))
+            break;
+    }
+    return rows;
+}
+
+std::optional<double> median(std::vector<double> values)
+{
+    if (values.empty())
+        return std::nullopt;
+    const std::size_t mid = values.size() / 2;
+    std::nth_element(values.begin(), values.begin() + static_cast<std::ptrdiff_t>(mid), values.end());
+    const double upper = values[mid];
+    if (values.size() % 2 == 1)
+        return upper;
+    const double lower = *std::max_element(values.begin(), values.begin() + static_cast<std::ptrdiff_t>(mid));
+    return (lower + upper) / 2.0;
+}
+
+BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
+{
+    BatchStatistics stats;
+    stats.sessions = rows.size();
+    stats.robustZ.assign(rows.size(), std::nullopt);
+    bool allHaveReference = true;
+    std::size_t fitted = 0;
+    for (const SessionRow *row : rows) {
+        if (!row->opened) {
+            ++stats.unreadable;
+            continue;
+        }
+        if (!row->figures.ok) {
+            ++stats.withoutFit;
+        } else {
+            ++fitted;
+            allHaveReference = allHaveReference && row->figures.resistanceRefOhm.has_value();
+        }
+        switch (row->figures.verdict) {
+        case Conformity::Pass: ++stats.pass; break;
+        case Conformity::Fail: ++stats.fail; break;
+        case Conformity::Undecided: ++stats.undecided; break;
+        case Conformity::NotAvailable: ++stats.noVerdict; break;
+        }
+        if (row->signOffs.empty()) {
+            ++stats.notReviewed;
+        } else {
+            switch (row->signOffs.back().verdict) {
+            case Verdict::Accepted: ++stats.accepted; break;
+            case Verdict::Rejected: ++stats.rejected; break;
+            case Verdict::Retest: ++stats.retest; break;
+            }
+        }
+        if (!row->safetyStops.empty())
+            ++stats.safetyStopped;
+        if (!row->supervision.limitHits.empty())
+            ++stats.limitHit;
+    }
+    // Compare like with like: at the reference temperature only when every fitted row has it.
+    stats.atReferenceTemperature = fitted > 0 && allHaveReference;
+
+    std::vector<double> values;
+    std::vector<std::size_t> owners;
+    for (std::size_t i = 0; i < rows.size(); ++i) {
+        if (const auto r = rows[i]->comparedResistanceOhm(stats.atReferenceTemperature)) {
+            values.push_back(*r);
+            owners.push_back(i);
+        }
+    }
+    stats.resistanceCount = values.size();
+    if (values.empty()) {
+        stats.ruleNote = "no session has a fitted R";
+        return stats;
+    }
+    const double n = static_cast<double>(values.size());
+    // Two-pass mean and variance (no raw power sums).
+    const double mean = std::accumulate(values.begin(), values.end(), 0.0) / n;
+    stats.meanOhm = mean;
+    stats.minOhm = *std::min_element(values.begin(), values.end());
+    stats.maxOhm = *std::max_element(values.begin(), values.end());
+    if (values.size() >= 2) {
+        double squares = 0.0;
+        for (double v : values)
+            squares += (v - mean) * (v - mean);
+        stats.sdOhm = std::sqrt(squares / (n - 1.0));
+    }
+    stats.medianOhm = median(values);
+    std::vector<double> deviations;
+    deviations.reserve(values.size());
+    for (double v : values)
+        deviations.push_back(std::fabs(v - *stats.medianOhm));
+    stats.madOhm = median(deviations);
+
+    const std::string rule = "modified z-score 0.6745 (R - median)/MAD, flagged above 3.5 (Iglewicz and Hoaglin 1993)";
+    if (values.size() < robustZMinimumUnits) {
+        stats.ruleNote = rule + ": needs at least 3 units";
+    } else if (!(*stats.madOhm > 0.0)) {
+        stats.ruleNote = rule + ": not applied, MAD is zero (half the units have the same R)";
+    } else {
+        stats.ruleNote = rule;
+        for (std::size_t k = 0; k < values.size(); ++k) {
+            const double z = robustZConstant * (values[k] - *stats.medianOhm) / *stats.madOhm;
+            stats.robustZ[owners[k]] = z;
+            if (std::fabs(z) > robustZThreshold)
+                stats.farFromBatch.push_back(owners[k]);
+        }
+    }
+    return stats;
+}
+
+BatchStatistics summarizeBatch(const std::vector<SessionRow> &rows)
+{
+    std::vector<const SessionRow *> pointers;
+    pointers.reserve(rows.size());
+    for (const auto &row : rows)
+        pointers.push_back(&row);
+    return summarizeBatch(pointers);
+}
+
+} // namespace sagline

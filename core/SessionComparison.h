@@ -1,0 +1,104 @@
+// One row per session for the review workspace and `sagline-cli compare`, and the statistics
+// of a batch. Every file is opened untrusted and read-only (SessionStore::openForReview); a file
+// that cannot be opened becomes a row with its reason and never stops the others. The numbers
+// come from the fit engine (fitReadings) and SessionFigures; nothing is fitted here.
+//
+// Far-from-batch rule: the modified z-score of Iglewicz and Hoaglin (1993), "How to Detect and
+// Handle Outliers", ASQC Basic References in Quality Control vol. 16:
+//     M_i = 0.6745 (x_i - median) / MAD,   MAD = median |x_i - median|,
+// flagged when |M_i| > 3.5. It is robust (one bad unit cannot hide itself by inflating the
+// spread, as it can with mean and SD) and needs at least 3 units and MAD > 0.
+#pragma once
+
+#include "FitSummary.h"
+#include "SessionFigures.h"
+#include "SessionRecords.h"
+#include "SupervisedRecords.h"
+
+#include <cstddef>
+#include <functional>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace sagline {
+
+inline constexpr double robustZThreshold = 3.5;    // Iglewicz and Hoaglin (1993)
+inline constexpr double robustZConstant = 0.6745;  // Φ⁻¹(0.75), makes MAD consistent with σ for normal data
+inline constexpr std::size_t robustZMinimumUnits = 3;
+
+struct ComparisonOptions {
+    FitMethod method = FitMethod::Ols;
+    FigureOptions figures;
+};
+
+struct ComparisonPoint {
+    double currentA = 0.0;
+    double voltageV = 0.0;
+    bool used = true;                 // false: excluded or flagged overload / not-a-number
+};
+
+struct SessionRow {
+    std::string path;
+    bool opened = false;              // false: `problem` says why (not a session, corrupt, ...)
+    std::string problem;
+    std::string notice;               // e.g. newer-schema notice from the store
+    std::string unitSerial;
+    std::string operatorName;
+    std::string createdUtc;           // ISO 8601 UTC
+    std::string instruments;          // "Maker Model (role); ..." from the *IDN? strings
+    std::size_t readingCount = 0;     // every reading recorded
+    std::size_t pointsUsed = 0;       // readings that went into the fit
+    FitSummary fit;
+    SessionFigures figures;
+    std::vector<SafetyStopRecord> safetyStops;
+    std::vector<SignOffRecord> signOffs; // oldest first
+    SupervisionSummary supervision;
+    std::vector<ComparisonPoint> points; // for the overlay chart, in recording order
+
+    // R the batch compares: at the reference temperature when known, else as measured.
+    std::optional<double> comparedResistanceOhm(bool atReference) const;
+    // "not reviewed", or the latest sign-off: "accepted", "rejected", "retest".
+    std::string reviewState() const;
+};
+
+// The identity of an instrument from its IEEE 488.2 *IDN? reply "maker,model,serial,firmware":
+// "maker model"; any other text is returned trimmed.
+std::string instrumentShortName(const std::string &identity);
+
+// Opens one session for review and computes its row. Never throws.
+SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &options);
+
+// Loads every file in order. `progress(done, total)` is called after each file; returning false
+// cancels (the rows loaded so far are returned).
+std::vector<SessionRow> loadSessionRows(const std::vector<std::string> &paths, const ComparisonOptions &options,
+                                        const std::function<bool(std::size_t done, std::size_t total)> &progress = {});
+
+struct BatchStatistics {
+    std::size_t sessions = 0;         // rows considered
+    std::size_t unreadable = 0;       // rows that did not open
+    std::size_t withoutFit = 0;       // opened, but no fit (too few points, ...)
+    bool atReferenceTemperature = false; // R compared at the reference temperature (all rows had a temperature)
+    std::size_t resistanceCount = 0;  // rows in the R statistics
+    std::optional<double> meanOhm;
+    std::optional<double> sdOhm;      // sample standard deviation (n - 1)
+    std::optional<double> minOhm, maxOhm;
+    std::optional<double> medianOhm;
+    std::optional<double> madOhm;     // median absolute deviation (unscaled)
+    std::size_t pass = 0, fail = 0, undecided = 0, noVerdict = 0;
+    std::size_t accepted = 0, rejected = 0, retest = 0, notReviewed = 0;
+    std::size_t safetyStopped = 0;    // rows with at least one safety stop
+    std::size_t limitHit = 0;         // rows with at least one lab-sheet limit hit
+    std::vector<std::optional<double>> robustZ; // one per row considered (same order), when computable
+    std::vector<std::size_t> farFromBatch;      // indices (into the rows considered) with |z| > 3.5
+    std::string ruleNote;             // which rule was applied, or why it could not be
+};
+
+// Statistics over `rows` (e.g. the selection or the filtered rows).
+BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows);
+BatchStatistics summarizeBatch(const std::vector<SessionRow> &rows);
+
+// The median of `values` (empty: nullopt); exposed for the tests.
+std::optional<double> median(std::vector<double> values);
+
+} // namespace sagline

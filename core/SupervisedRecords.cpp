@@ -1,0 +1,163 @@
+#include "SupervisedRecords.h"
+
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+
+namespace sagline {
+
+using nlohmann::json;
+
+bool SafetyChecklist::complete() const
+{
+    return !items.empty() && std::all_of(items.begin(), items.end(), [](const ChecklistItem &item) { return item.ticked; });
+}
+
+SafetyChecklist standardSafetyChecklist(const std::string &student)
+{
+    // The usual cautions for work on a mains-connected transformer (DESIGN.md, Safety).
+    SafetyChecklist list;
+    list.student = student;
+    list.items = {
+        {"fused-isolated-supply", "The primary is fed from a fused, isolated supply (isolating transformer or "
+                                  "protected bench supply), and the lab sheet's fuse is fitted", false},
+        {"meters-rated", "The meters and test leads are rated for the measurement category and voltage of the "
+                         "circuit (IEC 61010 CAT marking)", false},
+        {"leads-checked", "Leads, clips and plugs checked: no damaged insulation, shrouded connectors, "
+                          "secondary wiring done with the supply off", false},
+        {"supervisor-present", "A supervisor is present and has checked the set-up", false},
+    };
+    return list;
+}
+
+LabSheetStamp labSheetStamp(const LabSheet &sheet, const std::string &student)
+{
+    return {sheet.title, labSheetFingerprint(sheet), sheet.locks.maxLoadFraction, sheet.locks.requiredFuse, student};
+}
+
+std::string labSheetNoteText(const LabSheetStamp &stamp)
+{
+    return json{{"lab_sheet", stamp.title},
+                {"fingerprint", stamp.fingerprint},
+                {"max_load_fraction", stamp.maxLoadFraction},
+                {"required_fuse", {{"rating_a", stamp.requiredFuse.ratingA}, {"type", toString(stamp.requiredFuse.type)}}},
+                {"student", stamp.student}}
+        .dump();
+}
+
+std::string checklistNoteText(const SafetyChecklist &checklist)
+{
+    json items = json::array();
+    for (const auto &item : checklist.items)
+        items.push_back({{"item", item.key}, {"text", item.text}, {"ticked", item.ticked}});
+    return json{{"safety_checklist", items}, {"student", checklist.student}, {"complete", checklist.complete()}}.dump();
+}
+
+std::string limitHitNoteText(const LimitHit &hit)
+{
+    json object = {{"limit_hit", hit.rule}, {"message", hit.message}, {"step", hit.step}};
+    object["current_a"] = hit.currentA ? json(*hit.currentA) : json(nullptr);
+    return object.dump();
+}
+
+namespace {
+
+std::optional<json> parseObject(const std::string &text)
+{
+    json object = json::parse(text, nullptr, false);
+    if (object.is_discarded() || !object.is_object())
+        return std::nullopt;
+    return object;
+}
+
+std::string stringOr(const json &object, const char *key)
+{
+    return object.contains(key) && object.at(key).is_string() ? object.at(key).get<std::string>() : std::string();
+}
+
+std::optional<LabSheetStamp> readStamp(const json &object)
+{
+    if (!object.contains("lab_sheet") || !object.at("lab_sheet").is_string())
+        return std::nullopt;
+    LabSheetStamp stamp;
+    stamp.title = object.at("lab_sheet").get<std::string>();
+    stamp.fingerprint = stringOr(object, "fingerprint");
+    stamp.student = stringOr(object, "student");
+    if (object.contains("max_load_fraction") && object.at("max_load_fraction").is_number())
+        stamp.maxLoadFraction = object.at("max_load_fraction").get<double>();
+    if (object.contains("required_fuse") && object.at("required_fuse").is_object()) {
+        const json &fuse = object.at("required_fuse");
+        if (fuse.contains("rating_a") && fuse.at("rating_a").is_number())
+            stamp.requiredFuse.ratingA = fuse.at("rating_a").get<double>();
+        stamp.requiredFuse.type = stringOr(fuse, "type") == "quick-acting" ? FuseType::QuickActing : FuseType::TimeLag;
+    }
+    return stamp;
+}
+
+std::optional<SafetyChecklist> readChecklist(const json &object)
+{
+    if (!object.contains("safety_checklist") || !object.at("safety_checklist").is_array())
+        return std::nullopt;
+    SafetyChecklist list;
+    list.student = stringOr(object, "student");
+    for (const json &item : object.at("safety_checklist")) {
+        if (!item.is_object())
+            return std::nullopt;
+        list.items.push_back({stringOr(item, "item"), stringOr(item, "text"),
+                              item.contains("ticked") && item.at("ticked").is_boolean() && item.at("ticked").get<bool>()});
+    }
+    return list;
+}
+
+std::optional<LimitHit> readLimitHit(const json &object, const std::string &timeUtc)
+{
+    if (!object.contains("limit_hit") || !object.at("limit_hit").is_string())
+        return std::nullopt;
+    LimitHit hit;
+    hit.timeUtc = timeUtc;
+    hit.rule = object.at("limit_hit").get<std::string>();
+    hit.message = stringOr(object, "message");
+    if (object.contains("step") && object.at("step").is_number_integer())
+        hit.step = object.at("step").get<int>();
+    if (object.contains("current_a") && object.at("current_a").is_number())
+        hit.currentA = object.at("current_a").get<double>();
+    return hit;
+}
+
+} // namespace
+
+SupervisionSummary summarizeSupervision(const std::vector<NoteRecord> &notes)
+{
+    SupervisionSummary summary;
+    for (const NoteRecord &note : notes) {
+        const bool sheetNote = note.author == labSheetNoteAuthor;
+        const bool checklistNote = note.author == checklistNoteAuthor;
+        const bool limitNote = note.author == limitHitNoteAuthor;
+        if (!sheetNote && !checklistNote && !limitNote)
+            continue;
+        const auto object = parseObject(note.text);
+        bool understood = false;
+        if (object && sheetNote) {
+            if (auto stamp = readStamp(*object)) {
+                if (!summary.labSheet)
+                    summary.labSheet = *stamp;
+                understood = true;
+            }
+        } else if (object && checklistNote) {
+            if (auto list = readChecklist(*object)) {
+                summary.checklist = *list;
+                understood = true;
+            }
+        } else if (object && limitNote) {
+            if (auto hit = readLimitHit(*object, note.timeUtc)) {
+                summary.limitHits.push_back(*hit);
+                understood = true;
+            }
+        }
+        if (!understood)
+            ++summary.unreadable;
+    }
+    return summary;
+}
+
+} // namespace sagline
