@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <limits>
 #include <sstream>
 
 namespace sagline {
@@ -13,20 +14,23 @@ using nlohmann::json;
 
 namespace {
 
-std::string number(std::optional<double> value)
+std::string number(const std::optional<double> &value)
 {
-    if (!value || !std::isfinite(*value))
+    // value_or, not *value: GCC 12 warns "maybe uninitialized" on optionals built by ternaries.
+    const double v = value.value_or(std::numeric_limits<double>::quiet_NaN());
+    if (!std::isfinite(v))
         return {};
     char text[40];
-    std::snprintf(text, sizeof text, "%.10g", *value);
+    std::snprintf(text, sizeof text, "%.10g", v);
     return text;
 }
 
-json jsonNumber(std::optional<double> value)
+json jsonNumber(const std::optional<double> &value)
 {
-    if (!value || !std::isfinite(*value))
+    const double v = value.value_or(std::numeric_limits<double>::quiet_NaN());
+    if (!std::isfinite(v))
         return nullptr;
-    return *value;
+    return v;
 }
 
 std::optional<double> fitted(const SessionRow &row, double value)
@@ -84,7 +88,9 @@ std::string comparisonCsv(const std::vector<SessionRow> &rows, const BatchStatis
     for (std::size_t i = 0; i < rows.size(); ++i) {
         const SessionRow &row = rows[i];
         const SessionFigures &f = row.figures;
-        const std::optional<double> z = i < stats.robustZ.size() ? stats.robustZ[i] : std::nullopt;
+        std::optional<double> z;
+        if (i < stats.robustZ.size())
+            z = stats.robustZ[i];
         const std::vector<std::string> fields = {
             row.path, row.unitSerial, row.createdUtc, row.operatorName, row.instruments,
             row.opened ? std::to_string(row.readingCount) : std::string(),
@@ -149,7 +155,7 @@ std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStati
             {"lab_sheet_fingerprint",
              row.supervision.labSheet ? json(row.supervision.labSheet->fingerprint) : json(nullptr)},
             {"limit_hits", row.supervision.limitHits.size()},
-            {"robust_z", jsonNumber(i < stats.robustZ.size() ? stats.robustZ[i] : std::nullopt)},
+            {"robust_z", i < stats.robustZ.size() ? jsonNumber(stats.robustZ[i]) : json(nullptr)},
             {"far_from_batch", isFar(stats, i)},
         };
         sessions.push_back(session);

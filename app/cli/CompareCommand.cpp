@@ -14,6 +14,7 @@
 #include <cmath>
 #include <cstdlib>
 #include <fstream>
+#include <limits>
 #include <iostream>
 #include <sstream>
 
@@ -42,16 +43,32 @@ std::string pad(const std::string &text, std::size_t width, bool right = false)
 }
 
 // "1.952 ± 0.023": U to two significant digits, the value to the same decimal place (GUM 7.2.6).
-std::string withUncertainty(std::optional<double> value, std::optional<double> expanded)
+// Absent values are NaN here (value_or), which also spares GCC 12 a false "maybe uninitialized".
+std::string withUncertainty(double value, double expanded)
 {
-    if (!value || !std::isfinite(*value))
+    if (!std::isfinite(value))
         return "n/a";
-    if (!expanded || !std::isfinite(*expanded) || *expanded <= 0.0)
-        return formatSignificant(*value, 4);
-    const int magnitude = static_cast<int>(std::floor(std::log10(*expanded)));
+    if (!std::isfinite(expanded) || expanded <= 0.0)
+        return formatSignificant(value, 4);
+    const int magnitude = static_cast<int>(std::floor(std::log10(expanded)));
     const int decimals = std::max(0, std::min(9, 1 - magnitude));
-    return formatFixed(*value, decimals) + " ± " + formatFixed(*expanded, decimals);
+    return formatFixed(value, decimals) + " ± " + formatFixed(expanded, decimals);
 }
+
+// "75", "72.5": a temperature as typed, without padding zeros.
+std::string plainNumber(double value)
+{
+    std::string text = formatSignificant(value, 4);
+    if (text.find('.') != std::string::npos) {
+        while (text.back() == '0')
+            text.pop_back();
+        if (text.back() == '.')
+            text.pop_back();
+    }
+    return text;
+}
+
+constexpr double absent = std::numeric_limits<double>::quiet_NaN();
 
 struct Options {
     std::vector<std::string> inputs;
@@ -114,7 +131,7 @@ std::string parseArguments(const Arguments &args, Options &options)
 void printTable(const std::vector<SessionRow> &rows, const BatchStatistics &stats, const ComparisonOptions &options,
                 std::ostream &out)
 {
-    const std::string refTitle = "R at " + formatSignificant(options.figures.referenceTemperatureC, 3) + " °C (Ω)";
+    const std::string refTitle = "R at " + plainNumber(options.figures.referenceTemperatureC) + " °C (Ω)";
     const std::vector<std::string> titles = {"unit",    "date (UTC)", "operator", "points",  "R (Ω)",  refTitle,
                                              "V0 (V)",  "regulation (%)", "verdict", "stops", "review", "z"};
     std::vector<std::vector<std::string>> cells;
@@ -123,18 +140,20 @@ void printTable(const std::vector<SessionRow> &rows, const BatchStatistics &stat
         if (!row.opened)
             continue;
         const SessionFigures &f = row.figures;
-        const std::optional<double> r = f.ok ? std::optional<double>(f.resistanceOhm) : std::nullopt;
-        const std::optional<double> v0 = f.ok ? std::optional<double>(f.noLoadVoltageV) : std::nullopt;
-        const auto z = stats.robustZ[i];
+        const double r = f.ok ? f.resistanceOhm : absent;
+        const double v0 = f.ok ? f.noLoadVoltageV : absent;
+        const double z = stats.robustZ[i].value_or(absent);
         bool far = false;
         for (auto k : stats.farFromBatch)
             far = far || k == i;
         cells.push_back({row.unitSerial, row.createdUtc.substr(0, 10), row.operatorName,
                          std::to_string(row.pointsUsed) + "/" + std::to_string(row.readingCount),
-                         withUncertainty(r, f.resistanceUOhm), withUncertainty(f.resistanceRefOhm, f.resistanceRefUOhm),
-                         withUncertainty(v0, f.noLoadVoltageUV), withUncertainty(f.regulationPercent, f.regulationUPercent),
+                         withUncertainty(r, f.resistanceUOhm.value_or(absent)),
+                         withUncertainty(f.resistanceRefOhm.value_or(absent), f.resistanceRefUOhm.value_or(absent)),
+                         withUncertainty(v0, f.noLoadVoltageUV.value_or(absent)),
+                         withUncertainty(f.regulationPercent.value_or(absent), f.regulationUPercent.value_or(absent)),
                          toString(f.verdict), std::to_string(row.safetyStops.size()), row.reviewState(),
-                         (z ? formatFixed(*z, 2) : std::string("n/a")) + (far ? " FAR" : "")});
+                         (std::isfinite(z) ? formatFixed(z, 2) : std::string("n/a")) + (far ? " FAR" : "")});
     }
     std::vector<std::size_t> widths(titles.size());
     for (std::size_t c = 0; c < titles.size(); ++c) {
@@ -158,7 +177,7 @@ void printTable(const std::vector<SessionRow> &rows, const BatchStatistics &stat
 void printSummary(const BatchStatistics &stats, const ComparisonOptions &options, std::ostream &out)
 {
     const std::string basis = stats.atReferenceTemperature
-                                  ? "at " + formatSignificant(options.figures.referenceTemperatureC, 3) + " °C"
+                                  ? "at " + plainNumber(options.figures.referenceTemperatureC) + " °C"
                                   : "as measured (not every session has a winding temperature)";
     out << "\nBatch: " << stats.sessions << " sessions, " << stats.unreadable << " unreadable, " << stats.withoutFit
         << " without a fit\n";

@@ -1,0 +1,311 @@
+// The review's comparison rows and batch statistics. Fit values are checked against an
+// independent least-squares solution (Eigen's column-pivoting QR on the design matrix, the
+// textbook covariance s²(XᵀX)⁻¹) and a numerical-Jacobian propagation for regulation, never
+// against the fit engine itself.
+#include "ReviewTestSupport.h"
+#include "SessionComparison.h"
+#include "SessionScan.h"
+
+#include <Eigen/Dense>
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <functional>
+
+using namespace sagline;
+using namespace sagline::test;
+
+namespace {
+
+struct IndependentFit {
+    double intercept, slope;     // V0, -R
+    Eigen::Matrix2d covariance;  // of (intercept, slope)
+};
+
+IndependentFit independentFit(const std::vector<Reading> &readings)
+{
+    const Eigen::Index n = static_cast<Eigen::Index>(readings.size());
+    Eigen::MatrixXd x(n, 2);
+    Eigen::VectorXd y(n);
+    for (Eigen::Index i = 0; i < n; ++i) {
+        x(i, 0) = 1.0;
+        x(i, 1) = readings[static_cast<std::size_t>(i)].currentA;
+        y(i) = readings[static_cast<std::size_t>(i)].voltageV;
+    }
+    const Eigen::Vector2d beta = x.colPivHouseholderQr().solve(y);
+    const double s2 = (y - x * beta).squaredNorm() / static_cast<double>(n - 2);
+    return {beta(0), beta(1), s2 * (x.transpose() * x).inverse()};
+}
+
+// Regulation from the nameplate definition, (V0 - V_fl)/V_fl × 100 (electric-machines textbook,
+// FACTS.md §4), written directly in (V0, slope).
+double regulation(double v0, double slope, double current)
+{
+    const double fullLoad = v0 + slope * current;
+    return (v0 - fullLoad) / fullLoad * 100.0;
+}
+
+} // namespace
+
+TEST(SessionComparison, RowMatchesIndependentLeastSquares)
+{
+    TempFolder folder;
+    DemoUnit unit;
+    const std::string path = makeDemoSession(folder.file("unit.sagline"), unit);
+    ComparisonOptions options; // OLS, guarded acceptance, 75 °C, IEC constant
+    const SessionRow row = loadSessionRow(path, options);
+    ASSERT_TRUE(row.opened) << row.problem;
+    ASSERT_TRUE(row.figures.ok) << row.figures.message;
+
+    const IndependentFit fit = independentFit(demoReadings(unit));
+    const double seSlope = std::sqrt(fit.covariance(1, 1));
+    const double seIntercept = std::sqrt(fit.covariance(0, 0));
+    EXPECT_NEAR(row.figures.resistanceOhm, -fit.slope, 1e-10);
+    EXPECT_NEAR(row.figures.noLoadVoltageV, fit.intercept, 1e-10);
+    EXPECT_NEAR(*row.figures.resistanceUOhm, 2.0 * seSlope, 1e-9 * seSlope);
+    EXPECT_NEAR(*row.figures.noLoadVoltageUV, 2.0 * seIntercept, 1e-9 * seIntercept);
+
+    // R at 75 °C from 20 °C, copper, T_k = 235 °C: factor 1.215686 (FACTS.md §3 check value).
+    EXPECT_NEAR(*row.figures.resistanceRefOhm / row.figures.resistanceOhm, 1.215686, 1e-6);
+    EXPECT_DOUBLE_EQ(row.figures.temperatureConstantC, 235.0);
+
+    // Regulation at rated current 50 VA / 24 V, its uncertainty by a numerical Jacobian J Σ Jᵀ.
+    const double rated = 50.0 / 24.0;
+    const double reg = regulation(fit.intercept, fit.slope, rated);
+    const double h0 = 1e-6, h1 = 1e-7;
+    Eigen::RowVector2d jacobian((regulation(fit.intercept + h0, fit.slope, rated) - regulation(fit.intercept - h0, fit.slope, rated)) / (2 * h0),
+                                (regulation(fit.intercept, fit.slope + h1, rated) - regulation(fit.intercept, fit.slope - h1, rated)) / (2 * h1));
+    const double uReg = std::sqrt((jacobian * fit.covariance * jacobian.transpose())(0, 0));
+    EXPECT_NEAR(*row.figures.regulationPercent, reg, 1e-9);
+    EXPECT_NEAR(*row.figures.regulationUPercent, 2.0 * uReg, 1e-5 * uReg);
+    // Nameplate regulation (26.4 - 24)/24 × 100 = 10 %.
+    EXPECT_NEAR(*row.figures.regulationLimitPercent, 10.0, 1e-12);
+
+    EXPECT_EQ(row.unitSerial, "DEMO-0001");
+    EXPECT_EQ(row.operatorName, "A. Tester");
+    EXPECT_EQ(row.instruments, "DemoMaker DV-100 (voltmeter); DemoMaker DA-20 (ammeter)");
+    EXPECT_EQ(row.pointsUsed, 11u);
+    EXPECT_EQ(row.points.size(), 11u);
+    EXPECT_EQ(row.reviewState(), "not reviewed");
+}
+
+TEST(SessionComparison, ExcludedReadingIsLeftOutOfTheFit)
+{
+    TempFolder folder;
+    DemoUnit unit;
+    const std::string path = makeDemoSession(folder.file("unit.sagline"), unit);
+    {
+        auto store = SessionStore::openForWriting(path);
+        ASSERT_TRUE(store.ok()) << store.message;
+        const auto readings = store.value->readings().value;
+        ASSERT_TRUE(store.value->excludeReading(readings[4].id, "lead slipped", "A. Tester").ok());
+    }
+    const SessionRow row = loadSessionRow(path, {});
+    ASSERT_TRUE(row.figures.ok);
+    EXPECT_EQ(row.pointsUsed, 10u);
+    EXPECT_EQ(row.readingCount, 11u);
+    EXPECT_FALSE(row.points[4].used);
+    auto kept = demoReadings(unit);
+    kept.erase(kept.begin() + 4);
+    EXPECT_NEAR(row.figures.resistanceOhm, -independentFit(kept).slope, 1e-10);
+}
+
+TEST(SessionComparison, FolderWithBadFilesListsReasonsAndComparesTheRest)
+{
+    TempFolder folder;
+    std::filesystem::create_directories(folder.file("batch/week2"));
+    DemoUnit a;
+    makeDemoSession(folder.file("batch/a.sagline"), a);
+    DemoUnit b;
+    b.serial = "DEMO-0002";
+    b.resistanceOhm = 1.160;
+    makeDemoSession(folder.file("batch/week2/b.sagline"), b);
+
+    DemoUnit big;
+    big.points = 300; // enough pages to damage one in the middle
+    const std::string corrupt = makeDemoSession(folder.file("batch/corrupt.sagline"), big);
+    std::string bytes = fileBytes(corrupt);
+    for (std::size_t i = 3 * 4096 + 8; i < 5 * 4096 && i < bytes.size(); i += 7)
+        bytes[i] = static_cast<char>(bytes[i] ^ 0x5A);
+    writeBytes(corrupt, bytes);
+
+    const std::string truncated = makeDemoSession(folder.file("batch/truncated.sagline"), big);
+    const std::string whole = fileBytes(truncated);
+    writeBytes(truncated, whole.substr(0, whole.size() / 2));
+
+    DemoUnit newer;
+    newer.serial = "DEMO-NEW";
+    const std::string newerPath = makeDemoSession(folder.file("batch/week2/newer.sagline"), newer);
+    runSql(newerPath, "CREATE TABLE calibration (id INTEGER PRIMARY KEY, text TEXT); PRAGMA user_version = 9;");
+
+    writeBytes(folder.file("batch/notes.sagline"), "not a database\n");
+    writeBytes(folder.file("batch/readme.txt"), "ignored: not a session file name\n");
+
+    const SessionFileList found = findSessionFiles({folder.file("batch")});
+    ASSERT_EQ(found.files.size(), 6u);
+    EXPECT_TRUE(found.problems.empty());
+    const auto rows = loadSessionRows(found.files, {});
+    ASSERT_EQ(rows.size(), 6u);
+
+    auto rowFor = [&](const std::string &name) -> const SessionRow & {
+        for (const auto &row : rows)
+            if (std::filesystem::path(row.path).filename() == name)
+                return row;
+        ADD_FAILURE() << "no row for " << name;
+        return rows.front();
+    };
+    EXPECT_TRUE(rowFor("a.sagline").figures.ok);
+    EXPECT_TRUE(rowFor("b.sagline").figures.ok);
+    EXPECT_NEAR(rowFor("b.sagline").figures.resistanceOhm, 1.160, 0.01);
+
+    const SessionRow &newerRow = rowFor("newer.sagline");
+    EXPECT_TRUE(newerRow.opened) << newerRow.problem;
+    EXPECT_TRUE(newerRow.figures.ok);
+    EXPECT_NE(newerRow.notice.find("newer"), std::string::npos) << newerRow.notice;
+
+    for (const char *name : {"corrupt.sagline", "truncated.sagline", "notes.sagline"}) {
+        const SessionRow &bad = rowFor(name);
+        EXPECT_FALSE(bad.opened) << name;
+        EXPECT_FALSE(bad.problem.empty()) << name;
+    }
+    EXPECT_NE(rowFor("truncated.sagline").problem.find("truncated"), std::string::npos) << rowFor("truncated.sagline").problem;
+    EXPECT_NE(rowFor("notes.sagline").problem.find("not a session"), std::string::npos) << rowFor("notes.sagline").problem;
+    EXPECT_NE(rowFor("corrupt.sagline").problem.find("corrupt"), std::string::npos) << rowFor("corrupt.sagline").problem;
+
+    const BatchStatistics stats = summarizeBatch(rows);
+    EXPECT_EQ(stats.sessions, 6u);
+    EXPECT_EQ(stats.unreadable, 3u);
+    EXPECT_EQ(stats.resistanceCount, 3u);
+}
+
+namespace {
+
+SessionRow fittedRow(double resistance, Conformity verdict = Conformity::Pass)
+{
+    SessionRow row;
+    row.opened = true;
+    row.figures.ok = true;
+    row.figures.resistanceOhm = resistance;
+    row.figures.resistanceRefOhm = resistance * 1.2;
+    row.figures.verdict = verdict;
+    return row;
+}
+
+} // namespace
+
+TEST(SessionComparison, RobustZFlagsTheUnitFarFromTheBatch)
+{
+    // Hand-worked (Iglewicz and Hoaglin 1993 modified z-score): median 1.1505 Ω, MAD 0.0015 Ω,
+    // z(1.30) = 0.6745 × 0.1495 / 0.0015 = 67.225, z(1.148) = -1.12417. Mean 1.175 Ω, SD 0.0612536 Ω.
+    std::vector<SessionRow> rows;
+    for (double r : {1.150, 1.152, 1.148, 1.151, 1.149, 1.30})
+        rows.push_back(fittedRow(r));
+    for (auto &row : rows)
+        row.figures.resistanceRefOhm.reset(); // no temperature: compared as measured
+    const BatchStatistics stats = summarizeBatch(rows);
+    EXPECT_FALSE(stats.atReferenceTemperature);
+    EXPECT_NEAR(*stats.medianOhm, 1.1505, 1e-12);
+    EXPECT_NEAR(*stats.madOhm, 0.0015, 1e-12);
+    EXPECT_NEAR(*stats.meanOhm, 1.175, 1e-12);
+    EXPECT_NEAR(*stats.sdOhm, 0.0612536, 1e-7);
+    ASSERT_EQ(stats.farFromBatch.size(), 1u);
+    EXPECT_EQ(stats.farFromBatch[0], 5u);
+    EXPECT_NEAR(*stats.robustZ[5], 67.22517, 1e-4);
+    EXPECT_NEAR(*stats.robustZ[2], -1.124167, 1e-6);
+    EXPECT_NE(stats.ruleNote.find("Iglewicz"), std::string::npos);
+}
+
+TEST(SessionComparison, BatchUsesReferenceTemperatureOnlyWhenEveryUnitHasIt)
+{
+    std::vector<SessionRow> rows = {fittedRow(1.0), fittedRow(1.1), fittedRow(1.2)};
+    BatchStatistics stats = summarizeBatch(rows);
+    EXPECT_TRUE(stats.atReferenceTemperature);
+    EXPECT_NEAR(*stats.meanOhm, 1.32, 1e-12);
+    rows[1].figures.resistanceRefOhm.reset();
+    stats = summarizeBatch(rows);
+    EXPECT_FALSE(stats.atReferenceTemperature);
+    EXPECT_NEAR(*stats.meanOhm, 1.1, 1e-12);
+}
+
+TEST(SessionComparison, RuleNeedsThreeUnitsAndANonZeroMad)
+{
+    std::vector<SessionRow> two = {fittedRow(1.0), fittedRow(2.0)};
+    BatchStatistics stats = summarizeBatch(two);
+    EXPECT_TRUE(stats.farFromBatch.empty());
+    EXPECT_NE(stats.ruleNote.find("at least 3"), std::string::npos);
+    std::vector<SessionRow> same = {fittedRow(1.0), fittedRow(1.0), fittedRow(1.0), fittedRow(5.0)};
+    stats = summarizeBatch(same);
+    EXPECT_TRUE(stats.farFromBatch.empty());
+    EXPECT_NE(stats.ruleNote.find("MAD is zero"), std::string::npos);
+    for (const auto &z : stats.robustZ)
+        EXPECT_FALSE(z.has_value());
+}
+
+TEST(SessionComparison, CountsVerdictsReviewsAndUnreadableRows)
+{
+    std::vector<SessionRow> rows = {fittedRow(1.0, Conformity::Pass), fittedRow(1.1, Conformity::Fail),
+                                    fittedRow(1.2, Conformity::Undecided), fittedRow(1.3, Conformity::Pass)};
+    rows[1].signOffs.push_back({1, "t", "Lead", Verdict::Accepted, ""});
+    rows[1].signOffs.push_back({2, "t", "Lead", Verdict::Rejected, "over limit"});
+    rows[2].safetyStops.push_back({});
+    SessionRow bad;
+    bad.problem = "corrupt";
+    rows.push_back(bad);
+    const BatchStatistics stats = summarizeBatch(rows);
+    EXPECT_EQ(stats.pass, 2u);
+    EXPECT_EQ(stats.fail, 1u);
+    EXPECT_EQ(stats.undecided, 1u);
+    EXPECT_EQ(stats.rejected, 1u);
+    EXPECT_EQ(stats.accepted, 0u);
+    EXPECT_EQ(stats.notReviewed, 3u);
+    EXPECT_EQ(stats.safetyStopped, 1u);
+    EXPECT_EQ(stats.unreadable, 1u);
+    EXPECT_EQ(rows[1].reviewState(), "rejected");
+}
+
+TEST(SessionComparison, MedianOfEvenAndOddCounts)
+{
+    EXPECT_FALSE(median({}).has_value());
+    EXPECT_DOUBLE_EQ(*median({3.0, 1.0, 2.0}), 2.0);
+    EXPECT_DOUBLE_EQ(*median({4.0, 1.0, 3.0, 2.0}), 2.5);
+}
+
+TEST(SessionComparison, InstrumentShortNameFromIdn)
+{
+    // IEEE 488.2 *IDN? reply: manufacturer, model, serial number, firmware.
+    EXPECT_EQ(instrumentShortName("DemoMaker,DV-100,SN123,1.0"), "DemoMaker DV-100");
+    EXPECT_EQ(instrumentShortName("  hand-held meter "), "hand-held meter");
+    EXPECT_EQ(instrumentShortName("Maker,"), "Maker");
+}
+
+TEST(SessionFigures, DecisionRulesOnTheIlacCheckValue)
+{
+    // FACTS.md §7: TL = 8.0 %, U = 0.6 %, result 7.7 %: simple acceptance passes, the guarded
+    // rule (w = U) cannot decide; 7.3 % passes and 8.7 % fails under both.
+    EXPECT_EQ(judgeUpperLimit(7.7, 0.6, 8.0, DecisionRule::SimpleAcceptance), Conformity::Pass);
+    EXPECT_EQ(judgeUpperLimit(7.7, 0.6, 8.0, DecisionRule::GuardedAcceptance), Conformity::Undecided);
+    EXPECT_EQ(judgeUpperLimit(7.3, 0.6, 8.0, DecisionRule::GuardedAcceptance), Conformity::Pass);
+    EXPECT_EQ(judgeUpperLimit(8.7, 0.6, 8.0, DecisionRule::GuardedAcceptance), Conformity::Fail);
+    EXPECT_EQ(judgeUpperLimit(8.3, 0.6, 8.0, DecisionRule::SimpleAcceptance), Conformity::Fail);
+    EXPECT_EQ(judgeUpperLimit(std::nan(""), 0.6, 8.0, DecisionRule::SimpleAcceptance), Conformity::NotAvailable);
+}
+
+TEST(SessionFigures, TemperatureConstants)
+{
+    // FACTS.md §3: copper 235 °C (IEC 60076-1), 234.5 °C (IEEE C57.12.90); aluminium 225 °C.
+    EXPECT_DOUBLE_EQ(temperatureConstantC(WindingMaterial::Copper, TemperatureConvention::Iec), 235.0);
+    EXPECT_DOUBLE_EQ(temperatureConstantC(WindingMaterial::Copper, TemperatureConvention::Ieee), 234.5);
+    EXPECT_DOUBLE_EQ(temperatureConstantC(WindingMaterial::Aluminium, TemperatureConvention::Ieee), 225.0);
+}
+
+TEST(SessionFigures, RegulationHandWorked)
+{
+    // R = 1.152 Ω, V0 = 26.4 V, I = 50/24 A: V_fl = 26.4 - 2.4 = 24.0 V, regulation 10 % exactly.
+    // With u(R) = 0.01 Ω, u(V0) = 0 and no covariance: u = 100 I V0 / V_fl² · u(R)
+    // = 100 × 2.08333 × 26.4 / 576 × 0.01 = 0.0954861 %.
+    const RegulationEstimate estimate = regulationAt(1.152, 26.4, 50.0 / 24.0, 0.01, 0.0, 0.0);
+    ASSERT_TRUE(estimate.ok);
+    EXPECT_NEAR(estimate.percent, 10.0, 1e-12);
+    EXPECT_NEAR(estimate.standardUncertaintyPercent, 0.0954861, 1e-7);
+    EXPECT_FALSE(regulationAt(20.0, 26.4, 50.0 / 24.0, 0.01, 0.0, 0.0).ok); // V_fl ≤ 0: no regulation, no NaN
+}
