@@ -187,11 +187,14 @@ BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
             ++fitted;
             allHaveReference = allHaveReference && row->figures.resistanceRefOhm.has_value();
         }
-        switch (row->figures.verdict) {
-        case Conformity::Pass: ++stats.pass; break;
-        case Conformity::Fail: ++stats.fail; break;
-        case Conformity::Undecided: ++stats.undecided; break;
-        case Conformity::NotAvailable: ++stats.noVerdict; break;
+        if (!row->figures.verdict) {
+            ++stats.noVerdict;
+        } else {
+            switch (*row->figures.verdict) {
+            case ConformityOutcome::Pass: ++stats.pass; break;
+            case ConformityOutcome::Fail: ++stats.fail; break;
+            case ConformityOutcome::CannotDecide: ++stats.undecided; break;
+            }
         }
         if (row->signOffs.empty()) {
             ++stats.notReviewed;

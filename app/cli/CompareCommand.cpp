@@ -111,12 +111,13 @@ std::string parseArguments(const Arguments &args, Options &options)
             options.comparison.figures.referenceTemperatureC = t;
         } else if (arg == "--convention") {
             if (!value(text) || (text != "iec" && text != "ieee"))
-                return "--convention must be iec (copper 235 °C) or ieee (copper 234.5 °C)";
-            options.comparison.figures.convention = text == "iec" ? TemperatureConvention::Iec : TemperatureConvention::Ieee;
+                return "--convention must be iec (copper 235 °C, IEC 60076-1) or ieee (copper 234.5 °C, IEEE C57.12.90)";
+            options.comparison.figures.copperConstant = text == "iec" ? TemperatureConstant::CopperIec : TemperatureConstant::CopperIeee;
         } else if (arg == "--rule") {
-            if (!value(text) || (text != "guarded" && text != "simple"))
+            const auto rule = value(text) ? decisionRuleFromString(text) : std::nullopt;
+            if (!rule)
                 return "--rule must be guarded or simple (ILAC-G8:09/2019 decision rules)";
-            options.comparison.figures.rule = text == "simple" ? DecisionRule::SimpleAcceptance : DecisionRule::GuardedAcceptance;
+            options.comparison.figures.rule = *rule;
         } else if (!arg.empty() && arg[0] == '-') {
             return "unknown option '" + arg + "'";
         } else {
@@ -152,7 +153,7 @@ void printTable(const std::vector<SessionRow> &rows, const BatchStatistics &stat
                          withUncertainty(f.resistanceRefOhm.value_or(absent), f.resistanceRefUOhm.value_or(absent)),
                          withUncertainty(v0, f.noLoadVoltageUV.value_or(absent)),
                          withUncertainty(f.regulationPercent.value_or(absent), f.regulationUPercent.value_or(absent)),
-                         toString(f.verdict), std::to_string(row.safetyStops.size()), row.reviewState(),
+                         f.verdictText(), std::to_string(row.safetyStops.size()), row.reviewState(),
                          (std::isfinite(z) ? formatFixed(z, 2) : std::string("n/a")) + (far ? " FAR" : "")});
     }
     std::vector<std::size_t> widths(titles.size());
@@ -174,7 +175,7 @@ void printTable(const std::vector<SessionRow> &rows, const BatchStatistics &stat
         printLine(line);
 }
 
-void printSummary(const BatchStatistics &stats, const ComparisonOptions &options, std::ostream &out)
+void printSummary(const std::vector<SessionRow> &rows, const BatchStatistics &stats, const ComparisonOptions &options, std::ostream &out)
 {
     const std::string basis = stats.atReferenceTemperature
                                   ? "at " + plainNumber(options.figures.referenceTemperatureC) + " °C"
@@ -188,8 +189,13 @@ void printSummary(const BatchStatistics &stats, const ComparisonOptions &options
         out << ", median " << formatQuantity(*stats.medianOhm, "Ω") << ", range " << formatQuantity(*stats.minOhm, "Ω")
             << " to " << formatQuantity(*stats.maxOhm, "Ω") << " (" << stats.resistanceCount << " units)\n";
     }
-    out << "  Verdicts (" << describe(options.figures.rule) << "):\n    pass " << stats.pass << ", fail " << stats.fail
-        << ", undecided " << stats.undecided << ", n/a " << stats.noVerdict << '\n';
+    std::string ruleName;
+    for (const auto &row : rows)
+        if (ruleName.empty() && row.opened)
+            ruleName = row.figures.ruleName;
+    out << "  Verdicts on regulation against the nameplate (" << (ruleName.empty() ? toString(options.figures.rule) : ruleName)
+        << "):\n    pass " << stats.pass << ", fail " << stats.fail << ", cannot decide " << stats.undecided << ", n/a "
+        << stats.noVerdict << '\n';
     out << "  Review: accepted " << stats.accepted << ", rejected " << stats.rejected << ", retest " << stats.retest
         << ", not reviewed " << stats.notReviewed << "; safety stops in " << stats.safetyStopped
         << " sessions; lab-sheet limit hit in " << stats.limitHit << '\n';
@@ -238,7 +244,7 @@ int runCompare(const Arguments &args)
         std::cout << comparisonJson(rows, stats, options.comparison) << '\n';
     } else {
         printTable(rows, stats, options.comparison, std::cout);
-        printSummary(stats, options.comparison, std::cout);
+        printSummary(rows, stats, options.comparison, std::cout);
     }
     return incomplete || found.files.empty() ? exitInvalidInput : exitSuccess;
 }
