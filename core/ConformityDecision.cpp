@@ -80,4 +80,18 @@ ConformityDecision decideAgainstUpperLimit(double measured, double expandedUncer
     return d;
 }
 
+ConformityDecision decideAgainstUpperLimit(double measured, std::optional<double> expandedUncertainty,
+                                           double upperLimit, DecisionRule rule)
+{
+    if (expandedUncertainty || rule == DecisionRule::SimpleAcceptance)
+        return decideAgainstUpperLimit(measured, expandedUncertainty.value_or(0.0), upperLimit, rule);
+    ConformityDecision d = decideAgainstUpperLimit(measured, 0.0, upperLimit, rule);
+    if (!d.ok)
+        return d;
+    d.outcome = ConformityOutcome::CannotDecide;
+    d.explanation = formatSignificant(measured, 4) + " has no uncertainty (too few points), so the guard band "
+                    "cannot be applied; record more points.";
+    return d;
+}
+
 } // namespace sagline

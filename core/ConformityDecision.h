@@ -38,5 +38,10 @@ struct ConformityDecision {
 // measured and upperLimit finite; expandedUncertainty finite and >= 0.
 ConformityDecision decideAgainstUpperLimit(double measured, double expandedUncertainty, double upperLimit,
                                            DecisionRule rule);
+// As above, for a result whose uncertainty may be unknown (a fit of 2 points): without U,
+// guarded acceptance cannot decide (it has no guard band to apply); simple acceptance decides
+// on the value alone.
+ConformityDecision decideAgainstUpperLimit(double measured, std::optional<double> expandedUncertainty,
+                                           double upperLimit, DecisionRule rule);
 
 } // namespace sagline

@@ -208,10 +208,10 @@ int runFit(const Arguments &arguments)
     }
     if (report.analysis && report.analysis->ok() && report.regulationLimitPercent) {
         const UncertainValue &reg = report.analysis->regulationPercent;
-        report.decision = decideAgainstUpperLimit(reg.value, reg.expandedUncertainty.value_or(0.0),
-                                                  *report.regulationLimitPercent, args.rule);
+        report.decision = decideAgainstUpperLimit(reg.value, reg.expandedUncertainty, *report.regulationLimitPercent,
+                                                  args.rule);
         if (!reg.expandedUncertainty)
-            report.warnings.push_back("the verdict ignores uncertainty: the fit has too few points to give one");
+            report.warnings.push_back("the regulation has no uncertainty: the fit has too few points to give one");
     }
 
     if (args.json)

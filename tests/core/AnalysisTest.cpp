@@ -176,6 +176,13 @@ TEST(ConformityDecision, IlacG8CheckValue)
     EXPECT_EQ(decideAgainstUpperLimit(8.1, 0.6, 8.0, DecisionRule::SimpleAcceptance).outcome, ConformityOutcome::Fail);
     EXPECT_FALSE(decideAgainstUpperLimit(NAN, 0.6, 8.0, DecisionRule::SimpleAcceptance).ok);
     EXPECT_FALSE(decideAgainstUpperLimit(7.0, -0.1, 8.0, DecisionRule::SimpleAcceptance).ok);
+    // No uncertainty known: guarded acceptance has no guard band to apply.
+    EXPECT_EQ(decideAgainstUpperLimit(5.0, std::nullopt, 8.0, DecisionRule::GuardedAcceptance).outcome,
+              ConformityOutcome::CannotDecide);
+    EXPECT_EQ(decideAgainstUpperLimit(5.0, std::nullopt, 8.0, DecisionRule::SimpleAcceptance).outcome,
+              ConformityOutcome::Pass);
+    EXPECT_EQ(decideAgainstUpperLimit(7.7, std::optional<double>(0.6), 8.0, DecisionRule::GuardedAcceptance).outcome,
+              ConformityOutcome::CannotDecide);
 }
 
 TEST(UncertaintyFormat, RoundsToTwoDigitsOfTheUncertainty)
