@@ -130,7 +130,7 @@ void analyse(SessionSummary &summary)
                                                                     : nameplateRegulationPercent(summary.setup->nameplate);
     if (summary.regulationLimitPercent) {
         const UncertainValue &regulation = analysis.regulationPercent;
-        summary.decision = decideAgainstUpperLimit(regulation.value, regulation.expandedUncertainty.value_or(0.0),
+        summary.decision = decideAgainstUpperLimit(regulation.value, regulation.expandedUncertainty,
                                                    *summary.regulationLimitPercent, options.rule);
     }
     summary.analysis = std::move(analysis);

@@ -1,4 +1,5 @@
 // SessionStore: recording and reading back a session, append-only history, Save As.
+#include "SessionSummary.h"
 #include "SessionTestSupport.h"
 
 #include <gtest/gtest.h>
@@ -250,4 +251,27 @@ TEST(SessionStore, BatchAppendIsAllOrNothing)
     ASSERT_TRUE(ids.ok()) << ids.message;
     EXPECT_EQ(ids.value, (std::vector<std::int64_t>{1, 2}));
     EXPECT_EQ(store.readingCount().value, 2);
+}
+
+TEST(SessionSummary, TwoPointsGiveNoGuardedVerdict)
+{
+    // Two readings fit exactly and carry no uncertainty: guarded acceptance (ILAC-G8:2019
+    // §4.2.2) has no guard band to apply and must not pass the unit.
+    TempFolder folder;
+    const std::string path = folder.file("two.sagline");
+    {
+        NewSession session = sampleSession();
+        session.setupJson = R"({"nameplate":{"rated_power_va":50,"primary_voltage_v":230,"secondary_voltage_v":24,)"
+                            R"("secondary_no_load_voltage_v":26.4}})";
+        auto created = SessionStore::create(path, session);
+        ASSERT_TRUE(created.ok()) << created.message;
+        ASSERT_TRUE(created.value->appendReading(sampleReading(0, 0.0, 26.4)).ok());
+        ASSERT_TRUE(created.value->appendReading(sampleReading(1, 1.0, 25.9)).ok());
+    }
+    const auto summary = loadSessionSummary(path);
+    ASSERT_TRUE(summary.ok()) << summary.message;
+    ASSERT_TRUE(summary.value.fit.ok()) << summary.value.fit.message;
+    ASSERT_TRUE(summary.value.analysis.has_value()) << summary.value.analysisProblem;
+    ASSERT_TRUE(summary.value.decision.has_value());
+    EXPECT_NE(summary.value.decision->outcome, ConformityOutcome::Pass);
 }
