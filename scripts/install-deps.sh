@@ -18,6 +18,9 @@ packages=(
     xvfb xauth poppler-utils sqlite3 python3
     # scripts/york-odr-check.py: regenerates the York test's independent ODR reference values
     python3-scipy
+    # packaging: .deb build (shlibdeps), checks, icon rendering, desktop integration
+    dpkg-dev lintian appstream desktop-file-utils shared-mime-info libglib2.0-bin
+    librsvg2-bin libxml2-utils file man-db groff-base
 )
 
 missing=()

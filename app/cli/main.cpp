@@ -2,6 +2,7 @@
 #include "CliCommands.h"
 
 #include "BuildInfo.h"
+#include "DataDirectory.h"
 
 #include <cstring>
 #include <iostream>
@@ -33,6 +34,8 @@ void printUsage(std::ostream &out)
         out << "  " << command.synopsis << '\n';
     out << "  --version                          print the version and the build's git commit\n"
            "\nExit codes: 0 success, 1 runtime failure, 2 invalid input, 3 sweep stopped by a safety limit.\n";
+    if (const auto data = sagline::findDataDirectory(); data.ok())
+        out << "Demo setup: " << (data.path / "demo-setup.json").string() << '\n';
 }
 
 } // namespace

@@ -1,0 +1,37 @@
+# sagline_read_job_paragraph(<out> <readme>): the README's first paragraph (the one under the
+# title, which says what Sagline is for), as one line with single spaces.
+function(sagline_read_job_paragraph out readme)
+    file(READ "${readme}" text)
+    string(REGEX MATCH "\n\n([^\n]+\n)+" paragraph "${text}")
+    if(NOT paragraph)
+        message(FATAL_ERROR "packaging: no paragraph under the title of ${readme}")
+    endif()
+    string(STRIP "${paragraph}" paragraph)
+    string(REGEX REPLACE "[ \n]+" " " paragraph "${paragraph}")
+    set(${out} "${paragraph}" PARENT_SCOPE)
+endfunction()
+
+# sagline_wrap_paragraph(<out> <text> <width>): <text> broken into lines of at most <width>
+# characters at spaces (a longer word gets a line of its own). Debian wants description lines
+# under 80 columns (lintian: extended-description-line-too-long).
+function(sagline_wrap_paragraph out text width)
+    string(REPLACE ";" "\\;" text "${text}")
+    string(REPLACE " " ";" words "${text}")
+    set(result "")
+    set(line "")
+    foreach(word IN LISTS words)
+        if(line STREQUAL "")
+            set(line "${word}")
+        else()
+            string(LENGTH "${line} ${word}" length)
+            if(length GREATER width)
+                string(APPEND result "${line}\n")
+                set(line "${word}")
+            else()
+                string(APPEND line " ${word}")
+            endif()
+        endif()
+    endforeach()
+    string(APPEND result "${line}")
+    set(${out} "${result}" PARENT_SCOPE)
+endfunction()

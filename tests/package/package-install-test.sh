@@ -1,0 +1,212 @@
+#!/usr/bin/env bash
+# Builds the Debian package from BUILD_DIR with cpack, checks it with lintian (no errors, and
+# every warning listed as accepted in DEVELOPERS.md), installs it on this machine with dpkg -i,
+# runs the installed programs from their installed paths in a bare environment, then purges the
+# package and checks that nothing it installed is left behind.
+# Needs root (dpkg); CI runs it as root on a throwaway clone. A lock keeps two runs on one
+# machine from overlapping.
+#
+# usage: package-install-test.sh SOURCE_DIR BUILD_DIR VERSION GIT_COMMIT PROGRAM...
+set -euo pipefail
+
+source_dir=$1
+build_dir=$2
+version=$3
+commit=$4
+shift 4
+programs=("$@")
+package=sagline
+app_id=org.sagline.Sagline
+failures=0
+
+fail() {
+    echo "FAIL: $*" >&2
+    failures=$((failures + 1))
+}
+pass() { echo "ok: $*"; }
+has_program() {
+    local p
+    for p in "${programs[@]}"; do [ "$p" = "$1" ] && return 0; done
+    return 1
+}
+
+if [ "$(id -u)" -ne 0 ]; then
+    echo "FAIL: the package install test runs dpkg -i and needs root" >&2
+    exit 1
+fi
+for tool in cpack lintian dpkg-deb dpkg-shlibdeps flock timeout readelf file gio sqlite3 python3; do
+    command -v "$tool" >/dev/null || { echo "FAIL: $tool is missing: run scripts/install-deps.sh" >&2; exit 1; }
+done
+
+exec 9>/var/lock/sagline-package-test.lock
+flock -w 900 9 || { echo "FAIL: another package test held the lock for 15 minutes" >&2; exit 1; }
+
+if dpkg-query -W -f='${db:Status-Status}' "$package" 2>/dev/null | grep -qv '^not-installed$'; then
+    echo "FAIL: $package is already installed on this machine; remove it (dpkg -P $package) first" >&2
+    exit 1
+fi
+
+work=$(mktemp -d)
+installed_by_us=0
+cleanup() {
+    if [ "$installed_by_us" -eq 1 ]; then
+        echo "cleanup: purging $package after a failure" >&2
+        dpkg -P "$package" >/dev/null 2>&1 || true
+    fi
+    rm -rf "$work"
+}
+trap cleanup EXIT
+
+# --- Build the package ---------------------------------------------------------------------------
+echo "== cpack"
+cpack --config "$build_dir/CPackConfig.cmake" -B "$work/out" >"$work/cpack.log" 2>&1 \
+    || { cat "$work/cpack.log" >&2; echo "FAIL: cpack failed" >&2; exit 1; }
+debs=("$work"/out/*.deb)
+[ "${#debs[@]}" -eq 1 ] && [ -f "${debs[0]}" ] || { echo "FAIL: cpack made no single .deb" >&2; exit 1; }
+deb=${debs[0]}
+echo "package: $(basename "$deb"), $(stat -c %s "$deb") bytes"
+dpkg-deb --info "$deb"
+dpkg-deb --contents "$deb" | tee "$work/contents"
+
+[ "$(dpkg-deb -f "$deb" Version)" = "$version" ] && pass "Version: $version" \
+    || fail "package version $(dpkg-deb -f "$deb" Version), project $version"
+depends=$(dpkg-deb -f "$deb" Depends)
+[[ $depends == *libc6* ]] && pass "Depends computed by dpkg-shlibdeps: $depends" \
+    || fail "Depends lacks libc6, shlibdeps did not run: '$depends'"
+
+# The package's paths, as they will be on the machine (./usr/bin/ -> /usr/bin).
+awk '{ print $6 }' "$work/contents" | sed -e 's|^\./|/|' -e 's|/$||' | grep -v '^$' | grep -v '^/$' >"$work/paths"
+expected=(/usr/share/$package/demo-setup.json /usr/share/doc/$package/copyright
+          /usr/share/doc/$package/changelog.gz /usr/share/mime/packages/sagline.xml)
+for program in "${programs[@]}"; do
+    expected+=("/usr/bin/$program" "/usr/share/man/man1/$program.1.gz")
+done
+if has_program sagline; then
+    expected+=(/usr/share/applications/$app_id.desktop /usr/share/metainfo/$app_id.metainfo.xml
+               /usr/share/icons/hicolor/scalable/apps/$app_id.svg /usr/share/icons/hicolor/48x48/apps/$app_id.png
+               /usr/share/icons/hicolor/256x256/apps/$app_id.png)
+fi
+for path in "${expected[@]}"; do
+    grep -qx "$path" "$work/paths" && pass "package holds $path" || fail "package lacks $path"
+done
+
+# --- lintian -------------------------------------------------------------------------------------
+echo "== lintian"
+lintian --allow-root --display-level ">=info" "$deb" >"$work/lintian.log" 2>&1 || true
+cat "$work/lintian.log"
+if grep -q '^E: ' "$work/lintian.log"; then
+    fail "lintian reports errors (above)"
+else
+    pass "lintian: no errors"
+fi
+# Each warning must be one the contributor guide accepts, with its reason.
+accepted=$(sed -n '/^### Accepted lintian findings/,/^##/p' "$source_dir/DEVELOPERS.md")
+while read -r tag; do
+    [ -z "$tag" ] && continue
+    grep -q "\`$tag\`" <<<"$accepted" && pass "lintian warning $tag is accepted in DEVELOPERS.md" \
+        || fail "lintian warning $tag is not listed under 'Accepted lintian findings' in DEVELOPERS.md"
+done < <(sed -n 's/^W: [^:]*: \([a-z0-9-]*\).*/\1/p' "$work/lintian.log" | sort -u)
+
+# --- Install -------------------------------------------------------------------------------------
+echo "== dpkg -i"
+while read -r path; do
+    if [ -e "$path" ] || [ -L "$path" ]; then echo "$path"; fi
+done <"$work/paths" >"$work/existed-before"
+installed_by_us=1
+dpkg -i "$deb" >"$work/dpkg-i.log" 2>&1 || { cat "$work/dpkg-i.log" >&2; echo "FAIL: dpkg -i failed" >&2; exit 1; }
+pass "dpkg -i $(basename "$deb")"
+dpkg -L "$package" | grep -v '^/\.$' >"$work/dpkg-list"
+
+# Run the installed programs the way a user would: a bare environment, a fresh home, an
+# unrelated working folder, nothing pointing into the source or build tree.
+mkdir -p "$work/home" "$work/cwd"
+run() { (cd "$work/cwd" && env -i PATH=/usr/bin:/bin HOME="$work/home" LC_ALL=C.UTF-8 "$@"); }
+
+for program in "${programs[@]}"; do
+    location=$(run sh -c "command -v $program" || true)
+    [ "$location" = "/usr/bin/$program" ] && pass "$program is /usr/bin/$program" \
+        || fail "$program resolves to '$location', not /usr/bin/$program"
+    runpath=$(readelf -d "/usr/bin/$program" | grep -E 'RUNPATH|RPATH' || true)
+    [ -z "$runpath" ] && pass "$program has no RUNPATH" || fail "$program carries $runpath"
+    missing=$(run ldd "/usr/bin/$program" | grep 'not found' || true)
+    [ -z "$missing" ] && pass "$program: every shared library resolves" || fail "$program: $missing"
+    output=$(run env QT_QPA_PLATFORM=offscreen timeout 20 "/usr/bin/$program" --version 2>&1) || true
+    if [[ $output == *"$version"* && $output == *"$commit"* ]]; then
+        pass "$program --version: $output"
+    else
+        fail "$program --version should name $version and commit $commit, printed: '$output'"
+    fi
+done
+
+if has_program sagline-cli; then
+    demo=/usr/share/$package/demo-setup.json
+    if run sagline-cli plan "$demo" >"$work/plan.txt" 2>&1 && grep -q 'Load sweep plan' "$work/plan.txt"; then
+        pass "sagline-cli plan $demo"
+        head -n 3 "$work/plan.txt"
+    else
+        fail "sagline-cli plan $demo:"$'\n'"$(cat "$work/plan.txt")"
+    fi
+    if run sagline-cli plan "$demo" --json >"$work/plan.json" \
+        && python3 -c 'import json,sys; p=json.load(open(sys.argv[1])); assert p["recommended_fuse"]["rating_a"] > 0 and len(p["steps"]) > 1' "$work/plan.json"; then
+        pass "sagline-cli plan --json: recommended fuse and steps present"
+    else
+        fail "sagline-cli plan $demo --json did not give a plan with a fuse and steps"
+    fi
+    # The program finds its data through its own location (core/DataDirectory.h), not the build tree.
+    help_data=$(run sagline-cli --help | sed -n 's/^Demo setup: //p')
+    [ "$help_data" = "$demo" ] && pass "installed sagline-cli finds its data in /usr/share/$package" \
+        || fail "installed sagline-cli locates its demo setup at '$help_data', expected $demo"
+fi
+
+if has_program sagline; then
+    # Still running after 3 s on the offscreen platform: it started, built its window, did not crash.
+    status=0
+    run env QT_QPA_PLATFORM=offscreen XDG_RUNTIME_DIR="$work/home" timeout 3 sagline >"$work/gui.log" 2>&1 || status=$?
+    [ "$status" -eq 124 ] && pass "sagline ran on the offscreen platform until stopped after 3 s" \
+        || fail "sagline exited with status $status within 3 s:"$'\n'"$(cat "$work/gui.log")"
+fi
+
+# Desktop integration as the triggers of shared-mime-info and desktop-file-utils left it.
+if [ -x /usr/bin/update-mime-database ]; then
+    app_id_hex=$(sed -n 's/.*sessionApplicationId = 0x\([0-9A-Fa-f]*\)u.*/\1/p' "$source_dir/core/SessionSchema.h")
+    sqlite3 "$work/cwd/unit-12" "PRAGMA application_id = $((16#$app_id_hex)); CREATE TABLE t(x);"
+    type=$(run gio info -a standard::content-type "$work/cwd/unit-12" | sed -n 's/.*content-type: //p')
+    [ "$type" = application/x-sagline-session ] && pass "the system MIME database knows session files" \
+        || fail "a session file is '$type' in the system MIME database"
+fi
+if has_program sagline && [ -f /usr/share/applications/mimeinfo.cache ]; then
+    grep -q "^application/x-sagline-session=.*$app_id.desktop" /usr/share/applications/mimeinfo.cache \
+        && pass "session files open with $app_id.desktop" \
+        || fail "mimeinfo.cache does not associate application/x-sagline-session with $app_id.desktop"
+fi
+man_page=$(run man -w sagline-cli 2>/dev/null || true)
+[ "$man_page" = /usr/share/man/man1/sagline-cli.1.gz ] && pass "man sagline-cli finds $man_page" \
+    || fail "man -w sagline-cli gave '$man_page'"
+
+# --- Remove ----------------------------------------------------------------------------------
+echo "== dpkg -P"
+dpkg -P "$package" >"$work/dpkg-p.log" 2>&1 || { cat "$work/dpkg-p.log" >&2; fail "dpkg -P failed"; }
+installed_by_us=0
+left=0
+while read -r path; do
+    if grep -qxF "$path" "$work/existed-before"; then
+        # A folder shared with other packages (/usr/bin, /usr/share/man/man1, ...) must stay.
+        [ -e "$path" ] || fail "dpkg -P removed $path, which existed before the install"
+    elif [ -e "$path" ] || [ -L "$path" ]; then
+        fail "left behind after purge: $path"
+        left=$((left + 1))
+    fi
+done <"$work/dpkg-list"
+[ "$left" -eq 0 ] && pass "nothing of the $(wc -l <"$work/dpkg-list") paths dpkg listed is left"
+[ ! -e /usr/share/mime/application/x-sagline-session.xml ] && pass "MIME database no longer has the session type" \
+    || fail "/usr/share/mime/application/x-sagline-session.xml is left after purge"
+if [ -f /usr/share/applications/mimeinfo.cache ]; then
+    ! grep -q "$app_id" /usr/share/applications/mimeinfo.cache && pass "mimeinfo.cache no longer names $app_id" \
+        || fail "mimeinfo.cache still names $app_id after purge"
+fi
+
+if [ "$failures" -ne 0 ]; then
+    echo "$failures check(s) failed" >&2
+    exit 1
+fi
+echo "package built, checked, installed, run and removed cleanly"
