@@ -12,6 +12,7 @@
 #include <QTimer>
 
 #include <cstdio>
+#include <cstring>
 
 namespace {
 
@@ -25,6 +26,11 @@ bool hasDisplay()
 
 int main(int argc, char **argv)
 {
+    // --version answers without a display too (bug reports, scripts over ssh).
+    if (argc == 2 && (std::strcmp(argv[1], "--version") == 0 || std::strcmp(argv[1], "-v") == 0)) {
+        std::printf("sagline %s (commit %s)\n", sagline::buildinfo::version, sagline::buildinfo::gitCommit);
+        return 0;
+    }
     if (!hasDisplay()) {
         std::fputs("sagline: no display (neither DISPLAY nor WAYLAND_DISPLAY is set); run sagline-cli for a headless "
                    "sweep, or set QT_QPA_PLATFORM=offscreen\n",
@@ -34,7 +40,9 @@ int main(int argc, char **argv)
     QApplication app(argc, argv);
     QApplication::setOrganizationName(QStringLiteral("Sagline"));
     QApplication::setApplicationName(QStringLiteral("sagline"));
-    QApplication::setApplicationVersion(QString::fromLatin1(sagline::buildinfo::version));
+    QApplication::setApplicationVersion(QStringLiteral("%1 (commit %2)")
+                                            .arg(QLatin1String(sagline::buildinfo::version),
+                                                 QLatin1String(sagline::buildinfo::gitCommit)));
 
     QCommandLineParser parser;
     parser.setApplicationDescription(QStringLiteral("Plan, run and review the load test of a small mains transformer."));

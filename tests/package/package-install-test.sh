@@ -130,7 +130,8 @@ for program in "${programs[@]}"; do
     [ -z "$runpath" ] && pass "$program has no RUNPATH" || fail "$program carries $runpath"
     missing=$(run ldd "/usr/bin/$program" | grep 'not found' || true)
     [ -z "$missing" ] && pass "$program: every shared library resolves" || fail "$program: $missing"
-    output=$(run env QT_QPA_PLATFORM=offscreen timeout 20 "/usr/bin/$program" --version 2>&1) || true
+    # No display and no QT_QPA_PLATFORM: --version must answer anyway.
+    output=$(run timeout 20 "/usr/bin/$program" --version 2>&1) || true
     if [[ $output == *"$version"* && $output == *"$commit"* ]]; then
         pass "$program --version: $output"
     else
@@ -158,21 +159,42 @@ if has_program sagline-cli; then
         || fail "installed sagline-cli locates its demo setup at '$help_data', expected $demo"
 fi
 
+session=""
 if has_program sagline; then
+    gui() { run env QT_QPA_PLATFORM=offscreen XDG_RUNTIME_DIR="$work/home" "$@"; }
     # Still running after 3 s on the offscreen platform: it started, built its window, did not crash.
     status=0
-    run env QT_QPA_PLATFORM=offscreen XDG_RUNTIME_DIR="$work/home" timeout 3 sagline >"$work/gui.log" 2>&1 || status=$?
+    gui timeout 3 sagline >"$work/gui.log" 2>&1 || status=$?
     [ "$status" -eq 124 ] && pass "sagline ran on the offscreen platform until stopped after 3 s" \
         || fail "sagline exited with status $status within 3 s:"$'\n'"$(cat "$work/gui.log")"
+    # A whole demonstration sweep through the installed program writes a real session file.
+    status=0
+    gui timeout 120 sagline --screenshot "$work/shots" >"$work/gui-demo.log" 2>&1 || status=$?
+    session=$(find "$work/shots/sessions" -name '*.sagline' 2>/dev/null | head -n 1)
+    if [ "$status" -eq 0 ] && [ -n "$session" ] && ls "$work"/shots/*.png >/dev/null 2>&1; then
+        pass "sagline --screenshot ran the demo sweep: $(basename "$session") and $(cd "$work/shots" && ls ./*.png | tr '\n' ' ')"
+    else
+        fail "sagline --screenshot (status $status) made no session or no image:"$'\n'"$(cat "$work/gui-demo.log")"
+    fi
+    # Opening that session as the menu entry does on a double-click (Exec=sagline %f).
+    if [ -n "$session" ]; then
+        status=0
+        gui timeout 3 sagline "$session" >"$work/gui-open.log" 2>&1 || status=$?
+        [ "$status" -eq 124 ] && pass "sagline started with the session file as its argument and stayed up 3 s" \
+            || fail "sagline $session exited with status $status:"$'\n'"$(cat "$work/gui-open.log")"
+    fi
 fi
 
 # Desktop integration as the triggers of shared-mime-info and desktop-file-utils left it.
 if [ -x /usr/bin/update-mime-database ]; then
-    app_id_hex=$(sed -n 's/.*sessionApplicationId = 0x\([0-9A-Fa-f]*\)u.*/\1/p' "$source_dir/core/SessionSchema.h")
-    sqlite3 "$work/cwd/unit-12" "PRAGMA application_id = $((16#$app_id_hex)); CREATE TABLE t(x);"
-    type=$(run gio info -a standard::content-type "$work/cwd/unit-12" | sed -n 's/.*content-type: //p')
-    [ "$type" = application/x-sagline-session ] && pass "the system MIME database knows session files" \
-        || fail "a session file is '$type' in the system MIME database"
+    if [ -z "$session" ]; then # no desktop program: a file with the store's application_id stands in
+        app_id_hex=$(sed -n 's/.*sessionApplicationId = 0x\([0-9A-Fa-f]*\)u.*/\1/p' "$source_dir/core/SessionSchema.h")
+        session=$work/cwd/unit-12
+        sqlite3 "$session" "PRAGMA application_id = $((16#$app_id_hex)); CREATE TABLE t(x);"
+    fi
+    type=$(run gio info -a standard::content-type "$session" | sed -n 's/.*content-type: //p')
+    [ "$type" = application/x-sagline-session ] && pass "the system MIME database types $(basename "$session") as $type" \
+        || fail "$session is '$type' in the system MIME database, not application/x-sagline-session"
 fi
 if has_program sagline && [ -f /usr/share/applications/mimeinfo.cache ]; then
     grep -q "^application/x-sagline-session=.*$app_id.desktop" /usr/share/applications/mimeinfo.cache \
