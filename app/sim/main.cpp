@@ -93,7 +93,8 @@ int main(int argc, char **argv)
 {
     QCoreApplication app(argc, argv);
     QCoreApplication::setApplicationName(QStringLiteral("sagline-sim"));
-    QCoreApplication::setApplicationVersion(QString::fromLatin1(buildinfo::version));
+    QCoreApplication::setApplicationVersion(
+        QStringLiteral("%1 (commit %2)").arg(QLatin1String(buildinfo::version), QLatin1String(buildinfo::gitCommit)));
 
     QCommandLineParser parser;
     parser.setApplicationDescription(QStringLiteral(

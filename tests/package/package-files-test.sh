@@ -61,10 +61,11 @@ for page in "$packaging"/man/*.1; do
     fi
 done
 # Every command that `sagline-cli --help` lists must have its entry in sagline-cli.1.
-commands=$("$cli" --help | sed -n '/^commands:/,/^$/p' | awk 'NR > 1 && NF { print $1 }' | grep -v '^-' || true)
+# A command's line starts with two spaces and its name; continuation lines are indented further.
+commands=$("$cli" --help | sed -n '/^commands:/,/^$/p' | sed -n 's/^  \([a-z][a-z-]*\) .*/\1/p')
 [ -n "$commands" ] || fail "found no commands in 'sagline-cli --help'"
 for command in $commands; do
-    grep -Eq "^\.(B|BI|BR) \"?$command( |\"|$)" "$packaging/man/sagline-cli.1" \
+    grep -Eq "^(\.(B|BI|BR) \"?$command( |\"|$)|\\\\fB$command\\\\f[PR] )" "$packaging/man/sagline-cli.1" \
         && pass "sagline-cli.1 documents '$command'" \
         || fail "packaging/man/sagline-cli.1 does not document the command '$command' that 'sagline-cli --help' lists"
 done

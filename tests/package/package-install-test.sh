@@ -153,13 +153,34 @@ if has_program sagline-cli; then
     else
         fail "sagline-cli plan $demo --json did not give a plan with a fuse and steps"
     fi
+    # A whole sweep on the built-in virtual bench into a new session, then its fit.
+    if run sagline-cli run "$demo" --sim -o "$work/cwd/cli-sweep.sagline" >"$work/run.txt" 2>&1 \
+        && run sagline-cli fit "$work/cwd/cli-sweep.sagline" --json >"$work/fit.json" \
+        && python3 -c 'import json,sys; f=json.load(open(sys.argv[1])); assert f["n"] >= 3 and f["series_resistance_ohm"] > 0' "$work/fit.json"; then
+        pass "sagline-cli run --sim wrote a session and fit --json read it back"
+    else
+        fail "sagline-cli run --sim / fit on the installed demo setup:"$'\n'"$(tail -n 20 "$work/run.txt")"
+    fi
     # The program finds its data through its own location (core/DataDirectory.h), not the build tree.
     help_data=$(run sagline-cli --help | sed -n 's/^Demo setup: //p')
     [ "$help_data" = "$demo" ] && pass "installed sagline-cli finds its data in /usr/share/$package" \
         || fail "installed sagline-cli locates its demo setup at '$help_data', expected $demo"
 fi
 
+if has_program sagline-sim; then
+    # The virtual bench on the installed demo setup: up and serving until stopped after 2 s.
+    status=0
+    run timeout 2 sagline-sim /usr/share/$package/demo-setup.json --tcp-port 0 --no-pty </dev/null \
+        >"$work/sim.txt" 2>&1 || status=$?
+    if [ "$status" -eq 124 ] && grep -q 'virtual bench' "$work/sim.txt"; then
+        pass "sagline-sim served the demo transformer until stopped after 2 s"
+    else
+        fail "sagline-sim exited with status $status:"$'\n'"$(cat "$work/sim.txt")"
+    fi
+fi
+
 session=""
+[ -f "$work/cwd/cli-sweep.sagline" ] && session=$work/cwd/cli-sweep.sagline
 if has_program sagline; then
     gui() { run env QT_QPA_PLATFORM=offscreen XDG_RUNTIME_DIR="$work/home" "$@"; }
     # Still running after 3 s on the offscreen platform: it started, built its window, did not crash.
@@ -170,9 +191,10 @@ if has_program sagline; then
     # A whole demonstration sweep through the installed program writes a real session file.
     status=0
     gui timeout 120 sagline --screenshot "$work/shots" >"$work/gui-demo.log" 2>&1 || status=$?
-    session=$(find "$work/shots/sessions" -name '*.sagline' 2>/dev/null | head -n 1)
-    if [ "$status" -eq 0 ] && [ -n "$session" ] && ls "$work"/shots/*.png >/dev/null 2>&1; then
-        pass "sagline --screenshot ran the demo sweep: $(basename "$session") and $(cd "$work/shots" && ls ./*.png | tr '\n' ' ')"
+    gui_session=$(find "$work/shots/sessions" -name '*.sagline' 2>/dev/null | head -n 1)
+    if [ "$status" -eq 0 ] && [ -n "$gui_session" ] && ls "$work"/shots/*.png >/dev/null 2>&1; then
+        pass "sagline --screenshot ran the demo sweep: $(basename "$gui_session") and $(cd "$work/shots" && ls ./*.png | tr '\n' ' ')"
+        session=$gui_session
     else
         fail "sagline --screenshot (status $status) made no session or no image:"$'\n'"$(cat "$work/gui-demo.log")"
     fi
@@ -187,7 +209,7 @@ fi
 
 # Desktop integration as the triggers of shared-mime-info and desktop-file-utils left it.
 if [ -x /usr/bin/update-mime-database ]; then
-    if [ -z "$session" ]; then # no desktop program: a file with the store's application_id stands in
+    if [ -z "$session" ]; then # no program wrote a session: a file with the store's application_id stands in
         app_id_hex=$(sed -n 's/.*sessionApplicationId = 0x\([0-9A-Fa-f]*\)u.*/\1/p' "$source_dir/core/SessionSchema.h")
         session=$work/cwd/unit-12
         sqlite3 "$session" "PRAGMA application_id = $((16#$app_id_hex)); CREATE TABLE t(x);"
@@ -201,9 +223,11 @@ if has_program sagline && [ -f /usr/share/applications/mimeinfo.cache ]; then
         && pass "session files open with $app_id.desktop" \
         || fail "mimeinfo.cache does not associate application/x-sagline-session with $app_id.desktop"
 fi
-man_page=$(run man -w sagline-cli 2>/dev/null || true)
-[ "$man_page" = /usr/share/man/man1/sagline-cli.1.gz ] && pass "man sagline-cli finds $man_page" \
-    || fail "man -w sagline-cli gave '$man_page'"
+for program in "${programs[@]}"; do
+    man_page=$(run man -w "$program" 2>/dev/null || true)
+    [ "$man_page" = "/usr/share/man/man1/$program.1.gz" ] && pass "man $program finds $man_page" \
+        || fail "man -w $program gave '$man_page'"
+done
 
 # --- Remove ----------------------------------------------------------------------------------
 echo "== dpkg -P"
