@@ -141,6 +141,9 @@ done
 
 if has_program sagline-cli; then
     demo=/usr/share/$package/demo-setup.json
+    [ -f /usr/share/$package/demo-readings.csv ] && run sagline-cli fit /usr/share/$package/demo-readings.csv >/dev/null \
+        && pass "sagline-cli fit /usr/share/$package/demo-readings.csv" \
+        || fail "sagline-cli fit on the installed demo readings failed"
     if run sagline-cli plan "$demo" >"$work/plan.txt" 2>&1 && grep -q 'Load sweep plan' "$work/plan.txt"; then
         pass "sagline-cli plan $demo"
         head -n 3 "$work/plan.txt"
@@ -160,6 +163,15 @@ if has_program sagline-cli; then
         pass "sagline-cli run --sim wrote a session and fit --json read it back"
     else
         fail "sagline-cli run --sim / fit on the installed demo setup:"$'\n'"$(tail -n 20 "$work/run.txt")"
+    fi
+    if run sagline-cli --help | grep -q '^  report '; then
+        # The PDF report, headless, with whatever fonts the package's dependencies bring.
+        if run sagline-cli report "$work/cwd/cli-sweep.sagline" -o "$work/cwd/report.pdf" >"$work/report.txt" 2>&1 \
+            && file -b "$work/cwd/report.pdf" | grep -q '^PDF document'; then
+            pass "sagline-cli report wrote a PDF ($(stat -c %s "$work/cwd/report.pdf") bytes)"
+        else
+            fail "sagline-cli report:"$'\n'"$(cat "$work/report.txt")"
+        fi
     fi
     # The program finds its data through its own location (core/DataDirectory.h), not the build tree.
     help_data=$(run sagline-cli --help | sed -n 's/^Demo setup: //p')
