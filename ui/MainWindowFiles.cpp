@@ -5,6 +5,7 @@
 #include "InstrumentsPanel.h"
 #include "PlanPanel.h"
 #include "ReadingsTableModel.h"
+#include "ReviewMenu.h"
 #include "SessionStore.h"
 #include "SetupForm.h"
 #include "SweepWorkspace.h"
@@ -66,6 +67,7 @@ void MainWindow::createActions()
     view->addAction(tr("&Plan"), QKeySequence(Qt::ALT | Qt::Key_2), this, [this] { m_leftTabs->setCurrentIndex(1); });
     view->addAction(tr("&Instruments"), QKeySequence(Qt::ALT | Qt::Key_3), this, [this] { m_leftTabs->setCurrentIndex(2); });
     view->addAction(tr("R&eadings table"), QKeySequence(Qt::ALT | Qt::Key_4), this, [this] { m_readingsView->setFocus(); });
+    addReviewMenu(this); // review workspace and supervised sessions (ui/ReviewMenu)
     rebuildRecentMenu();
 }
 

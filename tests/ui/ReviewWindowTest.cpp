@@ -1,0 +1,136 @@
+// The review workspace, offscreen: a folder scanned in the background, the table sorted and
+// filtered, statistics and the far-from-batch flag, the overlay legend, a sign-off, CSV and
+// PDF export, and a screenshot of the window for a person to look at.
+#include "../core/ReviewTestSupport.h"
+
+#include "ReviewDetailView.h"
+#include "ReviewFilterModel.h"
+#include "ReviewOverlayChart.h"
+#include "ReviewTableModel.h"
+#include "ReviewWindow.h"
+
+#include <QDir>
+#include <QFile>
+#include <QSignalSpy>
+#include <QTableView>
+#include <QTest>
+
+#include <gtest/gtest.h>
+
+using namespace sagline;
+using namespace sagline::test;
+
+namespace {
+
+void makeFolder(const TempFolder &folder)
+{
+    std::filesystem::create_directories(folder.file("lab/week2"));
+    const double resistances[] = {1.150, 1.152, 1.148, 1.151, 1.30};
+    for (int i = 0; i < 5; ++i) {
+        DemoUnit unit;
+        unit.serial = "DEMO-000" + std::to_string(i + 1);
+        unit.resistanceOhm = resistances[i];
+        unit.operatorName = i % 2 ? "B. Second" : "A. Tester";
+        makeDemoSession(folder.file(std::string(i < 3 ? "lab/" : "lab/week2/") + "unit" + std::to_string(i + 1) + ".sagline"), unit);
+    }
+    writeBytes(folder.file("lab/damaged.sagline"), "SQLite format 3\0garbage");
+}
+
+std::unique_ptr<ReviewWindow> scannedWindow(const TempFolder &folder)
+{
+    auto window = std::make_unique<ReviewWindow>();
+    QSignalSpy finished(window.get(), &ReviewWindow::scanFinished);
+    window->addInputs({QString::fromStdString(folder.file("lab"))});
+    EXPECT_TRUE(window->isScanning());
+    EXPECT_TRUE(finished.wait(30000)) << "scan did not finish";
+    return window;
+}
+
+int proxyRowOf(ReviewWindow &window, const QString &serial)
+{
+    for (int r = 0; r < window.filter()->rowCount(); ++r)
+        if (window.filter()->index(r, ReviewTableModel::Unit).data().toString() == serial)
+            return r;
+    return -1;
+}
+
+} // namespace
+
+TEST(ReviewWindow, ScansAFolderAndListsTheBadFile)
+{
+    TempFolder folder;
+    makeFolder(folder);
+    auto window = scannedWindow(folder);
+    EXPECT_EQ(window->model()->rowCount(), 6);
+    EXPECT_NE(window->problemsText().indexOf(QStringLiteral("damaged.sagline")), -1) << window->problemsText().toStdString();
+    EXPECT_NE(window->summaryText().indexOf(QStringLiteral("DEMO-0005")), -1) << "far from the batch";
+    EXPECT_NE(window->summaryText().indexOf(QStringLiteral("Iglewicz")), -1);
+    // Every number has its unit.
+    const QString r = window->filter()->index(proxyRowOf(*window, "DEMO-0001"), ReviewTableModel::Resistance).data().toString();
+    EXPECT_TRUE(r.endsWith(QStringLiteral("Ω"))) << r.toStdString();
+    EXPECT_NE(r.indexOf(QStringLiteral("±")), -1) << r.toStdString();
+}
+
+TEST(ReviewWindow, SortsNumericallyAndFilters)
+{
+    TempFolder folder;
+    makeFolder(folder);
+    auto window = scannedWindow(folder);
+    window->table()->sortByColumn(ReviewTableModel::Resistance, Qt::DescendingOrder);
+    EXPECT_EQ(window->filter()->index(0, ReviewTableModel::Unit).data().toString(), "DEMO-0005");
+    window->table()->sortByColumn(ReviewTableModel::Resistance, Qt::AscendingOrder);
+    EXPECT_EQ(window->filter()->index(0, ReviewTableModel::Unit).data().toString(), "DEMO-0003");
+    // The unreadable row has no R: last whichever way.
+    EXPECT_EQ(window->filter()->index(5, ReviewTableModel::File).data().toString(), "damaged.sagline");
+
+    window->filter()->setVerdict(QStringLiteral("unreadable"));
+    EXPECT_EQ(window->filter()->rowCount(), 1);
+    window->filter()->setVerdict({});
+    window->filter()->setText(QStringLiteral("b. second"));
+    EXPECT_EQ(window->filter()->rowCount(), 2);
+    window->filter()->setText({});
+    window->filter()->setDateRange(QDate(2000, 1, 1), QDate(2001, 1, 1));
+    EXPECT_EQ(window->filter()->rowCount(), 0);
+    window->filter()->setDateRange({}, {});
+    EXPECT_EQ(window->filter()->rowCount(), 6);
+    window->setColumnVisible(ReviewTableModel::Instruments, true);
+    EXPECT_FALSE(window->table()->isColumnHidden(ReviewTableModel::Instruments));
+}
+
+TEST(ReviewWindow, OverlaySignOffExportAndScreenshot)
+{
+    TempFolder folder;
+    makeFolder(folder);
+    auto window = scannedWindow(folder);
+    window->table()->sortByColumn(ReviewTableModel::Unit, Qt::AscendingOrder);
+    window->table()->selectRow(0);
+    QTest::keyClick(window->table(), Qt::Key_Down, Qt::ShiftModifier);
+    QTest::keyClick(window->table(), Qt::Key_Down, Qt::ShiftModifier);
+    EXPECT_EQ(window->overlay()->legendEntries(), QStringList({"DEMO-0001", "DEMO-0002", "DEMO-0003"}));
+    EXPECT_EQ(window->overlay()->seriesCount(), 6); // readings and fitted line per session
+    EXPECT_NE(window->summaryText().indexOf(QStringLiteral("Selection: 3")), -1) << window->summaryText().toStdString();
+
+    const int row = window->filter()->mapToSource(window->filter()->index(proxyRowOf(*window, "DEMO-0002"), 0)).row();
+    EXPECT_EQ(window->signOff(row, {"Lab Lead", Verdict::Accepted, "consistent with the batch"}, true), QString());
+    EXPECT_EQ(window->model()->sessionRow(row).reviewState(), "accepted");
+    EXPECT_NE(window->detail()->historyText().indexOf(QStringLiteral("Lab Lead")), -1);
+    EXPECT_FALSE(window->signOff(row, {"", Verdict::Accepted, ""}, true).isEmpty()) << "a reviewer is required";
+
+    const QString csv = QString::fromStdString(folder.file("review.csv"));
+    EXPECT_EQ(window->exportCsv(csv), QString());
+    QFile csvFile(csv);
+    ASSERT_TRUE(csvFile.open(QIODevice::ReadOnly));
+    EXPECT_EQ(csvFile.readAll().count('\n'), 4); // header + the 3 selected sessions
+    const QString pdf = QString::fromStdString(folder.file("review.pdf"));
+    EXPECT_EQ(window->exportPdf(pdf), QString());
+    QFile pdfFile(pdf);
+    ASSERT_TRUE(pdfFile.open(QIODevice::ReadOnly));
+    EXPECT_TRUE(pdfFile.read(5).startsWith("%PDF-"));
+
+    window->show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+    QDir().mkpath(QStringLiteral("screenshots"));
+    EXPECT_TRUE(window->grab().save(QStringLiteral("screenshots/review-window.png")));
+    window->table()->clicked(window->filter()->index(proxyRowOf(*window, "DEMO-0002"), 0));
+    EXPECT_TRUE(window->detail()->grab().save(QStringLiteral("screenshots/review-detail.png")));
+}

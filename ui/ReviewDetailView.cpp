@@ -1,0 +1,151 @@
+#include "ReviewDetailView.h"
+
+#include "ReadingsTableModel.h"
+#include "ResultsPanel.h"
+#include "SessionStore.h"
+#include "UncertaintyFormat.h"
+
+#include <QHeaderView>
+#include <QLabel>
+#include <QScrollArea>
+#include <QSplitter>
+#include <QTableView>
+#include <QVBoxLayout>
+
+namespace sagline {
+
+namespace {
+
+QString text(const std::string &s) { return QString::fromStdString(s).toHtmlEscaped(); }
+
+QString withU(double value, const std::optional<double> &u, const char *unit)
+{
+    return QString::fromStdString(formatWithUncertainty(value, u.value_or(0.0), unit));
+}
+
+} // namespace
+
+ReviewDetailView::ReviewDetailView(QWidget *parent)
+    : QWidget(parent), m_heading(new QLabel), m_results(new ResultsPanel), m_readings(new ReadingsTableModel(this)),
+      m_readingsView(new QTableView), m_history(new QLabel)
+{
+    m_heading->setWordWrap(true);
+    m_heading->setTextFormat(Qt::RichText);
+    m_history->setWordWrap(true);
+    m_history->setTextFormat(Qt::RichText);
+    m_history->setAlignment(Qt::AlignTop | Qt::AlignLeft);
+    m_readingsView->setModel(m_readings);
+    m_readingsView->setEditTriggers(QAbstractItemView::NoEditTriggers);
+    m_readingsView->verticalHeader()->hide();
+    m_readingsView->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+
+    auto *historyScroll = new QScrollArea;
+    historyScroll->setWidget(m_history);
+    historyScroll->setWidgetResizable(true);
+    auto *left = new QWidget;
+    auto *leftLayout = new QVBoxLayout(left);
+    leftLayout->setContentsMargins(0, 0, 0, 0);
+    leftLayout->addWidget(m_results);
+    leftLayout->addWidget(historyScroll, 1);
+    auto *split = new QSplitter(Qt::Horizontal);
+    split->addWidget(left);
+    split->addWidget(m_readingsView);
+    split->setStretchFactor(1, 1);
+    split->setSizes({430, 640});
+    m_results->setMinimumWidth(400);
+    historyScroll->setMinimumHeight(140);
+    auto *layout = new QVBoxLayout(this);
+    layout->addWidget(m_heading);
+    layout->addWidget(split, 1);
+    showSession(nullptr);
+}
+
+void ReviewDetailView::showSession(const SessionRow *row)
+{
+    m_readings->clear();
+    if (!row) {
+        m_heading->setText(tr("Click a row of the table to see that session in full (read-only)."));
+        m_results->setLines({});
+        m_results->setPlaceholder(tr("No session selected."));
+        m_results->setVerdict(VerdictState::None, QString(), QString());
+        m_history->clear();
+        return;
+    }
+    m_heading->setText(tr("<b>%1</b> · %2 · operator %3 · %4<br><small>%5</small>")
+                           .arg(text(row->unitSerial), text(row->createdUtc), text(row->operatorName),
+                                row->instruments.empty() ? tr("readings typed in") : text(row->instruments), text(row->path)));
+    if (!row->opened) {
+        m_results->setLines({});
+        m_results->setPlaceholder(tr("This file cannot be opened: %1").arg(QString::fromStdString(row->problem)));
+        m_results->setVerdict(VerdictState::None, QString(), QString());
+        m_history->clear();
+        return;
+    }
+    const SessionFigures &f = row->figures;
+    QList<ResultLine> lines;
+    if (f.ok) {
+        lines.append({"series_resistance", tr("Series resistance R (secondary)"), withU(f.resistanceOhm, f.resistanceUOhm, "Ω"),
+                      f.windingTemperatureC ? tr("at %1 °C, k = 2").arg(*f.windingTemperatureC, 0, 'f', 1) : tr("k = 2")});
+        if (f.resistanceRefOhm)
+            lines.append({"reference_resistance", tr("R at %1 °C").arg(f.referenceTemperatureC),
+                          withU(*f.resistanceRefOhm, f.resistanceRefUOhm, "Ω"), tr("T_k = %1 °C").arg(f.temperatureConstantC)});
+        lines.append({"no_load_voltage", tr("No-load voltage V0"), withU(f.noLoadVoltageV, f.noLoadVoltageUV, "V"), tr("k = 2")});
+        if (f.regulationPercent)
+            lines.append({"regulation", tr("Regulation at rated current"), withU(*f.regulationPercent, f.regulationUPercent, "%"),
+                          f.regulationLimitPercent ? tr("limit %1 %").arg(*f.regulationLimitPercent, 0, 'g', 4) : QString()});
+        lines.append({"points", tr("Points used"), tr("%1 of %2").arg(row->pointsUsed).arg(row->readingCount), QString()});
+        m_results->setLines(lines);
+        const VerdictState state = !f.verdict ? VerdictState::None
+                                   : *f.verdict == ConformityOutcome::Pass ? VerdictState::Pass
+                                   : *f.verdict == ConformityOutcome::Fail ? VerdictState::Fail
+                                                                          : VerdictState::Undecided;
+        m_results->setVerdict(state, QString::fromStdString(f.verdictText()), QString::fromStdString(f.ruleName));
+    } else {
+        m_results->setLines({});
+        m_results->setPlaceholder(tr("No fit: %1").arg(QString::fromStdString(f.message)));
+        m_results->setVerdict(VerdictState::None, QString(), QString());
+    }
+
+    // Readings with residuals from the session's own fit (read-only, computed by core).
+    auto opened = SessionStore::openForReview(row->path);
+    if (opened.ok()) {
+        const auto readings = opened.value->readings();
+        const double a = row->fit.intercept, b = row->fit.slope;
+        if (row->fit.ok())
+            m_readings->setResidualFunction([a, b](double i, double v) { return v - (a + b * i); });
+        for (const Reading &reading : readings.value)
+            m_readings->append(reading);
+    }
+
+    QString history = tr("<b>Sign-off history</b><br>");
+    if (row->signOffs.empty())
+        history += tr("not reviewed yet<br>");
+    for (const SignOffRecord &s : row->signOffs)
+        history += tr("%1 · <b>%2</b> by %3%4<br>")
+                       .arg(text(s.timeUtc), text(toString(s.verdict)), text(s.reviewer),
+                            s.comment.empty() ? QString() : QStringLiteral(": ") + text(s.comment));
+    history += tr("<br><b>Safety stops</b><br>");
+    if (row->safetyStops.empty())
+        history += tr("none<br>");
+    for (const SafetyStopRecord &s : row->safetyStops)
+        history += tr("%1 · step %2 · %3: %4<br>").arg(text(s.timeUtc)).arg(s.step).arg(text(s.rule), text(s.message));
+    const SupervisionSummary &sup = row->supervision;
+    if (sup.labSheet) {
+        history += tr("<br><b>Lab sheet</b> %1 (fingerprint %2), load limit %3 % of rated current<br>")
+                       .arg(text(sup.labSheet->title), text(sup.labSheet->fingerprint))
+                       .arg(sup.labSheet->maxLoadFraction * 100.0, 0, 'g', 3);
+        history += sup.checklist && sup.checklist->complete() ? tr("Safety checklist ticked by %1<br>").arg(text(sup.checklist->student))
+                                                              : tr("<b>Safety checklist not complete</b><br>");
+        history += tr("Limit hits: %1<br>").arg(sup.limitHits.size());
+        for (const LimitHit &hit : sup.limitHits)
+            history += QStringLiteral("&nbsp;&nbsp;%1 · %2<br>").arg(text(hit.timeUtc), text(hit.message));
+    }
+    m_history->setText(history);
+}
+
+QString ReviewDetailView::historyText() const
+{
+    return m_history->text();
+}
+
+} // namespace sagline

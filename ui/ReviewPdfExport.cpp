@@ -1,0 +1,146 @@
+#include "ReviewPdfExport.h"
+
+#include "NumberFormat.h"
+#include "ReportCanvas.h"
+#include "ReportSections.h"
+#include "SessionSummary.h"
+#include "UncertaintyFormat.h"
+
+#include <QBuffer>
+#include <QFile>
+#include <QFileInfo>
+#include <QPainter>
+#include <QPdfWriter>
+
+namespace sagline {
+
+namespace {
+
+QString qs(const std::string &s) { return QString::fromStdString(s); }
+
+QString withU(bool ok, double value, const std::optional<double> &u, const char *unit)
+{
+    return ok ? qs(formatWithUncertainty(value, u.value_or(0.0), unit)) : QStringLiteral("—");
+}
+
+void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *> &rows, const BatchStatistics &stats,
+                     const ComparisonOptions &options, const ReportOptions &reportOptions)
+{
+    canvas.title(QObject::tr("Review of %n session(s)", "", static_cast<int>(rows.size())),
+                 QObject::tr("Produced %1 by %2").arg(reportOptions.generatedUtc, reportOptions.producedBy));
+    canvas.heading(QObject::tr("Batch statistics"));
+    const QString basis = stats.atReferenceTemperature
+                              ? QObject::tr("at %1 °C").arg(options.figures.referenceTemperatureC)
+                              : QObject::tr("as measured (a session has no winding temperature)");
+    auto ohm = [](const std::optional<double> &v) { return v ? qs(formatQuantity(*v, "Ω")) : QStringLiteral("—"); };
+    canvas.keyValues({{QObject::tr("Sessions"), QString::number(stats.sessions)},
+                      {QObject::tr("Unreadable"), QString::number(stats.unreadable)},
+                      {QObject::tr("R compared"), basis},
+                      {QObject::tr("Units in R statistics"), QString::number(stats.resistanceCount)},
+                      {QObject::tr("Mean R"), ohm(stats.meanOhm)},
+                      {QObject::tr("Standard deviation of R"), ohm(stats.sdOhm)},
+                      {QObject::tr("Median R"), ohm(stats.medianOhm)},
+                      {QObject::tr("MAD of R"), ohm(stats.madOhm)},
+                      {QObject::tr("Verdicts"), QObject::tr("pass %1, fail %2, cannot decide %3, n/a %4")
+                                                    .arg(stats.pass).arg(stats.fail).arg(stats.undecided).arg(stats.noVerdict)},
+                      {QObject::tr("Review"), QObject::tr("accepted %1, rejected %2, retest %3, not reviewed %4")
+                                                  .arg(stats.accepted).arg(stats.rejected).arg(stats.retest).arg(stats.notReviewed)}});
+    canvas.paragraph(QObject::tr("Far from the batch: %1.").arg(qs(stats.ruleNote)));
+    canvas.heading(QObject::tr("Sessions"));
+    QList<QStringList> table;
+    for (std::size_t i = 0; i < rows.size(); ++i) {
+        const SessionRow &row = *rows[i];
+        if (!row.opened) {
+            table.append({QFileInfo(qs(row.path)).fileName(), QObject::tr("cannot be opened: %1").arg(qs(row.problem)), "", "", "", "", ""});
+            continue;
+        }
+        const SessionFigures &f = row.figures;
+        const bool far = std::find(stats.farFromBatch.begin(), stats.farFromBatch.end(), i) != stats.farFromBatch.end();
+        table.append({qs(row.unitSerial), qs(row.createdUtc.substr(0, 10)), withU(f.ok, f.resistanceOhm, f.resistanceUOhm, "Ω"),
+                      withU(f.resistanceRefOhm.has_value(), f.resistanceRefOhm.value_or(0.0), f.resistanceRefUOhm, "Ω"),
+                      withU(f.regulationPercent.has_value(), f.regulationPercent.value_or(0.0), f.regulationUPercent, "%"),
+                      qs(f.verdictText()) + (far ? QObject::tr(" · far from batch") : QString()), qs(row.reviewState())});
+    }
+    canvas.table({{QObject::tr("Unit"), 0.15}, {QObject::tr("Date (UTC)"), 0.12},
+                  {QObject::tr("R ± U"), 0.16, Qt::AlignRight},
+                  {QObject::tr("R at %1 °C ± U").arg(options.figures.referenceTemperatureC), 0.16, Qt::AlignRight},
+                  {QObject::tr("Regulation ± U"), 0.15, Qt::AlignRight}, {QObject::tr("Verdict"), 0.14},
+                  {QObject::tr("Review"), 0.12}},
+                 table);
+    canvas.paragraph(QObject::tr("Uncertainties are expanded, k = 2. Each session's full report follows."), 8.0, false, true);
+}
+
+// Lays the whole document out; returns the number of pages, 0 if painting failed.
+int render(QPdfWriter &writer, const std::vector<const SessionRow *> &rows, const std::vector<SessionSummary> &summaries,
+           const ComparisonOptions &options, const ReportOptions &reportOptions, int totalPages)
+{
+    writer.setPageSize(QPageSize(reportOptions.pageSize));
+    writer.setPageMargins(QMarginsF(18, 18, 18, 16), QPageLayout::Millimeter);
+    writer.setResolution(600);
+    writer.setCreator(reportOptions.producedBy);
+    writer.setTitle(QObject::tr("Review of %n load-test session(s)", "", static_cast<int>(rows.size())));
+    QPainter painter;
+    if (!painter.begin(&writer))
+        return 0;
+    painter.setRenderHint(QPainter::Antialiasing);
+    ReportCanvas canvas(writer, painter, QObject::tr("Review · %1").arg(reportOptions.producedBy), totalPages);
+    const BatchStatistics stats = summarizeBatch(rows);
+    drawSummaryPage(canvas, rows, stats, options, reportOptions);
+    for (const SessionSummary &summary : summaries) {
+        canvas.newPage();
+        drawTitleBlock(canvas, summary, reportOptions);
+        drawResultsAndVerdict(canvas, summary);
+        drawCharts(canvas, summary);
+        drawNameplateAndPlan(canvas, summary);
+        drawReadingsTable(canvas, summary);
+        drawRecordsAndSignOff(canvas, summary);
+    }
+    canvas.finish();
+    const int pages = canvas.pageNumber();
+    return painter.end() ? pages : 0;
+}
+
+} // namespace
+
+QString writeReviewPdf(const std::vector<const SessionRow *> &rows, const ComparisonOptions &options,
+                       const QString &pdfPath, const ReportOptions &reportOptions)
+{
+    ReviewOptions review;
+    review.method = options.method;
+    review.rule = options.figures.rule;
+    review.regulationLimitPercent = options.figures.regulationLimitPercent;
+    review.referenceTemperatureC = options.figures.referenceTemperatureC;
+    std::vector<SessionSummary> summaries;
+    for (const SessionRow *row : rows) {
+        if (!row->opened)
+            continue;
+        auto summary = loadSessionSummary(row->path, review);
+        if (summary.ok())
+            summaries.push_back(std::move(summary.value));
+    }
+    QBuffer scratch;
+    scratch.open(QIODevice::WriteOnly);
+    int pages = 0;
+    {
+        QPdfWriter counting(&scratch);
+        pages = render(counting, rows, summaries, options, reportOptions, 0);
+    }
+    if (pages == 0)
+        return QObject::tr("cannot lay out the review PDF");
+    const QString partial = pdfPath + QStringLiteral(".partial");
+    {
+        QPdfWriter writer(partial);
+        if (render(writer, rows, summaries, options, reportOptions, pages) != pages) {
+            QFile::remove(partial);
+            return QObject::tr("%1: cannot write the PDF").arg(pdfPath);
+        }
+    }
+    QFile::remove(pdfPath);
+    if (!QFileInfo(partial).exists() || !QFile::rename(partial, pdfPath)) {
+        QFile::remove(partial);
+        return QObject::tr("%1: cannot write the PDF (folder missing or not writable?)").arg(pdfPath);
+    }
+    return {};
+}
+
+} // namespace sagline

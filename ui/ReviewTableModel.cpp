@@ -1,0 +1,235 @@
+#include "ReviewTableModel.h"
+
+#include "UncertaintyFormat.h"
+
+#include <QBrush>
+#include <QDate>
+#include <QFileInfo>
+#include <QFont>
+#include <QPalette>
+
+#include <algorithm>
+#include <cmath>
+
+namespace sagline {
+
+namespace {
+
+QString text(const std::string &s) { return QString::fromStdString(s); }
+
+QString withU(bool ok, double value, const std::optional<double> &expanded, const char *unit)
+{
+    if (!ok || !std::isfinite(value))
+        return QStringLiteral("—");
+    return text(formatWithUncertainty(value, expanded.value_or(0.0), unit));
+}
+
+QVariant number(bool ok, double value)
+{
+    return ok && std::isfinite(value) ? QVariant(value) : QVariant();
+}
+
+} // namespace
+
+ReviewTableModel::ReviewTableModel(QObject *parent) : QAbstractTableModel(parent) {}
+
+void ReviewTableModel::clear()
+{
+    beginResetModel();
+    m_rows.clear();
+    m_stats = {};
+    endResetModel();
+}
+
+void ReviewTableModel::appendRows(std::vector<SessionRow> rows)
+{
+    if (rows.empty())
+        return;
+    const int first = static_cast<int>(m_rows.size());
+    beginInsertRows({}, first, first + static_cast<int>(rows.size()) - 1);
+    for (auto &row : rows)
+        m_rows.push_back(std::move(row));
+    endInsertRows();
+    recomputeStatistics();
+}
+
+void ReviewTableModel::replaceRow(int row, SessionRow sessionRow)
+{
+    if (row < 0 || row >= rowCount())
+        return;
+    m_rows[static_cast<std::size_t>(row)] = std::move(sessionRow);
+    recomputeStatistics();
+    emit dataChanged(index(row, 0), index(row, ColumnCount - 1));
+}
+
+void ReviewTableModel::recomputeStatistics()
+{
+    m_stats = summarizeBatch(m_rows);
+    // The z column and the flag depend on every row.
+    if (!m_rows.empty())
+        emit dataChanged(index(0, RobustZ), index(rowCount() - 1, RobustZ));
+}
+
+bool ReviewTableModel::isFarFromBatch(int row) const
+{
+    return std::find(m_stats.farFromBatch.begin(), m_stats.farFromBatch.end(), static_cast<std::size_t>(row))
+           != m_stats.farFromBatch.end();
+}
+
+int ReviewTableModel::rowCount(const QModelIndex &parent) const
+{
+    return parent.isValid() ? 0 : static_cast<int>(m_rows.size());
+}
+
+int ReviewTableModel::columnCount(const QModelIndex &parent) const
+{
+    return parent.isValid() ? 0 : ColumnCount;
+}
+
+QVariant ReviewTableModel::headerData(int section, Qt::Orientation orientation, int role) const
+{
+    if (orientation != Qt::Horizontal)
+        return role == Qt::DisplayRole ? QVariant(section + 1) : QVariant();
+    if (role == Qt::ToolTipRole) {
+        switch (section) {
+        case Resistance: return tr("Series resistance referred to the secondary, at the measured winding temperature, ± U (k = 2)");
+        case ResistanceRef: return tr("Series resistance at the reference temperature, R_ref = R (T_k + T_ref)/(T_k + T_m), ± U (k = 2)");
+        case NoLoadVoltage: return tr("No-load voltage V0 from the fit, ± U (k = 2)");
+        case Regulation: return tr("Regulation at rated current, (V0 - V_fl)/V_fl × 100, ± U (k = 2)");
+        case RobustZ: return tr("Modified z-score 0.6745 (R - median)/MAD; above 3.5 in magnitude the unit is far from the batch (Iglewicz and Hoaglin 1993)");
+        case Points: return tr("Readings used by the fit / readings recorded");
+        default: return {};
+        }
+    }
+    if (role != Qt::DisplayRole)
+        return {};
+    switch (section) {
+    case File: return tr("File");
+    case Unit: return tr("Unit serial");
+    case Date: return tr("Date (UTC)");
+    case Operator: return tr("Operator");
+    case Instruments: return tr("Instruments");
+    case Points: return tr("Points");
+    case Resistance: return tr("R ± U");
+    case ResistanceRef: return tr("R at %1 °C ± U").arg(m_referenceC);
+    case NoLoadVoltage: return tr("V0 ± U");
+    case Regulation: return tr("Regulation ± U");
+    case Verdict: return tr("Verdict");
+    case Rule: return tr("Decision rule");
+    case SafetyStops: return tr("Safety stops");
+    case Review: return tr("Review");
+    case LabSheet: return tr("Lab sheet");
+    case LimitHits: return tr("Limit hits");
+    case RobustZ: return tr("Robust z");
+    default: return {};
+    }
+}
+
+QVariant ReviewTableModel::display(const SessionRow &row, int rowIndex, int column) const
+{
+    const SessionFigures &f = row.figures;
+    if (column == File)
+        return QFileInfo(text(row.path)).fileName();
+    if (!row.opened)
+        // The reason is long: it goes in the tooltip and the "Not compared" list, not in a column.
+        return column == Unit ? QVariant(tr("(unreadable)")) : column == Verdict ? QVariant(tr("cannot be opened")) : QVariant();
+    switch (column) {
+    case Unit: return text(row.unitSerial);
+    case Date: return text(row.createdUtc.substr(0, 10));
+    case Operator: return text(row.operatorName);
+    case Instruments: return row.instruments.empty() ? tr("typed in") : text(row.instruments);
+    case Points: return QStringLiteral("%1 / %2").arg(row.pointsUsed).arg(row.readingCount);
+    case Resistance: return withU(f.ok, f.resistanceOhm, f.resistanceUOhm, "Ω");
+    case ResistanceRef:
+        return f.resistanceRefOhm ? withU(true, *f.resistanceRefOhm, f.resistanceRefUOhm, "Ω") : tr("no temperature");
+    case NoLoadVoltage: return withU(f.ok, f.noLoadVoltageV, f.noLoadVoltageUV, "V");
+    case Regulation:
+        return f.regulationPercent ? withU(true, *f.regulationPercent, f.regulationUPercent, "%") : QStringLiteral("—");
+    case Verdict: return f.ok ? text(f.verdictText()) : text(f.message);
+    case Rule: return text(toString(f.rule));
+    case SafetyStops: return static_cast<int>(row.safetyStops.size());
+    case Review: {
+        if (row.signOffs.empty())
+            return tr("not reviewed");
+        const SignOffRecord &last = row.signOffs.back();
+        return tr("%1 by %2").arg(text(toString(last.verdict)), text(last.reviewer));
+    }
+    case LabSheet: return row.supervision.labSheet ? text(row.supervision.labSheet->title) : QString();
+    case LimitHits: return row.supervision.labSheet ? QVariant(static_cast<int>(row.supervision.limitHits.size())) : QVariant();
+    case RobustZ: {
+        const auto &z = m_stats.robustZ;
+        if (static_cast<std::size_t>(rowIndex) >= z.size() || !z[static_cast<std::size_t>(rowIndex)])
+            return QStringLiteral("—");
+        const QString value = QString::number(*z[static_cast<std::size_t>(rowIndex)], 'f', 2);
+        return isFarFromBatch(rowIndex) ? tr("%1  ▲ far from batch").arg(value) : value;
+    }
+    default: return {};
+    }
+}
+
+QVariant ReviewTableModel::sortValue(const SessionRow &row, int rowIndex, int column) const
+{
+    const SessionFigures &f = row.figures;
+    if (!row.opened && column != File)
+        return {}; // unreadable rows sort last, whichever the order
+    switch (column) {
+    case Points: return static_cast<qulonglong>(row.pointsUsed);
+    case Resistance: return number(row.opened && f.ok, f.resistanceOhm);
+    case ResistanceRef: return number(row.opened && f.resistanceRefOhm.has_value(), f.resistanceRefOhm.value_or(0.0));
+    case NoLoadVoltage: return number(row.opened && f.ok, f.noLoadVoltageV);
+    case Regulation: return number(row.opened && f.regulationPercent.has_value(), f.regulationPercent.value_or(0.0));
+    case SafetyStops: return static_cast<int>(row.safetyStops.size());
+    case LimitHits: return static_cast<int>(row.supervision.limitHits.size());
+    case RobustZ: {
+        const auto &z = m_stats.robustZ;
+        if (static_cast<std::size_t>(rowIndex) < z.size() && z[static_cast<std::size_t>(rowIndex)])
+            return *z[static_cast<std::size_t>(rowIndex)];
+        return {};
+    }
+    default: return display(row, rowIndex, column);
+    }
+}
+
+QVariant ReviewTableModel::data(const QModelIndex &index, int role) const
+{
+    if (!index.isValid() || index.row() >= rowCount())
+        return {};
+    const SessionRow &row = m_rows[static_cast<std::size_t>(index.row())];
+    switch (role) {
+    case Qt::DisplayRole: return display(row, index.row(), index.column());
+    case SortRole: return sortValue(row, index.row(), index.column());
+    case VerdictRole:
+        return !row.opened ? QStringLiteral("unreadable") : text(row.figures.verdictText());
+    case DateRole: return QDate::fromString(text(row.createdUtc.substr(0, 10)), Qt::ISODate);
+    case Qt::TextAlignmentRole: {
+        const int c = index.column();
+        const bool numeric = c == Points || c == Resistance || c == ResistanceRef || c == NoLoadVoltage
+                             || c == Regulation || c == SafetyStops || c == LimitHits || c == RobustZ;
+        return QVariant::fromValue(Qt::Alignment((numeric ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter));
+    }
+    case Qt::ToolTipRole:
+        if (!row.opened)
+            return text(row.path + ": " + row.problem);
+        if (!row.notice.empty())
+            return text(row.notice);
+        if (index.column() == File)
+            return text(row.path);
+        if (index.column() == Rule)
+            return text(row.figures.ruleName);
+        return {};
+    case Qt::FontRole:
+        if (index.column() == Verdict || (index.column() == RobustZ && isFarFromBatch(index.row()))) {
+            QFont font;
+            font.setBold(true);
+            return font;
+        }
+        return {};
+    case Qt::ForegroundRole:
+        if (!row.opened)
+            return QBrush(QPalette().color(QPalette::Disabled, QPalette::Text));
+        return {};
+    default: return {};
+    }
+}
+
+} // namespace sagline

@@ -1,0 +1,56 @@
+#include "SignOffDialog.h"
+
+#include <QComboBox>
+#include <QDialogButtonBox>
+#include <QFormLayout>
+#include <QLabel>
+#include <QLineEdit>
+#include <QPlainTextEdit>
+#include <QPushButton>
+#include <QVBoxLayout>
+
+namespace sagline {
+
+SignOffDialog::SignOffDialog(const QString &sessionName, const QString &reviewer, QWidget *parent)
+    : QDialog(parent), m_reviewer(new QLineEdit(reviewer)), m_verdict(new QComboBox), m_comment(new QPlainTextEdit),
+      m_problem(new QLabel)
+{
+    setWindowTitle(tr("Sign off %1").arg(sessionName));
+    m_verdict->addItem(tr("Accept"), static_cast<int>(Verdict::Accepted));
+    m_verdict->addItem(tr("Reject"), static_cast<int>(Verdict::Rejected));
+    m_verdict->addItem(tr("Repeat the test"), static_cast<int>(Verdict::Retest));
+    m_comment->setPlaceholderText(tr("Required when rejecting or asking for a repeat: say why."));
+    auto *form = new QFormLayout;
+    form->addRow(tr("Reviewer"), m_reviewer);
+    form->addRow(tr("Verdict"), m_verdict);
+    form->addRow(tr("Comment"), m_comment);
+    auto *note = new QLabel(tr("The sign-off is added to the session file as a new review record with the UTC time. "
+                               "Nothing else in the file changes; earlier sign-offs stay in its history."));
+    note->setWordWrap(true);
+    auto *buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel);
+    buttons->button(QDialogButtonBox::Ok)->setText(tr("Sign off…"));
+    connect(buttons, &QDialogButtonBox::accepted, this, &QDialog::accept);
+    connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
+    auto *layout = new QVBoxLayout(this);
+    layout->addLayout(form);
+    layout->addWidget(note);
+    layout->addWidget(m_problem);
+    layout->addWidget(buttons);
+    auto recheck = [this, buttons] {
+        const std::string problem = signOffRequestError(request());
+        m_problem->setText(QString::fromStdString(problem));
+        buttons->button(QDialogButtonBox::Ok)->setEnabled(problem.empty());
+    };
+    connect(m_reviewer, &QLineEdit::textChanged, this, recheck);
+    connect(m_comment, &QPlainTextEdit::textChanged, this, recheck);
+    connect(m_verdict, &QComboBox::currentIndexChanged, this, recheck);
+    recheck();
+}
+
+SignOffRequest SignOffDialog::request() const
+{
+    return {m_reviewer->text().trimmed().toStdString(), static_cast<Verdict>(m_verdict->currentData().toInt()),
+            m_comment->toPlainText().trimmed().toStdString()};
+}
+
+} // namespace sagline
