@@ -1,5 +1,6 @@
 #include "ChartLegend.h"
 
+#include <QGridLayout>
 #include <QHBoxLayout>
 #include <QLabel>
 #include <QPainter>
@@ -9,19 +10,28 @@ namespace sagline {
 namespace {
 constexpr int iconWidth = 28;
 constexpr int iconHeight = 14;
+constexpr int entriesPerRow = 3;
 } // namespace
 
-ChartLegend::ChartLegend(QWidget *parent) : QWidget(parent), m_layout(new QHBoxLayout(this))
+ChartLegend::ChartLegend(QWidget *parent) : QWidget(parent), m_layout(new QGridLayout(this))
 {
     m_layout->setContentsMargins(8, 0, 8, 2);
-    m_layout->setSpacing(14);
-    m_layout->addStretch(1);
+    m_layout->setHorizontalSpacing(14);
+    m_layout->setVerticalSpacing(2);
+    setAutoFillBackground(true);
+}
+
+void ChartLegend::setColours(const QColor &background, const QColor &text)
+{
+    QPalette p = palette();
+    p.setColor(QPalette::Window, background);
+    p.setColor(QPalette::WindowText, text);
+    setPalette(p);
 }
 
 void ChartLegend::clear()
 {
-    while (m_layout->count() > 1) {
-        QLayoutItem *item = m_layout->takeAt(0);
+    while (QLayoutItem *item = m_layout->takeAt(0)) {
         delete item->widget();
         delete item;
     }
@@ -37,8 +47,11 @@ void ChartLegend::addEntry(const QPixmap &icon, const QString &text)
     auto *iconLabel = new QLabel;
     iconLabel->setPixmap(icon);
     row->addWidget(iconLabel);
-    row->addWidget(new QLabel(text));
-    m_layout->insertWidget(m_layout->count() - 1, entry);
+    auto *label = new QLabel(text);
+    row->addWidget(label);
+    row->addStretch(1);
+    const auto index = static_cast<int>(m_entries.size());
+    m_layout->addWidget(entry, index / entriesPerRow, index % entriesPerRow);
     m_entries << text;
 }
 

@@ -1,4 +1,4 @@
-// A legend row under a chart, drawn by us so each entry shows exactly the marker, line style
+// A legend under a chart (three entries a row, so it never forces the chart wider), drawn by us so each entry shows exactly the marker, line style
 // or fill its series uses (Qt Charts' own legend cannot show a light marker on a pen-less
 // series).
 #pragma once
@@ -8,7 +8,7 @@
 #include <QPen>
 #include <QWidget>
 
-class QHBoxLayout;
+class QGridLayout;
 
 namespace sagline {
 
@@ -17,6 +17,7 @@ class ChartLegend : public QWidget {
 public:
     explicit ChartLegend(QWidget *parent = nullptr);
     void clear();
+    void setColours(const QColor &background, const QColor &text);
     void addMarker(MarkerShape shape, const QColor &colour, const QString &text);
     void addLine(const QPen &pen, const QString &text);
     void addFill(const QBrush &brush, const QPen &edge, const QString &text);
@@ -24,7 +25,7 @@ public:
 
 private:
     void addEntry(const QPixmap &icon, const QString &text);
-    QHBoxLayout *m_layout;
+    QGridLayout *m_layout;
     QStringList m_entries;
 };
 

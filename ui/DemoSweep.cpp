@@ -50,7 +50,7 @@ QPalette darkPalette()
 
 } // namespace
 
-DemoResult runTypedDemoSweep(MainWindow &window, const QString &operatorName, const QString &unitSerial)
+DemoResult runTypedDemoSweep(MainWindow &window, int leaveOut, const QString &operatorName, const QString &unitSerial)
 {
     DemoResult result;
     SessionDetails details = window.setupForm()->sessionDetails();
@@ -78,6 +78,8 @@ DemoResult runTypedDemoSweep(MainWindow &window, const QString &operatorName, co
     }
     std::size_t k = 0;
     for (const auto &step : steps) {
+        if (static_cast<int>(k) + leaveOut >= static_cast<int>(steps.size()))
+            break;
         const double voltage = v0 - r * step.currentA + demoNoiseV[k % std::size(demoNoiseV)];
         window.nextStep()->currentField()->setText(QString::number(step.currentA, 'f', 4) + QStringLiteral(" A"));
         window.nextStep()->voltageField()->setText(QString::number(voltage, 'f', 3) + QStringLiteral(" V"));

@@ -16,7 +16,9 @@ struct DemoResult {
     int points = 0;
 };
 
-DemoResult runTypedDemoSweep(MainWindow &window, const QString &operatorName = QStringLiteral("Demo operator"),
+// `leaveOut` last steps are not recorded, so the window shows a sweep in progress.
+DemoResult runTypedDemoSweep(MainWindow &window, int leaveOut = 0,
+                             const QString &operatorName = QStringLiteral("Demo operator"),
                              const QString &unitSerial = QStringLiteral("DEMO-0001"));
 
 // Saves the main window as PNG (light, and dark when `dark`) into `folder`; returns the paths.

@@ -85,8 +85,8 @@ void MainWindow::createLayout()
     resultsScroll->setWidgetResizable(true);
     m_rightSplitter->addWidget(resultsScroll);
     m_rightSplitter->addWidget(m_readingsView);
-    m_rightSplitter->setStretchFactor(0, 1);
-    m_rightSplitter->setStretchFactor(1, 1);
+    m_rightSplitter->setStretchFactor(0, 3);
+    m_rightSplitter->setStretchFactor(1, 2);
 
     m_mainSplitter->addWidget(m_leftTabs);
     m_mainSplitter->addWidget(m_chartSplitter);
@@ -95,8 +95,8 @@ void MainWindow::createLayout()
     m_mainSplitter->setStretchFactor(1, 4);
     m_mainSplitter->setStretchFactor(2, 3);
     m_mainSplitter->setChildrenCollapsible(false);
-    m_leftTabs->setMinimumWidth(440);
-    m_rightSplitter->setMinimumWidth(420);
+    m_leftTabs->setMinimumWidth(400);
+    m_rightSplitter->setMinimumWidth(380);
     m_mainSplitter->setSizes({460, 760, 480}); // replaced by the saved layout, if any
 
     auto *central = new QWidget;
@@ -107,8 +107,9 @@ void MainWindow::createLayout()
     layout->addWidget(m_mainSplitter, 1);
     setCentralWidget(central);
 
-    statusBar()->addWidget(m_statusSource);
-    statusBar()->addWidget(m_statusPoints);
+    // Permanent widgets sit on the right; messages use the left part and never cover them.
+    statusBar()->addPermanentWidget(m_statusPoints);
+    statusBar()->addPermanentWidget(m_statusSource);
     statusBar()->addPermanentWidget(m_statusSession);
     m_nextStep->setInstruction(tr("Complete the setup, then accept the plan"),
                                tr("The plan tab shows each load step, the recommended fuse and the limits."));

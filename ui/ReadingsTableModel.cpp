@@ -84,8 +84,9 @@ QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
         const qsizetype t = full.indexOf(QLatin1Char('T'));
         return t >= 0 ? full.mid(t + 1, 8) : full;
     }
-    case Current: return formatQuantity(r.currentA, Unit::Ampere, 5);
-    case Voltage: return formatQuantity(r.voltageV, Unit::Volt, 5);
+    // Fixed decimals so the column lines up (mA and mV resolution, as bench meters show).
+    case Current: return formatFixed(r.currentA, 4, Unit::Ampere);
+    case Voltage: return formatFixed(r.voltageV, 3, Unit::Volt);
     case Residual: {
         if (!m_residual)
             return QStringLiteral("—");

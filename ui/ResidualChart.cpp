@@ -38,7 +38,7 @@ ResidualChart::ResidualChart(QWidget *parent)
     }
     m_view->setChart(m_chart);
     m_view->setRenderHint(QPainter::Antialiasing);
-    m_view->setMinimumSize(420, 150);
+    m_view->setMinimumSize(400, 150);
     m_view->setFocusPolicy(Qt::NoFocus);
     m_view->setAccessibleName(tr("Residuals chart"));
     auto *layout = new QVBoxLayout(this);
@@ -58,6 +58,7 @@ void ResidualChart::applyColours(bool dark)
     const auto &c = m_colours;
     m_chart->setBackgroundBrush(c.background);
     m_view->setBackgroundBrush(c.background);
+    m_legend->setColours(c.background, c.text);
     QFont labelFont = font();
     labelFont.setPointSizeF(labelFont.pointSizeF() * 1.1);
     QFont titleFont = labelFont;

@@ -29,7 +29,7 @@ ResultsPanel::ResultsPanel(QWidget *parent)
     layout->addWidget(m_rule);
     layout->addWidget(m_placeholder);
     m_grid->setHorizontalSpacing(12);
-    m_grid->setVerticalSpacing(4);
+    m_grid->setVerticalSpacing(6);
     m_grid->setColumnStretch(0, 1);
     layout->addLayout(m_grid);
     layout->addStretch(1);
@@ -43,10 +43,13 @@ void ResultsPanel::setLines(const QList<ResultLine> &lines)
         keys << line.key;
     if (keys != m_keys) {
         // The set of lines changed: rebuild the grid (rare; values change on every point).
-        while (QLayoutItem *item = m_grid->takeAt(0)) {
-            delete item->widget();
-            delete item;
+        for (const Row &old : std::as_const(m_rows)) {
+            delete old.label;
+            delete old.value;
+            delete old.note;
         }
+        while (QLayoutItem *item = m_grid->takeAt(0))
+            delete item; // the nested label layouts
         m_rows.clear();
         QFont valueFont = font();
         valueFont.setPointSizeF(valueFont.pointSizeF() * 1.25);
@@ -65,11 +68,14 @@ void ResultsPanel::setLines(const QList<ResultLine> &lines)
             widgets.value->setTextInteractionFlags(Qt::TextSelectableByMouse);
             widgets.value->setAlignment(Qt::AlignRight | Qt::AlignVCenter);
             // Label with its note beneath on the left, the value large on the right.
-            m_grid->addWidget(widgets.label, row, 0);
-            m_grid->addWidget(widgets.value, row, 1, 2, 1);
-            m_grid->addWidget(widgets.note, row + 1, 0);
+            auto *labels = new QVBoxLayout;
+            labels->setSpacing(0);
+            labels->addWidget(widgets.label);
+            labels->addWidget(widgets.note);
+            m_grid->addLayout(labels, row, 0);
+            m_grid->addWidget(widgets.value, row, 1);
             m_rows.append(widgets);
-            row += 2;
+            ++row;
         }
         m_keys = keys;
     }

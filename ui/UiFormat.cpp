@@ -35,6 +35,13 @@ QString formatNumber(double value, int significantDigits)
     return QString::number(value, 'f', decimalsFor(value, significantDigits));
 }
 
+QString formatFixed(double value, int decimals, Unit unit)
+{
+    if (!std::isfinite(value))
+        return QStringLiteral("—");
+    return withUnit(QString::number(value, 'f', decimals), unit);
+}
+
 QString formatQuantity(double value, Unit unit, int significantDigits)
 {
     if (!std::isfinite(value))

@@ -15,6 +15,8 @@ QString formatQuantity(double value, Unit unit, int significantDigits = 4);
 QString formatNumber(double value, int significantDigits = 4);
 // "1.952 ± 0.023 Ω": the uncertainty to two significant digits, the value to match.
 QString formatWithUncertainty(double value, double uncertainty, Unit unit);
+// A fixed count of decimals with the unit ("1.2500 A"), for aligned table columns.
+QString formatFixed(double value, int decimals, Unit unit);
 // The unit symbol as a QString ("Ω", "V", ...).
 QString unitText(Unit unit);
 

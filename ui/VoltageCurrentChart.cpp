@@ -74,7 +74,7 @@ VoltageCurrentChart::VoltageCurrentChart(QWidget *parent)
 
     m_view->setChart(m_chart); // the view owns the chart
     m_view->setRenderHint(QPainter::Antialiasing);
-    m_view->setMinimumSize(420, 260);
+    m_view->setMinimumSize(400, 260);
     m_view->setFocusPolicy(Qt::NoFocus);
     m_view->setAccessibleName(tr("Voltage against current chart"));
     auto *layout = new QVBoxLayout(this);
@@ -105,6 +105,7 @@ void VoltageCurrentChart::applyColours(bool dark)
     m_chart->setBackgroundBrush(c.background);
     m_chart->setPlotAreaBackgroundVisible(false);
     m_view->setBackgroundBrush(c.background);
+    m_legend->setColours(c.background, c.text);
     QFont labelFont = font();
     labelFont.setPointSizeF(labelFont.pointSizeF() * 1.1);
     QFont titleFont = labelFont;
@@ -146,7 +147,7 @@ void VoltageCurrentChart::rebuildLegend()
     m_legend->addMarker(MarkerShape::HollowSquare, c.excluded, tr("excluded"));
     m_legend->addLine(QPen(c.fitLine, 2), tr("fitted line"));
     m_legend->addFill(c.band, Qt::NoPen, tr("95 % confidence band"));
-    m_legend->addMarker(MarkerShape::FilledDiamond, c.predicted, tr("next step expected, 95 % interval"));
+    m_legend->addMarker(MarkerShape::FilledDiamond, c.predicted, tr("next step, 95 % interval"));
     if (m_limits.ratedCurrentA > 0.0) {
         m_legend->addLine(QPen(c.ratedCurrent, 2, Qt::DashLine),
                           tr("rated current %1").arg(formatQuantity(m_limits.ratedCurrentA, Unit::Ampere, 3)));

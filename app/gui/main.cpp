@@ -77,7 +77,7 @@ int main(int argc, char **argv)
             window.setSessionFolder(parser.value(screenshot) + QStringLiteral("/sessions"));
         window.resize(1600, 1000);
         window.show();
-        const auto result = sagline::runTypedDemoSweep(window);
+        const auto result = sagline::runTypedDemoSweep(window, 2); // a sweep in progress
         QTextStream out(stdout);
         if (!result.ok) {
             QTextStream(stderr) << "sagline: demo sweep failed: " << result.message << '\n';
