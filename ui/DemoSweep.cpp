@@ -59,6 +59,9 @@ DemoResult runTypedDemoSweep(MainWindow &window, int leaveOut, const QString &op
     if (details.ambientTemperature.isEmpty())
         details.ambientTemperature = QStringLiteral("23 °C");
     window.setupForm()->setSessionDetails(details);
+    if (auto *reference = window.setupForm()->quantityField(QStringLiteral("verdict.reference_temperature_c"));
+        reference->isBlank())
+        reference->setText(QStringLiteral("75 °C"));
     SweepWorkspace *workspace = window.workspace();
     const auto &plan = workspace->plan();
     if (!plan) {

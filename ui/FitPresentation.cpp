@@ -1,6 +1,9 @@
 #include "FitPresentation.h"
 
+#include "ConformityDecision.h"
+#include "ResultAnalysis.h"
 #include "UiFormat.h"
+#include "UncertaintyFormat.h"
 
 #include <cmath>
 
@@ -8,60 +11,172 @@ namespace sagline {
 
 namespace {
 
-// Expanded uncertainty with coverage factor k = 2 (GUM, JCGM 100:2008, 6.2.1 and 6.3.3).
-constexpr double coverageFactor = 2.0;
+QString withU(const UncertainValue &value, const char *unit)
+{
+    return QString::fromStdString(formatWithUncertainty(value.value, value.expandedUncertainty.value_or(0.0), unit));
+}
+
+QString uNote(const UncertainValue &value, double k)
+{
+    return value.expandedUncertainty ? QObject::tr("± U, k = %1").arg(k) : QObject::tr("U needs 3 points");
+}
+
+// A typed value in `unit`, or nothing when blank; `error` gets the rule when unreadable.
+std::optional<double> typed(const QString &text, Unit unit, const QString &field, QStringList &errors)
+{
+    if (text.trimmed().isEmpty())
+        return std::nullopt;
+    const auto parsed = parseQuantity(text.toStdString(), unit);
+    if (!parsed.ok) {
+        errors << field + QStringLiteral(": ") + QString::fromStdString(parsed.error);
+        return std::nullopt;
+    }
+    return parsed.value;
+}
+
+void addBatchLines(const FitSummary &batch, std::size_t n, QList<ResultLine> &lines)
+{
+    if (!batch.ok() || batch.n != n)
+        return; // the batch fit lags on very large sweeps; its lines return when it catches up
+    if (batch.curvatureP) {
+        const bool bends = *batch.curvatureP < 0.05;
+        lines.append({QStringLiteral("curvature"), QObject::tr("Curvature check"),
+                      bends ? QObject::tr("line bends") : QObject::tr("straight"),
+                      QObject::tr("p = %1 for a quadratic term%2")
+                          .arg(formatNumber(*batch.curvatureP, 2))
+                          .arg(bends ? QObject::tr(": core saturation or winding heating?") : QString()),
+                      bends});
+    }
+    lines.append({QStringLiteral("outliers"), QObject::tr("Outliers flagged"), QString::number(batch.outlierRows.size()),
+                  QObject::tr("|studentized residual| > 3; excluded only with a reason"), !batch.outlierRows.empty()});
+}
 
 } // namespace
 
-QList<ResultLine> resultLines(const LineFit &live, const FitSummary &summary, const Plan *plan)
+FitSummary liveFitSummary(const LineFit &live)
 {
-    QList<ResultLine> lines;
-    const LineFitResult fit = live.result();
+    const LineFitResult r = live.result();
+    FitSummary summary;
+    summary.status = r.status;
+    summary.message = r.message;
+    summary.method = FitMethod::Ols;
+    summary.n = r.n;
+    summary.degreesOfFreedom = r.degreesOfFreedom;
+    summary.slope = r.slope;
+    summary.intercept = r.intercept;
+    summary.slopeSe = r.slopeSe;
+    summary.interceptSe = r.interceptSe;
+    summary.covariance = r.covariance;
+    summary.residualSdV = r.residualSd;
+    summary.rSquared = r.rSquared;
+    return summary;
+}
+
+ResultsView resultsView(const ResultsInputs &in)
+{
+    ResultsView view;
+    const LineFitResult fit = in.live->result();
     if (!fit.ok()) {
-        lines.append({QStringLiteral("status"), QObject::tr("Fit"), QString::fromStdString(fit.message),
-                      QObject::tr("needs two points at different currents"), true});
-        return lines;
+        view.lines.append({QStringLiteral("status"), QObject::tr("Fit"), QString::fromStdString(fit.message),
+                           QObject::tr("needs two points at different currents"), true});
+        return view;
     }
-    const auto expanded = [](const std::optional<double> &se) { return se ? coverageFactor * *se : 0.0; };
-    lines.append({QStringLiteral("series_resistance"), QObject::tr("Series resistance R (secondary)"),
-                  formatWithUncertainty(fit.seriesResistanceOhm(), expanded(fit.slopeSe), Unit::Ohm),
-                  fit.slopeSe ? QObject::tr("± U, k = 2") : QObject::tr("U needs 3 points")});
-    if (plan) {
-        lines.append({QStringLiteral("series_resistance_planned"), QObject::tr("R expected from nameplate"),
-                      formatQuantity(plan->seriesResistanceOhm, Unit::Ohm), QObject::tr("planner's estimate")});
-    }
-    lines.append({QStringLiteral("no_load_voltage"), QObject::tr("No-load voltage V0"),
-                  formatWithUncertainty(fit.noLoadVoltageV(), expanded(fit.interceptSe), Unit::Volt),
-                  QObject::tr("± U, k = 2")});
-    if (plan && plan->ratedSecondaryCurrentA > 0.0) {
-        const LinePrediction full = live.predict(plan->ratedSecondaryCurrentA);
+    QStringList problems;
+    const FitSummary summary = liveFitSummary(*in.live);
+    AnalysisInput input;
+    if (in.setup)
+        input = analysisInputFor(in.setup->nameplate);
+    if (in.verdict.constant)
+        input.temperatureConstant = *in.verdict.constant;
+    input.referenceTemperatureC = typed(in.verdict.referenceTemperature, Unit::Celsius,
+                                        QStringLiteral("verdict.reference_temperature_c"), problems);
+    auto winding = typed(in.details.windingTemperature, Unit::Celsius, QStringLiteral("session.winding_temperature_c"), problems);
+    if (!winding)
+        winding = typed(in.details.ambientTemperature, Unit::Celsius, QStringLiteral("session.ambient_temperature_c"), problems);
+    input.windingTemperatureC = winding;
+    const double k = input.coverageFactor;
+    const AnalysisResult a = in.setup ? analyseFit(summary, input) : AnalysisResult{};
+
+    auto &lines = view.lines;
+    if (in.setup && a.ok()) {
+        lines.append({QStringLiteral("series_resistance"), QObject::tr("Series resistance R (secondary)"),
+                      withU(a.seriesResistanceOhm, "Ω"), uNote(a.seriesResistanceOhm, k)});
+        if (a.referenceResistanceOhm && a.temperatureCorrection)
+            lines.append({QStringLiteral("reference_resistance"),
+                          QObject::tr("R at %1").arg(formatQuantity(*input.referenceTemperatureC, Unit::Celsius, 3)),
+                          withU(*a.referenceResistanceOhm, "Ω"),
+                          QString::fromStdString(describe(input.temperatureConstant))});
+        else
+            lines.append({QStringLiteral("reference_resistance"), QObject::tr("R at reference temperature"), QObject::tr("—"),
+                          QObject::tr("give the winding (or ambient) and reference temperatures")});
+        if (a.primaryResistanceOhm)
+            lines.append({QStringLiteral("primary_resistance"), QObject::tr("R referred to the primary"),
+                          withU(*a.primaryResistanceOhm, "Ω"), QObject::tr("× turns ratio²")});
+        lines.append({QStringLiteral("no_load_voltage"), QObject::tr("No-load voltage V0"), withU(a.noLoadVoltageV, "V"),
+                      uNote(a.noLoadVoltageV, k)});
         lines.append({QStringLiteral("full_load_voltage"), QObject::tr("Voltage at rated current"),
-                      formatWithUncertainty(full.value, full.standardError ? coverageFactor * *full.standardError : 0.0, Unit::Volt),
-                      QObject::tr("at %1").arg(formatQuantity(plan->ratedSecondaryCurrentA, Unit::Ampere, 3))});
+                      withU(a.fullLoadVoltageV, "V"),
+                      QObject::tr("at %1").arg(formatQuantity(input.ratedCurrentA, Unit::Ampere, 3))});
+        lines.append({QStringLiteral("regulation"), QObject::tr("Regulation"), withU(a.regulationPercent, "%"),
+                      QObject::tr("%1 base; nameplate %2")
+                          .arg(QString::fromStdString(toString(a.regulationBase)))
+                          .arg(nameplateRegulationPercent(in.setup->nameplate)
+                                   ? formatQuantity(*nameplateRegulationPercent(in.setup->nameplate), Unit::Percent, 3)
+                                   : QObject::tr("not given"))});
+        lines.append({QStringLiteral("copper_loss"), QObject::tr("Copper loss at rated current"), withU(a.copperLossW, "W"),
+                      QObject::tr("I² R")});
+    } else {
+        // No nameplate to analyse against: the fit alone.
+        lines.append({QStringLiteral("series_resistance"), QObject::tr("Series resistance R (secondary)"),
+                      QString::fromStdString(formatWithUncertainty(fit.seriesResistanceOhm(), k * fit.slopeSe.value_or(0.0), "Ω")),
+                      QObject::tr("± U, k = %1").arg(k)});
+        lines.append({QStringLiteral("no_load_voltage"), QObject::tr("No-load voltage V0"),
+                      QString::fromStdString(formatWithUncertainty(fit.noLoadVoltageV(), k * fit.interceptSe.value_or(0.0), "V")),
+                      QObject::tr("± U, k = %1").arg(k)});
+        for (const auto &error : a.errors)
+            problems << QString::fromStdString(error.message());
     }
+    if (in.plan)
+        lines.append({QStringLiteral("series_resistance_planned"), QObject::tr("R expected from the nameplate"),
+                      formatQuantity(in.plan->seriesResistanceOhm, Unit::Ohm), QObject::tr("planner's estimate")});
     if (fit.residualSd)
         lines.append({QStringLiteral("residual_sd"), QObject::tr("Residual SD"),
-                      formatQuantity(*fit.residualSd * 1000.0, Unit::None, 3) + QStringLiteral(" mV"), QString()});
+                      QString::fromStdString(formatWithUncertainty(*fit.residualSd, 0.0, "V")), QObject::tr("scatter about the line")});
     if (fit.rSquared)
         lines.append({QStringLiteral("r_squared"), QObject::tr("R²"), QString::number(*fit.rSquared, 'f', 6), QString()});
     lines.append({QStringLiteral("points"), QObject::tr("Points in the fit"), QString::number(fit.n),
                   QObject::tr("every recorded point not excluded")});
-    if (summary.ok() && summary.n == fit.n) {
-        if (summary.curvatureP) {
-            const bool bends = *summary.curvatureP < 0.05;
-            lines.append({QStringLiteral("curvature"), QObject::tr("Curvature check"),
-                          bends ? QObject::tr("line bends") : QObject::tr("straight"),
-                          QObject::tr("p = %1 for a quadratic term%2")
-                              .arg(formatNumber(*summary.curvatureP, 2))
-                              .arg(bends ? QObject::tr(": saturation or heating?") : QString()),
-                          bends});
+    if (in.batch)
+        addBatchLines(*in.batch, fit.n, lines);
+
+    // The verdict: measured regulation against the limit, by the chosen ILAC-G8 rule.
+    if (in.setup && a.ok()) {
+        auto limit = typed(in.verdict.regulationLimit, Unit::Percent, QStringLiteral("verdict.regulation_limit_percent"), problems);
+        if (!limit)
+            limit = nameplateRegulationPercent(in.setup->nameplate);
+        if (limit && a.regulationPercent.expandedUncertainty) {
+            const ConformityDecision d = decideAgainstUpperLimit(a.regulationPercent.value, *a.regulationPercent.expandedUncertainty,
+                                                                 *limit, in.verdict.rule);
+            if (d.ok) {
+                view.state = d.outcome == ConformityOutcome::Pass   ? VerdictState::Pass
+                             : d.outcome == ConformityOutcome::Fail ? VerdictState::Fail
+                                                                    : VerdictState::Undecided;
+                const QString word = d.outcome == ConformityOutcome::Pass   ? QObject::tr("PASS")
+                                     : d.outcome == ConformityOutcome::Fail ? QObject::tr("FAIL")
+                                                                            : QObject::tr("CANNOT DECIDE");
+                view.verdictText = QObject::tr("%1: regulation %2 against a limit of %3")
+                                       .arg(word, withU(a.regulationPercent, "%"), formatQuantity(*limit, Unit::Percent, 3));
+                view.verdictRule = QString::fromStdString(d.ruleName) + QStringLiteral(". ")
+                                   + QString::fromStdString(d.explanation);
+            } else {
+                problems << QStringLiteral("verdict: ") + QString::fromStdString(d.error);
+            }
         }
-        if (!summary.outlierRows.empty())
-            lines.append({QStringLiteral("outliers"), QObject::tr("Outliers flagged"),
-                          QString::number(summary.outlierRows.size()),
-                          QObject::tr("|studentized residual| > 3; exclude only with a reason"), true});
     }
-    return lines;
+    for (const QString &problem : std::as_const(problems))
+        lines.append({QStringLiteral("problem"), QObject::tr("Cannot use"), problem.section(QLatin1Char(':'), 0, 0),
+                      problem.mid(problem.indexOf(QLatin1Char(':')) + 1).trimmed(), true});
+    return view;
 }
 
 FitOverlay fitOverlay(const LineFit &live, const std::vector<double> &grid, std::optional<double> nextCurrentA)

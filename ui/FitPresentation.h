@@ -1,21 +1,40 @@
-// Turns core's results into what the panels show: result lines with units and uncertainties,
-// the chart's fit overlay (line and band evaluated by core on the chart's grid), and the
-// next-step expectation. Every number is computed by core; this file only chooses wording
-// and layout.
+// Turns core's results into what the panels show: result lines with units and expanded
+// uncertainties, the verdict with its decision rule, the chart's fit overlay (line and band
+// evaluated by core on the chart's grid) and the chart's limits from the plan. Every number is
+// computed by core (LineFit, FitSummary, analyseFit, decideAgainstUpperLimit); this file only
+// chooses what to show and how to word it.
 #pragma once
 
 #include "FitSummary.h"
 #include "LineFit.h"
 #include "Planner.h"
 #include "ResultsPanel.h"
+#include "SetupForm.h"
 #include "VoltageCurrentChart.h"
 
 #include <QList>
 
 namespace sagline {
 
-// The lines of the results panel from the live fit and the latest full summary.
-QList<ResultLine> resultLines(const LineFit &live, const FitSummary &summary, const Plan *plan);
+struct ResultsInputs {
+    const LineFit *live = nullptr;      // every point not excluded, updated per point
+    const FitSummary *batch = nullptr;  // residuals, outliers, curvature (may lag on huge sweeps)
+    const Setup *setup = nullptr;
+    const Plan *plan = nullptr;
+    VerdictSettings verdict;
+    SessionDetails details;             // temperatures as typed
+};
+
+struct ResultsView {
+    QList<ResultLine> lines;
+    VerdictState state = VerdictState::None;
+    QString verdictText;
+    QString verdictRule;
+};
+
+ResultsView resultsView(const ResultsInputs &inputs);
+// The live fit as a FitSummary (the O(1) statistics only), so analyseFit can run on every point.
+FitSummary liveFitSummary(const LineFit &live);
 // The fitted line and its 95 % confidence band on `grid`, and the prediction at the next step.
 FitOverlay fitOverlay(const LineFit &live, const std::vector<double> &grid, std::optional<double> nextCurrentA);
 // Chart limits from the plan (the unsafe region, rated lines, expected voltage span).

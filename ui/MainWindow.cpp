@@ -98,6 +98,7 @@ void MainWindow::createLayout()
     m_leftTabs->setMinimumWidth(400);
     m_rightSplitter->setMinimumWidth(380);
     m_mainSplitter->setSizes({460, 760, 480}); // replaced by the saved layout, if any
+    m_rightSplitter->setSizes({640, 260});
 
     auto *central = new QWidget;
     auto *layout = new QVBoxLayout(central);
@@ -118,6 +119,7 @@ void MainWindow::createLayout()
 void MainWindow::wireWorkspace()
 {
     connect(m_setupForm, &SetupForm::changed, this, &MainWindow::handleSetupChanged);
+    connect(m_setupForm, &SetupForm::verdictChanged, this, &MainWindow::refreshFitViews);
     connect(m_workspace, &SweepWorkspace::planChanged, this, &MainWindow::handlePlanChanged);
     connect(m_planPanel, &PlanPanel::acceptRequested, this, &MainWindow::handleAccept);
     connect(m_nextStep, &NextStepStrip::recordRequested, this, &MainWindow::handleRecord);
@@ -239,8 +241,16 @@ void MainWindow::refreshFitViews()
                                 : ReadingsTableModel::ResidualFunction();
     m_residuals->setResidualFunction(residual, result.residualSd.value_or(0.0));
     m_readingsModel->setResidualFunction(residual);
-    const auto &plan = m_workspace->plan();
-    m_results->setLines(resultLines(fit, m_workspace->summary(), plan ? &*plan : nullptr));
+    ResultsInputs inputs;
+    inputs.live = &fit;
+    inputs.batch = &m_workspace->summary();
+    inputs.setup = m_workspace->setup() ? &*m_workspace->setup() : nullptr;
+    inputs.plan = m_workspace->plan() ? &*m_workspace->plan() : nullptr;
+    inputs.verdict = m_setupForm->verdictSettings();
+    inputs.details = m_setupForm->sessionDetails();
+    const ResultsView view = resultsView(inputs);
+    m_results->setLines(view.lines);
+    m_results->setVerdict(view.state, view.verdictText, view.verdictRule);
 }
 
 void MainWindow::flushCharts()
@@ -311,6 +321,7 @@ void MainWindow::resetViews()
     m_chart->clearPoints();
     m_residuals->clearPoints();
     m_results->setLines({});
+    m_results->setVerdict(VerdictState::None, {}, {});
     m_caution->clearAlarm();
     m_statusPoints->clear();
 }

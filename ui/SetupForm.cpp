@@ -36,6 +36,7 @@ void insertAt(QJsonObject &root, const QStringList &path, const QJsonValue &valu
 
 SetupForm::SetupForm(QWidget *parent)
     : QWidget(parent), m_construction(new QComboBox), m_material(new QComboBox), m_fuseType(new QComboBox),
+      m_decisionRule(new QComboBox), m_temperatureConstant(new QComboBox),
       m_allowOverload(new QCheckBox(tr("Allow overload"))), m_operator(new QLineEdit),
       m_serial(new QLineEdit), m_otherErrors(new QLabel)
 {
@@ -91,7 +92,32 @@ SetupForm::SetupForm(QWidget *parent)
     addQuantity(session, tr("Ambient temperature"), QStringLiteral("session.ambient_temperature_c"), Unit::Celsius, tr("e.g. 23 °C"));
     addQuantity(session, tr("Winding temperature"), QStringLiteral("session.winding_temperature_c"), Unit::Celsius, tr("blank: ambient"));
     layout->addWidget(sessionBox);
+
+    auto *verdictBox = new QGroupBox(tr("Results and verdict"));
+    auto *verdict = new QFormLayout(verdictBox);
+    addQuantity(verdict, tr("Regulation limit"), QStringLiteral("verdict.regulation_limit_percent"), Unit::Percent,
+                tr("blank: the nameplate's"));
+    m_decisionRule->addItem(tr("Guarded acceptance, w = U"), int(DecisionRule::GuardedAcceptance));
+    m_decisionRule->addItem(tr("Simple acceptance"), int(DecisionRule::SimpleAcceptance));
+    m_decisionRule->setToolTip(tr("ILAC-G8:09/2019 decision rules, section 4.2"));
+    m_decisionRule->setAccessibleName(QStringLiteral("verdict.decision_rule"));
+    verdict->addRow(tr("Decision rule"), m_decisionRule);
+    addQuantity(verdict, tr("Reference temperature"), QStringLiteral("verdict.reference_temperature_c"), Unit::Celsius,
+                tr("e.g. 75 °C; blank: none"));
+    m_temperatureConstant->addItem(tr("Per winding material"), -1);
+    for (auto constant : {TemperatureConstant::CopperIeee, TemperatureConstant::CopperIec, TemperatureConstant::Aluminium})
+        m_temperatureConstant->addItem(QString::fromStdString(describe(constant)), int(constant));
+    m_temperatureConstant->setAccessibleName(QStringLiteral("verdict.temperature_constant"));
+    for (auto *combo : {m_construction, m_material, m_fuseType, m_decisionRule, m_temperatureConstant}) {
+        // Long entries must not widen the form beyond its column.
+        combo->setSizeAdjustPolicy(QComboBox::AdjustToMinimumContentsLengthWithIcon);
+        combo->setMinimumContentsLength(14);
+    }
+    verdict->addRow(tr("Temperature constant"), m_temperatureConstant);
+    layout->addWidget(verdictBox);
     layout->addStretch(1);
+    for (auto *combo : {m_decisionRule, m_temperatureConstant})
+        connect(combo, &QComboBox::currentIndexChanged, this, &SetupForm::verdictChanged);
 
     for (auto *combo : {m_construction, m_material, m_fuseType})
         connect(combo, &QComboBox::currentIndexChanged, this, &SetupForm::changed);
@@ -105,7 +131,9 @@ QuantityField *SetupForm::addQuantity(QFormLayout *form, const QString &label, c
     const QString suffix = unitText(unit);
     form->addRow(suffix.isEmpty() ? label : label + QStringLiteral(" (") + suffix + QLatin1Char(')'), quantity);
     m_fields.insert(field, quantity);
-    if (!field.startsWith(QLatin1String("session.")))
+    if (field.startsWith(QLatin1String("verdict.")) || field.endsWith(QLatin1String("temperature_c")))
+        connect(quantity, &QuantityField::edited, this, &SetupForm::verdictChanged);
+    else if (!field.startsWith(QLatin1String("session.")))
         connect(quantity, &QuantityField::edited, this, &SetupForm::changed);
     return quantity;
 }
@@ -116,7 +144,8 @@ QString SetupForm::setupJson() const
 {
     QJsonObject root;
     for (auto it = m_fields.cbegin(); it != m_fields.cend(); ++it) {
-        if (it.key().startsWith(QLatin1String("session.")) || it.value()->isBlank())
+        if (it.key().startsWith(QLatin1String("session.")) || it.key().startsWith(QLatin1String("verdict."))
+            || it.value()->isBlank())
             continue;
         const QString text = it.value()->text().trimmed();
         QJsonValue value(text);
@@ -169,6 +198,18 @@ SessionDetails SetupForm::sessionDetails() const
             m_fields.value(QStringLiteral("session.winding_temperature_c"))->text().trimmed()};
 }
 
+VerdictSettings SetupForm::verdictSettings() const
+{
+    VerdictSettings settings;
+    settings.regulationLimit = m_fields.value(QStringLiteral("verdict.regulation_limit_percent"))->text().trimmed();
+    settings.rule = static_cast<DecisionRule>(m_decisionRule->currentData().toInt());
+    settings.referenceTemperature = m_fields.value(QStringLiteral("verdict.reference_temperature_c"))->text().trimmed();
+    const int constant = m_temperatureConstant->currentData().toInt();
+    if (constant >= 0)
+        settings.constant = static_cast<TemperatureConstant>(constant);
+    return settings;
+}
+
 void SetupForm::setSessionDetails(const SessionDetails &details)
 {
     m_operator->setText(details.operatorName);
@@ -217,7 +258,7 @@ QStringList SetupForm::shownErrors() const
 void SetupForm::setLocked(bool locked)
 {
     for (auto *field : std::as_const(m_fields)) {
-        if (!field->field().startsWith(QLatin1String("session.")))
+        if (!field->field().startsWith(QLatin1String("session.")) && !field->field().startsWith(QLatin1String("verdict.")))
             field->setReadOnly(locked);
     }
     for (auto *combo : {m_construction, m_material, m_fuseType})

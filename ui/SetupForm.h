@@ -3,8 +3,10 @@
 // and the errors come back here to be shown under the field they name.
 #pragma once
 
+#include "ConformityDecision.h"
 #include "FieldError.h"
 #include "Setup.h"
+#include "TemperatureCorrection.h"
 #include "Units.h"
 
 #include <QHash>
@@ -28,6 +30,14 @@ struct SessionDetails {
     QString windingTemperature; // as typed; blank = same as ambient
 };
 
+// How results are judged: the limit, the decision rule, the temperature correction.
+struct VerdictSettings {
+    QString regulationLimit;                       // as typed; blank = the nameplate's regulation
+    DecisionRule rule = DecisionRule::GuardedAcceptance;
+    QString referenceTemperature;                  // as typed; blank = no correction
+    std::optional<TemperatureConstant> constant;   // none = per winding material
+};
+
 class SetupForm : public QWidget {
     Q_OBJECT
 public:
@@ -38,6 +48,7 @@ public:
     QString setupJson() const;
     void loadSetup(const Setup &setup);
     SessionDetails sessionDetails() const;
+    VerdictSettings verdictSettings() const;
     void setSessionDetails(const SessionDetails &details);
 
     // Shows each error under its field; errors naming no field of this form are listed at
@@ -48,7 +59,8 @@ public:
     QuantityField *quantityField(const QString &field) const;
 
 signals:
-    void changed();
+    void changed();        // the nameplate or bench: the plan is recomputed
+    void verdictChanged(); // only how results are judged
 
 private:
     QuantityField *addQuantity(QFormLayout *form, const QString &label, const QString &field,
@@ -57,6 +69,8 @@ private:
     QComboBox *m_construction;
     QComboBox *m_material;
     QComboBox *m_fuseType;
+    QComboBox *m_decisionRule;
+    QComboBox *m_temperatureConstant;
     QCheckBox *m_allowOverload;
     QLineEdit *m_operator;
     QLineEdit *m_serial;

@@ -49,16 +49,4 @@ QString formatQuantity(double value, Unit unit, int significantDigits)
     return withUnit(formatNumber(value, significantDigits), unit);
 }
 
-QString formatWithUncertainty(double value, double uncertainty, Unit unit)
-{
-    if (!std::isfinite(value))
-        return QStringLiteral("—");
-    if (!std::isfinite(uncertainty) || uncertainty <= 0.0)
-        return formatQuantity(value, unit);
-    const int decimals = decimalsFor(uncertainty, 2);
-    const QString text = QString::number(value, 'f', decimals) + QStringLiteral(" ± ")
-                         + QString::number(uncertainty, 'f', decimals);
-    return withUnit(text, unit);
-}
-
 } // namespace sagline

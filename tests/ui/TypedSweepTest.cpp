@@ -99,8 +99,11 @@ TEST(TypedSweep, NameplateToResultsByKeyboardAndMouse)
     // Results: R near the invented transformer's 0.52 Ω (noise is a few mV over 3.3 A).
     const QString shownR = window->results()->value("series_resistance");
     EXPECT_TRUE(shownR.endsWith("Ω")) << shownR.toStdString();
-    EXPECT_NEAR(leadingNumber(shownR), trueResistanceOhm, 0.01) << shownR.toStdString();
-    EXPECT_NEAR(leadingNumber(window->results()->value("no_load_voltage")), trueNoLoadV, 0.01);
+    EXPECT_NEAR(shownValue(shownR, Unit::Ohm), trueResistanceOhm, 0.01) << shownR.toStdString();
+    EXPECT_NEAR(shownValue(window->results()->value("no_load_voltage"), Unit::Volt), trueNoLoadV, 0.01);
+    // Regulation and a verdict by the decision rule are shown with the result.
+    EXPECT_TRUE(window->results()->value("regulation").endsWith("%"));
+    EXPECT_FALSE(window->results()->verdictText().isEmpty());
     // The chart holds the 8 points and a fitted line; the table the 8 readings.
     EXPECT_EQ(window->chart()->drawnIncludedCount(), 8);
     EXPECT_GE(window->chart()->drawnFitPointCount(), 2);

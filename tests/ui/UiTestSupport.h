@@ -6,11 +6,13 @@
 #include "QuantityField.h"
 #include "SetupForm.h"
 #include "SetupJson.h"
+#include "Units.h"
 
 #include <QLineEdit>
 #include <QTemporaryDir>
 #include <QTest>
 
+#include <limits>
 #include <memory>
 
 namespace sagline::test {
@@ -39,10 +41,11 @@ inline std::unique_ptr<MainWindow> demoWindow(const QString &folder)
     return window;
 }
 
-// The number at the start of a shown value such as "0.5184 ± 0.0069 Ω".
-inline double leadingNumber(const QString &shown)
+// The value of a shown result such as "521.0 mΩ ± 3.5 mΩ", in SI units (read by core's parser).
+inline double shownValue(const QString &shown, Unit unit)
 {
-    return shown.section(QLatin1Char(' '), 0, 0).toDouble();
+    const auto parsed = parseQuantity(shown.section(QStringLiteral(" ± "), 0, 0).toStdString(), unit);
+    return parsed.ok ? parsed.value : std::numeric_limits<double>::quiet_NaN();
 }
 
 } // namespace sagline::test
