@@ -10,6 +10,9 @@
 
 #include <QApplication>
 #include <QDir>
+#include <QElapsedTimer>
+#include <QEventLoop>
+#include <QTimer>
 #include <QLineEdit>
 #include <QPushButton>
 #include <QStyleFactory>
@@ -94,6 +97,48 @@ DemoResult runTypedDemoSweep(MainWindow &window, int leaveOut, const QString &op
         ++k;
         QApplication::processEvents();
     }
+    window.flushCharts();
+    result.ok = true;
+    result.points = static_cast<int>(workspace->readings().size());
+    result.message = workspace->sessionPath();
+    return result;
+}
+
+DemoResult runVirtualBenchDemo(MainWindow &window, int pauseAfter)
+{
+    DemoResult result;
+    SessionDetails details = window.setupForm()->sessionDetails();
+    details.operatorName = QStringLiteral("Demo operator");
+    details.unitSerial = QStringLiteral("VIRTUAL-0001");
+    if (details.ambientTemperature.isEmpty())
+        details.ambientTemperature = QStringLiteral("20 °C");
+    window.setupForm()->setSessionDetails(details);
+    if (auto *reference = window.setupForm()->quantityField(QStringLiteral("verdict.reference_temperature_c"));
+        reference->isBlank())
+        reference->setText(QStringLiteral("75 °C"));
+    SweepWorkspace *workspace = window.workspace();
+    workspace->setSimulatedTime(true);
+    window.instrumentsPanel()->setChoice({ReadingSource::VirtualBench, {}, {}});
+    window.planPanel()->acceptButton()->click();
+    if (!workspace->isRunning()) {
+        result.message = window.lastMessage();
+        return result;
+    }
+    QElapsedTimer elapsed;
+    elapsed.start();
+    const auto target = static_cast<std::size_t>(pauseAfter);
+    while (workspace->isRunning() && (pauseAfter <= 0 || workspace->readings().size() < target)) {
+        if (elapsed.elapsed() > 30000) {
+            result.message = QStringLiteral("the virtual bench sweep did not finish within 30 s");
+            return result;
+        }
+        // An event loop that may block, so the simulated clock advances (see VirtualClock).
+        QEventLoop loop;
+        QTimer::singleShot(2, &loop, &QEventLoop::quit);
+        loop.exec();
+    }
+    if (workspace->isRunning())
+        window.nextStep()->pauseButton()->click();
     window.flushCharts();
     result.ok = true;
     result.points = static_cast<int>(workspace->readings().size());

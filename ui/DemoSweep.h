@@ -21,6 +21,10 @@ DemoResult runTypedDemoSweep(MainWindow &window, int leaveOut = 0,
                              const QString &operatorName = QStringLiteral("Demo operator"),
                              const QString &unitSerial = QStringLiteral("DEMO-0001"));
 
+// The same on the virtual bench (simulated time, so it takes well under a second), paused
+// after `pauseAfter` points so the window shows a sweep in progress (0: run to the end).
+DemoResult runVirtualBenchDemo(MainWindow &window, int pauseAfter = 0);
+
 // Saves the main window as PNG (light, and dark when `dark`) into `folder`; returns the paths.
 QStringList saveScreenshots(MainWindow &window, const QString &folder, bool dark);
 

@@ -11,6 +11,7 @@
 #include "ResidualChart.h"
 #include "ResultsPanel.h"
 #include "SetupForm.h"
+#include "SweepRun.h"
 #include "SweepWorkspace.h"
 #include "VoltageCurrentChart.h"
 
@@ -138,6 +139,7 @@ void MainWindow::wireWorkspace()
     connect(m_workspace, &SweepWorkspace::sessionChanged, this, [this] {
         m_statusSession->setText(tr("Session: %1").arg(m_workspace->sessionPath()));
     });
+    connect(m_workspace, &SweepWorkspace::instrumentStatus, m_instruments, &InstrumentsPanel::setStatus);
     connect(m_instruments, &InstrumentsPanel::choiceChanged, this, [this] {
         m_nextStep->setTypedEntry(m_instruments->choice().source == ReadingSource::TypedIn);
         m_statusSource->setText(m_instruments->sourceBox()->currentText());
@@ -279,6 +281,8 @@ void MainWindow::handleSafetyStop(const QString &text)
 
 void MainWindow::handleRunningChanged(bool running)
 {
+    const SweepRun *run = m_workspace->run();
+    m_nextStep->setRecordNeeded(!(run && run->controller() && run->controller()->hasProgrammableLoad()));
     m_nextStep->setRunning(running);
     m_nextStep->setPaused(m_workspace->isPaused());
     if (!running) {

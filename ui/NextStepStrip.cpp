@@ -95,11 +95,24 @@ void NextStepStrip::setInstruction(const QString &step, const QString &expectati
     m_expect->setText(expectation);
 }
 
-void NextStepStrip::setTypedEntry(bool typed) { m_entry->setVisible(typed); }
+void NextStepStrip::setTypedEntry(bool typed)
+{
+    m_entry->setVisible(typed);
+    m_record->setText(typed ? tr("● Record  (Ctrl+Enter)") : tr("● Load is set  (Ctrl+Enter)"));
+    m_record->setToolTip(typed ? tr("Record the typed-in reading for this step (Ctrl+Enter)")
+                               : tr("Tell the meters the load is set for this step; they read it (Ctrl+Enter)"));
+}
+
+void NextStepStrip::setRecordNeeded(bool needed)
+{
+    m_recordNeeded = needed;
+    m_record->setEnabled(m_running && m_recordNeeded);
+}
 
 void NextStepStrip::setRunning(bool running)
 {
-    m_record->setEnabled(running);
+    m_running = running;
+    m_record->setEnabled(running && m_recordNeeded);
     m_pause->setEnabled(running);
     m_stop->setEnabled(running);
     m_current->setReadOnly(!running);

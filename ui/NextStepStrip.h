@@ -19,7 +19,8 @@ public:
     explicit NextStepStrip(QWidget *parent = nullptr);
 
     void setInstruction(const QString &step, const QString &expectation);
-    void setTypedEntry(bool typed);    // shows the I and V fields
+    void setTypedEntry(bool typed);    // shows the I and V fields; otherwise Record confirms the load
+    void setRecordNeeded(bool needed); // false when a programmable load steps itself
     void setRunning(bool running);     // enables Record/Pause/Stop
     void setPaused(bool paused);
     QuantityField *currentField() const { return m_current; }
@@ -44,6 +45,8 @@ private:
     QPushButton *m_record;
     QPushButton *m_pause;
     QPushButton *m_stop;
+    bool m_recordNeeded = true;
+    bool m_running = false;
 };
 
 } // namespace sagline

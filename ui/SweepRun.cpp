@@ -1,55 +1,25 @@
 #include "SweepRun.h"
 
 #include "InstrumentRig.h"
+#include "LinkAddress.h"
 #include "SessionStore.h"
 #include "SweepWorkspace.h"
+#include "VirtualBench.h"
 
-#include <cmath>
+#include <QDateTime>
+
+#include <algorithm>
 
 namespace sagline {
 
 namespace {
 
-CommitResult fromStore(const StoreResult<std::int64_t> &result)
-{
-    CommitResult commit;
-    commit.ok = result.ok();
-    commit.id = result.value;
-    commit.error = QString::fromStdString(result.message);
-    return commit;
-}
+// The virtual bench needs no settling time, so a live demo on wall time keeps each step short.
+constexpr std::int64_t virtualBenchDwellMs = 1200;
+constexpr std::int64_t virtualBenchReadIntervalMs = 200;
+constexpr std::uint64_t virtualBenchSeed = 2026;
 
 } // namespace
-
-CommitResult StoreSink::commitReading(const Reading &reading) { return fromStore(m_store->appendReading(reading)); }
-
-CommitResult StoreSink::recordSafetyStop(const SafetyTrip &trip, std::int64_t, int step, const QString &)
-{
-    SafetyStopRecord stop;
-    stop.step = step;
-    stop.rule = toString(trip.limit);
-    stop.message = trip.message;
-    stop.measured = trip.measured;
-    stop.limitValue = trip.limitValue;
-    return fromStore(m_store->recordSafetyStop(stop));
-}
-
-CommitResult StoreSink::recordInstrument(const InstrumentIdentityRecord &instrument)
-{
-    return fromStore(m_store->recordInstrument(instrument.roleKeys.toStdString(),
-                                               (instrument.identity + QStringLiteral(" @ ") + instrument.address).toStdString(),
-                                               instrument.accuracyText.toStdString()));
-}
-
-CommitResult StoreSink::excludeReading(std::int64_t readingId, const QString &reason)
-{
-    return fromStore(m_store->excludeReading(readingId, reason.toStdString(), "sweep controller"));
-}
-
-CommitResult StoreSink::recordEvent(const QString &, const QString &text)
-{
-    return fromStore(m_store->addNote("sweep controller", text.toStdString()));
-}
 
 LiveFitSnapshot WorkspaceLiveFit::snapshot() const
 {
@@ -74,20 +44,59 @@ std::optional<PredictionBand> WorkspaceLiveFit::predict(double currentA, double 
     return PredictionBand{p.value, p.prediction->low, p.prediction->high};
 }
 
-SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &plan, const SourceChoice &source)
-    : m_workspace(workspace), m_clock(std::make_unique<SystemClock>()), m_sink(workspace->store()), m_fit(workspace)
+SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &plan, const SourceChoice &source,
+                   bool simulatedTime)
+    : m_fit(workspace)
 {
+    if (simulatedTime) {
+        auto clock = std::make_unique<VirtualClock>(QDateTime::currentMSecsSinceEpoch());
+        m_virtualClock = clock.get();
+        m_clock = std::move(clock);
+    } else {
+        m_clock = std::make_unique<SystemClock>();
+    }
     SweepOptions options = sweepOptionsFor(setup, plan);
+    QString error;
+    RigAddresses addresses;
     switch (source.source) {
     case ReadingSource::TypedIn:
         break;
     case ReadingSource::VirtualBench:
+        m_bench = std::make_unique<VirtualBench>(virtualBenchOptionsFor(setup, plan, virtualBenchSeed), m_clock.get());
+        m_rig.reset(makeVirtualBenchRig(m_bench.get(), false));
+        options.simulated = true;
+        options.dwellMs = std::min(options.dwellMs, virtualBenchDwellMs);
+        options.readIntervalMs = std::min(options.readIntervalMs, virtualBenchReadIntervalMs);
+        break;
     case ReadingSource::SerialPort:
     case ReadingSource::Lan:
-        m_error = tr("instruments: this source is not available in this build yet; choose typed-in readings");
-        return;
+        addresses.meter = source.source == ReadingSource::SerialPort ? source.serialPort : source.lanAddress;
+        if (addresses.meter.isEmpty()) {
+            m_error = source.source == ReadingSource::SerialPort ? tr("instruments.serial_port: pick a port or type its path")
+                                                                 : tr("instruments.lan_address: type the meter's address");
+            return;
+        }
+        m_rig.reset(makeRig(addresses, &error));
+        if (!m_rig) {
+            m_error = QStringLiteral("instruments: ") + error;
+            return;
+        }
+        break;
     }
-    m_controller = std::make_unique<SweepController>(plan, options, m_rig.get(), &m_sink, &m_fit, m_clock.get());
+    if (m_rig) {
+        if (const QString problem = m_rig->validate(); !problem.isEmpty()) {
+            m_error = QStringLiteral("instruments: ") + problem;
+            return;
+        }
+    }
+    const QString author = workspace->operatorName().isEmpty() ? QStringLiteral("sagline") : workspace->operatorName();
+    m_sink = std::make_unique<SessionStoreSink>(workspace->store(), author);
+    m_controller = std::make_unique<SweepController>(plan, options, m_rig.get(), m_sink.get(), &m_fit, m_clock.get());
+    wireController(workspace);
+}
+
+void SweepRun::wireController(SweepWorkspace *workspace)
+{
     SweepController *controller = m_controller.get();
     connect(controller, &SweepController::stepStarted, workspace, [workspace](int step, const QString &instruction) {
         workspace->setNextStep(step);
@@ -96,7 +105,7 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
     connect(controller, &SweepController::pointRecorded, workspace,
             [workspace](const Reading &reading, const LiveFitSnapshot &) { workspace->acceptRecorded(reading); });
     connect(controller, &SweepController::safetyStop, workspace, [workspace](const SafetyTrip &trip, const Reading &reading) {
-        // The reading that tripped is kept in the session, left out of the fit.
+        // The reading that tripped is kept in the session (the controller excluded it there).
         if (reading.id != 0) {
             Reading kept = reading;
             kept.excluded = true;
@@ -108,10 +117,12 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
     connect(controller, &SweepController::paused, workspace,
             [workspace](const QString &reason) { emit workspace->notice(tr("Paused: %1").arg(reason)); });
     connect(controller, &SweepController::linkLost, workspace,
-            [workspace](const QString &message) { emit workspace->notice(tr("Link lost: %1").arg(message)); });
+            [workspace](const QString &message) { emit workspace->instrumentStatus(tr("link lost: %1").arg(message)); });
     connect(controller, &SweepController::linkRestored, workspace,
-            [workspace](const QString &message) { emit workspace->notice(tr("Link restored: %1").arg(message)); });
-    connect(controller, &SweepController::finished, workspace, [workspace](SweepOutcome outcome) {
+            [workspace](const QString &message) { emit workspace->instrumentStatus(tr("link restored: %1").arg(message)); });
+    connect(controller, &SweepController::finished, workspace, [this, workspace](SweepOutcome outcome) {
+        if (m_virtualClock)
+            m_virtualClock->setAutoAdvance(false);
         workspace->setNextStep(-1); // no next step: the prediction marker goes
         emit workspace->notice(tr("Sweep ended: %1").arg(toString(outcome)));
         emit workspace->runningChanged(false);
@@ -120,15 +131,41 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
 
 SweepRun::~SweepRun()
 {
-    // The controller refers to the rig, the sink and the clock: it goes first.
+    if (m_virtualClock)
+        m_virtualClock->setAutoAdvance(false);
+    // The controller refers to the rig, the sink and the clock; the rig to the bench.
     m_controller.reset();
+    if (m_rig)
+        m_rig->disconnectAll();
     m_rig.reset();
+    m_bench.reset();
 }
 
 void SweepRun::start()
 {
-    if (m_controller)
+    if (!m_controller)
+        return;
+    if (m_virtualClock)
+        m_virtualClock->setAutoAdvance(true);
+    if (!m_rig) {
         m_controller->start();
+        return;
+    }
+    m_connecting = true;
+    connect(m_rig.get(), &InstrumentRig::ready, this, [this] {
+        m_connecting = false;
+        QStringList identities;
+        for (ScpiInstrument *instrument : m_rig->instruments())
+            identities << instrument->name() + QStringLiteral(": ") + instrument->identityText();
+        emit connected(identities.join(QLatin1Char('\n')));
+        m_controller->start();
+    });
+    connect(m_rig.get(), &InstrumentRig::connectFailed, this, [this](const QString &message) {
+        m_connecting = false;
+        emit connectFailed(message);
+    });
+    connect(m_rig.get(), &InstrumentRig::instrumentError, this, &SweepRun::instrumentError);
+    m_rig->connectAll();
 }
 
 } // namespace sagline

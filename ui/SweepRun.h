@@ -1,11 +1,11 @@
 // One running sweep: the instruments layer's SweepController with its clock, its instruments
-// (the virtual bench, SCPI meters, or none for typed-in readings), a sink that commits every
-// reading to the session store before it is reported, and a live-fit view onto the
-// workspace's fit. Owned by SweepWorkspace; gone when the sweep ends or the session closes.
+// (the virtual bench, SCPI meters, or none for typed-in readings), the session-store sink
+// that commits every reading before it is reported, and a live-fit view onto the workspace's
+// fit. Owned by SweepWorkspace; gone when the session closes.
 #pragma once
 
 #include "LiveFit.h"
-#include "PointSink.h"
+#include "SessionStoreSink.h"
 #include "SweepController.h"
 
 #include <QObject>
@@ -15,23 +15,10 @@
 namespace sagline {
 
 class InstrumentRig;
-class SessionStore;
 class SweepWorkspace;
+class VirtualBench;
+class VirtualClock;
 struct SourceChoice;
-
-// Commits to the session store; a reading counts as recorded only after the commit returned.
-class StoreSink : public PointSink {
-public:
-    explicit StoreSink(SessionStore *store) : m_store(store) {}
-    CommitResult commitReading(const Reading &reading) override;
-    CommitResult recordSafetyStop(const SafetyTrip &trip, std::int64_t readingId, int step, const QString &timeUtc) override;
-    CommitResult recordInstrument(const InstrumentIdentityRecord &instrument) override;
-    CommitResult excludeReading(std::int64_t readingId, const QString &reason) override;
-    CommitResult recordEvent(const QString &timeUtc, const QString &text) override;
-
-private:
-    SessionStore *m_store;
-};
 
 // The controller's view of the fit: it reads the workspace's LineFit (which the workspace
 // feeds with every recorded, non-excluded point), so exclusions show in its predictions too.
@@ -50,22 +37,34 @@ class SweepRun : public QObject {
     Q_OBJECT
 public:
     // Builds the instruments for `source`; errorString() says why when it cannot.
-    SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &plan, const SourceChoice &source);
+    // `simulatedTime`: the virtual bench runs on a clock that jumps ahead (tests, demos).
+    SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &plan, const SourceChoice &source,
+             bool simulatedTime);
     ~SweepRun() override;
     QString errorString() const { return m_error; }
-    void start();
+    void start();                        // connects the instruments first, if any
+    bool isConnecting() const { return m_connecting; }
     SweepController *controller() const { return m_controller.get(); }
     InstrumentRig *rig() const { return m_rig.get(); }
+    VirtualBench *bench() const { return m_bench.get(); }
+
+signals:
+    void connected(const QString &identities); // one line per instrument
+    void connectFailed(const QString &message);
+    void instrumentError(const QString &message);
 
 private:
-    SweepWorkspace *m_workspace;
+    void wireController(SweepWorkspace *workspace);
+
     std::unique_ptr<Clock> m_clock;
+    VirtualClock *m_virtualClock = nullptr;
+    std::unique_ptr<VirtualBench> m_bench;
     std::unique_ptr<InstrumentRig> m_rig;
-    std::unique_ptr<QObject> m_benchHost; // the virtual bench's simulated instruments, when used
-    StoreSink m_sink;
+    std::unique_ptr<SessionStoreSink> m_sink;
     WorkspaceLiveFit m_fit;
     std::unique_ptr<SweepController> m_controller;
     QString m_error;
+    bool m_connecting = false;
 };
 
 } // namespace sagline

@@ -98,11 +98,21 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
     m_source = source;
     resetReadings();
     emit sessionChanged();
-    auto run = std::make_unique<SweepRun>(this, *m_setup, *m_plan, source);
+    auto run = std::make_unique<SweepRun>(this, *m_setup, *m_plan, source, m_simulatedTime);
     if (!run->errorString().isEmpty())
         return run->errorString();
     m_run = std::move(run);
     m_paused = false;
+    connect(m_run.get(), &SweepRun::connected, this,
+            [this](const QString &identities) { emit instrumentStatus(tr("connected\n%1").arg(identities)); });
+    connect(m_run.get(), &SweepRun::connectFailed, this, [this](const QString &message) {
+        emit instrumentStatus(tr("cannot connect: %1").arg(message));
+        emit notice(tr("Cannot connect the instruments: %1").arg(message));
+        emit runningChanged(false);
+    });
+    connect(m_run.get(), &SweepRun::instrumentError, this, &SweepWorkspace::notice);
+    if (source.source != ReadingSource::TypedIn)
+        emit instrumentStatus(tr("connecting…"));
     emit runningChanged(true);
     m_run->start();
     return {};
@@ -110,7 +120,7 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
 
 QString SweepWorkspace::submitTyped(const QString &currentText, const QString &voltageText)
 {
-    if (!m_run)
+    if (!m_run || !m_run->controller())
         return tr("reading: no sweep is running; accept the plan first");
     // Checked per field first so each refusal lands under its own field.
     const ManualValue current = parseManualValue(MeterRole::SecondaryCurrent, currentText);
@@ -143,14 +153,23 @@ void SweepWorkspace::pauseOrResume()
 
 void SweepWorkspace::stop()
 {
-    if (isRunning())
-        m_run->controller()->stop();
+    if (!isRunning())
+        return;
+    if (m_run->isConnecting()) {
+        m_run.reset(); // nothing recorded yet; drops the half-open links
+        emit instrumentStatus(tr("not connected"));
+        emit runningChanged(false);
+        return;
+    }
+    m_run->controller()->stop();
 }
 
 bool SweepWorkspace::isRunning() const
 {
-    if (!m_run)
+    if (!m_run || !m_run->controller())
         return false;
+    if (m_run->isConnecting())
+        return true;
     const SweepState state = m_run->controller()->state();
     return state != SweepState::Idle && state != SweepState::Finished && state != SweepState::Stopped;
 }

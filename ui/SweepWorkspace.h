@@ -57,6 +57,9 @@ public:
     bool isRunning() const;
     bool isPaused() const { return m_paused; }
     bool isTypedIn() const { return m_source.source == ReadingSource::TypedIn; }
+    // The virtual bench on a clock that jumps ahead instead of waiting (tests, screenshots).
+    void setSimulatedTime(bool simulated) { m_simulatedTime = simulated; }
+    SweepRun *run() const { return m_run.get(); }
 
     // Opens a saved session (review and continuation of notes/exclusions). "" or the reason.
     QString openSession(const QString &path);
@@ -89,6 +92,7 @@ signals:
     void safetyStopped(const QString &text);
     void notice(const QString &text);
     void runningChanged(bool running);
+    void instrumentStatus(const QString &status); // connecting, connected (identities), lost, failed
 
 private:
     friend class SweepRun;
@@ -114,6 +118,7 @@ private:
     QElapsedTimer m_summaryClock;
     bool m_summaryStale = true;
     bool m_paused = false;
+    bool m_simulatedTime = false;
     std::optional<double> m_nextCurrentA;
 };
 

@@ -2,12 +2,15 @@
 // command line, builds the main window, runs the event loop.
 #include "BuildInfo.h"
 #include "DemoSweep.h"
+#include "InstrumentsPanel.h"
 #include "MainWindow.h"
+#include "PlanPanel.h"
 #include "SetupJson.h"
 
 #include <QApplication>
 #include <QCommandLineParser>
 #include <QFile>
+#include <QPushButton>
 #include <QTextStream>
 #include <QTimer>
 
@@ -52,10 +55,12 @@ int main(int argc, char **argv)
                                   QStringLiteral("Run a demo sweep, save the window as PNG into DIR, and quit."),
                                   QStringLiteral("DIR"));
     QCommandLineOption dark(QStringLiteral("dark"), QStringLiteral("With --screenshot: also save a dark-palette PNG."));
-    QCommandLineOption demo(QStringLiteral("demo"), QStringLiteral("Run a demo sweep of typed-in readings on start."));
+    QCommandLineOption demo(QStringLiteral("demo"), QStringLiteral("Start a sweep on the virtual bench right away."));
+    QCommandLineOption typedDemo(QStringLiteral("typed-demo"),
+                                 QStringLiteral("With --screenshot: a typed-in demo sweep instead of the virtual bench."));
     QCommandLineOption folder(QStringLiteral("session-folder"), QStringLiteral("Where new session files go."),
                               QStringLiteral("DIR"));
-    parser.addOptions({screenshot, dark, demo, folder});
+    parser.addOptions({screenshot, dark, demo, typedDemo, folder});
     parser.addPositionalArgument(QStringLiteral("SESSION"), QStringLiteral("A .sagline session file to open."),
                                  QStringLiteral("[SESSION]"));
     parser.process(app);
@@ -77,7 +82,9 @@ int main(int argc, char **argv)
             window.setSessionFolder(parser.value(screenshot) + QStringLiteral("/sessions"));
         window.resize(1600, 1000);
         window.show();
-        const auto result = sagline::runTypedDemoSweep(window, 2); // a sweep in progress
+        // A sweep in progress: two steps still to go.
+        const auto result = parser.isSet(typedDemo) ? sagline::runTypedDemoSweep(window, 2)
+                                                    : sagline::runVirtualBenchDemo(window, 7);
         QTextStream out(stdout);
         if (!result.ok) {
             QTextStream(stderr) << "sagline: demo sweep failed: " << result.message << '\n';
@@ -90,6 +97,9 @@ int main(int argc, char **argv)
     }
     window.show();
     if (parser.isSet(demo))
-        QTimer::singleShot(0, &window, [&window] { sagline::runTypedDemoSweep(window); });
+        QTimer::singleShot(0, &window, [&window] {
+            window.instrumentsPanel()->setChoice({sagline::ReadingSource::VirtualBench, {}, {}});
+            window.planPanel()->acceptButton()->click();
+        });
     return app.exec();
 }

@@ -8,14 +8,34 @@
 #include "SetupJson.h"
 #include "Units.h"
 
+#include <QElapsedTimer>
+#include <QEventLoop>
 #include <QLineEdit>
+#include <QTimer>
 #include <QTemporaryDir>
 #include <QTest>
 
+#include <functional>
 #include <limits>
 #include <memory>
 
 namespace sagline::test {
+
+// Runs the event loop (so a VirtualClock on auto-advance moves on whenever it would block,
+// which QTest::qWaitFor's processEvents never does) until `done` or the wall-time limit.
+inline bool waitUntil(const std::function<bool()> &done, int timeoutMs = 10000)
+{
+    QElapsedTimer elapsed;
+    elapsed.start();
+    while (!done()) {
+        if (elapsed.elapsed() > timeoutMs)
+            return done();
+        QEventLoop loop;
+        QTimer::singleShot(2, &loop, &QEventLoop::quit);
+        loop.exec();
+    }
+    return true;
+}
 
 inline void typeInto(QLineEdit *edit, const QString &text)
 {
