@@ -40,6 +40,8 @@ public:
     void setSessionFolder(const QString &folder);
     bool openSessionFile(const QString &path);
     void applyColourScheme();
+    // Writes the PDF report of the open session; "" or the reason it failed.
+    QString writeReport(const QString &pdfPath);
     // Pushes pending chart updates now (the timers do it ~10 times a second).
     void flushCharts();
 

@@ -5,6 +5,7 @@
 #include "InstrumentsPanel.h"
 #include "MainWindow.h"
 #include "PlanPanel.h"
+#include "SetupForm.h"
 #include "SetupJson.h"
 
 #include <QApplication>
@@ -98,6 +99,13 @@ int main(int argc, char **argv)
     window.show();
     if (parser.isSet(demo))
         QTimer::singleShot(0, &window, [&window] {
+            // The session needs an operator and a unit; a demo names them plainly.
+            sagline::SessionDetails details = window.setupForm()->sessionDetails();
+            if (details.operatorName.isEmpty())
+                details.operatorName = qEnvironmentVariableIsSet("USER") ? qEnvironmentVariable("USER") : QStringLiteral("operator");
+            if (details.unitSerial.isEmpty())
+                details.unitSerial = QStringLiteral("virtual-bench");
+            window.setupForm()->setSessionDetails(details);
             window.instrumentsPanel()->setChoice({sagline::ReadingSource::VirtualBench, {}, {}});
             window.planPanel()->acceptButton()->click();
         });

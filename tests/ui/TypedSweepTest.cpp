@@ -15,6 +15,7 @@
 #include <gtest/gtest.h>
 
 #include <QComboBox>
+#include <QFile>
 #include <QPushButton>
 #include <QTableView>
 
@@ -108,6 +109,13 @@ TEST(TypedSweep, NameplateToResultsByKeyboardAndMouse)
     EXPECT_EQ(window->chart()->drawnIncludedCount(), 8);
     EXPECT_GE(window->chart()->drawnFitPointCount(), 2);
     EXPECT_EQ(window->readingsModel()->rowCount(), 8);
+
+    // Report to PDF from the session (the store area's report writer).
+    const QString pdf = folder.filePath("report.pdf");
+    EXPECT_EQ(window->writeReport(pdf), QString());
+    QFile written(pdf);
+    ASSERT_TRUE(written.open(QIODevice::ReadOnly));
+    EXPECT_TRUE(written.read(5).startsWith("%PDF-"));
 
     // The session file alone holds every reading.
     auto stored = SessionStore::openForReview(window->workspace()->sessionPath().toStdString());
