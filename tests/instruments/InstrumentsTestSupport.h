@@ -2,14 +2,12 @@
 // condition while events run, an in-memory PointSink, and the demo setup and plan.
 #pragma once
 
+#include "EventLoopWait.h"
 #include "Planner.h"
 #include "PointSink.h"
 #include "SetupJson.h"
 
 #include <QCoreApplication>
-#include <QElapsedTimer>
-#include <QEventLoop>
-#include <QTimer>
 
 #include <gtest/gtest.h>
 
@@ -21,24 +19,7 @@ namespace sagline::test {
 // Runs the event loop until `done()` or `timeoutMs` of wall time; returns done().
 inline bool waitUntil(const std::function<bool()> &done, int timeoutMs = 5000)
 {
-    QElapsedTimer elapsed;
-    elapsed.start();
-    while (!done()) {
-        if (elapsed.elapsed() > timeoutMs)
-            return done();
-        QEventLoop loop;
-        QTimer::singleShot(2, &loop, &QEventLoop::quit);
-        loop.exec();
-    }
-    return true;
-}
-
-// Runs the event loop for `ms` of wall time.
-inline void runFor(int ms)
-{
-    QEventLoop loop;
-    QTimer::singleShot(ms, &loop, &QEventLoop::quit);
-    loop.exec();
+    return runEventsUntil(done, timeoutMs);
 }
 
 class MemorySink final : public PointSink {

@@ -2,16 +2,14 @@
 // temporary folder, and typing into fields the way a person does.
 #pragma once
 
+#include "EventLoopWait.h"
 #include "MainWindow.h"
 #include "QuantityField.h"
 #include "SetupForm.h"
 #include "SetupJson.h"
 #include "Units.h"
 
-#include <QElapsedTimer>
-#include <QEventLoop>
 #include <QLineEdit>
-#include <QTimer>
 #include <QTemporaryDir>
 #include <QTest>
 
@@ -21,20 +19,10 @@
 
 namespace sagline::test {
 
-// Runs the event loop (so a VirtualClock on auto-advance moves on whenever it would block,
-// which QTest::qWaitFor's processEvents never does) until `done` or the wall-time limit.
+// Runs the event loop until `done()` or `timeoutMs` of wall time; returns done().
 inline bool waitUntil(const std::function<bool()> &done, int timeoutMs = 10000)
 {
-    QElapsedTimer elapsed;
-    elapsed.start();
-    while (!done()) {
-        if (elapsed.elapsed() > timeoutMs)
-            return done();
-        QEventLoop loop;
-        QTimer::singleShot(2, &loop, &QEventLoop::quit);
-        loop.exec();
-    }
-    return true;
+    return runEventsUntil(done, timeoutMs);
 }
 
 inline void typeInto(QLineEdit *edit, const QString &text)
