@@ -2,6 +2,7 @@
 
 #include "NumberFormat.h"
 #include "SetupJson.h"
+#include "TextFile.h"
 #include "Units.h"
 
 #include <nlohmann/json.hpp>
@@ -9,8 +10,6 @@
 #include <cmath>
 #include <cstdint>
 #include <cstdio>
-#include <fstream>
-#include <sstream>
 
 namespace sagline {
 
@@ -245,18 +244,13 @@ LabSheetParse parseLabSheetJson(std::string_view text)
 
 LabSheetParse loadLabSheetFile(const std::string &path)
 {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) {
+    const std::optional<std::string> text = readTextFile(path);
+    if (!text) {
         LabSheetParse out;
-        out.errors.push_back({path, "cannot be read (missing file or no permission)"});
+        out.errors.push_back(unreadableFileError(path));
         return out;
     }
-    std::ostringstream buffer;
-    buffer << in.rdbuf();
-    std::string text = buffer.str();
-    if (text.size() >= 3 && text.compare(0, 3, "\xEF\xBB\xBF") == 0)
-        text.erase(0, 3);
-    return parseLabSheetJson(text);
+    return parseLabSheetJson(*text);
 }
 
 std::string labSheetToJson(const LabSheet &sheet)

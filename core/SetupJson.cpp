@@ -1,5 +1,6 @@
 #include "SetupJson.h"
 
+#include "TextFile.h"
 #include "Units.h"
 
 #include <nlohmann/json.hpp>
@@ -7,7 +8,6 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
-#include <fstream>
 #include <set>
 #include <sstream>
 
@@ -394,18 +394,13 @@ SetupParse parseSetupJson(std::string_view text)
 
 SetupParse loadSetupFile(const std::string &path)
 {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) {
+    const std::optional<std::string> text = readTextFile(path);
+    if (!text) {
         SetupParse out;
-        out.errors.push_back({path, "cannot be read (missing file or no permission)"});
+        out.errors.push_back(unreadableFileError(path));
         return out;
     }
-    std::ostringstream buffer;
-    buffer << in.rdbuf();
-    std::string text = buffer.str();
-    if (text.size() >= 3 && text.compare(0, 3, "\xEF\xBB\xBF") == 0)
-        text.erase(0, 3); // a byte-order mark from Windows editors
-    SetupParse out = parseSetupJson(text);
+    SetupParse out = parseSetupJson(*text);
     for (auto &error : out.errors) {
         if (error.field == "setup")
             error.field = path;
