@@ -55,19 +55,6 @@ std::string latestReviewer(const SessionRow &row)
 
 } // namespace
 
-std::string csvField(const std::string &text)
-{
-    if (text.find_first_of(",\"\r\n") == std::string::npos)
-        return text;
-    std::string quoted = "\"";
-    for (char c : text) {
-        if (c == '"')
-            quoted += '"';
-        quoted += c;
-    }
-    return quoted + "\"";
-}
-
 std::vector<std::string> comparisonCsvColumns()
 {
     return {"file", "unit_serial", "date_utc", "operator", "instruments", "readings", "points_used",

@@ -4,6 +4,7 @@
 // empty CSV fields and JSON null, never NaN.
 #pragma once
 
+#include "CsvField.h" // csvField was declared here first; its callers still find it here
 #include "SessionComparison.h"
 
 #include <string>
@@ -21,8 +22,5 @@ std::string comparisonCsv(const std::vector<SessionRow> &rows, const BatchStatis
 // and safety-stop details.
 std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStatistics &stats,
                            const ComparisonOptions &options);
-
-// CSV field quoting (RFC 4180): quoted when it holds a comma, quote or line break.
-std::string csvField(const std::string &text);
 
 } // namespace sagline

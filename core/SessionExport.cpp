@@ -1,5 +1,7 @@
 #include "SessionExport.h"
 
+#include "CsvField.h"
+
 #include <nlohmann/json.hpp>
 
 #include <cmath>
@@ -24,20 +26,6 @@ std::string exact(double value)
 std::string exact(const std::optional<double> &value)
 {
     return value ? exact(*value) : std::string();
-}
-
-// RFC 4180 quoting when a cell holds a comma, a quote or a line break.
-std::string cell(const std::string &text)
-{
-    if (text.find_first_of(",\"\r\n") == std::string::npos)
-        return text;
-    std::string quoted = "\"";
-    for (char c : text) {
-        if (c == '"')
-            quoted += '"';
-        quoted += c;
-    }
-    return quoted + '"';
 }
 
 json optionalNumber(const std::optional<double> &value)
@@ -135,7 +123,7 @@ std::string readingsToCsv(const std::vector<Reading> &readings)
     for (const Reading &reading : readings) {
         out += exact(reading.currentA) + ',' + exact(reading.voltageV) + ',' + exact(reading.uCurrentA) + ',' +
                exact(reading.uVoltageV) + ',' + (reading.step >= 0 ? std::to_string(reading.step) : std::string()) + ',' +
-               cell(reading.timeUtc) + ',' + cell(flagsToString(reading.flags)) + ',' +
+               csvField(reading.timeUtc) + ',' + csvField(flagsToString(reading.flags)) + ',' +
                (reading.excluded ? "true" : "false") + "\r\n";
     }
     return out;
@@ -146,7 +134,7 @@ std::string fitResultsToCsv(const SessionSummary &summary)
     const FitSummary &fit = summary.fit;
     std::string out = "quantity,value,standard_uncertainty,unit\r\n";
     auto row = [&out](const std::string &quantity, const std::string &value, const std::string &u, const std::string &unit) {
-        out += cell(quantity) + ',' + value + ',' + u + ',' + cell(unit) + "\r\n";
+        out += csvField(quantity) + ',' + value + ',' + u + ',' + csvField(unit) + "\r\n";
     };
     row("fit_method", toString(fit.method), "", "");
     row("fit_status", toString(fit.status), "", "");
