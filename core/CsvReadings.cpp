@@ -1,5 +1,7 @@
 #include "CsvReadings.h"
 
+#include "AsciiText.h"
+
 #include <charconv>
 #include <cmath>
 #include <fstream>
@@ -25,16 +27,6 @@ constexpr KnownColumn knownColumns[] = {
     {"flags", Column::Flags}, {"excluded", Column::Excluded},
 };
 
-std::string_view trim(std::string_view s)
-{
-    const auto isSpace = [](char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\n'; };
-    while (!s.empty() && isSpace(s.front()))
-        s.remove_prefix(1);
-    while (!s.empty() && isSpace(s.back()))
-        s.remove_suffix(1);
-    return s;
-}
-
 // Splits one line on commas; a cell may be double-quoted ("" is a literal quote).
 // Returns false for an unterminated quote.
 bool splitCells(std::string_view line, std::vector<std::string> &cells)
@@ -54,12 +46,12 @@ bool splitCells(std::string_view line, std::vector<std::string> &cells)
             } else {
                 cell += c;
             }
-        } else if (c == '"' && trim(cell).empty() && !wasQuoted) {
+        } else if (c == '"' && trimSpace(cell).empty() && !wasQuoted) {
             cell.clear();
             quoted = true;
             wasQuoted = true;
         } else if (c == ',') {
-            cells.push_back(wasQuoted ? cell : std::string(trim(cell)));
+            cells.push_back(wasQuoted ? cell : std::string(trimSpace(cell)));
             cell.clear();
             wasQuoted = false;
         } else if (!wasQuoted || c != ' ') {
@@ -68,7 +60,7 @@ bool splitCells(std::string_view line, std::vector<std::string> &cells)
     }
     if (quoted)
         return false;
-    cells.push_back(wasQuoted ? cell : std::string(trim(cell)));
+    cells.push_back(wasQuoted ? cell : std::string(trimSpace(cell)));
     return true;
 }
 
@@ -90,7 +82,7 @@ std::optional<std::uint32_t> parseFlags(std::string_view text)
     std::uint32_t flags = flagNone;
     while (!text.empty()) {
         const std::size_t bar = text.find('|');
-        const std::string_view name = trim(text.substr(0, bar));
+        const std::string_view name = trimSpace(text.substr(0, bar));
         bool found = false;
         for (int bit = 0; bit < 32 && !found; ++bit) {
             const std::uint32_t value = 1u << bit;
@@ -272,7 +264,7 @@ ReadingsCsvParse Parser::run(std::string_view text)
         std::string_view line = text.substr(0, end);
         text = end == std::string_view::npos ? std::string_view() : text.substr(end + 1);
         ++lineNumber;
-        if (trim(line).empty())
+        if (trimSpace(line).empty())
             continue;
         if (!splitCells(line, cells)) {
             error(lineNumber, "", "a double quote is not closed");

@@ -1,35 +1,12 @@
 #include "ScpiCommand.h"
 
+#include "AsciiText.h"
+
 #include <cstddef>
 
 namespace sagline {
 
 namespace {
-
-std::string_view trim(std::string_view s)
-{
-    while (!s.empty() && (s.front() == ' ' || s.front() == '\t' || s.front() == '\r' || s.front() == '\n'))
-        s.remove_prefix(1);
-    while (!s.empty() && (s.back() == ' ' || s.back() == '\t' || s.back() == '\r' || s.back() == '\n'))
-        s.remove_suffix(1);
-    return s;
-}
-
-char upper(char c)
-{
-    return (c >= 'a' && c <= 'z') ? static_cast<char>(c - 'a' + 'A') : c;
-}
-
-bool equalsNoCase(std::string_view a, std::string_view b)
-{
-    if (a.size() != b.size())
-        return false;
-    for (std::size_t i = 0; i < a.size(); ++i) {
-        if (upper(a[i]) != upper(b[i]))
-            return false;
-    }
-    return true;
-}
 
 struct PatternNode {
     std::string_view keyword; // e.g. "MEASure"
@@ -105,14 +82,14 @@ std::vector<ScpiCommandUnit> splitScpiMessage(std::string_view message)
         if (i < message.size() && message[i] == '"')
             quoted = !quoted;
         if (i == message.size() || (!quoted && message[i] == ';')) {
-            std::string_view unit = trim(message.substr(start, i - start));
+            std::string_view unit = trimSpace(message.substr(start, i - start));
             start = i + 1;
             if (unit.empty())
                 continue;
             std::size_t space = 0;
             while (space < unit.size() && unit[space] != ' ' && unit[space] != '\t')
                 ++space;
-            units.push_back({std::string(unit.substr(0, space)), std::string(trim(unit.substr(space)))});
+            units.push_back({std::string(unit.substr(0, space)), std::string(trimSpace(unit.substr(space)))});
         }
     }
     return units;
@@ -120,7 +97,7 @@ std::vector<ScpiCommandUnit> splitScpiMessage(std::string_view message)
 
 bool scpiHeaderMatches(std::string_view pattern, std::string_view header)
 {
-    header = trim(header);
+    header = trimSpace(header);
     const bool patternQuery = !pattern.empty() && pattern.back() == '?';
     const bool headerQuery = !header.empty() && header.back() == '?';
     if (patternQuery != headerQuery)

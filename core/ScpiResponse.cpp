@@ -1,5 +1,7 @@
 #include "ScpiResponse.h"
 
+#include "AsciiText.h"
+
 #include <array>
 #include <charconv>
 #include <cmath>
@@ -10,39 +12,9 @@ namespace sagline {
 
 namespace {
 
-bool isSpace(char c)
-{
-    return c == ' ' || c == '\t' || c == '\r' || c == '\n';
-}
-
-std::string_view trim(std::string_view s)
-{
-    while (!s.empty() && isSpace(s.front()))
-        s.remove_prefix(1);
-    while (!s.empty() && isSpace(s.back()))
-        s.remove_suffix(1);
-    return s;
-}
-
 bool isDigit(char c)
 {
     return c >= '0' && c <= '9';
-}
-
-char upper(char c)
-{
-    return (c >= 'a' && c <= 'z') ? static_cast<char>(c - 'a' + 'A') : c;
-}
-
-bool equalsNoCase(std::string_view a, std::string_view b)
-{
-    if (a.size() != b.size())
-        return false;
-    for (std::size_t i = 0; i < a.size(); ++i) {
-        if (upper(a[i]) != upper(b[i]))
-            return false;
-    }
-    return true;
 }
 
 ScpiNumber invalid(std::string error)
@@ -71,7 +43,7 @@ ScpiNumber parseNonDecimal(std::string_view s)
     if (s.size() < 3)
         return invalid("a '#' number needs a base letter (H, Q or B) and digits");
     int base = 0;
-    switch (upper(s[1])) {
+    switch (toUpperAscii(s[1])) {
     case 'H': base = 16; break;
     case 'Q': base = 8; break;
     case 'B': base = 2; break;
@@ -93,7 +65,7 @@ constexpr std::array<std::string_view, 10> unitSuffixes{"V", "A", "VAC", "VDC", 
 
 ScpiNumber parseScpiNumber(std::string_view text)
 {
-    std::string_view s = trim(text);
+    std::string_view s = trimSpace(text);
     if (s.empty())
         return invalid("empty reply where a number was expected");
     if (s.front() == '#')
@@ -146,7 +118,7 @@ ScpiNumber parseScpiNumber(std::string_view text)
         i = j;
     }
     const std::string_view number = s.substr(mantissaStart, i - mantissaStart);
-    std::string_view rest = trim(s.substr(i));
+    std::string_view rest = trimSpace(s.substr(i));
     if (!rest.empty()) {
         bool known = false;
         for (auto suffix : unitSuffixes)
@@ -186,14 +158,14 @@ std::string ScpiIdentity::text() const
 ScpiIdentity parseScpiIdentity(std::string_view text)
 {
     ScpiIdentity id;
-    std::string_view s = trim(text);
+    std::string_view s = trimSpace(text);
     std::array<std::string_view, 4> fields{};
     std::size_t count = 0;
     std::size_t start = 0;
     for (std::size_t i = 0; i <= s.size(); ++i) {
         if (i == s.size() || s[i] == ',') {
             if (count < fields.size())
-                fields[count] = trim(s.substr(start, i - start));
+                fields[count] = trimSpace(s.substr(start, i - start));
             ++count;
             start = i + 1;
         }
@@ -218,7 +190,7 @@ ScpiIdentity parseScpiIdentity(std::string_view text)
 ScpiError parseScpiError(std::string_view text)
 {
     ScpiError e;
-    std::string_view s = trim(text);
+    std::string_view s = trimSpace(text);
     std::size_t i = 0;
     bool negative = false;
     if (i < s.size() && (s[i] == '+' || s[i] == '-')) {
@@ -238,13 +210,13 @@ ScpiError parseScpiError(std::string_view text)
         e.error = "the error code is out of range";
         return e;
     }
-    std::string_view rest = trim(s.substr(i));
+    std::string_view rest = trimSpace(s.substr(i));
     if (!rest.empty() && rest.front() != ',') {
         e.error = "the error code must be followed by ',' and the text";
         return e;
     }
     if (!rest.empty())
-        rest = trim(rest.substr(1));
+        rest = trimSpace(rest.substr(1));
     std::string message;
     if (!rest.empty() && rest.front() == '"') {
         std::size_t k = 1;

@@ -1,5 +1,7 @@
 #include "Units.h"
 
+#include "AsciiText.h"
+
 #include <array>
 #include <cerrno>
 #include <cmath>
@@ -46,11 +48,7 @@ namespace {
 
 std::string_view trim(std::string_view s)
 {
-    auto isSpace = [](char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\n'; };
-    while (!s.empty() && isSpace(s.front()))
-        s.remove_prefix(1);
-    while (!s.empty() && isSpace(s.back()))
-        s.remove_suffix(1);
+    s = trimSpace(s);
     // A no-break space (U+00A0, UTF-8 C2 A0) between number and unit is common in pasted text.
     while (s.size() >= 2 && static_cast<unsigned char>(s[0]) == 0xC2 && static_cast<unsigned char>(s[1]) == 0xA0)
         s.remove_prefix(2);
