@@ -1,37 +1,26 @@
 // sagline-cli report: a PDF from a session, headless (no DISPLAY), A4 and Letter, clear errors.
-#include "RunProgram.h"
+#include "CliTestSupport.h"
 
 #include <gtest/gtest.h>
 
 #include <filesystem>
-#include <random>
 
-using sagline::testing::readWholeFile;
-using sagline::testing::runProgram;
+using namespace sagline::testing;
 
 namespace {
 
-const std::string cli = SAGLINE_CLI_PATH;
-const std::string demoSetup = std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-setup.json";
-const std::string demoReadings = std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-readings.csv";
-
-class ReportCommand : public ::testing::Test {
+class ReportCommand : public ScratchFolderTest {
 protected:
+    ReportCommand() : ScratchFolderTest("sagline-cli-report-") {}
+
     void SetUp() override
     {
-        std::random_device seed;
-        m_dir = std::filesystem::temp_directory_path() / ("sagline-cli-report-" + std::to_string(seed()));
-        std::filesystem::create_directories(m_dir);
+        ScratchFolderTest::SetUp();
         ASSERT_EQ(runProgram(cli, {"import", demoReadings, "--setup", demoSetup, "-o", path("s.sagline"), "--serial",
                                    "T60-0421", "--winding", "23"})
                       .exitCode,
                   0);
     }
-    void TearDown() override { std::filesystem::remove_all(m_dir); }
-    std::string path(const std::string &name) const { return (m_dir / name).string(); }
-
-private:
-    std::filesystem::path m_dir;
 };
 
 } // namespace

@@ -1,41 +1,19 @@
 // sagline-cli import and export: a CSV goes into a session and comes back out unchanged; bad
 // input names the line and column; nothing is overwritten; exit codes follow DESIGN.md.
-#include "RunProgram.h"
+#include "CliTestSupport.h"
 
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
 #include <filesystem>
-#include <fstream>
-#include <random>
 
-using sagline::testing::readWholeFile;
-using sagline::testing::runProgram;
+using namespace sagline::testing;
 
 namespace {
 
-const std::string cli = SAGLINE_CLI_PATH;
-const std::string demoSetup = std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-setup.json";
-const std::string demoReadings = std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-readings.csv";
-
-class SessionCommands : public ::testing::Test {
+class SessionCommands : public ScratchFolderTest {
 protected:
-    void SetUp() override
-    {
-        std::random_device seed;
-        m_dir = std::filesystem::temp_directory_path() / ("sagline-cli-session-" + std::to_string(seed()));
-        std::filesystem::create_directories(m_dir);
-    }
-    void TearDown() override { std::filesystem::remove_all(m_dir); }
-    std::string path(const std::string &name) const { return (m_dir / name).string(); }
-    std::string write(const std::string &name, const std::string &text) const
-    {
-        std::ofstream(path(name), std::ios::binary) << text;
-        return path(name);
-    }
-
-private:
-    std::filesystem::path m_dir;
+    SessionCommands() : ScratchFolderTest("sagline-cli-session-") {}
 };
 
 } // namespace
