@@ -1,4 +1,5 @@
-// Title block, results and verdict, nameplate and plan of the session report.
+// Title block, results and verdict, nameplate and plan of the session report; the whole report
+// in its printed order, and the PDF page set-up every report shares.
 #include "ReportSections.h"
 
 #include "ReportCanvas.h"
@@ -7,6 +8,8 @@
 #include "SessionSummary.h"
 
 #include <QFileInfo>
+#include <QPageLayout>
+#include <QPdfWriter>
 
 namespace sagline {
 
@@ -174,6 +177,24 @@ void drawNameplateAndPlan(ReportCanvas &canvas, const SessionSummary &summary)
                  rows);
     for (const std::string &warning : plan.warnings)
         canvas.paragraph(QStringLiteral("Plan warning: ") + q(warning), 8.0, false, true);
+}
+
+void drawSessionReport(ReportCanvas &canvas, const SessionSummary &summary, const ReportOptions &options)
+{
+    drawTitleBlock(canvas, summary, options);
+    drawResultsAndVerdict(canvas, summary);
+    drawCharts(canvas, summary);
+    drawNameplateAndPlan(canvas, summary);
+    drawReadingsTable(canvas, summary);
+    drawRecordsAndSignOff(canvas, summary);
+}
+
+void setUpReportPdf(QPdfWriter &writer, const ReportOptions &options)
+{
+    writer.setPageSize(QPageSize(options.pageSize));
+    writer.setPageMargins(QMarginsF(18, 18, 18, 16), QPageLayout::Millimeter);
+    writer.setResolution(600);
+    writer.setCreator(options.producedBy);
 }
 
 } // namespace sagline

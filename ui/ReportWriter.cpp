@@ -7,7 +7,6 @@
 #include <QBuffer>
 #include <QFile>
 #include <QFileInfo>
-#include <QPageLayout>
 #include <QPainter>
 #include <QPdfWriter>
 
@@ -18,10 +17,7 @@ namespace {
 // Lays the whole report out on `writer`; returns the number of pages, 0 if painting failed.
 int render(QPdfWriter &writer, const SessionSummary &summary, const ReportOptions &options, int totalPages)
 {
-    writer.setPageSize(QPageSize(options.pageSize));
-    writer.setPageMargins(QMarginsF(18, 18, 18, 16), QPageLayout::Millimeter);
-    writer.setResolution(600);
-    writer.setCreator(options.producedBy);
+    setUpReportPdf(writer, options);
     writer.setTitle(QStringLiteral("Load test report, unit %1").arg(QString::fromStdString(summary.info.unitSerial)));
     QPainter painter;
     if (!painter.begin(&writer))
@@ -31,12 +27,7 @@ int render(QPdfWriter &writer, const SessionSummary &summary, const ReportOption
                                .arg(QString::fromStdString(summary.info.unitSerial),
                                     QFileInfo(QString::fromStdString(summary.path)).fileName(), options.producedBy);
     ReportCanvas canvas(writer, painter, footer, totalPages);
-    drawTitleBlock(canvas, summary, options);
-    drawResultsAndVerdict(canvas, summary);
-    drawCharts(canvas, summary);
-    drawNameplateAndPlan(canvas, summary);
-    drawReadingsTable(canvas, summary);
-    drawRecordsAndSignOff(canvas, summary);
+    drawSessionReport(canvas, summary, options);
     canvas.finish();
     const int pages = canvas.pageNumber();
     return painter.end() ? pages : 0;

@@ -74,10 +74,7 @@ void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *>
 int render(QPdfWriter &writer, const std::vector<const SessionRow *> &rows, const std::vector<SessionSummary> &summaries,
            const ComparisonOptions &options, const ReportOptions &reportOptions, int totalPages)
 {
-    writer.setPageSize(QPageSize(reportOptions.pageSize));
-    writer.setPageMargins(QMarginsF(18, 18, 18, 16), QPageLayout::Millimeter);
-    writer.setResolution(600);
-    writer.setCreator(reportOptions.producedBy);
+    setUpReportPdf(writer, reportOptions);
     writer.setTitle(QObject::tr("Review of %n load-test session(s)", "", static_cast<int>(rows.size())));
     QPainter painter;
     if (!painter.begin(&writer))
@@ -88,12 +85,7 @@ int render(QPdfWriter &writer, const std::vector<const SessionRow *> &rows, cons
     drawSummaryPage(canvas, rows, stats, options, reportOptions);
     for (const SessionSummary &summary : summaries) {
         canvas.newPage();
-        drawTitleBlock(canvas, summary, reportOptions);
-        drawResultsAndVerdict(canvas, summary);
-        drawCharts(canvas, summary);
-        drawNameplateAndPlan(canvas, summary);
-        drawReadingsTable(canvas, summary);
-        drawRecordsAndSignOff(canvas, summary);
+        drawSessionReport(canvas, summary, reportOptions);
     }
     canvas.finish();
     const int pages = canvas.pageNumber();
