@@ -46,15 +46,22 @@ const Data &data(std::size_t n)
     return cache.back().second;
 }
 
+// A live fit holding the first n points of `d`.
+LineFit liveFitOf(const Data &d, std::size_t n)
+{
+    LineFit fit;
+    for (std::size_t i = 0; i < n; ++i)
+        fit.add(d.x[i], d.y[i]);
+    return fit;
+}
+
 // Adding one point to a live fit that already holds n points (n grows by the iteration count;
 // the cost does not depend on it).
 void liveAdd(benchmark::State &state)
 {
     const auto n = static_cast<std::size_t>(state.range(0));
     const Data &d = data(n + 4096);
-    LineFit fit;
-    for (std::size_t i = 0; i < n; ++i)
-        fit.add(d.x[i], d.y[i]);
+    LineFit fit = liveFitOf(d, n);
     std::size_t k = 0;
     for (auto _ : state) {
         fit.add(d.x[n + (k & 4095)], d.y[n + (k & 4095)]);
@@ -70,9 +77,7 @@ void liveAddRemove(benchmark::State &state)
 {
     const auto n = static_cast<std::size_t>(state.range(0));
     const Data &d = data(n + 4096);
-    LineFit fit;
-    for (std::size_t i = 0; i < n; ++i)
-        fit.add(d.x[i], d.y[i]);
+    LineFit fit = liveFitOf(d, n);
     std::size_t k = 0;
     for (auto _ : state) {
         const std::size_t j = n + (k++ & 4095);
@@ -87,9 +92,7 @@ BENCHMARK(liveAddRemove)->Arg(10)->Arg(1000)->Arg(100000);
 void liveResult(benchmark::State &state)
 {
     const Data &d = data(1000);
-    LineFit fit;
-    for (std::size_t i = 0; i < 1000; ++i)
-        fit.add(d.x[i], d.y[i]);
+    LineFit fit = liveFitOf(d, 1000);
     for (auto _ : state)
         benchmark::DoNotOptimize(fit.result());
 }
