@@ -13,7 +13,9 @@
 
 #include <cstdlib>
 #include <filesystem>
+#include <optional>
 #include <string>
+#include <vector>
 
 using namespace sagline;
 namespace fs = std::filesystem;
@@ -111,17 +113,26 @@ void AppendReadingDurable(benchmark::State &state)
 }
 BENCHMARK(AppendReadingDurable)->Iterations(10000)->Unit(benchmark::kMicrosecond);
 
+// Opens `path` for review and loads its included readings; nothing (and the benchmark marked
+// skipped) when it cannot be opened.
+std::optional<std::vector<Reading>> openAndLoad(benchmark::State &state, const std::string &path)
+{
+    auto opened = SessionStore::openForReview(path);
+    if (!opened.ok()) {
+        state.SkipWithError(opened.message.c_str());
+        return std::nullopt;
+    }
+    return opened.value->includedReadings().value;
+}
+
 void OpenAndLoad100k(benchmark::State &state)
 {
     const std::string path = largeSession();
     for (auto _ : state) {
-        auto opened = SessionStore::openForReview(path);
-        if (!opened.ok()) {
-            state.SkipWithError(opened.message.c_str());
+        auto readings = openAndLoad(state, path);
+        if (!readings)
             break;
-        }
-        auto readings = opened.value->includedReadings();
-        benchmark::DoNotOptimize(readings.value.data());
+        benchmark::DoNotOptimize(readings->data());
     }
 }
 BENCHMARK(OpenAndLoad100k)->Unit(benchmark::kMillisecond);
@@ -130,13 +141,10 @@ void OpenLoadAndFit100k(benchmark::State &state)
 {
     const std::string path = largeSession();
     for (auto _ : state) {
-        auto opened = SessionStore::openForReview(path);
-        if (!opened.ok()) {
-            state.SkipWithError(opened.message.c_str());
+        const auto readings = openAndLoad(state, path);
+        if (!readings)
             break;
-        }
-        const auto readings = opened.value->includedReadings();
-        const FitSummary fit = fitReadings(readings.value, FitMethod::Ols);
+        const FitSummary fit = fitReadings(*readings, FitMethod::Ols);
         if (!fit.ok()) {
             state.SkipWithError(fit.message.c_str());
             break;
