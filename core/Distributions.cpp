@@ -23,26 +23,21 @@ double betaContinuedFraction(double a, double b, double x)
         d = tiny;
     d = 1.0 / d;
     double h = d;
+    // One Lentz step with partial numerator aa: updates d and c, returns the factor for h.
+    const auto step = [&](double aa) {
+        d = 1.0 + aa * d;
+        if (std::fabs(d) < tiny)
+            d = tiny;
+        c = 1.0 + aa / c;
+        if (std::fabs(c) < tiny)
+            c = tiny;
+        d = 1.0 / d;
+        return d * c;
+    };
     for (int m = 1; m <= 10000; ++m) {
         const double m2 = 2.0 * m;
-        double aa = m * (b - m) * x / ((qam + m2) * (a + m2));
-        d = 1.0 + aa * d;
-        if (std::fabs(d) < tiny)
-            d = tiny;
-        c = 1.0 + aa / c;
-        if (std::fabs(c) < tiny)
-            c = tiny;
-        d = 1.0 / d;
-        h *= d * c;
-        aa = -(a + m) * (qab + m) * x / ((a + m2) * (qap + m2));
-        d = 1.0 + aa * d;
-        if (std::fabs(d) < tiny)
-            d = tiny;
-        c = 1.0 + aa / c;
-        if (std::fabs(c) < tiny)
-            c = tiny;
-        d = 1.0 / d;
-        const double delta = d * c;
+        h *= step(m * (b - m) * x / ((qam + m2) * (a + m2))); // the even term, d_2m
+        const double delta = step(-(a + m) * (qab + m) * x / ((a + m2) * (qap + m2))); // the odd term
         h *= delta;
         if (std::fabs(delta - 1.0) < epsilon)
             break;
