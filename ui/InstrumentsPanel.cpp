@@ -29,6 +29,8 @@ InstrumentsPanel::InstrumentsPanel(QWidget *parent)
     auto *serial = new QWidget;
     auto *serialForm = new QFormLayout(serial);
     m_port->setEditable(true);
+    // Enter in the field must not add the typed path as a list entry (one without a port behind it).
+    m_port->setInsertPolicy(QComboBox::NoInsert);
     m_port->setAccessibleName(tr("Serial port"));
     m_port->lineEdit()->setPlaceholderText(tr("pick a port or type a path, e.g. /dev/ttyUSB0"));
     auto *rescan = new QPushButton(tr("Rescan ports"));
@@ -80,8 +82,10 @@ SourceChoice InstrumentsPanel::choice() const
 {
     SourceChoice c;
     c.source = static_cast<ReadingSource>(m_source->currentData().toInt());
+    // A listed port carries its path as data; anything else is the path as typed.
     const int index = m_port->findText(m_port->currentText());
-    c.serialPort = index >= 0 ? m_port->itemData(index).toString() : m_port->currentText().trimmed();
+    const QString listed = index >= 0 ? m_port->itemData(index).toString() : QString();
+    c.serialPort = listed.isEmpty() ? m_port->currentText().trimmed() : listed;
     c.lanAddress = m_address->text().trimmed();
     return c;
 }
@@ -94,6 +98,8 @@ void InstrumentsPanel::setChoice(const SourceChoice &choice)
 }
 
 void InstrumentsPanel::setStatus(const QString &status) { m_status->setText(tr("Status: %1").arg(status)); }
+
+QString InstrumentsPanel::statusText() const { return m_status->text(); }
 
 void InstrumentsPanel::setLocked(bool locked)
 {

@@ -22,6 +22,9 @@ public:
     void setStatus(const QString &status);
     void setLocked(bool locked);
     QComboBox *sourceBox() const { return m_source; }
+    QComboBox *portBox() const { return m_port; }
+    QLineEdit *addressEdit() const { return m_address; }
+    QString statusText() const;
 
 signals:
     void choiceChanged();

@@ -117,7 +117,7 @@ void SweepRun::wireController(SweepWorkspace *workspace)
     connect(controller, &SweepController::paused, workspace,
             [workspace](const QString &reason) { emit workspace->notice(tr("Paused: %1").arg(reason)); });
     connect(controller, &SweepController::linkLost, workspace,
-            [workspace](const QString &message) { emit workspace->instrumentStatus(tr("link lost: %1").arg(message)); });
+            [workspace](const QString &message) { emit workspace->instrumentStatus(message); }); // "link lost at step N: ..."
     connect(controller, &SweepController::linkRestored, workspace,
             [workspace](const QString &message) { emit workspace->instrumentStatus(tr("link restored: %1").arg(message)); });
     connect(controller, &SweepController::finished, workspace, [this, workspace](SweepOutcome outcome) {

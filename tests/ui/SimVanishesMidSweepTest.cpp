@@ -1,0 +1,126 @@
+// The simulator killed (SIGKILL, like a pulled plug or a crashed meter server) in the middle of
+// a sweep through the window, over a serial port (its pty goes away) and over the LAN (its TCP
+// peer goes away): the panel says the link is lost, nothing is recorded for the step that was
+// being read, every earlier reading stays in the table and in the session file, and the
+// operator can still stop the sweep cleanly.
+#include "UiTestSupport.h"
+
+#include "SimProcess.h"
+
+#include "InstrumentsPanel.h"
+#include "NextStepStrip.h"
+#include "PlanPanel.h"
+#include "SessionStore.h"
+#include "SweepRun.h"
+#include "SweepWorkspace.h"
+
+#include <gtest/gtest.h>
+
+#include <QComboBox>
+#include <QPushButton>
+
+using namespace sagline;
+using namespace sagline::test;
+
+namespace {
+
+void killMidSweep(ReadingSource source)
+{
+    QTemporaryDir folder;
+    QTemporaryDir links;
+    SimProcess sim;
+    QString error;
+    ASSERT_TRUE(sim.start(links.path(), {QStringLiteral("--rated-rise"), QStringLiteral("0"), QStringLiteral("--noise-v"),
+                                         QStringLiteral("0.0005"), QStringLiteral("--noise-a"), QStringLiteral("0.0002")},
+                          &error))
+        << error.toStdString();
+    const auto meter = sim.endpoint(QStringLiteral("power-meter"));
+    ASSERT_TRUE(meter.has_value()) << sim.output().toStdString();
+
+    auto window = demoWindow(folder.path());
+    window->setupForm()->setSessionDetails({QStringLiteral("Link tester"), QStringLiteral("LK-2"), QStringLiteral("20 °C"), {}});
+    typeInto(window->setupForm()->quantityField(QStringLiteral("bench.steps")), QStringLiteral("5"));
+    typeInto(window->setupForm()->quantityField(QStringLiteral("bench.dwell_s")), QStringLiteral("50 ms"));
+    InstrumentsPanel *panel = window->instrumentsPanel();
+    panel->sourceBox()->setCurrentIndex(panel->sourceBox()->findData(int(source)));
+    if (source == ReadingSource::SerialPort)
+        typeInto(panel->portBox()->lineEdit(), meter->ptyLink);
+    else
+        typeInto(panel->addressEdit(), QStringLiteral("127.0.0.1:%1").arg(meter->tcpPort));
+    QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
+    SweepWorkspace *workspace = window->workspace();
+    ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
+    ASSERT_TRUE(waitUntil([&] { return !workspace->run()->isConnecting(); }, 8000));
+    SweepController *controller = workspace->run()->controller();
+    const Plan &plan = *workspace->plan();
+    QPushButton *record = window->nextStep()->recordButton();
+
+    // Three steps recorded normally.
+    constexpr std::size_t before = 3;
+    for (std::size_t i = 0; i <= before; ++i) {
+        ASSERT_TRUE(waitUntil([&] { return controller->state() == SweepState::WaitingForLoad; }, 8000))
+            << toString(controller->state()).toStdString();
+        ASSERT_TRUE(sim.setLoad(plan.steps[i].loadResistanceOhm, &error)) << error.toStdString();
+        QTest::mouseClick(record, Qt::LeftButton);
+        if (i < before) {
+            ASSERT_TRUE(waitUntil([&] { return workspace->readings().size() == i + 1; }, 8000));
+        }
+    }
+    // The fourth step is being read (the button was just clicked): the simulator dies.
+    const std::vector<Reading> kept = workspace->readings();
+    ASSERT_EQ(kept.size(), before);
+    sim.kill();
+
+    // "Status: link lost at step 3: meter (tcp 127.0.0.1:41639): ... The remote host closed the
+    // connection. Recorded points are kept; ..."
+    const QString lostAt = QStringLiteral("link lost at step %1").arg(plan.steps[before].index);
+    ASSERT_TRUE(waitUntil([&] { return panel->statusText().contains(lostAt); }, 8000)) << panel->statusText().toStdString();
+    EXPECT_FALSE(panel->statusText().contains(QStringLiteral("link lost: link lost"))) << panel->statusText().toStdString();
+    EXPECT_TRUE(panel->statusText().contains(QStringLiteral("Recorded points are kept")));
+    EXPECT_EQ(controller->state(), SweepState::Paused);
+    EXPECT_TRUE(workspace->isRunning()); // paused, waiting for the link: not ended, not failed
+    // The meter stays away through its reconnect attempts (one a second): nothing more is
+    // recorded, and clicking Record while the link is down takes nothing either.
+    QTest::mouseClick(record, Qt::LeftButton);
+    waitUntil([] { return false; }, 1500);
+    EXPECT_EQ(workspace->readings().size(), before);
+    EXPECT_TRUE(panel->statusText().contains(QStringLiteral("link lost"))) << panel->statusText().toStdString();
+
+    // The operator stops the sweep; the session keeps the three readings unchanged and says why
+    // the sweep paused.
+    QPushButton *stop = window->nextStep()->stopButton();
+    ASSERT_TRUE(stop->isEnabled());
+    QTest::mouseClick(stop, Qt::LeftButton);
+    ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }, 5000)) << toString(controller->state()).toStdString();
+    ASSERT_EQ(workspace->readings().size(), before);
+    auto stored = SessionStore::openForReview(workspace->sessionPath().toStdString());
+    ASSERT_TRUE(stored.ok()) << stored.message;
+    const auto readings = stored.value->readings();
+    ASSERT_TRUE(readings.ok());
+    ASSERT_EQ(readings.value.size(), before);
+    for (std::size_t i = 0; i < before; ++i) {
+        EXPECT_EQ(readings.value[i].id, kept[i].id);
+        EXPECT_EQ(readings.value[i].step, plan.steps[i].index);
+        EXPECT_DOUBLE_EQ(readings.value[i].voltageV, kept[i].voltageV);
+        EXPECT_DOUBLE_EQ(readings.value[i].currentA, kept[i].currentA);
+        EXPECT_FALSE(readings.value[i].excluded);
+    }
+    const auto notes = stored.value->notes();
+    ASSERT_TRUE(notes.ok());
+    bool lossNoted = false;
+    for (const auto &note : notes.value)
+        lossNoted = lossNoted || note.text.find("link lost at step " + std::to_string(plan.steps[before].index)) != std::string::npos;
+    EXPECT_TRUE(lossNoted);
+}
+
+} // namespace
+
+TEST(SimVanishesMidSweep, OverASerialPortLinkLossIsShownAndNothingIsLost)
+{
+    killMidSweep(ReadingSource::SerialPort);
+}
+
+TEST(SimVanishesMidSweep, OverTheLanLinkLossIsShownAndNothingIsLost)
+{
+    killMidSweep(ReadingSource::Lan);
+}
