@@ -50,10 +50,10 @@ SessionFigures computeSessionFigures(const FitSummary &fit, const Setup &setup,
     figures.regulationLimitPercent = options.regulationLimitPercent ? options.regulationLimitPercent
                                                                     : nameplateRegulationPercent(setup.nameplate);
     if (figures.regulationLimitPercent) {
-        // Without an uncertainty (two points) the decision is made on the value alone, as the fit command does.
-        const ConformityDecision decision =
-            decideAgainstUpperLimit(*figures.regulationPercent, figures.regulationUPercent.value_or(0.0),
-                                    *figures.regulationLimitPercent, options.rule);
+        // U unknown (two points) is passed as unknown, never as 0: the guarded rule then cannot
+        // decide, the simple rule decides on the value alone (core/ConformityDecision.h).
+        const ConformityDecision decision = decideAgainstUpperLimit(
+            *figures.regulationPercent, figures.regulationUPercent, *figures.regulationLimitPercent, options.rule);
         if (decision.ok) {
             figures.verdict = decision.outcome;
             figures.ruleName = decision.ruleName;

@@ -305,3 +305,30 @@ TEST(SessionFigures, GuardedVerdictOnTheDemoUnit)
     EXPECT_EQ(row.figures.verdictText(), "pass");
     EXPECT_NE(row.figures.ruleName.find("ILAC-G8"), std::string::npos) << row.figures.ruleName;
 }
+
+TEST(SessionFigures, UnknownUncertaintyIsNotTakenAsZero)
+{
+    // Two readings: the line goes through both, so the fit has no scatter to give an
+    // uncertainty (n - 2 = 0 degrees of freedom) and regulation has no U. Guarded acceptance
+    // (ILAC-G8:09/2019 §4.2.2, w = U) then has no guard band to apply: it cannot decide, even
+    // though the value (about 9.5 %) is below the 10 % limit. U = 0 would have called it a pass.
+    TempFolder folder;
+    DemoUnit unit;
+    unit.resistanceOhm = 1.10;
+    unit.points = 2;
+    const std::string path = makeDemoSession(folder.file("unit.sagline"), unit);
+    const SessionRow guarded = loadSessionRow(path, {});
+    ASSERT_TRUE(guarded.figures.ok) << guarded.figures.message;
+    ASSERT_TRUE(guarded.figures.regulationPercent.has_value());
+    EXPECT_LT(*guarded.figures.regulationPercent, 10.0);
+    EXPECT_FALSE(guarded.figures.regulationUPercent.has_value());
+    EXPECT_EQ(guarded.figures.verdictText(), "cannot-decide");
+    EXPECT_NE(guarded.figures.ruleName.find("guarded"), std::string::npos) << guarded.figures.ruleName;
+
+    // Simple acceptance (ILAC-G8 §4.2.1, w = 0) decides on the value alone, as the rule says.
+    ComparisonOptions simple;
+    simple.figures.rule = DecisionRule::SimpleAcceptance;
+    const SessionRow row = loadSessionRow(path, simple);
+    ASSERT_TRUE(row.figures.ok);
+    EXPECT_EQ(row.figures.verdictText(), "pass");
+}
