@@ -2,6 +2,7 @@
 // sign-off) of the session report.
 #include "ReportChart.h"
 #include "ReportCanvas.h"
+#include "ReportReadingRows.h"
 #include "ReportSections.h"
 #include "ReportText.h"
 #include "SessionSummary.h"
@@ -137,8 +138,25 @@ void drawCharts(ReportCanvas &canvas, const SessionSummary &summary)
 void drawReadingsTable(ReportCanvas &canvas, const SessionSummary &summary)
 {
     canvas.heading(QStringLiteral("Readings"));
+    const ReadingRowSelection selection = selectReportRows(summary);
+    const ReadingRowLimits limits;
+    if (!selection.complete())
+        canvas.paragraph(QStringLiteral("%1 readings: the first %2, the last %3 and every excluded, flagged, outlier or "
+                                        "not fitted reading are printed (up to %4 of those).")
+                             .arg(summary.readings.size())
+                             .arg(limits.head)
+                             .arg(limits.tail)
+                             .arg(limits.maxNoteworthy),
+                         8.0);
     QList<QStringList> rows;
-    for (std::size_t row = 0; row < summary.readings.size(); ++row) {
+    std::size_t previous = 0;
+    for (const std::size_t row : selection.rows) {
+        if (row > previous + 1 || (rows.isEmpty() && row > 0)) {
+            const std::size_t gap = rows.isEmpty() ? row : row - previous - 1;
+            rows.append({QStringLiteral("…"), QString(), QString(), QString(), QString(), QString(), QString(), QString(),
+                         QString(), QString(), QStringLiteral("%1 not printed").arg(gap)});
+        }
+        previous = row;
         const Reading &r = summary.readings[row];
         const PointFit *point = row < summary.fit.points.size() ? &summary.fit.points[row] : nullptr;
         QString status;
@@ -156,6 +174,9 @@ void drawReadingsTable(ReportCanvas &canvas, const SessionSummary &summary)
                      hasResidual && point->studentized ? fixed(*point->studentized, 2) : QString(), q(flagsToString(r.flags)),
                      status});
     }
+    if (!selection.rows.empty() && selection.rows.back() + 1 < summary.readings.size())
+        rows.append({QStringLiteral("…"), QString(), QString(), QString(), QString(), QString(), QString(), QString(), QString(),
+                     QString(), QStringLiteral("%1 not printed").arg(summary.readings.size() - selection.rows.back() - 1)});
     const auto right = Qt::AlignRight;
     canvas.table({{QStringLiteral("#"), 0.05, right},
                   {QStringLiteral("Step"), 0.05, right},
@@ -169,6 +190,14 @@ void drawReadingsTable(ReportCanvas &canvas, const SessionSummary &summary)
                   {QStringLiteral("Flags"), 0.11},
                   {QStringLiteral("Status"), 0.22}},
                  rows, 7.0);
+    if (!selection.complete()) {
+        QString omitted = QStringLiteral("… %1 readings not printed").arg(selection.notPrinted);
+        if (selection.noteworthyNotPrinted > 0)
+            omitted += QStringLiteral(" (%1 of them excluded, flagged, outliers or not fitted)").arg(selection.noteworthyNotPrinted);
+        canvas.paragraph(omitted + QStringLiteral("; the full list is in the CSV export (sagline-cli export SESSION --csv "
+                                                  "OUT.csv, or File, Export readings to CSV) and the session file."),
+                         8.5, true);
+    }
     canvas.paragraph(QStringLiteral("u(I), u(V): standard uncertainties of each reading. Stud.: externally studentized "
                                     "residual; |Stud.| above 3 marks an outlier, which stays in the fit unless excluded "
                                     "with a reason."),
