@@ -13,7 +13,7 @@ namespace sagline {
 
 InstrumentsPanel::InstrumentsPanel(QWidget *parent)
     : QWidget(parent), m_source(new QComboBox), m_details(new QStackedWidget), m_port(new QComboBox),
-      m_address(new QLineEdit), m_status(new QLabel)
+      m_address(new QLineEdit), m_ammeterRow(new QWidget), m_ammeter(new QLineEdit), m_status(new QLabel)
 {
     auto *layout = new QVBoxLayout(this);
     auto *form = new QFormLayout;
@@ -34,13 +34,13 @@ InstrumentsPanel::InstrumentsPanel(QWidget *parent)
     m_port->setAccessibleName(tr("Serial port"));
     m_port->lineEdit()->setPlaceholderText(tr("pick a port or type a path, e.g. /dev/ttyUSB0"));
     auto *rescan = new QPushButton(tr("Rescan ports"));
-    serialForm->addRow(tr("Port"), m_port);
+    serialForm->addRow(tr("Meter port"), m_port);
     serialForm->addRow(QString(), rescan);
     auto *lan = new QWidget;
     auto *lanForm = new QFormLayout(lan);
     m_address->setPlaceholderText(tr("host or address, port 5025 unless given: 192.168.1.20:5025"));
     m_address->setAccessibleName(tr("LAN address"));
-    lanForm->addRow(tr("Address"), m_address);
+    lanForm->addRow(tr("Meter address"), m_address);
     auto *typed = new QLabel(tr("Type each reading into the current and voltage fields of the next-step strip; "
                                 "values are checked as an instrument's would be."));
     typed->setWordWrap(true);
@@ -49,6 +49,15 @@ InstrumentsPanel::InstrumentsPanel(QWidget *parent)
     m_details->addWidget(lan);
     m_details->addWidget(typed);
     layout->addWidget(m_details);
+    // A bench often has two meters: then the one above is the voltmeter and this the ammeter,
+    // on a serial port or the LAN alike.
+    auto *ammeterForm = new QFormLayout(m_ammeterRow);
+    ammeterForm->setContentsMargins(0, 0, 0, 0);
+    m_ammeter->setPlaceholderText(tr("empty: the meter above reads V and I; else /dev/ttyUSB1 or 192.168.1.21:5025"));
+    m_ammeter->setAccessibleName(tr("Separate ammeter address"));
+    m_ammeter->setToolTip(tr("With a separate ammeter, the meter above is the voltmeter."));
+    ammeterForm->addRow(tr("Separate ammeter"), m_ammeter);
+    layout->addWidget(m_ammeterRow);
 
     auto *roles = new QLabel(tr("<b>Meter roles</b><br>Secondary voltmeter: AC V RMS (MEASure:VOLTage:AC?)<br>"
                                 "Secondary ammeter: AC A RMS (MEASure:CURRent:AC?)<br>"
@@ -62,11 +71,19 @@ InstrumentsPanel::InstrumentsPanel(QWidget *parent)
 
     connect(m_source, &QComboBox::currentIndexChanged, this, [this](int index) {
         m_details->setCurrentIndex(index);
+        showAmmeterRow();
         emit choiceChanged();
     });
     connect(rescan, &QPushButton::clicked, this, &InstrumentsPanel::refreshPorts);
     refreshPorts();
+    showAmmeterRow();
     setStatus(tr("Not connected."));
+}
+
+void InstrumentsPanel::showAmmeterRow()
+{
+    const auto source = static_cast<ReadingSource>(m_source->currentData().toInt());
+    m_ammeterRow->setVisible(source == ReadingSource::SerialPort || source == ReadingSource::Lan);
 }
 
 void InstrumentsPanel::refreshPorts()
@@ -87,6 +104,7 @@ SourceChoice InstrumentsPanel::choice() const
     const QString listed = index >= 0 ? m_port->itemData(index).toString() : QString();
     c.serialPort = listed.isEmpty() ? m_port->currentText().trimmed() : listed;
     c.lanAddress = m_address->text().trimmed();
+    c.ammeterAddress = m_ammeter->text().trimmed();
     return c;
 }
 
@@ -95,6 +113,7 @@ void InstrumentsPanel::setChoice(const SourceChoice &choice)
     m_source->setCurrentIndex(m_source->findData(int(choice.source)));
     m_port->setEditText(choice.serialPort);
     m_address->setText(choice.lanAddress);
+    m_ammeter->setText(choice.ammeterAddress);
 }
 
 void InstrumentsPanel::setStatus(const QString &status) { m_status->setText(tr("Status: %1").arg(status)); }
@@ -105,6 +124,7 @@ void InstrumentsPanel::setLocked(bool locked)
 {
     m_source->setEnabled(!locked);
     m_details->setEnabled(!locked);
+    m_ammeterRow->setEnabled(!locked);
 }
 
 } // namespace sagline

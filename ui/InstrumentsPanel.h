@@ -1,5 +1,7 @@
 // Where readings come from: the virtual bench (default), a serial port (listed ports, or a
-// path typed in), a LAN address, or readings typed in by hand; and what is connected.
+// path typed in), a LAN address, or readings typed in by hand; and what is connected. On a
+// serial port or the LAN one meter reads V and I, or it is the voltmeter and a separate
+// ammeter has its own address (serial or LAN).
 #pragma once
 
 #include "SweepWorkspace.h"
@@ -24,6 +26,7 @@ public:
     QComboBox *sourceBox() const { return m_source; }
     QComboBox *portBox() const { return m_port; }
     QLineEdit *addressEdit() const { return m_address; }
+    QLineEdit *ammeterEdit() const { return m_ammeter; }
     QString statusText() const;
 
 signals:
@@ -31,10 +34,13 @@ signals:
 
 private:
     void refreshPorts();
+    void showAmmeterRow();
     QComboBox *m_source;
     QStackedWidget *m_details;
     QComboBox *m_port;
     QLineEdit *m_address;
+    QWidget *m_ammeterRow; // serial and LAN only
+    QLineEdit *m_ammeter;
     QLabel *m_status;
 };
 

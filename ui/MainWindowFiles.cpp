@@ -87,6 +87,7 @@ void MainWindow::readSettings()
     choice.source = static_cast<ReadingSource>(settings.value(QStringLiteral("instruments/source"), 0).toInt());
     choice.serialPort = settings.value(QStringLiteral("instruments/serialPort")).toString();
     choice.lanAddress = settings.value(QStringLiteral("instruments/lanAddress")).toString();
+    choice.ammeterAddress = settings.value(QStringLiteral("instruments/ammeterAddress")).toString();
     m_instruments->setChoice(choice);
     SessionDetails details;
     details.operatorName = settings.value(QStringLiteral("session/operator")).toString();
@@ -106,6 +107,7 @@ void MainWindow::writeSettings() const
     settings.setValue(QStringLiteral("instruments/source"), int(choice.source));
     settings.setValue(QStringLiteral("instruments/serialPort"), choice.serialPort);
     settings.setValue(QStringLiteral("instruments/lanAddress"), choice.lanAddress);
+    settings.setValue(QStringLiteral("instruments/ammeterAddress"), choice.ammeterAddress);
     settings.setValue(QStringLiteral("session/operator"), m_setupForm->sessionDetails().operatorName);
 }
 

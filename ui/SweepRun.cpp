@@ -71,7 +71,11 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
     case ReadingSource::SerialPort:
     case ReadingSource::Lan:
         addresses.meter = source.source == ReadingSource::SerialPort ? source.serialPort : source.lanAddress;
-        if (addresses.meter.isEmpty()) {
+        if (!addresses.meter.isEmpty() && !source.ammeterAddress.isEmpty()) {
+            addresses.voltmeter = addresses.meter; // two meters, one per role
+            addresses.ammeter = source.ammeterAddress;
+            addresses.meter.clear();
+        } else if (addresses.meter.isEmpty()) {
             m_error = source.source == ReadingSource::SerialPort ? tr("instruments.serial_port: pick a port or type its path")
                                                                  : tr("instruments.lan_address: type the meter's address");
             return;

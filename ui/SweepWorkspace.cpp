@@ -10,6 +10,7 @@
 
 #include <QDateTime>
 #include <QDir>
+#include <QFile>
 #include <QRegularExpression>
 
 namespace sagline {
@@ -99,8 +100,14 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
     resetReadings();
     emit sessionChanged();
     auto run = std::make_unique<SweepRun>(this, *m_setup, *m_plan, source, m_simulatedTime);
-    if (!run->errorString().isEmpty())
-        return run->errorString();
+    if (const QString refused = run->errorString(); !refused.isEmpty()) {
+        // Nothing can be recorded into the file just created: do not leave it behind empty.
+        run.reset();
+        m_store.reset();
+        QFile::remove(path);
+        emit sessionChanged();
+        return refused;
+    }
     m_run = std::move(run);
     m_paused = false;
     connect(m_run.get(), &SweepRun::connected, this,

@@ -30,8 +30,11 @@ enum class ReadingSource { VirtualBench, SerialPort, Lan, TypedIn };
 
 struct SourceChoice {
     ReadingSource source = ReadingSource::VirtualBench;
-    QString serialPort;  // "/dev/ttyUSB0"
-    QString lanAddress;  // "192.168.1.20:5025"
+    QString serialPort;  // "/dev/ttyUSB0": one meter in both roles, or the voltmeter (below)
+    QString lanAddress;  // "192.168.1.20:5025": likewise
+    // A separate ammeter, in either form ("/dev/ttyUSB1", "192.168.1.21:5025"); the port or
+    // address above is then the voltmeter. Empty: that one meter reads both.
+    QString ammeterAddress = {};
 };
 
 class SweepWorkspace : public QObject {

@@ -1,6 +1,6 @@
 // Whole sweeps through the window against sagline-sim running as its own process: its two-channel
 // meter on a pseudo-terminal typed in as the serial port, or on loopback TCP typed in as the LAN
-// address. The test plays the operator: it sets the simulator's load for each step over the
+// address; or its voltmeter on a pty and its separate ammeter on loopback TCP. The test plays the operator: it sets the simulator's load for each step over the
 // load's own SCPI link, then clicks the window's "Load is set" (Record) button. Wall time, with
 // a short dwell, a quiet simulator (low noise) and no copper heating so a sweep takes seconds.
 // Also: the simulator killed mid-sweep.
@@ -20,6 +20,7 @@
 #include <gtest/gtest.h>
 
 #include <QComboBox>
+#include <QDir>
 #include <QPushButton>
 
 #include <cmath>
@@ -41,7 +42,9 @@ struct LinkSweep {
 
     // Starts the simulator and a window on the demo setup with a short plan, then connects
     // through the panel as a person does: the source picked, the address typed, Enter pressed.
-    ::testing::AssertionResult connect(ReadingSource source)
+    // `twoMeters`: the simulator's voltmeter at that source and its ammeter on the LAN, typed
+    // into the separate-ammeter field; otherwise its two-channel power meter reads both.
+    ::testing::AssertionResult connect(ReadingSource source, bool twoMeters = false)
     {
         QString error;
         if (!sim.start(links.path(), {QStringLiteral("--seed"), QStringLiteral("7"), QStringLiteral("--rated-rise"), QStringLiteral("0"),
@@ -49,10 +52,15 @@ struct LinkSweep {
                                       QStringLiteral("0.0002")},
                        &error))
             return ::testing::AssertionFailure() << error.toStdString();
-        const auto meter = sim.endpoint(QStringLiteral("power-meter"));
-        if (!meter)
-            return ::testing::AssertionFailure() << "no power-meter line in: " << sim.output().toStdString();
-        identity = meter->identity;
+        const auto meter = sim.endpoint(twoMeters ? QStringLiteral("voltmeter") : QStringLiteral("power-meter"));
+        const auto ammeter = sim.endpoint(QStringLiteral("ammeter"));
+        if (!meter || !ammeter)
+            return ::testing::AssertionFailure() << "no meter lines in: " << sim.output().toStdString();
+        identities.clear();
+        if (twoMeters)
+            identities = {{QStringLiteral("voltmeter"), meter->identity}, {QStringLiteral("ammeter"), ammeter->identity}};
+        else
+            identities = {{QStringLiteral("meter"), meter->identity}};
 
         window = demoWindow(folder.path());
         window->setupForm()->setSessionDetails({QStringLiteral("Link tester"), QStringLiteral("LK-1"), QStringLiteral("20 °C"), {}});
@@ -60,6 +68,8 @@ struct LinkSweep {
         typeInto(window->setupForm()->quantityField(QStringLiteral("bench.dwell_s")), QStringLiteral("50 ms"));
         InstrumentsPanel *panel = window->instrumentsPanel();
         QComboBox *box = panel->sourceBox();
+        if (panel->ammeterEdit()->isVisibleTo(panel))
+            return ::testing::AssertionFailure() << "a separate-ammeter field shown for the virtual bench";
         box->setCurrentIndex(box->findData(int(source)));
         if (source == ReadingSource::SerialPort) {
             typeInto(panel->portBox()->lineEdit(), meter->ptyLink);
@@ -67,6 +77,11 @@ struct LinkSweep {
         } else {
             typeInto(panel->addressEdit(), QStringLiteral("127.0.0.1:%1").arg(meter->tcpPort));
             QTest::keyClick(panel->addressEdit(), Qt::Key_Return);
+        }
+        if (twoMeters) {
+            if (!panel->ammeterEdit()->isVisibleTo(panel))
+                return ::testing::AssertionFailure() << "no separate-ammeter field for this source";
+            typeInto(panel->ammeterEdit(), QStringLiteral("127.0.0.1:%1").arg(ammeter->tcpPort));
         }
         QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
         SweepWorkspace *workspace = window->workspace();
@@ -105,18 +120,19 @@ struct LinkSweep {
         return ::testing::AssertionSuccess();
     }
 
-    QString identity;
+    QList<QPair<QString, QString>> identities; // instrument name, its *IDN? answer
 };
 
-void runWholeSweep(ReadingSource source)
+void runWholeSweep(ReadingSource source, bool twoMeters = false)
 {
     LinkSweep s;
-    ASSERT_TRUE(s.connect(source));
+    ASSERT_TRUE(s.connect(source, twoMeters));
     InstrumentsPanel *panel = s.window->instrumentsPanel();
-    // The meter's own answer to *IDN?, as the simulator printed it, is shown under its name.
+    // Each meter's own answer to *IDN?, as the simulator printed it, is shown under its name.
     EXPECT_TRUE(panel->statusText().contains(QStringLiteral("connected"))) << panel->statusText().toStdString();
-    EXPECT_TRUE(panel->statusText().contains(QStringLiteral("meter: ") + s.identity))
-        << panel->statusText().toStdString() << " / " << s.identity.toStdString();
+    for (const auto &[name, identity] : s.identities)
+        EXPECT_TRUE(panel->statusText().contains(name + QStringLiteral(": ") + identity))
+            << panel->statusText().toStdString() << " / " << identity.toStdString();
 
     const std::size_t steps = s.plan().steps.size();
     ASSERT_EQ(steps, 6u); // 5 load steps and the open circuit
@@ -159,9 +175,15 @@ void runWholeSweep(ReadingSource source)
     }
     const auto instruments = stored.value->instruments();
     ASSERT_TRUE(instruments.ok());
-    ASSERT_EQ(instruments.value.size(), 1u);
-    EXPECT_EQ(instruments.value.front().role, "secondary_voltage,secondary_current"); // one meter, both roles
-    EXPECT_EQ(instruments.value.front().identity, s.identity.toStdString());
+    ASSERT_EQ(instruments.value.size(), s.identities.size());
+    if (twoMeters) {
+        EXPECT_EQ(instruments.value[0].role, "secondary_voltage");
+        EXPECT_EQ(instruments.value[1].role, "secondary_current");
+    } else {
+        EXPECT_EQ(instruments.value[0].role, "secondary_voltage,secondary_current"); // one meter, both roles
+    }
+    for (qsizetype i = 0; i < s.identities.size(); ++i)
+        EXPECT_EQ(instruments.value[static_cast<std::size_t>(i)].identity, s.identities[i].second.toStdString());
     stored.value.reset();
     const auto summary = loadSessionSummary(workspace->sessionPath().toStdString());
     ASSERT_TRUE(summary.ok()) << summary.message;
@@ -179,4 +201,27 @@ TEST(SerialAndLanSweep, SerialPortPathTypedInRunsTheWholeSweep)
 TEST(SerialAndLanSweep, LanAddressTypedInRunsTheWholeSweep)
 {
     runWholeSweep(ReadingSource::Lan);
+}
+
+TEST(SerialAndLanSweep, VoltmeterOnASerialPortAndAmmeterOnTheLanRunTheWholeSweep)
+{
+    runWholeSweep(ReadingSource::SerialPort, true);
+}
+
+TEST(SerialAndLanSweep, AWrongAmmeterAddressIsRefusedNamingIt)
+{
+    QTemporaryDir folder;
+    auto window = demoWindow(folder.path());
+    window->setupForm()->setSessionDetails({QStringLiteral("Link tester"), QStringLiteral("LK-3"), {}, {}});
+    InstrumentsPanel *panel = window->instrumentsPanel();
+    panel->sourceBox()->setCurrentIndex(panel->sourceBox()->findData(int(ReadingSource::Lan)));
+    typeInto(panel->addressEdit(), QStringLiteral("127.0.0.1:5025"));
+    typeInto(panel->ammeterEdit(), QStringLiteral("tcp:127.0.0.1:99999"));
+    QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
+    EXPECT_FALSE(window->workspace()->isRunning());
+    EXPECT_TRUE(window->lastMessage().contains(QStringLiteral("ammeter address"))) << window->lastMessage().toStdString();
+    EXPECT_TRUE(window->lastMessage().contains(QStringLiteral("99999"))) << window->lastMessage().toStdString();
+    // Nothing could be recorded: no empty session file is left in the folder.
+    EXPECT_TRUE(QDir(folder.path()).entryList({QStringLiteral("*.sagline")}, QDir::Files).isEmpty());
+    EXPECT_TRUE(window->workspace()->sessionPath().isEmpty());
 }
