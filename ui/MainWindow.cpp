@@ -293,6 +293,11 @@ void MainWindow::handleRunningChanged(bool running)
             m_nextStep->setInstruction(tr("Sweep ended: %n point(s) recorded", nullptr, points),
                                        tr("Every reading is in the session file; exclude, restore or annotate points "
                                           "in the readings table, or start a new session (Ctrl+N)."));
+        else { // a start that failed left no session: correct the setup or the address, accept again
+            m_setupForm->setLocked(false);
+            m_instruments->setLocked(false);
+            m_planPanel->acceptButton()->setEnabled(m_workspace->plan().has_value());
+        }
     }
 }
 

@@ -12,6 +12,7 @@
 #include <QDir>
 #include <QFile>
 #include <QRegularExpression>
+#include <QTimer>
 
 namespace sagline {
 
@@ -101,11 +102,8 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
     emit sessionChanged();
     auto run = std::make_unique<SweepRun>(this, *m_setup, *m_plan, source, m_simulatedTime);
     if (const QString refused = run->errorString(); !refused.isEmpty()) {
-        // Nothing can be recorded into the file just created: do not leave it behind empty.
         run.reset();
-        m_store.reset();
-        QFile::remove(path);
-        emit sessionChanged();
+        discardUnusedSession();
         return refused;
     }
     m_run = std::move(run);
@@ -115,7 +113,12 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
     connect(m_run.get(), &SweepRun::connectFailed, this, [this](const QString &message) {
         emit instrumentStatus(tr("cannot connect: %1").arg(message));
         emit notice(tr("Cannot connect the instruments: %1").arg(message));
-        emit runningChanged(false);
+        // The run is the sender: it goes once this signal has returned.
+        QTimer::singleShot(0, this, [this] {
+            m_run.reset();
+            discardUnusedSession();
+            emit runningChanged(false);
+        });
     });
     connect(m_run.get(), &SweepRun::instrumentError, this, &SweepWorkspace::notice);
     if (source.source != ReadingSource::TypedIn)
@@ -164,6 +167,7 @@ void SweepWorkspace::stop()
         return;
     if (m_run->isConnecting()) {
         m_run.reset(); // nothing recorded yet; drops the half-open links
+        discardUnusedSession();
         emit instrumentStatus(tr("not connected"));
         emit runningChanged(false);
         return;
@@ -294,6 +298,18 @@ const FitSummary &SweepWorkspace::summary()
 double SweepWorkspace::residualOf(double currentA, double voltageV) const
 {
     return voltageV - m_line.intercept - m_line.slope * currentA;
+}
+
+void SweepWorkspace::discardUnusedSession()
+{
+    // Only the file a start just created, before anything was recorded into it: it holds the
+    // setup alone, and a retry creates a new one.
+    if (!m_store || !m_readings.empty() || m_run)
+        return;
+    const QString path = sessionPath();
+    m_store.reset();
+    QFile::remove(path);
+    emit sessionChanged();
 }
 
 void SweepWorkspace::resetReadings()

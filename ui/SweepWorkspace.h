@@ -100,6 +100,7 @@ signals:
 private:
     friend class SweepRun;
     void resetReadings();
+    void discardUnusedSession(); // a session file a failed start left empty
     void fitUpdated(); // after every change to m_fit
     void setNextStep(int stepIndex);
 

@@ -22,6 +22,7 @@
 #include <QComboBox>
 #include <QDir>
 #include <QPushButton>
+#include <QTcpServer>
 
 #include <cmath>
 
@@ -87,8 +88,10 @@ struct LinkSweep {
         SweepWorkspace *workspace = window->workspace();
         if (!workspace->isRunning())
             return ::testing::AssertionFailure() << "not started: " << window->lastMessage().toStdString();
-        if (!waitUntil([&] { return !workspace->run()->isConnecting(); }, 8000))
+        if (!waitUntil([&] { return !workspace->run() || !workspace->run()->isConnecting(); }, 8000))
             return ::testing::AssertionFailure() << "still connecting: " << panel->statusText().toStdString();
+        if (!workspace->isRunning())
+            return ::testing::AssertionFailure() << "not connected: " << panel->statusText().toStdString();
         return ::testing::AssertionSuccess();
     }
 
@@ -224,4 +227,32 @@ TEST(SerialAndLanSweep, AWrongAmmeterAddressIsRefusedNamingIt)
     // Nothing could be recorded: no empty session file is left in the folder.
     EXPECT_TRUE(QDir(folder.path()).entryList({QStringLiteral("*.sagline")}, QDir::Files).isEmpty());
     EXPECT_TRUE(window->workspace()->sessionPath().isEmpty());
+}
+
+TEST(SerialAndLanSweep, NoMeterAtTheAddressSaysSoLeavesNoEmptySessionAndCanBeRetried)
+{
+    // A port nobody listens on: the connection is refused at once.
+    quint16 port = 0;
+    {
+        QTcpServer probe;
+        ASSERT_TRUE(probe.listen(QHostAddress::LocalHost, 0));
+        port = probe.serverPort();
+    }
+    QTemporaryDir folder;
+    auto window = demoWindow(folder.path());
+    window->setupForm()->setSessionDetails({QStringLiteral("Link tester"), QStringLiteral("LK-4"), {}, {}});
+    InstrumentsPanel *panel = window->instrumentsPanel();
+    panel->sourceBox()->setCurrentIndex(panel->sourceBox()->findData(int(ReadingSource::Lan)));
+    typeInto(panel->addressEdit(), QStringLiteral("127.0.0.1:%1").arg(port));
+    QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
+    SweepWorkspace *workspace = window->workspace();
+    ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }, 8000)) << panel->statusText().toStdString();
+    EXPECT_TRUE(panel->statusText().contains(QStringLiteral("cannot connect"))) << panel->statusText().toStdString();
+    ASSERT_TRUE(waitUntil([&] { return workspace->sessionPath().isEmpty(); }, 2000));
+    EXPECT_TRUE(QDir(folder.path()).entryList({QStringLiteral("*.sagline")}, QDir::Files).isEmpty());
+    EXPECT_FALSE(window->nextStep()->recordButton()->isEnabled());
+    // The address can be corrected and the plan accepted again.
+    EXPECT_TRUE(panel->addressEdit()->isEnabled());
+    EXPECT_TRUE(panel->sourceBox()->isEnabled());
+    EXPECT_TRUE(window->planPanel()->acceptButton()->isEnabled());
 }

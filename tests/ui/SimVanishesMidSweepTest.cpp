@@ -50,7 +50,8 @@ void killMidSweep(ReadingSource source)
     QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
     SweepWorkspace *workspace = window->workspace();
     ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
-    ASSERT_TRUE(waitUntil([&] { return !workspace->run()->isConnecting(); }, 8000));
+    ASSERT_TRUE(waitUntil([&] { return !workspace->run() || !workspace->run()->isConnecting(); }, 8000));
+    ASSERT_TRUE(workspace->isRunning()) << panel->statusText().toStdString();
     SweepController *controller = workspace->run()->controller();
     const Plan &plan = *workspace->plan();
     QPushButton *record = window->nextStep()->recordButton();
