@@ -106,6 +106,9 @@ void killMidSweep(ReadingSource source)
         EXPECT_DOUBLE_EQ(readings.value[i].currentA, kept[i].currentA);
         EXPECT_FALSE(readings.value[i].excluded);
     }
+    const auto stops = stored.value->safetyStops();
+    ASSERT_TRUE(stops.ok());
+    EXPECT_TRUE(stops.value.empty()); // a lost link is not a safety stop
     const auto notes = stored.value->notes();
     ASSERT_TRUE(notes.ok());
     bool lossNoted = false;
