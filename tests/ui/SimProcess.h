@@ -25,8 +25,12 @@ struct SimEndpoint {
 class SimProcess {
 public:
     // `linkDir` must exist. Extra arguments go after the defaults.
+    // May be called again after kill(): the same link folder gives the same pty paths.
     bool start(const QString &linkDir, const QStringList &extra, QString *error)
     {
+        m_output.clear();
+        m_endpoints.clear();
+        m_load.abort();
         QStringList args{QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"), QStringLiteral("--tcp-port"),
                          QStringLiteral("0"), QStringLiteral("--link-dir"), linkDir};
         args << extra;

@@ -128,3 +128,74 @@ TEST(SimVanishesMidSweep, OverTheLanLinkLossIsShownAndNothingIsLost)
 {
     killMidSweep(ReadingSource::Lan);
 }
+
+TEST(SimVanishesMidSweep, OverASerialPortTheSimComingBackResumesTheSweepAtTheSameStep)
+{
+    // The simulator restarted on the same pty link path (same seed, so the same identity): the
+    // meter reconnects on its own, the interrupted step is read again and the sweep completes;
+    // every step once, in order.
+    QTemporaryDir folder;
+    QTemporaryDir links;
+    SimProcess sim;
+    QString error;
+    const QStringList quiet{QStringLiteral("--rated-rise"), QStringLiteral("0"), QStringLiteral("--noise-v"), QStringLiteral("0.0005"),
+                            QStringLiteral("--noise-a"), QStringLiteral("0.0002")};
+    ASSERT_TRUE(sim.start(links.path(), quiet, &error)) << error.toStdString();
+    const auto meter = sim.endpoint(QStringLiteral("power-meter"));
+    ASSERT_TRUE(meter.has_value()) << sim.output().toStdString();
+
+    auto window = demoWindow(folder.path());
+    window->setupForm()->setSessionDetails({QStringLiteral("Link tester"), QStringLiteral("LK-5"), QStringLiteral("20 °C"), {}});
+    typeInto(window->setupForm()->quantityField(QStringLiteral("bench.steps")), QStringLiteral("5"));
+    typeInto(window->setupForm()->quantityField(QStringLiteral("bench.dwell_s")), QStringLiteral("50 ms"));
+    InstrumentsPanel *panel = window->instrumentsPanel();
+    panel->sourceBox()->setCurrentIndex(panel->sourceBox()->findData(int(ReadingSource::SerialPort)));
+    typeInto(panel->portBox()->lineEdit(), meter->ptyLink);
+    QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
+    SweepWorkspace *workspace = window->workspace();
+    ASSERT_TRUE(waitUntil([&] { return !workspace->run() || !workspace->run()->isConnecting(); }, 8000));
+    ASSERT_TRUE(workspace->isRunning()) << panel->statusText().toStdString();
+    SweepController *controller = workspace->run()->controller();
+    const Plan &plan = *workspace->plan();
+    QPushButton *record = window->nextStep()->recordButton();
+
+    auto recordStep = [&](std::size_t i, bool wait) {
+        ASSERT_TRUE(waitUntil([&] { return controller->state() == SweepState::WaitingForLoad && controller->currentStep() == plan.steps[i].index; },
+                              8000))
+            << "step " << i << ": " << toString(controller->state()).toStdString() << " at " << controller->currentStep() << ", "
+            << workspace->readings().size() << " readings; " << panel->statusText().toStdString();
+        ASSERT_TRUE(sim.setLoad(plan.steps[i].loadResistanceOhm, &error)) << error.toStdString();
+        QTest::mouseClick(record, Qt::LeftButton);
+        if (wait) {
+            ASSERT_TRUE(waitUntil([&] { return workspace->readings().size() == i + 1; }, 8000));
+        }
+    };
+    for (std::size_t i = 0; i < 3; ++i)
+        recordStep(i, true);
+    recordStep(3, false);
+    sim.kill();
+    ASSERT_TRUE(waitUntil([&] { return panel->statusText().contains(QStringLiteral("link lost at step 3")); }, 8000))
+        << panel->statusText().toStdString();
+
+    // A restarted simulator starts with its load open; on a real bench the rheostat stays where
+    // the operator set it while a meter is away, so the test puts it back at once.
+    ASSERT_TRUE(sim.start(links.path(), quiet, &error)) << error.toStdString();
+    ASSERT_TRUE(sim.setLoad(plan.steps[3].loadResistanceOhm, &error)) << error.toStdString();
+    ASSERT_TRUE(waitUntil([&] { return panel->statusText().contains(QStringLiteral("link restored")); }, 8000))
+        << panel->statusText().toStdString();
+    // The load of the interrupted step was confirmed already: it is read again without asking.
+    ASSERT_TRUE(waitUntil([&] { return workspace->readings().size() == 4; }, 8000)) << toString(controller->state()).toStdString();
+    EXPECT_NEAR(workspace->readings()[3].currentA, plan.steps[3].currentA, 0.05 * plan.steps[3].currentA);
+    for (std::size_t i = 4; i < plan.steps.size(); ++i)
+        recordStep(i, true);
+    ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }, 5000));
+    EXPECT_EQ(controller->state(), SweepState::Finished);
+
+    auto stored = SessionStore::openForReview(workspace->sessionPath().toStdString());
+    ASSERT_TRUE(stored.ok()) << stored.message;
+    const auto readings = stored.value->readings();
+    ASSERT_TRUE(readings.ok());
+    ASSERT_EQ(readings.value.size(), plan.steps.size());
+    for (std::size_t i = 0; i < plan.steps.size(); ++i)
+        EXPECT_EQ(readings.value[i].step, plan.steps[i].index);
+}
