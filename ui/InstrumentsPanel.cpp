@@ -51,11 +51,11 @@ InstrumentsPanel::InstrumentsPanel(QWidget *parent)
     layout->addWidget(m_details);
     // A bench often has two meters: then the one above is the voltmeter and this the ammeter,
     // on a serial port or the LAN alike.
-    auto *ammeterForm = new QFormLayout(m_ammeterRow);
-    ammeterForm->setContentsMargins(0, 0, 0, 0);
-    m_ammeter->setPlaceholderText(tr("empty: the meter above reads V and I; else /dev/ttyUSB1 or 192.168.1.21:5025"));
+    auto *ammeterForm = new QFormLayout(m_ammeterRow); // default margins, like the pages above
+    m_ammeter->setPlaceholderText(tr("optional: 192.168.1.21:5025 or /dev/ttyUSB1"));
     m_ammeter->setAccessibleName(tr("Separate ammeter address"));
-    m_ammeter->setToolTip(tr("With a separate ammeter, the meter above is the voltmeter."));
+    m_ammeter->setToolTip(tr("Leave empty when one meter reads V and I. With a separate ammeter (serial port or LAN "
+                             "address), the meter above is the voltmeter."));
     ammeterForm->addRow(tr("Separate ammeter"), m_ammeter);
     layout->addWidget(m_ammeterRow);
 
