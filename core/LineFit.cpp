@@ -158,20 +158,42 @@ LineFitResult LineFit::weightedResult() const
 
 LinePrediction LineFit::predict(double x, double confidence, double newWeight) const
 {
-    LinePrediction p;
     const LineFitResult r = baseResult();
     if (!r.ok())
-        return p;
+        return {};
+    std::optional<double> t;
+    if (m_count >= 3 && confidence > 0.0 && confidence < 1.0)
+        t = studentTCoverageFactor(confidence, r.degreesOfFreedom);
+    return predictWithFactor(x, r, t, newWeight);
+}
+
+std::vector<LinePrediction> LineFit::predictAll(std::span<const double> xs, double confidence) const
+{
+    std::vector<LinePrediction> out(xs.size());
+    const LineFitResult r = baseResult();
+    if (!r.ok())
+        return out;
+    std::optional<double> t;
+    if (m_count >= 3 && confidence > 0.0 && confidence < 1.0)
+        t = studentTCoverageFactor(confidence, r.degreesOfFreedom);
+    for (std::size_t i = 0; i < xs.size(); ++i)
+        out[i] = predictWithFactor(xs[i], r, t, 1.0);
+    return out;
+}
+
+LinePrediction LineFit::predictWithFactor(double x, const LineFitResult &r, std::optional<double> t,
+                                          double newWeight) const
+{
+    LinePrediction p;
     p.value = m_meanY + r.slope * (x - m_meanX);
-    if (m_count < 3 || !std::isfinite(x) || !(newWeight > 0.0) || !(confidence > 0.0 && confidence < 1.0))
+    if (!t || !std::isfinite(x) || !(newWeight > 0.0))
         return p;
     const double s2 = chiSquared() / r.degreesOfFreedom;
     const double dx = x - m_meanX;
     const double lineVariance = s2 * (1.0 / m_weightSum + dx * dx / m_sxx);
-    const double t = studentTCoverageFactor(confidence, r.degreesOfFreedom);
     p.standardError = std::sqrt(lineVariance);
-    const double halfLine = t * *p.standardError;
-    const double halfNew = t * std::sqrt(lineVariance + s2 / newWeight);
+    const double halfLine = *t * *p.standardError;
+    const double halfNew = *t * std::sqrt(lineVariance + s2 / newWeight);
     p.confidence = Interval{p.value - halfLine, p.value + halfLine};
     p.prediction = Interval{p.value - halfNew, p.value + halfNew};
     return p;

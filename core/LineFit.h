@@ -15,6 +15,7 @@
 #include <optional>
 #include <span>
 #include <string>
+#include <vector>
 
 namespace sagline {
 
@@ -80,8 +81,13 @@ public:
     // Confidence and prediction intervals at x (Student t, n - 2 dof), e.g. for the next step.
     // For the prediction interval of a new reading with weight w the scatter term is s²/w.
     LinePrediction predict(double x, double confidence = 0.95, double newWeight = 1.0) const;
+    // predict() at every x of a grid (a chart's band): the same values, with the t quantile
+    // found once rather than once per x (it is most of the cost of a single prediction).
+    std::vector<LinePrediction> predictAll(std::span<const double> xs, double confidence = 0.95) const;
 
 private:
+    // predict() with the coverage factor t already known (none: fewer than 3 points).
+    LinePrediction predictWithFactor(double x, const LineFitResult &r, std::optional<double> t, double newWeight) const;
     LineFitResult baseResult() const;
     double directSsr() const; // Syy - Sxy²/Sxx, for the start and for pivotal removals
 

@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # The README's test command: installs what is missing, builds with warnings as errors,
-# runs every test through ctest, then the core tests again under ASan + UBSan.
+# runs every test through ctest, saves screenshots of the window, then the core tests again under ASan + UBSan.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
@@ -9,6 +9,8 @@ scripts/install-deps.sh
 cmake --preset ci
 cmake --build --preset ci
 ctest --preset ci
+# The main window after a demo sweep, light and dark, for people to look at (build/ci/screenshots).
+cmake --build --preset ci --target screenshots
 
 cmake --preset asan-ubsan
 cmake --build --preset asan-ubsan

@@ -5,12 +5,21 @@
 
 namespace sagline {
 
+std::size_t drawnPointBudget(double plotWidthPx)
+{
+    constexpr double fewest = 300.0;
+    constexpr double most = 4000.0;
+    return static_cast<std::size_t>(std::clamp(plotWidthPx, fewest, most));
+}
+
 void DisplayPoints::insert(std::int64_t id, double currentA, double voltageV, bool excluded)
 {
     // upper_bound keeps points of equal current in arrival order.
     const auto at = std::upper_bound(m_points.begin(), m_points.end(), currentA,
                                      [](double c, const Entry &e) { return c < e.current; });
     m_points.insert(at, Entry{currentA, voltageV, id, excluded});
+    m_minVoltage = std::min(m_minVoltage, voltageV);
+    m_maxVoltage = std::max(m_maxVoltage, voltageV);
     if (!excluded)
         ++m_includedCount;
 }
@@ -33,6 +42,8 @@ void DisplayPoints::clear()
 {
     m_points.clear();
     m_includedCount = 0;
+    m_minVoltage = std::numeric_limits<double>::infinity();
+    m_maxVoltage = -std::numeric_limits<double>::infinity();
 }
 
 std::vector<PlotPoint> DisplayPoints::collect(bool excluded, const std::function<double(double, double)> &y) const
@@ -47,21 +58,5 @@ std::vector<PlotPoint> DisplayPoints::collect(bool excluded, const std::function
 }
 
 double DisplayPoints::maxCurrent() const { return m_points.empty() ? 0.0 : m_points.back().current; }
-
-double DisplayPoints::minVoltage() const
-{
-    double v = std::numeric_limits<double>::infinity();
-    for (const auto &entry : m_points)
-        v = std::min(v, entry.voltage);
-    return v;
-}
-
-double DisplayPoints::maxVoltage() const
-{
-    double v = -std::numeric_limits<double>::infinity();
-    for (const auto &entry : m_points)
-        v = std::max(v, entry.voltage);
-    return v;
-}
 
 } // namespace sagline

@@ -7,9 +7,14 @@
 
 #include <cstdint>
 #include <functional>
+#include <limits>
 #include <vector>
 
 namespace sagline {
+
+// How many points a chart draws: about one per pixel column of its plot area (more cannot be
+// told apart, and the markers overlap long before), never fewer than a readable minimum.
+std::size_t drawnPointBudget(double plotWidthPx);
 
 class DisplayPoints {
 public:
@@ -23,8 +28,8 @@ public:
     // Included or excluded points in current order, mapped through `y` (identity: V).
     std::vector<PlotPoint> collect(bool excluded, const std::function<double(double, double)> &y = {}) const;
     double maxCurrent() const;
-    double minVoltage() const;
-    double maxVoltage() const;
+    double minVoltage() const { return m_minVoltage; } // +inf when empty
+    double maxVoltage() const { return m_maxVoltage; } // -inf when empty
 
 private:
     struct Entry {
@@ -35,6 +40,9 @@ private:
     };
     std::vector<Entry> m_points;
     std::size_t m_includedCount = 0;
+    // Kept as points arrive: a refresh must not walk 100 000 points to size an axis.
+    double m_minVoltage = std::numeric_limits<double>::infinity();
+    double m_maxVoltage = -std::numeric_limits<double>::infinity();
 };
 
 } // namespace sagline

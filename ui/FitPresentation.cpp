@@ -184,9 +184,12 @@ FitOverlay fitOverlay(const LineFit &live, const std::vector<double> &grid, std:
     FitOverlay overlay;
     if (!live.result().ok())
         return overlay;
-    for (double current : grid) {
-        const LinePrediction p = live.predict(current, 0.95);
-        overlay.line.append(QPointF(current, p.value));
+    const std::vector<LinePrediction> band = live.predictAll(grid, 0.95);
+    for (std::size_t i = 0; i < grid.size(); ++i) {
+        const double current = grid[i];
+        const LinePrediction &p = band[i];
+        if (i == 0 || i + 1 == grid.size()) // a straight line needs its two ends only
+            overlay.line.append(QPointF(current, p.value));
         if (p.confidence) {
             overlay.bandUpper.append(QPointF(current, p.confidence->high));
             overlay.bandLower.append(QPointF(current, p.confidence->low));

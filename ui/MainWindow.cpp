@@ -29,10 +29,32 @@
 #include <QTableView>
 #include <QVBoxLayout>
 
+#include <algorithm>
+
 namespace sagline {
 
 namespace {
 constexpr int bandGridPoints = 150; // the band is drawn on a grid, not one point per reading
+
+// Columns as wide as their widest likely content, so step to residual fit the panel without
+// scrolling; measuring the rows instead (ResizeToContents) walks every row on each insert.
+void sizeReadingsColumns(QTableView *view)
+{
+    const QFontMetrics metrics = view->fontMetrics();
+    const int padding = 2 * metrics.horizontalAdvance(QLatin1Char('M'));
+    const auto widthOf = [&](const QString &sample, int column) {
+        const QString header = view->model()->headerData(column, Qt::Horizontal).toString();
+        return std::max(metrics.horizontalAdvance(sample), metrics.horizontalAdvance(header)) + padding;
+    };
+    auto *header = view->horizontalHeader();
+    header->resizeSection(ReadingsTableModel::Step, widthOf(QStringLiteral("99"), ReadingsTableModel::Step));
+    header->resizeSection(ReadingsTableModel::Time, widthOf(QStringLiteral("00:00:00"), ReadingsTableModel::Time));
+    header->resizeSection(ReadingsTableModel::Current, widthOf(QStringLiteral("10.0000 A"), ReadingsTableModel::Current));
+    header->resizeSection(ReadingsTableModel::Voltage, widthOf(QStringLiteral("250.000 V"), ReadingsTableModel::Voltage));
+    header->resizeSection(ReadingsTableModel::Residual, widthOf(QStringLiteral("−12.3 mV"), ReadingsTableModel::Residual));
+    header->resizeSection(ReadingsTableModel::Flags, widthOf(QStringLiteral("overload"), ReadingsTableModel::Flags));
+    header->resizeSection(ReadingsTableModel::Excluded, widthOf(QStringLiteral("excluded: drift"), ReadingsTableModel::Excluded));
+}
 } // namespace
 
 MainWindow::MainWindow(QWidget *parent)
@@ -79,6 +101,7 @@ void MainWindow::createLayout()
     m_readingsView->verticalHeader()->hide();
     m_readingsView->verticalHeader()->setDefaultSectionSize(m_readingsView->fontMetrics().height() + 6);
     m_readingsView->horizontalHeader()->setStretchLastSection(true);
+    sizeReadingsColumns(m_readingsView);
     m_readingsView->setAccessibleName(tr("Readings"));
     m_readingsView->setContextMenuPolicy(Qt::ActionsContextMenu);
     auto *resultsScroll = new QScrollArea;
@@ -99,7 +122,7 @@ void MainWindow::createLayout()
     m_leftTabs->setMinimumWidth(400);
     m_rightSplitter->setMinimumWidth(380);
     m_mainSplitter->setSizes({460, 760, 480}); // replaced by the saved layout, if any
-    m_rightSplitter->setSizes({640, 260});
+    m_rightSplitter->setSizes({670, 230});
 
     auto *central = new QWidget;
     auto *layout = new QVBoxLayout(central);
@@ -131,6 +154,10 @@ void MainWindow::wireWorkspace()
     connect(m_workspace, &SweepWorkspace::fitChanged, this, [this] {
         if (!m_resultsTimer.isActive())
             m_resultsTimer.start();
+    });
+    connect(m_chart, &VoltageCurrentChart::currentSpanChanged, this, [this] {
+        if (!m_resultsTimer.isActive())
+            m_resultsTimer.start(); // the line and band are evaluated over the shown currents
     });
     connect(m_workspace, &SweepWorkspace::stepChanged, this, &MainWindow::handleStep);
     connect(m_workspace, &SweepWorkspace::safetyStopped, this, &MainWindow::handleSafetyStop);
@@ -216,7 +243,6 @@ void MainWindow::handleReadingRecorded(int row)
     m_readingsModel->append(reading);
     m_chart->addPoint(row, reading.currentA, reading.voltageV, reading.excluded);
     m_residuals->addPoint(row, reading.currentA, reading.voltageV, reading.excluded);
-    m_statusPoints->setText(tr("%n point(s) recorded", nullptr, row + 1));
     if (!m_resultsTimer.isActive())
         m_resultsTimer.start();
 }
@@ -233,6 +259,9 @@ void MainWindow::handleReadingChanged(int row)
 void MainWindow::refreshFitViews()
 {
     m_resultsTimer.stop();
+    const auto recorded = static_cast<int>(m_workspace->readings().size());
+    if (recorded > 0)
+        m_statusPoints->setText(tr("%n point(s) recorded", nullptr, recorded));
     const LineFit &fit = m_workspace->liveFit();
     m_chart->setFitOverlay(fitOverlay(fit, m_chart->gridCurrents(bandGridPoints), m_workspace->nextCurrentA()));
     const auto result = fit.result();
@@ -257,9 +286,13 @@ void MainWindow::refreshFitViews()
 
 void MainWindow::flushCharts()
 {
-    if (m_resultsTimer.isActive())
-        refreshFitViews();
-    m_chart->flushNow();
+    // Twice at most: a chart whose current axis grew asks for the line and band again, on
+    // the wider grid.
+    for (int pass = 0; pass < 2; ++pass) {
+        if (m_resultsTimer.isActive())
+            refreshFitViews();
+        m_chart->flushNow();
+    }
     m_residuals->flushNow();
 }
 

@@ -49,6 +49,10 @@ ResidualChart::ResidualChart(QWidget *parent)
     m_flushTimer.setSingleShot(true);
     m_flushTimer.setInterval(100);
     connect(&m_flushTimer, &QTimer::timeout, this, &ResidualChart::flushNow);
+    connect(m_chart, &QChart::plotAreaChanged, this, [this] {
+        m_dirty = true;
+        scheduleFlush();
+    });
     applyColours(false);
 }
 
@@ -168,7 +172,7 @@ void ResidualChart::flushNow()
         applySpan(m_axisX, {std::max(0.0, x.low), x.high});
         m_x = {m_axisX->min(), m_axisX->max()};
     }
-    const auto limit = VoltageCurrentChart::displayLimit;
+    const std::size_t limit = drawnPointBudget(m_chart->plotArea().width());
     const auto toQt = [limit](const std::vector<PlotPoint> &points) {
         const auto shown = points.size() > limit ? lttbDownsample(points, limit) : points;
         QList<QPointF> out;

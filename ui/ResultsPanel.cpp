@@ -6,6 +6,24 @@
 
 namespace sagline {
 
+namespace {
+
+// A value keeps a fixed size that only ever grows: a new value that fits then repaints its
+// own label, where a free size would lay the whole panel out again (re-wrapping and
+// re-shaping every label) on each point.
+void setValueText(QLabel *value, const QString &text)
+{
+    if (value->text() == text)
+        return;
+    const QFontMetrics metrics(value->font());
+    const int needed = metrics.horizontalAdvance(text) + metrics.averageCharWidth();
+    if (needed > value->minimumWidth())
+        value->setFixedWidth(needed + metrics.averageCharWidth()); // a little headroom: fewer re-layouts
+    value->setText(text);
+}
+
+} // namespace
+
 ResultsPanel::ResultsPanel(QWidget *parent)
     : QWidget(parent), m_grid(new QGridLayout), m_verdict(new QLabel), m_rule(new QLabel), m_placeholder(new QLabel)
 {
@@ -67,13 +85,14 @@ void ResultsPanel::setLines(const QList<ResultLine> &lines)
             widgets.value->setObjectName(line.key);
             widgets.value->setTextInteractionFlags(Qt::TextSelectableByMouse);
             widgets.value->setAlignment(Qt::AlignRight | Qt::AlignVCenter);
+            widgets.value->setFixedHeight(QFontMetrics(valueFont).height() + 4);
             // Label with its note beneath on the left, the value large on the right.
             auto *labels = new QVBoxLayout;
             labels->setSpacing(0);
             labels->addWidget(widgets.label);
             labels->addWidget(widgets.note);
             m_grid->addLayout(labels, row, 0);
-            m_grid->addWidget(widgets.value, row, 1);
+            m_grid->addWidget(widgets.value, row, 1, Qt::AlignRight | Qt::AlignVCenter);
             m_rows.append(widgets);
             ++row;
         }
@@ -84,7 +103,7 @@ void ResultsPanel::setLines(const QList<ResultLine> &lines)
         const auto &line = lines[i];
         const Row &widgets = m_rows[i];
         widgets.label->setText(line.label);
-        widgets.value->setText(line.warning ? QStringLiteral("▲ ") + line.value : line.value);
+        setValueText(widgets.value, line.warning ? QStringLiteral("▲ ") + line.value : line.value);
         if (widgets.value->property("warning").toBool() != line.warning) {
             widgets.value->setProperty("warning", line.warning);
             widgets.value->setStyleSheet(line.warning ? QStringLiteral("QLabel { color: #b35000; }") : QString());

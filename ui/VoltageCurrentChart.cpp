@@ -86,6 +86,11 @@ VoltageCurrentChart::VoltageCurrentChart(QWidget *parent)
     m_flushTimer.setSingleShot(true);
     m_flushTimer.setInterval(100);
     connect(&m_flushTimer, &QTimer::timeout, this, &VoltageCurrentChart::flushNow);
+    // A wider plot can show more points: thin again for the new width.
+    connect(m_chart, &QChart::plotAreaChanged, this, [this] {
+        m_pointsDirty = true;
+        scheduleFlush();
+    });
     applyColours(false);
 }
 
@@ -229,6 +234,7 @@ void VoltageCurrentChart::growRanges()
         high = std::max(1.0, high);
     }
     const AxisSpan y = grownSpan(m_y, low, high, 0.15);
+    const double shownHighCurrent = m_x.high;
     const bool changed = x.low != m_x.low || x.high != m_x.high || y.low != m_y.low || y.high != m_y.high
                          || m_limitsDirty;
     m_x = {std::max(0.0, x.low), x.high};
@@ -239,6 +245,8 @@ void VoltageCurrentChart::growRanges()
         m_x = {m_axisX->min(), m_axisX->max()};
         m_y = {m_axisY->min(), m_axisY->max()};
         rebuildLimitSeries();
+        if (m_x.high != shownHighCurrent)
+            emit currentSpanChanged();
     }
     m_limitsDirty = false;
 }
@@ -298,8 +306,9 @@ void VoltageCurrentChart::flushNow()
         return;
     growRanges();
     if (m_pointsDirty) {
-        m_included->replace(thinned(m_points.collect(false), displayLimit));
-        m_excluded->replace(thinned(m_points.collect(true), displayLimit));
+        const std::size_t budget = drawnPointBudget(m_chart->plotArea().width());
+        m_included->replace(thinned(m_points.collect(false), budget));
+        m_excluded->replace(thinned(m_points.collect(true), budget));
     }
     if (m_overlayDirty) {
         m_fit->replace(m_overlay.line);

@@ -71,7 +71,11 @@ public:
     bool hasPrediction() const;
     QChartView *chartView() const { return m_view; }
     ChartLegend *legend() const { return m_legend; }
-    static constexpr std::size_t displayLimit = 2000; // thinned above this many points
+
+signals:
+    // The current axis now reaches further: the fit overlay should be evaluated again over
+    // gridCurrents() so the line and band span the plot.
+    void currentSpanChanged();
 
 private:
     void scheduleFlush();

@@ -7,9 +7,11 @@
 #include "PlanPanel.h"
 #include "SetupForm.h"
 #include "SetupJson.h"
+#include "StartupProbe.h"
 
 #include <QApplication>
 #include <QCommandLineParser>
+#include <QElapsedTimer>
 #include <QFile>
 #include <QPushButton>
 #include <QTextStream>
@@ -30,6 +32,8 @@ bool hasDisplay()
 
 int main(int argc, char **argv)
 {
+    QElapsedTimer sinceStart; // --startup-probe: from here to the first painted frame
+    sinceStart.start();
     // --version answers without a display too (bug reports, scripts over ssh).
     if (argc == 2 && (std::strcmp(argv[1], "--version") == 0 || std::strcmp(argv[1], "-v") == 0)) {
         std::printf("sagline %s (commit %s)\n", sagline::buildinfo::version, sagline::buildinfo::gitCommit);
@@ -61,7 +65,9 @@ int main(int argc, char **argv)
                                  QStringLiteral("With --screenshot: a typed-in demo sweep instead of the virtual bench."));
     QCommandLineOption folder(QStringLiteral("session-folder"), QStringLiteral("Where new session files go."),
                               QStringLiteral("DIR"));
-    parser.addOptions({screenshot, dark, demo, typedDemo, folder});
+    QCommandLineOption startupProbe(QStringLiteral("startup-probe"),
+                                    QStringLiteral("Print the milliseconds from start to the first painted window, then quit."));
+    parser.addOptions({screenshot, dark, demo, typedDemo, folder, startupProbe});
     parser.addPositionalArgument(QStringLiteral("SESSION"), QStringLiteral("A .sagline session file to open."),
                                  QStringLiteral("[SESSION]"));
     parser.process(app);
@@ -96,6 +102,8 @@ int main(int argc, char **argv)
             out << "screenshot: " << path << '\n';
         return 0;
     }
+    if (parser.isSet(startupProbe))
+        sagline::quitAfterFirstPaint(window, sinceStart);
     window.show();
     if (parser.isSet(demo))
         QTimer::singleShot(0, &window, [&window] {

@@ -200,6 +200,32 @@ TEST(LineFit, PredictionIntervalFollowsTheTextbookFormula)
     EXPECT_NEAR(p.prediction->high - p.value, t * std::sqrt(lineSe * lineSe + s * s), 1e-9);
 }
 
+TEST(LineFit, PredictAllGivesPredictAtEveryGridPoint)
+{
+    // The band's grid shortcut (t found once) must give predict()'s values exactly, with
+    // intervals only from 3 points on, and nothing but values from 2.
+    const std::vector<double> x{0.0, 0.5, 1.0, 1.5, 2.0};
+    const std::vector<double> y{24.1, 23.3, 22.6, 21.6, 21.0};
+    const std::vector<double> grid{-1.0, 0.0, 0.7, 2.0, 3.3};
+    LineFit fit;
+    EXPECT_EQ(fit.predictAll(grid).size(), grid.size());
+    for (std::size_t i = 0; i < x.size(); ++i) {
+        fit.add(x[i], y[i]);
+        const auto all = fit.predictAll(grid, 0.9);
+        ASSERT_EQ(all.size(), grid.size());
+        for (std::size_t g = 0; g < grid.size(); ++g) {
+            const LinePrediction one = fit.predict(grid[g], 0.9);
+            EXPECT_EQ(all[g].value, one.value);
+            ASSERT_EQ(all[g].confidence.has_value(), one.confidence.has_value());
+            EXPECT_EQ(all[g].confidence.has_value(), fit.count() >= 3);
+            if (one.confidence) {
+                EXPECT_EQ(all[g].confidence->low, one.confidence->low);
+                EXPECT_EQ(all[g].prediction->high, one.prediction->high);
+            }
+        }
+    }
+}
+
 TEST(LineFit, BatchFitLineMatchesNorrisAndTheLiveFit)
 {
     // NIST StRD Norris certified values, through the array batch fit (9 significant digits).
