@@ -1,6 +1,8 @@
 #include "ChartStyle.h"
 
+#include <QFont>
 #include <QPainter>
+#include <QValueAxis>
 
 #include <algorithm>
 #include <QPolygonF>
@@ -71,6 +73,20 @@ QImage markerImage(MarkerShape shape, const QColor &colour, int sizePx)
     }
     }
     return image;
+}
+
+void styleAxis(QValueAxis *axis, const ChartColours &colours, const QFont &baseFont)
+{
+    QFont labelFont = baseFont;
+    labelFont.setPointSizeF(labelFont.pointSizeF() * 1.1);
+    QFont titleFont = labelFont;
+    titleFont.setBold(true);
+    axis->setLabelsColor(colours.text);
+    axis->setTitleBrush(colours.text);
+    axis->setLabelsFont(labelFont);
+    axis->setTitleFont(titleFont);
+    axis->setGridLineColor(colours.grid);
+    axis->setLinePenColor(colours.text);
 }
 
 } // namespace sagline

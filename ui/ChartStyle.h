@@ -8,6 +8,9 @@
 #include <QImage>
 #include <QPalette>
 
+class QFont;
+class QValueAxis;
+
 namespace sagline {
 
 enum class MarkerShape { FilledCircle, HollowSquare, FilledDiamond };
@@ -28,6 +31,9 @@ struct ChartColours {
 
 bool isDarkPalette(const QPalette &palette);
 ChartColours chartColours(bool dark);
+// Axis labels a little larger than the window's font and bold titles, in the scheme's text
+// and grid colours: the same on every chart.
+void styleAxis(QValueAxis *axis, const ChartColours &colours, const QFont &baseFont);
 // A marker drawn once and handed to QXYSeries::setLightMarker (no graphics item per point).
 QImage markerImage(MarkerShape shape, const QColor &colour, int sizePx);
 

@@ -63,18 +63,8 @@ void ResidualChart::applyColours(bool dark)
     m_chart->setBackgroundBrush(c.background);
     m_view->setBackgroundBrush(c.background);
     m_legend->setColours(c.background, c.text);
-    QFont labelFont = font();
-    labelFont.setPointSizeF(labelFont.pointSizeF() * 1.1);
-    QFont titleFont = labelFont;
-    titleFont.setBold(true);
-    for (auto *axis : {m_axisX, m_axisY}) {
-        axis->setLabelsColor(c.text);
-        axis->setTitleBrush(c.text);
-        axis->setLabelsFont(labelFont);
-        axis->setTitleFont(titleFont);
-        axis->setGridLineColor(c.grid);
-        axis->setLinePenColor(c.text);
-    }
+    for (auto *axis : {m_axisX, m_axisY})
+        styleAxis(axis, c, font());
     m_zero->setPen(QPen(c.fitLine, 1.5));
     m_upperGuide->setPen(QPen(c.text, 1, Qt::DotLine));
     m_lowerGuide->setPen(QPen(c.text, 1, Qt::DotLine));

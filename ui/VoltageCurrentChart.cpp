@@ -111,18 +111,8 @@ void VoltageCurrentChart::applyColours(bool dark)
     m_chart->setPlotAreaBackgroundVisible(false);
     m_view->setBackgroundBrush(c.background);
     m_legend->setColours(c.background, c.text);
-    QFont labelFont = font();
-    labelFont.setPointSizeF(labelFont.pointSizeF() * 1.1);
-    QFont titleFont = labelFont;
-    titleFont.setBold(true);
-    for (auto *axis : {m_axisX, m_axisY}) {
-        axis->setLabelsColor(c.text);
-        axis->setTitleBrush(c.text);
-        axis->setLabelsFont(labelFont);
-        axis->setTitleFont(titleFont);
-        axis->setGridLineColor(c.grid);
-        axis->setLinePenColor(c.text);
-    }
+    for (auto *axis : {m_axisX, m_axisY})
+        styleAxis(axis, c, font());
     QColor hatch = c.unsafe;
     m_unsafe->setBrush(QBrush(hatch, Qt::BDiagPattern));
     m_unsafe->setPen(Qt::NoPen);
