@@ -10,6 +10,7 @@
 
 #include <QApplication>
 #include <QDir>
+#include <QTabWidget>
 #include <QElapsedTimer>
 #include <QEventLoop>
 #include <QTimer>
@@ -158,6 +159,15 @@ QStringList saveScreenshots(MainWindow &window, const QString &folder, bool dark
             saved << path;
     };
     shoot(QStringLiteral("sagline-light.png"));
+    // The plan and the instruments tabs too, so a look at the images covers every panel.
+    if (auto *tabs = window.findChild<QTabWidget *>()) {
+        const int shown = tabs->currentIndex();
+        tabs->setCurrentIndex(1);
+        shoot(QStringLiteral("sagline-plan.png"));
+        tabs->setCurrentIndex(2);
+        shoot(QStringLiteral("sagline-instruments.png"));
+        tabs->setCurrentIndex(shown);
+    }
     if (dark) {
         const QPalette original = QApplication::palette();
         QApplication::setPalette(darkPalette());

@@ -52,7 +52,7 @@ void sizeReadingsColumns(QTableView *view)
     header->resizeSection(ReadingsTableModel::Current, widthOf(QStringLiteral("10.0000 A"), ReadingsTableModel::Current));
     header->resizeSection(ReadingsTableModel::Voltage, widthOf(QStringLiteral("250.000 V"), ReadingsTableModel::Voltage));
     header->resizeSection(ReadingsTableModel::Residual, widthOf(QStringLiteral("−12.3 mV"), ReadingsTableModel::Residual));
-    header->resizeSection(ReadingsTableModel::Flags, widthOf(QStringLiteral("overload"), ReadingsTableModel::Flags));
+    header->resizeSection(ReadingsTableModel::Flags, widthOf(QStringLiteral("▲ outlier"), ReadingsTableModel::Flags));
     header->resizeSection(ReadingsTableModel::Excluded, widthOf(QStringLiteral("excluded: drift"), ReadingsTableModel::Excluded));
 }
 } // namespace
@@ -275,6 +275,7 @@ void MainWindow::refreshFitViews()
     ResultsInputs inputs;
     inputs.live = &fit;
     inputs.batch = &m_workspace->summary();
+    m_readingsModel->setOutliers(inputs.batch->outlierRows);
     inputs.setup = m_workspace->setup() ? &*m_workspace->setup() : nullptr;
     inputs.plan = m_workspace->plan() ? &*m_workspace->plan() : nullptr;
     inputs.verdict = m_setupForm->verdictSettings();

@@ -4,6 +4,7 @@
 
 #include <QColor>
 
+#include <algorithm>
 #include <cmath>
 
 namespace sagline {
@@ -30,6 +31,20 @@ void ReadingsTableModel::setResidualFunction(ResidualFunction residual)
     m_residual = std::move(residual);
     if (!m_rows.empty())
         emit dataChanged(index(0, Residual), index(rowCount() - 1, Residual), {Qt::DisplayRole});
+}
+
+void ReadingsTableModel::setOutliers(const std::vector<std::size_t> &rows)
+{
+    if (rows == m_outliers)
+        return;
+    m_outliers = rows;
+    if (!m_rows.empty())
+        emit dataChanged(index(0, Flags), index(rowCount() - 1, Flags), {Qt::DisplayRole, Qt::ForegroundRole});
+}
+
+bool ReadingsTableModel::isOutlier(int row) const
+{
+    return std::binary_search(m_outliers.begin(), m_outliers.end(), static_cast<std::size_t>(row));
 }
 
 void ReadingsTableModel::setExcluded(int row, bool excluded, const QString &reason)
@@ -70,6 +85,8 @@ QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
     }
     if (role == Qt::ForegroundRole && r.excluded)
         return QColor(0x80, 0x80, 0x80);
+    if (role == Qt::ForegroundRole && index.column() == Flags && isOutlier(index.row()))
+        return QColor(0xb3, 0x50, 0x00); // as the results' warnings; the ▲ carries it without colour
     if (role == Qt::ToolTipRole && index.column() == Excluded && r.excluded)
         return row.reason;
     if (role == Qt::ToolTipRole && index.column() == Time)
@@ -94,7 +111,12 @@ QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
         return std::isfinite(residual) ? formatQuantity(residual * 1000.0, Unit::None, 3) + QStringLiteral(" mV")
                                        : QStringLiteral("—");
     }
-    case Flags: return QString::fromStdString(flagsToString(r.flags));
+    case Flags: {
+        const QString flags = QString::fromStdString(flagsToString(r.flags));
+        if (!isOutlier(index.row()))
+            return flags;
+        return flags.isEmpty() ? tr("▲ outlier") : tr("▲ outlier, %1").arg(flags);
+    }
     case Excluded: return r.excluded ? tr("excluded: %1").arg(row.reason) : QString();
     case Note: return row.note;
     }

@@ -23,6 +23,9 @@ public:
     void append(const Reading &reading);
     void clear();
     void setResidualFunction(ResidualFunction residual);
+    // Rows the batch fit flags as outliers (ascending): marked in the flags column, so the
+    // reading behind "Outliers flagged" in the results can be found and judged.
+    void setOutliers(const std::vector<std::size_t> &rows);
     void setExcluded(int row, bool excluded, const QString &reason);
     void setNote(int row, const QString &note);
     const Reading &reading(int row) const { return m_rows[static_cast<std::size_t>(row)].reading; }
@@ -42,6 +45,8 @@ private:
     };
     std::vector<Row> m_rows;
     ResidualFunction m_residual;
+    std::vector<std::size_t> m_outliers;
+    bool isOutlier(int row) const;
 };
 
 } // namespace sagline
