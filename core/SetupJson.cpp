@@ -91,10 +91,19 @@ public:
         return quantity(key, unit).value_or(0.0);
     }
 
-    // Checks lower < value (or <=) and value <= upper; records the rule when broken.
+    bool hasError(const std::string &key) const
+    {
+        const std::string name = field(key);
+        return std::any_of(m_out.errors.begin(), m_out.errors.end(), [&](const FieldError &e) { return e.field == name; });
+    }
+
+    // Checks lower < value (or <=) and value <= upper; records the rule when broken. A field
+    // already refused (wrong unit, not a number) is not judged again on the stand-in 0.
     bool inRange(const std::string &key, double value, double lower, bool lowerInclusive, double upper,
                  const std::string &unitText, const std::string &why = {})
     {
+        if (hasError(key))
+            return false;
         const bool aboveLower = lowerInclusive ? value >= lower : value > lower;
         if (aboveLower && value <= upper)
             return true;

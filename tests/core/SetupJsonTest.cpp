@@ -181,6 +181,19 @@ TEST(SetupJson, UnknownChoicesAreNamedWithTheAllowedOnes)
     expectFieldError(d, "bench.fuse.type", "time-lag, quick-acting");
 }
 
+TEST(SetupJson, ARefusedFieldIsReportedOnce)
+{
+    // A value with the wrong unit is refused for its unit only, not also judged out of range
+    // on the 0 that stands in for it ("got 0 VA" would send the user looking for a zero).
+    json d = validSetup();
+    d["nameplate"]["rated_power_va"] = "60 V";
+    const SetupParse parsed = parseSetupJson(d.dump());
+    const auto count = std::count_if(parsed.errors.begin(), parsed.errors.end(),
+                                     [](const FieldError &e) { return e.field == "nameplate.rated_power_va"; });
+    EXPECT_EQ(count, 1);
+    expectFieldError(d, "nameplate.rated_power_va", "apparent power");
+}
+
 TEST(SetupJson, WrongUnitIsNamed)
 {
     json d = validSetup();
