@@ -35,6 +35,11 @@ QString formatResistance(double ohms)
     return sig3(ohms) + QStringLiteral(" Ω");
 }
 
+QString expectation(const PlanStep &step)
+{
+    return QStringLiteral("expect about %1 V and %2").arg(sig3(step.predictedVoltageV), formatCurrent(step.currentA));
+}
+
 // Below this many points the scatter estimate is too rough to call a reading an outlier.
 constexpr int minPointsForPredictionCheck = 4;
 
@@ -134,10 +139,34 @@ QString SweepController::instruction(int step) const
     for (const PlanStep &s : m_plan.steps) {
         if (s.index != step)
             continue;
-        const QString expect = QStringLiteral("expect about %1 V and %2").arg(sig3(s.predictedVoltageV), formatCurrent(s.currentA));
         if (!s.loadResistanceOhm)
-            return QStringLiteral("disconnect the load (open circuit); ") + expect;
-        return QStringLiteral("set the load to about %1; %2").arg(formatResistance(*s.loadResistanceOhm), expect);
+            return QStringLiteral("disconnect the load (open circuit); ") + expectation(s);
+        return QStringLiteral("set the load to about %1; %2").arg(formatResistance(*s.loadResistanceOhm), expectation(s));
+    }
+    return {};
+}
+
+QString SweepController::restoredInstruction(int step) const
+{
+    for (const PlanStep &s : m_plan.steps) {
+        if (s.index != step)
+            continue;
+        if (hasProgrammableLoad()) {
+            if (!s.loadResistanceOhm)
+                return QStringLiteral("link restored: opening the load again for step %1; %2").arg(step).arg(expectation(s));
+            return QStringLiteral("link restored: setting the load again to about %1 for step %2; %3")
+                .arg(formatResistance(*s.loadResistanceOhm))
+                .arg(step)
+                .arg(expectation(s));
+        }
+        if (!s.loadResistanceOhm)
+            return QStringLiteral("link restored: check the load is still disconnected (open circuit) for step %1, then confirm; %2")
+                .arg(step)
+                .arg(expectation(s));
+        return QStringLiteral("link restored: check the load is still at about %1 for step %2, then confirm; %3")
+            .arg(formatResistance(*s.loadResistanceOhm))
+            .arg(step)
+            .arg(expectation(s));
     }
     return {};
 }
@@ -200,7 +229,14 @@ void SweepController::beginStep()
     cancelTimers();
     const int serial = ++m_readSerial;
     m_step = m_plan.steps[m_stepIndex].index;
-    emit stepStarted(m_step, instruction(m_step));
+    QString text = instruction(m_step);
+    if (m_loadInDoubt) {
+        // A load never confirmed before the loss is simply set now; one that was confirmed may
+        // have been moved while the meters were away, so the operator checks it again.
+        text = m_confirmedBeforeLoss || hasProgrammableLoad() ? restoredInstruction(m_step)
+                                                              : QStringLiteral("link restored: ") + text;
+    }
+    emit stepStarted(m_step, text);
     if (serial != m_readSerial)
         return; // a handler paused or stopped the sweep, or the link dropped meanwhile
     if (!m_rig) {
@@ -239,6 +275,12 @@ void SweepController::confirmLoadSet()
 
 void SweepController::loadReady()
 {
+    if (m_loadInDoubt) {
+        event(hasProgrammableLoad() ? tr("step %1: load set again after the link was restored").arg(m_step)
+                                    : tr("step %1: the operator confirmed the load again after the link was restored").arg(m_step));
+        m_loadInDoubt = false;
+        m_confirmedBeforeLoss = false;
+    }
     setState(SweepState::Settling);
     m_timer = m_clock->callAfter(m_options.dwellMs, this, [this] {
         m_timer = 0;
@@ -509,6 +551,8 @@ void SweepController::nextStep()
     if (m_state == SweepState::Stopped || m_state == SweepState::Finished)
         return;
     m_loadConfirmed = false;
+    m_loadInDoubt = false;
+    m_confirmedBeforeLoss = false;
     if (m_stepIndex + 1 >= static_cast<int>(m_plan.steps.size())) {
         openLoad();
         finish(SweepOutcome::Completed);
@@ -620,10 +664,21 @@ void SweepController::handleRigLost(const QString &message)
     m_linkDown = true;
     cancelTimers();
     ++m_readSerial;
-    m_pauseReason = tr("link lost at step %1: %2. Recorded points are kept; the sweep resumes at this step when the "
-                       "link is back")
-                        .arg(m_step)
-                        .arg(message);
+    // Nobody can tell from here whether the load was moved while the meters were away: the
+    // step's load is confirmed (or set by the programmable load) again before it is read.
+    if (!m_loadInDoubt)
+        m_confirmedBeforeLoss = m_loadConfirmed;
+    m_loadInDoubt = true;
+    m_loadConfirmed = false;
+    m_pauseReason = hasProgrammableLoad()
+                        ? tr("link lost at step %1: %2. Recorded points are kept; when the link is back the load is "
+                             "set again and the sweep resumes at this step")
+                              .arg(m_step)
+                              .arg(message)
+                        : tr("link lost at step %1: %2. Recorded points are kept; when the link is back, confirm the "
+                             "load of this step again and the sweep resumes at this step")
+                              .arg(m_step)
+                              .arg(message);
     setState(SweepState::Paused);
     event(m_pauseReason);
     emit linkLost(m_pauseReason);
@@ -646,6 +701,8 @@ void SweepController::handleRigRestored(const QString &message)
             nextStep();
         return;
     }
+    if (!hasProgrammableLoad())
+        event(tr("step %1: waiting for the operator to confirm the load again").arg(m_step));
     beginStep();
 }
 

@@ -9,7 +9,9 @@
 // is checked against the live fit's prediction interval (far outside: flagged), committed to
 // the session store, and only then reported as recorded and added to the fit. A lost link
 // pauses the sweep, keeps every recorded point, and resumes at the same step once all meters
-// are back. Without meters (manual entry) each step waits for typed-in values instead.
+// are back; nobody watched the load meanwhile, so the operator confirms it again for that step
+// (a programmable load is set again) before anything is read. Without meters (manual entry)
+// each step waits for typed-in values instead.
 // Time comes from an injected Clock so tests and simulated sweeps do not sleep.
 #pragma once
 
@@ -92,6 +94,8 @@ public:
     const Plan &plan() const { return m_plan; }
     const SweepOptions &options() const { return m_options; }
     QString instruction(int step) const;             // the text stepStarted carries
+    // The text stepStarted carries when a step starts again after a lost link came back.
+    QString restoredInstruction(int step) const;
     int recordedCount() const { return m_recorded; }
     QString pauseReason() const { return m_pauseReason; }
 
@@ -144,6 +148,8 @@ private:
     int m_timer = 0;          // pending clock callback, 0 if none
     int m_readSerial = 0;     // bumps to drop replies of an abandoned read
     bool m_loadConfirmed = false;
+    bool m_loadInDoubt = false;   // a link was lost during this step: the load is checked again
+    bool m_confirmedBeforeLoss = false; // the operator had confirmed this step's load before the loss
     bool m_linkDown = false;
     bool m_operatorPaused = false;
     std::optional<Reading> m_uncommitted; // a reading whose commit failed; retried on resume()

@@ -323,15 +323,22 @@ int runRun(const Arguments &rawArgs)
     });
     QObject::connect(&controller, &SweepController::stepStarted, [&](int step, const QString &text) {
         std::cerr << "step " << step << ": " << text.toStdString()
-                  << (waitForEnter ? " -- press Enter when it is set" : "") << '\n';
+                  << (!waitForEnter                                     ? ""
+                      : text.startsWith(QStringLiteral("link restored")) ? " -- press Enter to confirm"
+                                                                          : " -- press Enter when it is set")
+                  << '\n';
     });
     QObject::connect(&controller, &SweepController::pointRecorded, [](const Reading &reading, const LiveFitSnapshot &snapshot) {
         std::cout << formatPoint(reading, snapshot).toStdString() << std::endl;
     });
     QObject::connect(&controller, &SweepController::notice, [](const QString &m) { std::cerr << "note: " << m.toStdString() << '\n'; });
     QObject::connect(&controller, &SweepController::linkLost, [](const QString &m) { std::cerr << "PAUSED: " << m.toStdString() << '\n'; });
-    QObject::connect(&controller, &SweepController::linkRestored,
-                     [](const QString &m) { std::cerr << "link restored (" << m.toStdString() << "); resuming\n"; });
+    // Without a programmable load the restored step waits for Enter again (stepStarted says so):
+    // the rheostat may have been moved while the meters were away.
+    QObject::connect(&controller, &SweepController::linkRestored, [&](const QString &m) {
+        std::cerr << "link restored (" << m.toStdString() << ")"
+                  << (waitForEnter ? "; check the load, then press Enter to resume\n" : "; setting the load again and resuming\n");
+    });
     QObject::connect(&controller, &SweepController::paused, [&](const QString &reason) {
         if (!controller.isManual() && reason.startsWith(QStringLiteral("link lost")))
             return; // waits for the link by itself

@@ -1,5 +1,6 @@
 // Whole sweeps over real pseudo-terminals and loopback TCP in wall time (short dwell): a link
-// unplugged mid-sweep, the pairing window, and the CLI on the virtual bench.
+// unplugged mid-sweep, the pairing window, and the CLI on the virtual bench (also asking for
+// Enter again after a link came back).
 #include "InstrumentsTestSupport.h"
 
 #include "InstrumentRig.h"
@@ -233,4 +234,64 @@ TEST(RunCommand, WithRealMetersItWaitsForEnterAtEachStep)
     const QString out = QString::fromUtf8(cli.readAllStandardOutput());
     EXPECT_TRUE(out.contains(QStringLiteral(" 8  I "))) << out.toStdString();
     EXPECT_TRUE(err.contains(QStringLiteral("connected voltmeter: Sagline Virtual Bench,VB-V1")));
+}
+
+TEST(RunCommand, AfterALinkIsRestoredItWaitsForEnterAgainBeforeReading)
+{
+    // As above; at step 3 the voltmeter's link goes away just as Enter is pressed, and someone
+    // turns the rheostat to twice the resistance while it is away. Once the link is back the CLI
+    // asks again; the test (the operator) puts the load right and presses Enter.
+    VirtualClock clock(0);
+    const sagline::Setup setup = demoSetup();
+    const Plan plan = planFor(setup);
+    VirtualBenchOptions benchOptions = virtualBenchOptionsFor(setup, plan, 2);
+    benchOptions.transformer.thermalResistanceKPerW = 0.0;
+    VirtualBench bench(benchOptions, &clock);
+    TcpEndpoint voltmeter(bench.voltmeter());
+    TcpEndpoint ammeter(bench.ammeter());
+    QString error;
+    ASSERT_TRUE(voltmeter.start(0, &error) && ammeter.start(0, &error)) << error.toStdString();
+    QTemporaryDir dir;
+    QProcess cli;
+    QString err;
+    int enters = 0;
+    bool pulled = false;
+    QObject::connect(&cli, &QProcess::readyReadStandardError, [&] {
+        err += QString::fromUtf8(cli.readAllStandardError());
+        static const QRegularExpression prompt(QStringLiteral("step (\\d+): .*press Enter"));
+        int seen = 0;
+        for (auto it = prompt.globalMatch(err); it.hasNext(); ++seen) {
+            const int step = it.next().captured(1).toInt();
+            if (seen < enters)
+                continue;
+            bench.setLoad(plan.steps[step].loadResistanceOhm);
+            cli.write("\n");
+            ++enters;
+            if (step == 3 && !pulled) {
+                pulled = true;
+                bench.voltmeter()->vanish(300);
+                bench.setLoad(2.0 * *plan.steps[step].loadResistanceOhm);
+            }
+        }
+    });
+    cli.start(QStringLiteral(SAGLINE_CLI_PATH),
+              {QStringLiteral("run"), QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"), QStringLiteral("--voltmeter"),
+               QStringLiteral("tcp:127.0.0.1:%1").arg(voltmeter.port()), QStringLiteral("--ammeter"),
+               QStringLiteral("127.0.0.1:%1").arg(ammeter.port()), QStringLiteral("--dwell"), QStringLiteral("0.02"),
+               QStringLiteral("--read-interval"), QStringLiteral("0.01"), QStringLiteral("--operator"), QStringLiteral("test"),
+               QStringLiteral("-o"), dir.path() + QStringLiteral("/bench.sagline")});
+    ASSERT_TRUE(waitUntil([&] { return cli.state() == QProcess::NotRunning; }, 15000)) << err.toStdString();
+    EXPECT_EQ(cli.exitCode(), 0) << err.toStdString();
+    EXPECT_TRUE(pulled);
+    EXPECT_EQ(enters, 10) << err.toStdString(); // nine steps and step 3 once more
+    // Whether the Enter reached the CLI before the link went or not, it asks again for step 3.
+    EXPECT_TRUE(err.contains(QRegularExpression(QStringLiteral("step 3: link restored: .*-- press Enter to confirm"))))
+        << err.toStdString();
+    EXPECT_TRUE(err.contains(QStringLiteral("check the load, then press Enter to resume"))) << err.toStdString();
+    // Step 3's point is at the planned load (twice the resistance would give about half the current).
+    const QString out = QString::fromUtf8(cli.readAllStandardOutput());
+    const QRegularExpression step3(QStringLiteral("^ ?3  I +([0-9.]+) A"), QRegularExpression::MultilineOption);
+    const auto m = step3.match(out);
+    ASSERT_TRUE(m.hasMatch()) << out.toStdString();
+    EXPECT_NEAR(m.captured(1).toDouble(), plan.steps[3].currentA, 0.05 * plan.steps[3].currentA);
 }

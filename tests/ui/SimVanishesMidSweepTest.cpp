@@ -132,8 +132,9 @@ TEST(SimVanishesMidSweep, OverTheLanLinkLossIsShownAndNothingIsLost)
 TEST(SimVanishesMidSweep, OverASerialPortTheSimComingBackResumesTheSweepAtTheSameStep)
 {
     // The simulator restarted on the same pty link path (same seed, so the same identity): the
-    // meter reconnects on its own, the interrupted step is read again and the sweep completes;
-    // every step once, in order.
+    // meter reconnects on its own; the window asks the operator to check the interrupted step's
+    // load again and reads nothing until "Load is set" is clicked; then the step is read again
+    // and the sweep completes, every step once, in order.
     QTemporaryDir folder;
     QTemporaryDir links;
     SimProcess sim;
@@ -177,14 +178,23 @@ TEST(SimVanishesMidSweep, OverASerialPortTheSimComingBackResumesTheSweepAtTheSam
     ASSERT_TRUE(waitUntil([&] { return panel->statusText().contains(QStringLiteral("link lost at step 3")); }, 8000))
         << panel->statusText().toStdString();
 
-    // A restarted simulator starts with its load open; on a real bench the rheostat stays where
-    // the operator set it while a meter is away, so the test puts it back at once.
+    // A restarted simulator starts with its load open: like a rheostat moved while the meter
+    // was away. Nothing may be read at that load.
     ASSERT_TRUE(sim.start(links.path(), quiet, &error)) << error.toStdString();
-    ASSERT_TRUE(sim.setLoad(plan.steps[3].loadResistanceOhm, &error)) << error.toStdString();
     ASSERT_TRUE(waitUntil([&] { return panel->statusText().contains(QStringLiteral("link restored")); }, 8000))
         << panel->statusText().toStdString();
-    // The load of the interrupted step was confirmed already: it is read again without asking.
-    ASSERT_TRUE(waitUntil([&] { return workspace->readings().size() == 4; }, 8000)) << toString(controller->state()).toStdString();
+    ASSERT_TRUE(waitUntil([&] { return controller->state() == SweepState::WaitingForLoad; }, 8000))
+        << toString(controller->state()).toStdString();
+    EXPECT_EQ(controller->currentStep(), plan.steps[3].index);
+    const QString asked = window->nextStep()->instructionText();
+    EXPECT_TRUE(asked.contains(QStringLiteral("link restored: check the load is still at about"))) << asked.toStdString();
+    EXPECT_TRUE(asked.contains(QStringLiteral("for step 3, then confirm"))) << asked.toStdString();
+    EXPECT_TRUE(record->isEnabled());
+    waitUntil([] { return false; }, 1200); // more than two read intervals of a real meter
+    EXPECT_EQ(controller->state(), SweepState::WaitingForLoad);
+    EXPECT_EQ(workspace->readings().size(), 3u);
+    // The operator puts the load back and confirms: the step is read at that load.
+    recordStep(3, true);
     EXPECT_NEAR(workspace->readings()[3].currentA, plan.steps[3].currentA, 0.05 * plan.steps[3].currentA);
     for (std::size_t i = 4; i < plan.steps.size(); ++i)
         recordStep(i, true);

@@ -1,0 +1,281 @@
+// After a lost meter link comes back the interrupted step is not read until its load is
+// confirmed again: nobody watched the rheostat while the meters were away. The virtual bench's
+// meters without its programmable load (an operator, played by the test, sets the bench's load
+// and confirms), in simulated time; and with the programmable load, which is set again.
+#include "InstrumentsTestSupport.h"
+
+#include "InstrumentRig.h"
+#include "LineFitLiveFit.h"
+#include "LinkAddress.h"
+#include "SimInstrument.h"
+#include "SweepController.h"
+#include "VirtualBench.h"
+#include "VirtualBenchLink.h"
+
+#include <QDateTime>
+#include <QTimer>
+
+#include <memory>
+
+using namespace sagline;
+using namespace sagline::test;
+
+namespace {
+
+constexpr int restoredStep = 3;
+
+// The bench's voltmeter and ammeter only: the load is the operator's rheostat.
+class OperatorSweep {
+public:
+    OperatorSweep()
+        : plan(planFor(demoSetup())), clock(QDateTime(QDate(2026, 12, 2), QTime(9, 0), Qt::UTC).toMSecsSinceEpoch())
+    {
+        const sagline::Setup setup = demoSetup();
+        VirtualBenchOptions options = virtualBenchOptionsFor(setup, plan, 7);
+        options.transformer.thermalResistanceKPerW = 0.0;
+        bench = std::make_unique<VirtualBench>(options, &clock);
+        rig = std::make_unique<InstrumentRig>();
+        for (auto [name, instrument, role] : {std::tuple{"voltmeter", bench->voltmeter(), MeterRole::SecondaryVoltage},
+                                              std::tuple{"ammeter", bench->ammeter(), MeterRole::SecondaryCurrent}}) {
+            auto *meter = new ScpiInstrument(QString::fromLatin1(name), new VirtualBenchLink(instrument));
+            RoleConfig config = defaultRoleConfig(role);
+            const SimMeterSpec &spec = role == MeterRole::SecondaryVoltage ? options.voltmeter : options.ammeter;
+            config.accuracy = spec.accuracy;
+            config.resolution = spec.resolution;
+            meter->setRoles({config});
+            meter->setReconnectIntervalMs(50);
+            rig->addInstrument(meter);
+        }
+        rig->connectAll();
+        EXPECT_TRUE(waitUntil([this] { return rig->isReady(); }));
+        SweepOptions sweepOptions = sweepOptionsFor(setup, plan);
+        sweepOptions.simulated = true;
+        controller = std::make_unique<SweepController>(plan, sweepOptions, rig.get(), &sink, &fit, &clock);
+        QObject::connect(controller.get(), &SweepController::pointRecorded,
+                         [this](const Reading &reading, const LiveFitSnapshot &) { recorded.push_back(reading); });
+        QObject::connect(controller.get(), &SweepController::stepStarted,
+                         [this](int step, const QString &text) { instructions.emplace_back(step, text); });
+        QObject::connect(controller.get(), &SweepController::finished, [this](SweepOutcome o) { outcome = o; });
+        QObject::connect(controller.get(), &SweepController::stateChanged, [this](SweepState state) {
+            if (state == SweepState::WaitingForLoad && operatorAnswers)
+                QTimer::singleShot(0, controller.get(), [this] { playOperator(); });
+        });
+    }
+
+    const PlanStep &planStep(int index) const
+    {
+        for (const PlanStep &s : plan.steps) {
+            if (s.index == index)
+                return s;
+        }
+        ADD_FAILURE() << "no step " << index;
+        return plan.steps.front();
+    }
+
+    // Sets the bench's load as the plan asks and confirms, unless `beforeConfirm` holds the step.
+    void playOperator()
+    {
+        if (controller->state() != SweepState::WaitingForLoad)
+            return;
+        const int step = controller->currentStep();
+        if (beforeConfirm && !beforeConfirm(step))
+            return;
+        bench->setLoad(planStep(step).loadResistanceOhm);
+        controller->confirmLoadSet();
+        if (afterConfirm)
+            afterConfirm(step);
+    }
+
+    int announcements(int step) const
+    {
+        int n = 0;
+        for (const auto &[s, text] : instructions)
+            n += s == step ? 1 : 0;
+        return n;
+    }
+
+    Plan plan;
+    VirtualClock clock;
+    std::unique_ptr<VirtualBench> bench;
+    std::unique_ptr<InstrumentRig> rig;
+    MemorySink sink;
+    LineFitLiveFit fit;
+    std::unique_ptr<SweepController> controller;
+    std::vector<Reading> recorded;
+    std::vector<std::pair<int, QString>> instructions;
+    std::optional<SweepOutcome> outcome;
+    bool operatorAnswers = true;
+    std::function<bool(int)> beforeConfirm; // false: the operator does not confirm (yet)
+    std::function<void(int)> afterConfirm;
+};
+
+} // namespace
+
+TEST(LinkRestoredLoad, TheInterruptedStepWaitsForTheOperatorAndIsReadAtTheConfirmedLoad)
+{
+    OperatorSweep sweep;
+    const PlanStep &step = sweep.planStep(restoredStep);
+    ASSERT_TRUE(step.loadResistanceOhm.has_value());
+    bool pulled = false;
+    // Step 3: the load is set and confirmed, then the voltmeter's cable is pulled (0.2 s wall)
+    // and, while it is away, someone turns the rheostat to twice the resistance.
+    sweep.afterConfirm = [&](int s) {
+        if (s != restoredStep || pulled)
+            return;
+        pulled = true;
+        sweep.bench->voltmeter()->vanish(200);
+        sweep.bench->setLoad(2.0 * *step.loadResistanceOhm);
+    };
+    // The operator does not answer the first question after the restore: the test looks first.
+    bool heldOnce = false;
+    sweep.beforeConfirm = [&](int s) {
+        if (s == restoredStep && pulled && !heldOnce) {
+            heldOnce = true;
+            return false;
+        }
+        return true;
+    };
+    sweep.clock.setAutoAdvance(true);
+    sweep.controller->start();
+    ASSERT_TRUE(waitUntil([&] { return heldOnce; }, 10000)) << toString(sweep.controller->state()).toStdString();
+
+    // Back, and waiting: nothing read for step 3, however long nobody confirms.
+    EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    EXPECT_EQ(sweep.controller->currentStep(), restoredStep);
+    sweep.clock.advance(60000);
+    waitUntil([] { return false; }, 150);
+    EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    ASSERT_EQ(sweep.recorded.size(), static_cast<std::size_t>(restoredStep)); // steps 0..2 only
+
+    // The step is announced again, and the text says plainly what to check.
+    ASSERT_EQ(sweep.announcements(restoredStep), 2);
+    const QString text = sweep.instructions.back().second;
+    // Demo step 3 of 8: 3/8 of 3.33 A = 1.25 A; 19.6 V - 0.48 Ω x 1.25 A = 19.0 V; 19.0 V / 1.25 A = 15.2 Ω.
+    EXPECT_EQ(text.toStdString(), "link restored: check the load is still at about 15.2 Ω for step 3, then confirm; "
+                                  "expect about 19 V and 1.25 A");
+    EXPECT_EQ(text, sweep.controller->restoredInstruction(restoredStep));
+
+    // The operator finds the rheostat moved, puts it back and confirms: the step is read at
+    // the planned load, and the sweep completes with every step once, in order.
+    sweep.bench->setLoad(step.loadResistanceOhm);
+    sweep.controller->confirmLoadSet();
+    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
+    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
+    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+    for (std::size_t i = 0; i < sweep.recorded.size(); ++i)
+        EXPECT_EQ(sweep.recorded[i].step, sweep.plan.steps[i].index);
+    // At twice the resistance the current would be about half: within 5 % it is the planned load.
+    EXPECT_NEAR(sweep.recorded[restoredStep].currentA, step.currentA, 0.05 * step.currentA);
+    const QString events = sweep.sink.events.join('\n');
+    EXPECT_TRUE(events.contains(QStringLiteral("link lost at step 3"))) << events.toStdString();
+    EXPECT_TRUE(events.contains(QStringLiteral("confirm the load of this step again"))) << events.toStdString();
+    EXPECT_TRUE(events.contains(QStringLiteral("step 3: the operator confirmed the load again after the link was restored")))
+        << events.toStdString();
+}
+
+TEST(LinkRestoredLoad, ALinkLostBeforeTheLoadWasConfirmedAsksForTheLoadAsBefore)
+{
+    OperatorSweep sweep;
+    bool pulled = false;
+    sweep.beforeConfirm = [&](int s) {
+        if (s == restoredStep && !pulled) {
+            pulled = true;
+            sweep.bench->voltmeter()->vanish(200); // pulled while step 3 waits for its load
+            return false;
+        }
+        return true;
+    };
+    sweep.clock.setAutoAdvance(true);
+    sweep.controller->start();
+    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000)) << toString(sweep.controller->state()).toStdString();
+    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
+    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+    ASSERT_EQ(sweep.announcements(restoredStep), 2);
+    // Never confirmed, so nothing to check "still": the ordinary instruction, marked.
+    QString again;
+    for (const auto &[s, text] : sweep.instructions) {
+        if (s == restoredStep)
+            again = text;
+    }
+    EXPECT_EQ(again, QStringLiteral("link restored: ") + sweep.controller->instruction(restoredStep));
+}
+
+TEST(LinkRestoredLoad, AnOperatorPauseDuringTheOutageStillNeedsTheLoadConfirmedAfterResume)
+{
+    OperatorSweep sweep;
+    const PlanStep &step = sweep.planStep(restoredStep);
+    bool pulled = false;
+    sweep.afterConfirm = [&](int s) {
+        if (s != restoredStep || pulled)
+            return;
+        pulled = true;
+        sweep.bench->voltmeter()->vanish(200);
+        QTimer::singleShot(0, sweep.controller.get(), [&] { sweep.controller->pause(); }); // paused while the link is down
+    };
+    sweep.clock.setAutoAdvance(true);
+    sweep.controller->start();
+    ASSERT_TRUE(waitUntil([&] { return pulled && sweep.controller->state() == SweepState::Paused; }, 10000));
+    ASSERT_TRUE(waitUntil([&] { return !sweep.bench->voltmeter()->isVanished() && sweep.rig->isReady(); }, 5000));
+    waitUntil([] { return false; }, 100);
+    EXPECT_EQ(sweep.controller->state(), SweepState::Paused); // the operator's pause holds
+    sweep.operatorAnswers = false;
+    sweep.controller->resume();
+    EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    EXPECT_EQ(sweep.instructions.back().second, sweep.controller->restoredInstruction(step.index));
+    EXPECT_EQ(sweep.recorded.size(), static_cast<std::size_t>(restoredStep));
+    sweep.operatorAnswers = true;
+    sweep.playOperator();
+    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
+    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
+    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+}
+
+TEST(LinkRestoredLoad, AProgrammableLoadIsSetAgainAndTheStepProceedsByItself)
+{
+    const sagline::Setup setup = demoSetup();
+    const Plan plan = planFor(setup);
+    VirtualClock clock(0);
+    VirtualBenchOptions options = virtualBenchOptionsFor(setup, plan, 7);
+    options.transformer.thermalResistanceKPerW = 0.0;
+    VirtualBench bench(options, &clock);
+    std::unique_ptr<InstrumentRig> rig(makeVirtualBenchRig(&bench, false));
+    for (ScpiInstrument *instrument : rig->instruments())
+        instrument->setReconnectIntervalMs(50);
+    rig->connectAll();
+    ASSERT_TRUE(waitUntil([&] { return rig->isReady(); }));
+    SweepOptions sweepOptions = sweepOptionsFor(setup, plan);
+    sweepOptions.simulated = true;
+    MemorySink sink;
+    LineFitLiveFit fit;
+    SweepController c(plan, sweepOptions, rig.get(), &sink, &fit, &clock);
+    std::vector<Reading> recorded;
+    std::vector<std::pair<int, QString>> instructions;
+    std::optional<SweepOutcome> outcome;
+    QObject::connect(&c, &SweepController::pointRecorded, [&](const Reading &r, const LiveFitSnapshot &) { recorded.push_back(r); });
+    QObject::connect(&c, &SweepController::stepStarted, [&](int s, const QString &text) { instructions.emplace_back(s, text); });
+    QObject::connect(&c, &SweepController::finished, [&](SweepOutcome o) { outcome = o; });
+    bool pulled = false;
+    const PlanStep &step = plan.steps[restoredStep];
+    QObject::connect(&c, &SweepController::stateChanged, [&](SweepState state) {
+        if (state == SweepState::Settling && c.currentStep() == restoredStep && !pulled) {
+            pulled = true;
+            bench.voltmeter()->vanish(200);
+            bench.setLoad(2.0 * *step.loadResistanceOhm); // moved while away: set again on restore
+        }
+    });
+    clock.setAutoAdvance(true);
+    c.start();
+    ASSERT_TRUE(waitUntil([&] { return outcome.has_value(); }, 10000)) << toString(c.state()).toStdString();
+    EXPECT_EQ(*outcome, SweepOutcome::Completed);
+    ASSERT_EQ(recorded.size(), plan.steps.size());
+    EXPECT_NEAR(recorded[restoredStep].currentA, step.currentA, 0.05 * step.currentA);
+    QStringList again;
+    for (const auto &[s, text] : instructions) {
+        if (s == restoredStep)
+            again << text;
+    }
+    ASSERT_EQ(again.size(), 2);
+    EXPECT_EQ(again[1].toStdString(), "link restored: setting the load again to about 15.2 Ω for step 3; expect about 19 V "
+                                      "and 1.25 A");
+    EXPECT_TRUE(sink.events.join('\n').contains(QStringLiteral("step 3: load set again after the link was restored")));
+}
