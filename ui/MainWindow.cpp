@@ -165,6 +165,7 @@ void MainWindow::wireWorkspace()
     connect(m_workspace, &SweepWorkspace::runningChanged, this, &MainWindow::handleRunningChanged);
     connect(m_workspace, &SweepWorkspace::sessionChanged, this, [this] {
         m_statusSession->setText(tr("Session: %1").arg(m_workspace->sessionPath()));
+        rebuildRecentMenu(); // a failed start removes the session file it had created
     });
     connect(m_workspace, &SweepWorkspace::instrumentStatus, m_instruments, &InstrumentsPanel::setStatus);
     connect(m_instruments, &InstrumentsPanel::choiceChanged, this, [this] {

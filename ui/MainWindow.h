@@ -57,6 +57,8 @@ public:
     ReadingsTableModel *readingsModel() const { return m_readingsModel; }
     QTableView *readingsView() const { return m_readingsView; }
     QString lastMessage() const { return m_lastMessage; }
+    QMenu *recentMenu() const { return m_recentMenu; }
+    QStringList recentFiles() const { return m_recentFiles; } // newest first; existing files only
 
 protected:
     void closeEvent(QCloseEvent *event) override;

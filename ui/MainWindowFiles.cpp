@@ -38,6 +38,9 @@ void MainWindow::createActions()
     file->addAction(tr("&New session"), QKeySequence::New, this, &MainWindow::newSession);
     file->addAction(tr("&Open session…"), QKeySequence::Open, this, &MainWindow::openSessionDialog);
     m_recentMenu = file->addMenu(tr("Open &recent"));
+    // Files deleted or moved since the list was built (by hand, or a failed start that removed
+    // its empty session) are dropped when the menu opens.
+    connect(m_recentMenu, &QMenu::aboutToShow, this, &MainWindow::rebuildRecentMenu);
     file->addSeparator();
     file->addAction(tr("Save a &copy as…"), QKeySequence::SaveAs, this, &MainWindow::saveCopyAs);
     file->addAction(tr("&Report to PDF…"), QKeySequence(Qt::CTRL | Qt::Key_P), this, &MainWindow::reportPdf);
@@ -168,6 +171,7 @@ bool MainWindow::openSessionFile(const QString &path)
     const QString error = m_workspace->openSession(path);
     if (!error.isEmpty()) {
         showMessage(tr("Cannot open %1: %2").arg(path, error), true);
+        rebuildRecentMenu(); // a file that is gone leaves the list
         return false;
     }
     if (m_workspace->setup())
@@ -211,6 +215,7 @@ void MainWindow::rebuildRecentMenu()
 {
     if (!m_recentMenu)
         return;
+    m_recentFiles.removeIf([](const QString &path) { return !QFileInfo::exists(path); });
     m_recentMenu->clear();
     for (const QString &path : std::as_const(m_recentFiles))
         m_recentMenu->addAction(QFileInfo(path).fileName(), this, [this, path] { openSessionFile(path); })->setToolTip(path);
