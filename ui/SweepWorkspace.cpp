@@ -43,7 +43,12 @@ std::optional<double> temperature(const QString &text, const char *field, QStrin
 
 } // namespace
 
-SweepWorkspace::SweepWorkspace(QObject *parent) : QObject(parent) {}
+SweepWorkspace::SweepWorkspace(QObject *parent) : QObject(parent), m_backgroundFit(new BackgroundFit(this))
+{
+    connect(m_backgroundFit, &BackgroundFit::finished, this, &SweepWorkspace::backgroundSummaryArrived);
+    m_summaryDue.setSingleShot(true);
+    connect(&m_summaryDue, &QTimer::timeout, this, &SweepWorkspace::fitChanged); // the views call summary()
+}
 
 SweepWorkspace::~SweepWorkspace() = default;
 
@@ -283,16 +288,35 @@ void SweepWorkspace::acceptRecorded(const Reading &reading)
 
 const FitSummary &SweepWorkspace::summary()
 {
-    QElapsedTimer &sinceLast = m_summaryClock;
     if (!m_summaryStale)
         return m_summary;
-    const bool large = m_readings.size() > summaryEveryPointUpTo;
-    if (large && sinceLast.isValid() && sinceLast.elapsed() < summaryIntervalMs)
+    if (m_readings.size() <= summaryEveryPointUpTo) {
+        m_summary = fitReadings(m_readings, FitMethod::Ols);
+        m_summaryStale = false;
         return m_summary;
-    m_summary = fitReadings(m_readings, FitMethod::Ols);
-    m_summaryStale = false;
-    sinceLast.start();
+    }
+    const bool due = !m_summaryClock.isValid() || m_summaryClock.elapsed() >= summaryIntervalMs;
+    if (due && !m_backgroundFit->isRunning()) {
+        std::vector<Reading> inputs;
+        inputs.reserve(m_readings.size());
+        for (const Reading &reading : m_readings)
+            inputs.push_back(BackgroundFit::fitFields(reading));
+        m_backgroundFit->start(std::move(inputs), m_fitChanges);
+        m_summaryClock.start();
+    } else if (!m_backgroundFit->isRunning() && !m_summaryDue.isActive()) {
+        // Not yet due: come back when it is, even if no further point arrives.
+        m_summaryDue.start(static_cast<int>(summaryIntervalMs - m_summaryClock.elapsed()));
+    }
     return m_summary;
+}
+
+void SweepWorkspace::backgroundSummaryArrived(std::uint64_t fitChange, const FitSummary &summary)
+{
+    if (fitChange < m_readingsReplacedAt)
+        return; // fitted the readings of a session no longer shown
+    m_summary = summary;
+    m_summaryStale = fitChange != m_fitChanges;
+    emit fitChanged(); // the views ask again; a still-stale summary is then started or scheduled
 }
 
 double SweepWorkspace::residualOf(double currentA, double voltageV) const
@@ -319,10 +343,12 @@ void SweepWorkspace::resetReadings()
     m_summary = {};
     m_nextCurrentA.reset();
     fitUpdated();
+    m_readingsReplacedAt = m_fitChanges;
 }
 
 void SweepWorkspace::fitUpdated()
 {
+    ++m_fitChanges;
     m_summaryStale = true;
     const LineFitResult result = m_fit.result();
     m_line = result.ok() ? Line{result.slope, result.intercept} : Line{};

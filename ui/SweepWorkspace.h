@@ -5,6 +5,7 @@
 // only shows what this class reports; it never computes.
 #pragma once
 
+#include "BackgroundFit.h"
 #include "FieldError.h"
 #include "FitSummary.h"
 #include "LineFit.h"
@@ -13,6 +14,7 @@
 #include "SetupForm.h"
 
 #include <QElapsedTimer>
+#include <QTimer>
 #include <QObject>
 #include <QString>
 
@@ -76,8 +78,9 @@ public:
 
     const std::vector<Reading> &readings() const { return m_readings; }
     const LineFit &liveFit() const { return m_fit; }
-    // The full fit (residuals, outliers, curvature); refreshed after each point while small,
-    // then at most a few times a second, and always on demand here.
+    // The full fit (residuals, outliers, curvature): computed here after each change up to
+    // 5 000 points; above that on a worker thread at most once a second, returning the last
+    // one meanwhile (fitChanged() when a new one arrives). The live fit is always current.
     const FitSummary &summary();
     double residualOf(double currentA, double voltageV) const;
     std::optional<double> nextCurrentA() const { return m_nextCurrentA; }
@@ -102,6 +105,7 @@ private:
     void resetReadings();
     void discardUnusedSession(); // a session file a failed start left empty
     void fitUpdated(); // after every change to m_fit
+    void backgroundSummaryArrived(std::uint64_t fitChange, const FitSummary &summary);
     void setNextStep(int stepIndex);
 
     std::optional<Setup> m_setup;
@@ -121,6 +125,10 @@ private:
     FitSummary m_summary;
     QElapsedTimer m_summaryClock;
     bool m_summaryStale = true;
+    BackgroundFit *m_backgroundFit;
+    QTimer m_summaryDue; // asks for the views again when a deferred summary may start
+    std::uint64_t m_fitChanges = 0;       // counts fitUpdated(); tags background fits
+    std::uint64_t m_readingsReplacedAt = 0; // m_fitChanges when the readings were last cleared
     bool m_paused = false;
     bool m_simulatedTime = false;
     std::optional<double> m_nextCurrentA;

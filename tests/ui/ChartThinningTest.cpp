@@ -87,4 +87,20 @@ TEST(ChartThinning, TwentyThousandPointsDrawnThinnedFittedWhole)
     // The fit and the table use every point.
     EXPECT_EQ(window->workspace()->liveFit().count(), total);
     EXPECT_EQ(window->readingsModel()->rowCount(), static_cast<int>(total));
+
+    // The full fit of this many points runs on a worker thread and arrives by itself: every
+    // point used, the dip flagged as the outlier, and marked in its table row.
+    SweepWorkspace *workspace = window->workspace();
+    ASSERT_TRUE(waitUntil([&] {
+        window->flushCharts();
+        return workspace->summary().n == total;
+    }));
+    const auto &outliers = workspace->summary().outlierRows;
+    ASSERT_EQ(outliers.size(), 1u);
+    EXPECT_EQ(outliers.front(), total / 2);
+    window->flushCharts();
+    const auto *model = window->readingsModel();
+    EXPECT_TRUE(model->data(model->index(static_cast<int>(total / 2), ReadingsTableModel::Flags))
+                    .toString()
+                    .contains(QStringLiteral("outlier")));
 }
