@@ -18,6 +18,11 @@ void DisplayPoints::insert(std::int64_t id, double currentA, double voltageV, bo
     const auto at = std::upper_bound(m_points.begin(), m_points.end(), currentA,
                                      [](double c, const Entry &e) { return c < e.current; });
     m_points.insert(at, Entry{currentA, voltageV, id, excluded});
+    if (!excluded) {
+        const auto atIncluded = std::upper_bound(m_included.begin(), m_included.end(), currentA,
+                                                 [](double c, const PlotPoint &p) { return c < p.x; });
+        m_included.insert(atIncluded, PlotPoint{currentA, voltageV});
+    }
     m_minVoltage = std::min(m_minVoltage, voltageV);
     m_maxVoltage = std::max(m_maxVoltage, voltageV);
     if (!excluded)
@@ -32,6 +37,7 @@ bool DisplayPoints::setExcluded(std::int64_t id, bool excluded)
         if (entry.excluded != excluded) {
             entry.excluded = excluded;
             m_includedCount = excluded ? m_includedCount - 1 : m_includedCount + 1;
+            rebuildIncluded(); // rare (a person excluding a point): O(n) is fine
         }
         return true;
     }
@@ -41,9 +47,19 @@ bool DisplayPoints::setExcluded(std::int64_t id, bool excluded)
 void DisplayPoints::clear()
 {
     m_points.clear();
+    m_included.clear();
     m_includedCount = 0;
     m_minVoltage = std::numeric_limits<double>::infinity();
     m_maxVoltage = -std::numeric_limits<double>::infinity();
+}
+
+void DisplayPoints::rebuildIncluded()
+{
+    m_included.clear();
+    for (const auto &entry : m_points) {
+        if (!entry.excluded)
+            m_included.push_back({entry.current, entry.voltage});
+    }
 }
 
 std::vector<PlotPoint> DisplayPoints::collect(bool excluded, const std::function<double(double, double)> &y) const

@@ -8,6 +8,7 @@
 #include <cstdint>
 #include <functional>
 #include <limits>
+#include <span>
 #include <vector>
 
 namespace sagline {
@@ -27,6 +28,9 @@ public:
 
     // Included or excluded points in current order, mapped through `y` (identity: V).
     std::vector<PlotPoint> collect(bool excluded, const std::function<double(double, double)> &y = {}) const;
+    // The included points (I, V) in current order, without a copy: a refresh thins them
+    // straight from here.
+    std::span<const PlotPoint> included() const { return m_included; }
     double maxCurrent() const;
     double minVoltage() const { return m_minVoltage; } // +inf when empty
     double maxVoltage() const { return m_maxVoltage; } // -inf when empty
@@ -38,7 +42,10 @@ private:
         std::int64_t id;
         bool excluded;
     };
+    void rebuildIncluded();
+
     std::vector<Entry> m_points;
+    std::vector<PlotPoint> m_included; // the included entries' (I, V), same order
     std::size_t m_includedCount = 0;
     // Kept as points arrive: a refresh must not walk 100 000 points to size an axis.
     double m_minVoltage = std::numeric_limits<double>::infinity();

@@ -135,12 +135,22 @@ void ResidualChart::flushNow()
     m_dirty = false;
     std::vector<PlotPoint> included;
     std::vector<PlotPoint> excluded;
+    const std::size_t limit = drawnPointBudget(m_chart->plotArea().width());
     if (m_residual) {
         const auto inMillivolts = [this](double current, double voltage) {
             return m_residual(current, voltage) * millivoltsPerVolt;
         };
-        included = m_points.collect(false, inMillivolts);
+        // Thin the voltages, then map only the kept points: subtracting the fitted line is a
+        // shear, which keeps every triangle's area, so LTTB keeps the same points either way
+        // (tests/core/DownsampleTest) and a refresh computes hundreds of residuals, not all.
+        const auto voltages = m_points.included();
+        included = voltages.size() > limit ? lttbDownsample(voltages, limit)
+                                           : std::vector<PlotPoint>(voltages.begin(), voltages.end());
+        for (auto &p : included)
+            p.y = inMillivolts(p.x, p.y);
         excluded = m_points.collect(true, inMillivolts);
+        if (excluded.size() > limit)
+            excluded = lttbDownsample(excluded, limit);
     }
     double largest = 2.0 * m_residualSdV * millivoltsPerVolt;
     for (const auto *set : {&included, &excluded}) {
@@ -162,12 +172,10 @@ void ResidualChart::flushNow()
         applySpan(m_axisX, {std::max(0.0, x.low), x.high});
         m_x = {m_axisX->min(), m_axisX->max()};
     }
-    const std::size_t limit = drawnPointBudget(m_chart->plotArea().width());
-    const auto toQt = [limit](const std::vector<PlotPoint> &points) {
-        const auto shown = points.size() > limit ? lttbDownsample(points, limit) : points;
+    const auto toQt = [](const std::vector<PlotPoint> &points) {
         QList<QPointF> out;
-        out.reserve(static_cast<qsizetype>(shown.size()));
-        for (const auto &p : shown)
+        out.reserve(static_cast<qsizetype>(points.size()));
+        for (const auto &p : points)
             out.append(QPointF(p.x, p.y));
         return out;
     };

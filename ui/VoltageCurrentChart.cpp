@@ -20,7 +20,7 @@ namespace {
 constexpr int markerPx = 9;
 constexpr int unsafeGridPoints = 160;
 
-QList<QPointF> toQt(const std::vector<PlotPoint> &points)
+QList<QPointF> toQt(std::span<const PlotPoint> points)
 {
     QList<QPointF> out;
     out.reserve(static_cast<qsizetype>(points.size()));
@@ -29,7 +29,7 @@ QList<QPointF> toQt(const std::vector<PlotPoint> &points)
     return out;
 }
 
-QList<QPointF> thinned(const std::vector<PlotPoint> &points, std::size_t limit)
+QList<QPointF> thinned(std::span<const PlotPoint> points, std::size_t limit)
 {
     return points.size() > limit ? toQt(lttbDownsample(points, limit)) : toQt(points);
 }
@@ -297,7 +297,7 @@ void VoltageCurrentChart::flushNow()
     growRanges();
     if (m_pointsDirty) {
         const std::size_t budget = drawnPointBudget(m_chart->plotArea().width());
-        m_included->replace(thinned(m_points.collect(false), budget));
+        m_included->replace(thinned(m_points.included(), budget));
         m_excluded->replace(thinned(m_points.collect(true), budget));
     }
     if (m_overlayDirty) {

@@ -93,3 +93,23 @@ TEST(Downsample, NeverKeepsNonFinitePoints)
     }
     EXPECT_EQ(lttbIndices(points, 100).size(), 5u);
 }
+
+TEST(Downsample, PicksTheSamePointsAfterSubtractingALine)
+{
+    // A shear (x, y) -> (x, y - a - b x) keeps every triangle's area and maps bucket means to
+    // bucket means, so LTTB keeps the same points of V(I) and of its residuals about any line:
+    // the residual chart thins the voltages and maps only the kept points.
+    std::mt19937 rng(7);
+    std::normal_distribution<double> noise(0.0, 0.004);
+    std::vector<PlotPoint> voltages;
+    std::vector<PlotPoint> residuals;
+    const double a = 19.61;
+    const double b = -0.483;
+    for (int i = 0; i < 50000; ++i) {
+        const double current = 3.3 * i / 49999.0;
+        const double voltage = 19.6 - 0.48 * current + noise(rng);
+        voltages.push_back({current, voltage});
+        residuals.push_back({current, voltage - a - b * current});
+    }
+    EXPECT_EQ(lttbIndices(voltages, 700), lttbIndices(residuals, 700));
+}
