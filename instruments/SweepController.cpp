@@ -146,29 +146,42 @@ QString SweepController::instruction(int step) const
     return {};
 }
 
-QString SweepController::restoredInstruction(int step) const
+// The step's load checked again after `why` ("link restored", "resumed"): a programmable load
+// is set again by the program; a load set by hand is checked by the operator, who confirms.
+QString SweepController::recheckInstruction(int step, const QString &why) const
 {
     for (const PlanStep &s : m_plan.steps) {
         if (s.index != step)
             continue;
         if (hasProgrammableLoad()) {
             if (!s.loadResistanceOhm)
-                return QStringLiteral("link restored: opening the load again for step %1; %2").arg(step).arg(expectation(s));
-            return QStringLiteral("link restored: setting the load again to about %1 for step %2; %3")
-                .arg(formatResistance(*s.loadResistanceOhm))
+                return QStringLiteral("%1: opening the load again for step %2; %3").arg(why).arg(step).arg(expectation(s));
+            return QStringLiteral("%1: setting the load again to about %2 for step %3; %4")
+                .arg(why, formatResistance(*s.loadResistanceOhm))
                 .arg(step)
                 .arg(expectation(s));
         }
         if (!s.loadResistanceOhm)
-            return QStringLiteral("link restored: check the load is still disconnected (open circuit) for step %1, then confirm; %2")
+            return QStringLiteral("%1: check the load is still disconnected (open circuit) for step %2, then confirm; %3")
+                .arg(why)
                 .arg(step)
                 .arg(expectation(s));
-        return QStringLiteral("link restored: check the load is still at about %1 for step %2, then confirm; %3")
-            .arg(formatResistance(*s.loadResistanceOhm))
+        return QStringLiteral("%1: check the load is still at about %2 for step %3, then confirm; %4")
+            .arg(why, formatResistance(*s.loadResistanceOhm))
             .arg(step)
             .arg(expectation(s));
     }
     return {};
+}
+
+QString SweepController::restoredInstruction(int step) const
+{
+    return recheckInstruction(step, QStringLiteral("link restored"));
+}
+
+QString SweepController::resumedInstruction(int step) const
+{
+    return recheckInstruction(step, QStringLiteral("resumed"));
 }
 
 void SweepController::setState(SweepState state)
@@ -235,6 +248,10 @@ void SweepController::beginStep()
         // have been moved while the meters were away, so the operator checks it again.
         text = m_confirmedBeforeLoss || hasProgrammableLoad() ? restoredInstruction(m_step)
                                                               : QStringLiteral("link restored: ") + text;
+    } else if (m_pauseInDoubt) {
+        // The same after an operator's pause: the load may have been changed meanwhile.
+        text = m_confirmedBeforePause || hasProgrammableLoad() ? resumedInstruction(m_step)
+                                                               : QStringLiteral("resumed: ") + text;
     }
     emit stepStarted(m_step, text);
     if (serial != m_readSerial)
@@ -280,7 +297,13 @@ void SweepController::loadReady()
                                     : tr("step %1: the operator confirmed the load again after the link was restored").arg(m_step));
         m_loadInDoubt = false;
         m_confirmedBeforeLoss = false;
+    } else if (m_pauseInDoubt) {
+        event(hasProgrammableLoad()    ? tr("step %1: load set again after the operator resumed").arg(m_step)
+              : m_confirmedBeforePause ? tr("step %1: the operator confirmed the load again after resuming").arg(m_step)
+                                       : tr("step %1: the operator confirmed the load after resuming").arg(m_step));
     }
+    m_pauseInDoubt = false;
+    m_confirmedBeforePause = false;
     setState(SweepState::Settling);
     m_timer = m_clock->callAfter(m_options.dwellMs, this, [this] {
         m_timer = 0;
@@ -553,6 +576,8 @@ void SweepController::nextStep()
     m_loadConfirmed = false;
     m_loadInDoubt = false;
     m_confirmedBeforeLoss = false;
+    m_pauseInDoubt = false;
+    m_confirmedBeforePause = false;
     if (m_stepIndex + 1 >= static_cast<int>(m_plan.steps.size())) {
         openLoad();
         finish(SweepOutcome::Completed);
@@ -618,6 +643,11 @@ void SweepController::pause()
     if (m_state == SweepState::Idle || m_state == SweepState::Finished || m_state == SweepState::Stopped)
         return;
     m_operatorPaused = true;
+    // Anyone may change the load while the sweep is paused: resume() has it checked again.
+    if (m_rig && !m_pauseInDoubt) {
+        m_pauseInDoubt = true;
+        m_confirmedBeforePause = m_loadConfirmed;
+    }
     cancelTimers();
     ++m_readSerial;
     m_pauseReason = tr("paused by the operator");
@@ -643,6 +673,11 @@ void SweepController::resume()
         return;
     }
     event(tr("resumed at step %1").arg(m_step));
+    if (m_pauseInDoubt && !m_loadInDoubt) {
+        m_loadConfirmed = false;
+        if (!hasProgrammableLoad())
+            event(tr("step %1: waiting for the operator to confirm the load again").arg(m_step));
+    }
     beginStep();
 }
 
@@ -667,7 +702,7 @@ void SweepController::handleRigLost(const QString &message)
     // Nobody can tell from here whether the load was moved while the meters were away: the
     // step's load is confirmed (or set by the programmable load) again before it is read.
     if (!m_loadInDoubt)
-        m_confirmedBeforeLoss = m_loadConfirmed;
+        m_confirmedBeforeLoss = m_loadConfirmed || (m_pauseInDoubt && m_confirmedBeforePause);
     m_loadInDoubt = true;
     m_loadConfirmed = false;
     m_pauseReason = hasProgrammableLoad()

@@ -10,8 +10,9 @@
 // the session store, and only then reported as recorded and added to the fit. A lost link
 // pauses the sweep, keeps every recorded point, and resumes at the same step once all meters
 // are back; nobody watched the load meanwhile, so the operator confirms it again for that step
-// (a programmable load is set again) before anything is read. Without meters (manual entry)
-// each step waits for typed-in values instead.
+// (a programmable load is set again) before anything is read; the same after an operator's
+// pause, since the load may have been changed while the sweep was paused. Without meters
+// (manual entry) each step waits for typed-in values instead.
 // Time comes from an injected Clock so tests and simulated sweeps do not sleep.
 #pragma once
 
@@ -96,6 +97,8 @@ public:
     QString instruction(int step) const;             // the text stepStarted carries
     // The text stepStarted carries when a step starts again after a lost link came back.
     QString restoredInstruction(int step) const;
+    // The text stepStarted carries when a step starts again after an operator's pause.
+    QString resumedInstruction(int step) const;
     int recordedCount() const { return m_recorded; }
     QString pauseReason() const { return m_pauseReason; }
 
@@ -131,6 +134,7 @@ private:
     void handleRigLost(const QString &message);
     void handleRigRestored(const QString &message);
     void event(const QString &text);
+    QString recheckInstruction(int step, const QString &why) const;
     Reading makeReading(double currentA, double voltageV) const;
     double expectedVoltage() const;
 
@@ -150,6 +154,8 @@ private:
     bool m_loadConfirmed = false;
     bool m_loadInDoubt = false;   // a link was lost during this step: the load is checked again
     bool m_confirmedBeforeLoss = false; // the operator had confirmed this step's load before the loss
+    bool m_pauseInDoubt = false;  // paused by the operator during this step: the load is checked again on resume
+    bool m_confirmedBeforePause = false; // the operator had confirmed this step's load before the pause
     bool m_linkDown = false;
     bool m_operatorPaused = false;
     std::optional<Reading> m_uncommitted; // a reading whose commit failed; retried on resume()

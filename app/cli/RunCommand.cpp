@@ -322,10 +322,12 @@ int runRun(const Arguments &rawArgs)
             controller.confirmLoadSet();
     });
     QObject::connect(&controller, &SweepController::stepStarted, [&](int step, const QString &text) {
+        // A step started again (link restored, resumed) asks to check the load, not to set it.
+        const bool recheck = text.startsWith(QStringLiteral("link restored")) || text.startsWith(QStringLiteral("resumed"));
         std::cerr << "step " << step << ": " << text.toStdString()
-                  << (!waitForEnter                                     ? ""
-                      : text.startsWith(QStringLiteral("link restored")) ? " -- press Enter to confirm"
-                                                                          : " -- press Enter when it is set")
+                  << (!waitForEnter ? ""
+                      : recheck     ? " -- press Enter to confirm"
+                                    : " -- press Enter when it is set")
                   << '\n';
     });
     QObject::connect(&controller, &SweepController::pointRecorded, [](const Reading &reading, const LiveFitSnapshot &snapshot) {

@@ -1,0 +1,221 @@
+// After the operator pauses a sweep and resumes it, the interrupted step is not read until its
+// load is confirmed again: anyone may have turned the rheostat while the sweep was paused. The
+// virtual bench's meters without its programmable load (the test plays the operator), in
+// simulated time; and with the programmable load, which is set again and the step goes on.
+#include "OperatorSweep.h"
+
+#include "LinkAddress.h"
+
+using namespace sagline;
+using namespace sagline::test;
+
+namespace {
+
+constexpr int pausedStep = 3;
+
+QString lastInstructionFor(const OperatorSweep &sweep, int step)
+{
+    QString last;
+    for (const auto &[s, text] : sweep.instructions) {
+        if (s == step)
+            last = text;
+    }
+    return last;
+}
+
+} // namespace
+
+TEST(ResumedLoad, AfterAPauseTheStepWaitsForTheOperatorAndIsReadAtTheConfirmedLoad)
+{
+    OperatorSweep sweep;
+    const PlanStep &step = sweep.planStep(pausedStep);
+    ASSERT_TRUE(step.loadResistanceOhm.has_value());
+    // Step 3: the load is set and confirmed, then the operator pauses during the dwell.
+    bool pausedOnce = false;
+    sweep.afterConfirm = [&](int s) {
+        if (s != pausedStep || pausedOnce)
+            return;
+        pausedOnce = true;
+        sweep.controller->pause();
+    };
+    sweep.clock.setAutoAdvance(true);
+    sweep.controller->start();
+    ASSERT_TRUE(waitUntil([&] { return pausedOnce && sweep.controller->state() == SweepState::Paused; }, 10000))
+        << toString(sweep.controller->state()).toStdString();
+    ASSERT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep)); // steps 0..2 only
+
+    // While paused, someone turns the rheostat to twice the resistance. The operator resumes
+    // but does not answer the question at once: the test looks first.
+    sweep.bench->setLoad(2.0 * *step.loadResistanceOhm);
+    sweep.operatorAnswers = false;
+    sweep.controller->resume();
+    EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    EXPECT_EQ(sweep.controller->currentStep(), pausedStep);
+    sweep.clock.advance(60000);
+    waitUntil([] { return false; }, 150);
+    EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad); // nothing read, however long
+    ASSERT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep));
+
+    // The step is announced again, and the text says plainly what to check.
+    ASSERT_EQ(sweep.announcements(pausedStep), 2);
+    const QString text = sweep.instructions.back().second;
+    // Demo step 3 of 8: 3/8 of 3.33 A = 1.25 A; 19.6 V - 0.48 Ω x 1.25 A = 19.0 V; 19.0 V / 1.25 A = 15.2 Ω.
+    EXPECT_EQ(text.toStdString(), "resumed: check the load is still at about 15.2 Ω for step 3, then confirm; "
+                                  "expect about 19 V and 1.25 A");
+    EXPECT_EQ(text, sweep.controller->resumedInstruction(pausedStep));
+
+    // The operator finds the rheostat moved, puts it back and confirms: the step is read at
+    // the planned load, and the sweep completes with every step once, in order.
+    sweep.operatorAnswers = true;
+    sweep.playOperator();
+    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
+    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
+    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+    for (std::size_t i = 0; i < sweep.recorded.size(); ++i)
+        EXPECT_EQ(sweep.recorded[i].step, sweep.plan.steps[i].index);
+    // At twice the resistance the current would be about half: within 5 % it is the planned load.
+    EXPECT_NEAR(sweep.recorded[pausedStep].currentA, step.currentA, 0.05 * step.currentA);
+    const QString events = sweep.sink.events.join('\n');
+    EXPECT_TRUE(events.contains(QStringLiteral("paused by the operator at step 3"))) << events.toStdString();
+    EXPECT_TRUE(events.contains(QStringLiteral("resumed at step 3"))) << events.toStdString();
+    EXPECT_TRUE(events.contains(QStringLiteral("step 3: waiting for the operator to confirm the load again"))) << events.toStdString();
+    EXPECT_TRUE(events.contains(QStringLiteral("step 3: the operator confirmed the load again after resuming")))
+        << events.toStdString();
+}
+
+TEST(ResumedLoad, APauseBeforeTheLoadWasConfirmedAsksForTheLoadAsBefore)
+{
+    OperatorSweep sweep;
+    bool pausedOnce = false;
+    sweep.beforeConfirm = [&](int s) {
+        if (s == pausedStep && !pausedOnce) {
+            pausedOnce = true;
+            sweep.controller->pause(); // paused while step 3 waits for its load
+            return false;
+        }
+        return true;
+    };
+    sweep.clock.setAutoAdvance(true);
+    sweep.controller->start();
+    ASSERT_TRUE(waitUntil([&] { return pausedOnce && sweep.controller->state() == SweepState::Paused; }, 10000));
+    sweep.controller->resume();
+    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000)) << toString(sweep.controller->state()).toStdString();
+    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
+    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+    ASSERT_EQ(sweep.announcements(pausedStep), 2);
+    // Never confirmed, so nothing to check "still": the ordinary instruction, marked.
+    EXPECT_EQ(lastInstructionFor(sweep, pausedStep), QStringLiteral("resumed: ") + sweep.controller->instruction(pausedStep));
+    EXPECT_TRUE(sweep.sink.events.join('\n').contains(QStringLiteral("step 3: the operator confirmed the load after resuming")));
+}
+
+TEST(ResumedLoad, PausingAgainBeforeConfirmingStillAsksToCheckTheLoad)
+{
+    OperatorSweep sweep;
+    bool pausedOnce = false;
+    sweep.afterConfirm = [&](int s) {
+        if (s == pausedStep && !pausedOnce) {
+            pausedOnce = true;
+            sweep.controller->pause();
+        }
+    };
+    sweep.clock.setAutoAdvance(true);
+    sweep.controller->start();
+    ASSERT_TRUE(waitUntil([&] { return pausedOnce && sweep.controller->state() == SweepState::Paused; }, 10000));
+    sweep.operatorAnswers = false;
+    sweep.controller->resume();
+    ASSERT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    sweep.controller->pause();
+    sweep.controller->resume();
+    EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    ASSERT_EQ(sweep.announcements(pausedStep), 3);
+    EXPECT_EQ(sweep.instructions.back().second, sweep.controller->resumedInstruction(pausedStep));
+    EXPECT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep));
+    sweep.operatorAnswers = true;
+    sweep.playOperator();
+    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
+    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
+    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+}
+
+TEST(ResumedLoad, ALinkLostWhileTheResumedStepWaitsStillAsksToCheckTheLoad)
+{
+    OperatorSweep sweep;
+    bool pausedOnce = false;
+    sweep.afterConfirm = [&](int s) {
+        if (s == pausedStep && !pausedOnce) {
+            pausedOnce = true;
+            sweep.controller->pause();
+        }
+    };
+    sweep.clock.setAutoAdvance(true);
+    sweep.controller->start();
+    ASSERT_TRUE(waitUntil([&] { return pausedOnce && sweep.controller->state() == SweepState::Paused; }, 10000));
+    sweep.operatorAnswers = false;
+    sweep.controller->resume();
+    ASSERT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    // The voltmeter's cable is pulled while the resumed step waits: the load was confirmed
+    // before the pause, so after the restore the operator checks it "still", as after any loss.
+    sweep.bench->voltmeter()->vanish(200);
+    ASSERT_TRUE(waitUntil([&] { return sweep.controller->state() == SweepState::Paused; }, 5000));
+    ASSERT_TRUE(waitUntil([&] { return sweep.controller->state() == SweepState::WaitingForLoad; }, 5000))
+        << toString(sweep.controller->state()).toStdString();
+    EXPECT_EQ(sweep.instructions.back().second, sweep.controller->restoredInstruction(pausedStep));
+    EXPECT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep));
+    sweep.operatorAnswers = true;
+    sweep.playOperator();
+    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
+    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
+    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+}
+
+TEST(ResumedLoad, AProgrammableLoadIsSetAgainAndTheStepProceedsByItself)
+{
+    const sagline::Setup setup = demoSetup();
+    const Plan plan = planFor(setup);
+    VirtualClock clock(0);
+    VirtualBenchOptions options = virtualBenchOptionsFor(setup, plan, 7);
+    options.transformer.thermalResistanceKPerW = 0.0;
+    VirtualBench bench(options, &clock);
+    std::unique_ptr<InstrumentRig> rig(makeVirtualBenchRig(&bench, false));
+    rig->connectAll();
+    ASSERT_TRUE(waitUntil([&] { return rig->isReady(); }));
+    SweepOptions sweepOptions = sweepOptionsFor(setup, plan);
+    sweepOptions.simulated = true;
+    MemorySink sink;
+    LineFitLiveFit fit;
+    SweepController c(plan, sweepOptions, rig.get(), &sink, &fit, &clock);
+    std::vector<Reading> recorded;
+    std::vector<std::pair<int, QString>> instructions;
+    std::optional<SweepOutcome> outcome;
+    QObject::connect(&c, &SweepController::pointRecorded, [&](const Reading &r, const LiveFitSnapshot &) { recorded.push_back(r); });
+    QObject::connect(&c, &SweepController::stepStarted, [&](int s, const QString &text) { instructions.emplace_back(s, text); });
+    QObject::connect(&c, &SweepController::finished, [&](SweepOutcome o) { outcome = o; });
+    bool pausedOnce = false;
+    const PlanStep &step = plan.steps[pausedStep];
+    QObject::connect(&c, &SweepController::stateChanged, [&](SweepState state) {
+        if (state == SweepState::Settling && c.currentStep() == pausedStep && !pausedOnce) {
+            pausedOnce = true;
+            QTimer::singleShot(0, &c, [&] { c.pause(); });
+        }
+    });
+    clock.setAutoAdvance(true);
+    c.start();
+    ASSERT_TRUE(waitUntil([&] { return pausedOnce && c.state() == SweepState::Paused; }, 10000)) << toString(c.state()).toStdString();
+    // The virtual clock moves only when the event loop would block, so the pause posted at the
+    // start of the dwell comes before step 3 is read.
+    ASSERT_EQ(recorded.size(), static_cast<std::size_t>(pausedStep));
+    bench.setLoad(2.0 * *step.loadResistanceOhm); // moved while paused: set again on resume
+    c.resume();
+    ASSERT_TRUE(waitUntil([&] { return outcome.has_value(); }, 10000)) << toString(c.state()).toStdString();
+    EXPECT_EQ(*outcome, SweepOutcome::Completed);
+    ASSERT_EQ(recorded.size(), plan.steps.size());
+    EXPECT_NEAR(recorded[pausedStep].currentA, step.currentA, 0.05 * step.currentA);
+    QStringList again;
+    for (const auto &[s, text] : instructions) {
+        if (s == pausedStep)
+            again << text;
+    }
+    ASSERT_EQ(again.size(), 2);
+    EXPECT_EQ(again[1].toStdString(), "resumed: setting the load again to about 15.2 Ω for step 3; expect about 19 V and 1.25 A");
+    EXPECT_TRUE(sink.events.join('\n').contains(QStringLiteral("step 3: load set again after the operator resumed")));
+}
