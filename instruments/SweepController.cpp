@@ -2,6 +2,7 @@
 
 #include "InstrumentRig.h"
 #include "ScpiInstrument.h"
+#include "SweepInstructions.h"
 
 #include <algorithm>
 #include <cmath>
@@ -12,33 +13,6 @@
 namespace sagline {
 
 namespace {
-
-// Three significant digits without an exponent: "11.9", "145", "1250".
-QString sig3(double value)
-{
-    if (std::fabs(value) >= 1000.0)
-        return QString::number(value, 'f', 0);
-    return QString::number(value, 'g', 3);
-}
-
-QString formatCurrent(double amps)
-{
-    if (std::fabs(amps) < 1.0)
-        return sig3(amps * 1000.0) + QStringLiteral(" mA");
-    return sig3(amps) + QStringLiteral(" A");
-}
-
-QString formatResistance(double ohms)
-{
-    if (ohms >= 1000.0)
-        return sig3(ohms / 1000.0) + QStringLiteral(" kΩ");
-    return sig3(ohms) + QStringLiteral(" Ω");
-}
-
-QString expectation(const PlanStep &step)
-{
-    return QStringLiteral("expect about %1 V and %2").arg(sig3(step.predictedVoltageV), formatCurrent(step.currentA));
-}
 
 // Below this many points the scatter estimate is too rough to call a reading an outlier.
 constexpr int minPointsForPredictionCheck = 4;
@@ -134,54 +108,31 @@ bool SweepController::hasProgrammableLoad() const
     return m_rig && m_rig->load();
 }
 
-QString SweepController::instruction(int step) const
+const PlanStep *SweepController::planStep(int step) const
 {
     for (const PlanStep &s : m_plan.steps) {
-        if (s.index != step)
-            continue;
-        if (!s.loadResistanceOhm)
-            return QStringLiteral("disconnect the load (open circuit); ") + expectation(s);
-        return QStringLiteral("set the load to about %1; %2").arg(formatResistance(*s.loadResistanceOhm), expectation(s));
+        if (s.index == step)
+            return &s;
     }
-    return {};
+    return nullptr;
 }
 
-// The step's load checked again after `why` ("link restored", "resumed"): a programmable load
-// is set again by the program; a load set by hand is checked by the operator, who confirms.
-QString SweepController::recheckInstruction(int step, const QString &why) const
+QString SweepController::instruction(int step) const
 {
-    for (const PlanStep &s : m_plan.steps) {
-        if (s.index != step)
-            continue;
-        if (hasProgrammableLoad()) {
-            if (!s.loadResistanceOhm)
-                return QStringLiteral("%1: opening the load again for step %2; %3").arg(why).arg(step).arg(expectation(s));
-            return QStringLiteral("%1: setting the load again to about %2 for step %3; %4")
-                .arg(why, formatResistance(*s.loadResistanceOhm))
-                .arg(step)
-                .arg(expectation(s));
-        }
-        if (!s.loadResistanceOhm)
-            return QStringLiteral("%1: check the load is still disconnected (open circuit) for step %2, then confirm; %3")
-                .arg(why)
-                .arg(step)
-                .arg(expectation(s));
-        return QStringLiteral("%1: check the load is still at about %2 for step %3, then confirm; %4")
-            .arg(why, formatResistance(*s.loadResistanceOhm))
-            .arg(step)
-            .arg(expectation(s));
-    }
-    return {};
+    const PlanStep *s = planStep(step);
+    return s ? stepInstruction(*s) : QString();
 }
 
 QString SweepController::restoredInstruction(int step) const
 {
-    return recheckInstruction(step, QStringLiteral("link restored"));
+    const PlanStep *s = planStep(step);
+    return s ? recheckInstruction(*s, QStringLiteral("link restored"), hasProgrammableLoad()) : QString();
 }
 
 QString SweepController::resumedInstruction(int step) const
 {
-    return recheckInstruction(step, QStringLiteral("resumed"));
+    const PlanStep *s = planStep(step);
+    return s ? recheckInstruction(*s, QStringLiteral("resumed"), hasProgrammableLoad()) : QString();
 }
 
 void SweepController::setState(SweepState state)

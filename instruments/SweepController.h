@@ -134,7 +134,7 @@ private:
     void handleRigLost(const QString &message);
     void handleRigRestored(const QString &message);
     void event(const QString &text);
-    QString recheckInstruction(int step, const QString &why) const;
+    const PlanStep *planStep(int step) const; // by plan step index; null if the plan has none
     Reading makeReading(double currentA, double voltageV) const;
     double expectedVoltage() const;
 
