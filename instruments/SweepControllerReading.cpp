@@ -1,0 +1,238 @@
+// SweepController, measuring a step: reads the meters repeatedly, pairs voltage and current,
+// checks every reading against the hard limits, and accepts the point once the readings agree
+// (or flags it unstable at the maximum time), checked against the live fit's prediction.
+#include "SweepController.h"
+
+#include "InstrumentRig.h"
+#include "ScpiInstrument.h"
+
+#include <cmath>
+#include <cstdlib>
+#include <functional>
+#include <map>
+#include <memory>
+
+namespace sagline {
+
+namespace {
+
+// Below this many points the scatter estimate is too rough to call a reading an outlier.
+constexpr int minPointsForPredictionCheck = 4;
+
+} // namespace
+
+struct SweepController::PendingRead {
+    std::map<MeterRole, std::pair<MeterValue, std::int64_t>> values; // role -> (value, time read)
+    std::size_t expected = 0;
+};
+
+void SweepController::startMeasuring()
+{
+    setState(SweepState::Measuring);
+    m_tracker.start(static_cast<double>(m_clock->nowMs()) / 1000.0);
+    m_lastPair.reset();
+    m_lastRaw.clear();
+    readPair();
+}
+
+void SweepController::readPair()
+{
+    const int serial = ++m_readSerial;
+    // The secondary pair, plus the optional primary meters when the rig has them. Instruments
+    // read in parallel; the roles of one instrument one after the other.
+    std::map<ScpiInstrument *, std::vector<MeterRole>> byInstrument;
+    auto pending = std::make_shared<PendingRead>();
+    for (MeterRole role : {MeterRole::SecondaryVoltage, MeterRole::SecondaryCurrent, MeterRole::PrimaryVoltage,
+                           MeterRole::PrimaryCurrent}) {
+        if (ScpiInstrument *instrument = m_rig->instrumentFor(role)) {
+            byInstrument[instrument].push_back(role);
+            ++pending->expected;
+        }
+    }
+    auto readChain = std::make_shared<std::function<void(ScpiInstrument *, std::vector<MeterRole>, std::size_t)>>();
+    std::weak_ptr<std::function<void(ScpiInstrument *, std::vector<MeterRole>, std::size_t)>> weakChain = readChain;
+    *readChain = [this, serial, pending, weakChain](ScpiInstrument *instrument, std::vector<MeterRole> roles,
+                                                    std::size_t index) {
+        instrument->measure(roles[index], this, [this, serial, pending, weakChain, instrument, roles, index](const MeterValue &value) {
+            if (serial != m_readSerial)
+                return;
+            pending->values[value.role] = {value, m_clock->nowMs()};
+            if (index + 1 < roles.size()) {
+                if (auto chain = weakChain.lock())
+                    (*chain)(instrument, roles, index + 1);
+            } else if (pending->values.size() == pending->expected) {
+                handleValues(pending->values);
+            }
+        });
+    };
+    m_readChain = readChain; // kept alive until the next read
+    for (auto &[instrument, roles] : byInstrument)
+        (*readChain)(instrument, roles, 0);
+}
+
+void SweepController::handleValues(const std::map<MeterRole, std::pair<MeterValue, std::int64_t>> &values)
+{
+    const auto &[voltage, voltageMs] = values.at(MeterRole::SecondaryVoltage);
+    const auto &[current, currentMs] = values.at(MeterRole::SecondaryCurrent);
+    QString raw = QStringLiteral("V: %1; I: %2").arg(QString::fromLatin1(voltage.raw), QString::fromLatin1(current.raw));
+    for (MeterRole role : {MeterRole::PrimaryVoltage, MeterRole::PrimaryCurrent}) {
+        auto it = values.find(role);
+        if (it == values.end())
+            continue;
+        const MeterValue &v = it->second.first;
+        raw += QStringLiteral("; %1: %2").arg(role == MeterRole::PrimaryVoltage ? QStringLiteral("V1") : QStringLiteral("I1"),
+                                              v.status == MeterValue::Status::Failed ? QStringLiteral("(no reading)")
+                                                                                      : QString::fromLatin1(v.raw));
+        if (v.status == MeterValue::Status::Overload) {
+            SafetyPoint point;
+            point.overloadedRole = roleName(role).toStdString();
+            Reading reading = makeReading(current.isValue() ? current.value : 0.0, voltage.isValue() ? voltage.value : 0.0);
+            reading.rawText = raw.toStdString();
+            tripSafety(*checkSafety(m_options.limits, point), reading);
+            return;
+        }
+        if (v.status == MeterValue::Status::Failed)
+            emit notice(v.error); // an optional meter: noted, the secondary pair still counts
+    }
+    handlePair(voltage, voltageMs, current, currentMs, raw);
+}
+
+void SweepController::handlePair(const MeterValue &voltage, std::int64_t voltageMs, const MeterValue &current,
+                                 std::int64_t currentMs, const QString &raw)
+{
+    if (m_state != SweepState::Measuring)
+        return;
+    for (const MeterValue *value : {&voltage, &current}) {
+        if (value->status == MeterValue::Status::Overload) {
+            SafetyPoint point;
+            point.overloadedRole = roleName(value->role).toStdString();
+            Reading reading = makeReading(current.isValue() ? current.value : 0.0, voltage.isValue() ? voltage.value : 0.0);
+            reading.flags |= flagOverload;
+            reading.rawText = raw.toStdString();
+            tripSafety(*checkSafety(m_options.limits, point), reading);
+            return;
+        }
+    }
+    for (const MeterValue *value : {&voltage, &current}) {
+        if (value->status == MeterValue::Status::Failed) {
+            emit notice(value->error);
+            scheduleRead();
+            return;
+        }
+        if (value->status == MeterValue::Status::NotANumber) {
+            emit notice(tr("%1 reports not-a-number (%2); reading again").arg(roleName(value->role), QString::fromLatin1(value->raw)));
+            scheduleRead();
+            return;
+        }
+    }
+    if (std::llabs(voltageMs - currentMs) > m_options.pairWindowMs) {
+        emit notice(tr("voltage and current were read %1 ms apart (window %2 ms); reading again")
+                        .arg(std::llabs(voltageMs - currentMs))
+                        .arg(m_options.pairWindowMs));
+        scheduleRead();
+        return;
+    }
+    SafetyPoint point;
+    point.currentA = current.value;
+    point.voltageV = voltage.value;
+    point.expectedVoltageV = expectedVoltage();
+    if (auto trip = checkSafety(m_options.limits, point)) {
+        Reading reading = makeReading(current.value, voltage.value);
+        reading.rawText = raw.toStdString();
+        tripSafety(*trip, reading);
+        return;
+    }
+    m_lastPair = std::make_pair(voltage.value, current.value);
+    m_lastRaw = raw;
+    m_tracker.add(voltage.value, current.value);
+    if (m_tracker.isStable()) {
+        Reading reading = makeReading(current.value, voltage.value);
+        reading.rawText = raw.toStdString();
+        acceptPoint(reading);
+        return;
+    }
+    scheduleRead();
+}
+
+void SweepController::scheduleRead()
+{
+    if (m_tracker.isTimedOut(static_cast<double>(m_clock->nowMs()) / 1000.0)) {
+        if (m_lastPair) {
+            Reading reading = makeReading(m_lastPair->second, m_lastPair->first);
+            reading.flags |= flagUnstable;
+            reading.rawText = m_lastRaw.toStdString();
+            emit notice(tr("step %1: readings did not settle within %2 s; recording the last one as unstable")
+                            .arg(m_step)
+                            .arg(m_options.stability.maxTimeS));
+            acceptPoint(reading);
+            return;
+        }
+        m_pauseReason = tr("step %1: no valid reading within %2 s; check the meters, then resume to retry the step")
+                            .arg(m_step)
+                            .arg(m_options.stability.maxTimeS);
+        ++m_readSerial;
+        setState(SweepState::Paused);
+        event(m_pauseReason);
+        emit paused(m_pauseReason);
+        return;
+    }
+    m_timer = m_clock->callAfter(m_options.readIntervalMs, this, [this] {
+        m_timer = 0;
+        if (m_state == SweepState::Measuring)
+            readPair();
+    });
+}
+
+Reading SweepController::makeReading(double currentA, double voltageV) const
+{
+    Reading reading;
+    reading.step = m_step;
+    reading.currentA = currentA;
+    reading.voltageV = voltageV;
+    reading.timeUtc = m_clock->utcNowIso().toStdString();
+    if (m_rig) {
+        if (const RoleConfig *config = m_rig->roleConfig(MeterRole::SecondaryCurrent))
+            reading.uCurrentA = config->standardUncertainty(currentA);
+        if (const RoleConfig *config = m_rig->roleConfig(MeterRole::SecondaryVoltage))
+            reading.uVoltageV = config->standardUncertainty(voltageV);
+    } else {
+        reading.flags |= flagManual;
+    }
+    if (m_options.simulated)
+        reading.flags |= flagSimulated;
+    return reading;
+}
+
+double SweepController::expectedVoltage() const
+{
+    return m_plan.steps[m_stepIndex].predictedVoltageV;
+}
+
+void SweepController::acceptPoint(Reading reading)
+{
+    cancelTimers();
+    ++m_readSerial;
+    if (m_fit && m_fit->snapshot().pointCount >= minPointsForPredictionCheck) {
+        if (auto band = m_fit->predict(reading.currentA, m_options.predictionLevel)) {
+            // The fit's interval knows the scatter so far; the new reading also carries its own
+            // meter uncertainty (resolution, accuracy), which a few points cannot reveal.
+            const double half = (band->highV - band->lowV) / 2.0;
+            const double meter = 3.0 * reading.uVoltageV.value_or(0.0);
+            const double widened = std::sqrt(half * half + meter * meter);
+            const double low = band->predictedV - widened;
+            const double high = band->predictedV + widened;
+            if (reading.voltageV < low || reading.voltageV > high) {
+                reading.flags |= flagOutsidePrediction;
+                emit notice(tr("step %1: %2 V is far outside the expected %3 .. %4 V (wrong range, loose lead?)")
+                                .arg(m_step)
+                                .arg(reading.voltageV, 0, 'f', 4)
+                                .arg(low, 0, 'f', 4)
+                                .arg(high, 0, 'f', 4));
+            }
+        }
+    }
+    if (commitAndReport(reading))
+        nextStep();
+}
+
+} // namespace sagline
