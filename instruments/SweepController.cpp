@@ -365,49 +365,6 @@ QString SweepController::submitManualReading(const QString &voltageText, const Q
     return {};
 }
 
-void SweepController::pause()
-{
-    if (m_state == SweepState::Idle || m_state == SweepState::Finished || m_state == SweepState::Stopped)
-        return;
-    m_operatorPaused = true;
-    // Anyone may change the load while the sweep is paused: resume() has it checked again.
-    if (m_rig && !m_pauseInDoubt) {
-        m_pauseInDoubt = true;
-        m_confirmedBeforePause = m_loadConfirmed;
-    }
-    cancelTimers();
-    ++m_readSerial;
-    m_pauseReason = tr("paused by the operator");
-    setState(SweepState::Paused);
-    event(tr("paused by the operator at step %1").arg(m_step));
-    emit paused(m_pauseReason);
-}
-
-void SweepController::resume()
-{
-    if (m_state != SweepState::Paused)
-        return;
-    if (m_linkDown) {
-        emit notice(tr("still waiting for the instruments: %1").arg(m_pauseReason));
-        return;
-    }
-    m_operatorPaused = false;
-    if (m_uncommitted) {
-        setState(SweepState::Measuring); // retrying the held point's commit
-        Reading reading = *m_uncommitted;
-        if (commitAndReport(reading))
-            nextStep();
-        return;
-    }
-    event(tr("resumed at step %1").arg(m_step));
-    if (m_pauseInDoubt && !m_loadInDoubt) {
-        m_loadConfirmed = false;
-        if (!hasProgrammableLoad())
-            event(tr("step %1: waiting for the operator to confirm the load again").arg(m_step));
-    }
-    beginStep();
-}
-
 void SweepController::stop()
 {
     if (m_state == SweepState::Idle || m_state == SweepState::Finished || m_state == SweepState::Stopped)
@@ -415,57 +372,6 @@ void SweepController::stop()
     openLoad();
     event(tr("stopped by the operator at step %1").arg(m_step));
     finish(SweepOutcome::StoppedByOperator);
-}
-
-void SweepController::handleRigLost(const QString &message)
-{
-    if (m_state == SweepState::Idle || m_state == SweepState::Finished || m_state == SweepState::Stopped) {
-        emit notice(message);
-        return;
-    }
-    m_linkDown = true;
-    cancelTimers();
-    ++m_readSerial;
-    // Nobody can tell from here whether the load was moved while the meters were away: the
-    // step's load is confirmed (or set by the programmable load) again before it is read.
-    if (!m_loadInDoubt)
-        m_confirmedBeforeLoss = m_loadConfirmed || (m_pauseInDoubt && m_confirmedBeforePause);
-    m_loadInDoubt = true;
-    m_loadConfirmed = false;
-    m_pauseReason = hasProgrammableLoad()
-                        ? tr("link lost at step %1: %2. Recorded points are kept; when the link is back the load is "
-                             "set again and the sweep resumes at this step")
-                              .arg(m_step)
-                              .arg(message)
-                        : tr("link lost at step %1: %2. Recorded points are kept; when the link is back, confirm the "
-                             "load of this step again and the sweep resumes at this step")
-                              .arg(m_step)
-                              .arg(message);
-    setState(SweepState::Paused);
-    event(m_pauseReason);
-    emit linkLost(m_pauseReason);
-    emit paused(m_pauseReason);
-}
-
-void SweepController::handleRigRestored(const QString &message)
-{
-    if (!m_linkDown)
-        return;
-    m_linkDown = false;
-    event(tr("link restored: %1").arg(message));
-    emit linkRestored(message);
-    if (m_state != SweepState::Paused || m_operatorPaused)
-        return;
-    if (m_uncommitted) {
-        setState(SweepState::Measuring); // retrying the held point's commit
-        Reading reading = *m_uncommitted;
-        if (commitAndReport(reading))
-            nextStep();
-        return;
-    }
-    if (!hasProgrammableLoad())
-        event(tr("step %1: waiting for the operator to confirm the load again").arg(m_step));
-    beginStep();
 }
 
 } // namespace sagline
