@@ -15,7 +15,7 @@ namespace {
 
 QString row(const QString &name, const QString &value, const QString &note = {})
 {
-    QString html = QStringLiteral("<tr><td>") + name.toHtmlEscaped() + QStringLiteral("</td><td align=right><b>")
+    QString html = QStringLiteral("<tr><td>") + name.toHtmlEscaped() + QStringLiteral("</td><td align=right style=\"white-space:nowrap\"><b>")
                    + value.toHtmlEscaped() + QStringLiteral("</b></td>");
     if (!note.isEmpty())
         html += QStringLiteral("<td><i>") + note.toHtmlEscaped() + QStringLiteral("</i></td>");
