@@ -241,6 +241,8 @@ void SweepController::loadReady()
     m_pauseInDoubt = false;
     m_confirmedBeforePause = false;
     setState(SweepState::Settling);
+    if (m_state != SweepState::Settling)
+        return; // a stateChanged handler paused or stopped the sweep
     m_timer = m_clock->callAfter(m_options.dwellMs, this, [this] {
         m_timer = 0;
         startMeasuring();

@@ -29,6 +29,8 @@ struct SweepController::PendingRead {
 void SweepController::startMeasuring()
 {
     setState(SweepState::Measuring);
+    if (m_state != SweepState::Measuring)
+        return; // a stateChanged handler paused or stopped the sweep
     m_tracker.start(static_cast<double>(m_clock->nowMs()) / 1000.0);
     m_lastPair.reset();
     m_lastRaw.clear();

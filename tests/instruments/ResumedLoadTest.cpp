@@ -219,3 +219,37 @@ TEST(ResumedLoad, AProgrammableLoadIsSetAgainAndTheStepProceedsByItself)
     EXPECT_EQ(again[1].toStdString(), "resumed: setting the load again to about 15.2 Ω for step 3; expect about 19 V and 1.25 A");
     EXPECT_TRUE(sink.events.join('\n').contains(QStringLiteral("step 3: load set again after the operator resumed")));
 }
+
+TEST(ResumedLoad, APauseFromAStateChangedHandlerHoldsAndTheStepIsCheckedAgain)
+{
+    // A stateChanged handler may pause at once (signals re-enter): the dwell and the reading
+    // that would have followed must not run while paused. Paused on entering the dwell, and
+    // on entering the measurement.
+    for (SweepState pauseAt : {SweepState::Settling, SweepState::Measuring}) {
+        SCOPED_TRACE(toString(pauseAt).toStdString());
+        OperatorSweep sweep;
+        bool pausedOnce = false;
+        QObject::connect(sweep.controller.get(), &SweepController::stateChanged, [&](SweepState state) {
+            if (state == pauseAt && sweep.controller->currentStep() == pausedStep && !pausedOnce) {
+                pausedOnce = true;
+                sweep.controller->pause();
+            }
+        });
+        sweep.clock.setAutoAdvance(true);
+        sweep.controller->start();
+        ASSERT_TRUE(waitUntil([&] { return pausedOnce; }, 10000));
+        sweep.clock.advance(60000);
+        waitUntil([] { return false; }, 150);
+        EXPECT_EQ(sweep.controller->state(), SweepState::Paused);
+        EXPECT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep));
+        sweep.operatorAnswers = false;
+        sweep.controller->resume();
+        EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+        EXPECT_EQ(sweep.instructions.back().second, sweep.controller->resumedInstruction(pausedStep));
+        sweep.operatorAnswers = true;
+        sweep.playOperator();
+        ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
+        EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
+        ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+    }
+}
