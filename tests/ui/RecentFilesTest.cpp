@@ -1,6 +1,7 @@
 // The File menu's recent sessions list only files that exist: the session file a failed start
 // created and removed again, and a file deleted since it was opened, are dropped when the list
 // is rebuilt and when the menu opens; opening a vanished file drops it too.
+#include "RefusedLanStart.h"
 #include "UiTestSupport.h"
 
 #include "InstrumentsPanel.h"
@@ -94,21 +95,11 @@ TEST(RecentFiles, OpeningAVanishedRecentFileSaysSoAndDropsIt)
 
 TEST(RecentFiles, ASessionFileRemovedByAFailedStartIsNotListed)
 {
-    // A port nobody listens on: the connection is refused, and the window removes the empty
-    // session file it created for the start.
-    quint16 port = 0;
-    {
-        QTcpServer probe;
-        ASSERT_TRUE(probe.listen(QHostAddress::LocalHost, 0));
-        port = probe.serverPort();
-    }
+    // The connection is refused, and the window removes the empty session file it created.
     QTemporaryDir folder;
     auto window = demoWindow(folder.path());
-    window->setupForm()->setSessionDetails({QStringLiteral("Recent tester"), QStringLiteral("RF-2"), {}, {}});
+    startOnRefusedLanPort(*window, QStringLiteral("Recent tester"), QStringLiteral("RF-2"));
     InstrumentsPanel *panel = window->instrumentsPanel();
-    panel->sourceBox()->setCurrentIndex(panel->sourceBox()->findData(int(ReadingSource::Lan)));
-    typeInto(panel->addressEdit(), QStringLiteral("127.0.0.1:%1").arg(port));
-    QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
     SweepWorkspace *workspace = window->workspace();
     const QString created = QFileInfo(workspace->sessionPath()).absoluteFilePath();
     ASSERT_FALSE(workspace->sessionPath().isEmpty()) << window->lastMessage().toStdString();

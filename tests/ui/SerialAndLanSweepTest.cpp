@@ -4,6 +4,7 @@
 // load's own SCPI link, then clicks the window's "Load is set" (Record) button. Wall time, with
 // a short dwell, a quiet simulator (low noise) and no copper heating so a sweep takes seconds.
 // Also: the simulator killed mid-sweep.
+#include "RefusedLanStart.h"
 #include "UiTestSupport.h"
 
 #include "SimProcess.h"
@@ -231,20 +232,10 @@ TEST(SerialAndLanSweep, AWrongAmmeterAddressIsRefusedNamingIt)
 
 TEST(SerialAndLanSweep, NoMeterAtTheAddressSaysSoLeavesNoEmptySessionAndCanBeRetried)
 {
-    // A port nobody listens on: the connection is refused at once.
-    quint16 port = 0;
-    {
-        QTcpServer probe;
-        ASSERT_TRUE(probe.listen(QHostAddress::LocalHost, 0));
-        port = probe.serverPort();
-    }
     QTemporaryDir folder;
     auto window = demoWindow(folder.path());
-    window->setupForm()->setSessionDetails({QStringLiteral("Link tester"), QStringLiteral("LK-4"), {}, {}});
+    startOnRefusedLanPort(*window, QStringLiteral("Link tester"), QStringLiteral("LK-4"));
     InstrumentsPanel *panel = window->instrumentsPanel();
-    panel->sourceBox()->setCurrentIndex(panel->sourceBox()->findData(int(ReadingSource::Lan)));
-    typeInto(panel->addressEdit(), QStringLiteral("127.0.0.1:%1").arg(port));
-    QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
     SweepWorkspace *workspace = window->workspace();
     ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }, 8000)) << panel->statusText().toStdString();
     EXPECT_TRUE(panel->statusText().contains(QStringLiteral("cannot connect"))) << panel->statusText().toStdString();
