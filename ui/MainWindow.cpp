@@ -168,13 +168,27 @@ void MainWindow::wireWorkspace()
         rebuildRecentMenu(); // a failed start removes the session file it had created
     });
     connect(m_workspace, &SweepWorkspace::instrumentStatus, m_instruments, &InstrumentsPanel::setStatus);
+    connect(m_workspace, &SweepWorkspace::instrumentStatus, this, [this](const QString &status) {
+        // Always visible, whichever tab is open: "connected", "link lost at step 3", ...
+        m_instrumentState = status.section(QLatin1Char('\n'), 0, 0).section(QLatin1Char(':'), 0, 0).trimmed();
+        showSourceStatus();
+    });
     connect(m_instruments, &InstrumentsPanel::choiceChanged, this, [this] {
         m_nextStep->setTypedEntry(m_instruments->choice().source == ReadingSource::TypedIn);
-        m_statusSource->setText(m_instruments->sourceBox()->currentText());
+        m_instrumentState.clear();
+        showSourceStatus();
     });
     m_nextStep->setTypedEntry(m_instruments->choice().source == ReadingSource::TypedIn);
-    m_statusSource->setText(m_instruments->sourceBox()->currentText());
+    showSourceStatus();
 }
+
+void MainWindow::showSourceStatus()
+{
+    const QString source = m_instruments->sourceBox()->currentText();
+    m_statusSource->setText(m_instrumentState.isEmpty() ? source : tr("%1: %2").arg(source, m_instrumentState));
+}
+
+QString MainWindow::sourceStatusText() const { return m_statusSource->text(); }
 
 void MainWindow::loadSetup(const Setup &setup) { m_setupForm->loadSetup(setup); }
 

@@ -57,6 +57,7 @@ public:
     ReadingsTableModel *readingsModel() const { return m_readingsModel; }
     QTableView *readingsView() const { return m_readingsView; }
     QString lastMessage() const { return m_lastMessage; }
+    QString sourceStatusText() const; // the status bar's source and meter status
     QMenu *recentMenu() const { return m_recentMenu; }
     QStringList recentFiles() const { return m_recentFiles; } // newest first; existing files only
 
@@ -80,6 +81,7 @@ private:
     void handleReadingRecorded(int row);
     void handleReadingChanged(int row);
     void refreshFitViews();
+    void showSourceStatus();
     void handleStep(int step, const QString &instruction);
     void handleSafetyStop(const QString &text);
     void handleRunningChanged(bool running);
@@ -113,6 +115,7 @@ private:
     QSplitter *m_chartSplitter;
     QSplitter *m_rightSplitter;
     QLabel *m_statusSource;
+    QString m_instrumentState; // the meters' last status word, shown beside the source
     QLabel *m_statusSession;
     QLabel *m_statusPoints;
     QMenu *m_recentMenu;

@@ -42,6 +42,10 @@ TEST(VirtualBenchSweep, RecordsEveryStepAndFindsTheBenchResistance)
     SweepWorkspace *workspace = window->workspace();
     ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
     ASSERT_NE(workspace->run()->bench(), nullptr);
+    // The meters' status stays in sight in the status bar, whatever tab is open.
+    ASSERT_TRUE(waitUntil([&] { return window->sourceStatusText().contains(QStringLiteral(": connected")); }, 5000))
+        << window->sourceStatusText().toStdString();
+    EXPECT_TRUE(window->sourceStatusText().startsWith(QStringLiteral("Virtual bench"))) << window->sourceStatusText().toStdString();
     const double benchR = workspace->run()->bench()->options().transformer.seriesResistanceOhm;
     ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }, 20000))
         << window->lastMessage().toStdString() << " connecting " << workspace->run()->isConnecting() << " state "
