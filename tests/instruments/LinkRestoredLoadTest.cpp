@@ -4,18 +4,7 @@
 // and confirms), in simulated time; and with the programmable load, which is set again.
 #include "OperatorSweep.h"
 
-#include "InstrumentRig.h"
-#include "LineFitLiveFit.h"
-#include "LinkAddress.h"
-#include "SimInstrument.h"
-#include "SweepController.h"
-#include "VirtualBench.h"
-#include "VirtualBenchLink.h"
-
-#include <QDateTime>
 #include <QTimer>
-
-#include <memory>
 
 using namespace sagline;
 using namespace sagline::test;
@@ -50,9 +39,7 @@ TEST(LinkRestoredLoad, TheInterruptedStepWaitsForTheOperatorAndIsReadAtTheConfir
         }
         return true;
     };
-    sweep.clock.setAutoAdvance(true);
-    sweep.controller->start();
-    ASSERT_TRUE(waitUntil([&] { return heldOnce; }, 10000)) << toString(sweep.controller->state()).toStdString();
+    ASSERT_TRUE(sweep.runUntil([&] { return heldOnce; })) << toString(sweep.controller->state()).toStdString();
 
     // Back, and waiting: nothing read for step 3, however long nobody confirms.
     EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
@@ -72,13 +59,7 @@ TEST(LinkRestoredLoad, TheInterruptedStepWaitsForTheOperatorAndIsReadAtTheConfir
 
     // The operator finds the rheostat moved, puts it back and confirms: the step is read at
     // the planned load, and the sweep completes with every step once, in order.
-    sweep.bench->setLoad(step.loadResistanceOhm);
-    sweep.controller->confirmLoadSet();
-    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
-    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
-    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
-    for (std::size_t i = 0; i < sweep.recorded.size(); ++i)
-        EXPECT_EQ(sweep.recorded[i].step, sweep.plan.steps[i].index);
+    ASSERT_TRUE(sweep.confirmAndComplete());
     // At twice the resistance the current would be about half: within 5 % it is the planned load.
     EXPECT_NEAR(sweep.recorded[restoredStep].currentA, step.currentA, 0.05 * step.currentA);
     const QString events = sweep.sink.events.join('\n');
@@ -100,19 +81,12 @@ TEST(LinkRestoredLoad, ALinkLostBeforeTheLoadWasConfirmedAsksForTheLoadAsBefore)
         }
         return true;
     };
-    sweep.clock.setAutoAdvance(true);
-    sweep.controller->start();
-    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000)) << toString(sweep.controller->state()).toStdString();
-    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
-    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
-    ASSERT_EQ(sweep.announcements(restoredStep), 2);
+    sweep.run();
+    ASSERT_TRUE(sweep.completesEveryStepInOrder());
+    const QStringList texts = sweep.instructionsFor(restoredStep);
+    ASSERT_EQ(texts.size(), 2);
     // Never confirmed, so nothing to check "still": the ordinary instruction, marked.
-    QString again;
-    for (const auto &[s, text] : sweep.instructions) {
-        if (s == restoredStep)
-            again = text;
-    }
-    EXPECT_EQ(again, QStringLiteral("link restored: ") + sweep.controller->instruction(restoredStep));
+    EXPECT_EQ(texts.back(), QStringLiteral("link restored: ") + sweep.controller->instruction(restoredStep));
 }
 
 TEST(LinkRestoredLoad, AnOperatorPauseDuringTheOutageStillNeedsTheLoadConfirmedAfterResume)
@@ -127,9 +101,7 @@ TEST(LinkRestoredLoad, AnOperatorPauseDuringTheOutageStillNeedsTheLoadConfirmedA
         sweep.bench->voltmeter()->vanish(200);
         QTimer::singleShot(0, sweep.controller.get(), [&] { sweep.controller->pause(); }); // paused while the link is down
     };
-    sweep.clock.setAutoAdvance(true);
-    sweep.controller->start();
-    ASSERT_TRUE(waitUntil([&] { return pulled && sweep.controller->state() == SweepState::Paused; }, 10000));
+    ASSERT_TRUE(sweep.runUntil([&] { return pulled && sweep.controller->state() == SweepState::Paused; }));
     ASSERT_TRUE(waitUntil([&] { return !sweep.bench->voltmeter()->isVanished() && sweep.rig->isReady(); }, 5000));
     waitUntil([] { return false; }, 100);
     EXPECT_EQ(sweep.controller->state(), SweepState::Paused); // the operator's pause holds
@@ -138,59 +110,27 @@ TEST(LinkRestoredLoad, AnOperatorPauseDuringTheOutageStillNeedsTheLoadConfirmedA
     EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
     EXPECT_EQ(sweep.instructions.back().second, sweep.controller->restoredInstruction(step.index));
     EXPECT_EQ(sweep.recorded.size(), static_cast<std::size_t>(restoredStep));
-    sweep.operatorAnswers = true;
-    sweep.playOperator();
-    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
-    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
-    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+    ASSERT_TRUE(sweep.confirmAndComplete());
 }
 
 TEST(LinkRestoredLoad, AProgrammableLoadIsSetAgainAndTheStepProceedsByItself)
 {
-    const sagline::Setup setup = demoSetup();
-    const Plan plan = planFor(setup);
-    VirtualClock clock(0);
-    VirtualBenchOptions options = virtualBenchOptionsFor(setup, plan, 7);
-    options.transformer.thermalResistanceKPerW = 0.0;
-    VirtualBench bench(options, &clock);
-    std::unique_ptr<InstrumentRig> rig(makeVirtualBenchRig(&bench, false));
-    for (ScpiInstrument *instrument : rig->instruments())
-        instrument->setReconnectIntervalMs(50);
-    rig->connectAll();
-    ASSERT_TRUE(waitUntil([&] { return rig->isReady(); }));
-    SweepOptions sweepOptions = sweepOptionsFor(setup, plan);
-    sweepOptions.simulated = true;
-    MemorySink sink;
-    LineFitLiveFit fit;
-    SweepController c(plan, sweepOptions, rig.get(), &sink, &fit, &clock);
-    std::vector<Reading> recorded;
-    std::vector<std::pair<int, QString>> instructions;
-    std::optional<SweepOutcome> outcome;
-    QObject::connect(&c, &SweepController::pointRecorded, [&](const Reading &r, const LiveFitSnapshot &) { recorded.push_back(r); });
-    QObject::connect(&c, &SweepController::stepStarted, [&](int s, const QString &text) { instructions.emplace_back(s, text); });
-    QObject::connect(&c, &SweepController::finished, [&](SweepOutcome o) { outcome = o; });
+    OperatorSweep sweep(LoadKind::Programmable);
+    const PlanStep &step = sweep.planStep(restoredStep);
     bool pulled = false;
-    const PlanStep &step = plan.steps[restoredStep];
-    QObject::connect(&c, &SweepController::stateChanged, [&](SweepState state) {
-        if (state == SweepState::Settling && c.currentStep() == restoredStep && !pulled) {
+    QObject::connect(sweep.controller.get(), &SweepController::stateChanged, [&](SweepState state) {
+        if (state == SweepState::Settling && sweep.controller->currentStep() == restoredStep && !pulled) {
             pulled = true;
-            bench.voltmeter()->vanish(200);
-            bench.setLoad(2.0 * *step.loadResistanceOhm); // moved while away: set again on restore
+            sweep.bench->voltmeter()->vanish(200);
+            sweep.bench->setLoad(2.0 * *step.loadResistanceOhm); // moved while away: set again on restore
         }
     });
-    clock.setAutoAdvance(true);
-    c.start();
-    ASSERT_TRUE(waitUntil([&] { return outcome.has_value(); }, 10000)) << toString(c.state()).toStdString();
-    EXPECT_EQ(*outcome, SweepOutcome::Completed);
-    ASSERT_EQ(recorded.size(), plan.steps.size());
-    EXPECT_NEAR(recorded[restoredStep].currentA, step.currentA, 0.05 * step.currentA);
-    QStringList again;
-    for (const auto &[s, text] : instructions) {
-        if (s == restoredStep)
-            again << text;
-    }
+    sweep.run();
+    ASSERT_TRUE(sweep.completesEveryStepInOrder());
+    EXPECT_NEAR(sweep.recorded[restoredStep].currentA, step.currentA, 0.05 * step.currentA);
+    const QStringList again = sweep.instructionsFor(restoredStep);
     ASSERT_EQ(again.size(), 2);
     EXPECT_EQ(again[1].toStdString(), "link restored: setting the load again to about 15.2 Ω for step 3; expect about 19 V "
                                       "and 1.25 A");
-    EXPECT_TRUE(sink.events.join('\n').contains(QStringLiteral("step 3: load set again after the link was restored")));
+    EXPECT_TRUE(sweep.sink.events.join('\n').contains(QStringLiteral("step 3: load set again after the link was restored")));
 }

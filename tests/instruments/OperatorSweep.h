@@ -1,18 +1,21 @@
 // A sweep over the virtual bench's voltmeter and ammeter without its programmable load: the
 // test plays the operator, who sets the bench's load and confirms each step (simulated time).
-// Shared by the tests of the load confirmation asked again after a lost link or a pause.
+// Shared by the tests of the load confirmation asked again after a lost link or a pause; with
+// `LoadKind::Programmable` the bench's own load is in the rig too and nobody needs to answer.
 #pragma once
 
 #include "InstrumentsTestSupport.h"
 
 #include "InstrumentRig.h"
 #include "LineFitLiveFit.h"
+#include "LinkAddress.h"
 #include "SimInstrument.h"
 #include "SweepController.h"
 #include "VirtualBench.h"
 #include "VirtualBenchLink.h"
 
 #include <QDateTime>
+#include <QStringList>
 #include <QTimer>
 
 #include <functional>
@@ -22,27 +25,36 @@
 
 namespace sagline::test {
 
-// The bench's voltmeter and ammeter only: the load is the operator's rheostat.
+enum class LoadKind { Operator, Programmable };
+
+// By default the bench's voltmeter and ammeter only: the load is the operator's rheostat.
 class OperatorSweep {
 public:
-    OperatorSweep()
+    explicit OperatorSweep(LoadKind load = LoadKind::Operator)
         : plan(planFor(demoSetup())), clock(QDateTime(QDate(2026, 12, 2), QTime(9, 0), Qt::UTC).toMSecsSinceEpoch())
     {
         const sagline::Setup setup = demoSetup();
         VirtualBenchOptions options = virtualBenchOptionsFor(setup, plan, 7);
         options.transformer.thermalResistanceKPerW = 0.0;
         bench = std::make_unique<VirtualBench>(options, &clock);
-        rig = std::make_unique<InstrumentRig>();
-        for (auto [name, instrument, role] : {std::tuple{"voltmeter", bench->voltmeter(), MeterRole::SecondaryVoltage},
-                                              std::tuple{"ammeter", bench->ammeter(), MeterRole::SecondaryCurrent}}) {
-            auto *meter = new ScpiInstrument(QString::fromLatin1(name), new VirtualBenchLink(instrument));
-            RoleConfig config = defaultRoleConfig(role);
-            const SimMeterSpec &spec = role == MeterRole::SecondaryVoltage ? options.voltmeter : options.ammeter;
-            config.accuracy = spec.accuracy;
-            config.resolution = spec.resolution;
-            meter->setRoles({config});
-            meter->setReconnectIntervalMs(50);
-            rig->addInstrument(meter);
+        if (load == LoadKind::Programmable) {
+            operatorAnswers = false; // the load sets itself: a question to the operator would hang the test
+            rig.reset(makeVirtualBenchRig(bench.get(), false));
+            for (ScpiInstrument *instrument : rig->instruments())
+                instrument->setReconnectIntervalMs(50);
+        } else {
+            rig = std::make_unique<InstrumentRig>();
+            for (auto [name, instrument, role] : {std::tuple{"voltmeter", bench->voltmeter(), MeterRole::SecondaryVoltage},
+                                                  std::tuple{"ammeter", bench->ammeter(), MeterRole::SecondaryCurrent}}) {
+                auto *meter = new ScpiInstrument(QString::fromLatin1(name), new VirtualBenchLink(instrument));
+                RoleConfig config = defaultRoleConfig(role);
+                const SimMeterSpec &spec = role == MeterRole::SecondaryVoltage ? options.voltmeter : options.ammeter;
+                config.accuracy = spec.accuracy;
+                config.resolution = spec.resolution;
+                meter->setRoles({config});
+                meter->setReconnectIntervalMs(50);
+                rig->addInstrument(meter);
+            }
         }
         rig->connectAll();
         EXPECT_TRUE(waitUntil([this] { return rig->isReady(); }));
@@ -84,12 +96,68 @@ public:
             afterConfirm(step);
     }
 
-    int announcements(int step) const
+    // Every instruction the controller gave for `step`, in order.
+    QStringList instructionsFor(int step) const
     {
-        int n = 0;
-        for (const auto &[s, text] : instructions)
-            n += s == step ? 1 : 0;
-        return n;
+        QStringList texts;
+        for (const auto &[s, text] : instructions) {
+            if (s == step)
+                texts << text;
+        }
+        return texts;
+    }
+
+    int announcements(int step) const { return static_cast<int>(instructionsFor(step).size()); }
+
+    // The operator pauses once, right after confirming `step`'s load (the dwell has begun).
+    void pauseAfterConfirming(int step)
+    {
+        afterConfirm = [this, step](int s) {
+            if (s == step && !pausedOnce) {
+                pausedOnce = true;
+                controller->pause();
+            }
+        };
+    }
+
+    // Starts the sweep on the auto-advancing clock (time jumps to the next timer).
+    void run()
+    {
+        clock.setAutoAdvance(true);
+        controller->start();
+    }
+
+    // Runs, and waits (wall time) until `condition` holds.
+    bool runUntil(const std::function<bool()> &condition, int timeoutMs = 10000)
+    {
+        run();
+        return waitUntil(condition, timeoutMs);
+    }
+
+    bool isPausedOnce() const { return pausedOnce && controller->state() == SweepState::Paused; }
+
+    // Waits for the end: completed, with every step of the plan recorded once, in order.
+    testing::AssertionResult completesEveryStepInOrder(int timeoutMs = 10000)
+    {
+        if (!waitUntil([this] { return outcome.has_value(); }, timeoutMs))
+            return testing::AssertionFailure() << "not finished; state " << toString(controller->state()).toStdString();
+        if (*outcome != SweepOutcome::Completed)
+            return testing::AssertionFailure() << "outcome " << toString(*outcome).toStdString();
+        if (recorded.size() != plan.steps.size())
+            return testing::AssertionFailure() << recorded.size() << " readings for " << plan.steps.size() << " steps";
+        for (std::size_t i = 0; i < recorded.size(); ++i) {
+            if (recorded[i].step != plan.steps[i].index)
+                return testing::AssertionFailure() << "reading " << i << " is of step " << recorded[i].step;
+        }
+        return testing::AssertionSuccess();
+    }
+
+    // The operator answers again, sets and confirms the waiting step, and the sweep runs to its end.
+    testing::AssertionResult confirmAndComplete()
+    {
+        operatorAnswers = true;
+        playOperator();
+        return completesEveryStepInOrder();
     }
 
     Plan plan;
@@ -105,6 +173,7 @@ public:
     bool operatorAnswers = true;
     std::function<bool(int)> beforeConfirm; // false: the operator does not confirm (yet)
     std::function<void(int)> afterConfirm;
+    bool pausedOnce = false; // set by pauseAfterConfirming, or by a test's own pause
 };
 
 } // namespace sagline::test

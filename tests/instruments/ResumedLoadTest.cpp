@@ -13,16 +13,6 @@ namespace {
 
 constexpr int pausedStep = 3;
 
-QString lastInstructionFor(const OperatorSweep &sweep, int step)
-{
-    QString last;
-    for (const auto &[s, text] : sweep.instructions) {
-        if (s == step)
-            last = text;
-    }
-    return last;
-}
-
 } // namespace
 
 TEST(ResumedLoad, AfterAPauseTheStepWaitsForTheOperatorAndIsReadAtTheConfirmedLoad)
@@ -31,17 +21,8 @@ TEST(ResumedLoad, AfterAPauseTheStepWaitsForTheOperatorAndIsReadAtTheConfirmedLo
     const PlanStep &step = sweep.planStep(pausedStep);
     ASSERT_TRUE(step.loadResistanceOhm.has_value());
     // Step 3: the load is set and confirmed, then the operator pauses during the dwell.
-    bool pausedOnce = false;
-    sweep.afterConfirm = [&](int s) {
-        if (s != pausedStep || pausedOnce)
-            return;
-        pausedOnce = true;
-        sweep.controller->pause();
-    };
-    sweep.clock.setAutoAdvance(true);
-    sweep.controller->start();
-    ASSERT_TRUE(waitUntil([&] { return pausedOnce && sweep.controller->state() == SweepState::Paused; }, 10000))
-        << toString(sweep.controller->state()).toStdString();
+    sweep.pauseAfterConfirming(pausedStep);
+    ASSERT_TRUE(sweep.runUntil([&] { return sweep.isPausedOnce(); })) << toString(sweep.controller->state()).toStdString();
     ASSERT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep)); // steps 0..2 only
 
     // While paused, someone turns the rheostat to twice the resistance. The operator resumes
@@ -66,13 +47,7 @@ TEST(ResumedLoad, AfterAPauseTheStepWaitsForTheOperatorAndIsReadAtTheConfirmedLo
 
     // The operator finds the rheostat moved, puts it back and confirms: the step is read at
     // the planned load, and the sweep completes with every step once, in order.
-    sweep.operatorAnswers = true;
-    sweep.playOperator();
-    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
-    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
-    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
-    for (std::size_t i = 0; i < sweep.recorded.size(); ++i)
-        EXPECT_EQ(sweep.recorded[i].step, sweep.plan.steps[i].index);
+    ASSERT_TRUE(sweep.confirmAndComplete());
     // At twice the resistance the current would be about half: within 5 % it is the planned load.
     EXPECT_NEAR(sweep.recorded[pausedStep].currentA, step.currentA, 0.05 * step.currentA);
     const QString events = sweep.sink.events.join('\n');
@@ -86,41 +61,29 @@ TEST(ResumedLoad, AfterAPauseTheStepWaitsForTheOperatorAndIsReadAtTheConfirmedLo
 TEST(ResumedLoad, APauseBeforeTheLoadWasConfirmedAsksForTheLoadAsBefore)
 {
     OperatorSweep sweep;
-    bool pausedOnce = false;
     sweep.beforeConfirm = [&](int s) {
-        if (s == pausedStep && !pausedOnce) {
-            pausedOnce = true;
+        if (s == pausedStep && !sweep.pausedOnce) {
+            sweep.pausedOnce = true;
             sweep.controller->pause(); // paused while step 3 waits for its load
             return false;
         }
         return true;
     };
-    sweep.clock.setAutoAdvance(true);
-    sweep.controller->start();
-    ASSERT_TRUE(waitUntil([&] { return pausedOnce && sweep.controller->state() == SweepState::Paused; }, 10000));
+    ASSERT_TRUE(sweep.runUntil([&] { return sweep.isPausedOnce(); }));
     sweep.controller->resume();
-    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000)) << toString(sweep.controller->state()).toStdString();
-    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
-    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
-    ASSERT_EQ(sweep.announcements(pausedStep), 2);
+    ASSERT_TRUE(sweep.completesEveryStepInOrder());
+    const QStringList texts = sweep.instructionsFor(pausedStep);
+    ASSERT_EQ(texts.size(), 2);
     // Never confirmed, so nothing to check "still": the ordinary instruction, marked.
-    EXPECT_EQ(lastInstructionFor(sweep, pausedStep), QStringLiteral("resumed: ") + sweep.controller->instruction(pausedStep));
+    EXPECT_EQ(texts.back(), QStringLiteral("resumed: ") + sweep.controller->instruction(pausedStep));
     EXPECT_TRUE(sweep.sink.events.join('\n').contains(QStringLiteral("step 3: the operator confirmed the load after resuming")));
 }
 
 TEST(ResumedLoad, PausingAgainBeforeConfirmingStillAsksToCheckTheLoad)
 {
     OperatorSweep sweep;
-    bool pausedOnce = false;
-    sweep.afterConfirm = [&](int s) {
-        if (s == pausedStep && !pausedOnce) {
-            pausedOnce = true;
-            sweep.controller->pause();
-        }
-    };
-    sweep.clock.setAutoAdvance(true);
-    sweep.controller->start();
-    ASSERT_TRUE(waitUntil([&] { return pausedOnce && sweep.controller->state() == SweepState::Paused; }, 10000));
+    sweep.pauseAfterConfirming(pausedStep);
+    ASSERT_TRUE(sweep.runUntil([&] { return sweep.isPausedOnce(); }));
     sweep.operatorAnswers = false;
     sweep.controller->resume();
     ASSERT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
@@ -130,26 +93,14 @@ TEST(ResumedLoad, PausingAgainBeforeConfirmingStillAsksToCheckTheLoad)
     ASSERT_EQ(sweep.announcements(pausedStep), 3);
     EXPECT_EQ(sweep.instructions.back().second, sweep.controller->resumedInstruction(pausedStep));
     EXPECT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep));
-    sweep.operatorAnswers = true;
-    sweep.playOperator();
-    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
-    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
-    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+    ASSERT_TRUE(sweep.confirmAndComplete());
 }
 
 TEST(ResumedLoad, ALinkLostWhileTheResumedStepWaitsStillAsksToCheckTheLoad)
 {
     OperatorSweep sweep;
-    bool pausedOnce = false;
-    sweep.afterConfirm = [&](int s) {
-        if (s == pausedStep && !pausedOnce) {
-            pausedOnce = true;
-            sweep.controller->pause();
-        }
-    };
-    sweep.clock.setAutoAdvance(true);
-    sweep.controller->start();
-    ASSERT_TRUE(waitUntil([&] { return pausedOnce && sweep.controller->state() == SweepState::Paused; }, 10000));
+    sweep.pauseAfterConfirming(pausedStep);
+    ASSERT_TRUE(sweep.runUntil([&] { return sweep.isPausedOnce(); }));
     sweep.operatorAnswers = false;
     sweep.controller->resume();
     ASSERT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
@@ -161,63 +112,31 @@ TEST(ResumedLoad, ALinkLostWhileTheResumedStepWaitsStillAsksToCheckTheLoad)
         << toString(sweep.controller->state()).toStdString();
     EXPECT_EQ(sweep.instructions.back().second, sweep.controller->restoredInstruction(pausedStep));
     EXPECT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep));
-    sweep.operatorAnswers = true;
-    sweep.playOperator();
-    ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
-    EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
-    ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+    ASSERT_TRUE(sweep.confirmAndComplete());
 }
 
 TEST(ResumedLoad, AProgrammableLoadIsSetAgainAndTheStepProceedsByItself)
 {
-    const sagline::Setup setup = demoSetup();
-    const Plan plan = planFor(setup);
-    VirtualClock clock(0);
-    VirtualBenchOptions options = virtualBenchOptionsFor(setup, plan, 7);
-    options.transformer.thermalResistanceKPerW = 0.0;
-    VirtualBench bench(options, &clock);
-    std::unique_ptr<InstrumentRig> rig(makeVirtualBenchRig(&bench, false));
-    rig->connectAll();
-    ASSERT_TRUE(waitUntil([&] { return rig->isReady(); }));
-    SweepOptions sweepOptions = sweepOptionsFor(setup, plan);
-    sweepOptions.simulated = true;
-    MemorySink sink;
-    LineFitLiveFit fit;
-    SweepController c(plan, sweepOptions, rig.get(), &sink, &fit, &clock);
-    std::vector<Reading> recorded;
-    std::vector<std::pair<int, QString>> instructions;
-    std::optional<SweepOutcome> outcome;
-    QObject::connect(&c, &SweepController::pointRecorded, [&](const Reading &r, const LiveFitSnapshot &) { recorded.push_back(r); });
-    QObject::connect(&c, &SweepController::stepStarted, [&](int s, const QString &text) { instructions.emplace_back(s, text); });
-    QObject::connect(&c, &SweepController::finished, [&](SweepOutcome o) { outcome = o; });
-    bool pausedOnce = false;
-    const PlanStep &step = plan.steps[pausedStep];
-    QObject::connect(&c, &SweepController::stateChanged, [&](SweepState state) {
-        if (state == SweepState::Settling && c.currentStep() == pausedStep && !pausedOnce) {
-            pausedOnce = true;
-            QTimer::singleShot(0, &c, [&] { c.pause(); });
+    OperatorSweep sweep(LoadKind::Programmable);
+    const PlanStep &step = sweep.planStep(pausedStep);
+    QObject::connect(sweep.controller.get(), &SweepController::stateChanged, [&](SweepState state) {
+        if (state == SweepState::Settling && sweep.controller->currentStep() == pausedStep && !sweep.pausedOnce) {
+            sweep.pausedOnce = true;
+            QTimer::singleShot(0, sweep.controller.get(), [&] { sweep.controller->pause(); });
         }
     });
-    clock.setAutoAdvance(true);
-    c.start();
-    ASSERT_TRUE(waitUntil([&] { return pausedOnce && c.state() == SweepState::Paused; }, 10000)) << toString(c.state()).toStdString();
+    ASSERT_TRUE(sweep.runUntil([&] { return sweep.isPausedOnce(); })) << toString(sweep.controller->state()).toStdString();
     // The virtual clock moves only when the event loop would block, so the pause posted at the
     // start of the dwell comes before step 3 is read.
-    ASSERT_EQ(recorded.size(), static_cast<std::size_t>(pausedStep));
-    bench.setLoad(2.0 * *step.loadResistanceOhm); // moved while paused: set again on resume
-    c.resume();
-    ASSERT_TRUE(waitUntil([&] { return outcome.has_value(); }, 10000)) << toString(c.state()).toStdString();
-    EXPECT_EQ(*outcome, SweepOutcome::Completed);
-    ASSERT_EQ(recorded.size(), plan.steps.size());
-    EXPECT_NEAR(recorded[pausedStep].currentA, step.currentA, 0.05 * step.currentA);
-    QStringList again;
-    for (const auto &[s, text] : instructions) {
-        if (s == pausedStep)
-            again << text;
-    }
+    ASSERT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep));
+    sweep.bench->setLoad(2.0 * *step.loadResistanceOhm); // moved while paused: set again on resume
+    sweep.controller->resume();
+    ASSERT_TRUE(sweep.completesEveryStepInOrder());
+    EXPECT_NEAR(sweep.recorded[pausedStep].currentA, step.currentA, 0.05 * step.currentA);
+    const QStringList again = sweep.instructionsFor(pausedStep);
     ASSERT_EQ(again.size(), 2);
     EXPECT_EQ(again[1].toStdString(), "resumed: setting the load again to about 15.2 Ω for step 3; expect about 19 V and 1.25 A");
-    EXPECT_TRUE(sink.events.join('\n').contains(QStringLiteral("step 3: load set again after the operator resumed")));
+    EXPECT_TRUE(sweep.sink.events.join('\n').contains(QStringLiteral("step 3: load set again after the operator resumed")));
 }
 
 TEST(ResumedLoad, APauseFromAStateChangedHandlerHoldsAndTheStepIsCheckedAgain)
@@ -228,16 +147,13 @@ TEST(ResumedLoad, APauseFromAStateChangedHandlerHoldsAndTheStepIsCheckedAgain)
     for (SweepState pauseAt : {SweepState::Settling, SweepState::Measuring}) {
         SCOPED_TRACE(toString(pauseAt).toStdString());
         OperatorSweep sweep;
-        bool pausedOnce = false;
         QObject::connect(sweep.controller.get(), &SweepController::stateChanged, [&](SweepState state) {
-            if (state == pauseAt && sweep.controller->currentStep() == pausedStep && !pausedOnce) {
-                pausedOnce = true;
+            if (state == pauseAt && sweep.controller->currentStep() == pausedStep && !sweep.pausedOnce) {
+                sweep.pausedOnce = true;
                 sweep.controller->pause();
             }
         });
-        sweep.clock.setAutoAdvance(true);
-        sweep.controller->start();
-        ASSERT_TRUE(waitUntil([&] { return pausedOnce; }, 10000));
+        ASSERT_TRUE(sweep.runUntil([&] { return sweep.pausedOnce; }));
         sweep.clock.advance(60000);
         waitUntil([] { return false; }, 150);
         EXPECT_EQ(sweep.controller->state(), SweepState::Paused);
@@ -246,10 +162,6 @@ TEST(ResumedLoad, APauseFromAStateChangedHandlerHoldsAndTheStepIsCheckedAgain)
         sweep.controller->resume();
         EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
         EXPECT_EQ(sweep.instructions.back().second, sweep.controller->resumedInstruction(pausedStep));
-        sweep.operatorAnswers = true;
-        sweep.playOperator();
-        ASSERT_TRUE(waitUntil([&] { return sweep.outcome.has_value(); }, 10000));
-        EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
-        ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
+        ASSERT_TRUE(sweep.confirmAndComplete());
     }
 }
