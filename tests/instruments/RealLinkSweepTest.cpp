@@ -23,6 +23,29 @@ using namespace sagline::test;
 
 namespace {
 
+// `sagline-cli run` of the demo setup on the bench's voltmeter and ammeter over loopback TCP,
+// short dwell and read interval. No load link: a person (the test) sets the load, presses Enter.
+void startCliRun(QProcess &cli, const TcpEndpoint &voltmeter, const TcpEndpoint &ammeter, const QString &folder)
+{
+    cli.start(QStringLiteral(SAGLINE_CLI_PATH),
+              {QStringLiteral("run"), QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"), QStringLiteral("--voltmeter"),
+               QStringLiteral("tcp:127.0.0.1:%1").arg(voltmeter.port()), QStringLiteral("--ammeter"),
+               QStringLiteral("127.0.0.1:%1").arg(ammeter.port()), QStringLiteral("--dwell"), QStringLiteral("0.02"),
+               QStringLiteral("--read-interval"), QStringLiteral("0.01"), QStringLiteral("--operator"), QStringLiteral("test"),
+               QStringLiteral("-o"), folder + QStringLiteral("/bench.sagline")});
+}
+
+// The step of every "step N: ... press Enter" prompt in the CLI's stderr so far, in order
+// (stderr may arrive in pieces, so the caller keeps all of it and counts what it answered).
+QList<int> promptedSteps(const QString &err)
+{
+    static const QRegularExpression prompt(QStringLiteral("step (\\d+): .*press Enter"));
+    QList<int> steps;
+    for (auto it = prompt.globalMatch(err); it.hasNext();)
+        steps << it.next().captured(1).toInt();
+    return steps;
+}
+
 // The virtual bench served on a pty (voltmeter), TCP (ammeter) and a pty (load), with a rig of
 // real SerialLink / TcpLink instruments on the other side.
 struct WiredBench {
@@ -210,24 +233,14 @@ TEST(RunCommand, WithRealMetersItWaitsForEnterAtEachStep)
     QString err;
     int enters = 0;
     QObject::connect(&cli, &QProcess::readyReadStandardError, [&] {
-        err += QString::fromUtf8(cli.readAllStandardError()); // prompts may arrive in pieces
-        static const QRegularExpression prompt(QStringLiteral("step (\\d+): .*press Enter"));
-        int seen = 0;
-        for (auto it = prompt.globalMatch(err); it.hasNext(); ++seen) {
-            const int step = it.next().captured(1).toInt();
-            if (seen < enters)
-                continue;
+        err += QString::fromUtf8(cli.readAllStandardError());
+        for (const int step : promptedSteps(err).mid(enters)) {
             bench.setLoad(plan.steps[step].loadResistanceOhm); // the operator sets the load...
             cli.write("\n");                                   // ...and presses Enter
             ++enters;
         }
     });
-    cli.start(QStringLiteral(SAGLINE_CLI_PATH),
-              {QStringLiteral("run"), QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"),
-               QStringLiteral("--voltmeter"), QStringLiteral("tcp:127.0.0.1:%1").arg(voltmeter.port()),
-               QStringLiteral("--ammeter"), QStringLiteral("127.0.0.1:%1").arg(ammeter.port()), QStringLiteral("--dwell"),
-               QStringLiteral("0.02"), QStringLiteral("--read-interval"), QStringLiteral("0.01"), QStringLiteral("--operator"), QStringLiteral("test"), QStringLiteral("-o"),
-               dir.path() + QStringLiteral("/bench.sagline")});
+    startCliRun(cli, voltmeter, ammeter, dir.path());
     ASSERT_TRUE(waitUntil([&] { return cli.state() == QProcess::NotRunning; }, 8000)) << err.toStdString() << QString::fromUtf8(cli.readAllStandardOutput()).toStdString();
     EXPECT_EQ(cli.exitCode(), 0) << err.toStdString();
     EXPECT_EQ(enters, 9);
@@ -258,12 +271,7 @@ TEST(RunCommand, AfterALinkIsRestoredItWaitsForEnterAgainBeforeReading)
     bool pulled = false;
     QObject::connect(&cli, &QProcess::readyReadStandardError, [&] {
         err += QString::fromUtf8(cli.readAllStandardError());
-        static const QRegularExpression prompt(QStringLiteral("step (\\d+): .*press Enter"));
-        int seen = 0;
-        for (auto it = prompt.globalMatch(err); it.hasNext(); ++seen) {
-            const int step = it.next().captured(1).toInt();
-            if (seen < enters)
-                continue;
+        for (const int step : promptedSteps(err).mid(enters)) {
             bench.setLoad(plan.steps[step].loadResistanceOhm);
             cli.write("\n");
             ++enters;
@@ -274,12 +282,7 @@ TEST(RunCommand, AfterALinkIsRestoredItWaitsForEnterAgainBeforeReading)
             }
         }
     });
-    cli.start(QStringLiteral(SAGLINE_CLI_PATH),
-              {QStringLiteral("run"), QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"), QStringLiteral("--voltmeter"),
-               QStringLiteral("tcp:127.0.0.1:%1").arg(voltmeter.port()), QStringLiteral("--ammeter"),
-               QStringLiteral("127.0.0.1:%1").arg(ammeter.port()), QStringLiteral("--dwell"), QStringLiteral("0.02"),
-               QStringLiteral("--read-interval"), QStringLiteral("0.01"), QStringLiteral("--operator"), QStringLiteral("test"),
-               QStringLiteral("-o"), dir.path() + QStringLiteral("/bench.sagline")});
+    startCliRun(cli, voltmeter, ammeter, dir.path());
     ASSERT_TRUE(waitUntil([&] { return cli.state() == QProcess::NotRunning; }, 15000)) << err.toStdString();
     EXPECT_EQ(cli.exitCode(), 0) << err.toStdString();
     EXPECT_TRUE(pulled);
