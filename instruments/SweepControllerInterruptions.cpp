@@ -32,13 +32,8 @@ void SweepController::resume()
         return;
     }
     m_operatorPaused = false;
-    if (m_uncommitted) {
-        setState(SweepState::Measuring); // retrying the held point's commit
-        Reading reading = *m_uncommitted;
-        if (commitAndReport(reading))
-            nextStep();
+    if (retryHeldCommit())
         return;
-    }
     event(tr("resumed at step %1").arg(m_step));
     if (m_pauseInDoubt && !m_loadInDoubt) {
         m_loadConfirmed = false;
@@ -87,16 +82,24 @@ void SweepController::handleRigRestored(const QString &message)
     emit linkRestored(message);
     if (m_state != SweepState::Paused || m_operatorPaused)
         return;
-    if (m_uncommitted) {
-        setState(SweepState::Measuring); // retrying the held point's commit
-        Reading reading = *m_uncommitted;
-        if (commitAndReport(reading))
-            nextStep();
+    if (retryHeldCommit())
         return;
-    }
     if (!hasProgrammableLoad())
         event(tr("step %1: waiting for the operator to confirm the load again").arg(m_step));
     beginStep();
+}
+
+// A reading whose commit failed is committed again before anything else: the step was already
+// measured. True when there was one (whatever the commit's result).
+bool SweepController::retryHeldCommit()
+{
+    if (!m_uncommitted)
+        return false;
+    setState(SweepState::Measuring);
+    Reading reading = *m_uncommitted;
+    if (commitAndReport(reading))
+        nextStep();
+    return true;
 }
 
 } // namespace sagline
