@@ -4,26 +4,14 @@
 // load's own SCPI link, then clicks the window's "Load is set" (Record) button. Wall time, with
 // a short dwell, a quiet simulator (low noise) and no copper heating so a sweep takes seconds.
 // Also: the simulator killed mid-sweep.
+#include "LinkSweep.h"
 #include "RefusedLanStart.h"
-#include "UiTestSupport.h"
 
-#include "SimProcess.h"
-
-#include "InstrumentsPanel.h"
-#include "NextStepStrip.h"
-#include "PlanPanel.h"
 #include "ResultsPanel.h"
 #include "SessionStore.h"
 #include "SessionSummary.h"
-#include "SweepRun.h"
-#include "SweepWorkspace.h"
 
-#include <gtest/gtest.h>
-
-#include <QComboBox>
 #include <QDir>
-#include <QPushButton>
-#include <QTcpServer>
 
 #include <cmath>
 
@@ -35,97 +23,6 @@ namespace {
 // The simulator's meters: a fixed gain error drawn within a third of their ±(0.5 % + 3 counts)
 // spec (instruments/VirtualBench.h), which no fit can see; R = ΔV/ΔI carries both meters'.
 constexpr double benchGainAllowance = 2.0 * 0.005 / 3.0;
-
-struct LinkSweep {
-    QTemporaryDir folder;
-    QTemporaryDir links;
-    SimProcess sim;
-    std::unique_ptr<MainWindow> window;
-
-    // Starts the simulator and a window on the demo setup with a short plan, then connects
-    // through the panel as a person does: the source picked, the address typed, Enter pressed.
-    // `twoMeters`: the simulator's voltmeter at that source and its ammeter on the LAN, typed
-    // into the separate-ammeter field; otherwise its two-channel power meter reads both.
-    ::testing::AssertionResult connect(ReadingSource source, bool twoMeters = false)
-    {
-        QString error;
-        if (!sim.start(links.path(), {QStringLiteral("--seed"), QStringLiteral("7"), QStringLiteral("--rated-rise"), QStringLiteral("0"),
-                                      QStringLiteral("--noise-v"), QStringLiteral("0.0005"), QStringLiteral("--noise-a"),
-                                      QStringLiteral("0.0002")},
-                       &error))
-            return ::testing::AssertionFailure() << error.toStdString();
-        const auto meter = sim.endpoint(twoMeters ? QStringLiteral("voltmeter") : QStringLiteral("power-meter"));
-        const auto ammeter = sim.endpoint(QStringLiteral("ammeter"));
-        if (!meter || !ammeter)
-            return ::testing::AssertionFailure() << "no meter lines in: " << sim.output().toStdString();
-        identities.clear();
-        if (twoMeters)
-            identities = {{QStringLiteral("voltmeter"), meter->identity}, {QStringLiteral("ammeter"), ammeter->identity}};
-        else
-            identities = {{QStringLiteral("meter"), meter->identity}};
-
-        window = demoWindow(folder.path());
-        window->setupForm()->setSessionDetails({QStringLiteral("Link tester"), QStringLiteral("LK-1"), QStringLiteral("20 °C"), {}});
-        typeInto(window->setupForm()->quantityField(QStringLiteral("bench.steps")), QStringLiteral("5"));
-        typeInto(window->setupForm()->quantityField(QStringLiteral("bench.dwell_s")), QStringLiteral("50 ms"));
-        InstrumentsPanel *panel = window->instrumentsPanel();
-        QComboBox *box = panel->sourceBox();
-        if (panel->ammeterEdit()->isVisibleTo(panel))
-            return ::testing::AssertionFailure() << "a separate-ammeter field shown for the virtual bench";
-        box->setCurrentIndex(box->findData(int(source)));
-        if (source == ReadingSource::SerialPort) {
-            typeInto(panel->portBox()->lineEdit(), meter->ptyLink);
-            QTest::keyClick(panel->portBox()->lineEdit(), Qt::Key_Return);
-        } else {
-            typeInto(panel->addressEdit(), QStringLiteral("127.0.0.1:%1").arg(meter->tcpPort));
-            QTest::keyClick(panel->addressEdit(), Qt::Key_Return);
-        }
-        if (twoMeters) {
-            if (!panel->ammeterEdit()->isVisibleTo(panel))
-                return ::testing::AssertionFailure() << "no separate-ammeter field for this source";
-            typeInto(panel->ammeterEdit(), QStringLiteral("127.0.0.1:%1").arg(ammeter->tcpPort));
-        }
-        QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
-        SweepWorkspace *workspace = window->workspace();
-        if (!workspace->isRunning())
-            return ::testing::AssertionFailure() << "not started: " << window->lastMessage().toStdString();
-        if (!waitUntil([&] { return !workspace->run() || !workspace->run()->isConnecting(); }, 8000))
-            return ::testing::AssertionFailure() << "still connecting: " << panel->statusText().toStdString();
-        if (!workspace->isRunning())
-            return ::testing::AssertionFailure() << "not connected: " << panel->statusText().toStdString();
-        return ::testing::AssertionSuccess();
-    }
-
-    const Plan &plan() const { return *window->workspace()->plan(); }
-    SweepController *controller() const { return window->workspace()->run()->controller(); }
-
-    // Step `i` of the plan: wait for the window to ask, set the load, click the button, wait
-    // until the reading is in the table.
-    ::testing::AssertionResult recordStep(std::size_t i, bool waitForReading = true)
-    {
-        SweepWorkspace *workspace = window->workspace();
-        const PlanStep &step = plan().steps[i];
-        if (!waitUntil([&] { return controller()->state() == SweepState::WaitingForLoad && controller()->currentStep() == step.index; },
-                       8000))
-            return ::testing::AssertionFailure() << "step " << step.index << " never asked for; state "
-                                                 << toString(controller()->state()).toStdString() << ", "
-                                                 << window->lastMessage().toStdString();
-        QString error;
-        if (!sim.setLoad(step.loadResistanceOhm, &error))
-            return ::testing::AssertionFailure() << error.toStdString();
-        QPushButton *record = window->nextStep()->recordButton();
-        if (!record->isEnabled())
-            return ::testing::AssertionFailure() << "the Record button is disabled at step " << step.index;
-        QTest::mouseClick(record, Qt::LeftButton);
-        if (waitForReading && !waitUntil([&] { return workspace->readings().size() == i + 1; }, 8000))
-            return ::testing::AssertionFailure() << "step " << step.index << " not recorded; state "
-                                                 << toString(controller()->state()).toStdString() << ", "
-                                                 << window->lastMessage().toStdString();
-        return ::testing::AssertionSuccess();
-    }
-
-    QList<QPair<QString, QString>> identities; // instrument name, its *IDN? answer
-};
 
 void runWholeSweep(ReadingSource source, bool twoMeters = false)
 {

@@ -3,21 +3,9 @@
 // peer goes away): the panel says the link is lost, nothing is recorded for the step that was
 // being read, every earlier reading stays in the table and in the session file, and the
 // operator can still stop the sweep cleanly.
-#include "UiTestSupport.h"
+#include "LinkSweep.h"
 
-#include "SimProcess.h"
-
-#include "InstrumentsPanel.h"
-#include "NextStepStrip.h"
-#include "PlanPanel.h"
 #include "SessionStore.h"
-#include "SweepRun.h"
-#include "SweepWorkspace.h"
-
-#include <gtest/gtest.h>
-
-#include <QComboBox>
-#include <QPushButton>
 
 using namespace sagline;
 using namespace sagline::test;
@@ -26,51 +14,22 @@ namespace {
 
 void killMidSweep(ReadingSource source)
 {
-    QTemporaryDir folder;
-    QTemporaryDir links;
-    SimProcess sim;
-    QString error;
-    ASSERT_TRUE(sim.start(links.path(), {QStringLiteral("--rated-rise"), QStringLiteral("0"), QStringLiteral("--noise-v"),
-                                         QStringLiteral("0.0005"), QStringLiteral("--noise-a"), QStringLiteral("0.0002")},
-                          &error))
-        << error.toStdString();
-    const auto meter = sim.endpoint(QStringLiteral("power-meter"));
-    ASSERT_TRUE(meter.has_value()) << sim.output().toStdString();
-
-    auto window = demoWindow(folder.path());
-    window->setupForm()->setSessionDetails({QStringLiteral("Link tester"), QStringLiteral("LK-2"), QStringLiteral("20 °C"), {}});
-    typeInto(window->setupForm()->quantityField(QStringLiteral("bench.steps")), QStringLiteral("5"));
-    typeInto(window->setupForm()->quantityField(QStringLiteral("bench.dwell_s")), QStringLiteral("50 ms"));
-    InstrumentsPanel *panel = window->instrumentsPanel();
-    panel->sourceBox()->setCurrentIndex(panel->sourceBox()->findData(int(source)));
-    if (source == ReadingSource::SerialPort)
-        typeInto(panel->portBox()->lineEdit(), meter->ptyLink);
-    else
-        typeInto(panel->addressEdit(), QStringLiteral("127.0.0.1:%1").arg(meter->tcpPort));
-    QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
-    SweepWorkspace *workspace = window->workspace();
-    ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
-    ASSERT_TRUE(waitUntil([&] { return !workspace->run() || !workspace->run()->isConnecting(); }, 8000));
-    ASSERT_TRUE(workspace->isRunning()) << panel->statusText().toStdString();
-    SweepController *controller = workspace->run()->controller();
-    const Plan &plan = *workspace->plan();
-    QPushButton *record = window->nextStep()->recordButton();
+    LinkSweep s;
+    ASSERT_TRUE(s.connect(source));
+    InstrumentsPanel *panel = s.window->instrumentsPanel();
+    SweepWorkspace *workspace = s.window->workspace();
+    SweepController *controller = s.controller();
+    const Plan &plan = s.plan();
+    QPushButton *record = s.window->nextStep()->recordButton();
 
     // Three steps recorded normally.
     constexpr std::size_t before = 3;
-    for (std::size_t i = 0; i <= before; ++i) {
-        ASSERT_TRUE(waitUntil([&] { return controller->state() == SweepState::WaitingForLoad; }, 8000))
-            << toString(controller->state()).toStdString();
-        ASSERT_TRUE(sim.setLoad(plan.steps[i].loadResistanceOhm, &error)) << error.toStdString();
-        QTest::mouseClick(record, Qt::LeftButton);
-        if (i < before) {
-            ASSERT_TRUE(waitUntil([&] { return workspace->readings().size() == i + 1; }, 8000));
-        }
-    }
+    for (std::size_t i = 0; i <= before; ++i)
+        ASSERT_TRUE(s.recordStep(i, i < before));
     // The fourth step is being read (the button was just clicked): the simulator dies.
     const std::vector<Reading> kept = workspace->readings();
     ASSERT_EQ(kept.size(), before);
-    sim.kill();
+    s.sim.kill();
 
     // "Status: link lost at step 3: meter (tcp 127.0.0.1:41639): ... The remote host closed the
     // connection. Recorded points are kept; ..."
@@ -89,7 +48,7 @@ void killMidSweep(ReadingSource source)
 
     // The operator stops the sweep; the session keeps the three readings unchanged and says why
     // the sweep paused.
-    QPushButton *stop = window->nextStep()->stopButton();
+    QPushButton *stop = s.window->nextStep()->stopButton();
     ASSERT_TRUE(stop->isEnabled());
     QTest::mouseClick(stop, Qt::LeftButton);
     ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }, 5000)) << toString(controller->state()).toStdString();
@@ -135,58 +94,30 @@ TEST(SimVanishesMidSweep, OverASerialPortTheSimComingBackResumesTheSweepAtTheSam
     // meter reconnects on its own; the window asks the operator to check the interrupted step's
     // load again and reads nothing until "Load is set" is clicked; then the step is read again
     // and the sweep completes, every step once, in order.
-    QTemporaryDir folder;
-    QTemporaryDir links;
-    SimProcess sim;
-    QString error;
-    const QStringList quiet{QStringLiteral("--rated-rise"), QStringLiteral("0"), QStringLiteral("--noise-v"), QStringLiteral("0.0005"),
-                            QStringLiteral("--noise-a"), QStringLiteral("0.0002")};
-    ASSERT_TRUE(sim.start(links.path(), quiet, &error)) << error.toStdString();
-    const auto meter = sim.endpoint(QStringLiteral("power-meter"));
-    ASSERT_TRUE(meter.has_value()) << sim.output().toStdString();
-
-    auto window = demoWindow(folder.path());
-    window->setupForm()->setSessionDetails({QStringLiteral("Link tester"), QStringLiteral("LK-5"), QStringLiteral("20 °C"), {}});
-    typeInto(window->setupForm()->quantityField(QStringLiteral("bench.steps")), QStringLiteral("5"));
-    typeInto(window->setupForm()->quantityField(QStringLiteral("bench.dwell_s")), QStringLiteral("50 ms"));
-    InstrumentsPanel *panel = window->instrumentsPanel();
-    panel->sourceBox()->setCurrentIndex(panel->sourceBox()->findData(int(ReadingSource::SerialPort)));
-    typeInto(panel->portBox()->lineEdit(), meter->ptyLink);
-    QTest::mouseClick(window->planPanel()->acceptButton(), Qt::LeftButton);
-    SweepWorkspace *workspace = window->workspace();
-    ASSERT_TRUE(waitUntil([&] { return !workspace->run() || !workspace->run()->isConnecting(); }, 8000));
-    ASSERT_TRUE(workspace->isRunning()) << panel->statusText().toStdString();
-    SweepController *controller = workspace->run()->controller();
-    const Plan &plan = *workspace->plan();
-    QPushButton *record = window->nextStep()->recordButton();
-
-    auto recordStep = [&](std::size_t i, bool wait) {
-        ASSERT_TRUE(waitUntil([&] { return controller->state() == SweepState::WaitingForLoad && controller->currentStep() == plan.steps[i].index; },
-                              8000))
-            << "step " << i << ": " << toString(controller->state()).toStdString() << " at " << controller->currentStep() << ", "
-            << workspace->readings().size() << " readings; " << panel->statusText().toStdString();
-        ASSERT_TRUE(sim.setLoad(plan.steps[i].loadResistanceOhm, &error)) << error.toStdString();
-        QTest::mouseClick(record, Qt::LeftButton);
-        if (wait) {
-            ASSERT_TRUE(waitUntil([&] { return workspace->readings().size() == i + 1; }, 8000));
-        }
-    };
+    LinkSweep s;
+    ASSERT_TRUE(s.connect(ReadingSource::SerialPort));
+    InstrumentsPanel *panel = s.window->instrumentsPanel();
+    SweepWorkspace *workspace = s.window->workspace();
+    SweepController *controller = s.controller();
+    const Plan &plan = s.plan();
+    QPushButton *record = s.window->nextStep()->recordButton();
     for (std::size_t i = 0; i < 3; ++i)
-        recordStep(i, true);
-    recordStep(3, false);
-    sim.kill();
+        ASSERT_TRUE(s.recordStep(i));
+    ASSERT_TRUE(s.recordStep(3, false));
+    s.sim.kill();
     ASSERT_TRUE(waitUntil([&] { return panel->statusText().contains(QStringLiteral("link lost at step 3")); }, 8000))
         << panel->statusText().toStdString();
 
     // A restarted simulator starts with its load open: like a rheostat moved while the meter
     // was away. Nothing may be read at that load.
-    ASSERT_TRUE(sim.start(links.path(), quiet, &error)) << error.toStdString();
+    QString error;
+    ASSERT_TRUE(s.sim.start(s.links.path(), quietSimArguments(), &error)) << error.toStdString();
     ASSERT_TRUE(waitUntil([&] { return panel->statusText().contains(QStringLiteral("link restored")); }, 8000))
         << panel->statusText().toStdString();
     ASSERT_TRUE(waitUntil([&] { return controller->state() == SweepState::WaitingForLoad; }, 8000))
         << toString(controller->state()).toStdString();
     EXPECT_EQ(controller->currentStep(), plan.steps[3].index);
-    const QString asked = window->nextStep()->instructionText();
+    const QString asked = s.window->nextStep()->instructionText();
     EXPECT_TRUE(asked.contains(QStringLiteral("link restored: check the load is still at about"))) << asked.toStdString();
     EXPECT_TRUE(asked.contains(QStringLiteral("for step 3, then confirm"))) << asked.toStdString();
     EXPECT_TRUE(record->isEnabled());
@@ -194,10 +125,10 @@ TEST(SimVanishesMidSweep, OverASerialPortTheSimComingBackResumesTheSweepAtTheSam
     EXPECT_EQ(controller->state(), SweepState::WaitingForLoad);
     EXPECT_EQ(workspace->readings().size(), 3u);
     // The operator puts the load back and confirms: the step is read at that load.
-    recordStep(3, true);
+    ASSERT_TRUE(s.recordStep(3));
     EXPECT_NEAR(workspace->readings()[3].currentA, plan.steps[3].currentA, 0.05 * plan.steps[3].currentA);
     for (std::size_t i = 4; i < plan.steps.size(); ++i)
-        recordStep(i, true);
+        ASSERT_TRUE(s.recordStep(i));
     ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }, 5000));
     EXPECT_EQ(controller->state(), SweepState::Finished);
 
