@@ -1,0 +1,82 @@
+// The operator pauses a sweep through the window over a real link (sagline-sim as its own
+// process, its two-channel meter on loopback TCP typed in as the LAN address), someone turns the
+// rheostat while it is paused, and the operator resumes: the window asks to check the step's
+// load again and reads nothing until "Load is set" is clicked; the step is then read at its
+// planned current, the sweep completes with every step once, and the session notes say so.
+#include "LinkSweep.h"
+
+#include "SessionStore.h"
+
+#include <string>
+
+using namespace sagline;
+using namespace sagline::test;
+
+TEST(PausedSweepOverLink, AfterResumeTheStepWaitsForTheLoadToBeCheckedAndIsReadAtThePlannedCurrent)
+{
+    LinkSweep s;
+    ASSERT_TRUE(s.connect(ReadingSource::Lan));
+    SweepWorkspace *workspace = s.window->workspace();
+    SweepController *controller = s.controller();
+    const Plan &plan = s.plan();
+    QPushButton *record = s.window->nextStep()->recordButton();
+    QPushButton *pause = s.window->nextStep()->pauseButton();
+    constexpr std::size_t paused = 2;
+    const PlanStep &step = plan.steps[paused];
+    ASSERT_TRUE(step.loadResistanceOhm.has_value());
+
+    for (std::size_t i = 0; i < paused; ++i)
+        ASSERT_TRUE(s.recordStep(i));
+    // The load of the next step is set and confirmed; the operator pauses before it is read
+    // (a real meter needs three agreeing readings 500 ms apart, so the click comes first).
+    ASSERT_TRUE(s.recordStep(paused, false));
+    ASSERT_NE(controller->state(), SweepState::WaitingForLoad);
+    QTest::mouseClick(pause, Qt::LeftButton);
+    ASSERT_EQ(controller->state(), SweepState::Paused);
+    EXPECT_TRUE(pause->text().contains(QStringLiteral("Resume"))) << pause->text().toStdString();
+    ASSERT_EQ(workspace->readings().size(), paused);
+
+    // While paused, someone turns the rheostat to twice the resistance; the operator resumes.
+    QString error;
+    ASSERT_TRUE(s.sim.setLoad(2.0 * *step.loadResistanceOhm, &error)) << error.toStdString();
+    QTest::mouseClick(pause, Qt::LeftButton);
+    EXPECT_TRUE(pause->text().contains(QStringLiteral("Pause"))) << pause->text().toStdString();
+    ASSERT_EQ(controller->state(), SweepState::WaitingForLoad);
+    EXPECT_EQ(controller->currentStep(), step.index);
+    const QString asked = s.window->nextStep()->instructionText();
+    EXPECT_TRUE(asked.contains(QStringLiteral("resumed: check the load is still at about"))) << asked.toStdString();
+    EXPECT_TRUE(asked.contains(QStringLiteral("for step %1, then confirm").arg(step.index))) << asked.toStdString();
+    EXPECT_TRUE(record->isEnabled());
+    // Nothing is read at the moved load, however long nobody confirms.
+    waitUntil([] { return false; }, 1200); // more than two read intervals of a real meter
+    EXPECT_EQ(controller->state(), SweepState::WaitingForLoad);
+    ASSERT_EQ(workspace->readings().size(), paused);
+
+    // The operator puts the load back and clicks "Load is set": the step is read at the planned
+    // current (twice the resistance would give about half of it).
+    ASSERT_TRUE(s.recordStep(paused));
+    EXPECT_NEAR(workspace->readings()[paused].currentA, step.currentA, 0.05 * step.currentA);
+    for (std::size_t i = paused + 1; i < plan.steps.size(); ++i)
+        ASSERT_TRUE(s.recordStep(i));
+    ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }, 5000));
+    EXPECT_EQ(controller->state(), SweepState::Finished);
+
+    // The session file: every step once, in order, and the notes record the pause and resume.
+    auto stored = SessionStore::openForReview(workspace->sessionPath().toStdString());
+    ASSERT_TRUE(stored.ok()) << stored.message;
+    const auto readings = stored.value->readings();
+    ASSERT_TRUE(readings.ok());
+    ASSERT_EQ(readings.value.size(), plan.steps.size());
+    for (std::size_t i = 0; i < plan.steps.size(); ++i)
+        EXPECT_EQ(readings.value[i].step, plan.steps[i].index);
+    const auto notes = stored.value->notes();
+    ASSERT_TRUE(notes.ok());
+    std::string all;
+    for (const auto &note : notes.value)
+        all += note.text + "\n";
+    const std::string n = std::to_string(step.index);
+    for (const std::string &expected :
+         {"paused by the operator at step " + n, "resumed at step " + n, "step " + n + ": waiting for the operator to confirm the load again",
+          "step " + n + ": the operator confirmed the load again after resuming"})
+        EXPECT_NE(all.find(expected), std::string::npos) << expected << " not in:\n" << all;
+}
