@@ -23,13 +23,11 @@ TEST(LinkRestoredLoad, TheInterruptedStepWaitsForTheOperatorAndIsReadAtTheConfir
     bool pulled = false;
     // Step 3: the load is set and confirmed, then the voltmeter's cable is pulled (0.2 s wall)
     // and, while it is away, someone turns the rheostat to twice the resistance.
-    sweep.afterConfirm = [&](int s) {
-        if (s != restoredStep || pulled)
-            return;
+    sweep.onceAfterConfirming(restoredStep, [&] {
         pulled = true;
         sweep.bench->voltmeter()->vanish(200);
         sweep.bench->setLoad(2.0 * *step.loadResistanceOhm);
-    };
+    });
     // The operator does not answer the first question after the restore: the test looks first.
     bool heldOnce = false;
     sweep.beforeConfirm = [&](int s) {
@@ -94,20 +92,16 @@ TEST(LinkRestoredLoad, AnOperatorPauseDuringTheOutageStillNeedsTheLoadConfirmedA
     OperatorSweep sweep;
     const PlanStep &step = sweep.planStep(restoredStep);
     bool pulled = false;
-    sweep.afterConfirm = [&](int s) {
-        if (s != restoredStep || pulled)
-            return;
+    sweep.onceAfterConfirming(restoredStep, [&] {
         pulled = true;
         sweep.bench->voltmeter()->vanish(200);
         QTimer::singleShot(0, sweep.controller.get(), [&] { sweep.controller->pause(); }); // paused while the link is down
-    };
+    });
     ASSERT_TRUE(sweep.runUntil([&] { return pulled && sweep.controller->state() == SweepState::Paused; }));
     ASSERT_TRUE(waitUntil([&] { return !sweep.bench->voltmeter()->isVanished() && sweep.rig->isReady(); }, 5000));
     waitUntil([] { return false; }, 100);
     EXPECT_EQ(sweep.controller->state(), SweepState::Paused); // the operator's pause holds
-    sweep.operatorAnswers = false;
-    sweep.controller->resume();
-    EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    EXPECT_TRUE(sweep.resumeWithoutAnswering());
     EXPECT_EQ(sweep.instructions.back().second, sweep.controller->restoredInstruction(step.index));
     EXPECT_EQ(sweep.recorded.size(), static_cast<std::size_t>(restoredStep));
     ASSERT_TRUE(sweep.confirmAndComplete());

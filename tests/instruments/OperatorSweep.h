@@ -19,6 +19,7 @@
 #include <QTimer>
 
 #include <functional>
+#include <utility>
 #include <memory>
 #include <optional>
 #include <tuple>
@@ -109,15 +110,34 @@ public:
 
     int announcements(int step) const { return static_cast<int>(instructionsFor(step).size()); }
 
-    // The operator pauses once, right after confirming `step`'s load (the dwell has begun).
-    void pauseAfterConfirming(int step)
+    // `action` runs once, right after the operator confirmed `step`'s load (the dwell has begun).
+    void onceAfterConfirming(int step, std::function<void()> action)
     {
-        afterConfirm = [this, step](int s) {
-            if (s == step && !pausedOnce) {
-                pausedOnce = true;
-                controller->pause();
+        afterConfirm = [step, action = std::move(action), done = false](int s) mutable {
+            if (s == step && !done) {
+                done = true;
+                action();
             }
         };
+    }
+
+    // The operator pauses once, right after confirming `step`'s load.
+    void pauseAfterConfirming(int step)
+    {
+        onceAfterConfirming(step, [this] {
+            pausedOnce = true;
+            controller->pause();
+        });
+    }
+
+    // The operator resumes but does not answer yet: the step must wait for its load again.
+    testing::AssertionResult resumeWithoutAnswering()
+    {
+        operatorAnswers = false;
+        controller->resume();
+        if (controller->state() != SweepState::WaitingForLoad)
+            return testing::AssertionFailure() << "after resume: " << toString(controller->state()).toStdString();
+        return testing::AssertionSuccess();
     }
 
     // Starts the sweep on the auto-advancing clock (time jumps to the next timer).

@@ -28,9 +28,7 @@ TEST(ResumedLoad, AfterAPauseTheStepWaitsForTheOperatorAndIsReadAtTheConfirmedLo
     // While paused, someone turns the rheostat to twice the resistance. The operator resumes
     // but does not answer the question at once: the test looks first.
     sweep.bench->setLoad(2.0 * *step.loadResistanceOhm);
-    sweep.operatorAnswers = false;
-    sweep.controller->resume();
-    EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    EXPECT_TRUE(sweep.resumeWithoutAnswering());
     EXPECT_EQ(sweep.controller->currentStep(), pausedStep);
     sweep.clock.advance(60000);
     waitUntil([] { return false; }, 150);
@@ -84,9 +82,7 @@ TEST(ResumedLoad, PausingAgainBeforeConfirmingStillAsksToCheckTheLoad)
     OperatorSweep sweep;
     sweep.pauseAfterConfirming(pausedStep);
     ASSERT_TRUE(sweep.runUntil([&] { return sweep.isPausedOnce(); }));
-    sweep.operatorAnswers = false;
-    sweep.controller->resume();
-    ASSERT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    ASSERT_TRUE(sweep.resumeWithoutAnswering());
     sweep.controller->pause();
     sweep.controller->resume();
     EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
@@ -101,9 +97,7 @@ TEST(ResumedLoad, ALinkLostWhileTheResumedStepWaitsStillAsksToCheckTheLoad)
     OperatorSweep sweep;
     sweep.pauseAfterConfirming(pausedStep);
     ASSERT_TRUE(sweep.runUntil([&] { return sweep.isPausedOnce(); }));
-    sweep.operatorAnswers = false;
-    sweep.controller->resume();
-    ASSERT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+    ASSERT_TRUE(sweep.resumeWithoutAnswering());
     // The voltmeter's cable is pulled while the resumed step waits: the load was confirmed
     // before the pause, so after the restore the operator checks it "still", as after any loss.
     sweep.bench->voltmeter()->vanish(200);
@@ -158,9 +152,7 @@ TEST(ResumedLoad, APauseFromAStateChangedHandlerHoldsAndTheStepIsCheckedAgain)
         waitUntil([] { return false; }, 150);
         EXPECT_EQ(sweep.controller->state(), SweepState::Paused);
         EXPECT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep));
-        sweep.operatorAnswers = false;
-        sweep.controller->resume();
-        EXPECT_EQ(sweep.controller->state(), SweepState::WaitingForLoad);
+        EXPECT_TRUE(sweep.resumeWithoutAnswering());
         EXPECT_EQ(sweep.instructions.back().second, sweep.controller->resumedInstruction(pausedStep));
         ASSERT_TRUE(sweep.confirmAndComplete());
     }
