@@ -16,24 +16,13 @@
 #include <QRegularExpression>
 #include <QTemporaryDir>
 
+#include <functional>
 #include <memory>
 
 using namespace sagline;
 using namespace sagline::test;
 
 namespace {
-
-// `sagline-cli run` of the demo setup on the bench's voltmeter and ammeter over loopback TCP,
-// short dwell and read interval. No load link: a person (the test) sets the load, presses Enter.
-void startCliRun(QProcess &cli, const TcpEndpoint &voltmeter, const TcpEndpoint &ammeter, const QString &folder)
-{
-    cli.start(QStringLiteral(SAGLINE_CLI_PATH),
-              {QStringLiteral("run"), QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"), QStringLiteral("--voltmeter"),
-               QStringLiteral("tcp:127.0.0.1:%1").arg(voltmeter.port()), QStringLiteral("--ammeter"),
-               QStringLiteral("127.0.0.1:%1").arg(ammeter.port()), QStringLiteral("--dwell"), QStringLiteral("0.02"),
-               QStringLiteral("--read-interval"), QStringLiteral("0.01"), QStringLiteral("--operator"), QStringLiteral("test"),
-               QStringLiteral("-o"), folder + QStringLiteral("/bench.sagline")});
-}
 
 // The step of every "step N: ... press Enter" prompt in the CLI's stderr so far, in order
 // (stderr may arrive in pieces, so the caller keeps all of it and counts what it answered).
@@ -45,6 +34,57 @@ QList<int> promptedSteps(const QString &err)
         steps << it.next().captured(1).toInt();
     return steps;
 }
+
+// The bench's voltmeter and ammeter on loopback TCP and `sagline-cli run` of the demo setup on
+// them (short dwell and read interval) without the load: the test is the operator, who sets the
+// bench's load and presses Enter at each prompt; `afterEnter` runs after each Enter.
+struct CliOnTcpMeters {
+    explicit CliOnTcpMeters(bool heating) : plan(planFor(demoSetup()))
+    {
+        VirtualBenchOptions options = virtualBenchOptionsFor(demoSetup(), plan, 2);
+        if (!heating)
+            options.transformer.thermalResistanceKPerW = 0.0;
+        bench = std::make_unique<VirtualBench>(options, &clock);
+        voltmeter = std::make_unique<TcpEndpoint>(bench->voltmeter());
+        ammeter = std::make_unique<TcpEndpoint>(bench->ammeter());
+        QObject::connect(&cli, &QProcess::readyReadStandardError, [this] {
+            err += QString::fromUtf8(cli.readAllStandardError());
+            for (const int step : promptedSteps(err).mid(enters)) {
+                bench->setLoad(plan.steps[step].loadResistanceOhm); // the operator sets the load...
+                cli.write("\n");                                    // ...and presses Enter
+                ++enters;
+                if (afterEnter)
+                    afterEnter(step);
+            }
+        });
+    }
+
+    bool start(QString *error)
+    {
+        if (!voltmeter->start(0, error) || !ammeter->start(0, error))
+            return false;
+        cli.start(QStringLiteral(SAGLINE_CLI_PATH),
+                  {QStringLiteral("run"), QStringLiteral(SAGLINE_SOURCE_DIR "/resources/demo-setup.json"), QStringLiteral("--voltmeter"),
+                   QStringLiteral("tcp:127.0.0.1:%1").arg(voltmeter->port()), QStringLiteral("--ammeter"),
+                   QStringLiteral("127.0.0.1:%1").arg(ammeter->port()), QStringLiteral("--dwell"), QStringLiteral("0.02"),
+                   QStringLiteral("--read-interval"), QStringLiteral("0.01"), QStringLiteral("--operator"), QStringLiteral("test"),
+                   QStringLiteral("-o"), dir.path() + QStringLiteral("/bench.sagline")});
+        return true;
+    }
+
+    bool finishes(int timeoutMs) { return waitUntil([this] { return cli.state() == QProcess::NotRunning; }, timeoutMs); }
+
+    VirtualClock clock{0};
+    Plan plan;
+    std::unique_ptr<VirtualBench> bench;
+    std::unique_ptr<TcpEndpoint> voltmeter;
+    std::unique_ptr<TcpEndpoint> ammeter;
+    QTemporaryDir dir;
+    QString err; // all of the CLI's stderr so far (prompts may arrive in pieces)
+    int enters = 0;
+    std::function<void(int)> afterEnter;
+    QProcess cli; // last: gone before anything its handler uses
+};
 
 // The virtual bench served on a pty (voltmeter), TCP (ammeter) and a pty (load), with a rig of
 // real SerialLink / TcpLink instruments on the other side.
@@ -220,33 +260,15 @@ TEST(RunCommand, WithRealMetersItWaitsForEnterAtEachStep)
 {
     // The bench's meters on loopback TCP; its load is not given to the CLI, so a person (here
     // the test) sets it and presses Enter at each step.
-    VirtualClock clock(0);
-    const sagline::Setup setup = demoSetup();
-    const Plan plan = planFor(setup);
-    VirtualBench bench(virtualBenchOptionsFor(setup, plan, 2), &clock);
-    TcpEndpoint voltmeter(bench.voltmeter());
-    TcpEndpoint ammeter(bench.ammeter());
+    CliOnTcpMeters run(true);
     QString error;
-    ASSERT_TRUE(voltmeter.start(0, &error) && ammeter.start(0, &error)) << error.toStdString();
-    QTemporaryDir dir;
-    QProcess cli;
-    QString err;
-    int enters = 0;
-    QObject::connect(&cli, &QProcess::readyReadStandardError, [&] {
-        err += QString::fromUtf8(cli.readAllStandardError());
-        for (const int step : promptedSteps(err).mid(enters)) {
-            bench.setLoad(plan.steps[step].loadResistanceOhm); // the operator sets the load...
-            cli.write("\n");                                   // ...and presses Enter
-            ++enters;
-        }
-    });
-    startCliRun(cli, voltmeter, ammeter, dir.path());
-    ASSERT_TRUE(waitUntil([&] { return cli.state() == QProcess::NotRunning; }, 8000)) << err.toStdString() << QString::fromUtf8(cli.readAllStandardOutput()).toStdString();
-    EXPECT_EQ(cli.exitCode(), 0) << err.toStdString();
-    EXPECT_EQ(enters, 9);
-    const QString out = QString::fromUtf8(cli.readAllStandardOutput());
+    ASSERT_TRUE(run.start(&error)) << error.toStdString();
+    ASSERT_TRUE(run.finishes(8000)) << run.err.toStdString() << QString::fromUtf8(run.cli.readAllStandardOutput()).toStdString();
+    EXPECT_EQ(run.cli.exitCode(), 0) << run.err.toStdString();
+    EXPECT_EQ(run.enters, 9);
+    const QString out = QString::fromUtf8(run.cli.readAllStandardOutput());
     EXPECT_TRUE(out.contains(QStringLiteral(" 8  I "))) << out.toStdString();
-    EXPECT_TRUE(err.contains(QStringLiteral("connected voltmeter: Sagline Virtual Bench,VB-V1")));
+    EXPECT_TRUE(run.err.contains(QStringLiteral("connected voltmeter: Sagline Virtual Bench,VB-V1")));
 }
 
 TEST(RunCommand, AfterALinkIsRestoredItWaitsForEnterAgainBeforeReading)
@@ -254,45 +276,29 @@ TEST(RunCommand, AfterALinkIsRestoredItWaitsForEnterAgainBeforeReading)
     // As above; at step 3 the voltmeter's link goes away just as Enter is pressed, and someone
     // turns the rheostat to twice the resistance while it is away. Once the link is back the CLI
     // asks again; the test (the operator) puts the load right and presses Enter.
-    VirtualClock clock(0);
-    const sagline::Setup setup = demoSetup();
-    const Plan plan = planFor(setup);
-    VirtualBenchOptions benchOptions = virtualBenchOptionsFor(setup, plan, 2);
-    benchOptions.transformer.thermalResistanceKPerW = 0.0;
-    VirtualBench bench(benchOptions, &clock);
-    TcpEndpoint voltmeter(bench.voltmeter());
-    TcpEndpoint ammeter(bench.ammeter());
-    QString error;
-    ASSERT_TRUE(voltmeter.start(0, &error) && ammeter.start(0, &error)) << error.toStdString();
-    QTemporaryDir dir;
-    QProcess cli;
-    QString err;
-    int enters = 0;
+    CliOnTcpMeters run(false);
+    const Plan &plan = run.plan;
     bool pulled = false;
-    QObject::connect(&cli, &QProcess::readyReadStandardError, [&] {
-        err += QString::fromUtf8(cli.readAllStandardError());
-        for (const int step : promptedSteps(err).mid(enters)) {
-            bench.setLoad(plan.steps[step].loadResistanceOhm);
-            cli.write("\n");
-            ++enters;
-            if (step == 3 && !pulled) {
-                pulled = true;
-                bench.voltmeter()->vanish(300);
-                bench.setLoad(2.0 * *plan.steps[step].loadResistanceOhm);
-            }
+    run.afterEnter = [&](int step) {
+        if (step == 3 && !pulled) {
+            pulled = true;
+            run.bench->voltmeter()->vanish(300);
+            run.bench->setLoad(2.0 * *plan.steps[3].loadResistanceOhm);
         }
-    });
-    startCliRun(cli, voltmeter, ammeter, dir.path());
-    ASSERT_TRUE(waitUntil([&] { return cli.state() == QProcess::NotRunning; }, 15000)) << err.toStdString();
-    EXPECT_EQ(cli.exitCode(), 0) << err.toStdString();
+    };
+    QString error;
+    ASSERT_TRUE(run.start(&error)) << error.toStdString();
+    ASSERT_TRUE(run.finishes(15000)) << run.err.toStdString();
+    const QString &err = run.err;
+    EXPECT_EQ(run.cli.exitCode(), 0) << err.toStdString();
     EXPECT_TRUE(pulled);
-    EXPECT_EQ(enters, 10) << err.toStdString(); // nine steps and step 3 once more
+    EXPECT_EQ(run.enters, 10) << err.toStdString(); // nine steps and step 3 once more
     // Whether the Enter reached the CLI before the link went or not, it asks again for step 3.
     EXPECT_TRUE(err.contains(QRegularExpression(QStringLiteral("step 3: link restored: .*-- press Enter to confirm"))))
         << err.toStdString();
     EXPECT_TRUE(err.contains(QStringLiteral("check the load, then press Enter to resume"))) << err.toStdString();
     // Step 3's point is at the planned load (twice the resistance would give about half the current).
-    const QString out = QString::fromUtf8(cli.readAllStandardOutput());
+    const QString out = QString::fromUtf8(run.cli.readAllStandardOutput());
     const QRegularExpression step3(QStringLiteral("^ ?3  I +([0-9.]+) A"), QRegularExpression::MultilineOption);
     const auto m = step3.match(out);
     ASSERT_TRUE(m.hasMatch()) << out.toStdString();
