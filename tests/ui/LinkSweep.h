@@ -12,6 +12,7 @@
 #include "InstrumentsPanel.h"
 #include "NextStepStrip.h"
 #include "PlanPanel.h"
+#include "SessionStore.h"
 #include "SweepRun.h"
 #include "SweepWorkspace.h"
 
@@ -111,6 +112,51 @@ struct LinkSweep {
             return ::testing::AssertionFailure() << "step " << step.index << " not recorded; state "
                                                  << toString(controller()->state()).toStdString() << ", "
                                                  << window->lastMessage().toStdString();
+        return ::testing::AssertionSuccess();
+    }
+
+    // The step waits for its load to be checked (`wording`, e.g. "resumed: check the load is
+    // still at about", then "for step N, then confirm"), with Record enabled, and reads nothing
+    // for more than two read intervals of a real meter.
+    ::testing::AssertionResult asksAgainAndHolds(const QString &wording, const PlanStep &step)
+    {
+        const std::size_t before = window->workspace()->readings().size();
+        if (controller()->state() != SweepState::WaitingForLoad || controller()->currentStep() != step.index)
+            return ::testing::AssertionFailure() << toString(controller()->state()).toStdString() << " at step "
+                                                 << controller()->currentStep();
+        const QString asked = window->nextStep()->instructionText();
+        if (!asked.contains(wording) || !asked.contains(QStringLiteral("for step %1, then confirm").arg(step.index)))
+            return ::testing::AssertionFailure() << "asked: " << asked.toStdString();
+        if (!window->nextStep()->recordButton()->isEnabled())
+            return ::testing::AssertionFailure() << "the Record button is disabled";
+        waitUntil([] { return false; }, 1200);
+        if (controller()->state() != SweepState::WaitingForLoad || window->workspace()->readings().size() != before)
+            return ::testing::AssertionFailure() << "read without a confirmation: " << toString(controller()->state()).toStdString()
+                                                 << ", " << window->workspace()->readings().size() << " readings";
+        return ::testing::AssertionSuccess();
+    }
+
+    // Records steps `from` to the last, waits until the sweep has finished, and checks the
+    // session file holds one reading per plan step, in plan order.
+    ::testing::AssertionResult recordTheRestAndFinish(std::size_t from)
+    {
+        for (std::size_t i = from; i < plan().steps.size(); ++i) {
+            if (auto recorded = recordStep(i); !recorded)
+                return recorded;
+        }
+        SweepWorkspace *workspace = window->workspace();
+        if (!waitUntil([&] { return !workspace->isRunning(); }, 5000) || controller()->state() != SweepState::Finished)
+            return ::testing::AssertionFailure() << "not finished: " << toString(controller()->state()).toStdString();
+        auto stored = SessionStore::openForReview(workspace->sessionPath().toStdString());
+        if (!stored.ok())
+            return ::testing::AssertionFailure() << stored.message;
+        const auto readings = stored.value->readings();
+        if (!readings.ok() || readings.value.size() != plan().steps.size())
+            return ::testing::AssertionFailure() << readings.value.size() << " readings stored for " << plan().steps.size() << " steps";
+        for (std::size_t i = 0; i < readings.value.size(); ++i) {
+            if (readings.value[i].step != plan().steps[i].index)
+                return ::testing::AssertionFailure() << "stored reading " << i << " is of step " << readings.value[i].step;
+        }
         return ::testing::AssertionSuccess();
     }
 
