@@ -156,6 +156,19 @@ public:
 
     bool isPausedOnce() const { return pausedOnce && controller->state() == SweepState::Paused; }
 
+    // A simulated minute passes with nobody confirming: the sweep still waits for the load of
+    // `step`, and only the steps before it are recorded.
+    testing::AssertionResult staysUnreadForAMinute(int step)
+    {
+        clock.advance(60000);
+        waitUntil([] { return false; }, 150);
+        if (controller->state() != SweepState::WaitingForLoad || controller->currentStep() != step)
+            return testing::AssertionFailure() << toString(controller->state()).toStdString() << " at step " << controller->currentStep();
+        if (recorded.size() != static_cast<std::size_t>(step))
+            return testing::AssertionFailure() << recorded.size() << " readings while step " << step << " waits";
+        return testing::AssertionSuccess();
+    }
+
     // Waits for the end: completed, with every step of the plan recorded once, in order.
     testing::AssertionResult completesEveryStepInOrder(int timeoutMs = 10000)
     {
