@@ -53,6 +53,7 @@ public:
     void setFaultRates(const SimFaultRates &rates) { m_rates = rates; }
     const SimFaultRates &faultRates() const { return m_rates; }
     void injectFault(SimFault fault, int count = 1); // the next `count` replies get it
+    void clearInjectedFaults() { m_injected.clear(); } // the meter is put right
     void vanish(int durationMs);                     // the link goes away; back after durationMs (<0: stays away)
     void returnNow();
     bool isVanished() const { return m_vanished; }

@@ -126,6 +126,7 @@ private:
     void scheduleRead();
     void acceptPoint(Reading reading);
     bool commitAndReport(Reading reading);
+    void markLoadInDoubtUntilResumed();
     bool retryHeldCommit();
     void tripSafety(const SafetyTrip &trip, Reading reading);
     void nextStep();

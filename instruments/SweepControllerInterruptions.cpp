@@ -10,17 +10,23 @@ void SweepController::pause()
     if (m_state == SweepState::Idle || m_state == SweepState::Finished || m_state == SweepState::Stopped)
         return;
     m_operatorPaused = true;
-    // Anyone may change the load while the sweep is paused: resume() has it checked again.
-    if (m_rig && !m_pauseInDoubt) {
-        m_pauseInDoubt = true;
-        m_confirmedBeforePause = m_loadConfirmed;
-    }
+    markLoadInDoubtUntilResumed();
     cancelTimers();
     ++m_readSerial;
     m_pauseReason = tr("paused by the operator");
     setState(SweepState::Paused);
     event(tr("paused by the operator at step %1").arg(m_step));
     emit paused(m_pauseReason);
+}
+
+// Anyone may change the load while the sweep is paused (by the operator, or to check the
+// meters): resume() has it confirmed (or set, when programmable) again before reading.
+void SweepController::markLoadInDoubtUntilResumed()
+{
+    if (m_rig && !m_pauseInDoubt) {
+        m_pauseInDoubt = true;
+        m_confirmedBeforePause = m_loadConfirmed;
+    }
 }
 
 void SweepController::resume()

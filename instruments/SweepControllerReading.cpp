@@ -172,6 +172,7 @@ void SweepController::scheduleRead()
         m_pauseReason = tr("step %1: no valid reading within %2 s; check the meters, then resume to retry the step")
                             .arg(m_step)
                             .arg(m_options.stability.maxTimeS);
+        markLoadInDoubtUntilResumed(); // checking the meters means hands on the bench
         ++m_readSerial;
         setState(SweepState::Paused);
         event(m_pauseReason);

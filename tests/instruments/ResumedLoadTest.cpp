@@ -154,3 +154,29 @@ TEST(ResumedLoad, APauseFromAStateChangedHandlerHoldsAndTheStepIsCheckedAgain)
         ASSERT_TRUE(sweep.confirmAndComplete());
     }
 }
+
+TEST(ResumedLoad, AfterNoValidReadingTheStepAsksForItsLoadAgain)
+{
+    OperatorSweep sweep;
+    const PlanStep &step = sweep.planStep(pausedStep);
+    ASSERT_TRUE(step.loadResistanceOhm.has_value());
+    // Right after step 3's load is confirmed the voltmeter answers "not a number" (a lead
+    // off): no valid reading within the stability time, so the sweep pauses by itself.
+    sweep.onceAfterConfirming(pausedStep, [&] { sweep.bench->voltmeter()->injectFault(SimFault::NotANumber, 100000); });
+    ASSERT_TRUE(sweep.runUntil([&] { return sweep.controller->state() == SweepState::Paused; }))
+        << toString(sweep.controller->state()).toStdString();
+    EXPECT_TRUE(sweep.sink.events.join('\n').contains(QStringLiteral("step 3: no valid reading")))
+        << sweep.sink.events.join('\n').toStdString();
+    ASSERT_EQ(sweep.recorded.size(), static_cast<std::size_t>(pausedStep));
+
+    // Putting the lead back, someone knocks the rheostat to twice the resistance; then resume.
+    sweep.bench->voltmeter()->clearInjectedFaults();
+    sweep.bench->setLoad(2.0 * *step.loadResistanceOhm);
+    EXPECT_TRUE(sweep.resumeWithoutAnswering());
+    ASSERT_TRUE(sweep.staysUnreadForAMinute(pausedStep));
+    EXPECT_EQ(sweep.instructions.back().second, sweep.controller->resumedInstruction(pausedStep));
+
+    // Put back and confirmed: read at the planned load (twice the resistance: about half the current).
+    ASSERT_TRUE(sweep.confirmAndComplete());
+    EXPECT_NEAR(sweep.recorded[pausedStep].currentA, step.currentA, 0.05 * step.currentA);
+}
