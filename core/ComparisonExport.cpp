@@ -137,6 +137,7 @@ std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStati
             {"regulation_u_percent", jsonNumber(f.regulationUPercent)},
             {"regulation_limit_percent", jsonNumber(f.regulationLimitPercent)},
             {"verdict", f.verdictText()}, {"decision_rule", toString(f.rule)}, {"decision_rule_text", f.ruleName},
+            {"settings_from_record", row.settingsFromRecord},
             {"safety_stops", stops}, {"review_state", row.reviewState()}, {"sign_offs", signOffs},
             {"lab_sheet", row.supervision.labSheet ? json(row.supervision.labSheet->title) : json(nullptr)},
             {"lab_sheet_fingerprint",

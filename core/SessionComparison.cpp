@@ -1,5 +1,6 @@
 #include "SessionComparison.h"
 
+#include "AnalysisSettingsRecord.h"
 #include "SessionStore.h"
 #include "SetupJson.h"
 
@@ -66,6 +67,37 @@ SessionRow failedRow(SessionRow row, const std::string &what, const std::string 
     row.opened = false;
     row.problem = message.empty() ? what : what + ": " + message;
     return row;
+}
+
+} // namespace
+
+namespace {
+
+// The batch's figure options with what the user left open taken from the session's record;
+// a record that does not parse is said in the row's notice.
+FigureOptions figureOptionsFor(const ComparisonOptions &options, const std::vector<NoteRecord> &notes, SessionRow &row)
+{
+    FigureOptions figures = options.figures;
+    const RecordedAnalysisSettings recorded = latestAnalysisSettings(notes);
+    for (const std::string &notice : recorded.notices)
+        row.notice += (row.notice.empty() ? "" : "; ") + notice;
+    if (!recorded.settings)
+        return figures;
+    if (!options.ruleChosen) {
+        figures.rule = recorded.settings->rule;
+        row.settingsFromRecord = true;
+    }
+    if (!options.limitChosen && recorded.settings->regulationLimitPercent) {
+        figures.regulationLimitPercent = recorded.settings->regulationLimitPercent;
+        row.settingsFromRecord = true;
+    }
+    // Only the copper convention is a choice here; an aluminium winding always uses 225 °C.
+    const auto constant = recorded.settings->temperatureConstant;
+    if (!options.constantChosen && constant && *constant != TemperatureConstant::Aluminium) {
+        figures.copperConstant = *constant;
+        row.settingsFromRecord = true;
+    }
+    return figures;
 }
 
 } // namespace
@@ -138,7 +170,8 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     std::optional<double> winding = meanOf(temperatures.value, TemperatureKind::Winding);
     if (!winding)
         winding = meanOf(temperatures.value, TemperatureKind::Ambient);
-    row.figures = computeSessionFigures(row.fit, *setup.setup, winding, options.figures);
+    row.figures = computeSessionFigures(row.fit, *setup.setup, winding,
+                                        figureOptionsFor(options, notes.value, row));
     row.opened = true;
     return row;
 }

@@ -30,6 +30,12 @@ inline constexpr std::size_t robustZMinimumUnits = 3;
 struct ComparisonOptions {
     FitMethod method = FitMethod::Ols;
     FigureOptions figures;
+    // Which figure options the user chose. The others are taken per session from its
+    // analysis-settings record (core/AnalysisSettingsRecord.h) when it has one. The reference
+    // temperature is not: it stays common to the batch so that R values compare.
+    bool ruleChosen = false;
+    bool limitChosen = false;
+    bool constantChosen = false;
 };
 
 struct ComparisonPoint {
@@ -54,6 +60,7 @@ struct SessionRow {
     std::vector<SafetyStopRecord> safetyStops;
     std::vector<SignOffRecord> signOffs; // oldest first
     SupervisionSummary supervision;
+    bool settingsFromRecord = false;  // rule, limit or constant taken from the session's record
     std::vector<ComparisonPoint> points; // for the overlay chart, in recording order
 
     // R the batch compares: at the reference temperature when known, else as measured.

@@ -97,6 +97,7 @@ json analysisToJson(const SessionSummary &summary)
                                                                                    : std::optional<double>(defaultReferenceTemperatureC))
                                                               : json(nullptr);
     out["reference_temperature_defaulted"] = summary.referenceTemperatureDefaulted;
+    out["settings_used"] = describeSettingsUsed(summary);
     out["temperature_convention"] = a.temperatureCorrection ? json(a.temperatureCorrection->convention) : json(nullptr);
     return out;
 }

@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 
 namespace sagline {
 
@@ -131,9 +132,38 @@ void analyse(SessionSummary &summary)
     if (summary.regulationLimitPercent) {
         const UncertainValue &regulation = analysis.regulationPercent;
         summary.decision = decideAgainstUpperLimit(regulation.value, regulation.expandedUncertainty,
-                                                   *summary.regulationLimitPercent, options.rule);
+                                                   *summary.regulationLimitPercent, summary.rule);
     }
     summary.analysis = std::move(analysis);
+}
+
+// Fills the choices the caller left open from the session's latest analysis-settings record.
+void applyRecordedSettings(SessionSummary &summary)
+{
+    summary.recordedSettings = latestAnalysisSettings(summary.notes);
+    ReviewOptions &options = summary.options;
+    const std::optional<AnalysisSettings> &recorded = summary.recordedSettings.settings;
+    const auto source = [&](bool given, bool inRecord) {
+        return given ? SettingSource::Option : inRecord ? SettingSource::SessionRecord : SettingSource::Default;
+    };
+    summary.ruleSource = source(options.rule.has_value(), recorded.has_value());
+    summary.regulationLimitSource =
+        source(options.regulationLimitPercent.has_value(), recorded && recorded->regulationLimitPercent);
+    summary.referenceTemperatureSource =
+        source(options.referenceTemperatureC.has_value(), recorded && recorded->referenceTemperatureC);
+    summary.temperatureConstantSource =
+        source(options.temperatureConstant.has_value(), recorded && recorded->temperatureConstant);
+    if (recorded) {
+        if (!options.rule)
+            options.rule = recorded->rule;
+        if (!options.regulationLimitPercent)
+            options.regulationLimitPercent = recorded->regulationLimitPercent;
+        if (!options.referenceTemperatureC)
+            options.referenceTemperatureC = recorded->referenceTemperatureC;
+        if (!options.temperatureConstant)
+            options.temperatureConstant = recorded->temperatureConstant;
+    }
+    summary.rule = options.rule.value_or(DecisionRule::GuardedAcceptance);
 }
 
 } // namespace
@@ -165,8 +195,30 @@ StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const Re
         summary.setupProblem = setup.errors.front().message();
     summary.plan = parseStoredPlan(summary.info.planJson);
     summary.fit = fitReadings(summary.readings, options.method);
+    applyRecordedSettings(summary);
     analyse(summary);
     return summary;
+}
+
+std::string describeSettingsUsed(const SessionSummary &summary)
+{
+    const auto from = [](SettingSource source) { return " (" + toString(source) + ")"; };
+    const auto number = [](double value) {
+        char text[32];
+        std::snprintf(text, sizeof text, "%.4g", value);
+        return std::string(text);
+    };
+    const ReviewOptions &o = summary.options;
+    std::string line = "decision rule " + toString(summary.rule) + from(summary.ruleSource);
+    line += "; regulation limit "
+            + (o.regulationLimitPercent ? number(*o.regulationLimitPercent) + " %" : std::string("from the nameplate"))
+            + from(summary.regulationLimitSource);
+    line += "; reference temperature " + number(o.referenceTemperatureC.value_or(defaultReferenceTemperatureC)) + " °C"
+            + from(summary.referenceTemperatureSource);
+    line += "; temperature constant "
+            + (o.temperatureConstant ? toString(*o.temperatureConstant) : std::string("per winding material"))
+            + from(summary.temperatureConstantSource);
+    return line;
 }
 
 StoreResult<SessionSummary> loadSessionSummary(const std::string &path, const ReviewOptions &options)

@@ -3,6 +3,7 @@
 // and the PDF report, so none of them recomputes anything.
 #pragma once
 
+#include "AnalysisSettingsRecord.h"
 #include "ConformityDecision.h"
 #include "FitSummary.h"
 #include "Reading.h"
@@ -46,10 +47,12 @@ struct StoredPlan {
 // Reads the plan JSON written by planToJson; never throws.
 StoredPlan parseStoredPlan(const std::string &planJson);
 
-// How a reviewer wants the session judged; every choice is shown in the outputs.
+// How a reviewer wants the session judged; every choice is shown in the outputs. A choice left
+// unset is taken from the session's analysis-settings record (core/AnalysisSettingsRecord.h)
+// when it has one, else from the default named beside it.
 struct ReviewOptions {
     FitMethod method = FitMethod::Ols;
-    DecisionRule rule = DecisionRule::GuardedAcceptance;        // ILAC-G8:2019
+    std::optional<DecisionRule> rule;                           // default: guarded (ILAC-G8:2019)
     std::optional<double> regulationLimitPercent;               // default: the nameplate's regulation
     std::optional<double> referenceTemperatureC;                // default: 75 °C when a winding temperature exists
     std::optional<TemperatureConstant> temperatureConstant;     // default: from the winding material
@@ -73,7 +76,14 @@ struct SessionSummary {
     std::vector<NoteRecord> notes;
     std::vector<SafetyStopRecord> safetyStops;
     std::vector<SignOffRecord> signOffs;
-    ReviewOptions options;                   // as given
+    ReviewOptions options;                   // as used: the options given, gaps filled from the record
+    DecisionRule rule = DecisionRule::GuardedAcceptance; // the decision rule used
+    // Where each choice came from (option, session record or default).
+    SettingSource ruleSource = SettingSource::Default;
+    SettingSource regulationLimitSource = SettingSource::Default;
+    SettingSource referenceTemperatureSource = SettingSource::Default;
+    SettingSource temperatureConstantSource = SettingSource::Default;
+    RecordedAnalysisSettings recordedSettings; // the latest record and notices about bad ones
     FitSummary fit;                          // fitReadings(readings, options.method)
     std::optional<AnalysisResult> analysis;  // when the setup parsed and the fit is ok
     std::string analysisProblem;             // why there is no analysis, "" when there is
@@ -87,6 +97,11 @@ struct SessionSummary {
     // The reason of the latest exclusion row of a reading, "" when it has none.
     std::string exclusionReason(std::int64_t readingId) const;
 };
+
+// One line for reports: each judging choice used and where it came from, e.g. "decision rule
+// simple (session record); regulation limit 5 % (session record); reference temperature 75 °C
+// (default); temperature constant per winding material (default)".
+std::string describeSettingsUsed(const SessionSummary &summary);
 
 StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const ReviewOptions &options = {});
 // Opens `path` for review (read-only, untrusted) and summarizes it.

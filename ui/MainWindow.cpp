@@ -74,6 +74,9 @@ MainWindow::MainWindow(QWidget *parent)
     m_resultsTimer.setSingleShot(true);
     m_resultsTimer.setInterval(100);
     connect(&m_resultsTimer, &QTimer::timeout, this, &MainWindow::refreshFitViews);
+    m_settingsTimer.setSingleShot(true);
+    m_settingsTimer.setInterval(1000);
+    connect(&m_settingsTimer, &QTimer::timeout, this, &MainWindow::storeAnalysisSettings);
     readSettings();
     applyColourScheme();
     handleSetupChanged();
@@ -144,6 +147,10 @@ void MainWindow::wireWorkspace()
 {
     connect(m_setupForm, &SetupForm::changed, this, &MainWindow::handleSetupChanged);
     connect(m_setupForm, &SetupForm::verdictChanged, this, &MainWindow::refreshFitViews);
+    connect(m_setupForm, &SetupForm::verdictChanged, this, [this] {
+        if (m_workspace->store())
+            m_settingsTimer.start();
+    });
     connect(m_workspace, &SweepWorkspace::planChanged, this, &MainWindow::handlePlanChanged);
     connect(m_planPanel, &PlanPanel::acceptRequested, this, &MainWindow::handleAccept);
     connect(m_nextStep, &NextStepStrip::recordRequested, this, &MainWindow::handleRecord);
@@ -222,12 +229,21 @@ void MainWindow::handleAccept()
         return;
     }
     rememberRecent(m_workspace->sessionPath());
+    storeAnalysisSettings(); // the new session is judged as the screen judges it
     m_planPanel->setAccepted(true);
     m_setupForm->setLocked(true);
     m_instruments->setLocked(true);
     m_caution->clearAlarm();
     if (m_workspace->isTypedIn())
         m_nextStep->clearEntry();
+}
+
+void MainWindow::storeAnalysisSettings()
+{
+    m_settingsTimer.stop();
+    const QString problem = m_workspace->recordAnalysisSettings(m_setupForm->verdictSettings());
+    if (!problem.isEmpty())
+        showMessage(problem, true);
 }
 
 void MainWindow::handleRecord()

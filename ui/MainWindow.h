@@ -77,6 +77,7 @@ private:
     void handleSetupChanged();
     void handlePlanChanged();
     void handleAccept();
+    void storeAnalysisSettings(); // the verdict settings into the open session (a note)
     void handleRecord();
     void handleReadingRecorded(int row);
     void handleReadingChanged(int row);
@@ -123,6 +124,7 @@ private:
     QString m_sessionFolder;
     QString m_lastMessage;
     QTimer m_resultsTimer;
+    QTimer m_settingsTimer; // stores the verdict settings once typing pauses, not per keystroke
     bool m_resultsPending = false;
 };
 

@@ -176,6 +176,9 @@ bool MainWindow::openSessionFile(const QString &path)
     }
     if (m_workspace->setup())
         m_setupForm->loadSetup(*m_workspace->setup());
+    m_settingsTimer.stop(); // edits meant for the session closed above are not written into this one
+    if (const auto &recorded = m_workspace->recordedAnalysisSettings())
+        m_setupForm->setVerdictSettings(verdictSettingsFrom(*recorded)); // judge as it was judged at the bench
     m_setupForm->setLocked(true);
     m_instruments->setLocked(true);
     for (int row = 0; row < static_cast<int>(m_workspace->readings().size()); ++row)

@@ -105,6 +105,11 @@ void drawResultsAndVerdict(ReportCanvas &canvas, const SessionSummary &summary)
     canvas.paragraph(fitLine, 8.0);
 
     canvas.heading(QStringLiteral("Verdict"));
+    // Which choices judged this session and where each came from, so a reader can tell a
+    // printed verdict from one judged otherwise on screen.
+    canvas.paragraph(QStringLiteral("Judged with: %1.").arg(q(describeSettingsUsed(summary))), 8.0);
+    for (const std::string &notice : summary.recordedSettings.notices)
+        canvas.paragraph(q(notice), 8.0, true);
     if (!summary.decision) {
         canvas.framedText(QStringLiteral("NO VERDICT"),
                           summary.analysis ? QStringLiteral("The nameplate gives no regulation to judge against.")

@@ -99,8 +99,11 @@ QString writeReviewPdf(const std::vector<const SessionRow *> &rows, const Compar
 {
     ReviewOptions review;
     review.method = options.method;
-    review.rule = options.figures.rule;
-    review.regulationLimitPercent = options.figures.regulationLimitPercent;
+    // What the reviewer left open comes from each session's analysis-settings record.
+    if (options.ruleChosen)
+        review.rule = options.figures.rule;
+    if (options.limitChosen)
+        review.regulationLimitPercent = options.figures.regulationLimitPercent;
     review.referenceTemperatureC = options.figures.referenceTemperatureC;
     std::vector<SessionSummary> summaries;
     for (const SessionRow *row : rows) {

@@ -1,5 +1,6 @@
 #include "SetupForm.h"
 
+#include "AnalysisSettingsRecord.h"
 #include "QuantityField.h"
 #include "UiFormat.h"
 
@@ -208,6 +209,26 @@ VerdictSettings SetupForm::verdictSettings() const
     if (constant >= 0)
         settings.constant = static_cast<TemperatureConstant>(constant);
     return settings;
+}
+
+VerdictSettings verdictSettingsFrom(const AnalysisSettings &settings)
+{
+    const auto text = [](const std::optional<double> &value) {
+        return value ? QString::number(*value, 'g', 12) : QString();
+    };
+    return {text(settings.regulationLimitPercent), settings.rule, text(settings.referenceTemperatureC),
+            settings.temperatureConstant};
+}
+
+void SetupForm::setVerdictSettings(const VerdictSettings &settings)
+{
+    const QSignalBlocker blockRule(m_decisionRule);
+    const QSignalBlocker blockConstant(m_temperatureConstant);
+    m_fields.value(QStringLiteral("verdict.regulation_limit_percent"))->setText(settings.regulationLimit);
+    m_fields.value(QStringLiteral("verdict.reference_temperature_c"))->setText(settings.referenceTemperature);
+    m_decisionRule->setCurrentIndex(m_decisionRule->findData(int(settings.rule)));
+    m_temperatureConstant->setCurrentIndex(
+        m_temperatureConstant->findData(settings.constant ? int(*settings.constant) : -1));
 }
 
 void SetupForm::setSessionDetails(const SessionDetails &details)

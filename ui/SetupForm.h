@@ -38,6 +38,10 @@ struct VerdictSettings {
     std::optional<TemperatureConstant> constant;   // none = per winding material
 };
 
+struct AnalysisSettings;
+// The form's text for stored settings (numbers in the fields' units: %, °C).
+VerdictSettings verdictSettingsFrom(const AnalysisSettings &settings);
+
 class SetupForm : public QWidget {
     Q_OBJECT
 public:
@@ -50,6 +54,8 @@ public:
     SessionDetails sessionDetails() const;
     VerdictSettings verdictSettings() const;
     void setSessionDetails(const SessionDetails &details);
+    // Shows stored verdict settings (an opened session's record) without emitting verdictChanged.
+    void setVerdictSettings(const VerdictSettings &settings);
 
     // Shows each error under its field; errors naming no field of this form are listed at
     // the top. An empty list clears every message.

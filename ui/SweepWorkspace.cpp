@@ -101,6 +101,7 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
         return QString::fromStdString(created.message);
     m_run.reset();
     m_store = std::move(created.value);
+    m_recordedSettings.reset();
     m_details = details;
     m_source = source;
     resetReadings();
@@ -194,6 +195,7 @@ QString SweepWorkspace::openSession(const QString &path)
 {
     m_run.reset();
     m_store.reset();
+    m_recordedSettings.reset();
     resetReadings();
     m_paused = false;
     emit runningChanged(false);
@@ -211,6 +213,13 @@ QString SweepWorkspace::openSession(const QString &path)
     if (!readings.ok())
         return QString::fromStdString(readings.message);
     m_store = std::move(opened.value);
+    m_recordedSettings.reset();
+    if (const auto notes = m_store->notes(); notes.ok()) {
+        const RecordedAnalysisSettings recorded = latestAnalysisSettings(notes.value);
+        m_recordedSettings = recorded.settings;
+        for (const std::string &text : recorded.notices)
+            emit notice(QString::fromStdString(text));
+    }
     m_details.operatorName = QString::fromStdString(info.value.operatorName);
     m_details.unitSerial = QString::fromStdString(info.value.unitSerial);
     setSetupJson(QString::fromStdString(info.value.setupJson));
@@ -274,6 +283,46 @@ QString SweepWorkspace::addNote(const QString &text)
     const QString author = operatorName().isEmpty() ? tr("operator") : operatorName();
     const auto result = m_store->addNote(author.toStdString(), text.trimmed().toStdString());
     return result.ok() ? QString() : QString::fromStdString(result.message);
+}
+
+QString SweepWorkspace::recordAnalysisSettings(const VerdictSettings &verdict)
+{
+    if (!m_store || m_store->isReadOnly())
+        return {};
+    AnalysisSettings settings;
+    settings.rule = verdict.rule;
+    settings.temperatureConstant = verdict.constant;
+    // Typed values are read by core's parser, as the results panel reads them.
+    const auto typed = [](const QString &text, Unit unit, const char *field, std::optional<double> &into) -> QString {
+        if (text.trimmed().isEmpty())
+            return {};
+        const auto parsed = parseQuantity(text.trimmed().toStdString(), unit);
+        if (!parsed.ok)
+            return QString::fromLatin1(field) + QStringLiteral(": not stored in the session, ")
+                   + QString::fromStdString(parsed.error);
+        into = parsed.value;
+        return {};
+    };
+    if (QString problem = typed(verdict.regulationLimit, Unit::Percent, "verdict.regulation_limit_percent",
+                                settings.regulationLimitPercent);
+        !problem.isEmpty())
+        return problem;
+    if (QString problem = typed(verdict.referenceTemperature, Unit::Celsius, "verdict.reference_temperature_c",
+                                settings.referenceTemperatureC);
+        !problem.isEmpty())
+        return problem;
+    if (m_recordedSettings == settings)
+        return {};
+    // Only what a reader will accept is stored (e.g. a limit above zero).
+    const std::string text = analysisSettingsNoteText(settings);
+    if (const AnalysisSettingsParse check = parseAnalysisSettings(text); !check.settings)
+        return QStringLiteral("verdict.") + QString::fromStdString(check.errors.front().message())
+               + QStringLiteral(" (not stored in the session)");
+    const auto result = m_store->addNote(analysisSettingsNoteAuthor, text);
+    if (!result.ok())
+        return QString::fromStdString(result.message);
+    m_recordedSettings = settings;
+    return {};
 }
 
 void SweepWorkspace::acceptRecorded(const Reading &reading)

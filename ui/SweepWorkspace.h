@@ -5,6 +5,7 @@
 // only shows what this class reports; it never computes.
 #pragma once
 
+#include "AnalysisSettingsRecord.h"
 #include "BackgroundFit.h"
 #include "FieldError.h"
 #include "FitSummary.h"
@@ -74,6 +75,13 @@ public:
     QString exclude(int row, const QString &reason);
     QString restore(int row, const QString &reason);
     QString addNote(const QString &text);
+    // Stores how results are judged in the open session (an analysis-settings note, see
+    // core/AnalysisSettingsRecord.h) when it differs from the settings last stored or read.
+    // "" when stored or nothing to do (no session, read-only, unchanged); else why not
+    // (a typed value that does not parse is not stored, naming its field).
+    QString recordAnalysisSettings(const VerdictSettings &settings);
+    // The session's latest readable record (read on open, updated on each write).
+    const std::optional<AnalysisSettings> &recordedAnalysisSettings() const { return m_recordedSettings; }
     QString operatorName() const { return m_details.operatorName; }
 
     const std::vector<Reading> &readings() const { return m_readings; }
@@ -132,6 +140,7 @@ private:
     bool m_paused = false;
     bool m_simulatedTime = false;
     std::optional<double> m_nextCurrentA;
+    std::optional<AnalysisSettings> m_recordedSettings;
 };
 
 } // namespace sagline

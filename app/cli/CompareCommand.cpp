@@ -113,11 +113,13 @@ std::string parseArguments(const Arguments &args, Options &options)
             if (!value(text) || (text != "iec" && text != "ieee"))
                 return "--convention must be iec (copper 235 °C, IEC 60076-1) or ieee (copper 234.5 °C, IEEE C57.12.90)";
             options.comparison.figures.copperConstant = text == "iec" ? TemperatureConstant::CopperIec : TemperatureConstant::CopperIeee;
+            options.comparison.constantChosen = true;
         } else if (arg == "--rule") {
             const auto rule = value(text) ? decisionRuleFromString(text) : std::nullopt;
             if (!rule)
                 return "--rule must be guarded or simple (ILAC-G8:09/2019 decision rules)";
             options.comparison.figures.rule = *rule;
+            options.comparison.ruleChosen = true;
         } else if (!arg.empty() && arg[0] == '-') {
             return "unknown option '" + arg + "'";
         } else {
@@ -189,10 +191,16 @@ void printSummary(const std::vector<SessionRow> &rows, const BatchStatistics &st
         out << ", median " << formatQuantity(*stats.medianOhm, "Ω") << ", range " << formatQuantity(*stats.minOhm, "Ω")
             << " to " << formatQuantity(*stats.maxOhm, "Ω") << " (" << stats.resistanceCount << " units)\n";
     }
+    // Sessions judged by their own recorded rule may differ; then the table's rule column says which.
     std::string ruleName;
-    for (const auto &row : rows)
-        if (ruleName.empty() && row.opened)
+    for (const auto &row : rows) {
+        if (!row.opened)
+            continue;
+        if (ruleName.empty())
             ruleName = row.figures.ruleName;
+        else if (ruleName != row.figures.ruleName)
+            ruleName = "each session's recorded rule";
+    }
     out << "  Verdicts on regulation against the nameplate (" << (ruleName.empty() ? toString(options.figures.rule) : ruleName)
         << "):\n    pass " << stats.pass << ", fail " << stats.fail << ", cannot decide " << stats.undecided << ", n/a "
         << stats.noVerdict << '\n';

@@ -29,7 +29,7 @@ struct FitArguments {
     FitMethod method = FitMethod::Ols;
     bool json = false;
     std::string setupPath;
-    DecisionRule rule = DecisionRule::GuardedAcceptance;
+    std::optional<DecisionRule> rule;  // default: a session's analysis-settings record, else guarded
     std::optional<double> regulationLimit;
     std::optional<double> windingTemperatureC;
     std::optional<double> referenceTemperatureC;
@@ -115,7 +115,7 @@ bool endsWith(const std::string &text, const std::string &suffix)
 
 // Loads the readings (and a session's setup). Returns an exit code on failure.
 std::optional<int> loadData(const FitArguments &args, std::vector<Reading> &readings, FitReport &report,
-                            std::optional<Setup> &setup)
+                            std::optional<Setup> &setup, std::optional<AnalysisSettings> &recorded)
 {
     if (endsWith(args.dataPath, ".sagline")) {
         auto store = SessionStore::openForReview(args.dataPath);
@@ -130,6 +130,15 @@ std::optional<int> loadData(const FitArguments &args, std::vector<Reading> &read
             return exitRuntimeFailure;
         }
         readings = std::move(stored.value);
+        if (const auto notes = store.value->notes(); notes.ok()) {
+            const RecordedAnalysisSettings latest = latestAnalysisSettings(notes.value);
+            for (const std::string &notice : latest.notices)
+                report.warnings.push_back(notice);
+            recorded = latest.settings;
+        } else {
+            report.warnings.push_back("the session's notes could not be read (" + notes.message
+                                      + "); judged with the options and defaults");
+        }
         const SetupParse parsed = parseSetupJson(info.value.setupJson);
         if (parsed.setup)
             setup = parsed.setup;
@@ -163,7 +172,8 @@ int runFit(const Arguments &arguments)
     report.source = args.dataPath;
     std::vector<Reading> readings;
     std::optional<Setup> setup;
-    if (const auto code = loadData(args, readings, report, setup))
+    std::optional<AnalysisSettings> recorded;
+    if (const auto code = loadData(args, readings, report, setup, recorded))
         return *code;
     if (!args.setupPath.empty()) {
         const SetupParse parsed = loadSetupFile(args.setupPath);
@@ -188,28 +198,49 @@ int runFit(const Arguments &arguments)
         }
         return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + message);
     }
-    report.warnings = fitWarnings(report.fit, report.lineNumbers);
+    for (std::string &warning : fitWarnings(report.fit, report.lineNumbers))
+        report.warnings.push_back(std::move(warning));
 
+    // Options first, then the session's record, then the defaults. The record's reference
+    // temperature is not used: the fit command refers R only to a winding temperature given here.
+    const auto sourceOf = [&](bool given, bool inRecord) {
+        return given ? SettingSource::Option : inRecord ? SettingSource::SessionRecord : SettingSource::Default;
+    };
+    report.ruleSource = sourceOf(args.rule.has_value(), recorded.has_value());
+    report.regulationLimitSource = sourceOf(args.regulationLimit.has_value(), recorded && recorded->regulationLimitPercent);
+    report.temperatureConstantSource =
+        sourceOf(args.temperatureConstant.has_value(), recorded && recorded->temperatureConstant);
+    DecisionRule rule = DecisionRule::GuardedAcceptance;
+    std::optional<double> limit = args.regulationLimit;
+    std::optional<TemperatureConstant> constant = args.temperatureConstant;
+    if (recorded) {
+        rule = recorded->rule;
+        if (!limit)
+            limit = recorded->regulationLimitPercent;
+        if (!constant)
+            constant = recorded->temperatureConstant;
+    }
+    if (args.rule)
+        rule = *args.rule;
     if (setup) {
         AnalysisInput input = analysisInputFor(setup->nameplate);
         input.windingTemperatureC = args.windingTemperatureC;
         input.referenceTemperatureC = args.referenceTemperatureC;
-        if (args.temperatureConstant)
-            input.temperatureConstant = *args.temperatureConstant;
+        if (constant)
+            input.temperatureConstant = *constant;
         report.analysis = analyseFit(report.fit, input);
         if (!report.analysis->ok()) {
             for (const FieldError &e : report.analysis->errors)
                 report.warnings.push_back("no analysis at rated current: " + e.message());
         }
-        report.regulationLimitPercent = args.regulationLimit ? args.regulationLimit
-                                                             : nameplateRegulationPercent(setup->nameplate);
+        report.regulationLimitPercent = limit ? limit : nameplateRegulationPercent(setup->nameplate);
     } else if (args.regulationLimit || args.windingTemperatureC) {
         return invalid("--regulation-limit and the temperatures need the nameplate: give --setup SETUP.json or a session");
     }
     if (report.analysis && report.analysis->ok() && report.regulationLimitPercent) {
         const UncertainValue &reg = report.analysis->regulationPercent;
         report.decision = decideAgainstUpperLimit(reg.value, reg.expandedUncertainty, *report.regulationLimitPercent,
-                                                  args.rule);
+                                                  rule);
         if (!reg.expandedUncertainty)
             report.warnings.push_back("the regulation has no uncertainty: the fit has too few points to give one");
     }

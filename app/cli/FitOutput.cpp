@@ -146,6 +146,10 @@ nlohmann::json fitReportJson(const FitReport &report)
                         {"regulation_limit_percent", d.upperLimit}, {"acceptance_limit_percent", d.acceptanceLimit},
                         {"explanation", d.explanation}};
     }
+    if (report.analysis)
+        j["settings_source"] = {{"rule", toString(report.ruleSource)},
+                                {"regulation_limit", toString(report.regulationLimitSource)},
+                                {"temperature_constant", toString(report.temperatureConstantSource)}};
     j["warnings"] = report.warnings;
     return j;
 }
@@ -211,6 +215,9 @@ void printFitReport(const FitReport &report, std::ostream &out)
         row("", d.explanation);
         row("", "Decision rule: " + d.ruleName);
     }
+    if (report.analysis)
+        row("Settings from", "rule: " + toString(report.ruleSource) + "; limit: " + toString(report.regulationLimitSource)
+                                 + "; temperature constant: " + toString(report.temperatureConstantSource));
     if (!report.warnings.empty()) {
         out << "\nWarnings:\n";
         for (const auto &w : report.warnings)

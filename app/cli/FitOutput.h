@@ -1,6 +1,7 @@
 // Output of `sagline-cli fit`: the JSON object of DESIGN.md and the aligned human summary.
 #pragma once
 
+#include "AnalysisSettingsRecord.h"
 #include "ConformityDecision.h"
 #include "FitSummary.h"
 #include "ResultAnalysis.h"
@@ -23,6 +24,10 @@ struct FitReport {
     std::optional<double> regulationLimitPercent;
     std::optional<ConformityDecision> decision;
     std::vector<std::string> warnings;
+    // Where the judging choices came from (shown when there is a nameplate).
+    SettingSource ruleSource = SettingSource::Default;
+    SettingSource regulationLimitSource = SettingSource::Default;
+    SettingSource temperatureConstantSource = SettingSource::Default;
 };
 
 // Warnings a reader should see: bending, outliers, scatter beyond the stated uncertainties.

@@ -133,6 +133,11 @@ int runReport(const Arguments &args)
         std::cerr << "sagline-cli report: " << problem.toStdString() << '\n';
         return exitRuntimeFailure;
     }
+    for (const std::string &notice : summary.value.recordedSettings.notices)
+        std::cerr << "sagline-cli report: note: " << notice << '\n';
+    std::cout << "Judged with: " << describeSettingsUsed(summary.value) << '\n';
+    if (const auto &d = summary.value.decision; d && d->ok)
+        std::cout << "Verdict on regulation: " << toString(d->outcome) << " (" << d->ruleName << ")\n";
     std::cout << "Wrote " << outputPath << '\n';
     return exitSuccess;
 }
