@@ -2,6 +2,7 @@
 
 #include "ConformityDecision.h"
 #include "ResultAnalysis.h"
+#include "TypedValue.h"
 #include "UiFormat.h"
 #include "UncertaintyFormat.h"
 
@@ -24,14 +25,11 @@ QString uNote(const UncertainValue &value, double k)
 // A typed value in `unit`, or nothing when blank; `error` gets the rule when unreadable.
 std::optional<double> typed(const QString &text, Unit unit, const QString &field, QStringList &errors)
 {
-    if (text.trimmed().isEmpty())
-        return std::nullopt;
-    const auto parsed = parseQuantity(text.toStdString(), unit);
-    if (!parsed.ok) {
-        errors << field + QStringLiteral(": ") + QString::fromStdString(parsed.error);
-        return std::nullopt;
-    }
-    return parsed.value;
+    QString error;
+    const auto value = typedQuantity(text, unit, field, &error);
+    if (!error.isEmpty())
+        errors << error;
+    return value;
 }
 
 void addBatchLines(const FitSummary &batch, std::size_t n, QList<ResultLine> &lines)

@@ -9,6 +9,7 @@
 #include "SessionSummary.h"
 #include "SetupForm.h"
 #include "SweepWorkspace.h"
+#include "TypedValue.h"
 #include "Units.h"
 
 #include <QDateTime>
@@ -19,14 +20,6 @@
 namespace sagline {
 
 namespace {
-
-std::optional<double> typedValue(const QString &text, Unit unit)
-{
-    if (text.trimmed().isEmpty())
-        return std::nullopt;
-    const auto parsed = parseQuantity(text.toStdString(), unit);
-    return parsed.ok ? std::optional<double>(parsed.value) : std::nullopt;
-}
 
 QString suggestedPath(const QString &sessionPath, const QString &suffix)
 {
@@ -86,8 +79,8 @@ QString MainWindow::writeReport(const QString &pdfPath)
     const VerdictSettings verdict = m_setupForm->verdictSettings();
     ReviewOptions options;
     options.rule = verdict.rule;
-    options.regulationLimitPercent = typedValue(verdict.regulationLimit, Unit::Percent);
-    options.referenceTemperatureC = typedValue(verdict.referenceTemperature, Unit::Celsius);
+    options.regulationLimitPercent = typedQuantity(verdict.regulationLimit, Unit::Percent);
+    options.referenceTemperatureC = typedQuantity(verdict.referenceTemperature, Unit::Celsius);
     options.temperatureConstant = verdict.constant;
     const auto summary = summarizeSession(*store, options);
     if (!summary.ok())

@@ -6,6 +6,7 @@
 #include "SessionStore.h"
 #include "SetupJson.h"
 #include "SweepRun.h"
+#include "TypedValue.h"
 #include "Units.h"
 
 #include <QDateTime>
@@ -26,19 +27,6 @@ constexpr qint64 summaryIntervalMs = 1000;
 bool entersFit(const Reading &reading)
 {
     return !reading.excluded && (reading.flags & (flagOverload | flagNotANumber)) == 0;
-}
-
-// "12 °C" -> value; blank -> none; unreadable -> the error naming the field.
-std::optional<double> temperature(const QString &text, const char *field, QString *error)
-{
-    if (text.trimmed().isEmpty())
-        return std::nullopt;
-    const auto parsed = parseQuantity(text.toStdString(), Unit::Celsius);
-    if (!parsed.ok) {
-        *error = QString::fromLatin1(field) + QStringLiteral(": ") + QString::fromStdString(parsed.error);
-        return std::nullopt;
-    }
-    return parsed.value;
 }
 
 } // namespace
@@ -77,8 +65,8 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
     if (m_store && !m_readings.empty())
         return tr("session: this session already holds readings; start a new session (File, New session)");
     QString error;
-    const auto ambient = temperature(details.ambientTemperature, "session.ambient_temperature_c", &error);
-    const auto winding = temperature(details.windingTemperature, "session.winding_temperature_c", &error);
+    const auto ambient = typedQuantity(details.ambientTemperature, Unit::Celsius, QStringLiteral("session.ambient_temperature_c"), &error);
+    const auto winding = typedQuantity(details.windingTemperature, Unit::Celsius, QStringLiteral("session.winding_temperature_c"), &error);
     if (!error.isEmpty())
         return error;
     if (!QDir().mkpath(sessionFolder))
@@ -292,25 +280,16 @@ QString SweepWorkspace::recordAnalysisSettings(const VerdictSettings &verdict)
     AnalysisSettings settings;
     settings.rule = verdict.rule;
     settings.temperatureConstant = verdict.constant;
-    // Typed values are read by core's parser, as the results panel reads them.
-    const auto typed = [](const QString &text, Unit unit, const char *field, std::optional<double> &into) -> QString {
-        if (text.trimmed().isEmpty())
-            return {};
-        const auto parsed = parseQuantity(text.trimmed().toStdString(), unit);
-        if (!parsed.ok)
-            return QString::fromLatin1(field) + QStringLiteral(": not stored in the session, ")
-                   + QString::fromStdString(parsed.error);
-        into = parsed.value;
-        return {};
-    };
-    if (QString problem = typed(verdict.regulationLimit, Unit::Percent, "verdict.regulation_limit_percent",
-                                settings.regulationLimitPercent);
-        !problem.isEmpty())
-        return problem;
-    if (QString problem = typed(verdict.referenceTemperature, Unit::Celsius, "verdict.reference_temperature_c",
-                                settings.referenceTemperatureC);
-        !problem.isEmpty())
-        return problem;
+    // Read by core's parser, as the results panel reads them; what does not read is not stored.
+    for (const auto &[text, unit, field, into] :
+         {std::tuple{verdict.regulationLimit, Unit::Percent, "verdict.regulation_limit_percent", &settings.regulationLimitPercent},
+          std::tuple{verdict.referenceTemperature, Unit::Celsius, "verdict.reference_temperature_c",
+                     &settings.referenceTemperatureC}}) {
+        QString problem;
+        *into = typedQuantity(text, unit, {}, &problem);
+        if (!problem.isEmpty())
+            return QString::fromLatin1(field) + QStringLiteral(": not stored in the session, ") + problem;
+    }
     if (m_recordedSettings == settings)
         return {};
     // Only what a reader will accept is stored (e.g. a limit above zero).
