@@ -25,8 +25,6 @@ void DisplayPoints::insert(std::int64_t id, double currentA, double voltageV, bo
     }
     m_minVoltage = std::min(m_minVoltage, voltageV);
     m_maxVoltage = std::max(m_maxVoltage, voltageV);
-    if (!excluded)
-        ++m_includedCount;
 }
 
 bool DisplayPoints::setExcluded(std::int64_t id, bool excluded)
@@ -36,7 +34,6 @@ bool DisplayPoints::setExcluded(std::int64_t id, bool excluded)
             continue;
         if (entry.excluded != excluded) {
             entry.excluded = excluded;
-            m_includedCount = excluded ? m_includedCount - 1 : m_includedCount + 1;
             rebuildIncluded(); // rare (a person excluding a point): O(n) is fine
         }
         return true;
@@ -48,7 +45,6 @@ void DisplayPoints::clear()
 {
     m_points.clear();
     m_included.clear();
-    m_includedCount = 0;
     m_minVoltage = std::numeric_limits<double>::infinity();
     m_maxVoltage = -std::numeric_limits<double>::infinity();
 }
@@ -65,7 +61,7 @@ void DisplayPoints::rebuildIncluded()
 std::vector<PlotPoint> DisplayPoints::collect(bool excluded, const std::function<double(double, double)> &y) const
 {
     std::vector<PlotPoint> out;
-    out.reserve(excluded ? m_points.size() - m_includedCount : m_includedCount);
+    out.reserve(excluded ? m_points.size() - m_included.size() : m_included.size());
     for (const auto &entry : m_points) {
         if (entry.excluded == excluded)
             out.push_back({entry.current, y ? y(entry.current, entry.voltage) : entry.voltage});
@@ -74,5 +70,14 @@ std::vector<PlotPoint> DisplayPoints::collect(bool excluded, const std::function
 }
 
 double DisplayPoints::maxCurrent() const { return m_points.empty() ? 0.0 : m_points.back().current; }
+
+QList<QPointF> toQtPoints(std::span<const PlotPoint> points)
+{
+    QList<QPointF> out;
+    out.reserve(static_cast<qsizetype>(points.size()));
+    for (const auto &p : points)
+        out.append(QPointF(p.x, p.y));
+    return out;
+}
 
 } // namespace sagline

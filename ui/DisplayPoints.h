@@ -5,6 +5,9 @@
 
 #include "Downsample.h"
 
+#include <QList>
+#include <QPointF>
+
 #include <cstdint>
 #include <functional>
 #include <limits>
@@ -16,6 +19,8 @@ namespace sagline {
 // How many points a chart draws: about one per pixel column of its plot area (more cannot be
 // told apart, and the markers overlap long before), never fewer than a readable minimum.
 std::size_t drawnPointBudget(double plotWidthPx);
+// The points as a chart series takes them.
+QList<QPointF> toQtPoints(std::span<const PlotPoint> points);
 
 class DisplayPoints {
 public:
@@ -24,7 +29,6 @@ public:
     bool setExcluded(std::int64_t id, bool excluded); // false when the id is unknown
     void clear();
     std::size_t size() const { return m_points.size(); }
-    std::size_t includedCount() const { return m_includedCount; }
 
     // Included or excluded points in current order, mapped through `y` (identity: V).
     std::vector<PlotPoint> collect(bool excluded, const std::function<double(double, double)> &y = {}) const;
@@ -46,7 +50,6 @@ private:
 
     std::vector<Entry> m_points;
     std::vector<PlotPoint> m_included; // the included entries' (I, V), same order
-    std::size_t m_includedCount = 0;
     // Kept as points arrive: a refresh must not walk 100 000 points to size an axis.
     double m_minVoltage = std::numeric_limits<double>::infinity();
     double m_maxVoltage = -std::numeric_limits<double>::infinity();

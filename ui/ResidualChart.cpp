@@ -172,15 +172,8 @@ void ResidualChart::flushNow()
         applySpan(m_axisX, {std::max(0.0, x.low), x.high});
         m_x = {m_axisX->min(), m_axisX->max()};
     }
-    const auto toQt = [](const std::vector<PlotPoint> &points) {
-        QList<QPointF> out;
-        out.reserve(static_cast<qsizetype>(points.size()));
-        for (const auto &p : points)
-            out.append(QPointF(p.x, p.y));
-        return out;
-    };
-    m_included->replace(toQt(included));
-    m_excluded->replace(toQt(excluded));
+    m_included->replace(toQtPoints(included));
+    m_excluded->replace(toQtPoints(excluded));
     m_zero->replace({QPointF(m_x.low, 0.0), QPointF(m_x.high, 0.0)});
     const double guide = 2.0 * m_residualSdV * millivoltsPerVolt;
     if (guide > 0.0) {

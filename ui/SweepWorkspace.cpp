@@ -201,7 +201,6 @@ QString SweepWorkspace::openSession(const QString &path)
     if (!readings.ok())
         return QString::fromStdString(readings.message);
     m_store = std::move(opened.value);
-    m_recordedSettings.reset();
     if (const auto notes = m_store->notes(); notes.ok()) {
         const RecordedAnalysisSettings recorded = latestAnalysisSettings(notes.value);
         m_recordedSettings = recorded.settings;

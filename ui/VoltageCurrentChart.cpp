@@ -20,18 +20,9 @@ namespace {
 constexpr int markerPx = 9;
 constexpr int unsafeGridPoints = 160;
 
-QList<QPointF> toQt(std::span<const PlotPoint> points)
-{
-    QList<QPointF> out;
-    out.reserve(static_cast<qsizetype>(points.size()));
-    for (const auto &p : points)
-        out.append(QPointF(p.x, p.y));
-    return out;
-}
-
 QList<QPointF> thinned(std::span<const PlotPoint> points, std::size_t limit)
 {
-    return points.size() > limit ? toQt(lttbDownsample(points, limit)) : toQt(points);
+    return points.size() > limit ? toQtPoints(lttbDownsample(points, limit)) : toQtPoints(points);
 }
 
 } // namespace
