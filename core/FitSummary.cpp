@@ -328,4 +328,23 @@ LinePrediction predictVoltage(const FitSummary &summary, double currentA, std::o
     return p;
 }
 
+FitSummary summaryOfLiveFit(const LineFit &live)
+{
+    const LineFitResult r = live.result();
+    FitSummary summary;
+    summary.status = r.status;
+    summary.message = r.message;
+    summary.method = FitMethod::Ols;
+    summary.n = r.n;
+    summary.degreesOfFreedom = r.degreesOfFreedom;
+    summary.slope = r.slope;
+    summary.intercept = r.intercept;
+    summary.slopeSe = r.slopeSe;
+    summary.interceptSe = r.interceptSe;
+    summary.covariance = r.covariance;
+    summary.residualSdV = r.residualSd;
+    summary.rSquared = r.rSquared;
+    return summary;
+}
+
 } // namespace sagline

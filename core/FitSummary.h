@@ -89,6 +89,11 @@ struct FitSummary {
 // Degenerate input gives a status and a message, never NaN and never a throw.
 FitSummary fitReadings(const std::vector<Reading> &readings, FitMethod method, const FitOptions &options = {});
 
+// The live (O(1), ordinary least squares) fit as a FitSummary: line, standard errors,
+// covariance, residual SD and R², without per-point results, so analyseFit can run on every
+// point as it arrives.
+FitSummary summaryOfLiveFit(const LineFit &live);
+
 // The fitted voltage at a current, with the interval where the line lies and where one new
 // reading is expected (Student t, n - 2 dof, at summary.confidence). uNewReadingV is the
 // standard uncertainty of that reading; absent, the residual SD is used (OLS practice).

@@ -51,25 +51,6 @@ void addBatchLines(const FitSummary &batch, std::size_t n, QList<ResultLine> &li
 
 } // namespace
 
-FitSummary liveFitSummary(const LineFit &live)
-{
-    const LineFitResult r = live.result();
-    FitSummary summary;
-    summary.status = r.status;
-    summary.message = r.message;
-    summary.method = FitMethod::Ols;
-    summary.n = r.n;
-    summary.degreesOfFreedom = r.degreesOfFreedom;
-    summary.slope = r.slope;
-    summary.intercept = r.intercept;
-    summary.slopeSe = r.slopeSe;
-    summary.interceptSe = r.interceptSe;
-    summary.covariance = r.covariance;
-    summary.residualSdV = r.residualSd;
-    summary.rSquared = r.rSquared;
-    return summary;
-}
-
 ResultsView resultsView(const ResultsInputs &in)
 {
     ResultsView view;
@@ -80,7 +61,7 @@ ResultsView resultsView(const ResultsInputs &in)
         return view;
     }
     QStringList problems;
-    const FitSummary summary = liveFitSummary(*in.live);
+    const FitSummary summary = summaryOfLiveFit(*in.live);
     AnalysisInput input;
     if (in.setup)
         input = analysisInputFor(in.setup->nameplate);

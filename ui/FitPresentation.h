@@ -33,8 +33,6 @@ struct ResultsView {
 };
 
 ResultsView resultsView(const ResultsInputs &inputs);
-// The live fit as a FitSummary (the O(1) statistics only), so analyseFit can run on every point.
-FitSummary liveFitSummary(const LineFit &live);
 // The fitted line and its 95 % confidence band on `grid`, and the prediction at the next step.
 FitOverlay fitOverlay(const LineFit &live, const std::vector<double> &grid, std::optional<double> nextCurrentA);
 // Chart limits from the plan (the unsafe region, rated lines, expected voltage span).

@@ -241,3 +241,26 @@ TEST(FitSummary, PredictionAgreesWithTheLiveFit)
     EXPECT_GT(withU.prediction->high - withU.value, predictVoltage(s, 1.0).prediction->high - withU.value);
     EXPECT_FALSE(predictVoltage(FitSummary{}, 1.0).prediction.has_value());
 }
+
+TEST(FitSummary, TheLiveFitSummaryMatchesTheBatchFit)
+{
+    // Centred running sums (LineFit) against the batch three-pass fit: the same line,
+    // uncertainties and scatter, so results shown while points arrive equal the final ones.
+    const auto readings = randomReadings(15, 9);
+    const FitSummary batch = fitReadings(readings, FitMethod::Ols);
+    LineFit live;
+    for (const auto &r : readings)
+        live.add(r.currentA, r.voltageV);
+    const FitSummary s = summaryOfLiveFit(live);
+    ASSERT_TRUE(s.ok()) << s.message;
+    EXPECT_EQ(s.n, batch.n);
+    EXPECT_EQ(s.degreesOfFreedom, batch.degreesOfFreedom);
+    EXPECT_NEAR(s.slope, batch.slope, 1e-12);
+    EXPECT_NEAR(s.intercept, batch.intercept, 1e-12);
+    EXPECT_NEAR(*s.slopeSe, *batch.slopeSe, 1e-12);
+    EXPECT_NEAR(*s.interceptSe, *batch.interceptSe, 1e-12);
+    EXPECT_NEAR(*s.covariance, *batch.covariance, 1e-12);
+    EXPECT_NEAR(*s.residualSdV, *batch.residualSdV, 1e-12);
+    EXPECT_TRUE(s.points.empty());
+    EXPECT_FALSE(summaryOfLiveFit(LineFit{}).ok());
+}
