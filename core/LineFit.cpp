@@ -17,6 +17,23 @@ bool isDegenerate(double sxx, double weightSum, double maxAbsX)
     return !(variance > noise * noise) || sxx <= 0.0;
 }
 
+// The line from the centred sums, shared by the live and the batch fit; false (with the
+// status and message set) when all x are equal.
+bool setLineFromMoments(LineFitResult &r, double sxx, double sxy, double syy, double weightSum, double maxAbsX)
+{
+    if (isDegenerate(sxx, weightSum, maxAbsX)) {
+        r.status = FitStatus::DegenerateCurrent;
+        r.message = "all currents are equal: the slope (series resistance) cannot be fitted";
+        return false;
+    }
+    r.status = FitStatus::Ok;
+    r.slope = sxy / sxx;
+    r.intercept = r.meanY - r.slope * r.meanX;
+    if (syy > 0.0)
+        r.rSquared = std::clamp(sxy / sxx * sxy / syy, 0.0, 1.0);
+    return true;
+}
+
 } // namespace
 
 bool LineFit::add(double x, double y, double weight)
@@ -103,16 +120,7 @@ LineFitResult LineFit::baseResult() const
         r.degreesOfFreedom = 0;
         return r;
     }
-    if (isDegenerate(m_sxx, m_weightSum, m_maxAbsX)) {
-        r.status = FitStatus::DegenerateCurrent;
-        r.message = "all currents are equal: the slope (series resistance) cannot be fitted";
-        return r;
-    }
-    r.status = FitStatus::Ok;
-    r.slope = m_sxy / m_sxx;
-    r.intercept = m_meanY - r.slope * m_meanX;
-    if (m_syy > 0.0)
-        r.rSquared = std::clamp(m_sxy / m_sxx * m_sxy / m_syy, 0.0, 1.0);
+    setLineFromMoments(r, m_sxx, m_sxy, m_syy, m_weightSum, m_maxAbsX);
     return r;
 }
 
@@ -276,16 +284,8 @@ LineFitResult fitLine(std::span<const double> x, std::span<const double> y)
         r.message = "the values are too large to fit";
         return r;
     }
-    if (isDegenerate(sxx, count, std::max(std::fabs(meanX), std::sqrt(sxx / count)))) {
-        r.status = FitStatus::DegenerateCurrent;
-        r.message = "all currents are equal: the slope (series resistance) cannot be fitted";
+    if (!setLineFromMoments(r, sxx, sxy, syy, count, std::max(std::fabs(meanX), std::sqrt(sxx / count))))
         return r;
-    }
-    r.status = FitStatus::Ok;
-    r.slope = sxy / sxx;
-    r.intercept = meanY - r.slope * meanX;
-    if (syy > 0.0)
-        r.rSquared = std::clamp(sxy / sxx * sxy / syy, 0.0, 1.0);
     if (n < 3)
         return r;
     // Residuals directly: no cancellation when R² is close to 1.
