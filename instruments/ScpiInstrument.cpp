@@ -75,10 +75,17 @@ void ScpiInstrument::handleOpened()
             return;
         }
         if (m_everReady && identity.text() != m_identity.text()) {
-            const QString message = tr("%1: a different instrument answered after reconnecting: was '%2', now '%3'")
+            // Not the meter the sweep started with (its accuracy and calibration are on record):
+            // it is not used; the link stays lost and keeps trying for the original one.
+            const QString message = tr("%1: a different instrument answered after reconnecting and is not used: "
+                                       "expected '%2', got '%3'")
                                         .arg(label(), identityText(), QString::fromStdString(identity.text()));
-            m_errorLog << message;
-            emit instrumentError(message);
+            if (m_errorLog.isEmpty() || m_errorLog.last() != message) {
+                m_errorLog << message;
+                emit instrumentError(message);
+            }
+            failConnect(message);
+            return;
         }
         m_identity = identity;
         QStringList commands;

@@ -212,6 +212,32 @@ TEST(TcpLink, AConnectionThatVanishesIsReportedAndReconnected)
     EXPECT_TRUE(measureOnce(c->instrument.get(), MeterRole::SecondaryCurrent).isValue());
 }
 
+TEST(TcpLink, ADifferentInstrumentAnsweringAfterALossIsNotUsed)
+{
+    // After a loss, whatever answers at the same address must be the meter the sweep began
+    // with: another one (here the same model with another serial number) is refused, said
+    // once, and the link keeps waiting; the original coming back is taken again.
+    SimBench b;
+    TcpEndpoint endpoint(b.bench->ammeter());
+    QString error;
+    ASSERT_TRUE(endpoint.start(0, &error));
+    auto c = connectTo(new TcpLink(QStringLiteral("127.0.0.1"), endpoint.port()), MeterRole::SecondaryCurrent);
+    const QString original = c->instrument->identityText();
+    b.bench->ammeter()->vanish(300);
+    ASSERT_TRUE(waitUntil([&] { return c->lost > 0; }, 2000));
+    b.bench->ammeter()->setSerialNumber(QStringLiteral("SWAPPED-1"));
+    runFor(1500);
+    EXPECT_EQ(c->restored, 0);
+    ASSERT_EQ(c->errors.filter(QStringLiteral("different instrument")).size(), 1) << c->errors.join('\n').toStdString();
+    EXPECT_TRUE(c->errors.last().contains(QStringLiteral("SWAPPED-1"))) << c->errors.last().toStdString();
+    EXPECT_EQ(measureOnce(c->instrument.get(), MeterRole::SecondaryCurrent).status, MeterValue::Status::Failed);
+
+    b.bench->ammeter()->setSerialNumber(original.section(QLatin1Char(','), 2, 2));
+    ASSERT_TRUE(waitUntil([&] { return c->restored > 0; }, 3000));
+    EXPECT_EQ(c->instrument->identityText(), original);
+    EXPECT_TRUE(measureOnce(c->instrument.get(), MeterRole::SecondaryCurrent).isValue());
+}
+
 TEST(TcpLink, NobodyListeningFailsToConnectWithAMessage)
 {
     QTcpServer probe;
