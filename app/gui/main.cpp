@@ -32,8 +32,8 @@ bool hasDisplay()
 
 int main(int argc, char **argv)
 {
-    QElapsedTimer sinceStart; // --startup-probe: from here to the first painted frame
-    sinceStart.start();
+    QElapsedTimer sinceMain; // --startup-probe: also from here to the first painted frame
+    sinceMain.start();
     // --version answers without a display too (bug reports, scripts over ssh).
     if (argc == 2 && (std::strcmp(argv[1], "--version") == 0 || std::strcmp(argv[1], "-v") == 0)) {
         std::printf("sagline %s (commit %s)\n", sagline::buildinfo::version, sagline::buildinfo::gitCommit);
@@ -66,7 +66,8 @@ int main(int argc, char **argv)
     QCommandLineOption folder(QStringLiteral("session-folder"), QStringLiteral("Where new session files go."),
                               QStringLiteral("DIR"));
     QCommandLineOption startupProbe(QStringLiteral("startup-probe"),
-                                    QStringLiteral("Print the milliseconds from start to the first painted window, then quit."));
+                                    QStringLiteral("Print the milliseconds from process start to the first painted window\n"
+                                                   "(with SESSION open and drawn, if given), then quit."));
     parser.addOptions({screenshot, dark, demo, typedDemo, folder, startupProbe});
     parser.addPositionalArgument(QStringLiteral("SESSION"), QStringLiteral("A .sagline session file to open."),
                                  QStringLiteral("[SESSION]"));
@@ -103,7 +104,7 @@ int main(int argc, char **argv)
         return 0;
     }
     if (parser.isSet(startupProbe))
-        sagline::quitAfterFirstPaint(window, sinceStart);
+        sagline::quitAfterFirstPaint(window, sinceMain);
     window.show();
     if (parser.isSet(demo))
         QTimer::singleShot(0, &window, [&window] {
