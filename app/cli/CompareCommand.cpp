@@ -5,6 +5,8 @@
 // printed and written), 1 when the CSV cannot be written.
 #include "CliCommands.h"
 
+#include "CommandLine.h"
+
 #include "ComparisonExport.h"
 #include "NumberFormat.h"
 #include "SessionComparison.h"
@@ -21,10 +23,6 @@
 namespace sagline::cli {
 
 namespace {
-
-constexpr const char *usage =
-    "usage: sagline-cli compare FILES_OR_FOLDERS... [--csv OUT.csv] [--json] [--method ols|wls|york]\n"
-    "                           [--reference-temperature °C] [--convention iec|ieee] [--rule guarded|simple]\n";
 
 // Display width of UTF-8 text: one column per code point (enough for Ω, ±, °).
 std::size_t displayWidth(const std::string &text)
@@ -77,57 +75,53 @@ struct Options {
     ComparisonOptions comparison;
 };
 
-// Parses the arguments; an error message names the option and the rule.
-std::string parseArguments(const Arguments &args, Options &options)
+CommandLine compareCommandLine()
 {
-    for (std::size_t i = 0; i < args.size(); ++i) {
-        const std::string &arg = args[i];
-        auto value = [&](std::string &out) -> bool {
-            if (i + 1 >= args.size())
-                return false;
-            out = args[++i];
-            return true;
-        };
-        std::string text;
-        if (arg == "--json") {
-            options.asJson = true;
-        } else if (arg == "--csv") {
-            if (!value(options.csvPath) || options.csvPath.empty())
-                return "--csv needs a file name";
-        } else if (arg == "--method") {
-            if (!value(text))
-                return "--method needs ols, wls or york";
-            const auto method = fitMethodFromString(text);
-            if (!method)
-                return "--method must be ols, wls or york, got '" + text + "'";
-            options.comparison.method = *method;
-        } else if (arg == "--reference-temperature") {
-            if (!value(text))
-                return "--reference-temperature needs a temperature in °C";
-            char *end = nullptr;
-            const double t = std::strtod(text.c_str(), &end);
-            if (end == text.c_str() || *end != '\0' || !std::isfinite(t) || t < -50.0 || t > 250.0)
-                return "--reference-temperature must be a number of °C from -50 to 250, got '" + text + "'";
-            options.comparison.figures.referenceTemperatureC = t;
-        } else if (arg == "--convention") {
-            if (!value(text) || (text != "iec" && text != "ieee"))
-                return "--convention must be iec (copper 235 °C, IEC 60076-1) or ieee (copper 234.5 °C, IEEE C57.12.90)";
-            options.comparison.figures.copperConstant = text == "iec" ? TemperatureConstant::CopperIec : TemperatureConstant::CopperIeee;
-            options.comparison.constantChosen = true;
-        } else if (arg == "--rule") {
-            const auto rule = value(text) ? decisionRuleFromString(text) : std::nullopt;
-            if (!rule)
-                return "--rule must be guarded or simple (ILAC-G8:09/2019 decision rules)";
-            options.comparison.figures.rule = *rule;
-            options.comparison.ruleChosen = true;
-        } else if (!arg.empty() && arg[0] == '-') {
-            return "unknown option '" + arg + "'";
-        } else {
-            options.inputs.push_back(arg);
-        }
+    CommandLine line("sagline-cli compare", "FILES_OR_FOLDERS... [--csv OUT.csv] [--json] [options]",
+                     "Compares saved sessions for a lab lead's review: one row per session, statistics of the batch, "
+                     "and a flag on units far from the rest. Folders are searched for *.sagline files; every file is "
+                     "opened untrusted and read-only. A file that cannot be read is listed with its reason and the "
+                     "others are still compared (the exit code is then 2).");
+    line.addPositional("FILES_OR_FOLDERS...", "session files, and folders to search recursively", Arity::OneOrMore);
+    line.addOption({"csv"}, "OUT.csv", "also write the table as CSV");
+    line.addFlag({"json"}, "print one JSON object instead of the table");
+    line.addOption({"method"}, "ols|wls|york", "the fit method (default ols)");
+    line.addOption({"reference-temperature"}, "C", "the batch's reference temperature, -50 to 250 °C (default 75)");
+    line.addOption({"convention"}, "iec|ieee", "copper's T_k: 235 °C (IEC 60076-1) or 234.5 °C (IEEE C57.12.90)");
+    line.addOption({"rule"}, "guarded|simple", "the decision rule of the verdicts (ILAC-G8:09/2019)");
+    line.addNote(exitCodesNote);
+    return line;
+}
+
+// Reads the parsed words; an error message names the option and the rule.
+std::string readArguments(const CommandLine &line, Options &options)
+{
+    options.inputs = line.positionals();
+    options.asJson = line.isSet("json");
+    if (const auto text = line.valueIfSet("csv")) {
+        if (text->empty())
+            return "--csv needs a file name";
+        options.csvPath = *text;
     }
-    if (options.inputs.empty())
-        return "give at least one session file or folder";
+    if (const auto text = line.valueIfSet("method")) {
+        const auto method = fitMethodFromString(*text);
+        if (!method)
+            return "--method must be ols, wls or york, got '" + *text + "'";
+        options.comparison.method = *method;
+    }
+    if (const auto text = line.valueIfSet("convention")) {
+        if (*text != "iec" && *text != "ieee")
+            return "--convention must be iec (copper 235 °C, IEC 60076-1) or ieee (copper 234.5 °C, IEEE C57.12.90)";
+        options.comparison.figures.copperConstant = *text == "iec" ? TemperatureConstant::CopperIec : TemperatureConstant::CopperIeee;
+        options.comparison.constantChosen = true;
+    }
+    if (const auto text = line.valueIfSet("rule")) {
+        const auto rule = decisionRuleFromString(*text);
+        if (!rule)
+            return "--rule must be guarded or simple (ILAC-G8:09/2019 decision rules)";
+        options.comparison.figures.rule = *rule;
+        options.comparison.ruleChosen = true;
+    }
     return {};
 }
 
@@ -216,11 +210,17 @@ void printSummary(const std::vector<SessionRow> &rows, const BatchStatistics &st
 
 int runCompare(const Arguments &args)
 {
+    CommandLine line = compareCommandLine();
+    if (const auto exit = line.parse(args))
+        return *exit;
     Options options;
-    if (const std::string error = parseArguments(args, options); !error.empty()) {
-        std::cerr << "sagline-cli compare: " << error << '\n' << usage;
+    std::optional<double> referenceC;
+    if (!line.number("reference-temperature", -50.0, 250.0, referenceC))
         return exitInvalidInput;
-    }
+    if (referenceC)
+        options.comparison.figures.referenceTemperatureC = *referenceC;
+    if (const std::string error = readArguments(line, options); !error.empty())
+        return line.fail(error);
     const SessionFileList found = findSessionFiles(options.inputs);
     const std::vector<SessionRow> rows = loadSessionRows(found.files, options.comparison);
     const BatchStatistics stats = summarizeBatch(rows);

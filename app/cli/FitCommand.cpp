@@ -6,23 +6,18 @@
 #include "CliCommands.h"
 #include "FitOutput.h"
 
+#include "CommandLine.h"
+
 #include "CsvReadings.h"
 #include "SessionStore.h"
 #include "SetupJson.h"
 
-#include <charconv>
 #include <cmath>
 #include <iostream>
 
 namespace sagline::cli {
 
 namespace {
-
-constexpr const char *usage =
-    "usage: sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json]\n"
-    "         [--setup SETUP.json] [--rule simple|guarded] [--regulation-limit PERCENT]\n"
-    "         [--winding-temperature C] [--reference-temperature C]\n"
-    "         [--temperature-constant copper-ieee|copper-iec|aluminium]\n";
 
 struct FitArguments {
     std::string dataPath;
@@ -42,67 +37,50 @@ int invalid(const std::string &message)
     return exitInvalidInput;
 }
 
-std::optional<double> parseNumber(const std::string &text)
+CommandLine fitCommandLine()
 {
-    double value = 0.0;
-    const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
-    if (ec != std::errc() || end != text.data() + text.size() || !std::isfinite(value))
-        return std::nullopt;
-    return value;
+    CommandLine line("sagline-cli fit", "(DATA.csv | SESSION.sagline) [options]",
+                     "Fits V = V0 - R·I to the readings of a CSV file or a session: series resistance and no-load "
+                     "voltage with their uncertainties, R², outliers and the curvature check; with a nameplate (a "
+                     "session's setup, or --setup) also regulation and copper loss at rated current and the verdict.");
+    line.addPositional("DATA.csv|SESSION.sagline",
+                       "readings: a CSV (current_a,voltage_v[,u_current_a,u_voltage_v]) or a session file");
+    line.addOption({"method"}, "ols|wls|york", "ordinary (default), weighted or York's errors-in-both-variables fit");
+    line.addFlag({"json"}, "print one JSON object instead of the text");
+    line.addOption({"setup"}, "SETUP.json", "the nameplate for a CSV file");
+    line.addOption({"rule"}, "simple|guarded", "the decision rule of the verdict (ILAC-G8:09/2019)");
+    line.addOption({"regulation-limit"}, "PERCENT", "judge against this regulation limit instead of the nameplate's");
+    line.addOption({"winding-temperature"}, "C", "with --reference-temperature: the winding temperature during the test");
+    line.addOption({"reference-temperature"}, "C", "refer R to this temperature (with --winding-temperature)");
+    line.addOption({"temperature-constant"}, "copper-ieee|copper-iec|aluminium",
+                   "T_k for that correction: 234.5 °C (IEEE C57.12.90), 235 °C (IEC 60076-1) or 225 °C");
+    line.addNote(exitCodesNote);
+    return line;
 }
 
 // Returns an error message, or nothing when the arguments are valid.
-std::optional<std::string> parseArguments(const Arguments &args, FitArguments &out)
+std::optional<std::string> readArguments(const CommandLine &line, FitArguments &out)
 {
-    for (std::size_t i = 0; i < args.size(); ++i) {
-        const std::string &arg = args[i];
-        const auto value = [&]() -> std::optional<std::string> {
-            if (i + 1 >= args.size())
-                return std::nullopt;
-            return args[++i];
-        };
-        if (arg == "--json") {
-            out.json = true;
-        } else if (arg == "--method" || arg == "--rule" || arg == "--setup" || arg == "--regulation-limit"
-                   || arg == "--winding-temperature" || arg == "--reference-temperature"
-                   || arg == "--temperature-constant") {
-            const auto text = value();
-            if (!text)
-                return arg + " needs a value";
-            if (arg == "--method") {
-                const auto method = fitMethodFromString(*text);
-                if (!method)
-                    return "--method: unknown method '" + *text + "'; use ols, wls or york";
-                out.method = *method;
-            } else if (arg == "--rule") {
-                const auto rule = decisionRuleFromString(*text);
-                if (!rule)
-                    return "--rule: unknown decision rule '" + *text + "'; use simple or guarded";
-                out.rule = *rule;
-            } else if (arg == "--setup") {
-                out.setupPath = *text;
-            } else if (arg == "--temperature-constant") {
-                out.temperatureConstant = temperatureConstantFromString(*text);
-                if (!out.temperatureConstant)
-                    return "--temperature-constant: use copper-ieee (234.5 °C), copper-iec (235 °C) or aluminium (225 °C)";
-            } else {
-                const auto number = parseNumber(*text);
-                if (!number)
-                    return arg + ": not a finite number: '" + *text + "'";
-                (arg == "--regulation-limit"      ? out.regulationLimit
-                 : arg == "--winding-temperature" ? out.windingTemperatureC
-                                                  : out.referenceTemperatureC) = *number;
-            }
-        } else if (!arg.empty() && arg[0] == '-') {
-            return "unknown option '" + arg + "'";
-        } else if (out.dataPath.empty()) {
-            out.dataPath = arg;
-        } else {
-            return "more than one data file given ('" + out.dataPath + "' and '" + arg + "')";
-        }
+    out.dataPath = line.positionals().front();
+    out.json = line.isSet("json");
+    out.setupPath = line.value("setup");
+    if (const auto text = line.valueIfSet("method")) {
+        const auto method = fitMethodFromString(*text);
+        if (!method)
+            return "--method: unknown method '" + *text + "'; use ols, wls or york";
+        out.method = *method;
     }
-    if (out.dataPath.empty())
-        return "no data file given";
+    if (const auto text = line.valueIfSet("rule")) {
+        const auto rule = decisionRuleFromString(*text);
+        if (!rule)
+            return "--rule: unknown decision rule '" + *text + "'; use simple or guarded";
+        out.rule = *rule;
+    }
+    if (const auto text = line.valueIfSet("temperature-constant")) {
+        out.temperatureConstant = temperatureConstantFromString(*text);
+        if (!out.temperatureConstant)
+            return "--temperature-constant: use copper-ieee (234.5 °C), copper-iec (235 °C) or aluminium (225 °C)";
+    }
     if (out.windingTemperatureC.has_value() != out.referenceTemperatureC.has_value())
         return "--winding-temperature and --reference-temperature go together";
     return std::nullopt;
@@ -163,11 +141,17 @@ std::optional<int> loadData(const FitArguments &args, std::vector<Reading> &read
 
 int runFit(const Arguments &arguments)
 {
+    CommandLine line = fitCommandLine();
+    if (const auto exit = line.parse(arguments))
+        return *exit;
     FitArguments args;
-    if (const auto error = parseArguments(arguments, args)) {
-        std::cerr << "sagline-cli fit: " << *error << '\n' << usage;
+    // Ranges: a limit is a percentage above 0; temperatures a winding can have (°C).
+    if (!line.number("regulation-limit", 1e-6, 1000.0, args.regulationLimit)
+        || !line.number("winding-temperature", -60.0, 400.0, args.windingTemperatureC)
+        || !line.number("reference-temperature", -60.0, 400.0, args.referenceTemperatureC))
         return exitInvalidInput;
-    }
+    if (const auto error = readArguments(line, args))
+        return line.fail(*error);
     FitReport report;
     report.source = args.dataPath;
     std::vector<Reading> readings;

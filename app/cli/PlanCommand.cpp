@@ -1,6 +1,8 @@
 // sagline-cli plan SETUP.json [--json]: the safe load sweep for a nameplate and bench.
 #include "CliCommands.h"
 
+#include "CommandLine.h"
+
 #include "FuseStandards.h"
 #include "NumberFormat.h"
 #include "PlanJson.h"
@@ -88,25 +90,17 @@ void printSteps(const Plan &plan, std::ostream &out)
 
 int runPlan(const Arguments &args)
 {
-    std::string path;
-    bool asJson = false;
-    for (const auto &arg : args) {
-        if (arg == "--json") {
-            asJson = true;
-        } else if (!arg.empty() && arg[0] == '-') {
-            std::cerr << "sagline-cli plan: unknown option '" << arg << "'\nusage: sagline-cli plan SETUP.json [--json]\n";
-            return exitInvalidInput;
-        } else if (path.empty()) {
-            path = arg;
-        } else {
-            std::cerr << "sagline-cli plan: one setup file only, got '" << path << "' and '" << arg << "'\n";
-            return exitInvalidInput;
-        }
-    }
-    if (path.empty()) {
-        std::cerr << "usage: sagline-cli plan SETUP.json [--json]\n";
-        return exitInvalidInput;
-    }
+    CommandLine line("sagline-cli plan", "SETUP.json [--json]",
+                     "Plans a safe load sweep from the nameplate and the bench: rated currents, turns ratio, estimated "
+                     "series resistance, regulation, the recommended primary fuse, the NEC 450.3(B) ceiling and one row "
+                     "per load step.");
+    line.addPositional("SETUP.json", "the setup file (JSON: nameplate and bench)");
+    line.addFlag({"json"}, "print one JSON object instead of the table");
+    line.addNote(exitCodesNote);
+    if (const auto exit = line.parse(args))
+        return *exit;
+    const std::string &path = line.positionals().front();
+    const bool asJson = line.isSet("json");
 
     const SetupParse parsed = loadSetupFile(path);
     if (!parsed.setup) {

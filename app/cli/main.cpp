@@ -32,8 +32,10 @@ void printUsage(std::ostream &out)
     out << "usage: sagline-cli COMMAND [ARGS...]\n\ncommands:\n";
     for (const auto &command : commands)
         out << "  " << command.synopsis << '\n';
-    out << "  --version                          print the version and the build's git commit\n"
-           "\nExit codes: 0 success, 1 runtime failure, 2 invalid input, 3 sweep stopped by a safety limit.\n";
+    out << "  help COMMAND                       the usage of one command with every option (as COMMAND --help)\n"
+           "  --version                          print the version and the build's git commit\n"
+           "\n"
+        << sagline::cli::exitCodesNote << '\n';
     if (const auto data = sagline::findDataDirectory(); data.ok())
         out << "Demo setup: " << (data.path / "demo-setup.json").string() << '\n';
 }
@@ -51,9 +53,20 @@ int main(int argc, char **argv)
         std::cout << "sagline-cli " << sagline::buildinfo::version << " (commit " << sagline::buildinfo::gitCommit << ")\n";
         return sagline::cli::exitSuccess;
     }
-    if (name == "--help" || name == "-h" || name == "help") {
+    if (name == "--help" || name == "-h" || (name == "help" && argc == 2)) {
         printUsage(std::cout);
         return sagline::cli::exitSuccess;
+    }
+    if (name == "help") {
+        // "help COMMAND" says what "COMMAND --help" says.
+        for (const auto &command : commands) {
+            if (argv[2] == std::string(command.name) && argc == 3)
+                return command.run({"--help"});
+        }
+        std::cerr << "sagline-cli help: " << (argc == 3 ? "unknown command '" + std::string(argv[2]) + "'" : "one command only")
+                  << "\n\n";
+        printUsage(std::cerr);
+        return sagline::cli::exitInvalidInput;
     }
     for (const auto &command : commands) {
         if (name == command.name)
