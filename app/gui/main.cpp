@@ -40,7 +40,8 @@ sagline::CommandLine guiCommandLine()
     line.addOption({"screenshot"}, "DIR", "run a demo sweep, save the window as PNG into DIR, and quit");
     line.addFlag({"dark"}, "with --screenshot: also save a dark-palette PNG");
     line.addFlag({"typed-demo"}, "with --screenshot: a typed-in demo sweep instead of the virtual bench");
-    line.addFlag({"startup-probe"}, "print the milliseconds from start to the first painted window, then quit");
+    line.addFlag({"startup-probe"}, "print the milliseconds from the process's start to the first painted window (with "
+                                     "SESSION open and drawn, if given), then quit");
     line.addNote("Without a display (neither DISPLAY nor WAYLAND_DISPLAY nor QT_QPA_PLATFORM set) only --help and "
                  "--version work; run sagline-cli for a headless sweep. Exit codes: 0 closed normally or screenshots "
                  "saved; 1 no display, or the demo sweep of --screenshot failed; 2 invalid usage.");
@@ -75,8 +76,8 @@ std::optional<int> answerRequest(const sagline::CommandLine &line)
 
 int main(int argc, char **argv)
 {
-    QElapsedTimer sinceStart; // --startup-probe: from here to the first painted frame
-    sinceStart.start();
+    QElapsedTimer sinceMain; // --startup-probe: also from here to the first painted frame
+    sinceMain.start();
     sagline::CommandLine line = guiCommandLine();
     if (!hasDisplay(argc, argv)) {
         // --help and --version answer without a display (bug reports, scripts over ssh).
@@ -135,7 +136,7 @@ int main(int argc, char **argv)
         return 0;
     }
     if (line.isSet("startup-probe"))
-        sagline::quitAfterFirstPaint(window, sinceStart);
+        sagline::quitAfterFirstPaint(window, sinceMain);
     window.show();
     if (line.isSet("demo"))
         QTimer::singleShot(0, &window, [&window] {
