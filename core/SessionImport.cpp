@@ -55,6 +55,7 @@ ImportResult importReadingsCsv(const ImportRequest &request)
     session.ambientTemperatureC = request.ambientTemperatureC;
     session.windingTemperatureC = request.windingTemperatureC;
     session.softwareVersion = request.softwareVersion;
+    session.createdBy = {request.person, ""};
 
     const std::string fileName = std::filesystem::path(request.csvPath).filename().string();
     for (std::size_t i = 0; i < csv.readings.size(); ++i)
@@ -72,7 +73,7 @@ ImportResult importReadingsCsv(const ImportRequest &request)
                 continue;
             const auto done = store.excludeReading(ids.value[i], "marked excluded in " + fileName + " line " +
                                                                      std::to_string(csv.lineNumbers[i]),
-                                                   request.operatorName);
+                                                   request.person.empty() ? request.operatorName : request.person);
             if (!done.ok())
                 return done.status();
             ++excluded;

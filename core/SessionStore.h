@@ -118,6 +118,8 @@ public:
     StoreResult<std::vector<NoteRecord>> notes() const;
     StoreResult<std::vector<SafetyStopRecord>> safetyStops() const;
     StoreResult<std::vector<SignOffRecord>> signOffs() const;
+    // Who recorded each reading, in the order of readings() (for reports and exports).
+    StoreResult<std::vector<Actor>> readingActors() const;
     StoreResult<std::vector<SupersessionRecord>> supersessions() const;
     StoreResult<std::vector<SweepEventRecord>> sweepEvents() const;
     StoreResult<std::vector<ReopenRecord>> reopens() const;

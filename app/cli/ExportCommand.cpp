@@ -54,7 +54,7 @@ int runExport(const Arguments &args)
         std::cerr << "sagline-cli export: warning: no fit (" << summary.value.fit.message << "); readings exported as recorded\n";
 
     const std::pair<const std::string *, std::string> outputs[] = {
-        {&csvPath, csvPath.empty() ? std::string() : readingsToCsv(summary.value.readings)},
+        {&csvPath, csvPath.empty() ? std::string() : sessionReadingsToCsv(summary.value)},
         {&fitCsvPath, fitCsvPath.empty() ? std::string() : fitResultsToCsv(summary.value)},
         {&jsonPath, jsonPath.empty() ? std::string() : sessionSummaryToJson(summary.value) + "\n"},
     };
