@@ -72,11 +72,11 @@ int VirtualClock::callAfter(std::int64_t delayMs, QObject *context, std::functio
 {
     const int id = m_nextId++;
     const std::int64_t due = m_nowMs + std::max<std::int64_t>(0, delayMs);
-    m_pending[id] = Pending{due, context, context != nullptr, std::move(callback)};
+    m_pending[id] = Pending{due, context, context != nullptr, std::move(callback), {}};
     m_order.emplace(due, id);
     if (context) {
         // Forget the callback if its owner goes away first.
-        connect(context, &QObject::destroyed, this, [this, id] { cancel(id); });
+        m_pending[id].contextGone = connect(context, &QObject::destroyed, this, [this, id] { cancel(id); });
     }
     return id;
 }
@@ -93,6 +93,7 @@ void VirtualClock::cancel(int id)
             break;
         }
     }
+    disconnect(it->second.contextGone);
     m_pending.erase(it);
 }
 
@@ -105,6 +106,7 @@ void VirtualClock::fireDue()
         if (it == m_pending.end())
             continue;
         auto callback = std::move(it->second.callback);
+        disconnect(it->second.contextGone);
         m_pending.erase(it);
         callback();
     }

@@ -65,6 +65,7 @@ private:
         QObject *context;
         bool hasContext;
         std::function<void()> callback;
+        QMetaObject::Connection contextGone; // dropped with the callback: a long run keeps none
     };
     void fireDue();
     void handleAboutToBlock();

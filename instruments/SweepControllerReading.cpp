@@ -116,12 +116,16 @@ void SweepController::handlePair(const MeterValue &voltage, std::int64_t voltage
         }
     }
     for (const MeterValue *value : {&voltage, &current}) {
+        // Every failed read is kept with the session (a reply that does not parse, a timeout):
+        // whoever reviews it sees what the meters did, not only what was recorded.
         if (value->status == MeterValue::Status::Failed) {
+            event(tr("step %1: %2").arg(m_step).arg(value->error));
             emit notice(value->error);
             scheduleRead();
             return;
         }
         if (value->status == MeterValue::Status::NotANumber) {
+            event(tr("step %1: %2 reports not-a-number").arg(m_step).arg(roleName(value->role)));
             emit notice(tr("%1 reports not-a-number (%2); reading again").arg(roleName(value->role), QString::fromLatin1(value->raw)));
             scheduleRead();
             return;

@@ -4,8 +4,9 @@
 # that fails once in ten rounds is a defect. Slow (ROUNDS times the suite), so it is not part
 # of scripts/test.sh or CI; run it after changing anything that waits on the wall clock.
 #
-# usage: scripts/flake-check.sh [--rounds N] [--build-dir DIR] [--jobs N] [--no-hog] [-- CTEST_ARGS...]
-#   The package install test (it installs system-wide with dpkg) is always left out.
+# usage: scripts/flake-check.sh [--rounds N] [--build-dir DIR] [--jobs N] [--no-hog] [--with-soak] [-- CTEST_ARGS...]
+#   The package install test (it installs system-wide with dpkg) is always left out; the soak
+#   test (label soak, a minute each round) only with --with-soak.
 #   Logs: DIR/flake-check/round-K.log. Exit status: 0 when every round passed, 1 otherwise.
 set -uo pipefail
 cd "$(dirname "$0")/.."
@@ -14,6 +15,7 @@ rounds=10
 build_dir=build/ci
 jobs=4
 hog=1
+soak=0
 extra=()
 while [ $# -gt 0 ]; do
     case "$1" in
@@ -21,6 +23,7 @@ while [ $# -gt 0 ]; do
         --build-dir) build_dir=$2; shift 2 ;;
         --jobs) jobs=$2; shift 2 ;;
         --no-hog) hog=0; shift ;;
+        --with-soak) soak=1; shift ;;
         --) shift; extra=("$@"); break ;;
         -h|--help) sed -n '2,10p' "$0" | sed 's/^# \{0,1\}//'; exit 0 ;;
         *) echo "flake-check: unknown argument '$1' (see --help)" >&2; exit 2 ;;
@@ -57,8 +60,10 @@ started=$(date +%s)
 for round in $(seq "$rounds"); do
     log="$log_dir/round-$round.log"
     round_start=$(date +%s)
+    labels=()
+    [ "$soak" = 1 ] || labels=(-LE soak)
     ctest --test-dir "$build_dir" -j "$jobs" --output-on-failure -E 'Package\.InstallsRunsAndRemovesCleanly' \
-        "${extra[@]}" >"$log" 2>&1
+        "${labels[@]}" "${extra[@]}" >"$log" 2>&1
     status=$?
     failed=$(sed -n 's/^[[:space:]]*[0-9]\+ - \(.*\) (\(Failed\|Timeout\|SEGFAULT\|Subprocess aborted\|Exception\|Child aborted\|Not Run\).*/\1/p' "$log")
     summary=$(grep -E '^[0-9]+% tests passed' "$log" || echo "no summary (ctest exit $status)")

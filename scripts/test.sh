@@ -9,6 +9,8 @@ scripts/install-deps.sh
 cmake --preset ci
 cmake --build --preset ci
 ctest --preset ci
+# The long run in simulated time (100 000 readings with faults), about a minute.
+ctest --preset soak
 # The main window after a demo sweep, light and dark, for people to look at (build/ci/screenshots).
 cmake --build --preset ci --target screenshots
 
