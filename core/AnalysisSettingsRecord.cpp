@@ -1,5 +1,8 @@
 #include "AnalysisSettingsRecord.h"
 
+#include "JsonReader.h"
+#include "OutputText.h"
+
 #include <nlohmann/json.hpp>
 
 #include <cmath>
@@ -30,14 +33,14 @@ std::optional<double> readNumber(const json &object, const char *key, double low
     if (found == object.end() || found->is_null())
         return std::nullopt;
     if (!found->is_number()) {
-        errors.push_back({key, "must be a number or null, got " + found->dump()});
+        errors.push_back({key, "must be a number or null, got " + shortJson(*found)});
         return std::nullopt;
     }
     const double value = found->get<double>();
     const bool belowLow = lowExclusive ? !(value > low) : !(value >= low);
     if (!std::isfinite(value) || belowLow || value > high) {
         errors.push_back({key, std::string("must be ") + (lowExclusive ? "above " : "at least ") + json(low).dump()
-                                   + " and at most " + json(high).dump() + ", got " + found->dump()});
+                                   + " and at most " + json(high).dump() + ", got " + shortJson(*found)});
         return std::nullopt;
     }
     return value;
@@ -53,24 +56,25 @@ std::string analysisSettingsNoteText(const AnalysisSettings &settings)
                    {"reference_temperature_c", optionalNumber(settings.referenceTemperatureC)}};
     object["temperature_constant"] =
         settings.temperatureConstant ? json(toString(*settings.temperatureConstant)) : json(nullptr);
-    return object.dump();
+    return jsonText(object);
 }
 
 AnalysisSettingsParse parseAnalysisSettings(const std::string &text)
 {
     AnalysisSettingsParse parse;
-    const json object = json::parse(text, nullptr, false);
-    if (object.is_discarded() || !object.is_object()) {
-        parse.errors.push_back({"analysis_settings", "the note is not a JSON object"});
+    const JsonRead read = readJson(text);
+    if (!read.ok() || !read.document->is_object()) {
+        parse.errors.push_back({"analysis_settings", read.ok() ? "the note is not a JSON object" : "the note " + read.error});
         return parse;
     }
+    const json &object = *read.document;
     const auto version = object.find("analysis_settings");
     if (version == object.end() || !version->is_number_integer()) {
         parse.errors.push_back({"analysis_settings", "must be the record version, an integer"});
         return parse;
     }
     if (version->get<long long>() != analysisSettingsVersion) {
-        parse.errors.push_back({"analysis_settings", "version " + version->dump() + " is not one this program reads ("
+        parse.errors.push_back({"analysis_settings", "version " + shortJson(*version) + " is not one this program reads ("
                                                          + std::to_string(analysisSettingsVersion) + ")"});
         return parse;
     }
@@ -82,7 +86,7 @@ AnalysisSettingsParse parseAnalysisSettings(const std::string &text)
     const auto rule = object.find("rule");
     if (rule == object.end() || !rule->is_string() || !decisionRuleFromString(rule->get<std::string>()))
         parse.errors.push_back({"rule", "must be \"simple\" or \"guarded\", got "
-                                            + (rule == object.end() ? std::string("nothing") : rule->dump())});
+                                            + (rule == object.end() ? std::string("nothing") : shortJson(*rule))});
     else
         settings.rule = *decisionRuleFromString(rule->get<std::string>());
     const auto constant = object.find("temperature_constant");
@@ -91,7 +95,7 @@ AnalysisSettingsParse parseAnalysisSettings(const std::string &text)
                                                   : std::nullopt;
         if (!parsed)
             parse.errors.push_back({"temperature_constant",
-                                    "must be copper-ieee, copper-iec, aluminium or null, got " + constant->dump()});
+                                    "must be copper-ieee, copper-iec, aluminium or null, got " + shortJson(*constant)});
         else
             settings.temperatureConstant = parsed;
     }

@@ -1,5 +1,7 @@
 #include "ComparisonExport.h"
 
+#include "OutputText.h"
+
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
@@ -165,7 +167,7 @@ std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStati
         {"copper_temperature_constant", toString(options.figures.copperConstant)},
         {"coverage_factor", options.figures.coverageFactor},
     };
-    return json{{"sessions", sessions}, {"batch", batch}}.dump(2);
+    return jsonText(json{{"sessions", sessions}, {"batch", batch}}, 2);
 }
 
 } // namespace sagline

@@ -1,6 +1,8 @@
 #include "CsvReadings.h"
 
 #include "AsciiText.h"
+#include "OutputText.h"
+#include "TextFile.h"
 
 #include <charconv>
 #include <cmath>
@@ -13,6 +15,15 @@ namespace sagline {
 namespace {
 
 constexpr std::size_t maxErrors = 100;
+// A physical bound on a reading (V or A): far above a small transformer's bench, far below
+// where sums of squares overflow (a CSV of 1e300 A would make every fit "degenerate").
+constexpr double maxReadingValue = 1e6;
+
+// A cell quoted in a message: printable and short (a 10 MB cell is not echoed whole).
+std::string shown(std::string_view cell)
+{
+    return printableText(cell, 40);
+}
 
 enum class Column { Current, Voltage, UCurrent, UVoltage, Step, Time, Flags, Excluded, Provenance };
 
@@ -187,10 +198,13 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
                 error(line, name, "is empty; a number is required");
                 good = false;
             } else if (!value) {
-                error(line, name, "not a finite number: '" + cell + "' (use '.' as the decimal point, SI units)");
+                error(line, name, "not a finite number: '" + shown(cell) + "' (use '.' as the decimal point, SI units)");
                 good = false;
             } else if (*value < 0.0) {
-                error(line, name, "must be zero or above (an RMS value), got " + cell);
+                error(line, name, "must be zero or above (an RMS value), got " + shown(cell));
+                good = false;
+            } else if (*value > maxReadingValue) {
+                error(line, name, "is beyond any bench reading (at most 1e6 V or A), got " + shown(cell));
                 good = false;
             } else {
                 (m_columns[i] == Column::Current ? reading.currentA : reading.voltageV) = *value;
@@ -203,10 +217,10 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
                 break;
             const auto value = parseNumber(cell);
             if (!value) {
-                error(line, name, "not a finite number: '" + cell + "'");
+                error(line, name, "not a finite number: '" + shown(cell) + "'");
                 good = false;
             } else if (!(*value > 0.0)) {
-                error(line, name, "a standard uncertainty must be above zero, got " + cell);
+                error(line, name, "a standard uncertainty must be above zero, got " + shown(cell));
                 good = false;
             } else {
                 (m_columns[i] == Column::UCurrent ? reading.uCurrentA : reading.uVoltageV) = *value;
@@ -219,7 +233,7 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
             int step = -1;
             const auto [end, ec] = std::from_chars(cell.data(), cell.data() + cell.size(), step);
             if (ec != std::errc() || end != cell.data() + cell.size() || step < 0) {
-                error(line, name, "must be a whole number of 0 or more, got '" + cell + "'");
+                error(line, name, "must be a whole number of 0 or more, got '" + shown(cell) + "'");
                 good = false;
             } else {
                 reading.step = step;
@@ -230,7 +244,7 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
         case Column::Flags: {
             const auto flags = parseFlags(cell);
             if (!flags) {
-                error(line, name, "unknown flag in '" + cell + "'; flags are names joined by '|', e.g. unstable|outlier");
+                error(line, name, "unknown flag in '" + shown(cell) + "'; flags are names joined by '|', e.g. unstable|outlier");
                 good = false;
             } else {
                 reading.flags = *flags;
@@ -241,7 +255,7 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
         case Column::Excluded: {
             const auto excluded = parseBool(cell);
             if (!excluded) {
-                error(line, name, "must be true or false, got '" + cell + "'");
+                error(line, name, "must be true or false, got '" + shown(cell) + "'");
                 good = false;
             } else {
                 reading.excluded = *excluded;
@@ -304,20 +318,13 @@ ReadingsCsvParse parseReadingsCsv(std::string_view text)
 
 ReadingsCsvParse loadReadingsCsv(const std::string &path)
 {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) {
+    const TextFileRead file = readTextFile(path, maxReadingsFileBytes);
+    if (!file.text) {
         ReadingsCsvParse result;
-        result.errors.push_back({"file", "cannot open '" + path + "' for reading"});
+        result.errors.push_back({"file", "'" + path + "' " + file.error});
         return result;
     }
-    std::ostringstream buffer;
-    buffer << in.rdbuf();
-    if (in.bad()) {
-        ReadingsCsvParse result;
-        result.errors.push_back({"file", "read error on '" + path + "'"});
-        return result;
-    }
-    return parseReadingsCsv(buffer.str());
+    return parseReadingsCsv(*file.text);
 }
 
 } // namespace sagline

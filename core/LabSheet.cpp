@@ -1,6 +1,8 @@
 #include "LabSheet.h"
 
+#include "JsonReader.h"
 #include "NumberFormat.h"
+#include "OutputText.h"
 #include "SetupJson.h"
 #include "TextFile.h"
 #include "Units.h"
@@ -34,7 +36,7 @@ std::optional<bool> readBool(const json &object, const std::string &path, const 
         return std::nullopt;
     }
     if (!object.at(key).is_boolean()) {
-        errors.push_back({path + "." + key, "must be true or false, got " + object.at(key).dump()});
+        errors.push_back({path + "." + key, "must be true or false, got " + shortJson(object.at(key))});
         return std::nullopt;
     }
     return object.at(key).get<bool>();
@@ -68,7 +70,7 @@ std::optional<double> readQuantity(const json &object, const std::string &path, 
         }
         return percent ? parsed.value / 100.0 : parsed.value;
     }
-    errors.push_back({field, "must be a number or a string with a unit, got " + value.dump()});
+    errors.push_back({field, "must be a number or a string with a unit, got " + shortJson(value)});
     return std::nullopt;
 }
 
@@ -82,7 +84,7 @@ std::optional<std::string> readText(const json &object, const char *key, std::si
     }
     const json &value = object.at(key);
     if (!value.is_string()) {
-        errors.push_back({key, "must be a string, got " + value.dump()});
+        errors.push_back({key, "must be a string, got " + shortJson(value)});
         return std::nullopt;
     }
     std::string text = value.get<std::string>();
@@ -185,13 +187,12 @@ void checkSetupAgainstLocks(LabSheet &sheet, FieldErrors &errors)
 LabSheetParse parseLabSheetJson(std::string_view text)
 {
     LabSheetParse out;
-    json document;
-    try {
-        document = json::parse(text.begin(), text.end());
-    } catch (const json::exception &e) {
-        out.errors.push_back({"lab sheet", std::string("is not valid JSON: ") + e.what()});
+    JsonRead read = readJson(text);
+    if (!read.ok()) {
+        out.errors.push_back({"lab sheet", read.error});
         return out;
     }
+    const json document = std::move(*read.document);
     if (!document.is_object()) {
         out.errors.push_back({"lab sheet", "must be a JSON object with format, version, title, setup, locks, instructions"});
         return out;
@@ -227,7 +228,7 @@ LabSheetParse parseLabSheetJson(std::string_view text)
     if (isMissing(document, "setup") || !document.at("setup").is_object()) {
         out.errors.push_back({"setup", "is required: the setup file's object with nameplate and bench"});
     } else {
-        const SetupParse setup = parseSetupJson(document.at("setup").dump());
+        const SetupParse setup = parseSetupJson(jsonText(document.at("setup")));
         for (const auto &error : setup.errors)
             out.errors.push_back({"setup." + error.field, error.rule});
         if (setup.setup) {
@@ -244,12 +245,13 @@ LabSheetParse parseLabSheetJson(std::string_view text)
 
 LabSheetParse loadLabSheetFile(const std::string &path)
 {
-    const std::optional<std::string> text = readTextFile(path);
-    if (!text) {
+    const TextFileRead file = readTextFile(path, maxSetupFileBytes);
+    if (!file.text) {
         LabSheetParse out;
-        out.errors.push_back(unreadableFileError(path));
+        out.errors.push_back(unreadableFileError(path, file.error));
         return out;
     }
+    const std::optional<std::string> &text = file.text;
     return parseLabSheetJson(*text);
 }
 
@@ -269,7 +271,7 @@ std::string labSheetToJson(const LabSheet &sheet)
         {"locks", locks},
         {"instructions", sheet.instructions},
     };
-    return document.dump(2);
+    return jsonText(document, 2);
 }
 
 std::string labSheetFingerprint(const LabSheet &sheet)

@@ -21,6 +21,12 @@ bool isDegenerate(double sxx, double weightSum, double maxAbsX)
 // status and message set) when all x are equal.
 bool setLineFromMoments(LineFitResult &r, double sxx, double sxy, double syy, double weightSum, double maxAbsX)
 {
+    if (!std::isfinite(sxx) || !std::isfinite(sxy) || !std::isfinite(syy)) {
+        // Readings so large that their squares overflow: not "all equal", but not physical.
+        r.status = FitStatus::NonFiniteValue;
+        r.message = "the readings are too large to fit (their squares overflow a double); they are not physical values";
+        return false;
+    }
     if (isDegenerate(sxx, weightSum, maxAbsX)) {
         r.status = FitStatus::DegenerateCurrent;
         r.message = "all currents are equal: the slope (series resistance) cannot be fitted";

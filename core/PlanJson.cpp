@@ -63,7 +63,7 @@ std::string planToJson(const Plan &plan, int indent)
         {"warnings", plan.warnings},
         {"steps", steps},
     };
-    return document.dump(indent);
+    return document.dump(indent, ' ', false, nlohmann::json::error_handler_t::replace);
 }
 
 } // namespace sagline

@@ -1,5 +1,6 @@
 #include "ResultAnalysis.h"
 
+#include "NumberFormat.h"
 #include "TransformerFormulas.h"
 
 #include <cmath>
@@ -58,6 +59,14 @@ AnalysisResult analyseFit(const FitSummary &fit, const AnalysisInput &input)
     result.regulationBase = input.regulationBase;
     if (!fit.ok())
         result.errors.push_back({"fit", "no usable fit: " + fit.message});
+    else if (!(fit.seriesResistanceOhm() > 0.0))
+        // A loaded transformer's voltage falls with current (R > 0). A line that rises or stays
+        // flat means crossed leads, a wrong meter range or readings of something else: no
+        // regulation, copper loss or verdict is computed from it.
+        result.errors.push_back({"fit", "the voltage does not fall with the current (R = "
+                                            + formatSignificant(fit.seriesResistanceOhm(), 3)
+                                            + " Ω, not above 0): check the connections and the meters; no regulation, "
+                                              "copper loss or verdict from such a line"});
     if (!std::isfinite(input.ratedCurrentA) || !(input.ratedCurrentA > 0.0))
         result.errors.push_back({"rated_current_a", "must be a number above zero"});
     if (!std::isfinite(input.coverageFactor) || !(input.coverageFactor > 0.0))

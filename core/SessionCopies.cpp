@@ -4,7 +4,10 @@
 
 #include <sqlite3.h>
 
+#include <cstring>
 #include <filesystem>
+#include <fstream>
+#include <iterator>
 #include <random>
 
 namespace sagline {
@@ -23,6 +26,36 @@ StoreResult<SqliteHandle> copyIntoMemory(sqlite3 *source)
     if (stepRc != SQLITE_DONE || finishRc != SQLITE_OK)
         return StoreResult<SqliteHandle>::failure(
             sqliteFailure(source, stepRc != SQLITE_DONE ? stepRc : finishRc, "copying the file for reading"));
+    return memory;
+}
+
+bool isWalModeFile(const std::string &path)
+{
+    std::ifstream in(path, std::ios::binary);
+    char header[20] = {};
+    return in.read(header, sizeof header) && (header[18] == 2 || header[19] == 2);
+}
+
+StoreResult<SqliteHandle> copyFileIntoMemory(const std::string &path)
+{
+    using Result = StoreResult<SqliteHandle>;
+    std::ifstream in(path, std::ios::binary);
+    std::string bytes((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+    if (in.bad() || bytes.size() < 100)
+        return Result::failure(StoreCode::Corrupt, path + ": cannot be read whole");
+    bytes[18] = bytes[19] = 1; // legacy (rollback journal) format in the copy: no WAL is opened
+    auto memory = openHardenedConnection(":memory:", SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE);
+    if (!memory.ok())
+        return memory;
+    auto *buffer = static_cast<unsigned char *>(sqlite3_malloc64(bytes.size()));
+    if (buffer == nullptr)
+        return Result::failure(StoreCode::IoError, path + ": not enough memory to read it");
+    std::memcpy(buffer, bytes.data(), bytes.size());
+    const auto size = static_cast<sqlite3_int64>(bytes.size());
+    const int rc = sqlite3_deserialize(memory.value.get(), "main", buffer, size, size,
+                                       SQLITE_DESERIALIZE_FREEONCLOSE | SQLITE_DESERIALIZE_RESIZEABLE);
+    if (rc != SQLITE_OK)
+        return Result::failure(sqliteFailure(memory.value.get(), rc, path + ": cannot read it into memory"));
     return memory;
 }
 

@@ -17,4 +17,12 @@ StoreResult<SqliteHandle> copyIntoMemory(sqlite3 *source);
 // file and journal are only read.
 StoreResult<SqliteHandle> recoverIntoMemory(const std::string &path);
 
+// True when the file's header says write-ahead-log mode (bytes 18 and 19 are 2). Sagline never
+// writes such files; reading one in place would leave -wal and -shm files beside it.
+bool isWalModeFile(const std::string &path);
+
+// The whole file read into a private, hardened in-memory database, its header switched to the
+// rollback journal, so nothing is created beside the file. A -wal file beside it is not read.
+StoreResult<SqliteHandle> copyFileIntoMemory(const std::string &path);
+
 } // namespace sagline

@@ -1,6 +1,7 @@
 #include "SessionExport.h"
 
 #include "CsvField.h"
+#include "JsonReader.h"
 
 #include <nlohmann/json.hpp>
 
@@ -209,10 +210,13 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
                       {"software_version", summary.info.softwareVersion},
                       {"schema_version", summary.info.schemaVersion},
                       {"notice", summary.notice}};
-    const json setup = json::parse(summary.info.setupJson, nullptr, false);
-    out["setup"] = setup.is_discarded() ? json(nullptr) : setup;
-    const json plan = json::parse(summary.info.planJson, nullptr, false);
-    out["plan"] = plan.is_discarded() ? json(nullptr) : plan;
+    // Stored documents pass the one reader first: a hostile one is left out, not echoed; a sound
+    // one is then read with its keys in the stored order.
+    const auto stored = [](const std::string &text) {
+        return readJson(text).ok() ? json::parse(text, nullptr, false) : json(nullptr);
+    };
+    out["setup"] = stored(summary.info.setupJson);
+    out["plan"] = stored(summary.info.planJson);
     out["temperatures"] = json::array();
     for (const auto &t : summary.temperatures)
         out["temperatures"].push_back({{"time_utc", t.timeUtc}, {"kind", toString(t.kind)}, {"celsius", number(t.celsius)}, {"source", t.source}});

@@ -312,7 +312,11 @@ StoreOpen SessionStore::open(const std::string &path, bool forWriting, SessionWr
 {
     if (StoreStatus status = checkSessionFileHeader(path); !status.ok())
         return StoreOpen::failure(status);
-    auto db = openHardenedConnection(path, forWriting ? SQLITE_OPEN_READWRITE : SQLITE_OPEN_READONLY);
+    // A file in WAL mode (not one of ours) is reviewed from a private copy: reading it in place
+    // would leave -wal and -shm files beside it.
+    const bool walCopy = !forWriting && isWalModeFile(path);
+    auto db = walCopy ? copyFileIntoMemory(path)
+                      : openHardenedConnection(path, forWriting ? SQLITE_OPEN_READWRITE : SQLITE_OPEN_READONLY);
     if (!db.ok())
         return StoreOpen::failure(db.status());
     sqlite3 *handle = db.value.get();
@@ -376,6 +380,10 @@ StoreOpen SessionStore::open(const std::string &path, bool forWriting, SessionWr
         }
         if (StoreStatus status = migrateInTransaction(db.value.get(), version.value); !status.ok())
             return fail(status);
+    }
+    if (walCopy) {
+        recoveredNotice = path + ": in write-ahead-log mode (not as Sagline writes sessions); read from a private copy"
+                          + (std::filesystem::exists(path + "-wal", ignored) ? ", without what its -wal file holds" : "");
     }
     std::unique_ptr<SessionStore> store(new SessionStore(path, std::move(db.value), true, version.value));
     if (StoreStatus status = store->loadSealState(); !status.ok())

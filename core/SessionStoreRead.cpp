@@ -116,6 +116,13 @@ StoreResult<std::vector<Reading>> SessionStore::readings() const
                 return std::string("flags out of range");
             reading.flags = static_cast<std::uint32_t>(flags);
             const bool mayLackValue = (reading.flags & (flagOverload | flagNotANumber)) != 0;
+            // SQLite would read text in a numeric column as 0: a crafted "12 A" must not become 0 A.
+            for (const auto &[column, name] : {std::pair{3, "current_a"}, std::pair{4, "voltage_v"},
+                                               std::pair{5, "u_current_a"}, std::pair{6, "u_voltage_v"}}) {
+                const int type = row.columnType(column);
+                if (type != SQLITE_INTEGER && type != SQLITE_FLOAT && type != SQLITE_NULL)
+                    return std::string(name) + " holds text or bytes, not a number";
+            }
             const auto current = row.columnOptionalDouble(3);
             const auto voltage = row.columnOptionalDouble(4);
             const bool finite = current && voltage && std::isfinite(*current) && std::isfinite(*voltage);

@@ -1,5 +1,6 @@
 #include "SessionSummary.h"
 
+#include "JsonReader.h"
 #include "SetupJson.h"
 
 #include <nlohmann/json.hpp>
@@ -38,11 +39,12 @@ StoredPlan parseStoredPlan(const std::string &planJson)
     if (planJson.empty())
         return plan;
     plan.present = true;
-    const nlohmann::json root = nlohmann::json::parse(planJson, nullptr, false);
-    if (root.is_discarded() || !root.is_object()) {
-        plan.problem = "the stored plan is not a JSON object";
+    const JsonRead read = readJson(planJson);
+    if (!read.ok() || !read.document->is_object()) {
+        plan.problem = read.ok() ? "the stored plan is not a JSON object" : "the stored plan " + read.error;
         return plan;
     }
+    const nlohmann::json &root = *read.document;
     plan.ratedSecondaryCurrentA = number(root, "rated_secondary_current_a");
     plan.ratedPrimaryCurrentA = number(root, "rated_primary_current_a");
     plan.turnsRatio = number(root, "turns_ratio");

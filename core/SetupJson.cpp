@@ -1,5 +1,7 @@
 #include "SetupJson.h"
 
+#include "JsonReader.h"
+#include "OutputText.h"
 #include "TextFile.h"
 #include "Units.h"
 
@@ -61,7 +63,7 @@ public:
             return parsed.value;
         }
         error(key, "must be a number or a string with a unit (such as \"12 " + unitSymbol(unit) + "\"), got "
-                       + value.dump());
+                       + shortJson(value));
         return std::nullopt;
     }
 
@@ -122,7 +124,7 @@ public:
             return std::nullopt;
         const json &value = m_object.at(key);
         if (!value.is_string()) {
-            error(key, "must be a string, got " + value.dump());
+            error(key, "must be a string, got " + shortJson(value));
             return std::nullopt;
         }
         return value.get<std::string>();
@@ -134,7 +136,7 @@ public:
             return std::nullopt;
         const json &value = m_object.at(key);
         if (!value.is_boolean()) {
-            error(key, "must be true or false, got " + value.dump());
+            error(key, "must be true or false, got " + shortJson(value));
             return std::nullopt;
         }
         return value.get<bool>();
@@ -190,6 +192,15 @@ constexpr double maxRatedPowerVa = 10000.0;
 constexpr double maxVoltageV = 1000.0;
 constexpr int maxSteps = 200;
 constexpr double maxDwellS = 3600.0;
+// Physical floors: below them a value cannot describe a mains transformer or a bench part (a
+// rating of 1e-308 VA, a "rheostat" of 1 mΩ that is a short circuit); common practice, with
+// the smallest catalogue parts (0.5 VA PCB transformers, 32 mA miniature fuses) well above.
+constexpr double minRatedPowerVa = 0.1;
+constexpr double minPrimaryVoltageV = 1.0;
+constexpr double minSecondaryVoltageV = 1e-3; // lower ones are left to the planner's unit hint (PlanGates)
+constexpr double minRheostatOhm = 0.1;
+constexpr double minRheostatPowerW = 0.1;
+constexpr double minFuseRatingA = 0.01;
 
 void readNameplate(const json &object, SetupParse &out, Nameplate &plate)
 {
@@ -198,11 +209,11 @@ void readNameplate(const json &object, SetupParse &out, Nameplate &plate)
                          "secondary_no_load_voltage_v", "regulation_percent", "construction", "winding_material"});
     plate.ratedPowerVa = r.required("rated_power_va", Unit::VoltAmpere);
     if (!r.isMissing("rated_power_va"))
-        r.inRange("rated_power_va", plate.ratedPowerVa, 0.0, false, maxRatedPowerVa, " VA",
+        r.inRange("rated_power_va", plate.ratedPowerVa, minRatedPowerVa, true, maxRatedPowerVa, " VA",
                   "Sagline covers small transformers up to 10 kVA");
     plate.primaryVoltageV = r.required("primary_voltage_v", Unit::Volt);
     if (!r.isMissing("primary_voltage_v"))
-        r.inRange("primary_voltage_v", plate.primaryVoltageV, 0.0, false, maxVoltageV, " V",
+        r.inRange("primary_voltage_v", plate.primaryVoltageV, minPrimaryVoltageV, true, maxVoltageV, " V",
                   "NEC 450.3(B) and this tool cover 1000 V and less");
     if (r.isMissing("frequency_hz")) {
         r.usedDefault("frequency_hz");
@@ -213,9 +224,13 @@ void readNameplate(const json &object, SetupParse &out, Nameplate &plate)
     }
     plate.secondaryVoltageV = r.required("secondary_voltage_v", Unit::Volt);
     if (!r.isMissing("secondary_voltage_v"))
-        r.inRange("secondary_voltage_v", plate.secondaryVoltageV, 0.0, false, maxVoltageV, " V");
+        r.inRange("secondary_voltage_v", plate.secondaryVoltageV, minSecondaryVoltageV, true, maxVoltageV, " V");
 
     plate.secondaryNoLoadVoltageV = r.quantity("secondary_no_load_voltage_v", Unit::Volt);
+    if (plate.secondaryNoLoadVoltageV
+        && !r.inRange("secondary_no_load_voltage_v", *plate.secondaryNoLoadVoltageV, minSecondaryVoltageV, true,
+                      maxVoltageV, " V"))
+        plate.secondaryNoLoadVoltageV.reset();
     plate.regulationPercent = r.quantity("regulation_percent", Unit::Percent);
     if (r.isMissing("secondary_no_load_voltage_v") && r.isMissing("regulation_percent")) {
         r.error("secondary_no_load_voltage_v",
@@ -262,10 +277,10 @@ void readRheostat(const json &object, SetupParse &out, Bench &bench)
     Rheostat rheostat;
     rheostat.totalResistanceOhm = r.required("total_resistance_ohm", Unit::Ohm);
     if (!r.isMissing("total_resistance_ohm"))
-        r.inRange("total_resistance_ohm", rheostat.totalResistanceOhm, 0.0, false, 1e6, " Ω");
+        r.inRange("total_resistance_ohm", rheostat.totalResistanceOhm, minRheostatOhm, true, 1e6, " Ω");
     rheostat.powerRatingW = r.required("power_rating_w", Unit::Watt);
     if (!r.isMissing("power_rating_w"))
-        r.inRange("power_rating_w", rheostat.powerRatingW, 0.0, false, 1e5, " W");
+        r.inRange("power_rating_w", rheostat.powerRatingW, minRheostatPowerW, true, 1e5, " W");
     bench.rheostat = rheostat;
 }
 
@@ -280,7 +295,7 @@ void readFuse(const json &object, SetupParse &out, Bench &bench)
     FuseSpec fuse;
     fuse.ratingA = r.required("rating_a", Unit::Ampere);
     if (!r.isMissing("rating_a"))
-        r.inRange("rating_a", fuse.ratingA, 0.0, false, 100.0, " A");
+        r.inRange("rating_a", fuse.ratingA, minFuseRatingA, true, 100.0, " A");
     if (r.isMissing("type")) {
         r.usedDefault("type");
     } else if (auto t = enumFromText(r, "type", fuseTypeNames)) {
@@ -343,39 +358,17 @@ void readBench(const json &object, SetupParse &out, Bench &bench)
     }
 }
 
-// nlohmann reports a byte offset; people want a line and a column.
-std::string positionText(std::string_view text, std::size_t byte)
-{
-    std::size_t line = 1, column = 1;
-    for (std::size_t i = 0; i < byte && i < text.size(); ++i) {
-        if (text[i] == '\n') {
-            ++line;
-            column = 1;
-        } else {
-            ++column;
-        }
-    }
-    return "line " + std::to_string(line) + ", column " + std::to_string(column);
-}
-
 } // namespace
 
 SetupParse parseSetupJson(std::string_view text)
 {
     SetupParse out;
-    json document;
-    try {
-        document = json::parse(text.begin(), text.end());
-    } catch (const json::parse_error &e) {
-        out.errors.push_back({"setup", "is not valid JSON at " + positionText(text, e.byte)
-                                           + "; expected an object with \"nameplate\" and \"bench\""});
-        return out;
-    } catch (const json::exception &e) {
-        // nlohmann refuses numbers such as 1e999 that overflow a double.
-        out.errors.push_back({"setup", std::string("has a number that is not finite (too large): every number must be "
-                                                   "finite; parser said: ") + e.what()});
+    JsonRead read = readJson(text);
+    if (!read.ok()) {
+        out.errors.push_back({"setup", read.error + "; expected an object with \"nameplate\" and \"bench\""});
         return out;
     }
+    const json document = std::move(*read.document);
     if (!document.is_object()) {
         out.errors.push_back({"setup", "must be a JSON object with \"nameplate\" and \"bench\""});
         return out;
@@ -403,12 +396,13 @@ SetupParse parseSetupJson(std::string_view text)
 
 SetupParse loadSetupFile(const std::string &path)
 {
-    const std::optional<std::string> text = readTextFile(path);
-    if (!text) {
+    const TextFileRead file = readTextFile(path, maxSetupFileBytes);
+    if (!file.text) {
         SetupParse out;
-        out.errors.push_back(unreadableFileError(path));
+        out.errors.push_back(unreadableFileError(path, file.error));
         return out;
     }
+    const std::optional<std::string> &text = file.text;
     SetupParse out = parseSetupJson(*text);
     for (auto &error : out.errors) {
         if (error.field == "setup")
@@ -444,7 +438,7 @@ std::string setupToJson(const Setup &setup)
         {"magnetizing_fraction", b.magnetizingFraction ? json(*b.magnetizingFraction) : json(nullptr)},
         {"dwell_s", b.dwellS},
     };
-    return json{{"nameplate", nameplate}, {"bench", bench}}.dump(2);
+    return jsonText(json{{"nameplate", nameplate}, {"bench", bench}}, 2);
 }
 
 } // namespace sagline

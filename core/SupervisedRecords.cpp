@@ -1,5 +1,7 @@
 #include "SupervisedRecords.h"
 
+#include "JsonReader.h"
+
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
@@ -42,7 +44,7 @@ std::string labSheetNoteText(const LabSheetStamp &stamp)
                 {"max_load_fraction", stamp.maxLoadFraction},
                 {"required_fuse", {{"rating_a", stamp.requiredFuse.ratingA}, {"type", toString(stamp.requiredFuse.type)}}},
                 {"student", stamp.student}}
-        .dump();
+        .dump(-1, ' ', false, json::error_handler_t::replace);
 }
 
 std::string checklistNoteText(const SafetyChecklist &checklist)
@@ -50,24 +52,24 @@ std::string checklistNoteText(const SafetyChecklist &checklist)
     json items = json::array();
     for (const auto &item : checklist.items)
         items.push_back({{"item", item.key}, {"text", item.text}, {"ticked", item.ticked}});
-    return json{{"safety_checklist", items}, {"student", checklist.student}, {"complete", checklist.complete()}}.dump();
+    return json{{"safety_checklist", items}, {"student", checklist.student}, {"complete", checklist.complete()}}.dump(-1, ' ', false, json::error_handler_t::replace);
 }
 
 std::string limitHitNoteText(const LimitHit &hit)
 {
     json object = {{"limit_hit", hit.rule}, {"message", hit.message}, {"step", hit.step}};
     object["current_a"] = hit.currentA ? json(*hit.currentA) : json(nullptr);
-    return object.dump();
+    return object.dump(-1, ' ', false, json::error_handler_t::replace);
 }
 
 namespace {
 
 std::optional<json> parseObject(const std::string &text)
 {
-    json object = json::parse(text, nullptr, false);
-    if (object.is_discarded() || !object.is_object())
+    JsonRead read = readJson(text);
+    if (!read.ok() || !read.document->is_object())
         return std::nullopt;
-    return object;
+    return std::move(read.document);
 }
 
 std::string stringOr(const json &object, const char *key)

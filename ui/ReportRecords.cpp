@@ -231,11 +231,21 @@ void drawRecordsAndSignOff(ReportCanvas &canvas, const SessionSummary &summary)
                      rows);
     }
     if (!summary.notes.empty()) {
+        // Capped: a session may hold notes of any length and number (a 15 MB note once took a
+        // report 46 s and 1 GB); the session file keeps them whole.
+        constexpr std::size_t maxNotes = 300;
+        constexpr int maxNoteCharacters = 2000;
         canvas.heading(QStringLiteral("Notes"));
         QList<QStringList> rows;
-        for (const NoteRecord &n : summary.notes)
-            rows.append({readableUtc(n.timeUtc), q(n.author), q(n.text)});
+        for (std::size_t i = 0; i < summary.notes.size() && i < maxNotes; ++i) {
+            const NoteRecord &n = summary.notes[i];
+            rows.append({readableUtc(n.timeUtc), shortened(n.author, 80), shortened(n.text, maxNoteCharacters)});
+        }
         canvas.table({{QStringLiteral("Time"), 0.2}, {QStringLiteral("By"), 0.16}, {QStringLiteral("Note"), 0.64}}, rows);
+        if (summary.notes.size() > maxNotes)
+            canvas.paragraph(QStringLiteral("%1 more notes are in the session file and not printed here.")
+                                 .arg(summary.notes.size() - maxNotes),
+                             8.0, false, true);
     }
     canvas.heading(QStringLiteral("Cautions"));
     canvas.paragraph(QStringLiteral(

@@ -12,10 +12,15 @@
 
 namespace sagline::reporttext {
 
-inline QString q(const std::string &text)
-{
-    return QString::fromStdString(text);
-}
+// Text from a session for the PDF, drawn as plain text whatever it holds: valid UTF-8 (U+FFFD
+// for a byte that is not), control characters shown as \xHH except line breaks and tabs, and
+// a break opportunity (U+200B) after every 24 characters without a space, so a long name wraps
+// inside its cell instead of running out of it, never between the parts of one character.
+QString q(const std::string &text);
+
+// The same, cut after `maxCharacters` characters (whole ones) with a note of how much more the
+// session holds: a 15 MB note is not laid out page after page.
+QString shortened(const std::string &text, int maxCharacters);
 
 // "0.4797 Ω ± 0.0057 Ω (k = 2)" or the value alone when there is no uncertainty.
 inline QString withU(const UncertainValue &value, const std::string &unit)

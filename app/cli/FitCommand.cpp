@@ -9,6 +9,7 @@
 #include "CommandLine.h"
 
 #include "CsvReadings.h"
+#include "OutputText.h"
 #include "SessionStore.h"
 #include "SetupJson.h"
 
@@ -230,7 +231,7 @@ int runFit(const Arguments &arguments)
     }
 
     if (args.json)
-        std::cout << fitReportJson(report).dump(2) << '\n';
+        std::cout << jsonText(fitReportJson(report), 2) << '\n';
     else
         printFitReport(report, std::cout);
     return exitSuccess;

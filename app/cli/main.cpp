@@ -3,9 +3,11 @@
 
 #include "BuildInfo.h"
 #include "DataDirectory.h"
+#include "PrintableOutput.h"
 
 #include <cstring>
 #include <iostream>
+#include <optional>
 
 namespace {
 
@@ -51,6 +53,12 @@ void printUsage(std::ostream &out)
 
 int main(int argc, char **argv)
 {
+    // What is printed for people is kept printable (a name or a meter reply from elsewhere
+    // never drives the terminal); export may write data (CSV) to standard output, left as is.
+    sagline::PrintableOutput messages(std::cerr);
+    std::optional<sagline::PrintableOutput> text;
+    if (argc < 2 || std::strcmp(argv[1], "export") != 0)
+        text.emplace(std::cout);
     if (argc < 2) {
         printUsage(std::cerr);
         return sagline::cli::exitInvalidInput;

@@ -101,7 +101,7 @@ TEST(LabSheet, RefusesOtherFilesAndNewerVersions)
     nlohmann::json doc = demoSheet();
     doc["version"] = 2;
     EXPECT_TRUE(hasError(parseLabSheetJson(doc.dump()), "version", "newer"));
-    EXPECT_TRUE(hasError(loadLabSheetFile("/nonexistent/sheet.json"), "/nonexistent/sheet.json", "cannot be read"));
+    EXPECT_TRUE(hasError(loadLabSheetFile("/nonexistent/sheet.json"), "/nonexistent/sheet.json", "no such file"));
 }
 
 TEST(LabSheet, LimitChecks)

@@ -111,13 +111,13 @@ TEST(SetupJson, ZeroAndNegativeValuesAreNamed)
 {
     json d = validSetup();
     d["nameplate"]["rated_power_va"] = 0;
-    expectFieldError(d, "nameplate.rated_power_va", "above 0");
+    expectFieldError(d, "nameplate.rated_power_va", "at least 0.1 VA");
     d = validSetup();
     d["bench"]["rheostat"]["power_rating_w"] = -5;
-    expectFieldError(d, "bench.rheostat.power_rating_w", "above 0");
+    expectFieldError(d, "bench.rheostat.power_rating_w", "at least 0.1 W");
     d = validSetup();
     d["bench"]["fuse"]["rating_a"] = 0;
-    expectFieldError(d, "bench.fuse.rating_a", "above 0");
+    expectFieldError(d, "bench.fuse.rating_a", "at least 0.01 A");
 }
 
 TEST(SetupJson, NaNAndInfinityAreNamed)
@@ -228,5 +228,5 @@ TEST(SetupJson, UnreadableFileIsAnError)
 {
     const SetupParse parsed = loadSetupFile("/nonexistent/setup.json");
     ASSERT_FALSE(parsed.setup);
-    EXPECT_NE(parsed.errors[0].rule.find("cannot be read"), std::string::npos);
+    EXPECT_NE(parsed.errors[0].rule.find("no such file"), std::string::npos) << parsed.errors[0].rule;
 }
