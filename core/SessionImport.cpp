@@ -6,6 +6,7 @@
 #include "SessionStore.h"
 #include "SetupJson.h"
 
+#include <algorithm>
 #include <filesystem>
 
 namespace sagline {
@@ -57,8 +58,12 @@ ImportResult importReadingsCsv(const ImportRequest &request)
     session.softwareVersion = request.softwareVersion;
 
     const std::string fileName = std::filesystem::path(request.csvPath).filename().string();
-    for (std::size_t i = 0; i < csv.readings.size(); ++i)
-        csv.readings[i].rawText = "imported from " + fileName + " line " + std::to_string(csv.lineNumbers[i]);
+    const std::string origin = "imported from " + fileName + " line ";
+    for (std::size_t i = 0; i < csv.readings.size(); ++i) {
+        std::string &raw = csv.readings[i].rawText;
+        raw.reserve(origin.size() + 10);
+        raw.append(origin).append(std::to_string(csv.lineNumbers[i]));
+    }
 
     auto fail = [&](const StoreStatus &status) {
         std::error_code error;
@@ -75,23 +80,19 @@ ImportResult importReadingsCsv(const ImportRequest &request)
         return result; // create leaves nothing behind on failure, or refused an existing file
     }
     SessionStore &store = *created.value;
-    const auto ids = store.appendReadings(csv.readings);
+    // One transaction for the readings and the exclusions marked in the file.
+    MarkedExclusions marked;
+    marked.author = request.operatorName;
+    marked.reason = [&](std::size_t i) {
+        return "marked excluded in " + fileName + " line " + std::to_string(csv.lineNumbers[i]);
+    };
+    const auto ids = store.appendReadings(csv.readings, &marked);
     if (!ids.ok()) {
         created.value.reset();
         return fail(ids.status());
     }
-    for (std::size_t i = 0; i < csv.readings.size(); ++i) {
-        if (!csv.readings[i].excluded)
-            continue;
-        const auto excluded = store.excludeReading(ids.value[i], "marked excluded in " + fileName + " line " +
-                                                                     std::to_string(csv.lineNumbers[i]),
-                                                   request.operatorName);
-        if (!excluded.ok()) {
-            created.value.reset();
-            return fail(excluded.status());
-        }
-        ++result.excluded;
-    }
+    result.excluded = static_cast<std::size_t>(
+        std::count_if(csv.readings.begin(), csv.readings.end(), [](const Reading &r) { return r.excluded; }));
     result.readings = ids.value.size();
     return result;
 }

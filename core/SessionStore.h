@@ -29,6 +29,7 @@
 #include <functional>
 #include <memory>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace sagline {
@@ -73,7 +74,10 @@ public:
     // non-finite value is stored as "no value"); uncertainties, when given, finite and ≥ 0.
     StoreResult<std::int64_t> appendReading(const Reading &reading);
     // Records several readings in one transaction (an import): all or none. Returns their ids.
-    StoreResult<std::vector<std::int64_t>> appendReadings(const std::vector<Reading> &readings);
+    // With `marked`, each reading whose `excluded` is set also gets its exclusion row in that
+    // transaction (an import's marks); without, reading.excluded is ignored.
+    StoreResult<std::vector<std::int64_t>> appendReadings(const std::vector<Reading> &readings,
+                                                          const MarkedExclusions *marked = nullptr);
     // Excludes a reading from the fit, or restores it; reason required. NotFound for an
     // unknown reading id.
     StoreResult<std::int64_t> excludeReading(std::int64_t readingId, const std::string &reason, const std::string &author);
@@ -139,6 +143,9 @@ private:
                                               const std::string &author);
     std::string now() const;
     StoreStatus checkReading(const Reading &reading) const;
+    // appendReadings' exclusions (readings index, reason) inside its transaction; an SQLite code.
+    int insertExclusions(const std::vector<std::pair<std::size_t, std::string>> &exclusions,
+                         const std::vector<std::int64_t> &ids, const std::string &author, const std::string &stamp);
 
     std::string m_path;
     SqliteHandle m_db;        // the file, or an upgraded in-memory copy for review of an old file
