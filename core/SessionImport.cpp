@@ -56,6 +56,7 @@ ImportResult importReadingsCsv(const ImportRequest &request)
     session.ambientTemperatureC = request.ambientTemperatureC;
     session.windingTemperatureC = request.windingTemperatureC;
     session.softwareVersion = request.softwareVersion;
+    session.createdBy = {request.person, ""};
 
     const std::string fileName = std::filesystem::path(request.csvPath).filename().string();
     const std::string origin = "imported from " + fileName + " line ";
@@ -65,35 +66,30 @@ ImportResult importReadingsCsv(const ImportRequest &request)
         raw.append(origin).append(std::to_string(csv.lineNumbers[i]));
     }
 
-    auto fail = [&](const StoreStatus &status) {
-        std::error_code error;
-        std::filesystem::remove(request.outputPath, error); // no half-imported session is left behind
-        ImportResult failed;
-        failed.code = status.code;
-        failed.message = status.message;
-        return failed;
-    };
-    auto created = SessionStore::create(request.outputPath, session);
-    if (!created.ok()) {
-        result.code = created.code;
-        result.message = created.message;
-        return result; // create leaves nothing behind on failure, or refused an existing file
-    }
-    SessionStore &store = *created.value;
-    // One transaction for the readings and the exclusions marked in the file.
+    // The readings go in before the file appears under its name: a failed or killed import
+    // leaves no session behind, and never removes a file it did not create. The readings and
+    // the exclusions marked in the file are one transaction.
     MarkedExclusions marked;
-    marked.author = request.operatorName;
+    marked.author = request.person.empty() ? request.operatorName : request.person;
     marked.reason = [&](std::size_t i) {
         return "marked excluded in " + fileName + " line " + std::to_string(csv.lineNumbers[i]);
     };
-    const auto ids = store.appendReadings(csv.readings, &marked);
-    if (!ids.ok()) {
-        created.value.reset();
-        return fail(ids.status());
+    std::size_t recorded = 0;
+    const StoreStatus created = SessionStore::createClosed(request.outputPath, session, [&](SessionStore &store) {
+        const auto ids = store.appendReadings(csv.readings, &marked);
+        if (!ids.ok())
+            return ids.status();
+        recorded = ids.value.size();
+        return StoreStatus::success();
+    });
+    if (!created.ok()) {
+        result.code = created.code;
+        result.message = created.message;
+        return result;
     }
     result.excluded = static_cast<std::size_t>(
         std::count_if(csv.readings.begin(), csv.readings.end(), [](const Reading &r) { return r.excluded; }));
-    result.readings = ids.value.size();
+    result.readings = recorded;
     return result;
 }
 

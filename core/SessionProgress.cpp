@@ -5,6 +5,17 @@
 
 namespace sagline {
 
+const char *toString(Completeness state)
+{
+    switch (state) {
+    case Completeness::Complete: return "complete";
+    case Completeness::InProgress: return "in progress";
+    case Completeness::Stopped: return "stopped";
+    case Completeness::Interrupted: return "interrupted";
+    }
+    return "complete";
+}
+
 std::string SessionProgress::label() const
 {
     const std::string count = std::to_string(recordedSteps) + " of " + std::to_string(plannedSteps) + " steps";

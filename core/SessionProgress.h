@@ -21,6 +21,8 @@ enum class Completeness {
     Interrupted,  // ended without a finish or a stop: the recording program did not end the sweep
 };
 
+const char *toString(Completeness state); // "complete", "in progress", "stopped", "interrupted"
+
 struct SessionProgress {
     Completeness state = Completeness::Complete;
     int plannedSteps = 0;         // N

@@ -255,6 +255,15 @@ StoreResult<std::vector<SignOffRecord>> SessionStore::signOffs() const
                                     });
 }
 
+StoreResult<std::vector<Actor>> SessionStore::readingActors() const
+{
+    return selectAll<Actor>(m_db.get(), "SELECT id, person, os_account FROM reading ORDER BY id", "reading",
+                            [](const SqliteStatement &row, Actor &actor) {
+                                actor = {row.columnText(1), row.columnText(2)};
+                                return std::string();
+                            });
+}
+
 StoreResult<std::vector<SupersessionRecord>> SessionStore::supersessions() const
 {
     return selectAll<SupersessionRecord>(

@@ -28,5 +28,11 @@ int runImport(const Arguments &args);
 int runExport(const Arguments &args);
 int runReport(const Arguments &args);
 int runCompare(const Arguments &args);
+int runExclude(const Arguments &args);
+int runRestore(const Arguments &args);
+int runNote(const Arguments &args);
+int runSignOff(const Arguments &args);
+int runReopen(const Arguments &args);
+int runVerify(const Arguments &args);
 
 } // namespace sagline::cli

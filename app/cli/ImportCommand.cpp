@@ -38,6 +38,7 @@ int runImport(const Arguments &args)
     line.addOption({"setup"}, "SETUP.json", "the setup file (nameplate and bench)");
     line.addOption({"o", "output"}, "SESSION.sagline", "the session file to create (never an existing file)");
     line.addOption({"operator"}, "NAME", "who took the readings (default: $USER)");
+    line.addOption({"by"}, "NAME", "who imports them, recorded with every record (the OS account is recorded too)");
     line.addOption({"serial"}, "UNIT_SERIAL", "the unit's serial number");
     line.addOption({"ambient"}, "TEMP", "ambient temperature (°C, or with a unit: \"22.5 °C\")");
     line.addOption({"winding"}, "TEMP", "winding temperature during the test");
@@ -49,6 +50,7 @@ int runImport(const Arguments &args)
     request.setupPath = line.value("setup");
     request.outputPath = line.value("output");
     request.operatorName = line.value("operator");
+    request.person = line.value("by");
     request.unitSerial = line.value("serial");
     bool ok = true;
     if (const auto text = line.valueIfSet("ambient"))

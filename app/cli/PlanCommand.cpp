@@ -5,6 +5,7 @@
 
 #include "FuseStandards.h"
 #include "NumberFormat.h"
+#include "PlanGates.h"
 #include "PlanJson.h"
 #include "Planner.h"
 #include "SetupJson.h"
@@ -90,12 +91,15 @@ void printSteps(const Plan &plan, std::ostream &out)
 
 int runPlan(const Arguments &args)
 {
-    CommandLine line("sagline-cli plan", "SETUP.json [--json]",
+    CommandLine line("sagline-cli plan", "SETUP.json [--json] [--truncate-to-safe]",
                      "Plans a safe load sweep from the nameplate and the bench: rated currents, turns ratio, estimated "
                      "series resistance, regulation, the recommended primary fuse, the NEC 450.3(B) ceiling and one row "
-                     "per load step.");
+                     "per load step. A nameplate that cannot describe a mains transformer (a voltage in the wrong unit) "
+                     "is refused naming the field, and so is a plan with steps the rheostat or the primary fuse cannot "
+                     "take (exit 2, the steps named) unless --truncate-to-safe is given.");
     line.addPositional("SETUP.json", "the setup file (JSON: nameplate and bench)");
     line.addFlag({"json"}, "print one JSON object instead of the table");
+    line.addFlag({"truncate-to-safe"}, "leave out the steps the rheostat or the fuse cannot take (said in the warnings)");
     line.addNote(exitCodesNote);
     if (const auto exit = line.parse(args))
         return *exit;
@@ -115,6 +119,15 @@ int runPlan(const Arguments &args)
         return exitInvalidInput;
     }
     Plan plan = *result.plan;
+    if (const auto unsafe = unsafeSteps(plan); !unsafe.empty()) {
+        if (!line.isSet("truncate-to-safe")) {
+            std::cerr << "sagline-cli plan: refused: the bench cannot take " << describeUnsafeSteps(unsafe)
+                      << ". Give a larger rheostat or fuse in the setup, lower bench.top_fraction, or plan only the safe "
+                         "steps with --truncate-to-safe\n";
+            return exitInvalidInput;
+        }
+        plan = truncatedToSafe(plan);
+    }
     // Defaults the parser filled in (e.g. frequency) join those the planner chose.
     plan.defaultsUsed.insert(plan.defaultsUsed.begin(), parsed.defaultsUsed.begin(), parsed.defaultsUsed.end());
 

@@ -12,6 +12,7 @@
 #include "InstrumentRig.h"
 #include "LineFitLiveFit.h"
 #include "LinkAddress.h"
+#include "PlanGates.h"
 #include "PlanJson.h"
 #include "Planner.h"
 #include "ResultAnalysis.h"
@@ -53,6 +54,9 @@ struct RunArguments {
     std::optional<double> dwellS;
     std::optional<double> readIntervalS;
     std::string operatorName;
+    std::string person;          // --by: recorded with every record
+    std::string overrideReason;  // --override-limits
+    bool truncateToSafe = false;
     std::string unitSerial;
     std::optional<double> ambientC;
 };
@@ -76,8 +80,13 @@ CommandLine runCommandLine()
     line.addFlag({"reset"}, "send *RST to each meter on connecting");
     line.addHeading("the session");
     line.addOption({"operator"}, "NAME", "who runs the test (default: $USER)");
+    line.addOption({"by"}, "NAME", "the person recorded with every reading and event (the OS account is recorded too)");
     line.addOption({"serial"}, "UNIT", "the unit's serial number");
     line.addOption({"ambient"}, "C", "ambient temperature, -60 to 80 °C");
+    line.addHeading("steps the rheostat or the fuse cannot take (refused before connecting otherwise)");
+    line.addFlag({"truncate-to-safe"}, "run only the safe steps (recorded in the session)");
+    line.addOption({"override-limits"}, "REASON", "run every step anyway, with --by; the reason is recorded (the hard "
+                                                  "stops still apply)");
     line.addHeading("timing");
     line.addOption({"dwell"}, "S", "seconds to wait at each step, 0 to 86400, instead of the setup's");
     line.addOption({"read-interval"}, "S", "seconds between readings, 0 to 3600");
@@ -106,6 +115,15 @@ std::optional<int> readArguments(const CommandLine &line, RunArguments *out)
     out->addresses.load = QString::fromLocal8Bit(line.value("load"));
     out->addresses.resetOnConnect = line.isSet("reset");
     out->operatorName = line.value("operator");
+    out->person = line.value("by");
+    out->overrideReason = line.value("override-limits");
+    out->truncateToSafe = line.isSet("truncate-to-safe");
+    if (line.isSet("override-limits") && out->overrideReason.find_first_not_of(" \t") == std::string::npos)
+        return line.fail("--override-limits: give the reason the limits are overridden");
+    if (!out->overrideReason.empty() && out->person.find_first_not_of(" \t") == std::string::npos)
+        return line.fail("--by: an override of the limits needs the name of the person who decides it");
+    if (!out->overrideReason.empty() && out->truncateToSafe)
+        return line.fail("--truncate-to-safe and --override-limits: choose one");
     out->unitSerial = line.value("serial");
     std::optional<std::int64_t> timeoutMs;
     std::optional<std::uint64_t> seed;
@@ -176,7 +194,32 @@ int runRun(const Arguments &rawArgs)
             std::cerr << "sagline-cli run: plan refused: " << e.message() << '\n';
         return exitInvalidInput;
     }
-    const Plan &plan = *planned.plan;
+    Plan plan = *planned.plan;
+    // A plan with steps the bench cannot take is refused before anything is connected, unless
+    // cut to its safe steps or overridden by a named person with a reason (both recorded).
+    const std::vector<UnsafeStep> unsafe = unsafeSteps(plan);
+    std::optional<std::pair<SweepEventKind, std::string>> gateRecord;
+    if (!unsafe.empty()) {
+        const std::string steps = describeUnsafeSteps(unsafe);
+        if (args.truncateToSafe) {
+            plan = truncatedToSafe(plan);
+            gateRecord = {SweepEventKind::Truncated, "removed " + steps};
+            std::cerr << "sagline-cli run: running the safe steps only; removed " << steps << '\n';
+        } else if (!args.overrideReason.empty()) {
+            gateRecord = {SweepEventKind::LimitOverride, steps + "; reason: " + args.overrideReason};
+            std::cerr << "sagline-cli run: WARNING: limits overridden by " << args.person << " (" << args.overrideReason
+                      << "): " << steps << '\n';
+        } else {
+            std::cerr << "sagline-cli run: refused before connecting: the bench cannot take " << steps
+                      << ". Fix the setup, run the safe steps with --truncate-to-safe, or override with --override-limits "
+                         "REASON --by NAME\n";
+            return exitInvalidInput;
+        }
+        if (plan.steps.empty()) {
+            std::cerr << "sagline-cli run: refused: no step of the plan is safe\n";
+            return exitInvalidInput;
+        }
+    }
     if (QFileInfo::exists(QString::fromStdString(args.outputPath))) {
         std::cerr << "sagline-cli run: " << args.outputPath << " already exists; a session file is never overwritten\n";
         return exitInvalidInput;
@@ -241,12 +284,20 @@ int runRun(const Arguments &rawArgs)
                                     : std::string("unspecified");
     session.ambientTemperatureC = args.ambientC;
     session.softwareVersion = std::string("sagline-cli ") + buildinfo::version;
+    session.createdBy = {args.person, ""};
     auto created = SessionStore::create(args.outputPath, session);
     if (!created.ok()) {
         std::cerr << "sagline-cli run: " << args.outputPath << ": " << created.status().message << '\n';
         return created.status().code == StoreCode::FileExists ? exitInvalidInput : exitRuntimeFailure;
     }
     std::unique_ptr<SessionStore> store = std::move(created.value);
+    if (gateRecord) {
+        const auto recorded = store->recordSweepEvent(gateRecord->first, -1, gateRecord->second);
+        if (!recorded.ok()) {
+            std::cerr << "sagline-cli run: " << recorded.message << '\n';
+            return exitRuntimeFailure;
+        }
+    }
     SessionStoreSink sink(store.get(), QStringLiteral("sagline-cli run"));
     LineFitLiveFit fit;
 

@@ -25,6 +25,13 @@ constexpr Command commands[] = {
     {"export", sagline::cli::runExport, "export SESSION.sagline --csv OUT.csv [--fit-csv F.csv] [--json OUT.json]   readings, fit, summary"},
     {"report", sagline::cli::runReport, "report SESSION.sagline -o REPORT.pdf [--page a4|letter]   the printed test report (PDF)"},
     {"compare", sagline::cli::runCompare, "compare FILES_OR_FOLDERS... [--csv OUT.csv] [--json]  compare saved sessions (review)"},
+    {"exclude", sagline::cli::runExclude, "exclude SESSION.sagline --reading N --reason TEXT --by NAME   leave a reading out of the fit"},
+    {"restore", sagline::cli::runRestore, "restore SESSION.sagline --reading N --reason TEXT --by NAME   bring an excluded reading back"},
+    {"note", sagline::cli::runNote, "note SESSION.sagline --text TEXT --by NAME   add a note"},
+    {"sign-off", sagline::cli::runSignOff, "sign-off SESSION.sagline --by NAME --decision accept|reject|retest [--comment TEXT]\n"
+                                           "                                     sign off and seal (SHA-256 digest of the content)"},
+    {"reopen", sagline::cli::runReopen, "reopen SESSION.sagline --by NAME --reason TEXT   lift a sign-off so the session can change"},
+    {"verify", sagline::cli::runVerify, "verify SESSION.sagline             integrity and sign-off digests (exit 0 intact, 1 altered)"},
 };
 
 void printUsage(std::ostream &out)
