@@ -366,7 +366,7 @@ void SweepController::finish(SweepOutcome outcome)
 
 QString SweepController::retake(int step, std::int64_t supersededId, const QString &reason)
 {
-    if (m_state == SweepState::Idle || m_state == SweepState::Finished || m_state == SweepState::Stopped)
+    if (m_state == SweepState::Finished || m_state == SweepState::Stopped)
         return tr("no sweep is running");
     if (m_state == SweepState::Paused)
         return tr("the sweep is paused: resume it first");
@@ -379,11 +379,15 @@ QString SweepController::retake(int step, std::int64_t supersededId, const QStri
     }
     if (index < 0)
         return tr("step %1 is not in the plan").arg(step);
+    m_retake = Retake{supersededId, reason.trimmed()};
+    m_stepIndex = index;
+    if (m_state == SweepState::Idle) {
+        m_step = step; // start() begins with it
+        return {};
+    }
     cancelTimers();
     ++m_readSerial;
-    m_retake = Retake{supersededId, reason.trimmed()};
     event(tr("step %1 taken again: %2").arg(step).arg(reason.trimmed()));
-    m_stepIndex = index;
     m_loadConfirmed = false;
     m_loadInDoubt = false;
     m_confirmedBeforeLoss = false;

@@ -90,7 +90,8 @@ public:
     QString submitManualReading(const QString &voltageText, const QString &currentText, bool confirmed = false);
     // Takes `step` again: the reading it records supersedes reading `supersededId` (kept in
     // the session, marked superseded with `reason`), then the sweep goes on at the first step
-    // still without a reading. Returns the refusal, or "" when the step starts.
+    // still without a reading. Before start() it makes the sweep begin with that step.
+    // Returns the refusal, or "" when the step starts.
     QString retake(int step, std::int64_t supersededId, const QString &reason);
     bool isRetaking() const { return m_retake.has_value(); }
     void pause();            // by the operator; the current step restarts on resume()
