@@ -3,6 +3,8 @@
 #include "NumberFormat.h"
 
 #include <cmath>
+#include <cstdio>
+#include <cstdlib>
 
 namespace sagline {
 
@@ -22,11 +24,22 @@ std::string slipHint(double ratio, const char *unit)
     return {};
 }
 
+// Two significant digits without padding: "1000", "10", "2.4".
+std::string roughly(double value)
+{
+    char text[32];
+    std::snprintf(text, sizeof text, "%.2g", value);
+    const double rounded = std::strtod(text, nullptr);
+    if (rounded >= 10.0)
+        std::snprintf(text, sizeof text, "%.0f", rounded);
+    return text;
+}
+
 std::string times(double ratio)
 {
     if (ratio >= 1.0)
-        return formatSignificant(ratio, 3) + " times";
-    return "1/" + formatSignificant(1.0 / ratio, 3) + " of";
+        return roughly(ratio) + " times";
+    return "1/" + roughly(1.0 / ratio) + " of";
 }
 
 } // namespace

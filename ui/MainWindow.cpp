@@ -297,12 +297,8 @@ void MainWindow::handleRecord()
     if (!outcome.question.isEmpty()) {
         // A second look: the value and what the step expects, recorded only when confirmed.
         const bool aboutCurrent = outcome.confirmField == current->field();
-        const QString question = tr("Step %1: %2.\n\nRecord it as typed? It is then flagged \"confirmed\"; "
-                                    "choose No to correct it.")
-                                     .arg(m_workspace->run() && m_workspace->run()->controller()
-                                              ? m_workspace->run()->controller()->currentStep()
-                                              : 0)
-                                     .arg(outcome.question);
+        const QString question = tr("%1.\n\nRecord it as typed? It is then flagged \"confirmed\"; choose No to correct it.")
+                                     .arg(outcome.question.left(1).toUpper() + outcome.question.mid(1));
         if (!m_confirmPrompt(tr("Check the typed value"), question)) {
             (aboutCurrent ? current : voltage)->setError(outcome.question);
             (aboutCurrent ? current : voltage)->lineEdit()->setFocus();
@@ -350,7 +346,7 @@ void MainWindow::handleReadingChanged(int row)
     else
         m_readingsModel->setExcluded(row, reading.excluded, reading.excluded ? m_workspace->exclusionReason(reading.id) : QString());
     if (m_points.setExcluded(row, reading.excluded)) {
-        m_chart->pointsChanged();
+        m_chart->rescale(); // the axes fit the included points again, so they may shrink
         m_residuals->pointsChanged();
     }
     refreshFitViews();
@@ -433,6 +429,7 @@ void MainWindow::handleRunningChanged(bool running)
         }
     } else if (m_workspace->store()) {
         showSessionState();
+        refreshFitViews(); // provisional from now on
     }
 }
 

@@ -158,7 +158,8 @@ TypedOutcome SweepWorkspace::submitTyped(const QString &currentText, const QStri
         return outcome;
     }
     SweepController *controller = m_run->controller();
-    if (!confirmed && controller->state() == SweepState::WaitingForEntry) {
+    std::string confirmedWhat;
+    if (controller->state() == SweepState::WaitingForEntry) {
         // A second look before anything is recorded (core/TypedReadingCheck).
         const int step = controller->currentStep();
         TypedExpectation expected;
@@ -177,15 +178,24 @@ TypedOutcome SweepWorkspace::submitTyped(const QString &currentText, const QStri
                 expected.voltageInterval = std::pair{prediction.prediction->low, prediction.prediction->high};
         }
         const TypedCheck check = checkTypedReading(expected, current.value, voltage.value);
-        if (check.needsConfirmation) {
+        if (check.needsConfirmation && !confirmed) {
             outcome.confirmField = QString::fromStdString(check.field);
             outcome.question = QString::fromStdString(check.message);
             return outcome;
         }
+        if (check.needsConfirmation)
+            confirmedWhat = check.message;
     }
-    const QString refusal = controller->submitManualReading(voltageText, currentText, confirmed);
-    if (!refusal.isEmpty())
+    const int step = controller->currentStep();
+    const QString refusal = controller->submitManualReading(voltageText, currentText, !confirmedWhat.empty());
+    if (!refusal.isEmpty()) {
         outcome.refusal = QStringLiteral("reading: ") + refusal;
+    } else if (!confirmedWhat.empty() && m_store) {
+        // The reading carries the "confirmed" flag; the event says what was expected instead.
+        const auto recorded = m_store->recordSweepEvent(SweepEventKind::ValueConfirmed, step, "confirmed by the person: " + confirmedWhat);
+        if (!recorded.ok())
+            emit notice(QString::fromStdString(recorded.message));
+    }
     return outcome;
 }
 

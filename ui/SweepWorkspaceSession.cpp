@@ -74,7 +74,10 @@ SessionProgress SweepWorkspace::progress() const
         for (const PlanStep &step : m_plan->steps)
             planned.push_back(step.index);
     }
-    return sessionProgress(planned, m_readings, m_records.safetyStops, m_records.sweepEvents, isRunning());
+    // A run that is starting (its controller not yet at its first step) is running too.
+    const bool running = isRunning()
+                         || (m_run && m_run->controller() && m_run->controller()->state() == SweepState::Idle);
+    return sessionProgress(planned, m_readings, m_records.safetyStops, m_records.sweepEvents, running);
 }
 
 bool SweepWorkspace::isChangeable() const
