@@ -4,6 +4,7 @@
 #include "ManualEntry.h"
 #include "PlanJson.h"
 #include "SessionChanges.h"
+#include "SessionSchema.h"
 #include "SessionStore.h"
 #include "TypedReadingCheck.h"
 #include "SetupJson.h"
@@ -251,6 +252,7 @@ QString SweepWorkspace::openSession(const QString &path)
     m_details = {};
     m_person.clear();
     m_limitChoice = {};
+    m_readOnlyReason.clear();
     resetReadings();
     m_paused = false;
     emit runningChanged(false);
@@ -258,24 +260,40 @@ QString SweepWorkspace::openSession(const QString &path)
         emit sessionChanged();
         return {};
     }
-    auto opened = SessionStore::openForWriting(path.toStdString());
-    if (opened.code == StoreCode::NewerVersion || opened.code == StoreCode::ReadOnly || opened.code == StoreCode::Busy)
-        opened = SessionStore::openForReview(path.toStdString());
-    if (!opened.ok()) {
+    const auto failed = [this](const std::string &message) {
         emit sessionChanged();
-        return QString::fromStdString(opened.message);
+        return QString::fromStdString(message);
+    };
+    // Looked at first without writing: an older file stays as it is (opening never migrates
+    // it; a copy saved from it is in the current format), and only a current one is taken for
+    // writing. A file another program is writing, or a read-only one, is shown for review.
+    auto opened = SessionStore::openForReview(path.toStdString());
+    if (!opened.ok())
+        return failed(opened.message);
+    QString reviewOnly;
+    if (opened.value->fileSchemaVersion() < sessionSchemaVersion) {
+        reviewOnly = tr("%1: written by an older Sagline (schema %2); shown read-only, so opening it does not change it. "
+                        "File, Save a copy as… writes it in the current format.")
+                         .arg(path)
+                         .arg(opened.value->fileSchemaVersion());
+    } else if (opened.value->fileSchemaVersion() == sessionSchemaVersion) {
+        auto writable = SessionStore::openForWriting(path.toStdString());
+        if (writable.ok())
+            opened = std::move(writable);
+        else if (writable.code == StoreCode::Busy || writable.code == StoreCode::ReadOnly
+                 || writable.code == StoreCode::CannotOpen)
+            reviewOnly = tr("Shown read-only: %1").arg(QString::fromStdString(writable.message));
+        else
+            return failed(writable.message);
     }
     auto readings = opened.value->readings();
-    if (!readings.ok()) {
-        emit sessionChanged();
-        return QString::fromStdString(readings.message);
-    }
+    if (!readings.ok())
+        return failed(readings.message);
     m_store = std::move(opened.value);
     if (const QString problem = loadRecords(); !problem.isEmpty()) {
         m_store.reset();
         m_records = {};
-        emit sessionChanged();
-        return problem;
+        return failed(problem.toStdString());
     }
     m_records.fromFile = true;
     if (const auto notes = m_store->notes(); notes.ok()) {
@@ -297,9 +315,15 @@ QString SweepWorkspace::openSession(const QString &path)
             m_fit.add(reading.currentA, reading.voltageV);
     }
     fitUpdated();
+    if (m_store->isReadOnly())
+        m_readOnlyReason = !reviewOnly.isEmpty() ? reviewOnly
+                           : !m_store->notice().empty() ? QString::fromStdString(m_store->notice())
+                                                        : tr("the file cannot be written");
     emit sessionChanged();
     if (!m_store->notice().empty())
         emit notice(QString::fromStdString(m_store->notice()));
+    if (!reviewOnly.isEmpty())
+        emit notice(reviewOnly);
     return {};
 }
 

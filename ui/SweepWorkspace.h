@@ -134,6 +134,9 @@ public:
     // Opens a saved session (review and continuation of notes/exclusions). "" or the reason.
     QString openSession(const QString &path);
     QString sessionPath() const;
+    // Why the open session is shown read-only ("" when it can be written): an older file, one
+    // another program is writing, a newer one.
+    QString readOnlyReason() const { return m_readOnlyReason; }
     SessionStore *store() const { return m_store.get(); }
 
     // The open session's records, its progress (k of N steps; "in progress" while running) and
@@ -221,6 +224,7 @@ private:
     std::optional<int> m_retakeRow; // the row a retake under way will supersede
     QString m_person;
     LimitChoice m_limitChoice;
+    QString m_readOnlyReason;
 };
 
 } // namespace sagline
