@@ -11,7 +11,9 @@ class QLabel;
 
 namespace sagline {
 
-enum class VerdictState { None, Pass, Fail, Undecided };
+// Provisional: the sweep is still running (k of N steps); Incomplete: it ended before its last
+// step. Neither shows a pass or a fail.
+enum class VerdictState { None, Pass, Fail, Undecided, Provisional, Incomplete };
 
 struct ResultLine {
     QString key;   // stable name for tests and layout ("series_resistance")
