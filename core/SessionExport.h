@@ -15,6 +15,10 @@ namespace sagline {
 // current_a/voltage_v cells.
 std::string readingsToCsv(const std::vector<Reading> &readings);
 
+// The 95 % interval of R printed everywhere: R ± U of its budget when the session has an
+// analysis, else the fit's own (Student t, n - 2 dof, the scatter alone). Empty below 3 points.
+std::optional<Interval> seriesResistanceInterval(const SessionSummary &summary);
+
 // Header: quantity,value,standard_uncertainty,unit, one row per fitted quantity (R, V0, ...),
 // then per reading: reading_id, residual and studentized residual under the same columns.
 std::string fitResultsToCsv(const SessionSummary &summary);

@@ -314,6 +314,7 @@ void MainWindow::refreshFitViews()
     const ResultsView view = resultsView(inputs);
     m_results->setLines(view.lines);
     m_results->setVerdict(view.state, view.verdictText, view.verdictRule);
+    m_results->setBudgets(view.budgets);
 }
 
 void MainWindow::flushCharts()
@@ -396,6 +397,7 @@ void MainWindow::resetViews()
     m_residuals->clearPoints();
     m_results->setLines({});
     m_results->setVerdict(VerdictState::None, {}, {});
+    m_results->setBudgets({});
     m_caution->clearAlarm();
     m_statusPoints->clear();
 }

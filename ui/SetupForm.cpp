@@ -97,10 +97,12 @@ SetupForm::SetupForm(QWidget *parent)
     auto *verdictBox = new QGroupBox(tr("Results and verdict"));
     auto *verdict = new QFormLayout(verdictBox);
     addQuantity(verdict, tr("Regulation limit"), QStringLiteral("verdict.regulation_limit_percent"), Unit::Percent,
-                tr("blank: the nameplate's"));
-    m_decisionRule->addItem(tr("Guarded acceptance, w = U"), int(DecisionRule::GuardedAcceptance));
-    m_decisionRule->addItem(tr("Simple acceptance"), int(DecisionRule::SimpleAcceptance));
-    m_decisionRule->setToolTip(tr("ILAC-G8:09/2019 decision rules, section 4.2"));
+                tr("blank: the specification's; or \"nameplate\""));
+    m_decisionRule->addItem(tr("Non-binary: pass, conditional, fail (w = U)"), int(DecisionRule::NonBinary));
+    m_decisionRule->addItem(tr("Guarded, binary (w = U)"), int(DecisionRule::Guarded));
+    m_decisionRule->addItem(tr("Simple acceptance (w = 0)"), int(DecisionRule::Simple));
+    m_decisionRule->setToolTip(tr("ILAC-G8:09/2019 decision rules: §4.2.3 non-binary, §4.2.2 binary with guard band, "
+                                  "§4.2.1 simple acceptance"));
     m_decisionRule->setAccessibleName(QStringLiteral("verdict.decision_rule"));
     verdict->addRow(tr("Decision rule"), m_decisionRule);
     addQuantity(verdict, tr("Reference temperature"), QStringLiteral("verdict.reference_temperature_c"), Unit::Celsius,
@@ -216,8 +218,8 @@ VerdictSettings verdictSettingsFrom(const AnalysisSettings &settings)
     const auto text = [](const std::optional<double> &value) {
         return value ? QString::number(*value, 'g', 12) : QString();
     };
-    return {text(settings.regulationLimitPercent), settings.rule, text(settings.referenceTemperatureC),
-            settings.temperatureConstant};
+    return {settings.regulationLimitNameplate ? QStringLiteral("nameplate") : text(settings.regulationLimitPercent),
+            settings.rule, text(settings.referenceTemperatureC), settings.temperatureConstant};
 }
 
 void SetupForm::setVerdictSettings(const VerdictSettings &settings)

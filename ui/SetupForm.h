@@ -32,8 +32,9 @@ struct SessionDetails {
 
 // How results are judged: the limit, the decision rule, the temperature correction.
 struct VerdictSettings {
-    QString regulationLimit;                       // as typed; blank = the nameplate's regulation
-    DecisionRule rule = DecisionRule::GuardedAcceptance;
+    QString regulationLimit;                       // as typed; blank = the setup's specification,
+                                                   // "nameplate" = the nameplate's regulation
+    DecisionRule rule = DecisionRule::NonBinary;
     QString referenceTemperature;                  // as typed; blank = no correction
     std::optional<TemperatureConstant> constant;   // none = per winding material
 };

@@ -280,15 +280,17 @@ QString SweepWorkspace::recordAnalysisSettings(const VerdictSettings &verdict)
     settings.rule = verdict.rule;
     settings.temperatureConstant = verdict.constant;
     // Read by core's parser, as the results panel reads them; what does not read is not stored.
-    for (const auto &[text, unit, field, into] :
-         {std::tuple{verdict.regulationLimit, Unit::Percent, "verdict.regulation_limit_percent", &settings.regulationLimitPercent},
-          std::tuple{verdict.referenceTemperature, Unit::Celsius, "verdict.reference_temperature_c",
-                     &settings.referenceTemperatureC}}) {
-        QString problem;
-        *into = typedQuantity(text, unit, {}, &problem);
-        if (!problem.isEmpty())
-            return QString::fromLatin1(field) + QStringLiteral(": not stored in the session, ") + problem;
-    }
+    QString problem;
+    const auto limit = typedRegulationLimit(verdict.regulationLimit, {}, &problem);
+    if (!problem.isEmpty())
+        return QStringLiteral("verdict.regulation_limit_percent: not stored in the session, ") + problem;
+    if (limit && limit->kind == RegulationLimitChoice::Kind::Nameplate)
+        settings.regulationLimitNameplate = true;
+    else if (limit)
+        settings.regulationLimitPercent = limit->percent;
+    settings.referenceTemperatureC = typedQuantity(verdict.referenceTemperature, Unit::Celsius, {}, &problem);
+    if (!problem.isEmpty())
+        return QStringLiteral("verdict.reference_temperature_c: not stored in the session, ") + problem;
     if (m_recordedSettings == settings)
         return {};
     // Only what a reader will accept is stored (e.g. a limit above zero).

@@ -6,6 +6,7 @@
 #include "CliCommands.h"
 
 #include "ComparisonExport.h"
+#include "ConformityAssessment.h"
 #include "NumberFormat.h"
 #include "SessionComparison.h"
 #include "SessionScan.h"
@@ -24,7 +25,8 @@ namespace {
 
 constexpr const char *usage =
     "usage: sagline-cli compare FILES_OR_FOLDERS... [--csv OUT.csv] [--json] [--method ols|wls|york]\n"
-    "                           [--reference-temperature °C] [--convention iec|ieee] [--rule guarded|simple]\n";
+    "                           [--reference-temperature °C] [--convention iec|ieee]\n"
+    "                           [--rule simple|guarded|non-binary] [--regulation-limit PERCENT|nameplate]\n";
 
 // Display width of UTF-8 text: one column per code point (enough for Ω, ±, °).
 std::size_t displayWidth(const std::string &text)
@@ -109,6 +111,7 @@ std::string parseArguments(const Arguments &args, Options &options)
             if (end == text.c_str() || *end != '\0' || !std::isfinite(t) || t < -50.0 || t > 250.0)
                 return "--reference-temperature must be a number of °C from -50 to 250, got '" + text + "'";
             options.comparison.figures.referenceTemperatureC = t;
+            options.comparison.figures.judgeAtReferenceTemperature = true;
         } else if (arg == "--convention") {
             if (!value(text) || (text != "iec" && text != "ieee"))
                 return "--convention must be iec (copper 235 °C, IEC 60076-1) or ieee (copper 234.5 °C, IEEE C57.12.90)";
@@ -117,9 +120,15 @@ std::string parseArguments(const Arguments &args, Options &options)
         } else if (arg == "--rule") {
             const auto rule = value(text) ? decisionRuleFromString(text) : std::nullopt;
             if (!rule)
-                return "--rule must be guarded or simple (ILAC-G8:09/2019 decision rules)";
+                return "--rule must be simple, guarded or non-binary (ILAC-G8:09/2019 §4.2 decision rules)";
             options.comparison.figures.rule = *rule;
             options.comparison.ruleChosen = true;
+        } else if (arg == "--regulation-limit") {
+            const auto limit = value(text) ? regulationLimitFromText(text) : std::nullopt;
+            if (!limit)
+                return "--regulation-limit must be a percentage above 0 and at most 100, or nameplate";
+            options.comparison.figures.regulationLimit = *limit;
+            options.comparison.limitChosen = true;
         } else if (!arg.empty() && arg[0] == '-') {
             return "unknown option '" + arg + "'";
         } else {
@@ -156,7 +165,8 @@ void printTable(const std::vector<SessionRow> &rows, const BatchStatistics &stat
                          withUncertainty(v0, f.noLoadVoltageUV.value_or(absent)),
                          withUncertainty(f.regulationPercent.value_or(absent), f.regulationUPercent.value_or(absent)),
                          f.verdictText(), std::to_string(row.safetyStops.size()), row.reviewState(),
-                         (std::isfinite(z) ? formatFixed(z, 2) : std::string("n/a")) + (far ? " FAR" : "")});
+                         (std::isfinite(z) ? formatFixed(z, 2) : std::string("n/a"))
+                             + (far ? (stats.screeningOnly ? " far (screening only)" : " FAR") : "")});
     }
     std::vector<std::size_t> widths(titles.size());
     for (std::size_t c = 0; c < titles.size(); ++c) {
@@ -201,15 +211,14 @@ void printSummary(const std::vector<SessionRow> &rows, const BatchStatistics &st
         else if (ruleName != row.figures.ruleName)
             ruleName = "each session's recorded rule";
     }
-    out << "  Verdicts on regulation against the nameplate (" << (ruleName.empty() ? toString(options.figures.rule) : ruleName)
-        << "):\n    pass " << stats.pass << ", fail " << stats.fail << ", cannot decide " << stats.undecided << ", n/a "
-        << stats.noVerdict << '\n';
+    out << "  Verdicts against each session's specification (" << (ruleName.empty() ? toString(options.figures.rule) : ruleName)
+        << "):\n    " << verdictCountsText(stats) << '\n';
     out << "  Review: accepted " << stats.accepted << ", rejected " << stats.rejected << ", retest " << stats.retest
         << ", not reviewed " << stats.notReviewed << "; safety stops in " << stats.safetyStopped
         << " sessions; lab-sheet limit hit in " << stats.limitHit << '\n';
     out << "  Far from the batch: " << stats.ruleNote << '\n';
-    out << "  Fit: " << toString(options.method) << "; uncertainties expanded with k = "
-        << formatSignificant(options.figures.coverageFactor, 2) << "\n";
+    out << "  Fit: " << toString(options.method) << "; expanded uncertainties U at 95 % coverage, k = t95(ν_eff) of"
+        << " each result's own budget (GUM G.4)\n";
 }
 
 } // namespace

@@ -1,13 +1,17 @@
-// sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json] [--setup SETUP.json]
-//   [--rule simple|guarded] [--regulation-limit PERCENT] [--winding-temperature C]
-//   [--reference-temperature C] [--temperature-constant copper-ieee|copper-iec|aluminium]
+// sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json] [--budget]
+//   [--setup SETUP.json] [--rule simple|guarded|non-binary] [--regulation-limit PERCENT|nameplate]
+//   [--winding-temperature C] [--reference-temperature C]
+//   [--temperature-constant copper-ieee|copper-iec|aluminium]
 // Fits V = V0 - R·I to the readings; with a nameplate (a session's setup, or --setup) it adds
-// the analysis at rated current and the verdict against the nameplate's regulation.
+// the analysis at rated current with uncertainty budgets and the verdict against the setup's
+// specification. A session goes through core's SessionSummary, so `fit`, `report`, `export` and
+// the window show the same numbers.
 #include "CliCommands.h"
 #include "FitOutput.h"
 
+#include "ConformityAssessment.h"
 #include "CsvReadings.h"
-#include "SessionStore.h"
+#include "SessionSummary.h"
 #include "SetupJson.h"
 
 #include <charconv>
@@ -19,8 +23,8 @@ namespace sagline::cli {
 namespace {
 
 constexpr const char *usage =
-    "usage: sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json]\n"
-    "         [--setup SETUP.json] [--rule simple|guarded] [--regulation-limit PERCENT]\n"
+    "usage: sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json] [--budget]\n"
+    "         [--setup SETUP.json] [--rule simple|guarded|non-binary] [--regulation-limit PERCENT|nameplate]\n"
     "         [--winding-temperature C] [--reference-temperature C]\n"
     "         [--temperature-constant copper-ieee|copper-iec|aluminium]\n";
 
@@ -28,9 +32,10 @@ struct FitArguments {
     std::string dataPath;
     FitMethod method = FitMethod::Ols;
     bool json = false;
+    bool budget = false;
     std::string setupPath;
-    std::optional<DecisionRule> rule;  // default: a session's analysis-settings record, else guarded
-    std::optional<double> regulationLimit;
+    std::optional<DecisionRule> rule;  // default: a session's analysis-settings record, else non-binary
+    std::optional<RegulationLimitChoice> regulationLimit;
     std::optional<double> windingTemperatureC;
     std::optional<double> referenceTemperatureC;
     std::optional<TemperatureConstant> temperatureConstant;
@@ -51,6 +56,11 @@ std::optional<double> parseNumber(const std::string &text)
     return value;
 }
 
+bool endsWith(const std::string &text, const std::string &suffix)
+{
+    return text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0;
+}
+
 // Returns an error message, or nothing when the arguments are valid.
 std::optional<std::string> parseArguments(const Arguments &args, FitArguments &out)
 {
@@ -63,6 +73,8 @@ std::optional<std::string> parseArguments(const Arguments &args, FitArguments &o
         };
         if (arg == "--json") {
             out.json = true;
+        } else if (arg == "--budget") {
+            out.budget = true;
         } else if (arg == "--method" || arg == "--rule" || arg == "--setup" || arg == "--regulation-limit"
                    || arg == "--winding-temperature" || arg == "--reference-temperature"
                    || arg == "--temperature-constant") {
@@ -77,8 +89,14 @@ std::optional<std::string> parseArguments(const Arguments &args, FitArguments &o
             } else if (arg == "--rule") {
                 const auto rule = decisionRuleFromString(*text);
                 if (!rule)
-                    return "--rule: unknown decision rule '" + *text + "'; use simple or guarded";
+                    return "--rule: unknown decision rule '" + *text
+                           + "'; use simple, guarded or non-binary (ILAC-G8:09/2019 §4.2.1-4.2.3)";
                 out.rule = *rule;
+            } else if (arg == "--regulation-limit") {
+                out.regulationLimit = regulationLimitFromText(*text);
+                if (!out.regulationLimit)
+                    return "--regulation-limit: '" + *text
+                           + "' is neither a percentage above 0 and at most 100 nor the word nameplate";
             } else if (arg == "--setup") {
                 out.setupPath = *text;
             } else if (arg == "--temperature-constant") {
@@ -89,9 +107,7 @@ std::optional<std::string> parseArguments(const Arguments &args, FitArguments &o
                 const auto number = parseNumber(*text);
                 if (!number)
                     return arg + ": not a finite number: '" + *text + "'";
-                (arg == "--regulation-limit"      ? out.regulationLimit
-                 : arg == "--winding-temperature" ? out.windingTemperatureC
-                                                  : out.referenceTemperatureC) = *number;
+                (arg == "--winding-temperature" ? out.windingTemperatureC : out.referenceTemperatureC) = *number;
             }
         } else if (!arg.empty() && arg[0] == '-') {
             return "unknown option '" + arg + "'";
@@ -103,47 +119,53 @@ std::optional<std::string> parseArguments(const Arguments &args, FitArguments &o
     }
     if (out.dataPath.empty())
         return "no data file given";
-    if (out.windingTemperatureC.has_value() != out.referenceTemperatureC.has_value())
+    if (!endsWith(out.dataPath, ".sagline") && out.windingTemperatureC.has_value() != out.referenceTemperatureC.has_value())
         return "--winding-temperature and --reference-temperature go together";
     return std::nullopt;
 }
 
-bool endsWith(const std::string &text, const std::string &suffix)
+// A session: everything from core's summary (the session's setup, temperatures and recorded
+// settings, the options given here winning).
+int fitSession(const FitArguments &args, FitReport &report)
 {
-    return text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0;
+    if (!args.setupPath.empty())
+        return invalid("--setup is for a CSV; a session carries its own setup");
+    ReviewOptions review;
+    review.method = args.method;
+    review.rule = args.rule;
+    review.regulationLimit = args.regulationLimit;
+    review.referenceTemperatureC = args.referenceTemperatureC;
+    review.windingTemperatureC = args.windingTemperatureC;
+    review.temperatureConstant = args.temperatureConstant;
+    auto loaded = loadSessionSummary(args.dataPath, review);
+    if (!loaded.ok()) {
+        std::cerr << "sagline-cli fit: " << args.dataPath << ": " << loaded.message << '\n';
+        return loaded.code == StoreCode::IoError ? exitRuntimeFailure : exitInvalidInput;
+    }
+    const SessionSummary &summary = loaded.value;
+    for (const std::string &notice : summary.recordedSettings.notices)
+        report.warnings.push_back(notice);
+    report.fit = summary.fit;
+    if (!report.fit.ok())
+        return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + report.fit.message);
+    report.meters = summary.setup ? summary.setup->meters : std::nullopt;
+    report.analysis = summary.analysis;
+    report.verdict = summary.verdict;
+    if (!summary.setup)
+        report.warnings.push_back("no analysis at rated current: " + summary.analysisProblem);
+    else if (!summary.analysis)
+        report.warnings.push_back("no analysis at rated current: " + summary.analysisProblem);
+    report.hasNameplate = summary.setup.has_value();
+    report.ruleSource = summary.ruleSource;
+    report.regulationLimitSource = summary.regulationLimitSource;
+    report.temperatureConstantSource = summary.temperatureConstantSource;
+    report.settingsUsed = describeSettingsUsed(summary);
+    return exitSuccess;
 }
 
-// Loads the readings (and a session's setup). Returns an exit code on failure.
-std::optional<int> loadData(const FitArguments &args, std::vector<Reading> &readings, FitReport &report,
-                            std::optional<Setup> &setup, std::optional<AnalysisSettings> &recorded)
+// A CSV: the readings as given, the nameplate, meters and specification from --setup.
+int fitCsv(const FitArguments &args, FitReport &report)
 {
-    if (endsWith(args.dataPath, ".sagline")) {
-        auto store = SessionStore::openForReview(args.dataPath);
-        if (!store.ok()) {
-            std::cerr << "sagline-cli fit: " << args.dataPath << ": " << store.message << '\n';
-            return store.code == StoreCode::IoError ? exitRuntimeFailure : exitInvalidInput;
-        }
-        auto stored = store.value->readings();
-        auto info = store.value->info();
-        if (!stored.ok() || !info.ok()) {
-            std::cerr << "sagline-cli fit: " << args.dataPath << ": " << (stored.ok() ? info.message : stored.message) << '\n';
-            return exitRuntimeFailure;
-        }
-        readings = std::move(stored.value);
-        if (const auto notes = store.value->notes(); notes.ok()) {
-            const RecordedAnalysisSettings latest = latestAnalysisSettings(notes.value);
-            for (const std::string &notice : latest.notices)
-                report.warnings.push_back(notice);
-            recorded = latest.settings;
-        } else {
-            report.warnings.push_back("the session's notes could not be read (" + notes.message
-                                      + "); judged with the options and defaults");
-        }
-        const SetupParse parsed = parseSetupJson(info.value.setupJson);
-        if (parsed.setup)
-            setup = parsed.setup;
-        return std::nullopt;
-    }
     const ReadingsCsvParse csv = loadReadingsCsv(args.dataPath);
     if (!csv.ok()) {
         for (const FieldError &e : csv.errors)
@@ -154,9 +176,56 @@ std::optional<int> loadData(const FitArguments &args, std::vector<Reading> &read
         return invalid(args.dataPath + ": --method wls needs the column u_voltage_v (standard uncertainty of each voltage)");
     if (args.method == FitMethod::York && !(csv.hasVoltageUncertainty && csv.hasCurrentUncertainty))
         return invalid(args.dataPath + ": --method york needs the columns u_current_a and u_voltage_v (standard uncertainties)");
-    readings = csv.readings;
     report.lineNumbers = csv.lineNumbers;
-    return std::nullopt;
+    std::optional<Setup> setup;
+    if (!args.setupPath.empty()) {
+        const SetupParse parsed = loadSetupFile(args.setupPath);
+        if (!parsed.setup) {
+            for (const FieldError &e : parsed.errors)
+                std::cerr << "sagline-cli fit: " << args.setupPath << ", " << e.message() << '\n';
+            return exitInvalidInput;
+        }
+        setup = parsed.setup;
+    } else if (args.regulationLimit || args.windingTemperatureC || args.rule) {
+        return invalid("--rule, --regulation-limit and the temperatures need the nameplate: give --setup SETUP.json "
+                       "or a session");
+    }
+    report.meters = setup ? setup->meters : std::nullopt;
+    report.fit = fitReadings(csv.readings, args.method, fitOptionsFor(report.meters));
+    if (!report.fit.ok()) {
+        std::string message = report.fit.message;
+        // Name the CSV line as well as the row.
+        const std::size_t at = message.rfind("row ", 0) == 0 ? 4 : std::string::npos;
+        if (at != std::string::npos && !report.lineNumbers.empty()) {
+            const std::size_t row = std::stoul(message.substr(at));
+            if (row < report.lineNumbers.size())
+                message = "line " + std::to_string(report.lineNumbers[row]) + " (" + message.substr(0, message.find(':'))
+                          + ")" + message.substr(message.find(':'));
+        }
+        return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + message);
+    }
+    if (!setup)
+        return exitSuccess;
+    report.hasNameplate = true;
+    AssessmentOptions options;
+    options.rule = args.rule.value_or(DecisionRule::NonBinary);
+    options.regulationLimit = args.regulationLimit.value_or(RegulationLimitChoice{});
+    options.windingTemperatureC = args.windingTemperatureC;
+    options.referenceTemperatureC = args.referenceTemperatureC;
+    options.temperatureConstant = args.temperatureConstant;
+    const auto sourceOf = [](bool given) { return given ? SettingSource::Option : SettingSource::Default; };
+    report.ruleSource = sourceOf(args.rule.has_value());
+    report.regulationLimitSource = sourceOf(args.regulationLimit.has_value());
+    report.temperatureConstantSource = sourceOf(args.temperatureConstant.has_value());
+    Assessment assessment = assessFit(report.fit, *setup, options);
+    if (!assessment.analysis.ok()) {
+        for (const FieldError &e : assessment.analysis.errors)
+            report.warnings.push_back("no analysis at rated current: " + e.message());
+        return exitSuccess;
+    }
+    report.analysis = std::move(assessment.analysis);
+    report.verdict = std::move(assessment.verdict);
+    return exitSuccess;
 }
 
 } // namespace
@@ -170,81 +239,14 @@ int runFit(const Arguments &arguments)
     }
     FitReport report;
     report.source = args.dataPath;
-    std::vector<Reading> readings;
-    std::optional<Setup> setup;
-    std::optional<AnalysisSettings> recorded;
-    if (const auto code = loadData(args, readings, report, setup, recorded))
-        return *code;
-    if (!args.setupPath.empty()) {
-        const SetupParse parsed = loadSetupFile(args.setupPath);
-        if (!parsed.setup) {
-            for (const FieldError &e : parsed.errors)
-                std::cerr << "sagline-cli fit: " << args.setupPath << ", " << e.message() << '\n';
-            return exitInvalidInput;
-        }
-        setup = parsed.setup;
-    }
-
-    report.fit = fitReadings(readings, args.method);
-    if (!report.fit.ok()) {
-        std::string message = report.fit.message;
-        // Name the CSV line as well as the row.
-        const std::size_t at = message.rfind("row ", 0) == 0 ? 4 : std::string::npos;
-        if (at != std::string::npos && !report.lineNumbers.empty()) {
-            const std::size_t row = std::stoul(message.substr(at));
-            if (row < report.lineNumbers.size())
-                message = "line " + std::to_string(report.lineNumbers[row]) + " (" + message.substr(0, message.find(':'))
-                          + ")" + message.substr(message.find(':'));
-        }
-        return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + message);
-    }
+    report.printBudget = args.budget;
+    const int code = endsWith(args.dataPath, ".sagline") ? fitSession(args, report) : fitCsv(args, report);
+    if (code != exitSuccess)
+        return code;
     for (std::string &warning : fitWarnings(report.fit, report.lineNumbers))
         report.warnings.push_back(std::move(warning));
-
-    // Options first, then the session's record, then the defaults. The record's reference
-    // temperature is not used: the fit command refers R only to a winding temperature given here.
-    const auto sourceOf = [&](bool given, bool inRecord) {
-        return given ? SettingSource::Option : inRecord ? SettingSource::SessionRecord : SettingSource::Default;
-    };
-    report.ruleSource = sourceOf(args.rule.has_value(), recorded.has_value());
-    report.regulationLimitSource = sourceOf(args.regulationLimit.has_value(), recorded && recorded->regulationLimitPercent);
-    report.temperatureConstantSource =
-        sourceOf(args.temperatureConstant.has_value(), recorded && recorded->temperatureConstant);
-    DecisionRule rule = DecisionRule::GuardedAcceptance;
-    std::optional<double> limit = args.regulationLimit;
-    std::optional<TemperatureConstant> constant = args.temperatureConstant;
-    if (recorded) {
-        rule = recorded->rule;
-        if (!limit)
-            limit = recorded->regulationLimitPercent;
-        if (!constant)
-            constant = recorded->temperatureConstant;
-    }
-    if (args.rule)
-        rule = *args.rule;
-    if (setup) {
-        AnalysisInput input = analysisInputFor(setup->nameplate);
-        input.windingTemperatureC = args.windingTemperatureC;
-        input.referenceTemperatureC = args.referenceTemperatureC;
-        if (constant)
-            input.temperatureConstant = *constant;
-        report.analysis = analyseFit(report.fit, input);
-        if (!report.analysis->ok()) {
-            for (const FieldError &e : report.analysis->errors)
-                report.warnings.push_back("no analysis at rated current: " + e.message());
-        }
-        report.regulationLimitPercent = limit ? limit : nameplateRegulationPercent(setup->nameplate);
-    } else if (args.regulationLimit || args.windingTemperatureC) {
-        return invalid("--regulation-limit and the temperatures need the nameplate: give --setup SETUP.json or a session");
-    }
-    if (report.analysis && report.analysis->ok() && report.regulationLimitPercent) {
-        const UncertainValue &reg = report.analysis->regulationPercent;
-        report.decision = decideAgainstUpperLimit(reg.value, reg.expandedUncertainty, *report.regulationLimitPercent,
-                                                  rule);
-        if (!reg.expandedUncertainty)
-            report.warnings.push_back("the regulation has no uncertainty: the fit has too few points to give one");
-    }
-
+    if (report.analysis && !report.analysis->regulationPercent.expandedUncertainty)
+        report.warnings.push_back("the results have no uncertainty: the fit has too few points to give one");
     if (args.json)
         std::cout << fitReportJson(report).dump(2) << '\n';
     else

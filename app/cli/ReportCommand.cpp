@@ -22,7 +22,7 @@ namespace {
 
 constexpr const char *usage =
     "usage: sagline-cli report SESSION.sagline -o REPORT.pdf [--page a4|letter] [--method ols|wls|york]\n"
-    "         [--rule simple|guarded] [--regulation-limit PERCENT] [--reference-temperature C]\n"
+    "         [--rule simple|guarded|non-binary] [--regulation-limit PERCENT|nameplate] [--reference-temperature C]\n"
     "         [--temperature-constant copper-ieee|copper-iec|aluminium]\n";
 
 std::optional<double> parseNumber(const std::string &text)
@@ -71,26 +71,26 @@ std::string parseArguments(const Arguments &args, std::string &session, std::str
         } else if (arg == "--rule") {
             const auto rule = decisionRuleFromString(value);
             if (!rule)
-                return "--rule: expected simple or guarded, got '" + value + "'";
+                return "--rule: expected simple, guarded or non-binary, got '" + value + "'";
             review.rule = *rule;
         } else if (arg == "--temperature-constant") {
             const auto constant = temperatureConstantFromString(value);
             if (!constant)
                 return "--temperature-constant: expected copper-ieee, copper-iec or aluminium, got '" + value + "'";
             review.temperatureConstant = *constant;
+        } else if (arg == "--regulation-limit") {
+            const auto limit = regulationLimitFromText(value);
+            if (!limit)
+                return "--regulation-limit: expected a percentage above 0 and at most 100, or nameplate, got '" + value
+                       + "'";
+            review.regulationLimit = *limit;
         } else {
             const auto number = parseNumber(value);
             if (!number)
                 return arg + ": expected a number, got '" + value + "'";
-            if (arg == "--regulation-limit") {
-                if (*number <= 0.0)
-                    return "--regulation-limit: must be above zero (percent), got " + value;
-                review.regulationLimitPercent = *number;
-            } else {
-                if (*number < -273.15 || *number > 1000.0)
-                    return "--reference-temperature: must be between -273.15 and 1000 °C, got " + value;
-                review.referenceTemperatureC = *number;
-            }
+            if (*number < -273.15 || *number > 1000.0)
+                return "--reference-temperature: must be between -273.15 and 1000 °C, got " + value;
+            review.referenceTemperatureC = *number;
         }
     }
     if (session.empty() || output.empty())
@@ -136,8 +136,9 @@ int runReport(const Arguments &args)
     for (const std::string &notice : summary.value.recordedSettings.notices)
         std::cerr << "sagline-cli report: note: " << notice << '\n';
     std::cout << "Judged with: " << describeSettingsUsed(summary.value) << '\n';
-    if (const auto &d = summary.value.decision; d && d->ok)
-        std::cout << "Verdict on regulation: " << toString(d->outcome) << " (" << d->ruleName << ")\n";
+    if (const auto &v = summary.value.verdict)
+        std::cout << "Verdict: " << toString(v->outcome) << " (" << v->ruleName << "; limits: " << v->limitsSource
+                  << ")\n";
     std::cout << "Wrote " << outputPath << '\n';
     return exitSuccess;
 }
