@@ -77,11 +77,11 @@ void conclude(SpecificationVerdict &verdict, const AnalysisResult &analysis)
         }
         return;
     }
-    verdict.explanation = outcomeWords(verdict.outcome) + " on " + std::to_string(verdict.limits.size())
+    verdict.explanation = "Judged on " + std::to_string(verdict.limits.size())
                           + (verdict.limits.size() == 1 ? " limit" : " limits");
     if (verdict.conformanceProbability)
-        verdict.explanation += "; probability of conformity " + formatSignificant(*verdict.conformanceProbability * 100.0, 3)
-                               + " %" + (verdict.limits.size() > 1 ? " (the lowest of the limits)" : "");
+        verdict.explanation += "; probability of conformity " + conformanceProbabilityText(*verdict.conformanceProbability)
+                               + (verdict.limits.size() > 1 ? " (the lowest of the limits)" : "");
     verdict.explanation += ".";
 }
 

@@ -1,5 +1,6 @@
 #include "ConformityDecision.h"
 
+#include "CombinedDistribution.h"
 #include "Distributions.h"
 #include "NumberFormat.h"
 #include "UncertaintyFormat.h"
@@ -139,6 +140,27 @@ double conformanceProbability(double value, double standardUncertainty, double e
     return std::clamp(p, 0.0, 1.0);
 }
 
+double conformanceProbability(const UncertainValue &result, const ToleranceRange &limits)
+{
+    if (result.budget.empty() || !result.standardUncertainty || !(*result.standardUncertainty > 0.0))
+        return conformanceProbability(result.value, result.standardUncertainty.value_or(0.0),
+                                      result.effectiveDof.value_or(infinity), limits);
+    const CombinedDistribution distribution(result.budget);
+    const auto at = [&](double limit, double otherwise) {
+        return std::isfinite(limit) ? distribution.cdf(limit - result.value) : otherwise;
+    };
+    return std::clamp(at(upperOf(limits), 1.0) - at(lowerOf(limits), 0.0), 0.0, 1.0);
+}
+
+std::string conformanceProbabilityText(double probability)
+{
+    if (probability >= 0.9995)
+        return "> 99.9 %";
+    if (probability <= 0.0005)
+        return "< 0.1 %";
+    return formatSignificant(probability * 100.0, 3) + " %";
+}
+
 ConformityDecision decideConformity(const std::string &quantity, const std::string &unit, const UncertainValue &result,
                                     const ToleranceRange &limits, DecisionRule rule)
 {
@@ -161,9 +183,8 @@ ConformityDecision decideConformity(const std::string &quantity, const std::stri
     const double low = lowerOf(limits), high = upperOf(limits);
     const std::string value = formatSignificant(result.value, 4) + (unit.empty() ? "" : " " + unit);
     const std::string against = limitText(limits, unit);
-    if (result.standardUncertainty && result.effectiveDof)
-        d.conformanceProbability =
-            conformanceProbability(result.value, *result.standardUncertainty, *result.effectiveDof, limits);
+    if (result.standardUncertainty)
+        d.conformanceProbability = conformanceProbability(result, limits);
     const bool withinTolerance = inside(result.value, low, high);
 
     if (rule == DecisionRule::Simple) {
@@ -191,8 +212,8 @@ ConformityDecision decideConformity(const std::string &quantity, const std::stri
     if (rule == DecisionRule::Guarded) {
         d.outcome = accepted ? ConformityOutcome::Pass : ConformityOutcome::Fail;
         d.explanation = quantity + " " + withU + (accepted ? " lies within " : " does not lie within ") + against
-                        + " less U (the acceptance limit)" + (accepted || !withinTolerance ? "." : ", though within "
-                                                                                                   "the limit itself.");
+                        + " less U (the acceptance limits)";
+        d.explanation += accepted || !withinTolerance ? "." : ", though within the limits themselves.";
         return d;
     }
     if (accepted) {

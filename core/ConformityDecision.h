@@ -1,8 +1,9 @@
 // A statement of conformity of one measured result against its tolerance limits, by a decision
 // rule of ILAC-G8:09/2019 "Guidelines on Decision Rules and Statements of Conformity" §4.2,
 // with the conformance probability of JCGM 106:2012 §7 (the probability that the true value
-// lies within the limits, from a normal or, with finite ν_eff, a scaled and shifted t
-// distribution centred on the result with the standard uncertainty as scale). IEC Guide
+// lies within the limits, from the result's distribution centred on its value: the combined
+// distribution of its budget's components, which is a normal or a scaled and shifted t when
+// those are all normal or one Type A dominates). IEC Guide
 // 115:2021 is the electrotechnical sector's reading of the same ideas (from memory); Sagline
 // follows ILAC-G8 and JCGM 106 directly.
 #pragma once
@@ -53,6 +54,11 @@ struct ConformityDecision {
 // gives 1 inside the limits and 0 outside.
 double conformanceProbability(double value, double standardUncertainty, double effectiveDof,
                               const ToleranceRange &limits);
+// The same with the result's own combined distribution (its budget's components,
+// CombinedDistribution.h): the distribution its coverage interval comes from.
+double conformanceProbability(const UncertainValue &result, const ToleranceRange &limits);
+// "89.2 %", "> 99.9 %", "< 0.1 %".
+std::string conformanceProbabilityText(double probability);
 
 // Judges `result` (value, u, ν_eff and U from its budget) against limits (at least one end).
 // Without an uncertainty (a two-point fit) the guarded and non-binary rules cannot apply their

@@ -21,6 +21,7 @@ BudgetComponent typeB(std::string source, std::string distribution, double u, st
     BudgetComponent component;
     component.source = std::move(source);
     component.type = EvaluationType::B;
+    component.shape = distribution == "rectangular" ? DistributionShape::Rectangular : DistributionShape::Normal;
     component.distribution = std::move(distribution);
     component.standardUncertainty = u;
     component.inputUnit = std::move(unit);
@@ -93,7 +94,7 @@ std::optional<BudgetComponent> FitBudget::randomComponent(const ResultGradient &
         return c;
     }
     if (m_scatterV >= m_floorV) {
-        c.source = "readings' scatter about the line (residual SD, " + formatSignificant(dof, 3) + " degrees of freedom)";
+        c.source = "readings' scatter about the line (residual SD, " + std::to_string(m_fit.n - 2) + " degrees of freedom)";
         c.type = EvaluationType::A;
         c.distribution = "normal";
         c.standardUncertainty = m_scatterV;
@@ -102,7 +103,9 @@ std::optional<BudgetComponent> FitBudget::randomComponent(const ResultGradient &
         c.source = "readings' resolution (the scatter, " + formatQuantity(m_scatterV, "V", 2)
                    + ", is below what rounding to the last digit gives)";
         c.type = EvaluationType::B;
-        c.distribution = "rectangular";
+        // Each reading's rounding is rectangular; their sum through the fit is close to normal.
+        c.distribution = "rectangular per reading, normal through the fit";
+        c.shape = DistributionShape::Normal;
         c.standardUncertainty = m_floorV;
     }
     c.inputUnit = "V";
@@ -128,10 +131,14 @@ UncertainValue FitBudget::evaluate(double value, const ResultGradient &g) const
             if (present)
                 components.push_back(std::move(component));
         };
-        // Gains in % of reading: sensitivities per %.
+        // Gains in % of reading: sensitivities per %. A result of R/V0 alone (regulation) has
+        // V0·f_V0 + R·f_R = 0 exactly; keep rounding from showing as a tiny non-zero.
+        const double scaleTerms = std::fabs(m_v0 * g.dV0) + std::fabs(m_r * g.dR);
+        const double voltGain = m_v0 * g.dV0 + m_r * g.dR;
         add(vm.gainPercentOfReading > 0.0,
             typeB("voltmeter gain (±" + formatSignificant(vm.gainPercentOfReading, 3) + " % of reading)", "rectangular",
-                  rectangular(vm.gainPercentOfReading), "%", -(m_v0 * g.dV0 + m_r * g.dR) / 100.0));
+                  rectangular(vm.gainPercentOfReading), "%",
+                  std::fabs(voltGain) <= 1e-12 * scaleTerms ? 0.0 : -voltGain / 100.0));
         add(vm.offset > 0.0, typeB("voltmeter offset (±" + formatQuantity(vm.offset, "V", 3) + ")", "rectangular",
                                    rectangular(vm.offset), "V", -g.dV0));
         add(am.gainPercentOfReading > 0.0,

@@ -84,9 +84,16 @@ void studentized(std::span<const double> x, std::span<const double> e, std::span
     }
 }
 
+// "5", "2.5": a percentage as people write it.
 std::string shortNumber(double value)
 {
-    return formatSignificant(value, 4);
+    std::string text = formatSignificant(value, 4);
+    if (text.find('.') != std::string::npos) {
+        text.erase(text.find_last_not_of('0') + 1);
+        if (text.back() == '.')
+            text.pop_back();
+    }
+    return text;
 }
 
 } // namespace
@@ -107,42 +114,105 @@ double resolutionScatterV(double voltageResolutionV, double currentResolutionA, 
     return std::sqrt((v * v + slopeVPerA * slopeVPerA * i * i) / 12.0);
 }
 
+namespace {
+
+// The statistic of every point of one pass (the active points only).
+void passStatistics(bool known, std::span<const double> x, std::span<const double> e, std::span<const double> w,
+                    std::span<const double> sigma, double floorV, std::vector<std::optional<double>> &out)
+{
+    out.assign(x.size(), std::nullopt);
+    if (known && x.size() >= 3)
+        normalizedResiduals(x, e, w, sigma, floorV, out);
+    else if (!known && x.size() >= 4)
+        studentized(x, e, w, floorV, out);
+}
+
+double criticalValue(bool known, std::size_t n, double familyAlpha)
+{
+    const double tail = familyAlpha / (2.0 * static_cast<double>(n));
+    return known ? normalQuantile(1.0 - tail) : studentTQuantile(1.0 - tail, static_cast<double>(n) - 3.0);
+}
+
+// Residuals of the active points about the line refitted without the points set aside: the
+// weighted line through (x, e) is the change of the fitted line, so e - (δa + δb·x).
+void refitResiduals(std::vector<double> &x, std::vector<double> &e, const std::vector<double> &w)
+{
+    const Centre c = centreOf(x, w);
+    double meanE = 0.0, sxe = 0.0;
+    for (std::size_t i = 0; i < x.size(); ++i)
+        meanE += w[i] * e[i] / c.sumW;
+    for (std::size_t i = 0; i < x.size(); ++i)
+        sxe += w[i] * (x[i] - c.meanX) * (e[i] - meanE);
+    const double slope = c.sxx > 0.0 ? sxe / c.sxx : 0.0;
+    for (std::size_t i = 0; i < x.size(); ++i)
+        e[i] -= meanE + slope * (x[i] - c.meanX);
+}
+
+} // namespace
+
 OutlierScreening screenResiduals(std::span<const double> x, std::span<const double> residuals,
                                  std::span<const double> weights, std::span<const double> knownSigmaV,
                                  double scatterFloorV, const OutlierScreenOptions &options,
                                  std::vector<std::optional<double>> &statistics, std::vector<bool> &flagged)
 {
     const std::size_t n = x.size();
-    statistics.assign(n, std::nullopt);
     flagged.assign(n, false);
     OutlierScreening screening;
     const bool known = !knownSigmaV.empty();
     const double floorV = std::isfinite(scatterFloorV) && scatterFloorV > 0.0 ? scatterFloorV : 0.0;
     const std::string family = "Bonferroni, " + shortNumber(options.familyAlpha * 100.0) + " % per sweep";
-    if (known) {
+    const std::string sequence = "; the largest beyond it is flagged and set aside, the rest screened again";
+    if (known)
         screening.rule = "normalized residual e/(σ·sqrt(1 - h)) with the readings' stated random uncertainty, "
-                         "against z(1 - α/(2n)) (" + family + ")";
-        if (n >= 3)
-            normalizedResiduals(x, residuals, weights, knownSigmaV, floorV, statistics);
-    } else {
+                         "against z(1 - α/(2n)) (" + family + ")" + sequence;
+    else
         screening.rule = "externally studentized residual (n - 3 degrees of freedom"
                          + std::string(floorV > 0.0 ? ", scatter floored by the resolution" : "")
-                         + "), against t(1 - α/(2n), n - 3) (" + family + ")";
-        if (n >= 4)
-            studentized(x, residuals, weights, floorV, statistics);
-    }
+                         + "), against t(1 - α/(2n), n - 3) (" + family + ")" + sequence;
+    passStatistics(known, x, residuals, weights, knownSigmaV, floorV, statistics);
     if (n < options.minimumPoints) {
         screening.reason = "too few points to screen (" + std::to_string(n) + "; the screen needs "
                            + std::to_string(options.minimumPoints) + ")";
         return screening;
     }
-    const double tail = options.familyAlpha / (2.0 * static_cast<double>(n));
-    const double critical = known ? normalQuantile(1.0 - tail)
-                                  : studentTQuantile(1.0 - tail, static_cast<double>(n) - 3.0);
     screening.screened = true;
-    screening.criticalValue = critical;
+    screening.criticalValue = criticalValue(known, n, options.familyAlpha);
+    // On a clean sweep only the first pass can flag, so the family level holds; setting a flagged
+    // point aside before looking again keeps one gross misread from dragging the line (and,
+    // with a known σ, every other residual) past the critical value.
+    std::vector<std::size_t> active(n);
     for (std::size_t i = 0; i < n; ++i)
-        flagged[i] = statistics[i] && std::fabs(*statistics[i]) > critical;
+        active[i] = i;
+    std::vector<double> ax, ae, aw, as;
+    std::vector<std::optional<double>> passed = statistics;
+    for (bool first = true;; first = false) {
+        if (!first) {
+            ax.clear(), ae.clear(), aw.clear(), as.clear();
+            for (std::size_t i : active) {
+                ax.push_back(x[i]);
+                ae.push_back(residuals[i]);
+                aw.push_back(weights[i]);
+                if (known)
+                    as.push_back(knownSigmaV[i]);
+            }
+            refitResiduals(ax, ae, aw);
+            passStatistics(known, ax, ae, aw, as, floorV, passed);
+            for (std::size_t k = 0; k < active.size(); ++k)
+                statistics[active[k]] = passed[k];
+        }
+        const double critical = criticalValue(known, active.size(), options.familyAlpha);
+        std::optional<std::size_t> worst;
+        for (std::size_t k = 0; k < active.size(); ++k)
+            if (passed[k] && std::fabs(*passed[k]) > critical
+                && (!worst || std::fabs(*passed[k]) > std::fabs(*passed[*worst])))
+                worst = k;
+        if (!worst)
+            break;
+        flagged[active[*worst]] = true;
+        active.erase(active.begin() + static_cast<std::ptrdiff_t>(*worst));
+        if (active.size() < options.minimumPoints)
+            break;
+    }
     return screening;
 }
 

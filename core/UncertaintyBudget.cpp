@@ -1,5 +1,6 @@
 #include "UncertaintyBudget.h"
 
+#include "CombinedDistribution.h"
 #include "Distributions.h"
 #include "NumberFormat.h"
 
@@ -43,7 +44,9 @@ UncertainValue combineBudget(double value, std::vector<BudgetComponent> componen
         sum += c.contribution * c.contribution;
     const double u = std::sqrt(sum);
     const double dof = effectiveDegreesOfFreedom(u, components);
-    const double k = coverageFactorFor(dof);
+    // The interval of the components' own distributions; t95(ν_eff) when u is 0 (no spread).
+    const double k = u > 0.0 ? CombinedDistribution(components).symmetricHalfWidth(coverageProbability) / u
+                             : coverageFactorFor(dof);
     std::stable_sort(components.begin(), components.end(),
                      [](const BudgetComponent &a, const BudgetComponent &b) { return a.contribution > b.contribution; });
     result.standardUncertainty = u;
@@ -65,8 +68,10 @@ std::string degreesOfFreedomText(std::optional<double> dof)
         return "n/a";
     if (!std::isfinite(*dof))
         return "∞";
+    if (*dof >= 1e4)
+        return "> 10⁴";
     char text[32];
-    std::snprintf(text, sizeof text, *dof >= 100.0 ? "%.0f" : "%.1f", *dof);
+    std::snprintf(text, sizeof text, *dof >= 100.0 || *dof == std::floor(*dof) ? "%.0f" : "%.1f", *dof);
     return text;
 }
 

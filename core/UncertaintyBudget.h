@@ -14,10 +14,16 @@ namespace sagline {
 enum class EvaluationType { A, B };
 std::string toString(EvaluationType type); // "A", "B"
 
+// The shape of a component's distribution, for the coverage interval (CombinedDistribution.h):
+// a scaled Student t with the component's degrees of freedom when they are finite, a normal,
+// or a rectangle of half-width sqrt(3)·u.
+enum class DistributionShape { Normal, Rectangular };
+
 struct BudgetComponent {
     std::string source;                  // what it is, e.g. "ammeter gain (±0.5 % of reading)"
     EvaluationType type = EvaluationType::B;
-    std::string distribution;            // "normal", "rectangular"
+    std::string distribution;            // "normal", "rectangular", as shown
+    DistributionShape shape = DistributionShape::Normal; // normal with finite ν: a scaled t
     double standardUncertainty = 0.0;    // u(x_i), in inputUnit
     std::string inputUnit;               // unit of x_i: "V", "A", "%", "°C"
     double sensitivity = 0.0;            // c_i = ∂y/∂x_i, result's unit per inputUnit
@@ -35,12 +41,13 @@ struct UncertainValue {
     std::optional<double> standardUncertainty;  // u_c, same unit as value
     std::optional<double> expandedUncertainty;  // U = k·u_c
     std::optional<double> effectiveDof;         // ν_eff; +infinity when every component has ν = ∞
-    std::optional<double> coverageFactor;       // k = t_{0.975}(ν_eff)
+    std::optional<double> coverageFactor;       // k = U/u_c (t_{0.975}(ν_eff) unless rectangles dominate)
     std::vector<BudgetComponent> budget;        // independent components, largest contribution first
 };
 
-// Combines the components into value's u_c, ν_eff, k and U (at coverageProbability). An empty
-// list gives u_c = 0, ν_eff = ∞.
+// Combines the components into value's u_c, ν_eff (Welch–Satterthwaite) and U, the half-width of
+// the 95 % coverage interval of the components' combined distribution (CombinedDistribution.h),
+// with k = U/u_c. An empty list gives u_c = 0, ν_eff = ∞.
 UncertainValue combineBudget(double value, std::vector<BudgetComponent> components);
 
 // Welch–Satterthwaite: ν_eff = u_c⁴ / Σ (c_i u_i)⁴/ν_i (GUM G.4.1, eq. G.2b); +infinity when no

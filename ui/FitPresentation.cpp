@@ -116,7 +116,8 @@ void setVerdict(const SpecificationVerdict &v, ResultsView &view)
     for (const ConformityDecision &d : v.limits) {
         QString line = QString::fromStdString(d.ok ? d.explanation : d.error);
         if (d.conformanceProbability)
-            line += QObject::tr(" Probability of conformity %1 %.").arg(formatNumber(*d.conformanceProbability * 100.0, 3));
+            line += QObject::tr(" Probability of conformity %1.")
+                        .arg(QString::fromStdString(conformanceProbabilityText(*d.conformanceProbability)));
         details << line;
     }
     view.verdictText = QString::fromStdString(outcomeWords(v.outcome));

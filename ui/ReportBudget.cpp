@@ -22,8 +22,9 @@ void drawUncertaintyBudget(ReportCanvas &canvas, const SessionSummary &summary)
     canvas.paragraph(QStringLiteral("GUM (JCGM 100:2008): independent inputs, contributions |cᵢ|·u(xᵢ) combined in "
                                     "quadrature. Type A: the readings' scatter about the line; Type B: each meter's gain "
                                     "and offset (systematic, common to all its readings, rectangular), the resolution "
-                                    "floor and the winding temperature. ν_eff by Welch–Satterthwaite (G.4), "
-                                    "k = t95(ν_eff). %1.")
+                                    "floor and the winding temperature. ν_eff by Welch–Satterthwaite (G.4); U is the "
+                                    "half-width of the 95 % interval of the components' combined distribution, "
+                                    "k = U/u (t95(ν_eff) when no rectangular limit dominates). Uncertainties include: %1.")
                          .arg(q(summary.analysis->uncertaintyBasis)),
                      8.0);
     const auto right = Qt::AlignRight;

@@ -93,8 +93,8 @@ void drawVerdict(ReportCanvas &canvas, const SessionSummary &summary)
     for (const ConformityDecision &d : v.limits) {
         QString line = q(d.ok ? outcomeWords(d.outcome) + ": " + d.explanation : d.error);
         if (d.conformanceProbability)
-            line += QStringLiteral(" Probability of conformity %1 % (JCGM 106:2012).")
-                        .arg(q(formatSignificant(*d.conformanceProbability * 100.0, 3)));
+            line += QStringLiteral(" Probability of conformity %1 (JCGM 106:2012).")
+                        .arg(q(conformanceProbabilityText(*d.conformanceProbability)));
         details << line;
     }
     details << QStringLiteral("Limits: %1.").arg(q(v.limitsSource));

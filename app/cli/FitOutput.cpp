@@ -128,7 +128,7 @@ void printVerdict(const SpecificationVerdict &v, const std::function<void(const 
     for (const ConformityDecision &d : v.limits) {
         std::string line = d.ok ? outcomeWords(d.outcome) + ": " + d.explanation : d.error;
         if (d.conformanceProbability)
-            line += " Probability of conformity " + formatSignificant(*d.conformanceProbability * 100.0, 3) + " %.";
+            line += " Probability of conformity " + conformanceProbabilityText(*d.conformanceProbability) + ".";
         row("", line);
     }
     row("Decision rule", v.ruleName);
