@@ -389,7 +389,7 @@ void readMeters(const json &object, SetupParse &out, std::optional<MeterSpecs> &
             readMeter(object.at(key), key, unit, out, *target);
     }
     if (auto u = r.quantity("winding_temperature_u_c", Unit::Celsius)) {
-        if (r.inRange("winding_temperature_u_c", *u, 0.0, true, 50.0, " °C",
+        if (r.inRange("winding_temperature_u_c", *u, 0.0, false, 50.0, " °C",
                       "standard uncertainty of the winding temperature"))
             specs.windingTemperatureUncertaintyC = *u;
     }

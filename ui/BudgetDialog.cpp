@@ -26,7 +26,8 @@ BudgetDialog::BudgetDialog(const std::vector<BudgetTable> &budgets, QWidget *par
     auto *intro = new QLabel(tr("GUM (JCGM 100:2008): independent inputs; contributions |cᵢ|·u(xᵢ) add in quadrature. "
                                 "Type A from the readings' scatter; Type B from the meters' specifications (systematic, "
                                 "common to every reading) and the winding temperature. ν_eff by Welch–Satterthwaite "
-                                "(GUM G.4), k = t95(ν_eff)."));
+                                "(GUM G.4); U is the half-width of the 95 % interval of the components' combined "
+                                "distribution, k = U/u (t95(ν_eff) unless a rectangular limit dominates)."));
     intro->setWordWrap(true);
     layout->addWidget(intro);
 

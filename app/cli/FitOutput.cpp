@@ -283,8 +283,9 @@ void printFitReport(const FitReport &report, std::ostream &out)
         row("Settings from", "rule: " + toString(report.ruleSource) + "; limit: " + toString(report.regulationLimitSource)
                                  + "; temperature constant: " + toString(report.temperatureConstantSource));
     if (report.printBudget) {
-        out << "\nUncertainty budgets (GUM, JCGM 100:2008; independent inputs, contributions |cᵢ|·u(xᵢ) add in "
-               "quadrature; ν_eff by Welch-Satterthwaite, k = t95(ν_eff)):\n";
+        out << "\nUncertainty budgets (GUM, JCGM 100:2008): independent inputs, contributions |cᵢ|·u(xᵢ) add in "
+               "quadrature;\nν_eff by Welch-Satterthwaite (G.4); U = half-width of the 95 % interval of the components' "
+               "combined\ndistribution, k = U/u (= t95(ν_eff) unless a rectangular limit dominates).\n";
         const std::vector<BudgetTable> tables = report.analysis ? budgetTables(*report.analysis) : budgetTables(line);
         for (const BudgetTable &table : tables)
             printBudgetTable(table, out);
