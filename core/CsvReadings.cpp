@@ -14,7 +14,7 @@ namespace {
 
 constexpr std::size_t maxErrors = 100;
 
-enum class Column { Current, Voltage, UCurrent, UVoltage, Step, Time, Flags, Excluded };
+enum class Column { Current, Voltage, UCurrent, UVoltage, Step, Time, Flags, Excluded, Provenance };
 
 struct KnownColumn {
     std::string_view name;
@@ -25,6 +25,10 @@ constexpr KnownColumn knownColumns[] = {
     {"current_a", Column::Current}, {"voltage_v", Column::Voltage}, {"u_current_a", Column::UCurrent},
     {"u_voltage_v", Column::UVoltage}, {"step", Column::Step}, {"time_utc", Column::Time},
     {"flags", Column::Flags}, {"excluded", Column::Excluded},
+    // Who did what, as a session export writes it: kept in the session it came from, not imported.
+    {"exclusion_reason", Column::Provenance}, {"excluded_by", Column::Provenance},
+    {"superseded_reason", Column::Provenance}, {"recorded_by", Column::Provenance},
+    {"recorded_account", Column::Provenance},
 };
 
 // Splits one line on commas; a cell may be double-quoted ("" is a literal quote).
@@ -233,6 +237,7 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
             }
             break;
         }
+        case Column::Provenance: break;
         case Column::Excluded: {
             const auto excluded = parseBool(cell);
             if (!excluded) {

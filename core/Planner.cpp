@@ -1,6 +1,7 @@
 #include "Planner.h"
 
 #include "FuseStandards.h"
+#include "PlanGates.h"
 #include "TransformerFormulas.h"
 
 #include <cmath>
@@ -82,6 +83,12 @@ PlanResult makePlan(const Setup &setup)
     if (!(noLoad > plate.secondaryVoltageV)) {
         result.errors.push_back({"nameplate.secondary_no_load_voltage_v",
                                  "must be above nameplate.secondary_voltage_v (the loaded voltage is the lower one)"});
+        return result;
+    }
+    // A nameplate that cannot describe a mains transformer (a voltage in the wrong unit) is
+    // refused before anything is computed from it.
+    if (FieldErrors implausible = nameplatePlausibilityErrors(plate, noLoad); !implausible.empty()) {
+        result.errors = std::move(implausible);
         return result;
     }
     plan.noLoadVoltageV = noLoad;

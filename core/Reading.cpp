@@ -7,7 +7,7 @@ namespace sagline {
 
 std::string flagsToString(std::uint32_t flags)
 {
-    static constexpr std::array<std::pair<std::uint32_t, const char *>, 7> names{{
+    static constexpr std::array<std::pair<std::uint32_t, const char *>, 8> names{{
         {flagUnstable, "unstable"},
         {flagOverload, "overload"},
         {flagNotANumber, "not-a-number"},
@@ -15,6 +15,7 @@ std::string flagsToString(std::uint32_t flags)
         {flagOutlier, "outlier"},
         {flagManual, "manual"},
         {flagSimulated, "simulated"},
+        {flagConfirmed, "confirmed"},
     }};
     std::string text;
     for (const auto &[bit, name] : names) {

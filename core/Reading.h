@@ -17,6 +17,7 @@ enum ReadingFlag : std::uint32_t {
     flagOutlier = 1u << 4,           // |studentized residual| above the threshold
     flagManual = 1u << 5,            // typed in by hand
     flagSimulated = 1u << 6,         // from the virtual bench
+    flagConfirmed = 1u << 7,         // typed in outside what the step expects, and confirmed by the person
 };
 
 std::string flagsToString(std::uint32_t flags); // "unstable|outlier", "" when none
@@ -31,7 +32,8 @@ struct Reading {
     std::string timeUtc;             // ISO 8601, e.g. 2026-12-02T10:15:03.250Z
     std::uint32_t flags = flagNone;
     std::string rawText;             // the instruments' own text for this point
-    bool excluded = false;           // excluded from the fit (the reason lives in the store)
+    bool excluded = false;           // left out of the fit: excluded, or superseded (reasons in the store)
+    bool superseded = false;         // replaced by a retake of its step (then also `excluded`)
 };
 
 } // namespace sagline

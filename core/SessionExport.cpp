@@ -132,6 +132,27 @@ std::string readingsToCsv(const std::vector<Reading> &readings)
     return out;
 }
 
+std::string sessionReadingsToCsv(const SessionSummary &summary)
+{
+    // The import columns first (import reads this back), then who did what, which import skips.
+    std::string out = "current_a,voltage_v,u_current_a,u_voltage_v,step,time_utc,flags,excluded,exclusion_reason,"
+                      "excluded_by,superseded_reason,recorded_by,recorded_account\r\n";
+    for (std::size_t i = 0; i < summary.readings.size(); ++i) {
+        const Reading &reading = summary.readings[i];
+        const ExclusionRecord *exclusion = summary.latestExclusion(reading.id);
+        const bool excludedByRecord = exclusion && exclusion->excluded;
+        const SupersessionRecord *retake = reading.superseded ? summary.supersessionOf(reading.id) : nullptr;
+        const Actor actor = i < summary.readingActors.size() ? summary.readingActors[i] : Actor{};
+        out += exact(reading.currentA) + ',' + exact(reading.voltageV) + ',' + exact(reading.uCurrentA) + ',' +
+               exact(reading.uVoltageV) + ',' + (reading.step >= 0 ? std::to_string(reading.step) : std::string()) + ',' +
+               csvField(reading.timeUtc) + ',' + csvField(flagsToString(reading.flags)) + ',' +
+               (reading.excluded ? "true" : "false") + ',' + csvField(excludedByRecord ? exclusion->reason : "") + ',' +
+               csvField(excludedByRecord ? exclusion->author : "") + ',' + csvField(retake ? retake->reason : "") + ',' +
+               csvField(actor.person) + ',' + csvField(actor.osAccount) + "\r\n";
+    }
+    return out;
+}
+
 std::string fitResultsToCsv(const SessionSummary &summary)
 {
     const FitSummary &fit = summary.fit;
@@ -194,6 +215,8 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
     json out;
     out["session"] = {{"file", summary.path},
                       {"created_utc", summary.info.createdUtc},
+                      {"created_by", summary.info.createdBy.person},
+                      {"created_account", summary.info.createdBy.osAccount},
                       {"operator", summary.info.operatorName},
                       {"unit_serial", summary.info.unitSerial},
                       {"software_version", summary.info.softwareVersion},
@@ -209,7 +232,15 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
     out["instruments"] = json::array();
     for (const auto &i : summary.instruments)
         out["instruments"].push_back({{"time_utc", i.timeUtc}, {"role", i.role}, {"identity", i.identity}, {"accuracy", i.accuracy}});
-    out["readings"] = {{"total", summary.readings.size()}, {"excluded", summary.excludedCount()}};
+    std::size_t superseded = 0;
+    for (const Reading &reading : summary.readings)
+        superseded += reading.superseded ? 1 : 0;
+    out["readings"] = {{"total", summary.readings.size()}, {"excluded", summary.excludedCount() - superseded},
+                       {"superseded", superseded}};
+    out["progress"] = {{"state", toString(summary.progress.state)},
+                       {"recorded_steps", summary.progress.recordedSteps},
+                       {"planned_steps", summary.progress.plannedSteps},
+                       {"label", summary.progress.label()}};
     out["fit"] = fitToJson(summary.fit);
     if (summary.fit.ok()) {
         if (const auto ci = seriesResistanceInterval(summary))
@@ -217,21 +248,38 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
     }
     out["analysis"] = analysisToJson(summary);
     out["verdict"] = verdictToJson(summary);
+    if (out["verdict"].is_object())
+        out["verdict"]["as_shown"] = summary.verdictText(); // "provisional (k of N steps)" until complete
+    out["seal"] = {{"state", toString(summary.seal.state)}, {"summary", summary.seal.summary()}};
     out["exclusions"] = json::array();
     for (const auto &e : summary.exclusions)
         out["exclusions"].push_back({{"reading_id", e.readingId}, {"excluded", e.excluded}, {"reason", e.reason},
-                                     {"author", e.author}, {"time_utc", e.timeUtc}});
+                                     {"author", e.author}, {"os_account", e.osAccount}, {"time_utc", e.timeUtc}});
+    out["retakes"] = json::array();
+    for (const auto &r : summary.supersessions)
+        out["retakes"].push_back({{"reading_id", r.readingId}, {"replacement_id", r.replacementId}, {"reason", r.reason},
+                                  {"person", r.actor.person}, {"os_account", r.actor.osAccount}, {"time_utc", r.timeUtc}});
     out["safety_stops"] = json::array();
     for (const auto &s : summary.safetyStops)
         out["safety_stops"].push_back({{"time_utc", s.timeUtc}, {"step", s.step}, {"rule", s.rule}, {"message", s.message},
-                                       {"measured", optionalNumber(s.measured)}, {"limit", optionalNumber(s.limitValue)}});
+                                       {"measured", optionalNumber(s.measured)}, {"limit", optionalNumber(s.limitValue)},
+                                       {"person", s.actor.person}, {"os_account", s.actor.osAccount}});
+    out["sweep_events"] = json::array();
+    for (const auto &e : summary.sweepEvents)
+        out["sweep_events"].push_back({{"time_utc", e.timeUtc}, {"kind", toString(e.kind)}, {"step", e.step},
+                                       {"detail", e.detail}, {"person", e.actor.person}, {"os_account", e.actor.osAccount}});
     out["notes"] = json::array();
     for (const auto &n : summary.notes)
-        out["notes"].push_back({{"time_utc", n.timeUtc}, {"author", n.author}, {"text", n.text}});
+        out["notes"].push_back({{"time_utc", n.timeUtc}, {"author", n.author}, {"text", n.text},
+                                {"person", n.actor.person}, {"os_account", n.actor.osAccount}});
     out["sign_offs"] = json::array();
     for (const auto &s : summary.signOffs)
         out["sign_offs"].push_back({{"time_utc", s.timeUtc}, {"reviewer", s.reviewer}, {"verdict", toString(s.verdict)},
-                                    {"comment", s.comment}});
+                                    {"comment", s.comment}, {"os_account", s.osAccount}, {"sha256", s.digest}});
+    out["reopens"] = json::array();
+    for (const auto &r : summary.reopens)
+        out["reopens"].push_back({{"time_utc", r.timeUtc}, {"sign_off_id", r.signOffId}, {"reason", r.reason},
+                                  {"person", r.actor.person}, {"os_account", r.actor.osAccount}});
     // Text from the file may hold invalid UTF-8: replace it instead of throwing.
     return out.dump(indent, ' ', false, json::error_handler_t::replace);
 }

@@ -14,6 +14,9 @@ namespace sagline {
 // uncertainty is an empty cell; a reading with no value (overload, not-a-number) has empty
 // current_a/voltage_v cells.
 std::string readingsToCsv(const std::vector<Reading> &readings);
+// The same columns, then who did what: exclusion_reason, excluded_by (the latest exclusion in
+// force), superseded_reason (a retake), recorded_by, recorded_account. Import skips these.
+std::string sessionReadingsToCsv(const SessionSummary &summary);
 
 // The 95 % interval of R printed everywhere: R ± U of its budget when the session has an
 // analysis, else the fit's own (Student t, n - 2 dof, the scatter alone). Empty below 3 points.
@@ -24,7 +27,9 @@ std::optional<Interval> seriesResistanceInterval(const SessionSummary &summary);
 std::string fitResultsToCsv(const SessionSummary &summary);
 
 // One JSON object: session, setup, plan summary, temperatures, instruments, counts, fit (the
-// keys of `fit --json` in DESIGN.md), exclusions, safety stops, notes and sign-offs.
+// keys of `fit --json` in DESIGN.md), progress (k of N steps), seal (sign-off state), exclusions,
+// retakes, safety stops, sweep events, notes, sign-offs and reopens, each with its person and
+// OS account.
 std::string sessionSummaryToJson(const SessionSummary &summary, int indent = 2);
 
 } // namespace sagline

@@ -55,6 +55,7 @@ ImportResult importReadingsCsv(const ImportRequest &request)
     session.ambientTemperatureC = request.ambientTemperatureC;
     session.windingTemperatureC = request.windingTemperatureC;
     session.softwareVersion = request.softwareVersion;
+    session.createdBy = {request.person, ""};
 
     const std::string fileName = std::filesystem::path(request.csvPath).filename().string();
     for (std::size_t i = 0; i < csv.readings.size(); ++i)
@@ -85,7 +86,7 @@ ImportResult importReadingsCsv(const ImportRequest &request)
             continue;
         const auto excluded = store.excludeReading(ids.value[i], "marked excluded in " + fileName + " line " +
                                                                      std::to_string(csv.lineNumbers[i]),
-                                                   request.operatorName);
+                                                   request.person.empty() ? request.operatorName : request.person);
         if (!excluded.ok()) {
             created.value.reset();
             return fail(excluded.status());

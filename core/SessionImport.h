@@ -18,6 +18,7 @@ struct ImportRequest {
     std::string setupPath;
     std::string outputPath;                    // the new .sagline; must not exist
     std::string operatorName;                  // required by the session
+    std::string person;                        // who imports it, recorded on every record ("" = not given)
     std::string unitSerial;                    // required by the session
     std::optional<double> ambientTemperatureC; // °C
     std::optional<double> windingTemperatureC; // °C

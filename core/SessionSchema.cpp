@@ -81,7 +81,7 @@ struct Migration {
     const char *sql;
 };
 
-constexpr std::array<Migration, 1> migrations{{
+constexpr std::array<Migration, 2> migrations{{
     {2, R"sql(
 CREATE TABLE sign_off (
     id INTEGER PRIMARY KEY,
@@ -92,6 +92,52 @@ CREATE TABLE sign_off (
 );
 CREATE INDEX exclusion_by_reading ON exclusion(reading_id);
 )sql"},
+    // Who did what (person and OS account on every record), sealed sign-offs, retakes, the
+    // sweep's own events and reopening a signed session. Old rows get "" (not recorded).
+    {3, R"sql(
+ALTER TABLE session ADD COLUMN created_by TEXT NOT NULL DEFAULT '';
+ALTER TABLE session ADD COLUMN created_account TEXT NOT NULL DEFAULT '';
+ALTER TABLE temperature ADD COLUMN person TEXT NOT NULL DEFAULT '';
+ALTER TABLE temperature ADD COLUMN os_account TEXT NOT NULL DEFAULT '';
+ALTER TABLE instrument ADD COLUMN person TEXT NOT NULL DEFAULT '';
+ALTER TABLE instrument ADD COLUMN os_account TEXT NOT NULL DEFAULT '';
+ALTER TABLE reading ADD COLUMN person TEXT NOT NULL DEFAULT '';
+ALTER TABLE reading ADD COLUMN os_account TEXT NOT NULL DEFAULT '';
+ALTER TABLE exclusion ADD COLUMN os_account TEXT NOT NULL DEFAULT '';
+ALTER TABLE note ADD COLUMN person TEXT NOT NULL DEFAULT '';
+ALTER TABLE note ADD COLUMN os_account TEXT NOT NULL DEFAULT '';
+ALTER TABLE safety_stop ADD COLUMN person TEXT NOT NULL DEFAULT '';
+ALTER TABLE safety_stop ADD COLUMN os_account TEXT NOT NULL DEFAULT '';
+ALTER TABLE sign_off ADD COLUMN os_account TEXT NOT NULL DEFAULT '';
+ALTER TABLE sign_off ADD COLUMN digest TEXT NOT NULL DEFAULT '';
+ALTER TABLE sign_off ADD COLUMN content_marks TEXT NOT NULL DEFAULT '';
+CREATE TABLE supersession (
+    id INTEGER PRIMARY KEY,
+    reading_id INTEGER NOT NULL REFERENCES reading(id),
+    replacement_id INTEGER NOT NULL REFERENCES reading(id),
+    reason TEXT NOT NULL,
+    person TEXT NOT NULL,
+    os_account TEXT NOT NULL,
+    time_utc TEXT NOT NULL
+);
+CREATE TABLE sweep_event (
+    id INTEGER PRIMARY KEY,
+    time_utc TEXT NOT NULL,
+    kind TEXT NOT NULL,
+    step INTEGER NOT NULL,
+    detail TEXT NOT NULL,
+    person TEXT NOT NULL,
+    os_account TEXT NOT NULL
+);
+CREATE TABLE reopen (
+    id INTEGER PRIMARY KEY,
+    time_utc TEXT NOT NULL,
+    sign_off_id INTEGER NOT NULL REFERENCES sign_off(id),
+    reason TEXT NOT NULL,
+    person TEXT NOT NULL,
+    os_account TEXT NOT NULL
+);
+)sql"},
 }};
 
 struct SchemaObject {
@@ -100,7 +146,7 @@ struct SchemaObject {
     int sinceVersion;
 };
 
-constexpr std::array<SchemaObject, 9> expectedObjects{{
+constexpr std::array<SchemaObject, 12> expectedObjects{{
     {"table", "session", 1},
     {"table", "temperature", 1},
     {"table", "instrument", 1},
@@ -110,6 +156,9 @@ constexpr std::array<SchemaObject, 9> expectedObjects{{
     {"table", "safety_stop", 1},
     {"table", "sign_off", 2},
     {"index", "exclusion_by_reading", 2},
+    {"table", "supersession", 3},
+    {"table", "sweep_event", 3},
+    {"table", "reopen", 3},
 }};
 
 StoreStatus setUserVersion(sqlite3 *db, int version)

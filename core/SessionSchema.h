@@ -19,7 +19,9 @@ inline constexpr std::uint32_t sessionApplicationId = 0x53474C4Eu;
 // The schema version this build writes. History:
 //   1  session, temperature, instrument, reading, exclusion, note, safety_stop
 //   2  sign_off (review sign-offs); index on exclusion(reading_id)
-inline constexpr int sessionSchemaVersion = 2;
+//   3  person and OS account on every record; sealed sign-offs (digest, content marks);
+//      supersession (retakes), sweep_event, reopen
+inline constexpr int sessionSchemaVersion = 3;
 
 // Creates the current schema in an empty database, inside the caller's transaction.
 StoreStatus createSessionSchema(sqlite3 *db);

@@ -50,6 +50,7 @@ StoreResult<std::int64_t> signOffSession(const std::string &path, const SignOffR
     auto store = SessionStore::openForWriting(path);
     if (!store.ok())
         return Result::failure(store.status());
+    store.value->setActor({request.reviewer, ""});
     return store.value->addSignOff(request.reviewer, request.verdict, request.comment);
 }
 

@@ -2,6 +2,7 @@
 // trust rules this file implements.
 #include "SessionStore.h"
 
+#include "OsAccount.h"
 #include "SessionCopies.h"
 #include "SessionFileCheck.h"
 #include "SessionSchema.h"
@@ -71,6 +72,31 @@ const char *toString(Verdict verdict)
     return "accepted";
 }
 
+const char *toString(SweepEventKind kind)
+{
+    switch (kind) {
+    case SweepEventKind::Started: return "started";
+    case SweepEventKind::Finished: return "finished";
+    case SweepEventKind::Stopped: return "stopped";
+    case SweepEventKind::Resumed: return "resumed";
+    case SweepEventKind::LimitOverride: return "limit-override";
+    case SweepEventKind::Truncated: return "truncated";
+    case SweepEventKind::ValueConfirmed: return "value-confirmed";
+    }
+    return "started";
+}
+
+std::optional<SweepEventKind> sweepEventKindFromString(const std::string &text)
+{
+    for (SweepEventKind kind : {SweepEventKind::Started, SweepEventKind::Finished, SweepEventKind::Stopped,
+                                SweepEventKind::Resumed, SweepEventKind::LimitOverride, SweepEventKind::Truncated,
+                                SweepEventKind::ValueConfirmed}) {
+        if (text == toString(kind))
+            return kind;
+    }
+    return std::nullopt;
+}
+
 std::optional<Verdict> verdictFromString(const std::string &text)
 {
     for (Verdict verdict : {Verdict::Accepted, Verdict::Rejected, Verdict::Retest}) {
@@ -83,6 +109,7 @@ std::optional<Verdict> verdictFromString(const std::string &text)
 SessionStore::SessionStore(std::string path, SqliteHandle db, bool readOnly, int fileVersion)
     : m_path(std::move(path)), m_db(std::move(db)), m_readOnly(readOnly), m_fileVersion(fileVersion), m_clock(utcNow)
 {
+    m_actor.osAccount = currentOsAccount();
 }
 
 SessionStore::~SessionStore() = default;
@@ -95,6 +122,23 @@ void SessionStore::setClock(std::function<std::string()> clock)
 std::string SessionStore::now() const
 {
     return m_clock();
+}
+
+void SessionStore::setActor(Actor actor)
+{
+    if (actor.osAccount.empty())
+        actor.osAccount = currentOsAccount();
+    m_actor = std::move(actor);
+}
+
+StoreStatus SessionStore::requireUnsealed() const
+{
+    if (StoreStatus status = requireWritable(); !status.ok())
+        return status;
+    if (!m_sealed)
+        return StoreStatus::success();
+    return StoreStatus::failure(StoreCode::Sealed, m_path + ": signed off; reopen it (with a reason) before changing it; "
+                                                            "nothing was recorded");
 }
 
 StoreStatus SessionStore::requireWritable() const
@@ -140,6 +184,9 @@ StoreOpen SessionStore::createFile(const std::string &path, const NewSession &se
         return StoreOpen::failure(status);
 
     const std::string created = utcNow();
+    Actor creator = session.createdBy;
+    if (creator.osAccount.empty())
+        creator.osAccount = currentOsAccount();
     SqliteTransaction transaction(handle);
     if (transaction.beginCode() != SQLITE_OK)
         return StoreOpen::failure(sqliteFailure(handle, transaction.beginCode(), path + ": cannot write"));
@@ -147,10 +194,11 @@ StoreOpen SessionStore::createFile(const std::string &path, const NewSession &se
         return StoreOpen::failure(status);
     SqliteStatement insert;
     int rc = insert.prepare(handle, "INSERT INTO session (id, created_utc, software_version, operator, unit_serial, "
-                                    "setup_json, plan_json) VALUES (1, ?, ?, ?, ?, ?, ?)");
+                                    "setup_json, plan_json, created_by, created_account) VALUES (1, ?, ?, ?, ?, ?, ?, ?, ?)");
     if (rc == SQLITE_OK) {
         insert.bind(1, created).bind(2, session.softwareVersion).bind(3, session.operatorName);
         insert.bind(4, session.unitSerial).bind(5, session.setupJson).bind(6, session.planJson);
+        insert.bind(7, creator.person).bind(8, creator.osAccount);
         rc = insert.step();
     }
     if (rc != SQLITE_DONE)
@@ -161,10 +209,11 @@ StoreOpen SessionStore::createFile(const std::string &path, const NewSession &se
         if (!celsius)
             continue;
         SqliteStatement temperature;
-        rc = temperature.prepare(handle, "INSERT INTO temperature (time_utc, kind, value_c, source) VALUES (?, ?, ?, ?)");
+        rc = temperature.prepare(handle, "INSERT INTO temperature (time_utc, kind, value_c, source, person, os_account) "
+                                         "VALUES (?, ?, ?, ?, ?, ?)");
         if (rc == SQLITE_OK) {
             temperature.bind(1, created).bind(2, std::string_view(toString(kind))).bind(3, *celsius);
-            temperature.bind(4, std::string_view("entered at start"));
+            temperature.bind(4, std::string_view("entered at start")).bind(5, creator.person).bind(6, creator.osAccount);
             rc = temperature.step();
         }
         if (rc != SQLITE_DONE)
@@ -172,7 +221,9 @@ StoreOpen SessionStore::createFile(const std::string &path, const NewSession &se
     }
     if (rc = transaction.commit(); rc != SQLITE_OK)
         return StoreOpen::failure(sqliteFailure(handle, rc, path + ": cannot commit the new session"));
-    return {std::unique_ptr<SessionStore>(new SessionStore(path, std::move(db.value), false, sessionSchemaVersion))};
+    std::unique_ptr<SessionStore> store(new SessionStore(path, std::move(db.value), false, sessionSchemaVersion));
+    store->m_actor = creator;
+    return {std::move(store)};
 }
 
 StoreOpen SessionStore::openForWriting(const std::string &path)
@@ -236,7 +287,10 @@ StoreOpen SessionStore::open(const std::string &path, bool forWriting)
             if (StoreStatus status = migrateInTransaction(handle, version.value); !status.ok())
                 return fail(status);
         }
-        return {std::unique_ptr<SessionStore>(new SessionStore(path, std::move(db.value), false, version.value))};
+        std::unique_ptr<SessionStore> store(new SessionStore(path, std::move(db.value), false, version.value));
+        if (StoreStatus status = store->loadSealState(); !status.ok())
+            return fail(status);
+        return {std::move(store)};
     }
 
     if (version.value < sessionSchemaVersion) {
@@ -251,6 +305,8 @@ StoreOpen SessionStore::open(const std::string &path, bool forWriting)
             return fail(status);
     }
     std::unique_ptr<SessionStore> store(new SessionStore(path, std::move(db.value), true, version.value));
+    if (StoreStatus status = store->loadSealState(); !status.ok())
+        return fail(status);
     store->m_notice = recoveredNotice;
     if (newer)
         store->m_notice += (recoveredNotice.empty() ? "" : "\n") + path + ": " + newerText +

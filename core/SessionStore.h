@@ -57,6 +57,13 @@ public:
 
     // Replaces the clock that stamps records (tests); returns ISO 8601 UTC text.
     void setClock(std::function<std::string()> clock);
+    // Who is making changes through this store: stamped on every record written from now on.
+    // The OS account starts as currentOsAccount(), the person as "" (not given) until set.
+    void setActor(Actor actor);
+    const Actor &actor() const { return m_actor; }
+    // A sign-off not lifted by a reopen seals the session: every write but reopen() is refused
+    // (Sealed). See SessionSeal.h.
+    bool isSealed() const { return m_sealed; }
 
     // --- writing (each call is one durable transaction; ReadOnly on a review store) ---
 
@@ -75,7 +82,16 @@ public:
     StoreResult<std::int64_t> recordInstrument(const std::string &role, const std::string &identity, const std::string &accuracy);
     StoreResult<std::int64_t> addNote(const std::string &author, const std::string &text);
     StoreResult<std::int64_t> recordSafetyStop(const SafetyStopRecord &stop); // id and timeUtc are set by the store
+    // Signs off and seals: stores the SHA-256 digest of the session's content as it is now
+    // (SessionSeal.h). Refused while an earlier sign-off is still in force.
     StoreResult<std::int64_t> addSignOff(const std::string &reviewer, Verdict verdict, const std::string &comment);
+    // Lifts the sign-off in force so the session can be changed again, recording who
+    // (actor().person, required) and why (required). Only on a sealed session.
+    StoreResult<std::int64_t> reopen(const std::string &reason);
+    // A retake of a step: records `reading` and marks reading `supersededId` superseded by it,
+    // with the reason, in one transaction (nothing is deleted). Returns the new reading's id.
+    StoreResult<std::int64_t> appendRetake(const Reading &reading, std::int64_t supersededId, const std::string &reason);
+    StoreResult<std::int64_t> recordSweepEvent(SweepEventKind kind, int step, const std::string &detail);
 
     // --- reading (any mode) ---
 
@@ -92,6 +108,19 @@ public:
     StoreResult<std::vector<NoteRecord>> notes() const;
     StoreResult<std::vector<SafetyStopRecord>> safetyStops() const;
     StoreResult<std::vector<SignOffRecord>> signOffs() const;
+    // Who recorded each reading, in the order of readings() (for reports and exports).
+    StoreResult<std::vector<Actor>> readingActors() const;
+    StoreResult<std::vector<SupersessionRecord>> supersessions() const;
+    StoreResult<std::vector<SweepEventRecord>> sweepEvents() const;
+    StoreResult<std::vector<ReopenRecord>> reopens() const;
+
+    // --- seal (SessionSeal.cpp) ---
+
+    // The last row id of every content table now, as stored with a sign-off.
+    StoreResult<std::string> currentContentMarks() const;
+    // The digest a sign-off should carry, recomputed from the file: the content up to the
+    // sign-off's marks, then the sign-off's own fields. Compare with record.digest.
+    StoreResult<std::string> recomputeSealDigest(const SignOffRecord &record) const;
 
     // --- whole file ---
 
@@ -106,6 +135,8 @@ private:
     static StoreResult<std::unique_ptr<SessionStore>> open(const std::string &path, bool forWriting);
     static StoreResult<std::unique_ptr<SessionStore>> createFile(const std::string &path, const NewSession &session);
     StoreStatus requireWritable() const;
+    StoreStatus requireUnsealed() const; // writable and not sealed by a sign-off
+    StoreStatus loadSealState();          // sets m_sealed from the file
     StoreResult<std::int64_t> insertExclusion(std::int64_t readingId, bool excluded, const std::string &reason,
                                               const std::string &author);
     std::string now() const;
@@ -117,6 +148,8 @@ private:
     int m_fileVersion = 0;
     std::string m_notice;
     std::function<std::string()> m_clock;
+    Actor m_actor;
+    bool m_sealed = false;
 };
 
 } // namespace sagline

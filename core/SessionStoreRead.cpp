@@ -57,8 +57,8 @@ int checkedInt(const SqliteStatement &row, int column, std::string &problem)
 StoreResult<SessionInfo> SessionStore::info() const
 {
     SqliteStatement query;
-    int rc = query.prepare(m_db.get(), "SELECT created_utc, software_version, operator, unit_serial, setup_json, plan_json "
-                                       "FROM session WHERE id = 1");
+    int rc = query.prepare(m_db.get(), "SELECT created_utc, software_version, operator, unit_serial, setup_json, plan_json, "
+                                       "created_by, created_account FROM session WHERE id = 1");
     if (rc == SQLITE_OK)
         rc = query.step();
     if (rc == SQLITE_DONE)
@@ -72,6 +72,7 @@ StoreResult<SessionInfo> SessionStore::info() const
     info.unitSerial = query.columnText(3);
     info.setupJson = query.columnText(4);
     info.planJson = query.columnText(5);
+    info.createdBy = {query.columnText(6), query.columnText(7)};
     info.schemaVersion = m_fileVersion;
     return {std::move(info)};
 }
@@ -91,10 +92,21 @@ StoreResult<std::vector<Reading>> SessionStore::readings() const
         if (rc != SQLITE_DONE)
             return StoreResult<std::vector<Reading>>::failure(sqliteFailure(m_db.get(), rc, "cannot read the exclusions"));
     }
+    std::unordered_map<std::int64_t, bool> supersededById;
+    {
+        SqliteStatement query;
+        int rc = query.prepare(m_db.get(), "SELECT reading_id FROM supersession");
+        while (rc == SQLITE_OK && (rc = query.step()) == SQLITE_ROW) {
+            supersededById[query.columnInt64(0)] = true;
+            rc = SQLITE_OK;
+        }
+        if (rc != SQLITE_DONE)
+            return StoreResult<std::vector<Reading>>::failure(sqliteFailure(m_db.get(), rc, "cannot read the retakes"));
+    }
     auto result = selectAll<Reading>(
         m_db.get(),
         "SELECT id, time_utc, step, current_a, voltage_v, u_current_a, u_voltage_v, flags, raw_text FROM reading ORDER BY id",
-        "reading", [&excludedById](const SqliteStatement &row, Reading &reading) {
+        "reading", [&excludedById, &supersededById](const SqliteStatement &row, Reading &reading) {
             std::string problem;
             reading.id = row.columnInt64(0);
             reading.timeUtc = row.columnText(1);
@@ -115,7 +127,8 @@ StoreResult<std::vector<Reading>> SessionStore::readings() const
             reading.uVoltageV = checkedUncertainty(row, 6, problem);
             reading.rawText = row.columnText(8);
             const auto exclusion = excludedById.find(reading.id);
-            reading.excluded = exclusion != excludedById.end() && exclusion->second;
+            reading.superseded = supersededById.count(reading.id) != 0;
+            reading.excluded = (exclusion != excludedById.end() && exclusion->second) || reading.superseded;
             return problem;
         });
     return result;
@@ -144,7 +157,7 @@ StoreResult<std::int64_t> SessionStore::readingCount() const
 StoreResult<std::vector<ExclusionRecord>> SessionStore::exclusions() const
 {
     return selectAll<ExclusionRecord>(m_db.get(),
-                                      "SELECT id, reading_id, excluded, reason, author, time_utc FROM exclusion ORDER BY id",
+                                      "SELECT id, reading_id, excluded, reason, author, time_utc, os_account FROM exclusion ORDER BY id",
                                       "exclusion", [](const SqliteStatement &row, ExclusionRecord &record) {
                                           record.id = row.columnInt64(0);
                                           record.readingId = row.columnInt64(1);
@@ -152,13 +165,14 @@ StoreResult<std::vector<ExclusionRecord>> SessionStore::exclusions() const
                                           record.reason = row.columnText(3);
                                           record.author = row.columnText(4);
                                           record.timeUtc = row.columnText(5);
+                                          record.osAccount = row.columnText(6);
                                           return std::string();
                                       });
 }
 
 StoreResult<std::vector<TemperatureRecord>> SessionStore::temperatures() const
 {
-    return selectAll<TemperatureRecord>(m_db.get(), "SELECT id, time_utc, kind, value_c, source FROM temperature ORDER BY id",
+    return selectAll<TemperatureRecord>(m_db.get(), "SELECT id, time_utc, kind, value_c, source, person, os_account FROM temperature ORDER BY id",
                                         "temperature", [](const SqliteStatement &row, TemperatureRecord &record) {
                                             record.id = row.columnInt64(0);
                                             record.timeUtc = row.columnText(1);
@@ -170,31 +184,34 @@ StoreResult<std::vector<TemperatureRecord>> SessionStore::temperatures() const
                                             if (!std::isfinite(record.celsius))
                                                 return std::string("the temperature is not a finite number");
                                             record.source = row.columnText(4);
+                                            record.actor = {row.columnText(5), row.columnText(6)};
                                             return std::string();
                                         });
 }
 
 StoreResult<std::vector<InstrumentRecord>> SessionStore::instruments() const
 {
-    return selectAll<InstrumentRecord>(m_db.get(), "SELECT id, time_utc, role, identity, accuracy FROM instrument ORDER BY id",
+    return selectAll<InstrumentRecord>(m_db.get(), "SELECT id, time_utc, role, identity, accuracy, person, os_account FROM instrument ORDER BY id",
                                        "instrument", [](const SqliteStatement &row, InstrumentRecord &record) {
                                            record.id = row.columnInt64(0);
                                            record.timeUtc = row.columnText(1);
                                            record.role = row.columnText(2);
                                            record.identity = row.columnText(3);
                                            record.accuracy = row.columnText(4);
+                                           record.actor = {row.columnText(5), row.columnText(6)};
                                            return std::string();
                                        });
 }
 
 StoreResult<std::vector<NoteRecord>> SessionStore::notes() const
 {
-    return selectAll<NoteRecord>(m_db.get(), "SELECT id, time_utc, author, text FROM note ORDER BY id", "note",
+    return selectAll<NoteRecord>(m_db.get(), "SELECT id, time_utc, author, text, person, os_account FROM note ORDER BY id", "note",
                                  [](const SqliteStatement &row, NoteRecord &record) {
                                      record.id = row.columnInt64(0);
                                      record.timeUtc = row.columnText(1);
                                      record.author = row.columnText(2);
                                      record.text = row.columnText(3);
+                                     record.actor = {row.columnText(4), row.columnText(5)};
                                      return std::string();
                                  });
 }
@@ -202,7 +219,8 @@ StoreResult<std::vector<NoteRecord>> SessionStore::notes() const
 StoreResult<std::vector<SafetyStopRecord>> SessionStore::safetyStops() const
 {
     return selectAll<SafetyStopRecord>(
-        m_db.get(), "SELECT id, time_utc, step, rule, message, measured, limit_value FROM safety_stop ORDER BY id", "safety stop",
+        m_db.get(), "SELECT id, time_utc, step, rule, message, measured, limit_value, person, os_account FROM safety_stop ORDER BY id",
+        "safety stop",
         [](const SqliteStatement &row, SafetyStopRecord &record) {
             std::string problem;
             record.id = row.columnInt64(0);
@@ -212,13 +230,14 @@ StoreResult<std::vector<SafetyStopRecord>> SessionStore::safetyStops() const
             record.message = row.columnText(4);
             record.measured = row.columnOptionalDouble(5);
             record.limitValue = row.columnOptionalDouble(6);
+            record.actor = {row.columnText(7), row.columnText(8)};
             return problem;
         });
 }
 
 StoreResult<std::vector<SignOffRecord>> SessionStore::signOffs() const
 {
-    return selectAll<SignOffRecord>(m_db.get(), "SELECT id, time_utc, reviewer, verdict, comment FROM sign_off ORDER BY id",
+    return selectAll<SignOffRecord>(m_db.get(), "SELECT id, time_utc, reviewer, verdict, comment, os_account, digest, content_marks FROM sign_off ORDER BY id",
                                     "sign-off", [](const SqliteStatement &row, SignOffRecord &record) {
                                         record.id = row.columnInt64(0);
                                         record.timeUtc = row.columnText(1);
@@ -229,8 +248,69 @@ StoreResult<std::vector<SignOffRecord>> SessionStore::signOffs() const
                                             return "unknown verdict '" + verdict + "'";
                                         record.verdict = *parsed;
                                         record.comment = row.columnText(4);
+                                        record.osAccount = row.columnText(5);
+                                        record.digest = row.columnText(6);
+                                        record.contentMarks = row.columnText(7);
                                         return std::string();
                                     });
+}
+
+StoreResult<std::vector<Actor>> SessionStore::readingActors() const
+{
+    return selectAll<Actor>(m_db.get(), "SELECT id, person, os_account FROM reading ORDER BY id", "reading",
+                            [](const SqliteStatement &row, Actor &actor) {
+                                actor = {row.columnText(1), row.columnText(2)};
+                                return std::string();
+                            });
+}
+
+StoreResult<std::vector<SupersessionRecord>> SessionStore::supersessions() const
+{
+    return selectAll<SupersessionRecord>(
+        m_db.get(), "SELECT id, reading_id, replacement_id, reason, person, os_account, time_utc FROM supersession ORDER BY id",
+        "retake", [](const SqliteStatement &row, SupersessionRecord &record) {
+            record.id = row.columnInt64(0);
+            record.readingId = row.columnInt64(1);
+            record.replacementId = row.columnInt64(2);
+            record.reason = row.columnText(3);
+            record.actor = {row.columnText(4), row.columnText(5)};
+            record.timeUtc = row.columnText(6);
+            return std::string();
+        });
+}
+
+StoreResult<std::vector<SweepEventRecord>> SessionStore::sweepEvents() const
+{
+    return selectAll<SweepEventRecord>(
+        m_db.get(), "SELECT id, time_utc, kind, step, detail, person, os_account FROM sweep_event ORDER BY id", "sweep event",
+        [](const SqliteStatement &row, SweepEventRecord &record) {
+            std::string problem;
+            record.id = row.columnInt64(0);
+            record.timeUtc = row.columnText(1);
+            const std::string kind = row.columnText(2);
+            const auto parsed = sweepEventKindFromString(kind);
+            if (!parsed)
+                return "unknown kind '" + kind + "'";
+            record.kind = *parsed;
+            record.step = checkedInt(row, 3, problem);
+            record.detail = row.columnText(4);
+            record.actor = {row.columnText(5), row.columnText(6)};
+            return problem;
+        });
+}
+
+StoreResult<std::vector<ReopenRecord>> SessionStore::reopens() const
+{
+    return selectAll<ReopenRecord>(m_db.get(),
+                                   "SELECT id, time_utc, sign_off_id, reason, person, os_account FROM reopen ORDER BY id",
+                                   "reopen", [](const SqliteStatement &row, ReopenRecord &record) {
+                                       record.id = row.columnInt64(0);
+                                       record.timeUtc = row.columnText(1);
+                                       record.signOffId = row.columnInt64(2);
+                                       record.reason = row.columnText(3);
+                                       record.actor = {row.columnText(4), row.columnText(5)};
+                                       return std::string();
+                                   });
 }
 
 } // namespace sagline

@@ -49,14 +49,20 @@ StoreStatus SessionStore::checkReading(const Reading &reading) const
 namespace {
 
 constexpr const char *insertReadingSql =
-    "INSERT INTO reading (time_utc, step, current_a, voltage_v, u_current_a, u_voltage_v, flags, raw_text) "
-    "VALUES (?, ?, ?, ?, ?, ?, ?, ?)";
+    "INSERT INTO reading (time_utc, step, current_a, voltage_v, u_current_a, u_voltage_v, flags, raw_text, person, "
+    "os_account) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)";
 
-void bindReading(SqliteStatement &insert, const Reading &reading, const std::string &time)
+void bindReading(SqliteStatement &insert, const Reading &reading, const std::string &time, const Actor &actor)
 {
     insert.bind(1, time).bind(2, reading.step).bind(3, reading.currentA).bind(4, reading.voltageV);
     insert.bind(5, reading.uCurrentA).bind(6, reading.uVoltageV);
     insert.bind(7, static_cast<std::int64_t>(reading.flags)).bind(8, reading.rawText);
+    insert.bind(9, actor.person).bind(10, actor.osAccount);
+}
+
+bool isBlank(const std::string &text)
+{
+    return text.find_first_not_of(" \t\r\n") == std::string::npos;
 }
 
 } // namespace
@@ -64,19 +70,19 @@ void bindReading(SqliteStatement &insert, const Reading &reading, const std::str
 StoreResult<std::int64_t> SessionStore::appendReading(const Reading &reading)
 {
     using Result = StoreResult<std::int64_t>;
-    if (StoreStatus status = requireWritable(); !status.ok())
+    if (StoreStatus status = requireUnsealed(); !status.ok())
         return Result::failure(status);
     if (StoreStatus status = checkReading(reading); !status.ok())
         return Result::failure(status);
     const std::string time = reading.timeUtc.empty() ? now() : reading.timeUtc;
     return insertRow(m_db.get(), insertReadingSql, "reading",
-                     [&](SqliteStatement &insert) { bindReading(insert, reading, time); });
+                     [&](SqliteStatement &insert) { bindReading(insert, reading, time, m_actor); });
 }
 
 StoreResult<std::vector<std::int64_t>> SessionStore::appendReadings(const std::vector<Reading> &readings)
 {
     using Result = StoreResult<std::vector<std::int64_t>>;
-    if (StoreStatus status = requireWritable(); !status.ok())
+    if (StoreStatus status = requireUnsealed(); !status.ok())
         return Result::failure(status);
     for (std::size_t i = 0; i < readings.size(); ++i) {
         if (StoreStatus status = checkReading(readings[i]); !status.ok())
@@ -94,7 +100,7 @@ StoreResult<std::vector<std::int64_t>> SessionStore::appendReadings(const std::v
     for (const Reading &reading : readings) {
         if (rc != SQLITE_OK)
             break;
-        bindReading(insert, reading, reading.timeUtc.empty() ? stamp : reading.timeUtc);
+        bindReading(insert, reading, reading.timeUtc.empty() ? stamp : reading.timeUtc, m_actor);
         rc = insert.step();
         if (rc != SQLITE_DONE)
             break;
@@ -113,11 +119,14 @@ StoreResult<std::int64_t> SessionStore::insertExclusion(std::int64_t readingId, 
                                                         const std::string &author)
 {
     using Result = StoreResult<std::int64_t>;
-    if (StoreStatus status = requireWritable(); !status.ok())
+    if (StoreStatus status = requireUnsealed(); !status.ok())
         return Result::failure(status);
-    if (reason.empty())
+    if (isBlank(reason))
         return Result::failure(StoreCode::InvalidArgument,
                                std::string(excluded ? "exclusion" : "restore") + ": a reason is required");
+    if (isBlank(author))
+        return Result::failure(StoreCode::InvalidArgument,
+                               std::string(excluded ? "exclusion" : "restore") + ": the name of the person is required");
     SqliteStatement exists;
     int rc = exists.prepare(m_db.get(), "SELECT 1 FROM reading WHERE id = ?");
     if (rc == SQLITE_OK) {
@@ -130,9 +139,11 @@ StoreResult<std::int64_t> SessionStore::insertExclusion(std::int64_t readingId, 
         return Result::failure(sqliteFailure(m_db.get(), rc, "cannot look up the reading"));
     const std::string time = now();
     return insertRow(m_db.get(),
-                     "INSERT INTO exclusion (reading_id, excluded, reason, author, time_utc) VALUES (?, ?, ?, ?, ?)",
+                     "INSERT INTO exclusion (reading_id, excluded, reason, author, time_utc, os_account) "
+                     "VALUES (?, ?, ?, ?, ?, ?)",
                      excluded ? "exclusion" : "restore", [&](SqliteStatement &insert) {
                          insert.bind(1, readingId).bind(2, excluded ? 1 : 0).bind(3, reason).bind(4, author).bind(5, time);
+                         insert.bind(6, m_actor.osAccount);
                      });
 }
 
@@ -149,16 +160,18 @@ StoreResult<std::int64_t> SessionStore::restoreReading(std::int64_t readingId, c
 StoreResult<std::int64_t> SessionStore::recordTemperature(TemperatureKind kind, double celsius, const std::string &source)
 {
     using Result = StoreResult<std::int64_t>;
-    if (StoreStatus status = requireWritable(); !status.ok())
+    if (StoreStatus status = requireUnsealed(); !status.ok())
         return Result::failure(status);
     // Below absolute zero or above any insulation class is a typing error, not a temperature.
     if (!std::isfinite(celsius) || celsius < -273.15 || celsius > 1000.0)
         return Result::failure(StoreCode::InvalidArgument,
                                std::string(toString(kind)) + " temperature: must be between -273.15 and 1000 °C");
     const std::string time = now();
-    return insertRow(m_db.get(), "INSERT INTO temperature (time_utc, kind, value_c, source) VALUES (?, ?, ?, ?)",
+    return insertRow(m_db.get(),
+                     "INSERT INTO temperature (time_utc, kind, value_c, source, person, os_account) VALUES (?, ?, ?, ?, ?, ?)",
                      "temperature", [&](SqliteStatement &insert) {
                          insert.bind(1, time).bind(2, std::string_view(toString(kind))).bind(3, celsius).bind(4, source);
+                         insert.bind(5, m_actor.person).bind(6, m_actor.osAccount);
                      });
 }
 
@@ -166,56 +179,114 @@ StoreResult<std::int64_t> SessionStore::recordInstrument(const std::string &role
                                                          const std::string &accuracy)
 {
     using Result = StoreResult<std::int64_t>;
-    if (StoreStatus status = requireWritable(); !status.ok())
+    if (StoreStatus status = requireUnsealed(); !status.ok())
         return Result::failure(status);
     if (role.empty())
         return Result::failure(StoreCode::InvalidArgument, "instrument role: required (e.g. voltmeter, ammeter)");
     const std::string time = now();
-    return insertRow(m_db.get(), "INSERT INTO instrument (time_utc, role, identity, accuracy) VALUES (?, ?, ?, ?)",
+    return insertRow(m_db.get(),
+                     "INSERT INTO instrument (time_utc, role, identity, accuracy, person, os_account) VALUES (?, ?, ?, ?, ?, ?)",
                      "instrument", [&](SqliteStatement &insert) {
                          insert.bind(1, time).bind(2, role).bind(3, identity).bind(4, accuracy);
+                         insert.bind(5, m_actor.person).bind(6, m_actor.osAccount);
                      });
 }
 
 StoreResult<std::int64_t> SessionStore::addNote(const std::string &author, const std::string &text)
 {
     using Result = StoreResult<std::int64_t>;
-    if (StoreStatus status = requireWritable(); !status.ok())
+    if (StoreStatus status = requireUnsealed(); !status.ok())
         return Result::failure(status);
     if (text.empty())
         return Result::failure(StoreCode::InvalidArgument, "note: the text is empty");
     const std::string time = now();
-    return insertRow(m_db.get(), "INSERT INTO note (time_utc, author, text) VALUES (?, ?, ?)", "note",
-                     [&](SqliteStatement &insert) { insert.bind(1, time).bind(2, author).bind(3, text); });
+    return insertRow(m_db.get(), "INSERT INTO note (time_utc, author, text, person, os_account) VALUES (?, ?, ?, ?, ?)",
+                     "note", [&](SqliteStatement &insert) {
+                         insert.bind(1, time).bind(2, author).bind(3, text).bind(4, m_actor.person).bind(5, m_actor.osAccount);
+                     });
+}
+
+StoreResult<std::int64_t> SessionStore::appendRetake(const Reading &reading, std::int64_t supersededId,
+                                                     const std::string &reason)
+{
+    using Result = StoreResult<std::int64_t>;
+    if (StoreStatus status = requireUnsealed(); !status.ok())
+        return Result::failure(status);
+    if (StoreStatus status = checkReading(reading); !status.ok())
+        return Result::failure(status);
+    if (isBlank(reason))
+        return Result::failure(StoreCode::InvalidArgument, "retake: a reason is required (why the step is taken again)");
+    SqliteTransaction transaction(m_db.get());
+    if (transaction.beginCode() != SQLITE_OK)
+        return Result::failure(sqliteFailure(m_db.get(), transaction.beginCode(), "cannot record the retake"));
+    SqliteStatement check;
+    int rc = check.prepare(m_db.get(), "SELECT (SELECT count(*) FROM reading WHERE id = ?1), "
+                                       "(SELECT count(*) FROM supersession WHERE reading_id = ?1)");
+    if (rc == SQLITE_OK) {
+        check.bind(1, supersededId);
+        rc = check.step();
+    }
+    if (rc != SQLITE_ROW)
+        return Result::failure(sqliteFailure(m_db.get(), rc, "cannot look up the reading"));
+    if (check.columnInt64(0) == 0)
+        return Result::failure(StoreCode::NotFound, "reading " + std::to_string(supersededId) + " does not exist in this session");
+    if (check.columnInt64(1) != 0)
+        return Result::failure(StoreCode::InvalidArgument,
+                               "retake: reading " + std::to_string(supersededId) + " was already superseded by a retake");
+    const std::string time = reading.timeUtc.empty() ? now() : reading.timeUtc;
+    SqliteStatement insert;
+    rc = insert.prepare(m_db.get(), insertReadingSql);
+    if (rc == SQLITE_OK) {
+        bindReading(insert, reading, time, m_actor);
+        rc = insert.step();
+    }
+    if (rc != SQLITE_DONE)
+        return Result::failure(sqliteFailure(m_db.get(), rc, "cannot record the retake; nothing was recorded"));
+    const std::int64_t newId = sqlite3_last_insert_rowid(m_db.get());
+    SqliteStatement mark;
+    rc = mark.prepare(m_db.get(), "INSERT INTO supersession (reading_id, replacement_id, reason, person, os_account, time_utc) "
+                                  "VALUES (?, ?, ?, ?, ?, ?)");
+    if (rc == SQLITE_OK) {
+        mark.bind(1, supersededId).bind(2, newId).bind(3, reason).bind(4, m_actor.person).bind(5, m_actor.osAccount);
+        mark.bind(6, time);
+        rc = mark.step();
+    }
+    if (rc == SQLITE_DONE)
+        rc = transaction.commit();
+    if (rc != SQLITE_OK && rc != SQLITE_DONE)
+        return Result::failure(sqliteFailure(m_db.get(), rc, "cannot record the retake; nothing was recorded"));
+    return newId;
+}
+
+StoreResult<std::int64_t> SessionStore::recordSweepEvent(SweepEventKind kind, int step, const std::string &detail)
+{
+    using Result = StoreResult<std::int64_t>;
+    if (StoreStatus status = requireUnsealed(); !status.ok())
+        return Result::failure(status);
+    const std::string time = now();
+    return insertRow(m_db.get(),
+                     "INSERT INTO sweep_event (time_utc, kind, step, detail, person, os_account) VALUES (?, ?, ?, ?, ?, ?)",
+                     "sweep event", [&](SqliteStatement &insert) {
+                         insert.bind(1, time).bind(2, std::string_view(toString(kind))).bind(3, step).bind(4, detail);
+                         insert.bind(5, m_actor.person).bind(6, m_actor.osAccount);
+                     });
 }
 
 StoreResult<std::int64_t> SessionStore::recordSafetyStop(const SafetyStopRecord &stop)
 {
     using Result = StoreResult<std::int64_t>;
-    if (StoreStatus status = requireWritable(); !status.ok())
+    if (StoreStatus status = requireUnsealed(); !status.ok())
         return Result::failure(status);
     if (stop.rule.empty())
         return Result::failure(StoreCode::InvalidArgument, "safety stop: the rule that stopped the sweep is required");
     const std::string time = now();
     return insertRow(m_db.get(),
-                     "INSERT INTO safety_stop (time_utc, step, rule, message, measured, limit_value) VALUES (?, ?, ?, ?, ?, ?)",
+                     "INSERT INTO safety_stop (time_utc, step, rule, message, measured, limit_value, person, os_account) "
+                     "VALUES (?, ?, ?, ?, ?, ?, ?, ?)",
                      "safety stop", [&](SqliteStatement &insert) {
                          insert.bind(1, time).bind(2, stop.step).bind(3, stop.rule).bind(4, stop.message);
                          insert.bind(5, stop.measured).bind(6, stop.limitValue);
-                     });
-}
-
-StoreResult<std::int64_t> SessionStore::addSignOff(const std::string &reviewer, Verdict verdict, const std::string &comment)
-{
-    using Result = StoreResult<std::int64_t>;
-    if (StoreStatus status = requireWritable(); !status.ok())
-        return Result::failure(status);
-    if (reviewer.empty())
-        return Result::failure(StoreCode::InvalidArgument, "sign-off: the reviewer's name is required");
-    const std::string time = now();
-    return insertRow(m_db.get(), "INSERT INTO sign_off (time_utc, reviewer, verdict, comment) VALUES (?, ?, ?, ?)",
-                     "sign-off", [&](SqliteStatement &insert) {
-                         insert.bind(1, time).bind(2, reviewer).bind(3, std::string_view(toString(verdict))).bind(4, comment);
+                         insert.bind(7, m_actor.person).bind(8, m_actor.osAccount);
                      });
 }
 

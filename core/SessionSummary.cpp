@@ -93,10 +93,32 @@ std::optional<double> SessionSummary::latestTemperatureC(TemperatureKind kind) c
 
 std::string SessionSummary::exclusionReason(std::int64_t readingId) const
 {
+    const ExclusionRecord *latest = latestExclusion(readingId);
+    return latest ? latest->reason : std::string();
+}
+
+const ExclusionRecord *SessionSummary::latestExclusion(std::int64_t readingId) const
+{
     for (auto it = exclusions.rbegin(); it != exclusions.rend(); ++it)
         if (it->readingId == readingId)
-            return it->reason;
-    return {};
+            return &*it;
+    return nullptr;
+}
+
+const SupersessionRecord *SessionSummary::supersessionOf(std::int64_t readingId) const
+{
+    for (const SupersessionRecord &record : supersessions)
+        if (record.readingId == readingId)
+            return &record;
+    return nullptr;
+}
+
+std::string SessionSummary::verdictText() const
+{
+    std::string outcome = "not judged";
+    if (verdict)
+        outcome = toString(verdict->outcome);
+    return progress.verdictText(outcome);
 }
 
 namespace {
@@ -187,6 +209,11 @@ StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const Re
         take(store.notes(), summary.notes),
         take(store.safetyStops(), summary.safetyStops),
         take(store.signOffs(), summary.signOffs),
+        take(store.readingActors(), summary.readingActors),
+        take(store.supersessions(), summary.supersessions),
+        take(store.sweepEvents(), summary.sweepEvents),
+        take(store.reopens(), summary.reopens),
+        take(checkSeal(store), summary.seal),
     };
     for (const StoreStatus &status : statuses)
         if (!status.ok())
@@ -198,6 +225,10 @@ StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const Re
     else
         summary.setupProblem = setup.errors.front().message();
     summary.plan = parseStoredPlan(summary.info.planJson);
+    std::vector<int> plannedSteps;
+    for (const StoredPlanStep &step : summary.plan.steps)
+        plannedSteps.push_back(step.index);
+    summary.progress = sessionProgress(plannedSteps, summary.readings, summary.safetyStops, summary.sweepEvents, false);
     summary.fit = fitReadings(summary.readings, options.method,
                               fitOptionsFor(summary.setup ? summary.setup->meters : std::nullopt));
     applyRecordedSettings(summary);

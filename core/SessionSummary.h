@@ -9,7 +9,9 @@
 #include "FitSummary.h"
 #include "Reading.h"
 #include "ResultAnalysis.h"
+#include "SessionProgress.h"
 #include "SessionRecords.h"
+#include "SessionSeal.h"
 #include "SessionStore.h"
 #include "Setup.h"
 #include "StoreResult.h"
@@ -79,6 +81,12 @@ struct SessionSummary {
     std::vector<NoteRecord> notes;
     std::vector<SafetyStopRecord> safetyStops;
     std::vector<SignOffRecord> signOffs;
+    std::vector<Actor> readingActors;        // who recorded each reading, parallel to readings
+    std::vector<SupersessionRecord> supersessions; // retakes
+    std::vector<SweepEventRecord> sweepEvents;
+    std::vector<ReopenRecord> reopens;
+    SealReport seal;                         // signed, changed after sign-off, altered
+    SessionProgress progress;                // k of N steps and how the sweep ended (never "running": read from a file)
     ReviewOptions options;                   // as used: the options given, gaps filled from the record
     DecisionRule rule = DecisionRule::NonBinary; // the decision rule used
     // Where each choice came from (option, session record or default).
@@ -98,6 +106,13 @@ struct SessionSummary {
     std::optional<double> latestTemperatureC(TemperatureKind kind) const;
     // The reason of the latest exclusion row of a reading, "" when it has none.
     std::string exclusionReason(std::int64_t readingId) const;
+    // The latest exclusion row of a reading, or null.
+    const ExclusionRecord *latestExclusion(std::int64_t readingId) const;
+    // The retake that superseded a reading, or null.
+    const SupersessionRecord *supersessionOf(std::int64_t readingId) const;
+    // The verdict as every output shows it: the outcome when the session is complete, else
+    // "provisional (k of N steps)" or "incomplete (...)" (core/SessionProgress.h).
+    std::string verdictText() const;
 };
 
 // One line for reports: each judging choice used and where it came from, e.g. "decision rule

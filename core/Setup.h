@@ -39,7 +39,7 @@ struct FuseSpec {
 struct Bench {
     int steps = 10;                                     // N equal current increments
     double topFraction = 1.0;                           // top step as a fraction of rated current
-    double overloadFactor = 1.0;                        // hard limit = rated VA * overloadFactor
+    double overloadFactor = 1.1;                        // hard limit = rated VA * overloadFactor (margin above a top step at rated load)
     bool allowOverload = false;
     std::optional<Rheostat> rheostat;                   // absent: load not checked
     std::optional<FuseSpec> fuse;                       // the primary fuse fitted; absent: none known

@@ -24,6 +24,7 @@ const char *toString(StoreCode code)
     case StoreCode::NotFound: return "not found";
     case StoreCode::Busy: return "busy";
     case StoreCode::IoError: return "I/O error";
+    case StoreCode::Sealed: return "signed off";
     }
     return "unknown";
 }

@@ -115,6 +115,11 @@ bool SqliteStatement::isNull(int column) const
     return sqlite3_column_type(m_stmt, column) == SQLITE_NULL;
 }
 
+int SqliteStatement::columnType(int column) const
+{
+    return sqlite3_column_type(m_stmt, column);
+}
+
 double SqliteStatement::columnDouble(int column) const
 {
     return sqlite3_column_double(m_stmt, column);

@@ -40,6 +40,7 @@ public:
 
     // Columns are 0-based; valid after step() returned SQLITE_ROW.
     bool isNull(int column) const;
+    int columnType(int column) const; // SQLITE_INTEGER, SQLITE_FLOAT, SQLITE_TEXT, SQLITE_BLOB or SQLITE_NULL
     double columnDouble(int column) const;
     std::int64_t columnInt64(int column) const;
     std::string columnText(int column) const;               // "" for NULL

@@ -19,6 +19,7 @@ enum class StoreCode {
     NotFound,         // an id that does not exist in this session
     Busy,             // another program holds a lock on the file
     IoError,          // disk full or an I/O error: nothing of the failed call was recorded
+    Sealed,           // a change to a signed-off session that was not reopened
 };
 
 // A plain name for messages and logs: "ok", "invalid argument", "not a session", ...

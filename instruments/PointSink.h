@@ -5,6 +5,7 @@
 
 #include "Reading.h"
 #include "SafetyLimits.h"
+#include "SessionRecords.h"
 
 #include <QString>
 
@@ -36,6 +37,13 @@ public:
     virtual CommitResult excludeReading(std::int64_t readingId, const QString &reason) = 0;
     // Link lost/restored, instrument errors, operator stop: kept with the session as notes.
     virtual CommitResult recordEvent(const QString &timeUtc, const QString &text) = 0;
+    // The sweep's own course (started, finished, stopped, resumed), which tells a complete
+    // session from an interrupted one. Sinks that do not keep it need not override.
+    virtual CommitResult recordSweepEvent(SweepEventKind kind, int step, const QString &detail)
+    {
+        Q_UNUSED(kind) Q_UNUSED(step) Q_UNUSED(detail)
+        return {true, 0, {}};
+    }
 };
 
 } // namespace sagline

@@ -60,4 +60,9 @@ CommitResult SessionStoreSink::recordEvent(const QString &timeUtc, const QString
     return toCommit(m_store->addNote(m_author.toStdString(), (timeUtc + QStringLiteral(" ") + text).toStdString()));
 }
 
+CommitResult SessionStoreSink::recordSweepEvent(SweepEventKind kind, int step, const QString &detail)
+{
+    return toCommit(m_store->recordSweepEvent(kind, step, detail.toStdString()));
+}
+
 } // namespace sagline

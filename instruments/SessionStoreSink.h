@@ -19,6 +19,7 @@ public:
     CommitResult recordInstrument(const InstrumentIdentityRecord &instrument) override;
     CommitResult excludeReading(std::int64_t readingId, const QString &reason) override;
     CommitResult recordEvent(const QString &timeUtc, const QString &text) override;
+    CommitResult recordSweepEvent(SweepEventKind kind, int step, const QString &detail) override;
 
 private:
     SessionStore *m_store;

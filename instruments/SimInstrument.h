@@ -43,6 +43,7 @@ public:
 
     SimInstrumentKind kind() const { return m_kind; }
     QString identity() const;
+    QString serialNumber() const { return m_serial; }
     void setSerialNumber(const QString &serial) { m_serial = serial; }
 
     // One complete line (without terminator) from a client. `reply` gets the bytes to send

@@ -169,7 +169,18 @@ void SweepController::start()
                 event(tr("reported while connecting: %1").arg(message));
         }
     }
-    event(tr("sweep started at step %1 (%2)").arg(m_step).arg(m_rig ? tr("instruments") : tr("typed-in readings")));
+    event(tr("sweep %1 at step %2 (%3)")
+              .arg(m_options.resumed ? tr("resumed") : tr("started"))
+              .arg(m_step)
+              .arg(m_rig ? tr("instruments") : tr("typed-in readings")));
+    if (m_sink)
+        m_sink->recordSweepEvent(m_options.resumed ? SweepEventKind::Resumed : SweepEventKind::Started, m_step, {});
+    if (m_options.resumed) {
+        // The session stopped or was interrupted at this step: nobody knows where the load is
+        // now, so it is checked again as after a pause (a programmable load is set again).
+        m_pauseInDoubt = true;
+        m_confirmedBeforePause = true;
+    }
     beginStep();
 }
 
@@ -334,6 +345,8 @@ void SweepController::finish(SweepOutcome outcome)
     cancelTimers();
     ++m_readSerial;
     event(tr("sweep ended: %1 (%2 points recorded)").arg(toString(outcome)).arg(m_recorded));
+    if (m_sink && outcome == SweepOutcome::Completed)
+        m_sink->recordSweepEvent(SweepEventKind::Finished, m_step, {});
     setState(outcome == SweepOutcome::Completed ? SweepState::Finished : SweepState::Stopped);
     emit finished(outcome);
 }
@@ -373,6 +386,8 @@ void SweepController::stop()
         return;
     openLoad();
     event(tr("stopped by the operator at step %1").arg(m_step));
+    if (m_sink)
+        m_sink->recordSweepEvent(SweepEventKind::Stopped, m_step, {});
     finish(SweepOutcome::StoppedByOperator);
 }
 

@@ -48,6 +48,7 @@ struct SweepOptions {
     double predictionLevel = 0.99;      // flag a point outside the fit's prediction interval at this level
     SafetyLimits limits;                // usually safetyLimitsFor(plan)
     int firstStep = 0;                  // to continue an interrupted sweep
+    bool resumed = false;               // continues a stopped or interrupted session: the first step's load is checked again
     bool simulated = false;             // readings come from the virtual bench (flagged so)
 };
 

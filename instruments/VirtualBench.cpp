@@ -2,6 +2,8 @@
 
 #include "SimInstrument.h"
 
+#include <QRandomGenerator>
+
 #include <algorithm>
 #include <cmath>
 
@@ -63,6 +65,16 @@ VirtualBench::VirtualBench(const VirtualBenchOptions &options, Clock *clock, QOb
     m_powerMeter = new SimInstrument(SimInstrumentKind::PowerMeter, this, options.seed * 4 + 3, this);
     m_load = new SimInstrument(SimInstrumentKind::Load, this, options.seed * 4 + 4, this);
     m_primaryMeter = new SimInstrument(SimInstrumentKind::PrimaryMeter, this, options.seed * 4 + 5, this);
+    const QString suffix = options.serialSuffix.isEmpty() ? processSerialSuffix() : options.serialSuffix;
+    for (SimInstrument *instrument : instruments())
+        instrument->setSerialNumber(instrument->serialNumber() + QLatin1Char('-') + suffix);
+}
+
+QString processSerialSuffix()
+{
+    static const QString suffix =
+        QStringLiteral("%1").arg(QRandomGenerator::system()->generate(), 8, 16, QLatin1Char('0')).toUpper();
+    return suffix;
 }
 
 VirtualBench::~VirtualBench() = default;

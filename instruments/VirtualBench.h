@@ -32,7 +32,14 @@ struct VirtualBenchOptions {
     SimMeterSpec voltmeter;
     SimMeterSpec ammeter;
     std::uint64_t seed = 1;
+    // Ends every instrument's serial number. Empty: processSerialSuffix(), so a bench in another
+    // process (a simulator started later on a reused pty or port) never passes for this one.
+    QString serialSuffix;
 };
+
+// Eight hex digits drawn once per process: the default end of the virtual instruments' serial
+// numbers, as a real meter's serial number belongs to that meter alone.
+QString processSerialSuffix();
 
 // A bench for a setup: the transformer its nameplate describes (magnetizing current from the
 // plan's fraction), its fuse, meters ranged and specified like ordinary bench meters.

@@ -1,7 +1,7 @@
 #include "DisplayPoints.h"
 
 #include <algorithm>
-#include <limits>
+#include <cmath>
 
 namespace sagline {
 
@@ -12,29 +12,25 @@ std::size_t drawnPointBudget(double plotWidthPx)
     return static_cast<std::size_t>(std::clamp(plotWidthPx, fewest, most));
 }
 
-void DisplayPoints::insert(std::int64_t id, double currentA, double voltageV, bool excluded)
+void DisplayPoints::add(std::int64_t id, double currentA, double voltageV, bool excluded)
 {
-    // upper_bound keeps points of equal current in arrival order.
-    const auto at = std::upper_bound(m_points.begin(), m_points.end(), currentA,
-                                     [](double c, const Entry &e) { return c < e.current; });
-    m_points.insert(at, Entry{currentA, voltageV, id, excluded});
-    if (!excluded) {
-        const auto atIncluded = std::upper_bound(m_included.begin(), m_included.end(), currentA,
-                                                 [](double c, const PlotPoint &p) { return c < p.x; });
-        m_included.insert(atIncluded, PlotPoint{currentA, voltageV});
-    }
+    if (!std::isfinite(currentA) || !std::isfinite(voltageV))
+        return;
+    m_arrivals.push_back(Entry{currentA, voltageV, id, excluded});
+    m_maxCurrent = std::max(m_maxCurrent, currentA);
     m_minVoltage = std::min(m_minVoltage, voltageV);
     m_maxVoltage = std::max(m_maxVoltage, voltageV);
 }
 
 bool DisplayPoints::setExcluded(std::int64_t id, bool excluded)
 {
-    for (auto &entry : m_points) {
+    settle();
+    for (auto &entry : m_sorted) {
         if (entry.id != id)
             continue;
         if (entry.excluded != excluded) {
             entry.excluded = excluded;
-            rebuildIncluded(); // rare (a person excluding a point): O(n) is fine
+            split(); // rare (a person excluding a point): O(n) is fine
         }
         return true;
     }
@@ -43,33 +39,56 @@ bool DisplayPoints::setExcluded(std::int64_t id, bool excluded)
 
 void DisplayPoints::clear()
 {
-    m_points.clear();
+    m_sorted.clear();
+    m_arrivals.clear();
     m_included.clear();
+    m_excluded.clear();
+    m_maxCurrent = -std::numeric_limits<double>::infinity();
     m_minVoltage = std::numeric_limits<double>::infinity();
     m_maxVoltage = -std::numeric_limits<double>::infinity();
 }
 
-void DisplayPoints::rebuildIncluded()
+std::span<const PlotPoint> DisplayPoints::included() const
+{
+    settle();
+    return m_included;
+}
+
+std::span<const PlotPoint> DisplayPoints::excluded() const
+{
+    settle();
+    return m_excluded;
+}
+
+void DisplayPoints::settle() const
+{
+    if (m_arrivals.empty())
+        return;
+    const auto byCurrent = [](const Entry &a, const Entry &b) { return a.current < b.current; };
+    std::stable_sort(m_arrivals.begin(), m_arrivals.end(), byCurrent);
+    if (!m_sorted.empty() && m_arrivals.front().current >= m_sorted.back().current) {
+        // A rising sweep: the new points go after the rest, and so do their display points.
+        for (const Entry &entry : m_arrivals)
+            (entry.excluded ? m_excluded : m_included).push_back({entry.current, entry.voltage});
+        m_sorted.insert(m_sorted.end(), m_arrivals.begin(), m_arrivals.end());
+        m_arrivals.clear();
+        return;
+    }
+    const auto middle = static_cast<std::ptrdiff_t>(m_sorted.size());
+    m_sorted.insert(m_sorted.end(), m_arrivals.begin(), m_arrivals.end());
+    m_arrivals.clear();
+    // Stable: of equal currents, the earlier arrivals (already sorted) stay first.
+    std::inplace_merge(m_sorted.begin(), m_sorted.begin() + middle, m_sorted.end(), byCurrent);
+    split();
+}
+
+void DisplayPoints::split() const
 {
     m_included.clear();
-    for (const auto &entry : m_points) {
-        if (!entry.excluded)
-            m_included.push_back({entry.current, entry.voltage});
-    }
+    m_excluded.clear();
+    for (const Entry &entry : m_sorted)
+        (entry.excluded ? m_excluded : m_included).push_back({entry.current, entry.voltage});
 }
-
-std::vector<PlotPoint> DisplayPoints::collect(bool excluded, const std::function<double(double, double)> &y) const
-{
-    std::vector<PlotPoint> out;
-    out.reserve(excluded ? m_points.size() - m_included.size() : m_included.size());
-    for (const auto &entry : m_points) {
-        if (entry.excluded == excluded)
-            out.push_back({entry.current, y ? y(entry.current, entry.voltage) : entry.voltage});
-    }
-    return out;
-}
-
-double DisplayPoints::maxCurrent() const { return m_points.empty() ? 0.0 : m_points.back().current; }
 
 QList<QPointF> toQtPoints(std::span<const PlotPoint> points)
 {

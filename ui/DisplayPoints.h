@@ -1,6 +1,10 @@
-// The recorded points as the charts draw them: kept sorted by current so thinning (LTTB needs
-// x in order) costs one pass per refresh, not a sort. A display cache only; the session store
-// and the fit hold the data of record.
+// The recorded points as the charts draw them, shared by the V–I and the residual chart:
+// sorted by current (LTTB thinning needs x in order) and split into included and excluded
+// arrays. Points arrive in any order and are only appended; the next read sorts what arrived
+// since the last one (one stable sort of the new points, one merge with the sorted rest), so
+// opening a session of n readings costs one O(n log n) sort whatever order they were recorded
+// in, and a live point costs an O(n) merge per chart refresh, not per point. A display cache
+// only; the session store and the fit hold the data of record.
 #pragma once
 
 #include "Downsample.h"
@@ -9,7 +13,6 @@
 #include <QPointF>
 
 #include <cstdint>
-#include <functional>
 #include <limits>
 #include <span>
 #include <vector>
@@ -24,18 +27,19 @@ QList<QPointF> toQtPoints(std::span<const PlotPoint> points);
 
 class DisplayPoints {
 public:
-    // `id` is the caller's key for the point (the reading's row), used by setExcluded.
-    void insert(std::int64_t id, double currentA, double voltageV, bool excluded);
+    // `id` is the caller's key for the point (the reading's row), used by setExcluded. A point
+    // with a non-finite current or voltage cannot be drawn and is not kept.
+    void add(std::int64_t id, double currentA, double voltageV, bool excluded);
     bool setExcluded(std::int64_t id, bool excluded); // false when the id is unknown
     void clear();
-    std::size_t size() const { return m_points.size(); }
+    std::size_t size() const { return m_sorted.size() + m_arrivals.size(); }
 
-    // Included or excluded points in current order, mapped through `y` (identity: V).
-    std::vector<PlotPoint> collect(bool excluded, const std::function<double(double, double)> &y = {}) const;
-    // The included points (I, V) in current order, without a copy: a refresh thins them
-    // straight from here.
-    std::span<const PlotPoint> included() const { return m_included; }
-    double maxCurrent() const;
+    // The included and the excluded points (I, V) in current order; points of equal current
+    // in arrival order. Valid until the next change.
+    std::span<const PlotPoint> included() const;
+    std::span<const PlotPoint> excluded() const;
+    // Kept as points arrive: a refresh must not walk 100 000 points to size an axis.
+    double maxCurrent() const { return size() ? m_maxCurrent : 0.0; }
     double minVoltage() const { return m_minVoltage; } // +inf when empty
     double maxVoltage() const { return m_maxVoltage; } // -inf when empty
 
@@ -46,11 +50,15 @@ private:
         std::int64_t id;
         bool excluded;
     };
-    void rebuildIncluded();
+    void settle() const; // sorts the arrivals into place and rebuilds the split arrays
+    void split() const;
 
-    std::vector<Entry> m_points;
-    std::vector<PlotPoint> m_included; // the included entries' (I, V), same order
-    // Kept as points arrive: a refresh must not walk 100 000 points to size an axis.
+    // Sorting on read is a cache update, not a change of what the points are: hence mutable.
+    mutable std::vector<Entry> m_sorted;   // by current, stable
+    mutable std::vector<Entry> m_arrivals; // since the last read, in arrival order
+    mutable std::vector<PlotPoint> m_included;
+    mutable std::vector<PlotPoint> m_excluded;
+    double m_maxCurrent = -std::numeric_limits<double>::infinity();
     double m_minVoltage = std::numeric_limits<double>::infinity();
     double m_maxVoltage = -std::numeric_limits<double>::infinity();
 };

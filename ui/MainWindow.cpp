@@ -30,6 +30,7 @@
 #include <QVBoxLayout>
 
 #include <algorithm>
+#include <span>
 
 namespace sagline {
 
@@ -60,8 +61,8 @@ void sizeReadingsColumns(QTableView *view)
 MainWindow::MainWindow(QWidget *parent)
     : QMainWindow(parent), m_workspace(new SweepWorkspace(this)), m_caution(new CautionStrip),
       m_nextStep(new NextStepStrip), m_leftTabs(new QTabWidget), m_setupForm(new SetupForm),
-      m_planPanel(new PlanPanel), m_instruments(new InstrumentsPanel), m_chart(new VoltageCurrentChart),
-      m_residuals(new ResidualChart), m_results(new ResultsPanel), m_readingsModel(new ReadingsTableModel(this)),
+      m_planPanel(new PlanPanel), m_instruments(new InstrumentsPanel), m_chart(new VoltageCurrentChart(m_points)),
+      m_residuals(new ResidualChart(m_points)), m_results(new ResultsPanel), m_readingsModel(new ReadingsTableModel(this)),
       m_readingsView(new QTableView), m_mainSplitter(new QSplitter(Qt::Horizontal)),
       m_chartSplitter(new QSplitter(Qt::Vertical)), m_rightSplitter(new QSplitter(Qt::Vertical)),
       m_statusSource(new QLabel), m_statusSession(new QLabel), m_statusPoints(new QLabel), m_recentMenu(nullptr)
@@ -268,12 +269,20 @@ void MainWindow::handleRecord()
     showMessage(refusal, true);
 }
 
-void MainWindow::handleReadingRecorded(int row)
+void MainWindow::handleReadingRecorded(int row) { showRecordedReadings(row, row + 1); }
+
+void MainWindow::showRecordedReadings(int first, int end)
 {
-    const Reading &reading = m_workspace->readings()[static_cast<std::size_t>(row)];
-    m_readingsModel->append(reading);
-    m_chart->addPoint(row, reading.currentA, reading.voltageV, reading.excluded);
-    m_residuals->addPoint(row, reading.currentA, reading.voltageV, reading.excluded);
+    const std::span<const Reading> readings(m_workspace->readings());
+    const auto from = static_cast<std::size_t>(first);
+    const auto count = static_cast<std::size_t>(end - first);
+    m_readingsModel->append(readings.subspan(from, count)); // one row insert for all of them
+    for (std::size_t row = from; row < from + count; ++row) {
+        const Reading &reading = readings[row];
+        m_points.add(static_cast<std::int64_t>(row), reading.currentA, reading.voltageV, reading.excluded);
+    }
+    m_chart->pointsChanged();
+    m_residuals->pointsChanged();
     if (!m_resultsTimer.isActive())
         m_resultsTimer.start();
 }
@@ -282,8 +291,10 @@ void MainWindow::handleReadingChanged(int row)
 {
     const Reading &reading = m_workspace->readings()[static_cast<std::size_t>(row)];
     m_readingsModel->setExcluded(row, reading.excluded, reading.excluded ? m_readingsModel->exclusionReason(row) : QString());
-    m_chart->setExcluded(row, reading.excluded);
-    m_residuals->setExcluded(row, reading.excluded);
+    if (m_points.setExcluded(row, reading.excluded)) {
+        m_chart->pointsChanged();
+        m_residuals->pointsChanged();
+    }
     refreshFitViews();
 }
 
@@ -393,8 +404,9 @@ void MainWindow::showMessage(const QString &text, bool error)
 void MainWindow::resetViews()
 {
     m_readingsModel->clear();
-    m_chart->clearPoints();
-    m_residuals->clearPoints();
+    m_points.clear();
+    m_chart->pointsCleared();
+    m_residuals->pointsCleared();
     m_results->setLines({});
     m_results->setVerdict(VerdictState::None, {}, {});
     m_results->setBudgets({});

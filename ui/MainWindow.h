@@ -4,6 +4,8 @@
 // instruments layer) does the work.
 #pragma once
 
+#include "DisplayPoints.h"
+
 #include <QMainWindow>
 #include <QStringList>
 #include <QTimer>
@@ -80,6 +82,7 @@ private:
     void storeAnalysisSettings(); // the verdict settings into the open session (a note)
     void handleRecord();
     void handleReadingRecorded(int row);
+    void showRecordedReadings(int first, int end); // rows [first, end) into the table and charts
     void handleReadingChanged(int row);
     void refreshFitViews();
     void showSourceStatus();
@@ -107,6 +110,7 @@ private:
     SetupForm *m_setupForm;
     PlanPanel *m_planPanel;
     InstrumentsPanel *m_instruments;
+    DisplayPoints m_points; // what both charts draw, sorted once for both
     VoltageCurrentChart *m_chart;
     ResidualChart *m_residuals;
     ResultsPanel *m_results;

@@ -181,9 +181,9 @@ bool MainWindow::openSessionFile(const QString &path)
         m_setupForm->setVerdictSettings(verdictSettingsFrom(*recorded)); // judge as it was judged at the bench
     m_setupForm->setLocked(true);
     m_instruments->setLocked(true);
-    for (int row = 0; row < static_cast<int>(m_workspace->readings().size()); ++row)
-        handleReadingRecorded(row);
+    showRecordedReadings(0, static_cast<int>(m_workspace->readings().size()));
     refreshFitViews();
+    flushCharts(); // the first frame painted after opening shows the session's points
     rememberRecent(path);
     showMessage(tr("Opened %1").arg(path));
     return true;

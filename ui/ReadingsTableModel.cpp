@@ -11,11 +11,14 @@ namespace sagline {
 
 ReadingsTableModel::ReadingsTableModel(QObject *parent) : QAbstractTableModel(parent) {}
 
-void ReadingsTableModel::append(const Reading &reading)
+void ReadingsTableModel::append(std::span<const Reading> readings)
 {
+    if (readings.empty())
+        return;
     const int row = static_cast<int>(m_rows.size());
-    beginInsertRows({}, row, row);
-    m_rows.push_back({reading, {}, {}});
+    beginInsertRows({}, row, row + static_cast<int>(readings.size()) - 1);
+    for (const Reading &reading : readings)
+        m_rows.push_back({reading, {}, {}});
     endInsertRows();
 }
 

@@ -8,6 +8,7 @@
 #include <QAbstractTableModel>
 
 #include <functional>
+#include <span>
 #include <vector>
 
 namespace sagline {
@@ -20,7 +21,8 @@ public:
 
     explicit ReadingsTableModel(QObject *parent = nullptr);
 
-    void append(const Reading &reading);
+    void append(std::span<const Reading> readings); // one row insertion for all of them
+    void append(const Reading &reading) { append(std::span<const Reading>(&reading, 1)); }
     void clear();
     void setResidualFunction(ResidualFunction residual);
     // Rows the batch fit flags as outliers (ascending): marked in the flags column, so the

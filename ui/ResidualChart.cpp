@@ -19,9 +19,9 @@ constexpr int markerPx = 8;
 constexpr double millivoltsPerVolt = 1000.0;
 } // namespace
 
-ResidualChart::ResidualChart(QWidget *parent)
+ResidualChart::ResidualChart(const DisplayPoints &points, QWidget *parent)
     : QWidget(parent), m_view(new QChartView), m_chart(new QChart), m_legend(new ChartLegend),
-      m_axisX(new QValueAxis), m_axisY(new QValueAxis)
+      m_axisX(new QValueAxis), m_axisY(new QValueAxis), m_points(points)
 {
     m_chart->legend()->hide();
     m_chart->setAnimationOptions(QChart::NoAnimation);
@@ -82,24 +82,14 @@ void ResidualChart::applyColours(bool dark)
     scheduleFlush();
 }
 
-void ResidualChart::addPoint(std::int64_t id, double currentA, double voltageV, bool excluded)
+void ResidualChart::pointsChanged()
 {
-    m_points.insert(id, currentA, voltageV, excluded);
     m_dirty = true;
     scheduleFlush();
 }
 
-void ResidualChart::setExcluded(std::int64_t id, bool excluded)
+void ResidualChart::pointsCleared()
 {
-    if (m_points.setExcluded(id, excluded)) {
-        m_dirty = true;
-        scheduleFlush();
-    }
-}
-
-void ResidualChart::clearPoints()
-{
-    m_points.clear();
     m_residual = {};
     m_x = m_y = {};
     m_dirty = true;
@@ -137,20 +127,19 @@ void ResidualChart::flushNow()
     std::vector<PlotPoint> excluded;
     const std::size_t limit = drawnPointBudget(m_chart->plotArea().width());
     if (m_residual) {
-        const auto inMillivolts = [this](double current, double voltage) {
-            return m_residual(current, voltage) * millivoltsPerVolt;
-        };
         // Thin the voltages, then map only the kept points: subtracting the fitted line is a
         // shear, which keeps every triangle's area, so LTTB keeps the same points either way
         // (tests/core/DownsampleTest) and a refresh computes hundreds of residuals, not all.
-        const auto voltages = m_points.included();
-        included = voltages.size() > limit ? lttbDownsample(voltages, limit)
-                                           : std::vector<PlotPoint>(voltages.begin(), voltages.end());
-        for (auto &p : included)
-            p.y = inMillivolts(p.x, p.y);
-        excluded = m_points.collect(true, inMillivolts);
-        if (excluded.size() > limit)
-            excluded = lttbDownsample(excluded, limit);
+        const auto residualsOf = [&](std::span<const PlotPoint> voltages) {
+            std::vector<PlotPoint> kept = voltages.size() > limit
+                                              ? lttbDownsample(voltages, limit)
+                                              : std::vector<PlotPoint>(voltages.begin(), voltages.end());
+            for (auto &p : kept)
+                p.y = m_residual(p.x, p.y) * millivoltsPerVolt;
+            return kept;
+        };
+        included = residualsOf(m_points.included());
+        excluded = residualsOf(m_points.excluded());
     }
     double largest = 2.0 * m_residualSdV * millivoltsPerVolt;
     for (const auto *set : {&included, &excluded}) {

@@ -28,10 +28,10 @@ public:
     // Residual in volts of a point (current A, voltage V) against the current fit.
     using ResidualFunction = std::function<double(double, double)>;
 
-    explicit ResidualChart(QWidget *parent = nullptr);
-    void addPoint(std::int64_t id, double currentA, double voltageV, bool excluded);
-    void setExcluded(std::int64_t id, bool excluded);
-    void clearPoints();
+    // `points` (shared with the V–I chart) is owned by the caller and outlives the chart.
+    explicit ResidualChart(const DisplayPoints &points, QWidget *parent = nullptr);
+    void pointsChanged();  // the shared points changed: drawn at the next refresh
+    void pointsCleared();  // they were cleared: the residual function and the axes go too
     // An empty function (no fit yet) hides the points. `residualSdV` draws ±2 s guide lines.
     void setResidualFunction(ResidualFunction residual, double residualSdV);
     void setCurrentSpan(double maxCurrentA);
@@ -53,7 +53,7 @@ private:
     QLineSeries *m_excluded;
     QLineSeries *m_included;
     ChartColours m_colours;
-    DisplayPoints m_points;
+    const DisplayPoints &m_points;
     ResidualFunction m_residual;
     double m_residualSdV = 0.0;
     double m_maxCurrentA = 0.0;

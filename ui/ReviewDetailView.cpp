@@ -100,8 +100,7 @@ void ReviewDetailView::showSession(const SessionRow *row)
         const double a = row->fit.intercept, b = row->fit.slope;
         if (row->fit.ok())
             m_readings->setResidualFunction([a, b](double i, double v) { return v - (a + b * i); });
-        for (const Reading &reading : readings.value)
-            m_readings->append(reading);
+        m_readings->append(readings.value);
     }
 
     QString history = tr("<b>Sign-off history</b><br>");

@@ -69,8 +69,8 @@ SetupForm::SetupForm(QWidget *parent)
     auto *benchBox = new QGroupBox(tr("Bench and sweep"));
     auto *bench = new QFormLayout(benchBox);
     addQuantity(bench, tr("Load steps"), QStringLiteral("bench.steps"), Unit::None, tr("e.g. 10"));
-    addQuantity(bench, tr("Top step (× rated I2)"), QStringLiteral("bench.top_fraction"), Unit::None, tr("default 1.0"));
-    addQuantity(bench, tr("Hard stop at (× rated VA)"), QStringLiteral("bench.overload_factor"), Unit::None, tr("default 1.0"));
+    addQuantity(bench, tr("Top step (× rated I2)"), QStringLiteral("bench.top_fraction"), Unit::None, tr("default 1.1"));
+    addQuantity(bench, tr("Hard stop at (× rated VA)"), QStringLiteral("bench.overload_factor"), Unit::None, tr("default 1.1"));
     bench->addRow(QString(), m_allowOverload);
     addQuantity(bench, tr("Rheostat track"), QStringLiteral("bench.rheostat.total_resistance_ohm"), Unit::Ohm, tr("blank: not checked"));
     addQuantity(bench, tr("Rheostat rating"), QStringLiteral("bench.rheostat.power_rating_w"), Unit::Watt, tr("whole track"));

@@ -27,9 +27,9 @@ QList<QPointF> thinned(std::span<const PlotPoint> points, std::size_t limit)
 
 } // namespace
 
-VoltageCurrentChart::VoltageCurrentChart(QWidget *parent)
+VoltageCurrentChart::VoltageCurrentChart(const DisplayPoints &points, QWidget *parent)
     : QWidget(parent), m_view(new QChartView), m_chart(new QChart), m_legend(new ChartLegend),
-      m_axisX(new QValueAxis), m_axisY(new QValueAxis)
+      m_axisX(new QValueAxis), m_axisY(new QValueAxis), m_points(points)
 {
     m_chart->legend()->hide();
     m_chart->setAnimationOptions(QChart::NoAnimation);
@@ -153,24 +153,14 @@ void VoltageCurrentChart::setLimits(const ChartLimits &limits)
     scheduleFlush();
 }
 
-void VoltageCurrentChart::addPoint(std::int64_t id, double currentA, double voltageV, bool excluded)
+void VoltageCurrentChart::pointsChanged()
 {
-    m_points.insert(id, currentA, voltageV, excluded);
     m_pointsDirty = true;
     scheduleFlush();
 }
 
-void VoltageCurrentChart::setExcluded(std::int64_t id, bool excluded)
+void VoltageCurrentChart::pointsCleared()
 {
-    if (m_points.setExcluded(id, excluded)) {
-        m_pointsDirty = true;
-        scheduleFlush();
-    }
-}
-
-void VoltageCurrentChart::clearPoints()
-{
-    m_points.clear();
     m_overlay = {};
     m_pointsDirty = m_overlayDirty = true;
     scheduleFlush();
@@ -289,7 +279,7 @@ void VoltageCurrentChart::flushNow()
     if (m_pointsDirty) {
         const std::size_t budget = drawnPointBudget(m_chart->plotArea().width());
         m_included->replace(thinned(m_points.included(), budget));
-        m_excluded->replace(thinned(m_points.collect(true), budget));
+        m_excluded->replace(thinned(m_points.excluded(), budget));
     }
     if (m_overlayDirty) {
         m_fit->replace(m_overlay.line);

@@ -51,12 +51,14 @@ struct FitOverlay {
 class VoltageCurrentChart : public QWidget {
     Q_OBJECT
 public:
-    explicit VoltageCurrentChart(QWidget *parent = nullptr);
+    // `points` (shared with the residual chart) is owned by the caller and outlives the chart.
+    explicit VoltageCurrentChart(const DisplayPoints &points, QWidget *parent = nullptr);
 
     void setLimits(const ChartLimits &limits);
-    void addPoint(std::int64_t id, double currentA, double voltageV, bool excluded);
-    void setExcluded(std::int64_t id, bool excluded);
-    void clearPoints();
+    // The shared points gained, lost or changed points: drawn at the next refresh.
+    void pointsChanged();
+    // The points were cleared: the fit overlay goes too.
+    void pointsCleared();
     void setFitOverlay(const FitOverlay &overlay);
     // `count` currents spanning the current axis, for core to evaluate the line and band on.
     std::vector<double> gridCurrents(int count) const;
@@ -106,7 +108,7 @@ private:
 
     ChartColours m_colours;
     ChartLimits m_limits;
-    DisplayPoints m_points;
+    const DisplayPoints &m_points;
     FitOverlay m_overlay;
     AxisSpan m_x;
     AxisSpan m_y;

@@ -16,6 +16,11 @@ enum ExitCode : int {
 
 using Arguments = std::vector<std::string>; // the words after the command name
 
+// The last paragraph of every command's --help.
+inline constexpr const char *exitCodesNote =
+    "Exit codes: 0 success; 1 runtime failure (I/O, instrument, disk); 2 invalid input (the message names\n"
+    "the field or the line and the rule); 3 sweep stopped by a safety limit.";
+
 int runPlan(const Arguments &args);
 int runFit(const Arguments &args);
 int runRun(const Arguments &args);
@@ -23,5 +28,11 @@ int runImport(const Arguments &args);
 int runExport(const Arguments &args);
 int runReport(const Arguments &args);
 int runCompare(const Arguments &args);
+int runExclude(const Arguments &args);
+int runRestore(const Arguments &args);
+int runNote(const Arguments &args);
+int runSignOff(const Arguments &args);
+int runReopen(const Arguments &args);
+int runVerify(const Arguments &args);
 
 } // namespace sagline::cli

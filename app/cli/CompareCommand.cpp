@@ -5,6 +5,8 @@
 // printed and written), 1 when the CSV cannot be written.
 #include "CliCommands.h"
 
+#include "CommandLine.h"
+
 #include "ComparisonExport.h"
 #include "ConformityAssessment.h"
 #include "NumberFormat.h"
@@ -22,11 +24,6 @@
 namespace sagline::cli {
 
 namespace {
-
-constexpr const char *usage =
-    "usage: sagline-cli compare FILES_OR_FOLDERS... [--csv OUT.csv] [--json] [--method ols|wls|york]\n"
-    "                           [--reference-temperature °C] [--convention iec|ieee]\n"
-    "                           [--rule simple|guarded|non-binary] [--regulation-limit PERCENT|nameplate]\n";
 
 // Display width of UTF-8 text: one column per code point (enough for Ω, ±, °).
 std::size_t displayWidth(const std::string &text)
@@ -79,64 +76,64 @@ struct Options {
     ComparisonOptions comparison;
 };
 
-// Parses the arguments; an error message names the option and the rule.
-std::string parseArguments(const Arguments &args, Options &options)
+CommandLine compareCommandLine()
 {
-    for (std::size_t i = 0; i < args.size(); ++i) {
-        const std::string &arg = args[i];
-        auto value = [&](std::string &out) -> bool {
-            if (i + 1 >= args.size())
-                return false;
-            out = args[++i];
-            return true;
-        };
-        std::string text;
-        if (arg == "--json") {
-            options.asJson = true;
-        } else if (arg == "--csv") {
-            if (!value(options.csvPath) || options.csvPath.empty())
-                return "--csv needs a file name";
-        } else if (arg == "--method") {
-            if (!value(text))
-                return "--method needs ols, wls or york";
-            const auto method = fitMethodFromString(text);
-            if (!method)
-                return "--method must be ols, wls or york, got '" + text + "'";
-            options.comparison.method = *method;
-        } else if (arg == "--reference-temperature") {
-            if (!value(text))
-                return "--reference-temperature needs a temperature in °C";
-            char *end = nullptr;
-            const double t = std::strtod(text.c_str(), &end);
-            if (end == text.c_str() || *end != '\0' || !std::isfinite(t) || t < -50.0 || t > 250.0)
-                return "--reference-temperature must be a number of °C from -50 to 250, got '" + text + "'";
-            options.comparison.figures.referenceTemperatureC = t;
-            options.comparison.figures.judgeAtReferenceTemperature = true;
-        } else if (arg == "--convention") {
-            if (!value(text) || (text != "iec" && text != "ieee"))
-                return "--convention must be iec (copper 235 °C, IEC 60076-1) or ieee (copper 234.5 °C, IEEE C57.12.90)";
-            options.comparison.figures.copperConstant = text == "iec" ? TemperatureConstant::CopperIec : TemperatureConstant::CopperIeee;
-            options.comparison.constantChosen = true;
-        } else if (arg == "--rule") {
-            const auto rule = value(text) ? decisionRuleFromString(text) : std::nullopt;
-            if (!rule)
-                return "--rule must be simple, guarded or non-binary (ILAC-G8:09/2019 §4.2 decision rules)";
-            options.comparison.figures.rule = *rule;
-            options.comparison.ruleChosen = true;
-        } else if (arg == "--regulation-limit") {
-            const auto limit = value(text) ? regulationLimitFromText(text) : std::nullopt;
-            if (!limit)
-                return "--regulation-limit must be a percentage above 0 and at most 100, or nameplate";
-            options.comparison.figures.regulationLimit = *limit;
-            options.comparison.limitChosen = true;
-        } else if (!arg.empty() && arg[0] == '-') {
-            return "unknown option '" + arg + "'";
-        } else {
-            options.inputs.push_back(arg);
-        }
+    CommandLine line("sagline-cli compare", "FILES_OR_FOLDERS... [--csv OUT.csv] [--json] [options]",
+                     "Compares saved sessions for a lab lead's review: one row per session, statistics of the batch, "
+                     "and a flag on units far from the rest. Folders are searched for *.sagline files; every file is "
+                     "opened untrusted and read-only. A file that cannot be read is listed with its reason and the "
+                     "others are still compared (the exit code is then 2).");
+    line.addPositional("FILES_OR_FOLDERS...", "session files, and folders to search recursively", Arity::OneOrMore);
+    line.addOption({"csv"}, "OUT.csv", "also write the table as CSV");
+    line.addFlag({"json"}, "print one JSON object instead of the table");
+    line.addOption({"method"}, "ols|wls|york", "the fit method (default ols)");
+    line.addOption({"reference-temperature"}, "C", "the batch's reference temperature, -50 to 250 °C (default 75)");
+    line.addOption({"convention"}, "iec|ieee", "copper's T_k: 235 °C (IEC 60076-1) or 234.5 °C (IEEE C57.12.90)");
+    line.addOption({"rule"}, "simple|guarded|non-binary",
+                   "the decision rule of the verdicts (ILAC-G8:09/2019 §4.2.1-4.2.3; default non-binary)");
+    line.addOption({"regulation-limit"}, "PERCENT|nameplate",
+                   "judge regulation against this limit instead of each session's specification; \"nameplate\" takes "
+                   "each nameplate's own regulation, labelled so");
+    line.addNote(exitCodesNote);
+    return line;
+}
+
+// Reads the parsed words; an error message names the option and the rule.
+std::string readArguments(const CommandLine &line, Options &options)
+{
+    options.inputs = line.positionals();
+    options.asJson = line.isSet("json");
+    if (const auto text = line.valueIfSet("csv")) {
+        if (text->empty())
+            return "--csv needs a file name";
+        options.csvPath = *text;
     }
-    if (options.inputs.empty())
-        return "give at least one session file or folder";
+    if (const auto text = line.valueIfSet("method")) {
+        const auto method = fitMethodFromString(*text);
+        if (!method)
+            return "--method must be ols, wls or york, got '" + *text + "'";
+        options.comparison.method = *method;
+    }
+    if (const auto text = line.valueIfSet("convention")) {
+        if (*text != "iec" && *text != "ieee")
+            return "--convention must be iec (copper 235 °C, IEC 60076-1) or ieee (copper 234.5 °C, IEEE C57.12.90)";
+        options.comparison.figures.copperConstant = *text == "iec" ? TemperatureConstant::CopperIec : TemperatureConstant::CopperIeee;
+        options.comparison.constantChosen = true;
+    }
+    if (const auto text = line.valueIfSet("rule")) {
+        const auto rule = decisionRuleFromString(*text);
+        if (!rule)
+            return "--rule must be simple, guarded or non-binary (ILAC-G8:09/2019 §4.2 decision rules)";
+        options.comparison.figures.rule = *rule;
+        options.comparison.ruleChosen = true;
+    }
+    if (const auto text = line.valueIfSet("regulation-limit")) {
+        const auto limit = regulationLimitFromText(*text);
+        if (!limit)
+            return "--regulation-limit must be a percentage above 0 and at most 100, or nameplate, got '" + *text + "'";
+        options.comparison.figures.regulationLimit = *limit;
+        options.comparison.limitChosen = true;
+    }
     return {};
 }
 
@@ -217,19 +214,27 @@ void printSummary(const std::vector<SessionRow> &rows, const BatchStatistics &st
         << ", not reviewed " << stats.notReviewed << "; safety stops in " << stats.safetyStopped
         << " sessions; lab-sheet limit hit in " << stats.limitHit << '\n';
     out << "  Far from the batch: " << stats.ruleNote << '\n';
-    out << "  Fit: " << toString(options.method) << "; expanded uncertainties U at 95 % coverage, k = t95(ν_eff) of"
-        << " each result's own budget (GUM G.4)\n";
+    out << "  Fit: " << toString(options.method) << "; U: expanded uncertainties at 95 % coverage, k from each result's "
+        << "own budget (GUM G.4)\n";
 }
 
 } // namespace
 
 int runCompare(const Arguments &args)
 {
+    CommandLine line = compareCommandLine();
+    if (const auto exit = line.parse(args))
+        return *exit;
     Options options;
-    if (const std::string error = parseArguments(args, options); !error.empty()) {
-        std::cerr << "sagline-cli compare: " << error << '\n' << usage;
+    std::optional<double> referenceC;
+    if (!line.number("reference-temperature", -50.0, 250.0, referenceC))
         return exitInvalidInput;
+    if (referenceC) {
+        options.comparison.figures.referenceTemperatureC = *referenceC;
+        options.comparison.figures.judgeAtReferenceTemperature = true;
     }
+    if (const std::string error = readArguments(line, options); !error.empty())
+        return line.fail(error);
     const SessionFileList found = findSessionFiles(options.inputs);
     const std::vector<SessionRow> rows = loadSessionRows(found.files, options.comparison);
     const BatchStatistics stats = summarizeBatch(rows);

@@ -4,6 +4,8 @@
 #include "CliCommands.h"
 #include "SessionCliSupport.h"
 
+#include "CommandLine.h"
+
 #include "SessionExport.h"
 #include "SessionSummary.h"
 
@@ -11,50 +13,31 @@
 
 namespace sagline::cli {
 
-namespace {
-
-constexpr const char *usage =
-    "usage: sagline-cli export SESSION.sagline [--csv OUT.csv] [--fit-csv FIT.csv] [--json OUT.json]\n"
-    "                          [--method ols|wls|york]     (\"-\" writes to standard output)\n";
-
-} // namespace
-
 int runExport(const Arguments &args)
 {
-    std::string sessionPath, csvPath, fitCsvPath, jsonPath;
+    CommandLine line("sagline-cli export", "SESSION.sagline [--csv OUT.csv] [--fit-csv FIT.csv] [--json OUT.json] [options]",
+                     "Writes what a session holds, without changing it (the file is opened for review): the readings "
+                     "as CSV that import reads back, the fit results as CSV, and a summary as one JSON object. An "
+                     "output named - goes to standard output.");
+    line.addPositional("SESSION.sagline", "the session to export");
+    line.addOption({"csv"}, "OUT.csv", "the readings, with step, UTC time, flags and exclusions");
+    line.addOption({"fit-csv"}, "FIT.csv", "the fit results");
+    line.addOption({"json"}, "OUT.json", "the summary: setup, plan, fit and analysis");
+    line.addOption({"method"}, "ols|wls|york", "the fit method for the results (default ols)");
+    line.addNote(exitCodesNote);
+    if (const auto exit = line.parse(args))
+        return *exit;
+    const std::string sessionPath = line.positionals().front();
+    const std::string csvPath = line.value("csv"), fitCsvPath = line.value("fit-csv"), jsonPath = line.value("json");
     ReviewOptions options;
-    for (std::size_t i = 0; i < args.size(); ++i) {
-        const std::string &arg = args[i];
-        if (arg == "--csv" || arg == "--fit-csv" || arg == "--json" || arg == "--method") {
-            const auto value = optionValue(args, i, "export");
-            if (!value)
-                return exitInvalidInput;
-            if (arg == "--csv")
-                csvPath = *value;
-            else if (arg == "--fit-csv")
-                fitCsvPath = *value;
-            else if (arg == "--json")
-                jsonPath = *value;
-            else if (const auto parsed = fitMethodFromString(*value))
-                options.method = *parsed;
-            else {
-                std::cerr << "sagline-cli export: --method: expected ols, wls or york, got '" << *value << "'\n";
-                return exitInvalidInput;
-            }
-        } else if (!arg.empty() && arg[0] == '-') {
-            std::cerr << "sagline-cli export: unknown option '" << arg << "'\n" << usage;
-            return exitInvalidInput;
-        } else if (sessionPath.empty()) {
-            sessionPath = arg;
-        } else {
-            std::cerr << "sagline-cli export: one session file only, got '" << sessionPath << "' and '" << arg << "'\n";
-            return exitInvalidInput;
-        }
+    if (const auto text = line.valueIfSet("method")) {
+        const auto parsed = fitMethodFromString(*text);
+        if (!parsed)
+            return line.fail("--method: expected ols, wls or york, got '" + *text + "'");
+        options.method = *parsed;
     }
-    if (sessionPath.empty() || (csvPath.empty() && fitCsvPath.empty() && jsonPath.empty())) {
-        std::cerr << "sagline-cli export: a session file and at least one of --csv, --fit-csv, --json are required\n" << usage;
-        return exitInvalidInput;
-    }
+    if (csvPath.empty() && fitCsvPath.empty() && jsonPath.empty())
+        return line.fail("give at least one of --csv, --fit-csv, --json");
 
     const auto summary = loadSessionSummary(sessionPath, options);
     if (!summary.ok()) {
@@ -67,7 +50,7 @@ int runExport(const Arguments &args)
         std::cerr << "sagline-cli export: warning: no fit (" << summary.value.fit.message << "); readings exported as recorded\n";
 
     const std::pair<const std::string *, std::string> outputs[] = {
-        {&csvPath, csvPath.empty() ? std::string() : readingsToCsv(summary.value.readings)},
+        {&csvPath, csvPath.empty() ? std::string() : sessionReadingsToCsv(summary.value)},
         {&fitCsvPath, fitCsvPath.empty() ? std::string() : fitResultsToCsv(summary.value)},
         {&jsonPath, jsonPath.empty() ? std::string() : sessionSummaryToJson(summary.value) + "\n"},
     };

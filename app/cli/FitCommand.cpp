@@ -9,24 +9,19 @@
 #include "CliCommands.h"
 #include "FitOutput.h"
 
+#include "CommandLine.h"
+
 #include "ConformityAssessment.h"
 #include "CsvReadings.h"
 #include "SessionSummary.h"
 #include "SetupJson.h"
 
-#include <charconv>
 #include <cmath>
 #include <iostream>
 
 namespace sagline::cli {
 
 namespace {
-
-constexpr const char *usage =
-    "usage: sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json] [--budget]\n"
-    "         [--setup SETUP.json] [--rule simple|guarded|non-binary] [--regulation-limit PERCENT|nameplate]\n"
-    "         [--winding-temperature C] [--reference-temperature C]\n"
-    "         [--temperature-constant copper-ieee|copper-iec|aluminium]\n";
 
 struct FitArguments {
     std::string dataPath;
@@ -47,78 +42,71 @@ int invalid(const std::string &message)
     return exitInvalidInput;
 }
 
-std::optional<double> parseNumber(const std::string &text)
-{
-    double value = 0.0;
-    const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
-    if (ec != std::errc() || end != text.data() + text.size() || !std::isfinite(value))
-        return std::nullopt;
-    return value;
-}
-
 bool endsWith(const std::string &text, const std::string &suffix)
 {
     return text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0;
 }
 
-// Returns an error message, or nothing when the arguments are valid.
-std::optional<std::string> parseArguments(const Arguments &args, FitArguments &out)
+CommandLine fitCommandLine()
 {
-    for (std::size_t i = 0; i < args.size(); ++i) {
-        const std::string &arg = args[i];
-        const auto value = [&]() -> std::optional<std::string> {
-            if (i + 1 >= args.size())
-                return std::nullopt;
-            return args[++i];
-        };
-        if (arg == "--json") {
-            out.json = true;
-        } else if (arg == "--budget") {
-            out.budget = true;
-        } else if (arg == "--method" || arg == "--rule" || arg == "--setup" || arg == "--regulation-limit"
-                   || arg == "--winding-temperature" || arg == "--reference-temperature"
-                   || arg == "--temperature-constant") {
-            const auto text = value();
-            if (!text)
-                return arg + " needs a value";
-            if (arg == "--method") {
-                const auto method = fitMethodFromString(*text);
-                if (!method)
-                    return "--method: unknown method '" + *text + "'; use ols, wls or york";
-                out.method = *method;
-            } else if (arg == "--rule") {
-                const auto rule = decisionRuleFromString(*text);
-                if (!rule)
-                    return "--rule: unknown decision rule '" + *text
-                           + "'; use simple, guarded or non-binary (ILAC-G8:09/2019 §4.2.1-4.2.3)";
-                out.rule = *rule;
-            } else if (arg == "--regulation-limit") {
-                out.regulationLimit = regulationLimitFromText(*text);
-                if (!out.regulationLimit)
-                    return "--regulation-limit: '" + *text
-                           + "' is neither a percentage above 0 and at most 100 nor the word nameplate";
-            } else if (arg == "--setup") {
-                out.setupPath = *text;
-            } else if (arg == "--temperature-constant") {
-                out.temperatureConstant = temperatureConstantFromString(*text);
-                if (!out.temperatureConstant)
-                    return "--temperature-constant: use copper-ieee (234.5 °C), copper-iec (235 °C) or aluminium (225 °C)";
-            } else {
-                const auto number = parseNumber(*text);
-                if (!number)
-                    return arg + ": not a finite number: '" + *text + "'";
-                (arg == "--winding-temperature" ? out.windingTemperatureC : out.referenceTemperatureC) = *number;
-            }
-        } else if (!arg.empty() && arg[0] == '-') {
-            return "unknown option '" + arg + "'";
-        } else if (out.dataPath.empty()) {
-            out.dataPath = arg;
-        } else {
-            return "more than one data file given ('" + out.dataPath + "' and '" + arg + "')";
-        }
+    CommandLine line("sagline-cli fit", "(DATA.csv | SESSION.sagline) [options]",
+                     "Fits V = V0 - R·I to the readings of a CSV file or a session: series resistance and no-load "
+                     "voltage with their uncertainty budgets, R², the outlier screen and the curvature check; with a "
+                     "nameplate (a session's setup, or --setup) also regulation and copper loss at rated current and "
+                     "the verdict against the setup's specification.");
+    line.addPositional("DATA.csv|SESSION.sagline",
+                       "readings: a CSV (current_a,voltage_v[,u_current_a,u_voltage_v]) or a session file");
+    line.addOption({"method"}, "ols|wls|york", "ordinary (default), weighted or York's errors-in-both-variables fit");
+    line.addFlag({"json"}, "print one JSON object instead of the text");
+    line.addFlag({"budget"}, "also print every result's uncertainty budget table");
+    line.addOption({"setup"}, "SETUP.json", "the nameplate, meters and specification for a CSV file");
+    line.addOption({"rule"}, "simple|guarded|non-binary",
+                   "the decision rule of the verdict (ILAC-G8:09/2019 §4.2.1-4.2.3; default non-binary)");
+    line.addOption({"regulation-limit"}, "PERCENT|nameplate",
+                   "judge regulation against this limit instead of the specification's; \"nameplate\" takes the "
+                   "nameplate's own regulation, labelled so");
+    line.addOption({"winding-temperature"}, "C", "the winding temperature during the test, -60 to 400 °C");
+    line.addOption({"reference-temperature"}, "C",
+                   "refer R (and regulation, full-load voltage, copper loss) to this temperature and judge there");
+    line.addOption({"temperature-constant"}, "copper-ieee|copper-iec|aluminium",
+                   "T_k for that correction: 234.5 °C (IEEE C57.12.90), 235 °C (IEC 60076-1) or 225 °C");
+    line.addNote("Without a specification in the setup and without --regulation-limit there is no pass or fail: the "
+                 "verdict is not-judged and the measured regulation is shown beside the nameplate's.");
+    line.addNote(exitCodesNote);
+    return line;
+}
+
+// Returns an error message, or nothing when the arguments are valid.
+std::optional<std::string> readArguments(const CommandLine &line, FitArguments &out)
+{
+    out.dataPath = line.positionals().front();
+    out.json = line.isSet("json");
+    out.budget = line.isSet("budget");
+    out.setupPath = line.value("setup");
+    if (const auto text = line.valueIfSet("method")) {
+        const auto method = fitMethodFromString(*text);
+        if (!method)
+            return "--method: unknown method '" + *text + "'; use ols, wls or york";
+        out.method = *method;
     }
-    if (out.dataPath.empty())
-        return "no data file given";
+    if (const auto text = line.valueIfSet("rule")) {
+        const auto rule = decisionRuleFromString(*text);
+        if (!rule)
+            return "--rule: unknown decision rule '" + *text
+                   + "'; use simple, guarded or non-binary (ILAC-G8:09/2019 §4.2.1-4.2.3)";
+        out.rule = *rule;
+    }
+    if (const auto text = line.valueIfSet("regulation-limit")) {
+        out.regulationLimit = regulationLimitFromText(*text);
+        if (!out.regulationLimit)
+            return "--regulation-limit: '" + *text + "' is neither a percentage above 0 and at most 100 nor the word "
+                   "nameplate";
+    }
+    if (const auto text = line.valueIfSet("temperature-constant")) {
+        out.temperatureConstant = temperatureConstantFromString(*text);
+        if (!out.temperatureConstant)
+            return "--temperature-constant: use copper-ieee (234.5 °C), copper-iec (235 °C) or aluminium (225 °C)";
+    }
     if (!endsWith(out.dataPath, ".sagline") && out.windingTemperatureC.has_value() != out.referenceTemperatureC.has_value())
         return "--winding-temperature and --reference-temperature go together";
     return std::nullopt;
@@ -232,11 +220,16 @@ int fitCsv(const FitArguments &args, FitReport &report)
 
 int runFit(const Arguments &arguments)
 {
+    CommandLine line = fitCommandLine();
+    if (const auto exit = line.parse(arguments))
+        return *exit;
     FitArguments args;
-    if (const auto error = parseArguments(arguments, args)) {
-        std::cerr << "sagline-cli fit: " << *error << '\n' << usage;
+    // Ranges: temperatures a winding can have (°C).
+    if (!line.number("winding-temperature", -60.0, 400.0, args.windingTemperatureC)
+        || !line.number("reference-temperature", -60.0, 400.0, args.referenceTemperatureC))
         return exitInvalidInput;
-    }
+    if (const auto error = readArguments(line, args))
+        return line.fail(*error);
     FitReport report;
     report.source = args.dataPath;
     report.printBudget = args.budget;

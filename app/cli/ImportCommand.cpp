@@ -3,6 +3,8 @@
 #include "CliCommands.h"
 #include "SessionCliSupport.h"
 
+#include "CommandLine.h"
+
 #include "BuildInfo.h"
 #include "SessionImport.h"
 #include "Units.h"
@@ -13,10 +15,6 @@
 namespace sagline::cli {
 
 namespace {
-
-constexpr const char *usage =
-    "usage: sagline-cli import DATA.csv --setup SETUP.json -o SESSION.sagline\n"
-    "                          [--operator NAME] [--serial UNIT_SERIAL] [--ambient TEMP] [--winding TEMP]\n";
 
 std::optional<double> parseTemperature(const std::string &text, const char *option, bool &ok)
 {
@@ -33,45 +31,36 @@ std::optional<double> parseTemperature(const std::string &text, const char *opti
 
 int runImport(const Arguments &args)
 {
+    CommandLine line("sagline-cli import", "DATA.csv --setup SETUP.json -o SESSION.sagline [options]",
+                     "Creates a session file from readings in a CSV file, with the setup and the plan made from it. "
+                     "Rows marked excluded in the CSV stay excluded.");
+    line.addPositional("DATA.csv", "the readings: current_a,voltage_v[,u_current_a,u_voltage_v] and more (DEVELOPERS.md)");
+    line.addOption({"setup"}, "SETUP.json", "the setup file (nameplate and bench)");
+    line.addOption({"o", "output"}, "SESSION.sagline", "the session file to create (never an existing file)");
+    line.addOption({"operator"}, "NAME", "who took the readings (default: $USER)");
+    line.addOption({"by"}, "NAME", "who imports them, recorded with every record (the OS account is recorded too)");
+    line.addOption({"serial"}, "UNIT_SERIAL", "the unit's serial number");
+    line.addOption({"ambient"}, "TEMP", "ambient temperature (°C, or with a unit: \"22.5 °C\")");
+    line.addOption({"winding"}, "TEMP", "winding temperature during the test");
+    line.addNote(exitCodesNote);
+    if (const auto exit = line.parse(args))
+        return *exit;
     ImportRequest request;
+    request.csvPath = line.positionals().front();
+    request.setupPath = line.value("setup");
+    request.outputPath = line.value("output");
+    request.operatorName = line.value("operator");
+    request.person = line.value("by");
+    request.unitSerial = line.value("serial");
     bool ok = true;
-    for (std::size_t i = 0; i < args.size() && ok; ++i) {
-        const std::string &arg = args[i];
-        std::optional<std::string> value;
-        if (arg == "--setup" || arg == "-o" || arg == "--output" || arg == "--operator" || arg == "--serial" ||
-            arg == "--ambient" || arg == "--winding") {
-            value = optionValue(args, i, "import");
-            if (!value)
-                return exitInvalidInput;
-        }
-        if (arg == "--setup")
-            request.setupPath = *value;
-        else if (arg == "-o" || arg == "--output")
-            request.outputPath = *value;
-        else if (arg == "--operator")
-            request.operatorName = *value;
-        else if (arg == "--serial")
-            request.unitSerial = *value;
-        else if (arg == "--ambient")
-            request.ambientTemperatureC = parseTemperature(*value, "--ambient", ok);
-        else if (arg == "--winding")
-            request.windingTemperatureC = parseTemperature(*value, "--winding", ok);
-        else if (!arg.empty() && arg[0] == '-' && arg != "-") {
-            std::cerr << "sagline-cli import: unknown option '" << arg << "'\n" << usage;
-            return exitInvalidInput;
-        } else if (request.csvPath.empty())
-            request.csvPath = arg;
-        else {
-            std::cerr << "sagline-cli import: one CSV file only, got '" << request.csvPath << "' and '" << arg << "'\n";
-            return exitInvalidInput;
-        }
-    }
+    if (const auto text = line.valueIfSet("ambient"))
+        request.ambientTemperatureC = parseTemperature(*text, "--ambient", ok);
+    if (const auto text = line.valueIfSet("winding"); text && ok)
+        request.windingTemperatureC = parseTemperature(*text, "--winding", ok);
     if (!ok)
         return exitInvalidInput;
-    if (request.csvPath.empty() || request.setupPath.empty() || request.outputPath.empty()) {
-        std::cerr << "sagline-cli import: DATA.csv, --setup and -o are required\n" << usage;
-        return exitInvalidInput;
-    }
+    if (request.setupPath.empty() || request.outputPath.empty())
+        return line.fail("DATA.csv, --setup and -o are required");
     if (request.operatorName.empty()) {
         const char *user = std::getenv("USER");
         request.operatorName = user && *user ? user : "not given";

@@ -1,8 +1,11 @@
 // sagline-cli plan SETUP.json [--json]: the safe load sweep for a nameplate and bench.
 #include "CliCommands.h"
 
+#include "CommandLine.h"
+
 #include "FuseStandards.h"
 #include "NumberFormat.h"
+#include "PlanGates.h"
 #include "PlanJson.h"
 #include "Planner.h"
 #include "SetupJson.h"
@@ -88,25 +91,20 @@ void printSteps(const Plan &plan, std::ostream &out)
 
 int runPlan(const Arguments &args)
 {
-    std::string path;
-    bool asJson = false;
-    for (const auto &arg : args) {
-        if (arg == "--json") {
-            asJson = true;
-        } else if (!arg.empty() && arg[0] == '-') {
-            std::cerr << "sagline-cli plan: unknown option '" << arg << "'\nusage: sagline-cli plan SETUP.json [--json]\n";
-            return exitInvalidInput;
-        } else if (path.empty()) {
-            path = arg;
-        } else {
-            std::cerr << "sagline-cli plan: one setup file only, got '" << path << "' and '" << arg << "'\n";
-            return exitInvalidInput;
-        }
-    }
-    if (path.empty()) {
-        std::cerr << "usage: sagline-cli plan SETUP.json [--json]\n";
-        return exitInvalidInput;
-    }
+    CommandLine line("sagline-cli plan", "SETUP.json [--json] [--truncate-to-safe]",
+                     "Plans a safe load sweep from the nameplate and the bench: rated currents, turns ratio, estimated "
+                     "series resistance, regulation, the recommended primary fuse, the NEC 450.3(B) ceiling and one row "
+                     "per load step. A nameplate that cannot describe a mains transformer (a voltage in the wrong unit) "
+                     "is refused naming the field, and so is a plan with steps the rheostat or the primary fuse cannot "
+                     "take (exit 2, the steps named) unless --truncate-to-safe is given.");
+    line.addPositional("SETUP.json", "the setup file (JSON: nameplate and bench)");
+    line.addFlag({"json"}, "print one JSON object instead of the table");
+    line.addFlag({"truncate-to-safe"}, "leave out the steps the rheostat or the fuse cannot take (said in the warnings)");
+    line.addNote(exitCodesNote);
+    if (const auto exit = line.parse(args))
+        return *exit;
+    const std::string &path = line.positionals().front();
+    const bool asJson = line.isSet("json");
 
     const SetupParse parsed = loadSetupFile(path);
     if (!parsed.setup) {
@@ -121,6 +119,15 @@ int runPlan(const Arguments &args)
         return exitInvalidInput;
     }
     Plan plan = *result.plan;
+    if (const auto unsafe = unsafeSteps(plan); !unsafe.empty()) {
+        if (!line.isSet("truncate-to-safe")) {
+            std::cerr << "sagline-cli plan: refused: the bench cannot take " << describeUnsafeSteps(unsafe)
+                      << ". Give a larger rheostat or fuse in the setup, lower bench.top_fraction, or plan only the safe "
+                         "steps with --truncate-to-safe\n";
+            return exitInvalidInput;
+        }
+        plan = truncatedToSafe(plan);
+    }
     // Defaults the parser filled in (e.g. frequency) join those the planner chose.
     plan.defaultsUsed.insert(plan.defaultsUsed.begin(), parsed.defaultsUsed.begin(), parsed.defaultsUsed.end());
 

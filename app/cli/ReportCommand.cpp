@@ -4,6 +4,8 @@
 #include "CliCommands.h"
 #include "SessionCliSupport.h"
 
+#include "CommandLine.h"
+
 #include "BuildInfo.h"
 #include "ReportWriter.h"
 #include "SessionSummary.h"
@@ -11,8 +13,6 @@
 
 #include <QGuiApplication>
 
-#include <charconv>
-#include <cmath>
 #include <cstdlib>
 #include <iostream>
 
@@ -20,81 +20,67 @@ namespace sagline::cli {
 
 namespace {
 
-constexpr const char *usage =
-    "usage: sagline-cli report SESSION.sagline -o REPORT.pdf [--page a4|letter] [--method ols|wls|york]\n"
-    "         [--rule simple|guarded|non-binary] [--regulation-limit PERCENT|nameplate] [--reference-temperature C]\n"
-    "         [--temperature-constant copper-ieee|copper-iec|aluminium]\n";
-
-std::optional<double> parseNumber(const std::string &text)
+CommandLine reportCommandLine()
 {
-    double value = 0.0;
-    const auto [end, error] = std::from_chars(text.data(), text.data() + text.size(), value);
-    if (error != std::errc() || end != text.data() + text.size() || !std::isfinite(value))
-        return std::nullopt;
-    return value;
+    CommandLine line("sagline-cli report", "SESSION.sagline -o REPORT.pdf [options]",
+                     "Writes the printed test report of a session as PDF: results with their uncertainties, the "
+                     "verdict and its decision rule, the voltage-current and residual charts, the readings, "
+                     "exclusions, safety stops, notes and the sign-off. The session is opened for review and never "
+                     "changed. Works without a display.");
+    line.addPositional("SESSION.sagline", "the session to report");
+    line.addOption({"o", "output"}, "REPORT.pdf", "the PDF to write");
+    line.addOption({"page"}, "a4|letter", "the paper size (default a4)");
+    line.addOption({"method"}, "ols|wls|york", "the fit method (default ols)");
+    line.addOption({"rule"}, "simple|guarded|non-binary",
+                   "the decision rule of the verdict (ILAC-G8:09/2019 §4.2.1-4.2.3; default non-binary)");
+    line.addOption({"regulation-limit"}, "PERCENT|nameplate",
+                   "judge regulation against this limit instead of the setup's specification; \"nameplate\" takes the "
+                   "nameplate's own regulation, labelled so");
+    line.addOption({"reference-temperature"}, "C", "refer R to this temperature, -273.15 to 1000 °C");
+    line.addOption({"temperature-constant"}, "copper-ieee|copper-iec|aluminium",
+                   "T_k: 234.5 °C (IEEE C57.12.90), 235 °C (IEC 60076-1) or 225 °C");
+    line.addNote("Settings stored in the session by the desktop app are used where no option is given; the report "
+                 "prints each setting and where it came from.");
+    line.addNote(exitCodesNote);
+    return line;
 }
 
 // Returns "" or the rule an option broke.
-std::string parseArguments(const Arguments &args, std::string &session, std::string &output, ReportOptions &report,
-                           ReviewOptions &review)
+std::string readArguments(const CommandLine &line, ReportOptions &report, ReviewOptions &review)
 {
-    for (std::size_t i = 0; i < args.size(); ++i) {
-        const std::string &arg = args[i];
-        const bool takesValue = arg == "-o" || arg == "--output" || arg == "--page" || arg == "--method" || arg == "--rule" ||
-                                arg == "--regulation-limit" || arg == "--reference-temperature" ||
-                                arg == "--temperature-constant";
-        if (!takesValue) {
-            if (!arg.empty() && arg[0] == '-')
-                return "unknown option '" + arg + "'";
-            if (!session.empty())
-                return "one session file only, got '" + session + "' and '" + arg + "'";
-            session = arg;
-            continue;
-        }
-        if (i + 1 >= args.size())
-            return "option " + arg + " needs a value";
-        const std::string value = args[++i];
-        if (arg == "-o" || arg == "--output") {
-            output = value;
-        } else if (arg == "--page") {
-            if (value == "a4" || value == "A4")
-                report.pageSize = QPageSize::A4;
-            else if (value == "letter" || value == "Letter")
-                report.pageSize = QPageSize::Letter;
-            else
-                return "--page: expected a4 or letter, got '" + value + "'";
-        } else if (arg == "--method") {
-            const auto method = fitMethodFromString(value);
-            if (!method)
-                return "--method: expected ols, wls or york, got '" + value + "'";
-            review.method = *method;
-        } else if (arg == "--rule") {
-            const auto rule = decisionRuleFromString(value);
-            if (!rule)
-                return "--rule: expected simple, guarded or non-binary, got '" + value + "'";
-            review.rule = *rule;
-        } else if (arg == "--temperature-constant") {
-            const auto constant = temperatureConstantFromString(value);
-            if (!constant)
-                return "--temperature-constant: expected copper-ieee, copper-iec or aluminium, got '" + value + "'";
-            review.temperatureConstant = *constant;
-        } else if (arg == "--regulation-limit") {
-            const auto limit = regulationLimitFromText(value);
-            if (!limit)
-                return "--regulation-limit: expected a percentage above 0 and at most 100, or nameplate, got '" + value
-                       + "'";
-            review.regulationLimit = *limit;
-        } else {
-            const auto number = parseNumber(value);
-            if (!number)
-                return arg + ": expected a number, got '" + value + "'";
-            if (*number < -273.15 || *number > 1000.0)
-                return "--reference-temperature: must be between -273.15 and 1000 °C, got " + value;
-            review.referenceTemperatureC = *number;
-        }
+    if (const auto value = line.valueIfSet("page")) {
+        if (*value == "a4" || *value == "A4")
+            report.pageSize = QPageSize::A4;
+        else if (*value == "letter" || *value == "Letter")
+            report.pageSize = QPageSize::Letter;
+        else
+            return "--page: expected a4 or letter, got '" + *value + "'";
     }
-    if (session.empty() || output.empty())
-        return "a session file and -o REPORT.pdf are required";
+    if (const auto value = line.valueIfSet("method")) {
+        const auto method = fitMethodFromString(*value);
+        if (!method)
+            return "--method: expected ols, wls or york, got '" + *value + "'";
+        review.method = *method;
+    }
+    if (const auto value = line.valueIfSet("rule")) {
+        const auto rule = decisionRuleFromString(*value);
+        if (!rule)
+            return "--rule: expected simple, guarded or non-binary, got '" + *value + "'";
+        review.rule = *rule;
+    }
+    if (const auto value = line.valueIfSet("regulation-limit")) {
+        review.regulationLimit = regulationLimitFromText(*value);
+        if (!review.regulationLimit)
+            return "--regulation-limit: expected a percentage above 0 and at most 100, or nameplate, got '" + *value + "'";
+    }
+    if (const auto value = line.valueIfSet("temperature-constant")) {
+        const auto constant = temperatureConstantFromString(*value);
+        if (!constant)
+            return "--temperature-constant: expected copper-ieee, copper-iec or aluminium, got '" + *value + "'";
+        review.temperatureConstant = *constant;
+    }
+    if (line.value("output").empty())
+        return "give the PDF to write with -o REPORT.pdf";
     return {};
 }
 
@@ -102,13 +88,17 @@ std::string parseArguments(const Arguments &args, std::string &session, std::str
 
 int runReport(const Arguments &args)
 {
-    std::string sessionPath, outputPath;
+    CommandLine line = reportCommandLine();
+    if (const auto exit = line.parse(args))
+        return *exit;
     ReportOptions report;
     ReviewOptions review;
-    if (const std::string problem = parseArguments(args, sessionPath, outputPath, report, review); !problem.empty()) {
-        std::cerr << "sagline-cli report: " << problem << '\n' << usage;
+    if (!line.number("reference-temperature", -273.15, 1000.0, review.referenceTemperatureC))
         return exitInvalidInput;
-    }
+    if (const std::string problem = readArguments(line, report, review); !problem.empty())
+        return line.fail(problem);
+    const std::string sessionPath = line.positionals().front();
+    const std::string outputPath = line.value("output");
     const auto summary = loadSessionSummary(sessionPath, review);
     if (!summary.ok()) {
         std::cerr << "sagline-cli report: " << summary.message << '\n';

@@ -5,11 +5,14 @@
 #include "CliCommands.h"
 #include "FitOutput.h"
 
+#include "CommandLine.h"
+
 #include "BuildInfo.h"
 #include "Clock.h"
 #include "InstrumentRig.h"
 #include "LineFitLiveFit.h"
 #include "LinkAddress.h"
+#include "PlanGates.h"
 #include "PlanJson.h"
 #include "Planner.h"
 #include "ResultAnalysis.h"
@@ -31,6 +34,7 @@
 #include <cstring>
 #include <unistd.h>
 #include <iostream>
+#include <limits>
 #include <memory>
 #include <optional>
 
@@ -50,118 +54,97 @@ struct RunArguments {
     std::optional<double> dwellS;
     std::optional<double> readIntervalS;
     std::string operatorName;
+    std::string person;          // --by: recorded with every record
+    std::string overrideReason;  // --override-limits
+    bool truncateToSafe = false;
     std::string unitSerial;
     std::optional<double> ambientC;
 };
 
-const char *usage =
-    "usage: sagline-cli run SETUP.json (--sim | --voltmeter ADDR --ammeter ADDR | --meter ADDR) -o SESSION.sagline\n"
-    "         [--load ADDR] [--operator NAME] [--serial UNIT] [--ambient C] [--dwell S] [--read-interval S]\n"
-    "         [--timeout-ms MS] [--reset]\n"
-    "         [--seed N] [--sim-realtime] [--sim-single-meter] [--sim-fuse-rating A]\n"
-    "  ADDR: a serial port PORT[,BAUD[,8N1[,rtscts|xonxoff]]] or tcp:HOST[:PORT] (SCPI raw socket, default 5025)\n";
-
-int invalid(const std::string &message)
+CommandLine runCommandLine()
 {
-    std::cerr << "sagline-cli run: " << message << "\n\n" << usage;
-    return exitInvalidInput;
+    CommandLine line("sagline-cli run", "SETUP.json (--sim | --voltmeter ADDR --ammeter ADDR | --meter ADDR) -o SESSION.sagline [options]",
+                     "Runs a whole load sweep without a display and records it in a new session file. One line per "
+                     "recorded point on standard output (step, I, V, live R), once it is committed to the file; "
+                     "instructions and notices on standard error; then the final fit. With meters but no programmable "
+                     "load, it says which load to set at each step and waits for Enter.");
+    line.addPositional("SETUP.json", "the setup file (nameplate and bench)");
+    line.addOption({"o", "output"}, "SESSION.sagline", "the session file to create (never an existing file)");
+    line.addHeading("instruments");
+    line.addFlag({"sim"}, "the virtual bench inside this program, in simulated time, with its programmable load");
+    line.addOption({"voltmeter"}, "ADDR", "the secondary voltmeter (with --ammeter)");
+    line.addOption({"ammeter"}, "ADDR", "the secondary ammeter (with --voltmeter)");
+    line.addOption({"meter"}, "ADDR", "one meter in both roles");
+    line.addOption({"load"}, "ADDR", "a programmable SCPI load (real instruments only)");
+    line.addOption({"timeout-ms"}, "MS", "how long to wait for a meter's reply, 50 to 600000 (default 2000)");
+    line.addFlag({"reset"}, "send *RST to each meter on connecting");
+    line.addHeading("the session");
+    line.addOption({"operator"}, "NAME", "who runs the test (default: $USER)");
+    line.addOption({"by"}, "NAME", "the person recorded with every reading and event (the OS account is recorded too)");
+    line.addOption({"serial"}, "UNIT", "the unit's serial number");
+    line.addOption({"ambient"}, "C", "ambient temperature, -60 to 80 °C");
+    line.addHeading("steps the rheostat or the fuse cannot take (refused before connecting otherwise)");
+    line.addFlag({"truncate-to-safe"}, "run only the safe steps (recorded in the session)");
+    line.addOption({"override-limits"}, "REASON", "run every step anyway, with --by; the reason is recorded (the hard "
+                                                  "stops still apply)");
+    line.addHeading("timing");
+    line.addOption({"dwell"}, "S", "seconds to wait at each step, 0 to 86400, instead of the setup's");
+    line.addOption({"read-interval"}, "S", "seconds between readings, 0 to 3600");
+    line.addHeading("the virtual bench (--sim)");
+    line.addOption({"seed"}, "N", "random seed, for repeatable runs (default 1)");
+    line.addFlag({"sim-realtime"}, "real time instead of simulated time");
+    line.addFlag({"sim-single-meter"}, "one meter (the power meter) in both roles");
+    line.addOption({"sim-fuse-rating"}, "A", "another primary fuse rating, above 0 to 1000 A");
+    line.addNote("ADDR: a serial port PORT[,BAUD[,8N1[,rtscts|xonxoff]]] or tcp:HOST[:PORT] (SCPI raw socket, "
+                 "port 5025 by default).");
+    line.addNote(exitCodesNote);
+    return line;
 }
 
-std::optional<double> number(const std::string &text)
+// Reads the parsed words into `out`; returns an exit code when they are not usable.
+std::optional<int> readArguments(const CommandLine &line, RunArguments *out)
 {
-    try {
-        std::size_t used = 0;
-        const double v = std::stod(text, &used);
-        if (used != text.size() || !std::isfinite(v))
-            return std::nullopt;
-        return v;
-    } catch (...) {
-        return std::nullopt;
-    }
-}
-
-std::string parseArguments(const Arguments &args, RunArguments *out)
-{
-    for (std::size_t i = 0; i < args.size(); ++i) {
-        const std::string &a = args[i];
-        auto value = [&](std::string *target) -> std::string {
-            if (i + 1 >= args.size())
-                return a + " needs a value";
-            *target = args[++i];
-            return {};
-        };
-        auto numeric = [&](std::optional<double> *target, double min) -> std::string {
-            std::string text;
-            if (std::string e = value(&text); !e.empty())
-                return e;
-            *target = number(text);
-            if (!*target || **target < min)
-                return a + ": '" + text + "' must be a number >= " + std::to_string(min);
-            return {};
-        };
-        std::string error;
-        QString *address = nullptr;
-        if (a == "-o" || a == "--output")
-            error = value(&out->outputPath);
-        else if (a == "--sim")
-            out->sim = true;
-        else if (a == "--sim-realtime")
-            out->sim = out->simRealtime = true;
-        else if (a == "--sim-single-meter")
-            out->sim = out->simSingleMeter = true;
-        else if (a == "--sim-fuse-rating")
-            error = numeric(&out->simFuseRatingA, 0.0);
-        else if (a == "--voltmeter")
-            address = &out->addresses.voltmeter;
-        else if (a == "--ammeter")
-            address = &out->addresses.ammeter;
-        else if (a == "--meter")
-            address = &out->addresses.meter;
-        else if (a == "--load")
-            address = &out->addresses.load;
-        else if (a == "--reset")
-            out->addresses.resetOnConnect = true;
-        else if (a == "--operator")
-            error = value(&out->operatorName);
-        else if (a == "--serial")
-            error = value(&out->unitSerial);
-        else if (a == "--ambient")
-            error = numeric(&out->ambientC, -60.0);
-        else if (a == "--dwell")
-            error = numeric(&out->dwellS, 0.0);
-        else if (a == "--read-interval")
-            error = numeric(&out->readIntervalS, 0.0);
-        else if (a == "--timeout-ms" || a == "--seed") {
-            std::optional<double> v;
-            error = numeric(&v, a == "--seed" ? 0.0 : 50.0);
-            if (error.empty() && a == "--seed")
-                out->seed = static_cast<std::uint64_t>(*v);
-            else if (error.empty())
-                out->addresses.timeoutMs = static_cast<int>(*v);
-        } else if (!a.empty() && a[0] == '-')
-            error = "unknown option " + a;
-        else if (out->setupPath.empty())
-            out->setupPath = a;
-        else
-            error = "unexpected argument '" + a + "'";
-        if (address) {
-            std::string text;
-            error = value(&text);
-            *address = QString::fromStdString(text);
-        }
-        if (!error.empty())
-            return error;
-    }
-    if (out->setupPath.empty())
-        return "give the setup file";
+    out->setupPath = line.positionals().front();
+    out->outputPath = line.value("output");
+    out->simRealtime = line.isSet("sim-realtime");
+    out->simSingleMeter = line.isSet("sim-single-meter");
+    out->sim = line.isSet("sim") || out->simRealtime || out->simSingleMeter;
+    out->addresses.voltmeter = QString::fromLocal8Bit(line.value("voltmeter"));
+    out->addresses.ammeter = QString::fromLocal8Bit(line.value("ammeter"));
+    out->addresses.meter = QString::fromLocal8Bit(line.value("meter"));
+    out->addresses.load = QString::fromLocal8Bit(line.value("load"));
+    out->addresses.resetOnConnect = line.isSet("reset");
+    out->operatorName = line.value("operator");
+    out->person = line.value("by");
+    out->overrideReason = line.value("override-limits");
+    out->truncateToSafe = line.isSet("truncate-to-safe");
+    if (line.isSet("override-limits") && out->overrideReason.find_first_not_of(" \t") == std::string::npos)
+        return line.fail("--override-limits: give the reason the limits are overridden");
+    if (!out->overrideReason.empty() && out->person.find_first_not_of(" \t") == std::string::npos)
+        return line.fail("--by: an override of the limits needs the name of the person who decides it");
+    if (!out->overrideReason.empty() && out->truncateToSafe)
+        return line.fail("--truncate-to-safe and --override-limits: choose one");
+    out->unitSerial = line.value("serial");
+    std::optional<std::int64_t> timeoutMs;
+    std::optional<std::uint64_t> seed;
+    // Ranges that keep every later conversion (to milliseconds, to int) exact and every wait finite.
+    if (!line.number("sim-fuse-rating", 1e-6, 1000.0, out->simFuseRatingA) || !line.number("ambient", -60.0, 80.0, out->ambientC)
+        || !line.number("dwell", 0.0, 86400.0, out->dwellS) || !line.number("read-interval", 0.0, 3600.0, out->readIntervalS)
+        || !line.integer("timeout-ms", 50, 600000, timeoutMs)
+        || !line.unsignedInteger("seed", std::numeric_limits<std::uint64_t>::max(), seed))
+        return exitInvalidInput;
+    if (timeoutMs)
+        out->addresses.timeoutMs = static_cast<int>(*timeoutMs);
+    if (seed)
+        out->seed = *seed;
     if (out->outputPath.empty())
-        return "give the session file to write with -o SESSION.sagline";
+        return line.fail("give the session file to write with -o SESSION.sagline");
     const bool meters = !out->addresses.voltmeter.isEmpty() || !out->addresses.ammeter.isEmpty() || !out->addresses.meter.isEmpty();
     if (out->sim == meters)
-        return "give either --sim or the meters (--voltmeter and --ammeter, or --meter)";
+        return line.fail("give either --sim or the meters (--voltmeter and --ammeter, or --meter)");
     if (out->sim && !out->addresses.load.isEmpty())
-        return "--load is for real instruments; the virtual bench has its own load";
-    return {};
+        return line.fail("--load is for real instruments; the virtual bench has its own load");
+    return std::nullopt;
 }
 
 QString formatPoint(const Reading &reading, const LiveFitSnapshot &fit)
@@ -192,15 +175,12 @@ void handleInterrupt(int)
 
 int runRun(const Arguments &rawArgs)
 {
-    for (const std::string &a : rawArgs) {
-        if (a == "--help" || a == "-h") {
-            std::cout << usage;
-            return exitSuccess;
-        }
-    }
+    CommandLine line = runCommandLine();
+    if (const auto exit = line.parse(rawArgs))
+        return *exit;
     RunArguments args;
-    if (std::string error = parseArguments(rawArgs, &args); !error.empty())
-        return invalid(error);
+    if (const auto exit = readArguments(line, &args))
+        return *exit;
     const SetupParse parsed = loadSetupFile(args.setupPath);
     if (!parsed.setup) {
         for (const FieldError &e : parsed.errors)
@@ -214,7 +194,32 @@ int runRun(const Arguments &rawArgs)
             std::cerr << "sagline-cli run: plan refused: " << e.message() << '\n';
         return exitInvalidInput;
     }
-    const Plan &plan = *planned.plan;
+    Plan plan = *planned.plan;
+    // A plan with steps the bench cannot take is refused before anything is connected, unless
+    // cut to its safe steps or overridden by a named person with a reason (both recorded).
+    const std::vector<UnsafeStep> unsafe = unsafeSteps(plan);
+    std::optional<std::pair<SweepEventKind, std::string>> gateRecord;
+    if (!unsafe.empty()) {
+        const std::string steps = describeUnsafeSteps(unsafe);
+        if (args.truncateToSafe) {
+            plan = truncatedToSafe(plan);
+            gateRecord = {SweepEventKind::Truncated, "removed " + steps};
+            std::cerr << "sagline-cli run: running the safe steps only; removed " << steps << '\n';
+        } else if (!args.overrideReason.empty()) {
+            gateRecord = {SweepEventKind::LimitOverride, steps + "; reason: " + args.overrideReason};
+            std::cerr << "sagline-cli run: WARNING: limits overridden by " << args.person << " (" << args.overrideReason
+                      << "): " << steps << '\n';
+        } else {
+            std::cerr << "sagline-cli run: refused before connecting: the bench cannot take " << steps
+                      << ". Fix the setup, run the safe steps with --truncate-to-safe, or override with --override-limits "
+                         "REASON --by NAME\n";
+            return exitInvalidInput;
+        }
+        if (plan.steps.empty()) {
+            std::cerr << "sagline-cli run: refused: no step of the plan is safe\n";
+            return exitInvalidInput;
+        }
+    }
     if (QFileInfo::exists(QString::fromStdString(args.outputPath))) {
         std::cerr << "sagline-cli run: " << args.outputPath << " already exists; a session file is never overwritten\n";
         return exitInvalidInput;
@@ -247,10 +252,10 @@ int runRun(const Arguments &rawArgs)
         QString error;
         rig.reset(makeRig(args.addresses, &error));
         if (!rig)
-            return invalid(error.toStdString());
+            return line.fail(error.toStdString());
     }
     if (const QString problem = rig->validate(); !problem.isEmpty())
-        return invalid(problem.toStdString());
+        return line.fail(problem.toStdString());
 
     std::optional<QString> connectError;
     bool connected = false;
@@ -279,12 +284,20 @@ int runRun(const Arguments &rawArgs)
                                     : std::string("unspecified");
     session.ambientTemperatureC = args.ambientC;
     session.softwareVersion = std::string("sagline-cli ") + buildinfo::version;
+    session.createdBy = {args.person, ""};
     auto created = SessionStore::create(args.outputPath, session);
     if (!created.ok()) {
         std::cerr << "sagline-cli run: " << args.outputPath << ": " << created.status().message << '\n';
         return created.status().code == StoreCode::FileExists ? exitInvalidInput : exitRuntimeFailure;
     }
     std::unique_ptr<SessionStore> store = std::move(created.value);
+    if (gateRecord) {
+        const auto recorded = store->recordSweepEvent(gateRecord->first, -1, gateRecord->second);
+        if (!recorded.ok()) {
+            std::cerr << "sagline-cli run: " << recorded.message << '\n';
+            return exitRuntimeFailure;
+        }
+    }
     SessionStoreSink sink(store.get(), QStringLiteral("sagline-cli run"));
     LineFitLiveFit fit;
 

@@ -9,15 +9,6 @@
 
 namespace sagline::cli {
 
-std::optional<std::string> optionValue(const Arguments &args, std::size_t &i, const std::string &command)
-{
-    if (i + 1 >= args.size()) {
-        std::cerr << "sagline-cli " << command << ": option " << args[i] << " needs a value\n";
-        return std::nullopt;
-    }
-    return args[++i];
-}
-
 std::string writeOutput(const std::string &path, const std::string &text)
 {
     if (path == "-") {

@@ -1,5 +1,5 @@
 // Helpers shared by the session commands (import, export, report): exit codes for store
-// failures, option values, and writing an output file or stdout ("-").
+// failures and writing an output file or stdout ("-").
 #pragma once
 
 #include "CliCommands.h"
@@ -21,9 +21,6 @@ inline int exitCodeFor(StoreCode code)
     default: return exitInvalidInput;
     }
 }
-
-// Takes the value after option `args[i]`, advancing i; nullopt (and a message) when missing.
-std::optional<std::string> optionValue(const Arguments &args, std::size_t &i, const std::string &command);
 
 // Writes `text` to `path` through a temporary file and a rename, or to stdout for "-".
 // Returns "" or the reason it failed.

@@ -25,6 +25,13 @@ constexpr Command commands[] = {
     {"export", sagline::cli::runExport, "export SESSION.sagline --csv OUT.csv [--fit-csv F.csv] [--json OUT.json]   readings, fit, summary"},
     {"report", sagline::cli::runReport, "report SESSION.sagline -o REPORT.pdf [--page a4|letter]   the printed test report (PDF)"},
     {"compare", sagline::cli::runCompare, "compare FILES_OR_FOLDERS... [--csv OUT.csv] [--json]  compare saved sessions (review)"},
+    {"exclude", sagline::cli::runExclude, "exclude SESSION.sagline --reading N --reason TEXT --by NAME   leave a reading out of the fit"},
+    {"restore", sagline::cli::runRestore, "restore SESSION.sagline --reading N --reason TEXT --by NAME   bring an excluded reading back"},
+    {"note", sagline::cli::runNote, "note SESSION.sagline --text TEXT --by NAME   add a note"},
+    {"sign-off", sagline::cli::runSignOff, "sign-off SESSION.sagline --by NAME --decision accept|reject|retest [--comment TEXT]\n"
+                                           "                                     sign off and seal (SHA-256 digest of the content)"},
+    {"reopen", sagline::cli::runReopen, "reopen SESSION.sagline --by NAME --reason TEXT   lift a sign-off so the session can change"},
+    {"verify", sagline::cli::runVerify, "verify SESSION.sagline             integrity and sign-off digests (exit 0 intact, 1 altered)"},
 };
 
 void printUsage(std::ostream &out)
@@ -32,8 +39,10 @@ void printUsage(std::ostream &out)
     out << "usage: sagline-cli COMMAND [ARGS...]\n\ncommands:\n";
     for (const auto &command : commands)
         out << "  " << command.synopsis << '\n';
-    out << "  --version                          print the version and the build's git commit\n"
-           "\nExit codes: 0 success, 1 runtime failure, 2 invalid input, 3 sweep stopped by a safety limit.\n";
+    out << "  help COMMAND                       the usage of one command with every option (as COMMAND --help)\n"
+           "  --version                          print the version and the build's git commit\n"
+           "\n"
+        << sagline::cli::exitCodesNote << '\n';
     if (const auto data = sagline::findDataDirectory(); data.ok())
         out << "Demo setup: " << (data.path / "demo-setup.json").string() << '\n';
 }
@@ -51,9 +60,20 @@ int main(int argc, char **argv)
         std::cout << "sagline-cli " << sagline::buildinfo::version << " (commit " << sagline::buildinfo::gitCommit << ")\n";
         return sagline::cli::exitSuccess;
     }
-    if (name == "--help" || name == "-h" || name == "help") {
+    if (name == "--help" || name == "-h" || (name == "help" && argc == 2)) {
         printUsage(std::cout);
         return sagline::cli::exitSuccess;
+    }
+    if (name == "help") {
+        // "help COMMAND" says what "COMMAND --help" says.
+        for (const auto &command : commands) {
+            if (argv[2] == std::string(command.name) && argc == 3)
+                return command.run({"--help"});
+        }
+        std::cerr << "sagline-cli help: " << (argc == 3 ? "unknown command '" + std::string(argv[2]) + "'" : "one command only")
+                  << "\n\n";
+        printUsage(std::cerr);
+        return sagline::cli::exitInvalidInput;
     }
     for (const auto &command : commands) {
         if (name == command.name)

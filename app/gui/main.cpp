@@ -1,6 +1,7 @@
 // sagline: the desktop app (live sweep workspace). Wiring only: names the app, reads the
 // command line, builds the main window, runs the event loop.
 #include "BuildInfo.h"
+#include "CommandLine.h"
 #include "DemoSweep.h"
 #include "InstrumentsPanel.h"
 #include "MainWindow.h"
@@ -10,7 +11,6 @@
 #include "StartupProbe.h"
 
 #include <QApplication>
-#include <QCommandLineParser>
 #include <QElapsedTimer>
 #include <QFile>
 #include <QPushButton>
@@ -19,78 +19,111 @@
 
 #include <cstdio>
 #include <cstring>
+#include <optional>
 
 namespace {
 
-bool hasDisplay()
+// Options Qt itself takes (QGuiApplication, QApplication); QApplication removes them from argv.
+constexpr const char *toolkitNote =
+    "Qt's own options are accepted too and go to the toolkit: -platform NAME, -style NAME, -stylesheet FILE,\n"
+    "-reverse, -qwindowgeometry WxH+X+Y, -qwindowtitle TITLE, -display DISPLAY (X11); see the Qt documentation.";
+
+sagline::CommandLine guiCommandLine()
 {
+    sagline::CommandLine line("sagline", "[options] [SESSION]",
+                              "Plan, run and review the load test of a small mains transformer (the desktop program).");
+    line.addPositional("SESSION", "a .sagline session file to open", sagline::Arity::Optional);
+    line.addStandaloneFlag({"help-all"}, "this help and a note on the Qt toolkit's own options");
+    line.addStandaloneFlag({"v", "version"}, "print the version and the git commit it was built from (no display needed)");
+    line.addOption({"session-folder"}, "DIR", "where new session files go");
+    line.addFlag({"demo"}, "start a sweep on the virtual bench right away");
+    line.addOption({"screenshot"}, "DIR", "run a demo sweep, save the window as PNG into DIR, and quit");
+    line.addFlag({"dark"}, "with --screenshot: also save a dark-palette PNG");
+    line.addFlag({"typed-demo"}, "with --screenshot: a typed-in demo sweep instead of the virtual bench");
+    line.addFlag({"startup-probe"}, "print the milliseconds from the process's start to the first painted window (with "
+                                     "SESSION open and drawn, if given), then quit");
+    line.addNote("Without a display (neither DISPLAY nor WAYLAND_DISPLAY nor QT_QPA_PLATFORM set) only --help and "
+                 "--version work; run sagline-cli for a headless sweep. Exit codes: 0 closed normally or screenshots "
+                 "saved; 1 no display, or the demo sweep of --screenshot failed; 2 invalid usage.");
+    return line;
+}
+
+bool hasDisplay(int argc, char **argv)
+{
+    for (int i = 1; i < argc; ++i) {
+        if (std::strcmp(argv[i], "-platform") == 0 || std::strcmp(argv[i], "--platform") == 0)
+            return true;
+    }
     return qEnvironmentVariableIsSet("QT_QPA_PLATFORM") || qEnvironmentVariableIsSet("DISPLAY")
            || qEnvironmentVariableIsSet("WAYLAND_DISPLAY");
+}
+
+// --help-all and --version; nothing when the program goes on.
+std::optional<int> answerRequest(const sagline::CommandLine &line)
+{
+    if (line.isSet("help-all")) {
+        std::fputs((line.helpText() + '\n' + toolkitNote + '\n').c_str(), stdout);
+        return 0;
+    }
+    if (line.isSet("version")) {
+        std::printf("sagline %s (commit %s)\n", sagline::buildinfo::version, sagline::buildinfo::gitCommit);
+        return 0;
+    }
+    return std::nullopt;
 }
 
 } // namespace
 
 int main(int argc, char **argv)
 {
-    QElapsedTimer sinceStart; // --startup-probe: from here to the first painted frame
-    sinceStart.start();
-    // --version answers without a display too (bug reports, scripts over ssh).
-    if (argc == 2 && (std::strcmp(argv[1], "--version") == 0 || std::strcmp(argv[1], "-v") == 0)) {
-        std::printf("sagline %s (commit %s)\n", sagline::buildinfo::version, sagline::buildinfo::gitCommit);
-        return 0;
-    }
-    if (!hasDisplay()) {
+    QElapsedTimer sinceMain; // --startup-probe: also from here to the first painted frame
+    sinceMain.start();
+    sagline::CommandLine line = guiCommandLine();
+    if (!hasDisplay(argc, argv)) {
+        // --help and --version answer without a display (bug reports, scripts over ssh).
+        if (const auto exit = line.parse(argc, argv))
+            return *exit;
+        if (const auto exit = answerRequest(line))
+            return *exit;
         std::fputs("sagline: no display (neither DISPLAY nor WAYLAND_DISPLAY is set); run sagline-cli for a headless "
                    "sweep, or set QT_QPA_PLATFORM=offscreen\n",
                    stderr);
         return 1;
     }
-    QApplication app(argc, argv);
+    QApplication app(argc, argv); // takes the toolkit's own options out of argv
+    if (const auto exit = line.parse(argc, argv))
+        return *exit;
+    if (const auto exit = answerRequest(line))
+        return *exit;
     QApplication::setOrganizationName(QStringLiteral("Sagline"));
     QApplication::setApplicationName(QStringLiteral("sagline"));
     QApplication::setApplicationVersion(QStringLiteral("%1 (commit %2)")
                                             .arg(QLatin1String(sagline::buildinfo::version),
                                                  QLatin1String(sagline::buildinfo::gitCommit)));
-
-    QCommandLineParser parser;
-    parser.setApplicationDescription(QStringLiteral("Plan, run and review the load test of a small mains transformer."));
-    parser.addHelpOption();
-    parser.addVersionOption();
-    QCommandLineOption screenshot(QStringLiteral("screenshot"),
-                                  QStringLiteral("Run a demo sweep, save the window as PNG into DIR, and quit."),
-                                  QStringLiteral("DIR"));
-    QCommandLineOption dark(QStringLiteral("dark"), QStringLiteral("With --screenshot: also save a dark-palette PNG."));
-    QCommandLineOption demo(QStringLiteral("demo"), QStringLiteral("Start a sweep on the virtual bench right away."));
-    QCommandLineOption typedDemo(QStringLiteral("typed-demo"),
-                                 QStringLiteral("With --screenshot: a typed-in demo sweep instead of the virtual bench."));
-    QCommandLineOption folder(QStringLiteral("session-folder"), QStringLiteral("Where new session files go."),
-                              QStringLiteral("DIR"));
-    QCommandLineOption startupProbe(QStringLiteral("startup-probe"),
-                                    QStringLiteral("Print the milliseconds from start to the first painted window, then quit."));
-    parser.addOptions({screenshot, dark, demo, typedDemo, folder, startupProbe});
-    parser.addPositionalArgument(QStringLiteral("SESSION"), QStringLiteral("A .sagline session file to open."),
-                                 QStringLiteral("[SESSION]"));
-    parser.process(app);
+    const auto pathOption = [&line](const char *name) {
+        return QFile::decodeName(QByteArray::fromStdString(line.value(name)));
+    };
+    const bool takeScreenshot = line.isSet("screenshot");
 
     sagline::MainWindow window;
-    if (parser.isSet(folder))
-        window.setSessionFolder(parser.value(folder));
+    if (line.isSet("session-folder"))
+        window.setSessionFolder(pathOption("session-folder"));
     QFile demoSetup(QStringLiteral(":/sagline/demo-setup.json"));
     if (demoSetup.open(QIODevice::ReadOnly)) {
         const auto parsed = sagline::parseSetupJson(demoSetup.readAll().toStdString());
         if (parsed.setup)
             window.loadSetup(*parsed.setup);
     }
-    if (!parser.positionalArguments().isEmpty())
-        window.openSessionFile(parser.positionalArguments().front());
+    if (!line.positionals().empty())
+        window.openSessionFile(QFile::decodeName(QByteArray::fromStdString(line.positionals().front())));
 
-    if (parser.isSet(screenshot)) {
-        if (!parser.isSet(folder))
-            window.setSessionFolder(parser.value(screenshot) + QStringLiteral("/sessions"));
+    if (takeScreenshot) {
+        if (!line.isSet("session-folder"))
+            window.setSessionFolder(pathOption("screenshot") + QStringLiteral("/sessions"));
         window.resize(1600, 1000);
         window.show();
         // A sweep in progress: two steps still to go.
-        const auto result = parser.isSet(typedDemo) ? sagline::runTypedDemoSweep(window, 2)
+        const auto result = line.isSet("typed-demo") ? sagline::runTypedDemoSweep(window, 2)
                                                     : sagline::runVirtualBenchDemo(window, 7);
         QTextStream out(stdout);
         if (!result.ok) {
@@ -98,14 +131,14 @@ int main(int argc, char **argv)
             return 1;
         }
         out << "demo sweep: " << result.points << " points, session " << result.message << '\n';
-        for (const QString &path : sagline::saveScreenshots(window, parser.value(screenshot), parser.isSet(dark)))
+        for (const QString &path : sagline::saveScreenshots(window, pathOption("screenshot"), line.isSet("dark")))
             out << "screenshot: " << path << '\n';
         return 0;
     }
-    if (parser.isSet(startupProbe))
-        sagline::quitAfterFirstPaint(window, sinceStart);
+    if (line.isSet("startup-probe"))
+        sagline::quitAfterFirstPaint(window, sinceMain);
     window.show();
-    if (parser.isSet(demo))
+    if (line.isSet("demo"))
         QTimer::singleShot(0, &window, [&window] {
             // The session needs an operator and a unit; a demo names them plainly.
             sagline::SessionDetails details = window.setupForm()->sessionDetails();

@@ -6,18 +6,22 @@
 #include "VirtualBench.h"
 
 #include "BuildInfo.h"
+#include "CommandLine.h"
 #include "Planner.h"
 #include "SetupJson.h"
 
-#include <QCommandLineParser>
 #include <QCoreApplication>
 #include <QDir>
+#include <QFile>
 #include <QSocketNotifier>
 #include <QTemporaryDir>
 #include <QTextStream>
 #include <QTimer>
 
+#include <algorithm>
+#include <cctype>
 #include <csignal>
+#include <limits>
 #include <cstdio>
 #include <iostream>
 #include <memory>
@@ -29,20 +33,6 @@ namespace {
 void stopOnSignal(int)
 {
     QCoreApplication::quit();
-}
-
-bool readDouble(const QCommandLineParser &parser, const QString &name, double *value, QString *error, double min = 0.0)
-{
-    if (!parser.isSet(name))
-        return true;
-    bool ok = false;
-    const double v = parser.value(name).toDouble(&ok);
-    if (!ok || !std::isfinite(v) || v < min) {
-        *error = QStringLiteral("--%1: '%2' must be a number >= %3").arg(name, parser.value(name)).arg(min);
-        return false;
-    }
-    *value = v;
-    return true;
 }
 
 // Commands typed on standard input while the bench runs.
@@ -87,57 +77,80 @@ void handleCommand(const QString &line, VirtualBench *bench)
     out.flush();
 }
 
+CommandLine simCommandLine()
+{
+    CommandLine line("sagline-sim", "[options] SETUP.json",
+                     "The virtual bench: a simulated transformer (from a setup file) with SCPI meters and a "
+                     "programmable load on pseudo-terminals and loopback TCP. For demos, training and tests; not a "
+                     "real instrument. Prints the paths and ports, then runs until stopped (Ctrl-C).");
+    line.addPositional("SETUP.json", "the setup file (nameplate and bench)");
+    line.addStandaloneFlag({"help-all"}, "the same as --help (this program takes no toolkit options)");
+    line.addStandaloneFlag({"v", "version"}, "print the version and the git commit it was built from");
+    line.addOption({"seed"}, "N", "random seed (repeatable runs), default 1");
+    line.addOption({"serial-suffix"}, "TEXT",
+                   "end the instruments' serial numbers with TEXT (letters, digits, '-'; up to 16) instead of a token "
+                   "drawn for this process: a simulator restarted with the same TEXT plays the same meters");
+    line.addOption({"tcp-port"}, "PORT",
+                   "first TCP port (voltmeter; then ammeter, power meter, load, primary meter); 0 = any free; default 5025");
+    line.addFlag({"no-tcp"}, "do not open TCP ports");
+    line.addFlag({"no-pty"}, "do not open pseudo-terminals");
+    line.addOption({"link-dir"}, "DIR", "folder for the stable pty links (default: a new temporary folder)");
+    line.addHeading("changing the simulated transformer");
+    line.addOption({"series-resistance"}, "OHM", "series resistance at 20 °C, referred to the secondary");
+    line.addOption({"no-load-voltage"}, "V", "secondary no-load voltage (sets the ratio)");
+    line.addOption({"magnetizing-current"}, "A", "primary magnetizing current");
+    line.addOption({"thermal-tau"}, "S", "copper heating time constant, at least 1 s");
+    line.addOption({"rated-rise"}, "K", "steady copper rise at rated load (0: no heating)");
+    line.addOption({"ambient"}, "C", "ambient temperature, -40 to 100 °C");
+    line.addOption({"fuse-rating"}, "A", "primary fuse rating");
+    line.addOption({"noise-v"}, "V", "voltmeter noise, standard deviation");
+    line.addOption({"noise-a"}, "A", "ammeter noise, standard deviation");
+    line.addHeading("faults, to try how a program copes (probabilities per reply, 0 to 1)");
+    line.addOption({"drop"}, "P", "a reply is dropped");
+    line.addOption({"garbage"}, "P", "a reply is garbage bytes");
+    line.addOption({"slow"}, "P", "a reply is late");
+    line.addOption({"slow-ms"}, "MS", "how late a slow reply is, default 3000");
+    line.addOption({"overload"}, "P", "a reading is the SCPI overload value 9.9E37");
+    line.addOption({"vanish-every"}, "S", "every S seconds one instrument's link vanishes");
+    line.addOption({"vanish-for"}, "S", "how long a vanished link stays away, default 3");
+    line.addNote("Commands on standard input while it runs: state | fault INSTRUMENT "
+                 "drop|garbage|slow|overload|nan|endless|vanish [COUNT] | replace-fuse | help.");
+    line.addNote("Exit codes: 0 stopped by a signal; 1 a pseudo-terminal or TCP port could not be opened; 2 invalid "
+                 "input (a setup that breaks a rule, an option out of range).");
+    return line;
+}
+
+bool validSerialSuffix(const std::string &text)
+{
+    return !text.empty() && text.size() <= 16 && std::all_of(text.begin(), text.end(), [](char c) {
+        return std::isalnum(static_cast<unsigned char>(c)) || c == '-';
+    });
+}
+
 } // namespace
 
 int main(int argc, char **argv)
 {
+    // Parsed before anything else: --help and mistakes need no event loop.
+    CommandLine line = simCommandLine();
+    if (const auto exit = line.parse(argc, argv))
+        return *exit;
+    if (line.isSet("help-all")) {
+        std::cout << line.helpText();
+        return 0;
+    }
+    if (line.isSet("version")) {
+        std::cout << "sagline-sim " << buildinfo::version << " (commit " << buildinfo::gitCommit << ")\n";
+        return 0;
+    }
     QCoreApplication app(argc, argv);
     QCoreApplication::setApplicationName(QStringLiteral("sagline-sim"));
-    QCoreApplication::setApplicationVersion(
-        QStringLiteral("%1 (commit %2)").arg(QLatin1String(buildinfo::version), QLatin1String(buildinfo::gitCommit)));
 
-    QCommandLineParser parser;
-    parser.setApplicationDescription(QStringLiteral(
-        "The virtual bench: a simulated transformer (from a setup file) with SCPI meters and a programmable load\n"
-        "on pseudo-terminals and loopback TCP. For demos, training and tests; not a real instrument."));
-    parser.addHelpOption();
-    parser.addVersionOption();
-    parser.addPositionalArgument(QStringLiteral("SETUP.json"), QStringLiteral("the setup file (nameplate and bench)"));
-    const QList<QCommandLineOption> options{
-        {QStringLiteral("seed"), QStringLiteral("random seed (repeatable runs), default 1"), QStringLiteral("N")},
-        {QStringLiteral("tcp-port"), QStringLiteral("first TCP port (voltmeter; then ammeter, power meter, load, primary meter); 0 = any free; default 5025"), QStringLiteral("PORT")},
-        {QStringLiteral("no-tcp"), QStringLiteral("do not open TCP ports")},
-        {QStringLiteral("no-pty"), QStringLiteral("do not open pseudo-terminals")},
-        {QStringLiteral("link-dir"), QStringLiteral("folder for the stable pty links (default: a new temporary folder)"), QStringLiteral("DIR")},
-        {QStringLiteral("series-resistance"), QStringLiteral("override: series resistance at 20 °C, referred to the secondary"), QStringLiteral("OHM")},
-        {QStringLiteral("no-load-voltage"), QStringLiteral("override: secondary no-load voltage (sets the ratio)"), QStringLiteral("V")},
-        {QStringLiteral("magnetizing-current"), QStringLiteral("override: primary magnetizing current"), QStringLiteral("A")},
-        {QStringLiteral("thermal-tau"), QStringLiteral("override: copper heating time constant"), QStringLiteral("S")},
-        {QStringLiteral("rated-rise"), QStringLiteral("override: steady copper rise at rated load, K (0: no heating)"), QStringLiteral("K")},
-        {QStringLiteral("ambient"), QStringLiteral("override: ambient temperature, °C"), QStringLiteral("C")},
-        {QStringLiteral("fuse-rating"), QStringLiteral("override: primary fuse rating"), QStringLiteral("A")},
-        {QStringLiteral("noise-v"), QStringLiteral("voltmeter noise, standard deviation"), QStringLiteral("V")},
-        {QStringLiteral("noise-a"), QStringLiteral("ammeter noise, standard deviation"), QStringLiteral("A")},
-        {QStringLiteral("drop"), QStringLiteral("fault: probability a reply is dropped"), QStringLiteral("P")},
-        {QStringLiteral("garbage"), QStringLiteral("fault: probability a reply is garbage bytes"), QStringLiteral("P")},
-        {QStringLiteral("slow"), QStringLiteral("fault: probability a reply is late"), QStringLiteral("P")},
-        {QStringLiteral("slow-ms"), QStringLiteral("fault: how late a slow reply is, default 3000"), QStringLiteral("MS")},
-        {QStringLiteral("overload"), QStringLiteral("fault: probability a reading is the SCPI overload value 9.9E37"), QStringLiteral("P")},
-        {QStringLiteral("vanish-every"), QStringLiteral("fault: every S seconds one instrument's link vanishes"), QStringLiteral("S")},
-        {QStringLiteral("vanish-for"), QStringLiteral("fault: how long a vanished link stays away, default 3"), QStringLiteral("S")},
-    };
-    parser.addOptions(options);
-    parser.process(app);
-
-    const QStringList positional = parser.positionalArguments();
-    if (positional.size() != 1) {
-        std::cerr << "sagline-sim: give one setup file (see --help)\n";
-        return 2;
-    }
-    const SetupParse setupParse = loadSetupFile(positional[0].toStdString());
+    const QString setupPath = QFile::decodeName(QByteArray::fromStdString(line.positionals().front()));
+    const SetupParse setupParse = loadSetupFile(line.positionals().front());
     if (!setupParse.setup) {
         for (const FieldError &e : setupParse.errors)
-            std::cerr << "sagline-sim: " << positional[0].toStdString() << ": " << e.message() << '\n';
+            std::cerr << "sagline-sim: " << line.positionals().front() << ": " << e.message() << '\n';
         return 2;
     }
     const PlanResult planResult = makePlan(*setupParse.setup);
@@ -146,39 +159,44 @@ int main(int argc, char **argv)
             std::cerr << "sagline-sim: plan: " << e.message() << '\n';
         return 2;
     }
-    bool ok = true;
-    const quint64 seed = parser.isSet(QStringLiteral("seed")) ? parser.value(QStringLiteral("seed")).toULongLong(&ok) : 1;
-    if (!ok) {
-        std::cerr << "sagline-sim: --seed must be a non-negative integer\n";
+    std::optional<std::uint64_t> seedGiven;
+    std::optional<std::int64_t> tcpPort;
+    if (!line.unsignedInteger("seed", std::numeric_limits<std::uint64_t>::max(), seedGiven)
+        || !line.integer("tcp-port", 0, 65535, tcpPort))
         return 2;
-    }
+    const std::uint64_t seed = seedGiven.value_or(1);
     VirtualBenchOptions bench = virtualBenchOptionsFor(*setupParse.setup, *planResult.plan, seed);
-    QString error;
+    if (const auto suffix = line.valueIfSet("serial-suffix")) {
+        if (!validSerialSuffix(*suffix))
+            return line.fail("--serial-suffix: '" + *suffix + "' must be 1 to 16 letters, digits or '-'");
+        bench.serialSuffix = QString::fromStdString(*suffix);
+    }
     double v0 = bench.transformer.noLoadVoltageV();
     double ratedRise = -1.0;
     double fuseRating = bench.fuse ? bench.fuse->ratingA : 0.0;
     SimFaultRates rates;
     double slowMs = rates.slowDelayMs, vanishEvery = 0.0, vanishFor = 3.0;
-    ok = readDouble(parser, QStringLiteral("series-resistance"), &bench.transformer.seriesResistanceOhm, &error)
-         && readDouble(parser, QStringLiteral("no-load-voltage"), &v0, &error, 1e-3)
-         && readDouble(parser, QStringLiteral("magnetizing-current"), &bench.transformer.magnetizingCurrentA, &error)
-         && readDouble(parser, QStringLiteral("thermal-tau"), &bench.transformer.thermalTimeConstantS, &error, 1.0)
-         && readDouble(parser, QStringLiteral("rated-rise"), &ratedRise, &error)
-         && readDouble(parser, QStringLiteral("ambient"), &bench.transformer.ambientC, &error, -40.0)
-         && readDouble(parser, QStringLiteral("fuse-rating"), &fuseRating, &error)
-         && readDouble(parser, QStringLiteral("noise-v"), &bench.voltmeter.noiseSd, &error)
-         && readDouble(parser, QStringLiteral("noise-a"), &bench.ammeter.noiseSd, &error)
-         && readDouble(parser, QStringLiteral("drop"), &rates.drop, &error)
-         && readDouble(parser, QStringLiteral("garbage"), &rates.garbage, &error)
-         && readDouble(parser, QStringLiteral("slow"), &rates.slow, &error)
-         && readDouble(parser, QStringLiteral("slow-ms"), &slowMs, &error)
-         && readDouble(parser, QStringLiteral("overload"), &rates.overload, &error)
-         && readDouble(parser, QStringLiteral("vanish-every"), &vanishEvery, &error)
-         && readDouble(parser, QStringLiteral("vanish-for"), &vanishFor, &error);
-    if (!ok) {
-        std::cerr << "sagline-sim: " << error.toStdString() << '\n';
+    // Every number is range-checked before use (a stalled timer or an overflowing int otherwise).
+    const auto read = [&line](const char *name, double min, double max, double &target) {
+        std::optional<double> value;
+        if (!line.number(name, min, max, value))
+            return false;
+        if (value)
+            target = *value;
+        return true;
+    };
+    const bool ok = read("series-resistance", 0.0, 1e6, bench.transformer.seriesResistanceOhm)
+                    && read("no-load-voltage", 1e-3, 1e6, v0)
+                    && read("magnetizing-current", 0.0, 1e4, bench.transformer.magnetizingCurrentA)
+                    && read("thermal-tau", 1.0, 1e7, bench.transformer.thermalTimeConstantS)
+                    && read("rated-rise", 0.0, 1000.0, ratedRise) && read("ambient", -40.0, 100.0, bench.transformer.ambientC)
+                    && read("fuse-rating", 0.0, 1e4, fuseRating) && read("noise-v", 0.0, 1e3, bench.voltmeter.noiseSd)
+                    && read("noise-a", 0.0, 1e3, bench.ammeter.noiseSd) && read("drop", 0.0, 1.0, rates.drop)
+                    && read("garbage", 0.0, 1.0, rates.garbage) && read("slow", 0.0, 1.0, rates.slow)
+                    && read("slow-ms", 0.0, 600000.0, slowMs) && read("overload", 0.0, 1.0, rates.overload)
+                    && read("vanish-every", 0.0, 86400.0, vanishEvery) && read("vanish-for", 0.0, 86400.0, vanishFor);
+    if (!ok)
         return 2;
-    }
     bench.transformer.turnsRatio = bench.transformer.primaryVoltageV / v0;
     bench.transformer.referenceTemperatureC = bench.transformer.ambientC;
     if (ratedRise >= 0.0) {
@@ -196,20 +214,20 @@ int main(int argc, char **argv)
     for (SimInstrument *instrument : virtualBench.instruments())
         instrument->setFaultRates(rates);
 
+    const bool noPty = line.isSet("no-pty"), noTcp = line.isSet("no-tcp");
     std::unique_ptr<QTemporaryDir> tempDir;
-    QString linkDir = parser.value(QStringLiteral("link-dir"));
-    if (linkDir.isEmpty() && !parser.isSet(QStringLiteral("no-pty"))) {
+    QString linkDir = QFile::decodeName(QByteArray::fromStdString(line.value("link-dir")));
+    if (linkDir.isEmpty() && !noPty) {
         tempDir = std::make_unique<QTemporaryDir>(QDir::tempPath() + QStringLiteral("/sagline-sim-XXXXXX"));
         linkDir = tempDir->path();
     }
-    quint16 port = 5025;
-    if (parser.isSet(QStringLiteral("tcp-port")))
-        port = static_cast<quint16>(parser.value(QStringLiteral("tcp-port")).toUInt());
+    quint16 port = static_cast<quint16>(tcpPort.value_or(5025));
+    QString error;
 
     const TransformerParameters &t = bench.transformer;
     QTextStream out(stdout);
     out << QStringLiteral("sagline-sim %1: virtual bench for %2 (seed %3)\n")
-               .arg(QString::fromLatin1(buildinfo::version), positional[0])
+               .arg(QString::fromLatin1(buildinfo::version), setupPath)
                .arg(seed);
     out << QStringLiteral("  transformer: V0 %1 V, R %2 ohm at %3 °C (T_k %4 °C), ratio %5, magnetizing %6 A, "
                           "heating tau %7 s, fuse %8\n")
@@ -224,26 +242,26 @@ int main(int argc, char **argv)
                                : QStringLiteral("none"));
     QList<QObject *> endpoints;
     for (SimInstrument *instrument : virtualBench.instruments()) {
-        QString line = QStringLiteral("  %1").arg(toString(instrument->kind()), -12);
-        if (!parser.isSet(QStringLiteral("no-pty"))) {
+        QString listing = QStringLiteral("  %1").arg(toString(instrument->kind()), -12);
+        if (!noPty) {
             auto *pty = new PtyEndpoint(instrument, linkDir + QLatin1Char('/') + toString(instrument->kind()), &app);
             if (!pty->start(&error)) {
                 std::cerr << "sagline-sim: " << error.toStdString() << '\n';
                 return 1;
             }
-            line += QStringLiteral(" pty %1 (now %2)").arg(pty->linkPath(), pty->ptyPath());
+            listing += QStringLiteral(" pty %1 (now %2)").arg(pty->linkPath(), pty->ptyPath());
         }
-        if (!parser.isSet(QStringLiteral("no-tcp"))) {
+        if (!noTcp) {
             auto *tcp = new TcpEndpoint(instrument, &app);
             if (!tcp->start(port, &error)) {
                 std::cerr << "sagline-sim: " << error.toStdString() << " (try --tcp-port 0)\n";
                 return 1;
             }
-            line += QStringLiteral("  tcp 127.0.0.1:%1").arg(tcp->port());
+            listing += QStringLiteral("  tcp 127.0.0.1:%1").arg(tcp->port());
             if (port != 0)
                 ++port;
         }
-        out << line << '\n';
+        out << listing << '\n';
         out << QStringLiteral("  %1 *IDN? %2\n").arg(QString(), -12).arg(instrument->identity());
     }
     out << "Type 'help' for commands (state, fault, replace-fuse). Ctrl-C stops.\n";
@@ -260,12 +278,12 @@ int main(int argc, char **argv)
     }
     QSocketNotifier input(fileno(stdin), QSocketNotifier::Read);
     QObject::connect(&input, &QSocketNotifier::activated, &app, [&input, &virtualBench] {
-        std::string line;
-        if (!std::getline(std::cin, line)) {
+        std::string command;
+        if (!std::getline(std::cin, command)) {
             input.setEnabled(false); // stdin closed: keep running until a signal
             return;
         }
-        handleCommand(QString::fromStdString(line), &virtualBench);
+        handleCommand(QString::fromStdString(command), &virtualBench);
     });
     std::signal(SIGINT, stopOnSignal);
     std::signal(SIGTERM, stopOnSignal);

@@ -45,7 +45,12 @@ TEST_F(SessionCommands, ImportThenExportGivesTheSameReadings)
 
     // Values survive import and export bit for bit (17 significant digits).
     const std::string csv = readWholeFile(path("out.csv"));
-    EXPECT_EQ(csv.rfind("current_a,voltage_v,u_current_a,u_voltage_v,step,time_utc,flags,excluded\r\n", 0), 0u) << csv;
+    // The import columns first, then who did what (which import skips).
+    EXPECT_EQ(csv.rfind("current_a,voltage_v,u_current_a,u_voltage_v,step,time_utc,flags,excluded,exclusion_reason,"
+                        "excluded_by,superseded_reason,recorded_by,recorded_account\r\n",
+                        0),
+              0u)
+        << csv;
     EXPECT_NE(csv.find("\r\n0.41699999999999998,19.373000000000001,"), std::string::npos) << csv;
 }
 

@@ -15,7 +15,7 @@ namespace {
 
 NoteRecord note(std::int64_t id, const std::string &author, const std::string &text)
 {
-    return {id, "2026-12-02T10:00:0" + std::to_string(id) + ".000Z", author, text};
+    return {id, "2026-12-02T10:00:0" + std::to_string(id) + ".000Z", author, text, {}};
 }
 
 bool mentions(const FieldErrors &errors, const std::string &field)

@@ -173,6 +173,7 @@ TEST(Planner, RefusesATopStepAboveRatedVaUnlessOverloadAllowed)
 {
     sagline::Setup setup = exampleSetup();
     setup.bench.topFraction = 1.05;
+    setup.bench.overloadFactor = 1.0;
     PlanResult refused = makePlan(setup);
     ASSERT_FALSE(refused.plan);
     ASSERT_FALSE(refused.errors.empty());
@@ -227,4 +228,14 @@ TEST(Planner, TotalTimeCountsEveryPointsDwell)
     sagline::Setup setup = exampleSetup();
     setup.bench.dwellS = 12.0;
     EXPECT_DOUBLE_EQ(planOf(setup).totalTimeS, 11 * 12.0);
+}
+
+// The default hard stop sits above a top step at rated load (DESIGN.md: overload_factor 1.1),
+// so meter scatter at full load does not trip it.
+TEST(Planner, DefaultHardStopLeavesRoomAboveRatedLoad)
+{
+    const Plan plan = planOf(exampleSetup());
+    EXPECT_DOUBLE_EQ(sagline::Setup{}.bench.overloadFactor, 1.1);
+    EXPECT_NEAR(plan.overloadLimitVa, 55.0, 1e-9);
+    EXPECT_LT(plan.steps.back().outputVa * 1.05, plan.overloadLimitVa);
 }

@@ -271,8 +271,8 @@ TEST(SessionComparison, CountsVerdictsReviewsAndUnreadableRows)
     std::vector<SessionRow> rows = {fittedRow(1.0, ConformityOutcome::Pass), fittedRow(1.1, ConformityOutcome::Fail),
                                     fittedRow(1.2, ConformityOutcome::ConditionalPass), fittedRow(1.3, ConformityOutcome::Pass),
                                     fittedRow(1.4, ConformityOutcome::NotJudged)};
-    rows[1].signOffs.push_back({1, "t", "Lead", Verdict::Accepted, ""});
-    rows[1].signOffs.push_back({2, "t", "Lead", Verdict::Rejected, "over limit"});
+    rows[1].signOffs.push_back({1, "t", "Lead", Verdict::Accepted, "", "", "", ""});
+    rows[1].signOffs.push_back({2, "t", "Lead", Verdict::Rejected, "over limit", "", "", ""});
     rows[2].safetyStops.push_back({});
     SessionRow bad;
     bad.problem = "corrupt";

@@ -72,6 +72,9 @@ std::string makeRichSession(const TempFolder &folder)
     stop.limitValue = 50.0;
     store.value->recordSafetyStop(stop);
     store.value->addSignOff("First Reviewer", Verdict::Retest, "repeat at 80 %");
+    // A sign-off seals the session: the next one needs it reopened first.
+    store.value->setActor({"First Reviewer", ""});
+    store.value->reopen("repeated at 80 %, ready for a second look");
     return path;
 }
 

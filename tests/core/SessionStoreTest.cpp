@@ -1,4 +1,5 @@
 // SessionStore: recording and reading back a session, append-only history, Save As.
+#include "SessionSchema.h"
 #include "SessionSummary.h"
 #include "SessionTestSupport.h"
 
@@ -40,7 +41,7 @@ TEST(SessionStore, CreatesSessionAndReadsItBack)
     EXPECT_EQ(info.value.unitSerial, "DEMO-0001");
     EXPECT_EQ(info.value.setupJson, sampleSession().setupJson);
     EXPECT_EQ(info.value.planJson, sampleSession().planJson);
-    EXPECT_EQ(info.value.schemaVersion, 2);
+    EXPECT_EQ(info.value.schemaVersion, sessionSchemaVersion);
 
     const auto readings = store.readings();
     ASSERT_TRUE(readings.ok()) << readings.message;

@@ -18,11 +18,11 @@ TEST(SupervisedRecords, NotesRoundTrip)
     LimitHit hit{"", "lab-sheet-max-load", "a current of 1.9 A is above the lab sheet's limit", 7, 1.9};
 
     const std::vector<NoteRecord> notes = {
-        {1, "2026-12-01T09:00:00.000Z", labSheetNoteAuthor, labSheetNoteText(stamp)},
-        {2, "2026-12-01T09:00:01.000Z", "B. Student", "meters warmed up"},
-        {3, "2026-12-01T09:00:02.000Z", checklistNoteAuthor, checklistNoteText(list)},
-        {4, "2026-12-01T09:05:00.000Z", limitHitNoteAuthor, limitHitNoteText(hit)},
-        {5, "2026-12-01T09:06:00.000Z", limitHitNoteAuthor, "{broken"},
+        {1, "2026-12-01T09:00:00.000Z", labSheetNoteAuthor, labSheetNoteText(stamp), {}},
+        {2, "2026-12-01T09:00:01.000Z", "B. Student", "meters warmed up", {}},
+        {3, "2026-12-01T09:00:02.000Z", checklistNoteAuthor, checklistNoteText(list), {}},
+        {4, "2026-12-01T09:05:00.000Z", limitHitNoteAuthor, limitHitNoteText(hit), {}},
+        {5, "2026-12-01T09:06:00.000Z", limitHitNoteAuthor, "{broken", {}},
     };
     const SupervisionSummary summary = summarizeSupervision(notes);
     ASSERT_TRUE(summary.labSheet);
@@ -42,7 +42,7 @@ TEST(SupervisedRecords, NotesRoundTrip)
 
 TEST(SupervisedRecords, SessionWithoutSupervisionHasNone)
 {
-    const SupervisionSummary summary = summarizeSupervision({{1, "t", "A. Tester", "{\"lab_sheet\": \"fake\"}"}});
+    const SupervisionSummary summary = summarizeSupervision({{1, "t", "A. Tester", "{\"lab_sheet\": \"fake\"}", {}}});
     EXPECT_FALSE(summary.labSheet); // only our machine author counts
     EXPECT_FALSE(summary.checklist);
     EXPECT_TRUE(summary.limitHits.empty());

@@ -20,14 +20,18 @@
 
 #include <QComboBox>
 #include <QPushButton>
+#include <QRandomGenerator>
 
 namespace sagline::test {
 
-// Fixed seed (so a restarted simulator answers with the same identity), low noise, no heating.
-inline QStringList quietSimArguments()
+// Fixed seed, low noise, no heating. `serialSuffix` ends the instruments' serial numbers: the
+// same one makes a restarted simulator the same meters again; every other simulator (another
+// test's, on a reused pty number or port) answers with identities of its own.
+inline QStringList quietSimArguments(const QString &serialSuffix)
 {
     return {QStringLiteral("--seed"),    QStringLiteral("7"),      QStringLiteral("--rated-rise"), QStringLiteral("0"),
-            QStringLiteral("--noise-v"), QStringLiteral("0.0005"), QStringLiteral("--noise-a"),    QStringLiteral("0.0002")};
+            QStringLiteral("--noise-v"), QStringLiteral("0.0005"), QStringLiteral("--noise-a"),    QStringLiteral("0.0002"),
+            QStringLiteral("--serial-suffix"), serialSuffix};
 }
 
 struct LinkSweep {
@@ -35,6 +39,9 @@ struct LinkSweep {
     QTemporaryDir links;
     SimProcess sim;
     std::unique_ptr<MainWindow> window;
+    // This sweep's meters: the same serial numbers whenever its simulator is (re)started.
+    const QString serialSuffix = QString::number(QRandomGenerator::global()->generate(), 16).toUpper();
+    QStringList simArguments() const { return quietSimArguments(serialSuffix); }
 
     // Starts the simulator and a window on the demo setup with a short plan, then connects
     // through the panel as a person does: the source picked, the address typed, Enter pressed.
@@ -43,7 +50,7 @@ struct LinkSweep {
     ::testing::AssertionResult connect(ReadingSource source, bool twoMeters = false)
     {
         QString error;
-        if (!sim.start(links.path(), quietSimArguments(), &error))
+        if (!sim.start(links.path(), simArguments(), &error))
             return ::testing::AssertionFailure() << error.toStdString();
         const auto meter = sim.endpoint(twoMeters ? QStringLiteral("voltmeter") : QStringLiteral("power-meter"));
         const auto ammeter = sim.endpoint(QStringLiteral("ammeter"));

@@ -90,7 +90,7 @@ TEST(SimVanishesMidSweep, OverTheLanLinkLossIsShownAndNothingIsLost)
 
 TEST(SimVanishesMidSweep, OverASerialPortTheSimComingBackResumesTheSweepAtTheSameStep)
 {
-    // The simulator restarted on the same pty link path (same seed, so the same identity): the
+    // The simulator restarted on the same pty link path (same serial numbers, the same meters): the
     // meter reconnects on its own; the window asks the operator to check the interrupted step's
     // load again and reads nothing until "Load is set" is clicked; then the step is read again
     // and the sweep completes, every step once, in order.
@@ -110,7 +110,7 @@ TEST(SimVanishesMidSweep, OverASerialPortTheSimComingBackResumesTheSweepAtTheSam
     // A restarted simulator starts with its load open: like a rheostat moved while the meter
     // was away. Nothing may be read at that load.
     QString error;
-    ASSERT_TRUE(s.sim.start(s.links.path(), quietSimArguments(), &error)) << error.toStdString();
+    ASSERT_TRUE(s.sim.start(s.links.path(), s.simArguments(), &error)) << error.toStdString();
     ASSERT_TRUE(waitUntil([&] { return panel->statusText().contains(QStringLiteral("link restored")); }, 8000))
         << panel->statusText().toStdString();
     ASSERT_TRUE(waitUntil([&] { return controller->state() == SweepState::WaitingForLoad; }, 8000))
@@ -121,4 +121,54 @@ TEST(SimVanishesMidSweep, OverASerialPortTheSimComingBackResumesTheSweepAtTheSam
     ASSERT_TRUE(s.recordStep(3));
     EXPECT_NEAR(workspace->readings()[3].currentA, plan.steps[3].currentA, 0.05 * plan.steps[3].currentA);
     ASSERT_TRUE(s.recordTheRestAndFinish(4));
+}
+
+TEST(SimVanishesMidSweep, AnotherSimulatorOnTheReusedPtyIsNotTakenForTheLostMeter)
+{
+    // The kernel hands the dead simulator's pty number to another test's simulator (same seed,
+    // same model): its meter answers on the path the window reconnects to, but with a serial
+    // number of its own, so it is refused and the link stays lost; nothing is read from it.
+    LinkSweep s;
+    ASSERT_TRUE(s.connect(ReadingSource::SerialPort));
+    InstrumentsPanel *panel = s.window->instrumentsPanel();
+    SweepWorkspace *workspace = s.window->workspace();
+    for (std::size_t i = 0; i < 2; ++i)
+        ASSERT_TRUE(s.recordStep(i));
+    ASSERT_TRUE(s.recordStep(2, false));
+    const QString original = s.sim.endpoint(QStringLiteral("power-meter"))->identity;
+    s.sim.kill();
+    ASSERT_TRUE(waitUntil([&] { return panel->statusText().contains(QStringLiteral("link lost at step")); }, 8000))
+        << panel->statusText().toStdString();
+
+    QTemporaryDir otherLinks;
+    SimProcess stranger;
+    QString error;
+    ASSERT_TRUE(stranger.start(otherLinks.path(), quietSimArguments(QStringLiteral("OTHER")), &error)) << error.toStdString();
+    const QString strangerPty = QFileInfo(stranger.endpoint(QStringLiteral("power-meter"))->ptyLink).symLinkTarget();
+    ASSERT_FALSE(strangerPty.isEmpty());
+    EXPECT_NE(stranger.endpoint(QStringLiteral("power-meter"))->identity, original);
+    const QString link = s.sim.endpoint(QStringLiteral("power-meter"))->ptyLink;
+    ASSERT_TRUE(QFile::remove(link));
+    ASSERT_TRUE(QFile::link(strangerPty, link));
+
+    // Reconnect attempts come once a second; give them a few on a loaded machine.
+    const auto refusedNoted = [&] {
+        auto stored = SessionStore::openForReview(workspace->sessionPath().toStdString());
+        if (!stored.ok())
+            return false;
+        const auto notes = stored.value->notes();
+        for (const auto &note : notes.value) {
+            if (note.text.find("a different instrument answered after reconnecting and is not used") != std::string::npos)
+                return true;
+        }
+        return false;
+    };
+    ASSERT_TRUE(waitUntil(refusedNoted, 15000)) << panel->statusText().toStdString();
+    waitUntil([] { return false; }, 1500);
+    EXPECT_FALSE(panel->statusText().contains(QStringLiteral("link restored"))) << panel->statusText().toStdString();
+    EXPECT_EQ(s.controller()->state(), SweepState::Paused);
+    EXPECT_EQ(workspace->readings().size(), 2u);
+    QTest::mouseClick(s.window->nextStep()->stopButton(), Qt::LeftButton);
+    ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }, 5000));
+    EXPECT_EQ(workspace->readings().size(), 2u);
 }
