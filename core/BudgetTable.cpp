@@ -36,8 +36,9 @@ BudgetTable budgetTable(const std::string &key, const std::string &title, const 
         table.summary = formatQuantity(value.value, unit, 4) + "; no uncertainty (too few points)";
         return table;
     }
+    const std::string dof = degreesOfFreedomText(value.effectiveDof);
     table.summary = formatQuantity(value.value, unit, 5) + "; u = " + formatQuantity(*value.standardUncertainty, unit, 2)
-                    + ", ν_eff = " + degreesOfFreedomText(value.effectiveDof) + ", " + expandedUncertaintyLabel(value)
+                    + ", ν_eff " + (dof.front() == '>' ? dof : "= " + dof) + ", " + expandedUncertaintyLabel(value)
                     + " = " + formatQuantity(*value.expandedUncertainty, unit, 2);
     for (const BudgetComponent &c : value.budget) {
         BudgetTableRow row;

@@ -40,7 +40,7 @@ BudgetDialog::BudgetDialog(const std::vector<BudgetTable> &budgets, QWidget *par
     m_table->verticalHeader()->hide();
     m_table->setEditTriggers(QAbstractItemView::NoEditTriggers);
     m_table->setSelectionBehavior(QAbstractItemView::SelectRows);
-    m_table->setWordWrap(true);
+    m_table->setWordWrap(false);
     QFont bold = font();
     bold.setBold(true);
     int row = 0;

@@ -130,7 +130,7 @@ void setVerdict(const SpecificationVerdict &v, ResultsView &view)
     if (!v.limits.empty())
         details << QString::fromStdString(v.ruleName) + (v.atReferenceTemperature ? QObject::tr("; judged at the reference temperature.")
                                                                                   : QObject::tr("; judged as measured."));
-    view.verdictRule = details.join(QLatin1Char(' '));
+    view.verdictRule = details.join(QLatin1Char('\n'));
 }
 
 } // namespace

@@ -39,7 +39,7 @@ SetupForm::SetupForm(QWidget *parent)
     : QWidget(parent), m_construction(new QComboBox), m_material(new QComboBox), m_fuseType(new QComboBox),
       m_decisionRule(new QComboBox), m_temperatureConstant(new QComboBox),
       m_allowOverload(new QCheckBox(tr("Allow overload"))), m_operator(new QLineEdit),
-      m_serial(new QLineEdit), m_otherErrors(new QLabel)
+      m_serial(new QLineEdit), m_specificationSource(new QLineEdit), m_otherErrors(new QLabel)
 {
     auto *layout = new QVBoxLayout(this);
     m_otherErrors->setWordWrap(true);
@@ -93,6 +93,8 @@ SetupForm::SetupForm(QWidget *parent)
     addQuantity(session, tr("Ambient temperature"), QStringLiteral("session.ambient_temperature_c"), Unit::Celsius, tr("e.g. 23 °C"));
     addQuantity(session, tr("Winding temperature"), QStringLiteral("session.winding_temperature_c"), Unit::Celsius, tr("blank: ambient"));
     layout->addWidget(sessionBox);
+
+    addMetersAndSpecification(layout);
 
     auto *verdictBox = new QGroupBox(tr("Results and verdict"));
     auto *verdict = new QFormLayout(verdictBox);
@@ -163,6 +165,8 @@ QString SetupForm::setupJson() const
     insertAt(root, {QStringLiteral("bench"), QStringLiteral("allow_overload")}, m_allowOverload->isChecked());
     if (!m_fields.value(QStringLiteral("bench.fuse.rating_a"))->isBlank())
         insertAt(root, {QStringLiteral("bench"), QStringLiteral("fuse"), QStringLiteral("type")}, m_fuseType->currentData().toString());
+    if (!m_specificationSource->text().trimmed().isEmpty())
+        insertAt(root, {QStringLiteral("specification"), QStringLiteral("source")}, m_specificationSource->text().trimmed());
     return QString::fromUtf8(QJsonDocument(root).toJson(QJsonDocument::Compact));
 }
 
@@ -191,6 +195,7 @@ void SetupForm::loadSetup(const Setup &setup)
     set("bench.fuse_factor", b.fuseFactor ? plain(*b.fuseFactor) : QString());
     set("bench.magnetizing_fraction", b.magnetizingFraction ? plain(*b.magnetizingFraction) : QString());
     set("bench.dwell_s", plain(b.dwellS, Unit::Second));
+    loadMetersAndSpecification(setup);
     emit changed();
 }
 
@@ -287,6 +292,7 @@ void SetupForm::setLocked(bool locked)
     for (auto *combo : {m_construction, m_material, m_fuseType})
         combo->setEnabled(!locked);
     m_allowOverload->setEnabled(!locked);
+    m_specificationSource->setReadOnly(locked);
 }
 
 } // namespace sagline

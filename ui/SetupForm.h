@@ -17,6 +17,7 @@ class QComboBox;
 class QFormLayout;
 class QLabel;
 class QLineEdit;
+class QVBoxLayout;
 
 namespace sagline {
 
@@ -72,6 +73,9 @@ signals:
 private:
     QuantityField *addQuantity(QFormLayout *form, const QString &label, const QString &field,
                                Unit unit, const QString &placeholder);
+    // The meters' accuracy and the specification's limits (ui/SetupFormMeters.cpp).
+    void addMetersAndSpecification(QVBoxLayout *layout);
+    void loadMetersAndSpecification(const Setup &setup);
     QHash<QString, QuantityField *> m_fields;
     QComboBox *m_construction;
     QComboBox *m_material;
@@ -81,6 +85,7 @@ private:
     QCheckBox *m_allowOverload;
     QLineEdit *m_operator;
     QLineEdit *m_serial;
+    QLineEdit *m_specificationSource;
     QLabel *m_otherErrors;
 };
 

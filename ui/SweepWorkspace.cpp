@@ -76,8 +76,12 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
     const QString stamp = QDateTime::currentDateTimeUtc().toString(QStringLiteral("yyyyMMdd-HHmmss-zzz"));
     const QString path = QDir(sessionFolder).filePath((serial.isEmpty() ? QStringLiteral("unit") : serial)
                                                       + QLatin1Char('-') + stamp + QStringLiteral(".sagline"));
+    // Meters connected: their own accuracy rules are the session's meters (core/FitBudget.h).
+    Setup recorded = *m_setup;
+    if (auto specs = SweepRun::meterSpecsFor(*m_setup, *m_plan, source))
+        recorded.meters = specs;
     NewSession session;
-    session.setupJson = setupToJson(*m_setup);
+    session.setupJson = setupToJson(recorded);
     session.planJson = planToJson(*m_plan);
     session.operatorName = details.operatorName.toStdString();
     session.unitSerial = details.unitSerial.toStdString();
@@ -89,6 +93,7 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
         return QString::fromStdString(created.message);
     m_run.reset();
     m_store = std::move(created.value);
+    m_setup = recorded; // the results panel judges with the meters recorded, as the report will
     m_recordedSettings.reset();
     m_details = details;
     m_source = source;
