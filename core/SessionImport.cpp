@@ -61,39 +61,33 @@ ImportResult importReadingsCsv(const ImportRequest &request)
     for (std::size_t i = 0; i < csv.readings.size(); ++i)
         csv.readings[i].rawText = "imported from " + fileName + " line " + std::to_string(csv.lineNumbers[i]);
 
-    auto fail = [&](const StoreStatus &status) {
-        std::error_code error;
-        std::filesystem::remove(request.outputPath, error); // no half-imported session is left behind
-        ImportResult failed;
-        failed.code = status.code;
-        failed.message = status.message;
-        return failed;
-    };
-    auto created = SessionStore::create(request.outputPath, session);
+    // The readings go in before the file appears under its name: a failed or killed import
+    // leaves no session behind, and never removes a file it did not create.
+    std::size_t recorded = 0, excluded = 0;
+    auto created = SessionStore::create(request.outputPath, session, [&](SessionStore &store) {
+        const auto ids = store.appendReadings(csv.readings);
+        if (!ids.ok())
+            return ids.status();
+        for (std::size_t i = 0; i < csv.readings.size(); ++i) {
+            if (!csv.readings[i].excluded)
+                continue;
+            const auto done = store.excludeReading(ids.value[i], "marked excluded in " + fileName + " line " +
+                                                                     std::to_string(csv.lineNumbers[i]),
+                                                   request.person.empty() ? request.operatorName : request.person);
+            if (!done.ok())
+                return done.status();
+            ++excluded;
+        }
+        recorded = ids.value.size();
+        return StoreStatus::success();
+    });
     if (!created.ok()) {
         result.code = created.code;
         result.message = created.message;
-        return result; // create leaves nothing behind on failure, or refused an existing file
+        return result;
     }
-    SessionStore &store = *created.value;
-    const auto ids = store.appendReadings(csv.readings);
-    if (!ids.ok()) {
-        created.value.reset();
-        return fail(ids.status());
-    }
-    for (std::size_t i = 0; i < csv.readings.size(); ++i) {
-        if (!csv.readings[i].excluded)
-            continue;
-        const auto excluded = store.excludeReading(ids.value[i], "marked excluded in " + fileName + " line " +
-                                                                     std::to_string(csv.lineNumbers[i]),
-                                                   request.person.empty() ? request.operatorName : request.person);
-        if (!excluded.ok()) {
-            created.value.reset();
-            return fail(excluded.status());
-        }
-        ++result.excluded;
-    }
-    result.readings = ids.value.size();
+    result.excluded = excluded;
+    result.readings = recorded;
     return result;
 }
 

@@ -2,6 +2,7 @@
 // trust rules this file implements.
 #include "SessionStore.h"
 
+#include "AtomicFile.h"
 #include "OsAccount.h"
 #include "SessionCopies.h"
 #include "SessionFileCheck.h"
@@ -11,8 +12,12 @@
 
 #include <sqlite3.h>
 
+#include <cerrno>
 #include <cmath>
+#include <cstdio>
+#include <fcntl.h>
 #include <filesystem>
+#include <unistd.h>
 
 namespace sagline {
 
@@ -52,6 +57,35 @@ StoreStatus migrateInTransaction(sqlite3 *db, int fromVersion)
         return status;
     if (const int rc = transaction.commit(); rc != SQLITE_OK)
         return sqliteFailure(db, rc, "upgrading the schema");
+    return StoreStatus::success();
+}
+
+// Gives the complete file at `temporary` the name `path`, unless `path` exists: renameat2 with
+// RENAME_NOREPLACE, or a hard link where the file system lacks it; either fails on an existing
+// name, so nothing is ever replaced. Then the folder is synced: the name survives a power cut.
+StoreStatus publishExclusively(const std::string &temporary, const std::string &path)
+{
+    int rc = ::renameat2(AT_FDCWD, temporary.c_str(), AT_FDCWD, path.c_str(), RENAME_NOREPLACE);
+    if (rc != 0 && (errno == EINVAL || errno == ENOSYS)) {
+        rc = ::link(temporary.c_str(), path.c_str());
+        if (rc == 0)
+            ::unlink(temporary.c_str());
+    }
+    if (rc != 0) {
+        const int error = errno;
+        if (error == EEXIST)
+            return StoreStatus::failure(StoreCode::FileExists, path + ": created meanwhile by another program; a session "
+                                                                      "file is never overwritten");
+        return StoreStatus::failure(StoreCode::IoError, path + ": cannot create the session file ("
+                                                            + describeFileError(error) + ")");
+    }
+    std::filesystem::path folder = std::filesystem::path(path).parent_path();
+    if (folder.empty())
+        folder = ".";
+    if (const int fd = ::open(folder.c_str(), O_RDONLY | O_DIRECTORY | O_CLOEXEC); fd >= 0) {
+        ::fsync(fd);
+        ::close(fd);
+    }
     return StoreStatus::success();
 }
 
@@ -148,16 +182,53 @@ StoreStatus SessionStore::requireWritable() const
     return StoreStatus::failure(StoreCode::ReadOnly, m_path + ": opened for review (read-only); nothing was recorded");
 }
 
-StoreOpen SessionStore::create(const std::string &path, const NewSession &session)
+StoreOpen SessionStore::create(const std::string &path, const NewSession &session,
+                               const std::function<StoreStatus(SessionStore &)> &fill)
 {
-    StoreOpen result = createFile(path, session);
-    if (!result.ok() && result.code != StoreCode::FileExists && result.code != StoreCode::InvalidArgument) {
-        // Nothing was committed, or the commit failed: leave no half-made session behind.
-        std::error_code ignored;
-        std::filesystem::remove(path + "-journal", ignored);
-        std::filesystem::remove(path, ignored);
-    }
-    return result;
+    std::error_code error;
+    if (std::filesystem::exists(path, error) || std::filesystem::exists(path + "-journal", error))
+        return StoreOpen::failure(StoreCode::FileExists, path + ": already exists; a session file is never overwritten");
+    const std::string temporary = temporarySibling(path);
+    const auto named = [&](const std::string &message) {
+        // Messages name the file the user asked for, not the temporary one.
+        std::string text = message;
+        for (std::size_t at = text.find(temporary); at != std::string::npos; at = text.find(temporary, at + path.size()))
+            text.replace(at, temporary.size(), path);
+        return text;
+    };
+    auto lock = SessionWriterLock::createAndAcquire(temporary);
+    if (!lock.ok())
+        return StoreOpen::failure(lock.code == StoreCode::FileExists ? StoreCode::IoError : lock.code, named(lock.message));
+    // From here on only this call's own temporary file (and its journal) is ever removed.
+    struct RemoveTemporary {
+        std::string path;
+        bool keep = false;
+        ~RemoveTemporary()
+        {
+            if (keep)
+                return;
+            std::error_code ignored;
+            std::filesystem::remove(path + "-journal", ignored);
+            std::filesystem::remove(path, ignored);
+        }
+    } cleanup{temporary};
+    {
+        StoreOpen built = createFile(temporary, session);
+        if (!built.ok())
+            return StoreOpen::failure(built.code, named(built.message));
+        if (fill) {
+            built.value->m_path = path;
+            if (StoreStatus status = fill(*built.value); !status.ok())
+                return StoreOpen::failure(status.code, named(status.message));
+        }
+    } // the connection closes: the file is complete and committed, with no journal
+    if (StoreStatus status = publishExclusively(temporary, path); !status.ok())
+        return StoreOpen::failure(status);
+    cleanup.keep = true;
+    StoreOpen opened = open(path, true, std::move(lock.value));
+    if (opened.ok())
+        opened.value->setActor(session.createdBy); // as createFile's store had it
+    return opened;
 }
 
 StoreOpen SessionStore::createFile(const std::string &path, const NewSession &session)
@@ -172,10 +243,6 @@ StoreOpen SessionStore::createFile(const std::string &path, const NewSession &se
         if (celsius && (!std::isfinite(*celsius) || *celsius < -273.15 || *celsius > 1000.0))
             return StoreOpen::failure(StoreCode::InvalidArgument, "temperature: must be between -273.15 and 1000 °C");
     }
-    std::error_code error;
-    if (std::filesystem::exists(path, error) || std::filesystem::exists(path + "-journal", error))
-        return StoreOpen::failure(StoreCode::FileExists, path + ": already exists; a session file is never overwritten");
-
     auto db = openHardenedConnection(path, SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE);
     if (!db.ok())
         return StoreOpen::failure(db.status());
@@ -228,7 +295,12 @@ StoreOpen SessionStore::createFile(const std::string &path, const NewSession &se
 
 StoreOpen SessionStore::openForWriting(const std::string &path)
 {
-    return open(path, true);
+    if (StoreStatus status = checkSessionFileHeader(path); !status.ok())
+        return StoreOpen::failure(status);
+    auto lock = SessionWriterLock::acquire(path);
+    if (!lock.ok())
+        return StoreOpen::failure(lock.status());
+    return open(path, true, std::move(lock.value));
 }
 
 StoreOpen SessionStore::openForReview(const std::string &path)
@@ -236,7 +308,7 @@ StoreOpen SessionStore::openForReview(const std::string &path)
     return open(path, false);
 }
 
-StoreOpen SessionStore::open(const std::string &path, bool forWriting)
+StoreOpen SessionStore::open(const std::string &path, bool forWriting, SessionWriterLock lock)
 {
     if (StoreStatus status = checkSessionFileHeader(path); !status.ok())
         return StoreOpen::failure(status);
@@ -288,6 +360,7 @@ StoreOpen SessionStore::open(const std::string &path, bool forWriting)
                 return fail(status);
         }
         std::unique_ptr<SessionStore> store(new SessionStore(path, std::move(db.value), false, version.value));
+        store->m_writerLock = std::move(lock);
         if (StoreStatus status = store->loadSealState(); !status.ok())
             return fail(status);
         return {std::move(store)};
@@ -319,15 +392,19 @@ StoreStatus SessionStore::saveCopyAs(const std::string &newPath) const
     std::error_code error;
     if (std::filesystem::exists(newPath, error))
         return StoreStatus::failure(StoreCode::FileExists, newPath + ": already exists; choose a new name");
+    // Into a temporary name first, then given its name exclusively: a copy is complete or absent.
+    const std::string temporary = temporarySibling(newPath);
     SqliteStatement vacuum;
     int rc = vacuum.prepare(m_db.get(), "VACUUM INTO ?");
     if (rc == SQLITE_OK) {
-        vacuum.bind(1, std::string_view(newPath));
+        vacuum.bind(1, std::string_view(temporary));
         rc = vacuum.step();
     }
-    if (rc != SQLITE_DONE)
-        return sqliteFailure(m_db.get(), rc, newPath + ": cannot write the copy");
-    return StoreStatus::success();
+    StoreStatus status = rc == SQLITE_DONE ? publishExclusively(temporary, newPath)
+                                           : sqliteFailure(m_db.get(), rc, newPath + ": cannot write the copy");
+    if (!status.ok())
+        std::filesystem::remove(temporary, error);
+    return status;
 }
 
 StoreStatus SessionStore::integrityCheck() const

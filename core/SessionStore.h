@@ -22,6 +22,7 @@
 
 #include "Reading.h"
 #include "SessionRecords.h"
+#include "SessionWriterLock.h"
 #include "SqliteHandle.h"
 #include "StoreResult.h"
 
@@ -37,10 +38,19 @@ class SessionStore {
 public:
     // Creates a new session file at `path` (refuses to overwrite; FileExists) and records the
     // setup, plan, operator, unit serial and starting temperatures in one transaction.
-    static StoreResult<std::unique_ptr<SessionStore>> create(const std::string &path, const NewSession &session);
+    // Atomic: the file is built under a hidden temporary name in the same folder, `fill` (if
+    // given) adds to it (an import's readings), and only then does it appear under `path`,
+    // by an exclusive rename or link, so a kill at any moment leaves no file or a complete
+    // session under that name, and of two programs creating the same path one wins and the
+    // other gets FileExists. Nothing but this call's own temporary file is ever removed.
+    // The returned store holds the writer lock (SessionWriterLock).
+    static StoreResult<std::unique_ptr<SessionStore>>
+    create(const std::string &path, const NewSession &session,
+           const std::function<StoreStatus(SessionStore &)> &fill = {});
     // Opens an existing session to continue it (resume a sweep, add notes, exclusions, a
-    // sign-off). An older schema is upgraded in place, in one transaction. A newer schema
-    // fails with NewerVersion (open it for review instead).
+    // sign-off). Takes the writer lock: Busy, naming the holder's host and process, while
+    // another program writes it. An older schema is upgraded in place, in one transaction. A
+    // newer schema fails with NewerVersion (open it for review instead).
     static StoreResult<std::unique_ptr<SessionStore>> openForWriting(const std::string &path);
     // Opens a session read-only for review. The file is never modified. A file from a newer
     // version opens read-only with notice() saying so.
@@ -132,7 +142,8 @@ public:
 
 private:
     SessionStore(std::string path, SqliteHandle db, bool readOnly, int fileVersion);
-    static StoreResult<std::unique_ptr<SessionStore>> open(const std::string &path, bool forWriting);
+    static StoreResult<std::unique_ptr<SessionStore>> open(const std::string &path, bool forWriting,
+                                                           SessionWriterLock lock = {});
     static StoreResult<std::unique_ptr<SessionStore>> createFile(const std::string &path, const NewSession &session);
     StoreStatus requireWritable() const;
     StoreStatus requireUnsealed() const; // writable and not sealed by a sign-off
@@ -143,6 +154,7 @@ private:
     StoreStatus checkReading(const Reading &reading) const;
 
     std::string m_path;
+    SessionWriterLock m_writerLock; // before m_db: released only after the connection has closed
     SqliteHandle m_db;        // the file, or an upgraded in-memory copy for review of an old file
     bool m_readOnly = false;
     int m_fileVersion = 0;

@@ -32,6 +32,7 @@ QString toString(SweepOutcome outcome)
     case SweepOutcome::SafetyStop: return QStringLiteral("safety stop");
     case SweepOutcome::StoppedByOperator: return QStringLiteral("stopped by the operator");
     case SweepOutcome::Failed: return QStringLiteral("failed");
+    case SweepOutcome::GaveUp: return QStringLiteral("gave up waiting");
     }
     return {};
 }
@@ -124,8 +125,28 @@ void SweepController::setState(SweepState state)
 {
     if (m_state == state)
         return;
+    // A pause is timed from its start however its reason changes (see giveUp).
+    if (state == SweepState::Paused) {
+        m_pausedAtMs = m_clock->nowMs();
+        if (m_options.giveUpAfterMs > 0 && m_giveUpTimer == 0)
+            m_giveUpTimer = m_clock->callAfter(m_options.giveUpAfterMs, this, [this] {
+                m_giveUpTimer = 0;
+                giveUp();
+            });
+    } else if (m_state == SweepState::Paused) {
+        m_pausedAtMs = -1;
+        if (m_giveUpTimer) {
+            m_clock->cancel(m_giveUpTimer);
+            m_giveUpTimer = 0;
+        }
+    }
     m_state = state;
     emit stateChanged(state);
+}
+
+std::int64_t SweepController::pausedForMs() const
+{
+    return m_pausedAtMs < 0 ? -1 : m_clock->nowMs() - m_pausedAtMs;
 }
 
 void SweepController::event(const QString &text)
@@ -278,6 +299,7 @@ bool SweepController::commitAndReport(Reading reading)
     }
     m_uncommitted.reset();
     ++m_recorded;
+    m_linkReturnsThisStep = 0;
     if (m_fit && !(reading.flags & (flagOverload | flagNotANumber)))
         m_fit->addPoint(reading.currentA, reading.voltageV);
     emit pointRecorded(reading, m_fit ? m_fit->snapshot() : LiveFitSnapshot{});
@@ -337,6 +359,7 @@ void SweepController::openLoad()
     m_rig->load()->setLoad(std::nullopt, this, [this](bool ok, const QString &error) {
         if (!ok)
             emit notice(tr("could not switch the load off: %1; switch it off by hand").arg(error));
+        emit loadSwitchedOff(ok, error);
     });
 }
 

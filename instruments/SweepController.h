@@ -50,6 +50,14 @@ struct SweepOptions {
     int firstStep = 0;                  // to continue an interrupted sweep
     bool resumed = false;               // continues a stopped or interrupted session: the first step's load is checked again
     bool simulated = false;             // readings come from the virtual bench (flagged so)
+    // A pause nobody resolves (a load or meter that stopped answering, no valid reading, a
+    // link counted as lost) ends the sweep after this long, switching a programmable load off:
+    // outcome GaveUp. 0 = wait for ever (the window: its operator decides, and is shown how
+    // long it has waited).
+    std::int64_t giveUpAfterMs = 0;
+    // A link that drops and comes back more often than this during one step counts as lost:
+    // the sweep stays paused (and may give up) instead of resuming again and again.
+    int maxLinkReturnsPerStep = 3;
 };
 
 // Options for a plan with the setup's dwell and the plan's limits.
@@ -68,7 +76,7 @@ enum class SweepState {
 };
 QString toString(SweepState state);
 
-enum class SweepOutcome { Completed, SafetyStop, StoppedByOperator, Failed };
+enum class SweepOutcome { Completed, SafetyStop, StoppedByOperator, Failed, GaveUp };
 QString toString(SweepOutcome outcome);
 
 class SweepController : public QObject {
@@ -87,6 +95,9 @@ public:
     void pause();            // by the operator; the current step restarts on resume()
     void resume();           // after pause(), or to retry a failed commit
     void stop();             // by the operator: opens a programmable load, records the event
+    // Ends a paused sweep that cannot go on (a headless run whose disk is full): the reason is
+    // recorded where it still can be, a programmable load is switched off; outcome Failed.
+    void abandon(const QString &reason);
 
     SweepState state() const { return m_state; }
     int currentStep() const { return m_step; }       // plan step index
@@ -102,6 +113,8 @@ public:
     QString resumedInstruction(int step) const;
     int recordedCount() const { return m_recorded; }
     QString pauseReason() const { return m_pauseReason; }
+    // How long the sweep has been paused, on its clock; -1 when it is not paused.
+    std::int64_t pausedForMs() const;
 
 signals:
     void stateChanged(sagline::SweepState state);
@@ -113,6 +126,9 @@ signals:
     void notice(const QString &message);             // instrument errors, unreadable replies, flagged points
     void paused(const QString &reason);
     void finished(sagline::SweepOutcome outcome);
+    // After a stop or the end of the sweep: whether the programmable load confirmed that it
+    // is switched off. Only with a programmable load.
+    void loadSwitchedOff(bool ok, const QString &error);
 
 private:
     struct PendingRead;
@@ -136,6 +152,8 @@ private:
     void openLoad();
     void handleRigLost(const QString &message);
     void handleRigRestored(const QString &message);
+    void giveUp();
+    void endPaused(const QString &reason, SweepOutcome outcome);
     void event(const QString &text);
     const PlanStep *planStep(int step) const; // by plan step index; null if the plan has none
     Reading makeReading(double currentA, double voltageV) const;
@@ -166,6 +184,9 @@ private:
     std::shared_ptr<void> m_readChain;                   // keeps the current read's continuation alive
     QString m_lastRaw;
     QString m_pauseReason;
+    std::int64_t m_pausedAtMs = -1;   // clock time the current pause began, -1 when not paused
+    int m_giveUpTimer = 0;            // pending give-up callback, 0 if none
+    int m_linkReturnsThisStep = 0;    // restored links since the step's last recorded point
 };
 
 } // namespace sagline

@@ -38,6 +38,7 @@ void SweepController::resume()
         return;
     }
     m_operatorPaused = false;
+    m_linkReturnsThisStep = 0;
     if (retryHeldCommit())
         return;
     event(tr("resumed at step %1").arg(m_step));
@@ -88,11 +89,54 @@ void SweepController::handleRigRestored(const QString &message)
     emit linkRestored(message);
     if (m_state != SweepState::Paused || m_operatorPaused)
         return;
+    // A link that keeps dropping and coming back (a meter that closes after *IDN?, a cable
+    // that breaks contact) would resume and pause for ever: past a few returns in one step it
+    // counts as lost, and the sweep waits for someone (or gives up).
+    if (++m_linkReturnsThisStep > m_options.maxLinkReturnsPerStep) {
+        m_operatorPaused = true; // resume() is needed now; a later restore does not resume
+        m_pauseReason = tr("step %1: the link dropped and came back %2 times; counted as lost. Check the cable and "
+                           "the meters, then resume")
+                            .arg(m_step)
+                            .arg(m_linkReturnsThisStep);
+        event(m_pauseReason);
+        emit paused(m_pauseReason);
+        return;
+    }
     if (retryHeldCommit())
         return;
     if (!hasProgrammableLoad())
         event(tr("step %1: waiting for the operator to confirm the load again").arg(m_step));
     beginStep();
+}
+
+// Nobody resolved the pause within options.giveUpAfterMs (a headless run): the sweep ends with
+// the reason recorded, and a programmable load is switched off (loadSwitchedOff says whether
+// it confirmed; where it cannot be, the caller tells the operator to do it by hand).
+void SweepController::giveUp()
+{
+    if (m_state != SweepState::Paused)
+        return;
+    endPaused(tr("gave up at step %1 after waiting %2 s with nobody to resolve the pause: %3")
+                  .arg(m_step)
+                  .arg(static_cast<double>(m_options.giveUpAfterMs) / 1000.0)
+                  .arg(m_pauseReason),
+              SweepOutcome::GaveUp);
+}
+
+void SweepController::abandon(const QString &reason)
+{
+    if (m_state == SweepState::Paused)
+        endPaused(reason, SweepOutcome::Failed);
+}
+
+void SweepController::endPaused(const QString &reason, SweepOutcome outcome)
+{
+    event(reason);
+    if (m_sink)
+        m_sink->recordSweepEvent(SweepEventKind::Stopped, m_step, reason);
+    emit notice(reason);
+    openLoad();
+    finish(outcome);
 }
 
 // A reading whose commit failed is committed again before anything else: the step was already

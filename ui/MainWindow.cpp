@@ -35,6 +35,17 @@
 namespace sagline {
 
 namespace {
+
+// "45 s", "2 min 10 s", "1 h 05 min": how long a paused sweep has waited.
+QString formatWaited(std::int64_t milliseconds)
+{
+    const std::int64_t seconds = milliseconds / 1000;
+    if (seconds < 60)
+        return QObject::tr("%1 s").arg(seconds);
+    if (seconds < 3600)
+        return QObject::tr("%1 min %2 s").arg(seconds / 60).arg(seconds % 60, 2, 10, QLatin1Char('0'));
+    return QObject::tr("%1 h %2 min").arg(seconds / 3600).arg((seconds % 3600) / 60, 2, 10, QLatin1Char('0'));
+}
 constexpr int bandGridPoints = 150; // the band is drawn on a grid, not one point per reading
 
 // Columns as wide as their widest likely content, so step to residual fit the panel without
@@ -78,6 +89,17 @@ MainWindow::MainWindow(QWidget *parent)
     m_settingsTimer.setSingleShot(true);
     m_settingsTimer.setInterval(1000);
     connect(&m_settingsTimer, &QTimer::timeout, this, &MainWindow::storeAnalysisSettings);
+    // The window never gives up on a paused sweep (its operator decides) but says how long it
+    // has been waiting and why.
+    m_waitingTimer.setInterval(1000);
+    connect(&m_waitingTimer, &QTimer::timeout, this, [this] {
+        const SweepRun *run = m_workspace->run();
+        const SweepController *controller = run ? run->controller() : nullptr;
+        const std::int64_t waitedMs = controller ? controller->pausedForMs() : -1;
+        m_nextStep->setWaiting(waitedMs < 0 ? QString()
+                                            : tr("Paused for %1: %2").arg(formatWaited(waitedMs), controller->pauseReason()));
+    });
+    m_waitingTimer.start();
     readSettings();
     applyColourScheme();
     handleSetupChanged();

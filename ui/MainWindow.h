@@ -129,6 +129,7 @@ private:
     QString m_lastMessage;
     QTimer m_resultsTimer;
     QTimer m_settingsTimer; // stores the verdict settings once typing pauses, not per keystroke
+    QTimer m_waitingTimer;  // while the sweep is paused: how long it has waited, every second
     bool m_resultsPending = false;
 };
 

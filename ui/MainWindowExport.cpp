@@ -3,6 +3,7 @@
 #include "MainWindow.h"
 
 #include "BuildInfo.h"
+#include "OutputFile.h"
 #include "ReportWriter.h"
 #include "SessionExport.h"
 #include "SessionStore.h"
@@ -15,7 +16,6 @@
 #include <QDateTime>
 #include <QFileDialog>
 #include <QFileInfo>
-#include <QSaveFile>
 
 namespace sagline {
 
@@ -45,11 +45,9 @@ void MainWindow::exportCsv()
         showMessage(QString::fromStdString(readings.message), true);
         return;
     }
-    QSaveFile file(path);
-    const std::string csv = readingsToCsv(readings.value);
-    if (!file.open(QIODevice::WriteOnly) || file.write(csv.data(), static_cast<qint64>(csv.size())) != static_cast<qint64>(csv.size())
-        || !file.commit()) {
-        showMessage(tr("%1: cannot write: %2").arg(path, file.errorString()), true);
+    if (const QString problem = writeOutputFile(path, QByteArray::fromStdString(readingsToCsv(readings.value)));
+        !problem.isEmpty()) {
+        showMessage(problem, true);
         return;
     }
     showMessage(tr("%n reading(s) exported to %1", nullptr, static_cast<int>(readings.value.size())).arg(path));

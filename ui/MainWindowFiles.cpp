@@ -185,7 +185,8 @@ bool MainWindow::openSessionFile(const QString &path)
     refreshFitViews();
     flushCharts(); // the first frame painted after opening shows the session's points
     rememberRecent(path);
-    showMessage(tr("Opened %1").arg(path));
+    const QString readOnly = m_workspace->readOnlyReason();
+    showMessage(readOnly.isEmpty() ? tr("Opened %1").arg(path) : tr("Opened %1 for review only. %2").arg(path, readOnly));
     return true;
 }
 

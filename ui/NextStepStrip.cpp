@@ -12,7 +12,7 @@
 namespace sagline {
 
 NextStepStrip::NextStepStrip(QWidget *parent)
-    : QWidget(parent), m_step(new QLabel), m_expect(new QLabel),
+    : QWidget(parent), m_step(new QLabel), m_expect(new QLabel), m_waiting(new QLabel),
       m_current(new QuantityField(QStringLiteral("reading.current_a"), Unit::Ampere, tr("e.g. 1.25 A or 1250 mA"))),
       m_voltage(new QuantityField(QStringLiteral("reading.voltage_v"), Unit::Volt, tr("e.g. 24.6 V"))),
       m_entry(new QWidget), m_record(new QPushButton(tr("● Record  (Ctrl+Enter)"))),
@@ -34,6 +34,10 @@ NextStepStrip::NextStepStrip(QWidget *parent)
     m_expect->setWordWrap(true);
     text->addWidget(m_step);
     text->addWidget(m_expect);
+    m_waiting->setWordWrap(true);
+    m_waiting->setObjectName(QStringLiteral("pausedFor"));
+    m_waiting->hide();
+    text->addWidget(m_waiting);
     layout->addLayout(text, 3);
 
     auto *entry = new QHBoxLayout(m_entry);
@@ -120,6 +124,14 @@ void NextStepStrip::setRunning(bool running)
 }
 
 void NextStepStrip::setPaused(bool paused) { m_pause->setText(paused ? tr("▶ Resume") : tr("❚❚ Pause")); }
+
+void NextStepStrip::setWaiting(const QString &text)
+{
+    m_waiting->setText(text);
+    m_waiting->setVisible(!text.isEmpty());
+}
+
+QString NextStepStrip::waitingText() const { return m_waiting->text(); }
 
 QString NextStepStrip::instructionText() const { return m_step->text() + QLatin1Char('\n') + m_expect->text(); }
 

@@ -23,6 +23,9 @@ public:
     void setRecordNeeded(bool needed); // false when a programmable load steps itself
     void setRunning(bool running);     // enables Record/Pause/Stop
     void setPaused(bool paused);
+    // "Paused for 2 min 10 s: link lost at step 3 ..." while the sweep waits; "" hides it.
+    void setWaiting(const QString &text);
+    QString waitingText() const;
     QuantityField *currentField() const { return m_current; }
     QuantityField *voltageField() const { return m_voltage; }
     QPushButton *recordButton() const { return m_record; }
@@ -39,6 +42,7 @@ signals:
 private:
     QLabel *m_step;
     QLabel *m_expect;
+    QLabel *m_waiting;
     QuantityField *m_current;
     QuantityField *m_voltage;
     QWidget *m_entry;

@@ -1,11 +1,10 @@
 #include "ReportWriter.h"
 
+#include "OutputFile.h"
 #include "ReportCanvas.h"
 #include "ReportSections.h"
 #include "SessionSummary.h"
 
-#include <QBuffer>
-#include <QFile>
 #include <QFileInfo>
 #include <QPainter>
 #include <QPdfWriter>
@@ -39,35 +38,7 @@ QString writeSessionReport(const SessionSummary &summary, const QString &pdfPath
 {
     if (options.pageSize != QPageSize::A4 && options.pageSize != QPageSize::Letter)
         return QStringLiteral("page size: A4 or Letter");
-    // First pass into memory to count the pages, so every footer can say "page X of Y".
-    QBuffer scratch;
-    scratch.open(QIODevice::WriteOnly);
-    int pages = 0;
-    {
-        QPdfWriter counting(&scratch);
-        pages = render(counting, summary, options, 0);
-    }
-    if (pages == 0)
-        return QStringLiteral("cannot lay out the report");
-
-    const QString partial = pdfPath + QStringLiteral(".partial");
-    {
-        QPdfWriter writer(partial);
-        if (render(writer, summary, options, pages) != pages) {
-            QFile::remove(partial);
-            return QStringLiteral("%1: cannot write the PDF").arg(pdfPath);
-        }
-    }
-    if (!QFileInfo(partial).exists() || QFileInfo(partial).size() == 0) {
-        QFile::remove(partial);
-        return QStringLiteral("%1: cannot write the PDF (folder missing or not writable?)").arg(pdfPath);
-    }
-    QFile::remove(pdfPath);
-    if (!QFile::rename(partial, pdfPath)) {
-        QFile::remove(partial);
-        return QStringLiteral("%1: cannot write the PDF").arg(pdfPath);
-    }
-    return {};
+    return writePdfFile(pdfPath, [&](QPdfWriter &writer, int totalPages) { return render(writer, summary, options, totalPages); });
 }
 
 } // namespace sagline

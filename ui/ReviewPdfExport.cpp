@@ -1,6 +1,7 @@
 #include "ReviewPdfExport.h"
 
 #include "NumberFormat.h"
+#include "OutputFile.h"
 #include "ReportCanvas.h"
 #include "ReportSections.h"
 #include "SessionSummary.h"
@@ -118,29 +119,9 @@ QString writeReviewPdf(const std::vector<const SessionRow *> &rows, const Compar
         if (summary.ok())
             summaries.push_back(std::move(summary.value));
     }
-    QBuffer scratch;
-    scratch.open(QIODevice::WriteOnly);
-    int pages = 0;
-    {
-        QPdfWriter counting(&scratch);
-        pages = render(counting, rows, summaries, options, reportOptions, 0);
-    }
-    if (pages == 0)
-        return QObject::tr("cannot lay out the review PDF");
-    const QString partial = pdfPath + QStringLiteral(".partial");
-    {
-        QPdfWriter writer(partial);
-        if (render(writer, rows, summaries, options, reportOptions, pages) != pages) {
-            QFile::remove(partial);
-            return QObject::tr("%1: cannot write the PDF").arg(pdfPath);
-        }
-    }
-    QFile::remove(pdfPath);
-    if (!QFileInfo(partial).exists() || !QFile::rename(partial, pdfPath)) {
-        QFile::remove(partial);
-        return QObject::tr("%1: cannot write the PDF (folder missing or not writable?)").arg(pdfPath);
-    }
-    return {};
+    return writePdfFile(pdfPath, [&](QPdfWriter &writer, int totalPages) {
+        return render(writer, rows, summaries, options, reportOptions, totalPages);
+    });
 }
 
 } // namespace sagline

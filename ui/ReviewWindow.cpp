@@ -1,7 +1,9 @@
 #include "ReviewWindow.h"
 
+
 #include "ComparisonExport.h"
 #include "NumberFormat.h"
+#include "OutputFile.h"
 #include "ReviewDetailView.h"
 #include "ReviewFilterModel.h"
 #include "ReviewOverlayChart.h"
@@ -394,13 +396,8 @@ QString ReviewWindow::exportCsv(const QString &path) const
     std::vector<SessionRow> rows;
     for (const SessionRow *row : selectedOrVisibleRows())
         rows.push_back(*row);
-    QFile file(path);
-    if (!file.open(QIODevice::WriteOnly | QIODevice::Truncate))
-        return tr("%1: %2").arg(path, file.errorString());
     const std::string csv = comparisonCsv(rows, summarizeBatch(rows));
-    if (file.write(csv.data(), static_cast<qint64>(csv.size())) != static_cast<qint64>(csv.size()))
-        return tr("%1: %2").arg(path, file.errorString());
-    return {};
+    return writeOutputFile(path, QByteArray::fromStdString(csv));
 }
 
 QString ReviewWindow::exportPdf(const QString &path) const

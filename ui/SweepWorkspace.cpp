@@ -3,6 +3,7 @@
 #include "BuildInfo.h"
 #include "ManualEntry.h"
 #include "PlanJson.h"
+#include "SessionSchema.h"
 #include "SessionStore.h"
 #include "SetupJson.h"
 #include "SweepRun.h"
@@ -189,16 +190,34 @@ QString SweepWorkspace::openSession(const QString &path)
     m_run.reset();
     m_store.reset();
     m_recordedSettings.reset();
+    m_readOnlyReason.clear();
     resetReadings();
     m_paused = false;
     emit runningChanged(false);
     if (path.isEmpty())
         return {};
-    auto opened = SessionStore::openForWriting(path.toStdString());
-    if (opened.code == StoreCode::NewerVersion || opened.code == StoreCode::ReadOnly || opened.code == StoreCode::Busy)
-        opened = SessionStore::openForReview(path.toStdString());
+    // Looked at first without writing: an older file stays as it is (opening never migrates
+    // it; a copy saved from it is in the current format), and only a current one is taken for
+    // writing. A file another program is writing, or a read-only one, is shown for review.
+    auto opened = SessionStore::openForReview(path.toStdString());
     if (!opened.ok())
         return QString::fromStdString(opened.message);
+    QString reviewOnly;
+    if (opened.value->fileSchemaVersion() < sessionSchemaVersion) {
+        reviewOnly = tr("%1: written by an older Sagline (schema %2); shown read-only, so opening it does not change it. "
+                        "File, Save a copy as… writes it in the current format.")
+                         .arg(path)
+                         .arg(opened.value->fileSchemaVersion());
+    } else if (opened.value->fileSchemaVersion() == sessionSchemaVersion) {
+        auto writable = SessionStore::openForWriting(path.toStdString());
+        if (writable.ok())
+            opened = std::move(writable);
+        else if (writable.code == StoreCode::Busy || writable.code == StoreCode::ReadOnly
+                 || writable.code == StoreCode::CannotOpen)
+            reviewOnly = tr("Shown read-only: %1").arg(QString::fromStdString(writable.message));
+        else
+            return QString::fromStdString(writable.message);
+    }
     auto info = opened.value->info();
     auto readings = opened.value->readings();
     if (!info.ok())
@@ -224,6 +243,12 @@ QString SweepWorkspace::openSession(const QString &path)
     emit sessionChanged();
     if (!m_store->notice().empty())
         emit notice(QString::fromStdString(m_store->notice()));
+    if (!reviewOnly.isEmpty())
+        emit notice(reviewOnly);
+    if (m_store->isReadOnly())
+        m_readOnlyReason = !reviewOnly.isEmpty() ? reviewOnly
+                           : !m_store->notice().empty() ? QString::fromStdString(m_store->notice())
+                                                        : tr("the file cannot be written");
     return {};
 }
 

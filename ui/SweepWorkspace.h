@@ -70,6 +70,9 @@ public:
     // Opens a saved session (review and continuation of notes/exclusions). "" or the reason.
     QString openSession(const QString &path);
     QString sessionPath() const;
+    // Why the open session is shown read-only ("" when it can be written): an older file, one
+    // another program is writing, a newer one.
+    QString readOnlyReason() const { return m_readOnlyReason; }
     SessionStore *store() const { return m_store.get(); }
 
     QString exclude(int row, const QString &reason);
@@ -141,6 +144,7 @@ private:
     bool m_simulatedTime = false;
     std::optional<double> m_nextCurrentA;
     std::optional<AnalysisSettings> m_recordedSettings;
+    QString m_readOnlyReason;
 };
 
 } // namespace sagline

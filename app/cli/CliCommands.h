@@ -12,6 +12,7 @@ enum ExitCode : int {
     exitRuntimeFailure = 1, // I/O, instrument, disk
     exitInvalidInput = 2,   // usage, validation, unreadable file
     exitSafetyStop = 3,     // a sweep stopped by a safety limit
+    exitGaveUp = 4,         // run: a pause nobody resolved within --give-up-after
 };
 
 using Arguments = std::vector<std::string>; // the words after the command name
@@ -19,7 +20,8 @@ using Arguments = std::vector<std::string>; // the words after the command name
 // The last paragraph of every command's --help.
 inline constexpr const char *exitCodesNote =
     "Exit codes: 0 success; 1 runtime failure (I/O, instrument, disk); 2 invalid input (the message names\n"
-    "the field or the line and the rule); 3 sweep stopped by a safety limit.";
+    "the field or the line and the rule); 3 sweep stopped by a safety limit; 4 run gave up waiting (a pause\n"
+    "nobody resolved within --give-up-after).";
 
 int runPlan(const Arguments &args);
 int runFit(const Arguments &args);

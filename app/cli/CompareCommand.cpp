@@ -4,6 +4,7 @@
 // Exit code 0 when every input was compared, 2 when some input could not be (the rest is still
 // printed and written), 1 when the CSV cannot be written.
 #include "CliCommands.h"
+#include "SessionCliSupport.h"
 
 #include "CommandLine.h"
 
@@ -84,7 +85,8 @@ CommandLine compareCommandLine()
                      "opened untrusted and read-only. A file that cannot be read is listed with its reason and the "
                      "others are still compared (the exit code is then 2).");
     line.addPositional("FILES_OR_FOLDERS...", "session files, and folders to search recursively", Arity::OneOrMore);
-    line.addOption({"csv"}, "OUT.csv", "also write the table as CSV");
+    line.addOption({"csv"}, "OUT.csv", "also write the table as CSV (whole or not at all)");
+    line.addFlag({"force"}, "replace an existing CSV file (never a session, never an input)");
     line.addFlag({"json"}, "print one JSON object instead of the table");
     line.addOption({"method"}, "ols|wls|york", "the fit method (default ols)");
     line.addOption({"reference-temperature"}, "C", "the batch's reference temperature, -50 to 250 °C (default 75)");
@@ -236,6 +238,10 @@ int runCompare(const Arguments &args)
     if (const std::string error = readArguments(line, options); !error.empty())
         return line.fail(error);
     const SessionFileList found = findSessionFiles(options.inputs);
+    std::vector<std::string> inputs = options.inputs;
+    inputs.insert(inputs.end(), found.files.begin(), found.files.end());
+    if (const auto refused = refuseOutputs("compare", {options.csvPath}, inputs, line.isSet("force")))
+        return *refused;
     const std::vector<SessionRow> rows = loadSessionRows(found.files, options.comparison);
     const BatchStatistics stats = summarizeBatch(rows);
 
@@ -254,11 +260,8 @@ int runCompare(const Arguments &args)
         std::cerr << "sagline-cli compare: no session files (*.sagline) found\n";
 
     if (!options.csvPath.empty()) {
-        std::ofstream csv(options.csvPath, std::ios::binary | std::ios::trunc);
-        csv << comparisonCsv(rows, stats);
-        csv.flush();
-        if (!csv) {
-            std::cerr << "sagline-cli compare: cannot write " << options.csvPath << '\n';
+        if (const std::string problem = writeOutput(options.csvPath, comparisonCsv(rows, stats)); !problem.empty()) {
+            std::cerr << "sagline-cli compare: " << problem << '\n';
             return exitRuntimeFailure;
         }
     }

@@ -24,6 +24,8 @@ int runExport(const Arguments &args)
     line.addOption({"fit-csv"}, "FIT.csv", "the fit results");
     line.addOption({"json"}, "OUT.json", "the summary: setup, plan, fit and analysis");
     line.addOption({"method"}, "ols|wls|york", "the fit method for the results (default ols)");
+    line.addFlag({"force"}, "replace an existing output file (never a session, never the session read)");
+    line.addNote("Outputs are written whole or not at all (a temporary file renamed into place).");
     line.addNote(exitCodesNote);
     if (const auto exit = line.parse(args))
         return *exit;
@@ -38,6 +40,8 @@ int runExport(const Arguments &args)
     }
     if (csvPath.empty() && fitCsvPath.empty() && jsonPath.empty())
         return line.fail("give at least one of --csv, --fit-csv, --json");
+    if (const auto refused = refuseOutputs("export", {csvPath, fitCsvPath, jsonPath}, {sessionPath}, line.isSet("force")))
+        return *refused;
 
     const auto summary = loadSessionSummary(sessionPath, options);
     if (!summary.ok()) {

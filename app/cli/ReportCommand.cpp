@@ -39,6 +39,8 @@ CommandLine reportCommandLine()
     line.addOption({"reference-temperature"}, "C", "refer R to this temperature, -273.15 to 1000 °C");
     line.addOption({"temperature-constant"}, "copper-ieee|copper-iec|aluminium",
                    "T_k: 234.5 °C (IEEE C57.12.90), 235 °C (IEC 60076-1) or 225 °C");
+    line.addFlag({"force"}, "replace an existing file (never a session, never the session read)");
+    line.addNote("The PDF is written whole or not at all (a temporary file renamed into place).");
     line.addNote("Settings stored in the session by the desktop app are used where no option is given; the report "
                  "prints each setting and where it came from.");
     line.addNote(exitCodesNote);
@@ -99,6 +101,8 @@ int runReport(const Arguments &args)
         return line.fail(problem);
     const std::string sessionPath = line.positionals().front();
     const std::string outputPath = line.value("output");
+    if (const auto refused = refuseOutputs("report", {outputPath}, {sessionPath}, line.isSet("force")))
+        return *refused;
     const auto summary = loadSessionSummary(sessionPath, review);
     if (!summary.ok()) {
         std::cerr << "sagline-cli report: " << summary.message << '\n';

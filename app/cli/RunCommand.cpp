@@ -42,6 +42,10 @@ namespace sagline::cli {
 
 namespace {
 
+// How long a headless run waits on a pause nobody resolves (common practice for unattended
+// scripts: long enough for a meter to be re-plugged, short enough not to leave a load on).
+constexpr std::int64_t defaultGiveUpAfterS = 120;
+
 struct RunArguments {
     std::string setupPath;
     std::string outputPath;
@@ -59,6 +63,7 @@ struct RunArguments {
     bool truncateToSafe = false;
     std::string unitSerial;
     std::optional<double> ambientC;
+    std::int64_t giveUpAfterMs = defaultGiveUpAfterS * 1000; // 0 = never
 };
 
 CommandLine runCommandLine()
@@ -90,6 +95,10 @@ CommandLine runCommandLine()
     line.addHeading("timing");
     line.addOption({"dwell"}, "S", "seconds to wait at each step, 0 to 86400, instead of the setup's");
     line.addOption({"read-interval"}, "S", "seconds between readings, 0 to 3600");
+    line.addOption({"give-up-after"}, "S|never",
+                   "a pause nobody resolves (a load or meter that stopped answering, no valid reading, a link that "
+                   "keeps dropping) ends the run after S seconds, 1 to 604800, with the load switched off and exit "
+                   "code 4 (default 120; never: wait)");
     line.addHeading("the virtual bench (--sim)");
     line.addOption({"seed"}, "N", "random seed, for repeatable runs (default 1)");
     line.addFlag({"sim-realtime"}, "real time instead of simulated time");
@@ -135,6 +144,15 @@ std::optional<int> readArguments(const CommandLine &line, RunArguments *out)
         return exitInvalidInput;
     if (timeoutMs)
         out->addresses.timeoutMs = static_cast<int>(*timeoutMs);
+    if (line.value("give-up-after") == "never") {
+        out->giveUpAfterMs = 0;
+    } else {
+        std::optional<double> giveUpS;
+        if (!line.number("give-up-after", 1.0, 604800.0, giveUpS))
+            return exitInvalidInput;
+        if (giveUpS)
+            out->giveUpAfterMs = static_cast<std::int64_t>(*giveUpS * 1000.0);
+    }
     if (seed)
         out->seed = *seed;
     if (out->outputPath.empty())
@@ -312,7 +330,11 @@ int runRun(const Arguments &rawArgs)
         options.dwellMs = static_cast<std::int64_t>(*args.dwellS * 1000.0);
     if (args.readIntervalS)
         options.readIntervalMs = static_cast<std::int64_t>(*args.readIntervalS * 1000.0);
+    options.giveUpAfterMs = args.giveUpAfterMs;
     SweepController controller(plan, options, rig.get(), &sink, &fit, clock.get());
+    const std::string giveUpNote =
+        args.giveUpAfterMs > 0 ? " (the run gives up after " + std::to_string(args.giveUpAfterMs / 1000) + " s unless resolved)"
+                               : std::string();
 
     std::optional<SweepOutcome> outcome;
     const bool waitForEnter = !controller.hasProgrammableLoad();
@@ -336,8 +358,12 @@ int runRun(const Arguments &rawArgs)
             }
             return;
         }
-        if (std::memchr(buffer, '\n', static_cast<std::size_t>(n)) && controller.state() == SweepState::WaitingForLoad)
+        if (!std::memchr(buffer, '\n', static_cast<std::size_t>(n)))
+            return;
+        if (controller.state() == SweepState::WaitingForLoad)
             controller.confirmLoadSet();
+        else if (controller.state() == SweepState::Paused)
+            controller.resume(); // the operator checked the meters (a lost link waits for itself)
     });
     QObject::connect(&controller, &SweepController::stepStarted, [&](int step, const QString &text) {
         // A step started again (link restored, resumed) asks to check the load, not to set it.
@@ -352,7 +378,8 @@ int runRun(const Arguments &rawArgs)
         std::cout << formatPoint(reading, snapshot).toStdString() << std::endl;
     });
     QObject::connect(&controller, &SweepController::notice, [](const QString &m) { std::cerr << "note: " << m.toStdString() << '\n'; });
-    QObject::connect(&controller, &SweepController::linkLost, [](const QString &m) { std::cerr << "PAUSED: " << m.toStdString() << '\n'; });
+    QObject::connect(&controller, &SweepController::linkLost,
+                     [&](const QString &m) { std::cerr << "PAUSED: " << m.toStdString() << giveUpNote << '\n'; });
     // Without a programmable load the restored step waits for Enter again (stepStarted says so):
     // the rheostat may have been moved while the meters were away.
     QObject::connect(&controller, &SweepController::linkRestored, [&](const QString &m) {
@@ -362,19 +389,32 @@ int runRun(const Arguments &rawArgs)
     QObject::connect(&controller, &SweepController::paused, [&](const QString &reason) {
         if (!controller.isManual() && reason.startsWith(QStringLiteral("link lost")))
             return; // waits for the link by itself
-        std::cerr << "PAUSED: " << reason.toStdString() << "\n";
         if (reason.startsWith(QStringLiteral("could not record"))) {
-            outcome = SweepOutcome::Failed; // a headless run cannot wait for someone to free the disk
-            app.quit();
+            std::cerr << "PAUSED: " << reason.toStdString() << '\n';
+            // A headless run cannot wait for someone to free the disk: it ends, load off.
+            controller.abandon(reason);
+            return;
         }
+        std::cerr << "PAUSED: " << reason.toStdString() << (waitForEnter ? " -- press Enter to resume" : "")
+                  << giveUpNote << '\n';
     });
     QObject::connect(&controller, &SweepController::safetyStop, [](const SafetyTrip &trip, const Reading &reading) {
         std::cerr << "SAFETY STOP at step " << reading.step << " (" << toString(trip.limit) << "): " << trip.message << '\n';
     });
+    // A programmable load is switched off at every end; leave only once it said so, or after
+    // its reply time. A load that never confirms is reported loudly below.
+    std::optional<std::pair<bool, QString>> loadOff;
+    QObject::connect(&controller, &SweepController::loadSwitchedOff, [&](bool ok, const QString &error) {
+        loadOff = {ok, error};
+        if (outcome)
+            app.quit();
+    });
     QObject::connect(&controller, &SweepController::finished, [&](SweepOutcome o) {
         outcome = o;
-        // Let the load's switch-off command go out before leaving.
-        QTimer::singleShot(args.sim ? 0 : 300, &app, &QCoreApplication::quit);
+        if (!controller.hasProgrammableLoad() || loadOff)
+            QTimer::singleShot(0, &app, &QCoreApplication::quit);
+        else
+            QTimer::singleShot(args.addresses.timeoutMs + 1000, &app, &QCoreApplication::quit);
     });
     std::unique_ptr<QSocketNotifier> interruptNotifier;
     if (::pipe(interruptPipe) == 0) {
@@ -403,6 +443,13 @@ int runRun(const Arguments &rawArgs)
     const SweepOutcome result = outcome.value_or(SweepOutcome::Failed);
     std::cerr << "sweep " << toString(result).toStdString() << "; " << controller.recordedCount() << " points recorded in "
               << args.outputPath << '\n';
+    if (controller.hasProgrammableLoad() && !(loadOff && loadOff->first))
+        std::cerr << "\n*** WARNING: the programmable load did not confirm it is switched off ("
+                  << (loadOff ? loadOff->second.toStdString() : std::string("no answer"))
+                  << "). SWITCH THE LOAD OFF BY HAND NOW. ***\n\n";
+    else if (!controller.hasProgrammableLoad() && result != SweepOutcome::Completed)
+        std::cerr << "\n*** The load is set by hand and is still connected: switch the supply off or open the load by "
+                     "hand now. ***\n\n";
 
     auto readings = store->includedReadings();
     if (readings.ok()) {
@@ -437,6 +484,7 @@ int runRun(const Arguments &rawArgs)
     switch (result) {
     case SweepOutcome::Completed: return exitSuccess;
     case SweepOutcome::SafetyStop: return exitSafetyStop;
+    case SweepOutcome::GaveUp: return exitGaveUp;
     default: return exitRuntimeFailure;
     }
 }

@@ -1,5 +1,5 @@
-// Helpers shared by the session commands (import, export, report): exit codes for store
-// failures and writing an output file or stdout ("-").
+// Helpers shared by the commands that read a session and write files (import, export, report,
+// compare): exit codes for store failures, which outputs may be written, and writing one.
 #pragma once
 
 #include "CliCommands.h"
@@ -7,6 +7,7 @@
 
 #include <optional>
 #include <string>
+#include <vector>
 
 namespace sagline::cli {
 
@@ -22,8 +23,15 @@ inline int exitCodeFor(StoreCode code)
     }
 }
 
-// Writes `text` to `path` through a temporary file and a rename, or to stdout for "-".
-// Returns "" or the reason it failed.
+// Checks every output before anything is written: none may be a session file (by content),
+// one of `inputs`, a folder or a device, or another output of the same call; an existing file
+// only with `force`. Prints the refusal ("sagline-cli COMMAND: PATH: ...") and returns 2, or
+// nothing when all may be written. Empty paths are skipped.
+std::optional<int> refuseOutputs(const std::string &command, const std::vector<std::string> &outputs,
+                                 const std::vector<std::string> &inputs, bool force);
+
+// Writes `text` to `path` atomically (core/AtomicFile), or to stdout for "-". Returns "" or
+// the reason it failed; nothing partial is left under `path`.
 std::string writeOutput(const std::string &path, const std::string &text);
 
 } // namespace sagline::cli

@@ -31,7 +31,8 @@ enum class LoadKind { Operator, Programmable };
 // By default the bench's voltmeter and ammeter only: the load is the operator's rheostat.
 class OperatorSweep {
 public:
-    explicit OperatorSweep(LoadKind load = LoadKind::Operator)
+    // `adjust` changes the sweep's options before the controller is made (give-up time, ...).
+    explicit OperatorSweep(LoadKind load = LoadKind::Operator, const std::function<void(SweepOptions &)> &adjust = {})
         : plan(planFor(demoSetup())), clock(QDateTime(QDate(2026, 12, 2), QTime(9, 0), Qt::UTC).toMSecsSinceEpoch())
     {
         const sagline::Setup setup = demoSetup();
@@ -61,6 +62,8 @@ public:
         EXPECT_TRUE(waitUntil([this] { return rig->isReady(); }));
         SweepOptions sweepOptions = sweepOptionsFor(setup, plan);
         sweepOptions.simulated = true;
+        if (adjust)
+            adjust(sweepOptions);
         controller = std::make_unique<SweepController>(plan, sweepOptions, rig.get(), &sink, &fit, &clock);
         QObject::connect(controller.get(), &SweepController::pointRecorded,
                          [this](const Reading &reading, const LiveFitSnapshot &) { recorded.push_back(reading); });
