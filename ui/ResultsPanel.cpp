@@ -178,6 +178,14 @@ void ResultsPanel::setVerdict(VerdictState state, const QString &text, const QSt
         symbol = QStringLiteral("– ");
         style = QStringLiteral("QLabel { border: 2px solid palette(mid); padding: 6px; }");
         break;
+    case VerdictState::Provisional:
+        symbol = QStringLiteral("… ");
+        style = QStringLiteral("QLabel { background: #999999; color: #1a1a1a; padding: 6px; }");
+        break;
+    case VerdictState::Incomplete:
+        symbol = QStringLiteral("◌ ");
+        style = QStringLiteral("QLabel { background: #e69f00; color: #1a1a1a; padding: 6px; }");
+        break;
     }
     m_verdict->setText(symbol + text);
     m_verdict->setStyleSheet(style);

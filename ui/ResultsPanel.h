@@ -17,7 +17,10 @@ class QPushButton;
 
 namespace sagline {
 
-enum class VerdictState { None, Pass, ConditionalPass, ConditionalFail, Fail, NotJudged };
+// The ILAC-G8 outcomes (ConditionalPass/Fail: within U of a limit; NotJudged: no limit stated),
+// and the completeness wrapper's: Provisional, the sweep is still running (k of N steps);
+// Incomplete, it ended before its last step. Neither of those shows a pass or a fail.
+enum class VerdictState { None, Pass, ConditionalPass, ConditionalFail, Fail, NotJudged, Provisional, Incomplete };
 VerdictState verdictStateOf(ConformityOutcome outcome);
 
 struct ResultLine {

@@ -199,6 +199,18 @@ void SetupForm::loadSetup(const Setup &setup)
     emit changed();
 }
 
+void SetupForm::clearSetup()
+{
+    for (auto *field : std::as_const(m_fields)) {
+        if (field->field().startsWith(QLatin1String("nameplate.")) || field->field().startsWith(QLatin1String("bench.")))
+            field->setText(QString());
+    }
+    for (auto *combo : {m_construction, m_material, m_fuseType})
+        combo->setCurrentIndex(0);
+    m_allowOverload->setChecked(false);
+    emit changed();
+}
+
 SessionDetails SetupForm::sessionDetails() const
 {
     return {m_operator->text().trimmed(), m_serial->text().trimmed(),

@@ -53,6 +53,9 @@ public:
     // out so core applies its documented defaults.
     QString setupJson() const;
     void loadSetup(const Setup &setup);
+    // Every nameplate and bench field blank (core's documented defaults apply), the choices
+    // at their first entry; emits changed().
+    void clearSetup();
     SessionDetails sessionDetails() const;
     VerdictSettings verdictSettings() const;
     void setSessionDetails(const SessionDetails &details);

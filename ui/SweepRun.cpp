@@ -71,7 +71,7 @@ std::optional<MeterSpecs> SweepRun::meterSpecsFor(const Setup &setup, const Plan
 }
 
 SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &plan, const SourceChoice &source,
-                   bool simulatedTime)
+                   bool simulatedTime, const SweepOptionsOverride &overrides)
     : m_fit(workspace)
 {
     if (simulatedTime) {
@@ -82,6 +82,9 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
         m_clock = std::make_unique<SystemClock>();
     }
     SweepOptions options = sweepOptionsFor(setup, plan);
+    options.resumed = overrides.resumed;
+    options.recordedSteps = overrides.recordedSteps;
+    options.firstStep = overrides.firstStep;
     QString error;
     RigAddresses addresses;
     switch (source.source) {
@@ -119,7 +122,8 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
             return;
         }
     }
-    const QString author = workspace->operatorName().isEmpty() ? QStringLiteral("sagline") : workspace->operatorName();
+    // Notes and the safety stop's exclusion carry the person at the keyboard (never the operator field).
+    const QString author = workspace->person().isEmpty() ? QStringLiteral("sagline") : workspace->person();
     m_sink = std::make_unique<SessionStoreSink>(workspace->store(), author);
     m_controller = std::make_unique<SweepController>(plan, options, m_rig.get(), m_sink.get(), &m_fit, m_clock.get());
     wireController(workspace);
@@ -135,6 +139,7 @@ void SweepRun::wireController(SweepWorkspace *workspace)
     connect(controller, &SweepController::pointRecorded, workspace,
             [workspace](const Reading &reading, const LiveFitSnapshot &) { workspace->acceptRecorded(reading); });
     connect(controller, &SweepController::safetyStop, workspace, [workspace](const SafetyTrip &trip, const Reading &reading) {
+        workspace->loadRecords(); // the stop and the tripping reading's exclusion, as recorded
         // The reading that tripped is kept in the session (the controller excluded it there).
         if (reading.id != 0) {
             Reading kept = reading;
@@ -154,6 +159,7 @@ void SweepRun::wireController(SweepWorkspace *workspace)
         if (m_virtualClock)
             m_virtualClock->setAutoAdvance(false);
         workspace->setNextStep(-1); // no next step: the prediction marker goes
+        workspace->loadRecords();   // how the sweep ended, as recorded
         emit workspace->notice(tr("Sweep ended: %1").arg(toString(outcome)));
         emit workspace->runningChanged(false);
     });
