@@ -41,13 +41,18 @@ SessionProgress sessionProgress(const std::vector<int> &plannedSteps, const std:
     SessionProgress progress;
     progress.plannedSteps = static_cast<int>(plannedSteps.size());
     std::set<int> recorded;
+    std::set<int> stopSteps;
+    for (const SafetyStopRecord &stop : safetyStops)
+        stopSteps.insert(stop.step);
     bool anyStep = false;
     for (const Reading &reading : readings) {
         if (reading.step >= 0)
             anyStep = true;
-        // A meter overload or a not-a-number is no reading of the step.
+        // A meter overload or a not-a-number is no reading of the step, and neither is the
+        // excluded reading that tripped a safety stop there.
         const bool hasValue = (reading.flags & (flagOverload | flagNotANumber)) == 0;
-        if (!reading.superseded && reading.step >= 0 && hasValue)
+        const bool tripped = reading.excluded && stopSteps.count(reading.step);
+        if (!reading.superseded && reading.step >= 0 && hasValue && !tripped)
             recorded.insert(reading.step);
     }
     progress.tracksSteps = anyStep || readings.empty();

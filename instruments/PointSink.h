@@ -44,6 +44,13 @@ public:
         Q_UNUSED(kind) Q_UNUSED(step) Q_UNUSED(detail)
         return {true, 0, {}};
     }
+    // A retake of a step: the new reading, and the earlier one marked superseded by it with the
+    // reason, in one commit. Sinks without that history record the reading alone.
+    virtual CommitResult commitRetake(const Reading &reading, std::int64_t supersededId, const QString &reason)
+    {
+        Q_UNUSED(supersededId) Q_UNUSED(reason)
+        return commitReading(reading);
+    }
 };
 
 } // namespace sagline

@@ -60,6 +60,11 @@ CommitResult SessionStoreSink::recordEvent(const QString &timeUtc, const QString
     return toCommit(m_store->addNote(m_author.toStdString(), (timeUtc + QStringLiteral(" ") + text).toStdString()));
 }
 
+CommitResult SessionStoreSink::commitRetake(const Reading &reading, std::int64_t supersededId, const QString &reason)
+{
+    return toCommit(m_store->appendRetake(reading, supersededId, reason.toStdString()));
+}
+
 CommitResult SessionStoreSink::recordSweepEvent(SweepEventKind kind, int step, const QString &detail)
 {
     return toCommit(m_store->recordSweepEvent(kind, step, detail.toStdString()));

@@ -20,6 +20,7 @@ public:
     CommitResult excludeReading(std::int64_t readingId, const QString &reason) override;
     CommitResult recordEvent(const QString &timeUtc, const QString &text) override;
     CommitResult recordSweepEvent(SweepEventKind kind, int step, const QString &detail) override;
+    CommitResult commitRetake(const Reading &reading, std::int64_t supersededId, const QString &reason) override;
 
 private:
     SessionStore *m_store;

@@ -70,6 +70,7 @@ SweepController::SweepController(const Plan &plan, const SweepOptions &options, 
             emit notice(message);
         });
     }
+    m_recordedSteps.insert(options.recordedSteps.begin(), options.recordedSteps.end());
     m_stepIndex = 0;
     for (int i = 0; i < static_cast<int>(m_plan.steps.size()); ++i) {
         if (m_plan.steps[i].index == options.firstStep)
@@ -211,6 +212,8 @@ void SweepController::beginStep()
     const int serial = ++m_readSerial;
     m_step = m_plan.steps[m_stepIndex].index;
     QString text = instruction(m_step);
+    if (m_retake)
+        text = tr("retake: %1").arg(text);
     if (m_loadInDoubt) {
         // A load never confirmed before the loss is simply set now; one that was confirmed may
         // have been moved while the meters were away, so the operator checks it again.
@@ -284,7 +287,8 @@ void SweepController::loadReady()
 bool SweepController::commitAndReport(Reading reading)
 {
     if (m_sink) {
-        const CommitResult result = m_sink->commitReading(reading);
+        const CommitResult result = m_retake ? m_sink->commitRetake(reading, m_retake->supersededId, m_retake->reason)
+                                             : m_sink->commitReading(reading);
         if (!result.ok) {
             m_uncommitted = reading;
             m_pauseReason = tr("could not record the point of step %1: %2. Every point recorded so far is kept; "
@@ -298,6 +302,8 @@ bool SweepController::commitAndReport(Reading reading)
         reading.id = result.id;
     }
     m_uncommitted.reset();
+    m_retake.reset();
+    m_recordedSteps.insert(reading.step);
     ++m_recorded;
     m_linkReturnsThisStep = 0;
     if (m_fit && !(reading.flags & (flagOverload | flagNotANumber)))
@@ -340,12 +346,19 @@ void SweepController::nextStep()
     m_confirmedBeforeLoss = false;
     m_pauseInDoubt = false;
     m_confirmedBeforePause = false;
-    if (m_stepIndex + 1 >= static_cast<int>(m_plan.steps.size())) {
+    // The first step still without a reading: the next one in a plain sweep, the interrupted
+    // one after a retake.
+    int next = -1;
+    for (int i = 0; i < static_cast<int>(m_plan.steps.size()) && next < 0; ++i) {
+        if (!m_recordedSteps.count(m_plan.steps[i].index))
+            next = i;
+    }
+    if (next < 0) {
         openLoad();
         finish(SweepOutcome::Completed);
         return;
     }
-    ++m_stepIndex;
+    m_stepIndex = next;
     m_step = m_plan.steps[m_stepIndex].index;
     if (m_state == SweepState::Paused)
         return; // resume() starts the new step
@@ -374,7 +387,40 @@ void SweepController::finish(SweepOutcome outcome)
     emit finished(outcome);
 }
 
-QString SweepController::submitManualReading(const QString &voltageText, const QString &currentText)
+QString SweepController::retake(int step, std::int64_t supersededId, const QString &reason)
+{
+    if (m_state == SweepState::Finished || m_state == SweepState::Stopped)
+        return tr("no sweep is running");
+    if (m_state == SweepState::Paused)
+        return tr("the sweep is paused: resume it first");
+    if (reason.trimmed().isEmpty())
+        return tr("retake: say why the step is taken again");
+    int index = -1;
+    for (int i = 0; i < static_cast<int>(m_plan.steps.size()); ++i) {
+        if (m_plan.steps[i].index == step)
+            index = i;
+    }
+    if (index < 0)
+        return tr("step %1 is not in the plan").arg(step);
+    m_retake = Retake{supersededId, reason.trimmed()};
+    m_stepIndex = index;
+    if (m_state == SweepState::Idle) {
+        m_step = step; // start() begins with it
+        return {};
+    }
+    cancelTimers();
+    ++m_readSerial;
+    event(tr("step %1 taken again: %2").arg(step).arg(reason.trimmed()));
+    m_loadConfirmed = false;
+    m_loadInDoubt = false;
+    m_confirmedBeforeLoss = false;
+    m_pauseInDoubt = false;
+    m_confirmedBeforePause = false;
+    beginStep();
+    return {};
+}
+
+QString SweepController::submitManualReading(const QString &voltageText, const QString &currentText, bool confirmed)
 {
     if (m_rig)
         return tr("this sweep reads its meters; typed-in readings are for sweeps without instruments");
@@ -391,6 +437,8 @@ QString SweepController::submitManualReading(const QString &voltageText, const Q
         return errors.join(QStringLiteral("; "));
     Reading reading = makeReading(current.value, voltage.value);
     reading.rawText = QStringLiteral("typed: V '%1'; I '%2'").arg(voltageText.trimmed(), currentText.trimmed()).toStdString();
+    if (confirmed)
+        reading.flags |= flagConfirmed;
     SafetyPoint point;
     point.currentA = current.value;
     point.voltageV = voltage.value;

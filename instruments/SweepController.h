@@ -34,6 +34,8 @@
 #include <map>
 #include <memory>
 #include <optional>
+#include <set>
+#include <vector>
 
 namespace sagline {
 
@@ -49,6 +51,7 @@ struct SweepOptions {
     SafetyLimits limits;                // usually safetyLimitsFor(plan)
     int firstStep = 0;                  // to continue an interrupted sweep
     bool resumed = false;               // continues a stopped or interrupted session: the first step's load is checked again
+    std::vector<int> recordedSteps;     // steps the session already holds (a resumed session): not taken again
     bool simulated = false;             // readings come from the virtual bench (flagged so)
     // A pause nobody resolves (a load or meter that stopped answering, no valid reading, a
     // link counted as lost) ends the sweep after this long, switching a programmable load off:
@@ -91,7 +94,14 @@ public:
     void confirmLoadSet();   // the operator has set the load for the current step
     // Manual entry: validated against the roles ("13,8 V", "145 mA"); returns the refusal, or
     // an empty string when the reading was taken (it is then checked, committed and reported).
-    QString submitManualReading(const QString &voltageText, const QString &currentText);
+    // `confirmed`: the person confirmed a value outside what the step expects (flagged so).
+    QString submitManualReading(const QString &voltageText, const QString &currentText, bool confirmed = false);
+    // Takes `step` again: the reading it records supersedes reading `supersededId` (kept in
+    // the session, marked superseded with `reason`), then the sweep goes on at the first step
+    // still without a reading. Before start() it makes the sweep begin with that step.
+    // Returns the refusal, or "" when the step starts.
+    QString retake(int step, std::int64_t supersededId, const QString &reason);
+    bool isRetaking() const { return m_retake.has_value(); }
     void pause();            // by the operator; the current step restarts on resume()
     void resume();           // after pause(), or to retry a failed commit
     void stop();             // by the operator: opens a programmable load, records the event
@@ -184,6 +194,12 @@ private:
     std::shared_ptr<void> m_readChain;                   // keeps the current read's continuation alive
     QString m_lastRaw;
     QString m_pauseReason;
+    struct Retake {
+        std::int64_t supersededId = 0;
+        QString reason;
+    };
+    std::optional<Retake> m_retake;   // the step being taken again, until its reading is committed
+    std::set<int> m_recordedSteps;    // plan steps with a reading: the sweep goes to the first without
     std::int64_t m_pausedAtMs = -1;   // clock time the current pause began, -1 when not paused
     int m_giveUpTimer = 0;            // pending give-up callback, 0 if none
     int m_linkReturnsThisStep = 0;    // restored links since the step's last recorded point

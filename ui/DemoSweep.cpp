@@ -77,6 +77,7 @@ DemoResult runTypedDemoSweep(MainWindow &window, int leaveOut, const QString &op
     const double v0 = plan->noLoadVoltageV * 1.004;
     const double r = plan->seriesResistanceOhm * 1.08;
     window.instrumentsPanel()->setChoice({ReadingSource::TypedIn, {}, {}});
+    window.setPerson(QStringLiteral("Demo person")); // who makes the changes: named by the demo, not asked
     // Through the window, as a person would: accept, then type each reading and record.
     window.planPanel()->acceptButton()->click();
     if (!workspace->isRunning()) {
@@ -120,6 +121,7 @@ DemoResult runVirtualBenchDemo(MainWindow &window, int pauseAfter)
     SweepWorkspace *workspace = window.workspace();
     workspace->setSimulatedTime(true);
     window.instrumentsPanel()->setChoice({ReadingSource::VirtualBench, {}, {}});
+    window.setPerson(QStringLiteral("Demo person")); // who makes the changes: named by the demo, not asked
     window.planPanel()->acceptButton()->click();
     if (!workspace->isRunning()) {
         result.message = window.lastMessage();

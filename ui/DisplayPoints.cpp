@@ -17,9 +17,26 @@ void DisplayPoints::add(std::int64_t id, double currentA, double voltageV, bool 
     if (!std::isfinite(currentA) || !std::isfinite(voltageV))
         return;
     m_arrivals.push_back(Entry{currentA, voltageV, id, excluded});
+    if (!excluded)
+        include(currentA, voltageV);
+}
+
+void DisplayPoints::include(double currentA, double voltageV)
+{
     m_maxCurrent = std::max(m_maxCurrent, currentA);
     m_minVoltage = std::min(m_minVoltage, voltageV);
     m_maxVoltage = std::max(m_maxVoltage, voltageV);
+}
+
+void DisplayPoints::recomputeExtremes()
+{
+    m_maxCurrent = -std::numeric_limits<double>::infinity();
+    m_minVoltage = std::numeric_limits<double>::infinity();
+    m_maxVoltage = -std::numeric_limits<double>::infinity();
+    for (const Entry &entry : m_sorted) {
+        if (!entry.excluded)
+            include(entry.current, entry.voltage);
+    }
 }
 
 bool DisplayPoints::setExcluded(std::int64_t id, bool excluded)
@@ -31,6 +48,7 @@ bool DisplayPoints::setExcluded(std::int64_t id, bool excluded)
         if (entry.excluded != excluded) {
             entry.excluded = excluded;
             split(); // rare (a person excluding a point): O(n) is fine
+            recomputeExtremes();
         }
         return true;
     }

@@ -12,6 +12,7 @@
 #include <QList>
 #include <QPointF>
 
+#include <cmath>
 #include <cstdint>
 #include <limits>
 #include <span>
@@ -38,10 +39,13 @@ public:
     // in arrival order. Valid until the next change.
     std::span<const PlotPoint> included() const;
     std::span<const PlotPoint> excluded() const;
-    // Kept as points arrive: a refresh must not walk 100 000 points to size an axis.
-    double maxCurrent() const { return size() ? m_maxCurrent : 0.0; }
-    double minVoltage() const { return m_minVoltage; } // +inf when empty
-    double maxVoltage() const { return m_maxVoltage; } // -inf when empty
+    // The extremes of the included points, which size the axes: an excluded or superseded point
+    // (417 A typed for 417 mA) never does. Kept as points arrive: a refresh must not walk
+    // 100 000 points to size an axis; an exclusion changed later recomputes them once.
+    bool hasIncluded() const { return std::isfinite(m_maxCurrent); }
+    double maxCurrent() const { return hasIncluded() ? m_maxCurrent : 0.0; }
+    double minVoltage() const { return m_minVoltage; } // +inf when none is included
+    double maxVoltage() const { return m_maxVoltage; } // -inf when none is included
 
 private:
     struct Entry {
@@ -51,6 +55,8 @@ private:
         bool excluded;
     };
     void settle() const; // sorts the arrivals into place and rebuilds the split arrays
+    void include(double currentA, double voltageV); // into the extremes
+    void recomputeExtremes();
     void split() const;
 
     // Sorting on read is a cache update, not a change of what the points are: hence mutable.

@@ -10,8 +10,10 @@
 #include "ReadingsTableModel.h"
 #include "ResidualChart.h"
 #include "ResultsPanel.h"
+#include "SessionBand.h"
 #include "SetupForm.h"
 #include "SweepRun.h"
+#include "VerdictCompleteness.h"
 #include "SweepWorkspace.h"
 #include "VoltageCurrentChart.h"
 
@@ -19,6 +21,8 @@
 #include <QApplication>
 #include <QComboBox>
 #include <QHeaderView>
+#include <QInputDialog>
+#include <QMessageBox>
 #include <QLabel>
 #include <QMenuBar>
 #include <QPushButton>
@@ -76,10 +80,20 @@ MainWindow::MainWindow(QWidget *parent)
       m_residuals(new ResidualChart(m_points)), m_results(new ResultsPanel), m_readingsModel(new ReadingsTableModel(this)),
       m_readingsView(new QTableView), m_mainSplitter(new QSplitter(Qt::Horizontal)),
       m_chartSplitter(new QSplitter(Qt::Vertical)), m_rightSplitter(new QSplitter(Qt::Vertical)),
-      m_statusSource(new QLabel), m_statusSession(new QLabel), m_statusPoints(new QLabel), m_recentMenu(nullptr)
+      m_statusSource(new QLabel), m_statusSession(new QLabel), m_statusPoints(new QLabel), m_recentMenu(nullptr),
+      m_band(new SessionBand)
 {
     setWindowTitle(tr("Sagline: transformer load test"));
     setAcceptDrops(true);
+    m_textPrompt = [this](const QString &title, const QString &label) -> std::optional<QString> {
+        bool ok = false;
+        const QString text = QInputDialog::getText(this, title, label, QLineEdit::Normal, QString(), &ok);
+        return ok ? std::optional<QString>(text) : std::nullopt;
+    };
+    m_confirmPrompt = [this](const QString &title, const QString &text) {
+        return QMessageBox::question(this, title, text, QMessageBox::Yes | QMessageBox::No, QMessageBox::No)
+               == QMessageBox::Yes;
+    };
     createLayout();
     createActions();
     wireWorkspace();
@@ -124,7 +138,8 @@ void MainWindow::createLayout()
     m_readingsView->setModel(m_readingsModel);
     m_readingsView->setSelectionBehavior(QAbstractItemView::SelectRows);
     m_readingsView->setSelectionMode(QAbstractItemView::SingleSelection);
-    m_readingsView->verticalHeader()->hide();
+    // Row headers are the readings' numbers, as the report, the export and sagline-cli count them.
+    m_readingsView->verticalHeader()->setSectionResizeMode(QHeaderView::Fixed);
     m_readingsView->verticalHeader()->setDefaultSectionSize(m_readingsView->fontMetrics().height() + 6);
     m_readingsView->horizontalHeader()->setStretchLastSection(true);
     sizeReadingsColumns(m_readingsView);
@@ -155,6 +170,7 @@ void MainWindow::createLayout()
     layout->setContentsMargins(6, 6, 6, 0);
     layout->addWidget(m_caution);
     layout->addWidget(m_nextStep);
+    layout->addWidget(m_band);
     layout->addWidget(m_mainSplitter, 1);
     setCentralWidget(central);
 
@@ -176,6 +192,10 @@ void MainWindow::wireWorkspace()
     });
     connect(m_workspace, &SweepWorkspace::planChanged, this, &MainWindow::handlePlanChanged);
     connect(m_planPanel, &PlanPanel::acceptRequested, this, &MainWindow::handleAccept);
+    connect(m_planPanel, &PlanPanel::safeStepsRequested, this, &MainWindow::useSafeSteps);
+    connect(m_planPanel, &PlanPanel::overrideRequested, this, &MainWindow::overrideLimits);
+    connect(m_band, &SessionBand::reopenRequested, this, &MainWindow::reopenSession);
+    connect(m_band, &SessionBand::resumeRequested, this, &MainWindow::resumeSession);
     connect(m_nextStep, &NextStepStrip::recordRequested, this, &MainWindow::handleRecord);
     connect(m_nextStep, &NextStepStrip::pauseRequested, m_workspace, &SweepWorkspace::pauseOrResume);
     connect(m_nextStep, &NextStepStrip::stopRequested, m_workspace, &SweepWorkspace::stop);
@@ -193,10 +213,13 @@ void MainWindow::wireWorkspace()
     connect(m_workspace, &SweepWorkspace::safetyStopped, this, &MainWindow::handleSafetyStop);
     connect(m_workspace, &SweepWorkspace::notice, this, [this](const QString &text) { showMessage(text); });
     connect(m_workspace, &SweepWorkspace::runningChanged, this, &MainWindow::handleRunningChanged);
-    connect(m_workspace, &SweepWorkspace::sessionChanged, this, [this] {
-        m_statusSession->setText(tr("Session: %1").arg(m_workspace->sessionPath()));
+    const auto showSessionFile = [this] {
+        m_statusSession->setText(m_workspace->store() ? tr("Session: %1").arg(m_workspace->sessionPath()) : QString());
         rebuildRecentMenu(); // a failed start removes the session file it had created
-    });
+    };
+    connect(m_workspace, &SweepWorkspace::sessionChanged, this, showSessionFile);
+    connect(m_workspace, &SweepWorkspace::sessionChanged, this, &MainWindow::showSession);
+    connect(m_workspace, &SweepWorkspace::sessionDiscarded, this, showSessionFile);
     connect(m_workspace, &SweepWorkspace::instrumentStatus, m_instruments, &InstrumentsPanel::setStatus);
     connect(m_workspace, &SweepWorkspace::instrumentStatus, this, [this](const QString &status) {
         // Always visible, whichever tab is open: "connected", "link lost at step 3", ...
@@ -235,14 +258,27 @@ void MainWindow::handlePlanChanged()
         m_chart->setLimits(chartLimits(*plan, m_workspace->setup()->nameplate.ratedPowerVa));
         m_residuals->setCurrentSpan(plan->steps.empty() ? 0.0 : plan->steps.back().currentA);
     }
+    const QString blocked = m_workspace->store() ? QString() : m_workspace->acceptRefusal();
+    m_planPanel->setAcceptBlocked(plan ? blocked : QString(), plan && !m_workspace->unsafeSteps().empty() && !m_workspace->store());
+    if (m_workspace->store())
+        m_planPanel->acceptButton()->setEnabled(false); // a session is open: its plan was accepted already
     if (!plan && !m_workspace->errors().empty())
         showMessage(QString::fromStdString(m_workspace->errors().front().message()), true);
+    else if (plan && !blocked.isEmpty())
+        showMessage(blocked, true);
     else if (plan)
         showMessage(tr("Plan ready: %1 steps.").arg(plan->steps.size()));
 }
 
 void MainWindow::handleAccept()
 {
+    if (const QString blocked = m_workspace->acceptRefusal(); !blocked.isEmpty()) {
+        showMessage(blocked, true);
+        m_leftTabs->setCurrentIndex(1);
+        return;
+    }
+    if (!ensurePerson())
+        return;
     const QString error = m_workspace->startSweep(m_setupForm->sessionDetails(), m_sessionFolder, m_instruments->choice());
     if (!error.isEmpty()) {
         showMessage(error, true);
@@ -279,7 +315,21 @@ void MainWindow::handleRecord()
     auto *voltage = m_nextStep->voltageField();
     current->setError(QString());
     voltage->setError(QString());
-    const QString refusal = m_workspace->submitTyped(current->text(), voltage->text());
+    TypedOutcome outcome = m_workspace->submitTyped(current->text(), voltage->text());
+    if (!outcome.question.isEmpty()) {
+        // A second look: the value and what the step expects, recorded only when confirmed.
+        const bool aboutCurrent = outcome.confirmField == current->field();
+        const QString question = tr("%1.\n\nRecord it as typed? It is then flagged \"confirmed\"; choose No to correct it.")
+                                     .arg(outcome.question.left(1).toUpper() + outcome.question.mid(1));
+        if (!m_confirmPrompt(tr("Check the typed value"), question)) {
+            (aboutCurrent ? current : voltage)->setError(outcome.question);
+            (aboutCurrent ? current : voltage)->lineEdit()->setFocus();
+            showMessage(tr("Not recorded: %1").arg(outcome.question), true);
+            return;
+        }
+        outcome = m_workspace->submitTyped(current->text(), voltage->text(), true);
+    }
+    const QString refusal = outcome.refusal;
     if (refusal.isEmpty()) {
         m_nextStep->clearEntry();
         return;
@@ -299,6 +349,7 @@ void MainWindow::showRecordedReadings(int first, int end)
     const auto from = static_cast<std::size_t>(first);
     const auto count = static_cast<std::size_t>(end - first);
     m_readingsModel->append(readings.subspan(from, count)); // one row insert for all of them
+    showReadingMarks(first, end);
     for (std::size_t row = from; row < from + count; ++row) {
         const Reading &reading = readings[row];
         m_points.add(static_cast<std::int64_t>(row), reading.currentA, reading.voltageV, reading.excluded);
@@ -312,9 +363,12 @@ void MainWindow::showRecordedReadings(int first, int end)
 void MainWindow::handleReadingChanged(int row)
 {
     const Reading &reading = m_workspace->readings()[static_cast<std::size_t>(row)];
-    m_readingsModel->setExcluded(row, reading.excluded, reading.excluded ? m_readingsModel->exclusionReason(row) : QString());
+    if (reading.superseded)
+        m_readingsModel->setSuperseded(row, m_workspace->supersededReason(reading.id));
+    else
+        m_readingsModel->setExcluded(row, reading.excluded, reading.excluded ? m_workspace->exclusionReason(reading.id) : QString());
     if (m_points.setExcluded(row, reading.excluded)) {
-        m_chart->pointsChanged();
+        m_chart->rescale(); // the axes fit the included points again, so they may shrink
         m_residuals->pointsChanged();
     }
     refreshFitViews();
@@ -324,8 +378,7 @@ void MainWindow::refreshFitViews()
 {
     m_resultsTimer.stop();
     const auto recorded = static_cast<int>(m_workspace->readings().size());
-    if (recorded > 0)
-        m_statusPoints->setText(tr("%n point(s) recorded", nullptr, recorded));
+    m_statusPoints->setText(m_workspace->store() ? tr("%n point(s) recorded", nullptr, recorded) : QString());
     const LineFit &fit = m_workspace->liveFit();
     m_chart->setFitOverlay(fitOverlay(fit, m_chart->gridCurrents(bandGridPoints), m_workspace->nextCurrentA()));
     const auto result = fit.result();
@@ -344,9 +397,12 @@ void MainWindow::refreshFitViews()
     inputs.plan = m_workspace->plan() ? &*m_workspace->plan() : nullptr;
     inputs.verdict = m_setupForm->verdictSettings();
     inputs.details = m_setupForm->sessionDetails();
-    const ResultsView view = resultsView(inputs);
+    ResultsView view = resultsView(inputs);
+    if (m_workspace->store())
+        applyCompleteness(view, m_workspace->progress()); // "provisional (k of N steps)" until complete
     m_results->setLines(view.lines);
     m_results->setVerdict(view.state, view.verdictText, view.verdictRule);
+    m_results->setBudgets(view.budgets);
 }
 
 void MainWindow::flushCharts()
@@ -386,16 +442,17 @@ void MainWindow::handleRunningChanged(bool running)
     if (!running) {
         m_planPanel->setAccepted(false);
         m_planPanel->acceptButton()->setEnabled(false);
-        const int points = static_cast<int>(m_workspace->readings().size());
-        if (m_workspace->store())
-            m_nextStep->setInstruction(tr("Sweep ended: %n point(s) recorded", nullptr, points),
-                                       tr("Every reading is in the session file; exclude, restore or annotate points "
-                                          "in the readings table, or start a new session (Ctrl+N)."));
-        else { // a start that failed left no session: correct the setup or the address, accept again
+        if (m_workspace->store()) {
+            showSessionState();
+            refreshFitViews(); // the verdict is no longer provisional
+        } else { // a start that failed left no session: correct the setup or the address, accept again
             m_setupForm->setLocked(false);
             m_instruments->setLocked(false);
-            m_planPanel->acceptButton()->setEnabled(m_workspace->plan().has_value());
+            m_planPanel->acceptButton()->setEnabled(m_workspace->acceptRefusal().isEmpty());
         }
+    } else if (m_workspace->store()) {
+        showSessionState();
+        refreshFitViews(); // provisional from now on
     }
 }
 
@@ -430,6 +487,7 @@ void MainWindow::resetViews()
     m_residuals->pointsCleared();
     m_results->setLines({});
     m_results->setVerdict(VerdictState::None, {}, {});
+    m_results->setBudgets({});
     m_caution->clearAlarm();
     m_statusPoints->clear();
 }

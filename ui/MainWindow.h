@@ -5,8 +5,13 @@
 #pragma once
 
 #include "DisplayPoints.h"
+#include "SweepWorkspace.h"
+#include "Setup.h"
 
 #include <QMainWindow>
+
+#include <functional>
+#include <optional>
 #include <QStringList>
 #include <QTimer>
 
@@ -26,10 +31,11 @@ class PlanPanel;
 class ReadingsTableModel;
 class ResidualChart;
 class ResultsPanel;
+class SessionBand;
 class SetupForm;
 class SweepWorkspace;
 class VoltageCurrentChart;
-struct Setup;
+
 
 class MainWindow : public QMainWindow {
     Q_OBJECT
@@ -38,6 +44,19 @@ public:
     ~MainWindow() override;
 
     void loadSetup(const Setup &setup);
+    // The setup File > New session starts from (the program's starting setup); without one,
+    // New starts from a blank form.
+    void setDefaultSetup(const Setup &setup);
+    // Asks for text (the person's name, a reason): nothing when cancelled. Replaceable so that
+    // tests answer instead of a person.
+    using TextPrompt = std::function<std::optional<QString>(const QString &title, const QString &label)>;
+    void setTextPrompt(TextPrompt prompt) { m_textPrompt = std::move(prompt); }
+    // Asks yes or no (a typed value far from what the step expects). Replaceable for tests.
+    using ConfirmPrompt = std::function<bool(const QString &title, const QString &text)>;
+    void setConfirmPrompt(ConfirmPrompt prompt) { m_confirmPrompt = std::move(prompt); }
+    // The person making changes in this session, when known beforehand (a demo); otherwise
+    // the window asks once per session, at the first change.
+    void setPerson(const QString &person);
     // Where new session files go (default: the user's documents folder, "Sagline sessions").
     void setSessionFolder(const QString &folder);
     bool openSessionFile(const QString &path);
@@ -56,6 +75,8 @@ public:
     ResidualChart *residualChart() const { return m_residuals; }
     ResultsPanel *results() const { return m_results; }
     CautionStrip *caution() const { return m_caution; }
+    SessionBand *sessionBand() const { return m_band; }
+    QString pointsStatusText() const; // the status bar's "N point(s) recorded"
     ReadingsTableModel *readingsModel() const { return m_readingsModel; }
     QTableView *readingsView() const { return m_readingsView; }
     QString lastMessage() const { return m_lastMessage; }
@@ -92,7 +113,22 @@ private:
     void excludeSelected();
     void restoreSelected();
     void addNote();
+    void retakeSelected();
     void resetViews();
+
+    // The one place a session reaches the views: every field, label and chart is set from the
+    // workspace's session (its file) or, with none open, from the defaults.
+    void showSession();
+    // The parts that change while a session is open: the band, the header, Accept, the verdict.
+    void showSessionState();
+    void showReadingMarks(int first, int end); // exclusion and retake reasons on table rows
+    bool ensurePerson();                        // asks once per session; false when cancelled
+    std::optional<QString> askReason(const QString &title, const QString &label);
+    void reopenSession();
+    void resumeSession();
+    void useSafeSteps();
+    void overrideLimits();
+    void newSessionFromSetupFile();
 
     void newSession();
     void openSessionDialog();
@@ -131,6 +167,11 @@ private:
     QTimer m_settingsTimer; // stores the verdict settings once typing pauses, not per keystroke
     QTimer m_waitingTimer;  // while the sweep is paused: how long it has waited, every second
     bool m_resultsPending = false;
+    SessionBand *m_band;
+    SourceChoice m_defaultChoice; // the instruments a new session starts with (the saved preference)
+    std::optional<Setup> m_defaultSetup;
+    TextPrompt m_textPrompt;
+    ConfirmPrompt m_confirmPrompt;
 };
 
 } // namespace sagline

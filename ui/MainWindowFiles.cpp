@@ -36,6 +36,7 @@ void MainWindow::createActions()
 {
     QMenu *file = menuBar()->addMenu(tr("&File"));
     file->addAction(tr("&New session"), QKeySequence::New, this, &MainWindow::newSession);
+    file->addAction(tr("New session from a setup &file…"), this, &MainWindow::newSessionFromSetupFile);
     file->addAction(tr("&Open session…"), QKeySequence::Open, this, &MainWindow::openSessionDialog);
     m_recentMenu = file->addMenu(tr("Open &recent"));
     // Files deleted or moved since the list was built (by hand, or a failed start that removed
@@ -63,7 +64,9 @@ void MainWindow::createActions()
                                         &MainWindow::restoreSelected);
     auto *note = readings->addAction(tr("Add a &note…"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_N), this,
                                      &MainWindow::addNote);
-    m_readingsView->addActions({exclude, restore, note});
+    auto *retake = readings->addAction(tr("Re&take the selected point's step…"), QKeySequence(Qt::CTRL | Qt::Key_R), this,
+                                       &MainWindow::retakeSelected);
+    m_readingsView->addActions({exclude, restore, note, retake});
 
     QMenu *view = menuBar()->addMenu(tr("&View"));
     view->addAction(tr("&Setup"), QKeySequence(Qt::ALT | Qt::Key_1), this, [this] { m_leftTabs->setCurrentIndex(0); });
@@ -92,6 +95,7 @@ void MainWindow::readSettings()
     choice.lanAddress = settings.value(QStringLiteral("instruments/lanAddress")).toString();
     choice.ammeterAddress = settings.value(QStringLiteral("instruments/ammeterAddress")).toString();
     m_instruments->setChoice(choice);
+    m_defaultChoice = choice;
     SessionDetails details;
     details.operatorName = settings.value(QStringLiteral("session/operator")).toString();
     m_setupForm->setSessionDetails(details);
@@ -147,13 +151,7 @@ void MainWindow::newSession()
         return;
     if (m_workspace->isRunning())
         m_workspace->stop();
-    m_workspace->openSession(QString());
-    resetViews();
-    m_setupForm->setLocked(false);
-    m_instruments->setLocked(false);
-    m_planPanel->setAccepted(false);
-    m_statusSession->clear();
-    handleSetupChanged();
+    m_workspace->openSession(QString()); // closes the session; showSession() sets the defaults
 }
 
 void MainWindow::openSessionDialog()
@@ -167,23 +165,14 @@ bool MainWindow::openSessionFile(const QString &path)
 {
     if (m_workspace->isRunning())
         m_workspace->stop();
-    resetViews();
+    // The workspace reads the whole session from the file; showSession() (on sessionChanged)
+    // puts it in every view. A file that does not open leaves an empty window, not the last one.
     const QString error = m_workspace->openSession(path);
     if (!error.isEmpty()) {
         showMessage(tr("Cannot open %1: %2").arg(path, error), true);
         rebuildRecentMenu(); // a file that is gone leaves the list
         return false;
     }
-    if (m_workspace->setup())
-        m_setupForm->loadSetup(*m_workspace->setup());
-    m_settingsTimer.stop(); // edits meant for the session closed above are not written into this one
-    if (const auto &recorded = m_workspace->recordedAnalysisSettings())
-        m_setupForm->setVerdictSettings(verdictSettingsFrom(*recorded)); // judge as it was judged at the bench
-    m_setupForm->setLocked(true);
-    m_instruments->setLocked(true);
-    showRecordedReadings(0, static_cast<int>(m_workspace->readings().size()));
-    refreshFitViews();
-    flushCharts(); // the first frame painted after opening shows the session's points
     rememberRecent(path);
     const QString readOnly = m_workspace->readOnlyReason();
     showMessage(readOnly.isEmpty() ? tr("Opened %1").arg(path) : tr("Opened %1 for review only. %2").arg(path, readOnly));
@@ -233,16 +222,16 @@ void MainWindow::excludeSelected()
         showMessage(tr("Select a reading in the table first."), true);
         return;
     }
-    bool ok = false;
-    const QString reason = QInputDialog::getText(this, tr("Exclude point"), tr("Reason (kept with the session):"),
-                                                 QLineEdit::Normal, QString(), &ok);
-    if (!ok)
+    if (!ensurePerson())
         return;
-    const QString error = m_workspace->exclude(rows.front().row(), reason);
+    const auto reason = askReason(tr("Exclude point"), tr("Reason (kept with the session):"));
+    if (!reason)
+        return;
+    const QString error = m_workspace->exclude(rows.front().row(), *reason);
     if (!error.isEmpty())
         showMessage(error, true);
     else
-        m_readingsModel->setExcluded(rows.front().row(), true, reason);
+        m_readingsModel->setExcluded(rows.front().row(), true, reason->trimmed());
 }
 
 void MainWindow::restoreSelected()
@@ -252,23 +241,24 @@ void MainWindow::restoreSelected()
         showMessage(tr("Select a reading in the table first."), true);
         return;
     }
-    bool ok = false;
-    const QString reason = QInputDialog::getText(this, tr("Restore point"), tr("Reason (kept with the session):"),
-                                                 QLineEdit::Normal, QString(), &ok);
-    if (!ok)
+    if (!ensurePerson())
         return;
-    const QString error = m_workspace->restore(rows.front().row(), reason);
+    const auto reason = askReason(tr("Restore point"), tr("Reason (kept with the session):"));
+    if (!reason)
+        return;
+    const QString error = m_workspace->restore(rows.front().row(), *reason);
     if (!error.isEmpty())
         showMessage(error, true);
 }
 
 void MainWindow::addNote()
 {
-    bool ok = false;
-    const QString text = QInputDialog::getMultiLineText(this, tr("Add a note"), tr("Note (kept with the session):"),
-                                                        QString(), &ok);
-    if (!ok || text.trimmed().isEmpty())
+    if (!ensurePerson())
         return;
+    const auto note = askReason(tr("Add a note"), tr("Note (kept with the session):"));
+    if (!note || note->trimmed().isEmpty())
+        return;
+    const QString text = note->trimmed();
     const QString error = m_workspace->addNote(text);
     showMessage(error.isEmpty() ? tr("Note recorded.") : error, !error.isEmpty());
     const auto rows = m_readingsView->selectionModel()->selectedRows();

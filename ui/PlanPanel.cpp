@@ -3,6 +3,7 @@
 #include "PlanTableModel.h"
 #include "UiFormat.h"
 
+#include <QHBoxLayout>
 #include <QHeaderView>
 #include <QLabel>
 #include <QPushButton>
@@ -26,7 +27,9 @@ QString row(const QString &name, const QString &value, const QString &note = {})
 
 PlanPanel::PlanPanel(QWidget *parent)
     : QWidget(parent), m_summary(new QLabel), m_warnings(new QLabel), m_table(new QTableView),
-      m_model(new PlanTableModel(this)), m_accept(new QPushButton(tr("Accept plan and start the sweep")))
+      m_model(new PlanTableModel(this)), m_accept(new QPushButton(tr("Accept plan and start the sweep"))),
+      m_blocked(new QLabel), m_safeSteps(new QPushButton(tr("Use only the safe steps"))),
+      m_override(new QPushButton(tr("Override the limits…")))
 {
     auto *layout = new QVBoxLayout(this);
     m_summary->setTextFormat(Qt::RichText);
@@ -45,15 +48,31 @@ PlanPanel::PlanPanel(QWidget *parent)
     layout->addWidget(m_summary);
     layout->addWidget(m_warnings);
     layout->addWidget(m_table, 1);
+    m_blocked->setWordWrap(true);
+    m_blocked->setStyleSheet(QStringLiteral("QLabel { color: #b35000; font-weight: bold; }"));
+    m_blocked->hide();
+    auto *gate = new QHBoxLayout;
+    gate->addWidget(m_safeSteps);
+    gate->addWidget(m_override);
+    gate->addStretch(1);
+    m_safeSteps->hide();
+    m_override->hide();
+    m_safeSteps->setToolTip(tr("Plan only the steps the rheostat and the fuse can take (recorded in the session)"));
+    m_override->setToolTip(tr("Run every step anyway: your name and your reason are recorded; the hard stops still apply"));
+    layout->addWidget(m_blocked);
+    layout->addLayout(gate);
     layout->addWidget(m_accept);
     connect(m_accept, &QPushButton::clicked, this, &PlanPanel::acceptRequested);
+    connect(m_safeSteps, &QPushButton::clicked, this, &PlanPanel::safeStepsRequested);
+    connect(m_override, &QPushButton::clicked, this, &PlanPanel::overrideRequested);
     setPlan(std::nullopt);
 }
 
 void PlanPanel::setPlan(const std::optional<Plan> &plan)
 {
     m_model->setPlan(plan);
-    m_accept->setEnabled(plan.has_value());
+    m_hasPlan = plan.has_value();
+    m_accept->setEnabled(m_hasPlan && !m_isBlocked);
     if (!plan) {
         m_summary->setText(tr("<i>No plan yet: complete the nameplate; the rule each field breaks is shown under it.</i>"));
         m_warnings->hide();
@@ -95,6 +114,19 @@ void PlanPanel::setPlan(const std::optional<Plan> &plan)
     m_warnings->setText(warnings.join(QLatin1Char('\n')));
     m_warnings->setVisible(!warnings.isEmpty());
 }
+
+void PlanPanel::setAcceptBlocked(const QString &reason, bool unsafeSteps)
+{
+    m_isBlocked = !reason.isEmpty();
+    m_blocked->setText(reason);
+    m_blocked->setVisible(m_isBlocked);
+    m_accept->setToolTip(reason);
+    m_safeSteps->setVisible(unsafeSteps);
+    m_override->setVisible(unsafeSteps);
+    m_accept->setEnabled(m_hasPlan && !m_isBlocked);
+}
+
+QString PlanPanel::acceptBlockedReason() const { return m_isBlocked ? m_blocked->text() : QString(); }
 
 void PlanPanel::setAccepted(bool accepted)
 {

@@ -20,12 +20,20 @@ public:
     explicit PlanPanel(QWidget *parent = nullptr);
     void setPlan(const std::optional<Plan> &plan);
     void setAccepted(bool accepted);
+    // Keeps Accept disabled with the reason shown beside it ("" lifts the block). With
+    // `unsafeSteps`, offers to use only the safe steps or to override with a reason.
+    void setAcceptBlocked(const QString &reason, bool unsafeSteps);
+    QString acceptBlockedReason() const;
     QPushButton *acceptButton() const { return m_accept; }
+    QPushButton *safeStepsButton() const { return m_safeSteps; }
+    QPushButton *overrideButton() const { return m_override; }
     QTableView *table() const { return m_table; }
     QString summaryText() const;
 
 signals:
     void acceptRequested();
+    void safeStepsRequested();
+    void overrideRequested();
 
 private:
     QLabel *m_summary;
@@ -33,6 +41,11 @@ private:
     QTableView *m_table;
     PlanTableModel *m_model;
     QPushButton *m_accept;
+    QLabel *m_blocked;
+    QPushButton *m_safeSteps;
+    QPushButton *m_override;
+    bool m_isBlocked = false;
+    bool m_hasPlan = false;
 };
 
 } // namespace sagline

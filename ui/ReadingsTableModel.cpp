@@ -60,6 +60,17 @@ void ReadingsTableModel::setExcluded(int row, bool excluded, const QString &reas
     emit dataChanged(index(row, 0), index(row, ColumnCount - 1));
 }
 
+void ReadingsTableModel::setSuperseded(int row, const QString &reason)
+{
+    if (row < 0 || row >= rowCount())
+        return;
+    auto &r = m_rows[static_cast<std::size_t>(row)];
+    r.reading.excluded = true;
+    r.reading.superseded = true;
+    r.reason = reason;
+    emit dataChanged(index(row, 0), index(row, ColumnCount - 1));
+}
+
 void ReadingsTableModel::setNote(int row, const QString &note)
 {
     if (row < 0 || row >= rowCount())
@@ -120,7 +131,10 @@ QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
             return flags;
         return flags.isEmpty() ? tr("▲ outlier") : tr("▲ outlier, %1").arg(flags);
     }
-    case Excluded: return r.excluded ? tr("excluded: %1").arg(row.reason) : QString();
+    case Excluded:
+        if (r.superseded)
+            return tr("superseded: %1").arg(row.reason); // a retake of its step replaced it
+        return r.excluded ? tr("excluded: %1").arg(row.reason) : QString();
     case Note: return row.note;
     }
     return {};
@@ -128,6 +142,8 @@ QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
 
 QVariant ReadingsTableModel::headerData(int section, Qt::Orientation orientation, int role) const
 {
+    if (orientation == Qt::Vertical && role == Qt::DisplayRole)
+        return section + 1; // the reading's number, as the report, the export and sagline-cli use it
     if (orientation != Qt::Horizontal || role != Qt::DisplayRole)
         return QAbstractTableModel::headerData(section, orientation, role);
     switch (section) {

@@ -29,6 +29,8 @@ public:
     // reading behind "Outliers flagged" in the results can be found and judged.
     void setOutliers(const std::vector<std::size_t> &rows);
     void setExcluded(int row, bool excluded, const QString &reason);
+    // A retake replaced this row's reading: it shows as superseded, with the retake's reason.
+    void setSuperseded(int row, const QString &reason);
     void setNote(int row, const QString &note);
     const Reading &reading(int row) const { return m_rows[static_cast<std::size_t>(row)].reading; }
     QString exclusionReason(int row) const { return m_rows[static_cast<std::size_t>(row)].reason; }

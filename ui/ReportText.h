@@ -22,11 +22,12 @@ QString q(const std::string &text);
 // session holds: a 15 MB note is not laid out page after page.
 QString shortened(const std::string &text, int maxCharacters);
 
-// "0.4797 Ω ± 0.0057 Ω (k = 2)" or the value alone when there is no uncertainty.
+// "0.4797 Ω ± 0.0057 Ω, U (k = 2.08, 95 %)" or the value alone when there is no uncertainty.
 inline QString withU(const UncertainValue &value, const std::string &unit)
 {
     if (value.expandedUncertainty)
-        return q(formatWithUncertainty(value.value, *value.expandedUncertainty, unit));
+        return q(formatWithUncertainty(value.value, *value.expandedUncertainty, unit) + ", "
+                 + expandedUncertaintyLabel(value));
     return q(formatQuantity(value.value, unit));
 }
 

@@ -141,11 +141,11 @@ void ResidualChart::flushNow()
         included = residualsOf(m_points.included());
         excluded = residualsOf(m_points.excluded());
     }
+    // Included points only size the axis: an excluded or superseded point far off (a slip of
+    // the decimal point) would flatten every other residual into the zero line.
     double largest = 2.0 * m_residualSdV * millivoltsPerVolt;
-    for (const auto *set : {&included, &excluded}) {
-        for (const auto &p : *set)
-            largest = std::max(largest, std::abs(p.y));
-    }
+    for (const auto &p : included)
+        largest = std::max(largest, std::abs(p.y));
     if (!(largest > 0.0))
         largest = 1.0;
     // The residual axis is symmetric about zero and rescales both ways: residuals shrink as
@@ -173,6 +173,8 @@ void ResidualChart::flushNow()
         m_lowerGuide->clear();
     }
 }
+
+std::pair<double, double> ResidualChart::residualAxisRange() const { return {m_y.low, m_y.high}; }
 
 int ResidualChart::drawnIncludedCount() const { return static_cast<int>(m_included->count()); }
 

@@ -38,6 +38,7 @@ public:
     void applyColours(bool dark);
     void flushNow();
     int drawnIncludedCount() const;
+    std::pair<double, double> residualAxisRange() const; // as drawn after the last flush, mV
 
 private:
     void scheduleFlush();

@@ -44,8 +44,34 @@ std::optional<PredictionBand> WorkspaceLiveFit::predict(double currentA, double 
     return PredictionBand{p.value, p.prediction->low, p.prediction->high};
 }
 
+std::optional<MeterSpecs> SweepRun::meterSpecsFor(const Setup &setup, const Plan &plan, const SourceChoice &source)
+{
+    RoleConfig voltmeter = defaultRoleConfig(MeterRole::SecondaryVoltage);
+    RoleConfig ammeter = defaultRoleConfig(MeterRole::SecondaryCurrent);
+    switch (source.source) {
+    case ReadingSource::TypedIn:
+        return std::nullopt;
+    case ReadingSource::VirtualBench: {
+        // As makeVirtualBenchRig configures the bench's meters.
+        const VirtualBenchOptions bench = virtualBenchOptionsFor(setup, plan, virtualBenchSeed);
+        voltmeter.accuracy = bench.voltmeter.accuracy;
+        voltmeter.resolution = bench.voltmeter.resolution;
+        ammeter.accuracy = bench.ammeter.accuracy;
+        ammeter.resolution = bench.ammeter.resolution;
+        break;
+    }
+    case ReadingSource::SerialPort:
+    case ReadingSource::Lan:
+        break; // makeRig gives every SCPI role its defaultRoleConfig
+    }
+    MeterSpecs specs = meterSpecsOf(voltmeter, ammeter);
+    if (setup.meters)
+        specs.windingTemperatureUncertaintyC = setup.meters->windingTemperatureUncertaintyC;
+    return specs;
+}
+
 SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &plan, const SourceChoice &source,
-                   bool simulatedTime)
+                   bool simulatedTime, const SweepOptionsOverride &overrides)
     : m_fit(workspace)
 {
     if (simulatedTime) {
@@ -56,6 +82,9 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
         m_clock = std::make_unique<SystemClock>();
     }
     SweepOptions options = sweepOptionsFor(setup, plan);
+    options.resumed = overrides.resumed;
+    options.recordedSteps = overrides.recordedSteps;
+    options.firstStep = overrides.firstStep;
     QString error;
     RigAddresses addresses;
     switch (source.source) {
@@ -93,7 +122,8 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
             return;
         }
     }
-    const QString author = workspace->operatorName().isEmpty() ? QStringLiteral("sagline") : workspace->operatorName();
+    // Notes and the safety stop's exclusion carry the person at the keyboard (never the operator field).
+    const QString author = workspace->person().isEmpty() ? QStringLiteral("sagline") : workspace->person();
     m_sink = std::make_unique<SessionStoreSink>(workspace->store(), author);
     m_controller = std::make_unique<SweepController>(plan, options, m_rig.get(), m_sink.get(), &m_fit, m_clock.get());
     wireController(workspace);
@@ -109,6 +139,7 @@ void SweepRun::wireController(SweepWorkspace *workspace)
     connect(controller, &SweepController::pointRecorded, workspace,
             [workspace](const Reading &reading, const LiveFitSnapshot &) { workspace->acceptRecorded(reading); });
     connect(controller, &SweepController::safetyStop, workspace, [workspace](const SafetyTrip &trip, const Reading &reading) {
+        workspace->loadRecords(); // the stop and the tripping reading's exclusion, as recorded
         // The reading that tripped is kept in the session (the controller excluded it there).
         if (reading.id != 0) {
             Reading kept = reading;
@@ -128,6 +159,7 @@ void SweepRun::wireController(SweepWorkspace *workspace)
         if (m_virtualClock)
             m_virtualClock->setAutoAdvance(false);
         workspace->setNextStep(-1); // no next step: the prediction marker goes
+        workspace->loadRecords();   // how the sweep ended, as recorded
         emit workspace->notice(tr("Sweep ended: %1").arg(toString(outcome)));
         emit workspace->runningChanged(false);
     });

@@ -19,6 +19,7 @@ class SweepWorkspace;
 class VirtualBench;
 class VirtualClock;
 struct SourceChoice;
+struct SweepOptionsOverride;
 
 // The controller's view of the fit: it reads the workspace's LineFit (which the workspace
 // feeds with every recorded, non-excluded point), so exclusions show in its predictions too.
@@ -39,7 +40,12 @@ public:
     // Builds the instruments for `source`; errorString() says why when it cannot.
     // `simulatedTime`: the virtual bench runs on a clock that jumps ahead (tests, demos).
     SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &plan, const SourceChoice &source,
-             bool simulatedTime);
+             bool simulatedTime,
+             const SweepOptionsOverride &overrides);
+    // The secondary meters' accuracy rules the run's instruments will have, as the setup's
+    // `meters` section (the virtual bench's meters, or the SCPI roles' defaults); nothing for
+    // readings typed in (the setup's own section stands). Known before the session is made.
+    static std::optional<MeterSpecs> meterSpecsFor(const Setup &setup, const Plan &plan, const SourceChoice &source);
     ~SweepRun() override;
     QString errorString() const { return m_error; }
     void start();                        // connects the instruments first, if any

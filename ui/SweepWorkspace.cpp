@@ -3,8 +3,10 @@
 #include "BuildInfo.h"
 #include "ManualEntry.h"
 #include "PlanJson.h"
+#include "SessionChanges.h"
 #include "SessionSchema.h"
 #include "SessionStore.h"
+#include "TypedReadingCheck.h"
 #include "SetupJson.h"
 #include "SweepRun.h"
 #include "TypedValue.h"
@@ -43,6 +45,7 @@ SweepWorkspace::~SweepWorkspace() = default;
 
 void SweepWorkspace::setSetupJson(const QString &json)
 {
+    m_limitChoice = {}; // a truncation or an override was for the plan it was chosen for
     m_errors.clear();
     m_plan.reset();
     auto parsed = parseSetupJson(json.toStdString());
@@ -59,12 +62,14 @@ void SweepWorkspace::setSetupJson(const QString &json)
 
 QString SweepWorkspace::startSweep(const SessionDetails &details, const QString &sessionFolder, const SourceChoice &source)
 {
-    if (!m_setup || !m_plan)
-        return tr("plan: complete the setup first; the rule each field breaks is shown under it");
+    if (const QString refusal = acceptRefusal(); !refusal.isEmpty())
+        return refusal;
     if (isRunning())
         return tr("sweep: one is already running");
     if (m_store && !m_readings.empty())
         return tr("session: this session already holds readings; start a new session (File, New session)");
+    if (const std::string error = personError(m_person.toStdString()); !error.empty())
+        return QString::fromStdString(error);
     QString error;
     const auto ambient = typedQuantity(details.ambientTemperature, Unit::Celsius, QStringLiteral("session.ambient_temperature_c"), &error);
     const auto winding = typedQuantity(details.windingTemperature, Unit::Celsius, QStringLiteral("session.winding_temperature_c"), &error);
@@ -77,25 +82,42 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
     const QString stamp = QDateTime::currentDateTimeUtc().toString(QStringLiteral("yyyyMMdd-HHmmss-zzz"));
     const QString path = QDir(sessionFolder).filePath((serial.isEmpty() ? QStringLiteral("unit") : serial)
                                                       + QLatin1Char('-') + stamp + QStringLiteral(".sagline"));
+    // A plan cut to its safe steps is the plan of this session.
+    const Plan plan = m_limitChoice.kind == LimitChoice::Truncate ? truncatedToSafe(*m_plan) : *m_plan;
+    // Meters connected: their own accuracy rules are the session's meters (core/FitBudget.h).
+    Setup recorded = *m_setup;
+    if (auto specs = SweepRun::meterSpecsFor(*m_setup, plan, source))
+        recorded.meters = specs;
     NewSession session;
-    session.setupJson = setupToJson(*m_setup);
-    session.planJson = planToJson(*m_plan);
+    session.setupJson = setupToJson(recorded);
+    session.planJson = planToJson(plan);
     session.operatorName = details.operatorName.toStdString();
     session.unitSerial = details.unitSerial.toStdString();
     session.ambientTemperatureC = ambient;
     session.windingTemperatureC = winding;
     session.softwareVersion = std::string("sagline ") + buildinfo::version;
+    session.createdBy = {m_person.toStdString(), ""};
     auto created = SessionStore::create(path.toStdString(), session);
     if (!created.ok())
         return QString::fromStdString(created.message);
     m_run.reset();
     m_store = std::move(created.value);
+    m_setup = recorded; // the results panel judges with the meters recorded, as the report will
     m_recordedSettings.reset();
     m_details = details;
-    m_source = source;
     resetReadings();
+    recordGateChoice();
+    m_plan = plan;
+    m_records = {};
+    loadRecords();
     emit sessionChanged();
-    auto run = std::make_unique<SweepRun>(this, *m_setup, *m_plan, source, m_simulatedTime);
+    return startRun(source, {});
+}
+
+QString SweepWorkspace::startRun(const SourceChoice &source, const SweepOptionsOverride &overrides)
+{
+    m_source = source;
+    auto run = std::make_unique<SweepRun>(this, *m_setup, *m_plan, source, m_simulatedTime, overrides);
     if (const QString refused = run->errorString(); !refused.isEmpty()) {
         run.reset();
         discardUnusedSession();
@@ -123,19 +145,64 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
     return {};
 }
 
-QString SweepWorkspace::submitTyped(const QString &currentText, const QString &voltageText)
+TypedOutcome SweepWorkspace::submitTyped(const QString &currentText, const QString &voltageText, bool confirmed)
 {
-    if (!m_run || !m_run->controller())
-        return tr("reading: no sweep is running; accept the plan first");
+    TypedOutcome outcome;
+    if (!m_run || !m_run->controller()) {
+        outcome.refusal = tr("reading: no sweep is running; accept the plan first");
+        return outcome;
+    }
     // Checked per field first so each refusal lands under its own field.
     const ManualValue current = parseManualValue(MeterRole::SecondaryCurrent, currentText);
-    if (!current.ok)
-        return QStringLiteral("reading.current_a: ") + current.error;
+    if (!current.ok) {
+        outcome.refusal = QStringLiteral("reading.current_a: ") + current.error;
+        return outcome;
+    }
     const ManualValue voltage = parseManualValue(MeterRole::SecondaryVoltage, voltageText);
-    if (!voltage.ok)
-        return QStringLiteral("reading.voltage_v: ") + voltage.error;
-    const QString refusal = m_run->controller()->submitManualReading(voltageText, currentText);
-    return refusal.isEmpty() ? QString() : QStringLiteral("reading: ") + refusal;
+    if (!voltage.ok) {
+        outcome.refusal = QStringLiteral("reading.voltage_v: ") + voltage.error;
+        return outcome;
+    }
+    SweepController *controller = m_run->controller();
+    std::string confirmedWhat;
+    if (controller->state() == SweepState::WaitingForEntry) {
+        // A second look before anything is recorded (core/TypedReadingCheck).
+        const int step = controller->currentStep();
+        TypedExpectation expected;
+        expected.step = step;
+        expected.ratedCurrentA = m_plan ? m_plan->ratedSecondaryCurrentA : 0.0;
+        for (const PlanStep &planned : controller->plan().steps) {
+            if (planned.index == step) {
+                expected.currentA = planned.currentA;
+                expected.predictedVoltageV = planned.predictedVoltageV;
+            }
+        }
+        constexpr std::size_t minPointsForInterval = 4; // as the controller's own prediction check
+        if (m_fit.count() >= minPointsForInterval) {
+            const LinePrediction prediction = m_fit.predict(current.value, 0.99);
+            if (prediction.prediction)
+                expected.voltageInterval = std::pair{prediction.prediction->low, prediction.prediction->high};
+        }
+        const TypedCheck check = checkTypedReading(expected, current.value, voltage.value);
+        if (check.needsConfirmation && !confirmed) {
+            outcome.confirmField = QString::fromStdString(check.field);
+            outcome.question = QString::fromStdString(check.message);
+            return outcome;
+        }
+        if (check.needsConfirmation)
+            confirmedWhat = check.message;
+    }
+    const int step = controller->currentStep();
+    const QString refusal = controller->submitManualReading(voltageText, currentText, !confirmedWhat.empty());
+    if (!refusal.isEmpty()) {
+        outcome.refusal = QStringLiteral("reading: ") + refusal;
+    } else if (!confirmedWhat.empty() && m_store) {
+        // The reading carries the "confirmed" flag; the event says what was expected instead.
+        const auto recorded = m_store->recordSweepEvent(SweepEventKind::ValueConfirmed, step, "confirmed by the person: " + confirmedWhat);
+        if (!recorded.ok())
+            emit notice(QString::fromStdString(recorded.message));
+    }
+    return outcome;
 }
 
 void SweepWorkspace::confirmLoadSet()
@@ -182,21 +249,32 @@ bool SweepWorkspace::isRunning() const
 
 QString SweepWorkspace::openSession(const QString &path)
 {
+    // Everything of the session shown before goes, whatever happens next: one session at a time.
     m_run.reset();
     m_store.reset();
     m_recordedSettings.reset();
+    m_records = {};
+    m_details = {};
+    m_person.clear();
+    m_limitChoice = {};
     m_readOnlyReason.clear();
     resetReadings();
     m_paused = false;
     emit runningChanged(false);
-    if (path.isEmpty())
+    if (path.isEmpty()) {
+        emit sessionChanged();
         return {};
+    }
+    const auto failed = [this](const std::string &message) {
+        emit sessionChanged();
+        return QString::fromStdString(message);
+    };
     // Looked at first without writing: an older file stays as it is (opening never migrates
     // it; a copy saved from it is in the current format), and only a current one is taken for
     // writing. A file another program is writing, or a read-only one, is shown for review.
     auto opened = SessionStore::openForReview(path.toStdString());
     if (!opened.ok())
-        return QString::fromStdString(opened.message);
+        return failed(opened.message);
     QString reviewOnly;
     if (opened.value->fileSchemaVersion() < sessionSchemaVersion) {
         reviewOnly = tr("%1: written by an older Sagline (schema %2); shown read-only, so opening it does not change it. "
@@ -211,39 +289,46 @@ QString SweepWorkspace::openSession(const QString &path)
                  || writable.code == StoreCode::CannotOpen)
             reviewOnly = tr("Shown read-only: %1").arg(QString::fromStdString(writable.message));
         else
-            return QString::fromStdString(writable.message);
+            return failed(writable.message);
     }
-    auto info = opened.value->info();
     auto readings = opened.value->readings();
-    if (!info.ok())
-        return QString::fromStdString(info.message);
     if (!readings.ok())
-        return QString::fromStdString(readings.message);
+        return failed(readings.message);
     m_store = std::move(opened.value);
+    if (const QString problem = loadRecords(); !problem.isEmpty()) {
+        m_store.reset();
+        m_records = {};
+        return failed(problem.toStdString());
+    }
+    m_records.fromFile = true;
     if (const auto notes = m_store->notes(); notes.ok()) {
         const RecordedAnalysisSettings recorded = latestAnalysisSettings(notes.value);
         m_recordedSettings = recorded.settings;
         for (const std::string &text : recorded.notices)
             emit notice(QString::fromStdString(text));
     }
-    m_details.operatorName = QString::fromStdString(info.value.operatorName);
-    m_details.unitSerial = QString::fromStdString(info.value.unitSerial);
-    setSetupJson(QString::fromStdString(info.value.setupJson));
-    for (const auto &reading : readings.value) {
-        m_readings.push_back(reading);
+    m_details = sessionDetailsFrom(m_records);
+    setSetupJson(QString::fromStdString(m_records.info.setupJson));
+    // A plan that was cut to its safe steps when the session started is that plan again.
+    for (const SweepEventRecord &event : m_records.sweepEvents) {
+        if (event.kind == SweepEventKind::Truncated && m_plan)
+            m_plan = truncatedToSafe(*m_plan);
+    }
+    m_readings = std::move(readings.value);
+    for (const auto &reading : m_readings) {
         if (entersFit(reading))
             m_fit.add(reading.currentA, reading.voltageV);
     }
     fitUpdated();
+    if (m_store->isReadOnly())
+        m_readOnlyReason = !reviewOnly.isEmpty() ? reviewOnly
+                           : !m_store->notice().empty() ? QString::fromStdString(m_store->notice())
+                                                        : tr("the file cannot be written");
     emit sessionChanged();
     if (!m_store->notice().empty())
         emit notice(QString::fromStdString(m_store->notice()));
     if (!reviewOnly.isEmpty())
         emit notice(reviewOnly);
-    if (m_store->isReadOnly())
-        m_readOnlyReason = !reviewOnly.isEmpty() ? reviewOnly
-                           : !m_store->notice().empty() ? QString::fromStdString(m_store->notice())
-                                                        : tr("the file cannot be written");
     return {};
 }
 
@@ -254,15 +339,15 @@ QString SweepWorkspace::exclude(int row, const QString &reason)
     if (!m_store || row < 0 || row >= static_cast<int>(m_readings.size()))
         return tr("exclude: no such reading");
     Reading &reading = m_readings[static_cast<std::size_t>(row)];
-    if (reading.excluded)
-        return tr("exclude: this reading is already excluded");
-    const auto result = m_store->excludeReading(reading.id, reason.trimmed().toStdString(), operatorName().toStdString());
+    // core's rules, shared with sagline-cli exclude: the person, a reason, not superseded, sealed.
+    const auto result = excludeReadingAs(*m_store, reading, row + 1, reason.toStdString());
     if (!result.ok())
         return QString::fromStdString(result.message);
     const bool wasInFit = entersFit(reading);
     reading.excluded = true;
     if (wasInFit)
         m_fit.remove(reading.currentA, reading.voltageV);
+    loadRecords();
     fitUpdated();
     emit readingChanged(row);
     emit fitChanged();
@@ -274,14 +359,13 @@ QString SweepWorkspace::restore(int row, const QString &reason)
     if (!m_store || row < 0 || row >= static_cast<int>(m_readings.size()))
         return tr("restore: no such reading");
     Reading &reading = m_readings[static_cast<std::size_t>(row)];
-    if (!reading.excluded)
-        return tr("restore: this reading is not excluded");
-    const auto result = m_store->restoreReading(reading.id, reason.trimmed().toStdString(), operatorName().toStdString());
+    const auto result = restoreReadingAs(*m_store, reading, row + 1, reason.toStdString());
     if (!result.ok())
         return QString::fromStdString(result.message);
     reading.excluded = false;
     if (entersFit(reading))
         m_fit.add(reading.currentA, reading.voltageV);
+    loadRecords();
     fitUpdated();
     emit readingChanged(row);
     emit fitChanged();
@@ -292,28 +376,29 @@ QString SweepWorkspace::addNote(const QString &text)
 {
     if (!m_store)
         return tr("note: no session is open");
-    const QString author = operatorName().isEmpty() ? tr("operator") : operatorName();
-    const auto result = m_store->addNote(author.toStdString(), text.trimmed().toStdString());
+    const auto result = addPersonNote(*m_store, text.toStdString());
     return result.ok() ? QString() : QString::fromStdString(result.message);
 }
 
 QString SweepWorkspace::recordAnalysisSettings(const VerdictSettings &verdict)
 {
-    if (!m_store || m_store->isReadOnly())
-        return {};
+    if (!isChangeable())
+        return {}; // read-only or signed off: judged as recorded
     AnalysisSettings settings;
     settings.rule = verdict.rule;
     settings.temperatureConstant = verdict.constant;
     // Read by core's parser, as the results panel reads them; what does not read is not stored.
-    for (const auto &[text, unit, field, into] :
-         {std::tuple{verdict.regulationLimit, Unit::Percent, "verdict.regulation_limit_percent", &settings.regulationLimitPercent},
-          std::tuple{verdict.referenceTemperature, Unit::Celsius, "verdict.reference_temperature_c",
-                     &settings.referenceTemperatureC}}) {
-        QString problem;
-        *into = typedQuantity(text, unit, {}, &problem);
-        if (!problem.isEmpty())
-            return QString::fromLatin1(field) + QStringLiteral(": not stored in the session, ") + problem;
-    }
+    QString problem;
+    const auto limit = typedRegulationLimit(verdict.regulationLimit, {}, &problem);
+    if (!problem.isEmpty())
+        return QStringLiteral("verdict.regulation_limit_percent: not stored in the session, ") + problem;
+    if (limit && limit->kind == RegulationLimitChoice::Kind::Nameplate)
+        settings.regulationLimitNameplate = true;
+    else if (limit)
+        settings.regulationLimitPercent = limit->percent;
+    settings.referenceTemperatureC = typedQuantity(verdict.referenceTemperature, Unit::Celsius, {}, &problem);
+    if (!problem.isEmpty())
+        return QStringLiteral("verdict.reference_temperature_c: not stored in the session, ") + problem;
     if (m_recordedSettings == settings)
         return {};
     // Only what a reader will accept is stored (e.g. a limit above zero).
@@ -333,8 +418,23 @@ void SweepWorkspace::acceptRecorded(const Reading &reading)
     m_readings.push_back(reading);
     if (entersFit(reading))
         m_fit.add(reading.currentA, reading.voltageV);
+    std::optional<int> superseded;
+    if (m_retakeRow && *m_retakeRow < static_cast<int>(m_readings.size()) - 1
+        && m_readings[static_cast<std::size_t>(*m_retakeRow)].step == reading.step && !(reading.flags & (flagOverload | flagNotANumber))) {
+        // The retake is in: the reading it replaces leaves the fit (it stays in the file, superseded).
+        Reading &old = m_readings[static_cast<std::size_t>(*m_retakeRow)];
+        if (entersFit(old))
+            m_fit.remove(old.currentA, old.voltageV);
+        old.superseded = true;
+        old.excluded = true;
+        superseded = m_retakeRow;
+        m_retakeRow.reset();
+        loadRecords();
+    }
     fitUpdated();
     emit readingRecorded(static_cast<int>(m_readings.size()) - 1);
+    if (superseded)
+        emit readingChanged(*superseded);
     emit fitChanged();
 }
 
@@ -385,7 +485,7 @@ void SweepWorkspace::discardUnusedSession()
     const QString path = sessionPath();
     m_store.reset();
     QFile::remove(path);
-    emit sessionChanged();
+    emit sessionDiscarded();
 }
 
 void SweepWorkspace::resetReadings()

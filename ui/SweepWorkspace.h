@@ -10,8 +10,12 @@
 #include "FieldError.h"
 #include "FitSummary.h"
 #include "LineFit.h"
+#include "PlanGates.h"
 #include "Planner.h"
 #include "Reading.h"
+#include "SessionProgress.h"
+#include "SessionRecords.h"
+#include "SessionSeal.h"
 #include "SetupForm.h"
 
 #include <QElapsedTimer>
@@ -31,6 +35,13 @@ class SweepRun;
 
 enum class ReadingSource { VirtualBench, SerialPort, Lan, TypedIn };
 
+// What a run started on an open session changes from a fresh sweep.
+struct SweepOptionsOverride {
+    bool resumed = false;
+    std::vector<int> recordedSteps;
+    int firstStep = 0;
+};
+
 struct SourceChoice {
     ReadingSource source = ReadingSource::VirtualBench;
     QString serialPort;  // "/dev/ttyUSB0": one meter in both roles, or the voltmeter (below)
@@ -39,6 +50,37 @@ struct SourceChoice {
     // address above is then the voltmeter. Empty: that one meter reads both.
     QString ammeterAddress = {};
 };
+
+// What an open session holds besides its readings, read from its file when it is opened (and
+// updated as this window adds to it): the one source every view of the session is drawn from.
+struct SessionRecords {
+    SessionInfo info;
+    std::vector<TemperatureRecord> temperatures;
+    std::vector<InstrumentRecord> instruments;
+    std::vector<ExclusionRecord> exclusions;
+    std::vector<SafetyStopRecord> safetyStops;
+    std::vector<SweepEventRecord> sweepEvents;
+    std::vector<SupersessionRecord> supersessions;
+    SealReport seal;
+    bool fromFile = false; // opened from a file, rather than created by this window
+};
+
+// The reply to a typed-in reading.
+struct TypedOutcome {
+    QString refusal;      // "field: rule" when refused; "" otherwise
+    QString confirmField; // a value that needs a second look: its field ("reading.current_a")...
+    QString question;     // ...and what was typed against what was expected
+    bool taken() const { return refusal.isEmpty() && question.isEmpty(); }
+};
+
+// How to get past a plan's unsafe steps (core/PlanGates.h); both are recorded in the session.
+struct LimitChoice {
+    enum Kind { None, Truncate, Override } kind = None;
+    QString reason; // for Override: why, from the person deciding it
+};
+
+// The session details as the file holds them (operator, serial, latest temperatures).
+SessionDetails sessionDetailsFrom(const SessionRecords &records);
 
 class SweepWorkspace : public QObject {
     Q_OBJECT
@@ -52,10 +94,32 @@ public:
     const std::optional<Plan> &plan() const { return m_plan; }
     const FieldErrors &errors() const { return m_errors; }
 
+    // The plan's steps the bench cannot take, and how the person chose to get past them.
+    std::vector<UnsafeStep> unsafeSteps() const;
+    void setLimitChoice(const LimitChoice &choice) { m_limitChoice = choice; }
+    const LimitChoice &limitChoice() const { return m_limitChoice; }
+    // "" when the plan can be accepted; else why not (no plan, or the unsafe steps named).
+    QString acceptRefusal() const;
+
+    // The person making changes (asked once per session; never the operator field), recorded
+    // with the OS account on every record. Set before a change; "" until then.
+    void setPerson(const QString &person);
+    QString person() const { return m_person; }
+
     // Creates the session file and starts the sweep. Returns "" or what is wrong, naming the field.
     QString startSweep(const SessionDetails &details, const QString &sessionPath, const SourceChoice &source);
-    // Typed-in readings: "" when taken, else the refusal naming the field and the rule.
-    QString submitTyped(const QString &currentText, const QString &voltageText);
+    // Continues an open session that stopped or was interrupted at its first step without a
+    // reading, the load checked again first; recorded in the session. "" or why not.
+    QString resumeSweep(const SourceChoice &source);
+    // Typed-in readings: taken, refused (naming the field and the rule), or a question about a
+    // value far from what the step expects; submit again with `confirmed` to record it flagged.
+    TypedOutcome submitTyped(const QString &currentText, const QString &voltageText, bool confirmed = false);
+    // Takes the step of reading `row` again: the next reading of that step supersedes it (kept,
+    // marked superseded with the reason). A running sweep goes there at once; an ended one is
+    // resumed for it. "" or why not.
+    QString retake(int row, const QString &reason, const SourceChoice &source);
+    // Lifts the sign-off in force (with the person and the reason recorded). "" or why not.
+    QString reopen(const QString &reason);
     // Instruments: the operator has set the load for this step; the meters read it.
     void confirmLoadSet();
     void pauseOrResume();
@@ -74,6 +138,14 @@ public:
     // another program is writing, a newer one.
     QString readOnlyReason() const { return m_readOnlyReason; }
     SessionStore *store() const { return m_store.get(); }
+
+    // The open session's records, its progress (k of N steps; "in progress" while running) and
+    // whether it may be changed (not read-only, not sealed by a sign-off).
+    const SessionRecords &records() const { return m_records; }
+    SessionProgress progress() const;
+    bool isChangeable() const;
+    QString exclusionReason(std::int64_t readingId) const; // the reason in force, "" if none
+    QString supersededReason(std::int64_t readingId) const; // the retake's reason, "" if none
 
     QString exclude(int row, const QString &reason);
     QString restore(int row, const QString &reason);
@@ -101,7 +173,8 @@ public:
 
 signals:
     void planChanged();
-    void sessionChanged();                 // a session was created or opened
+    void sessionChanged();                 // a session was created, opened, reopened or closed
+    void sessionDiscarded();               // the empty file a failed start made is gone
     void readingRecorded(int row);
     void readingChanged(int row);          // excluded or restored
     void fitChanged();
@@ -118,6 +191,9 @@ private:
     void fitUpdated(); // after every change to m_fit
     void backgroundSummaryArrived(std::uint64_t fitChange, const FitSummary &summary);
     void setNextStep(int stepIndex);
+    QString loadRecords();           // m_records from m_store
+    QString startRun(const SourceChoice &source, const SweepOptionsOverride &overrides);
+    void recordGateChoice();         // the truncation or override, into a new session
 
     std::optional<Setup> m_setup;
     std::optional<Plan> m_plan;
@@ -144,6 +220,10 @@ private:
     bool m_simulatedTime = false;
     std::optional<double> m_nextCurrentA;
     std::optional<AnalysisSettings> m_recordedSettings;
+    SessionRecords m_records;
+    std::optional<int> m_retakeRow; // the row a retake under way will supersede
+    QString m_person;
+    LimitChoice m_limitChoice;
     QString m_readOnlyReason;
 };
 

@@ -159,6 +159,17 @@ void VoltageCurrentChart::pointsChanged()
     scheduleFlush();
 }
 
+void VoltageCurrentChart::rescale()
+{
+    m_x = {};
+    m_y = {};
+    m_limitsDirty = true;
+    m_pointsDirty = true;
+    scheduleFlush();
+}
+
+std::pair<double, double> VoltageCurrentChart::voltageAxisRange() const { return {m_y.low, m_y.high}; }
+
 void VoltageCurrentChart::pointsCleared()
 {
     m_overlay = {};
@@ -194,8 +205,9 @@ void VoltageCurrentChart::growRanges()
     const double topCurrent = std::max({m_limits.plannedTopCurrentA, m_limits.ratedCurrentA, m_points.maxCurrent(),
                                         m_overlay.predicted ? m_overlay.predicted->x() : 0.0});
     const AxisSpan x = grownSpan(m_x, 0.0, topCurrent > 0 ? topCurrent : 1.0, 0.12);
-    double low = std::min(m_points.size() ? m_points.minVoltage() : m_limits.expectedTopV, m_limits.expectedTopV);
-    double high = std::max(m_points.size() ? m_points.maxVoltage() : m_limits.expectedNoLoadV, m_limits.expectedNoLoadV);
+    // Included points only: an excluded or superseded point never sets the scale.
+    double low = std::min(m_points.hasIncluded() ? m_points.minVoltage() : m_limits.expectedTopV, m_limits.expectedTopV);
+    double high = std::max(m_points.hasIncluded() ? m_points.maxVoltage() : m_limits.expectedNoLoadV, m_limits.expectedNoLoadV);
     if (m_overlay.predicted) {
         low = std::min(low, m_overlay.predictionLowV);
         high = std::max(high, m_overlay.predictionHighV);

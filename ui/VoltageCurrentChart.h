@@ -59,6 +59,9 @@ public:
     void pointsChanged();
     // The points were cleared: the fit overlay goes too.
     void pointsCleared();
+    // The axes fit the included points afresh (an exclusion changed: they may shrink).
+    void rescale();
+    std::pair<double, double> voltageAxisRange() const; // as drawn after the last flush, V
     void setFitOverlay(const FitOverlay &overlay);
     // `count` currents spanning the current axis, for core to evaluate the line and band on.
     std::vector<double> gridCurrents(int count) const;

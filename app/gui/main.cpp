@@ -111,8 +111,10 @@ int main(int argc, char **argv)
     QFile demoSetup(QStringLiteral(":/sagline/demo-setup.json"));
     if (demoSetup.open(QIODevice::ReadOnly)) {
         const auto parsed = sagline::parseSetupJson(demoSetup.readAll().toStdString());
-        if (parsed.setup)
+        if (parsed.setup) {
+            window.setDefaultSetup(*parsed.setup); // what File > New session starts from
             window.loadSetup(*parsed.setup);
+        }
     }
     if (!line.positionals().empty())
         window.openSessionFile(QFile::decodeName(QByteArray::fromStdString(line.positionals().front())));
@@ -148,6 +150,7 @@ int main(int argc, char **argv)
                 details.unitSerial = QStringLiteral("virtual-bench");
             window.setupForm()->setSessionDetails(details);
             window.instrumentsPanel()->setChoice({sagline::ReadingSource::VirtualBench, {}, {}});
+            window.setPerson(QStringLiteral("Demo person")); // a demo names who makes the changes
             window.planPanel()->acceptButton()->click();
         });
     return app.exec();

@@ -49,10 +49,29 @@ TEST(DisplayPoints, FallingAndShuffledArrivalsComeOutSortedAndComplete)
         EXPECT_EQ(points.excluded().size(), order.size() / 10);
         for (const PlotPoint &p : points.included())
             EXPECT_DOUBLE_EQ(p.y, 20.0 - p.x); // each voltage stays with its current
-        EXPECT_DOUBLE_EQ(points.maxCurrent(), currents.back());
-        EXPECT_DOUBLE_EQ(points.minVoltage(), 20.0 - currents.back());
-        EXPECT_DOUBLE_EQ(points.maxVoltage(), 20.0);
+        // The extremes are those of the included points (an excluded point never sizes an axis).
+        const double topIncluded = points.included().back().x;
+        EXPECT_DOUBLE_EQ(points.maxCurrent(), topIncluded);
+        EXPECT_DOUBLE_EQ(points.minVoltage(), 20.0 - topIncluded);
+        EXPECT_DOUBLE_EQ(points.maxVoltage(), 20.0 - points.included().front().x);
     }
+}
+
+TEST(DisplayPoints, ExcludedPointsNeverSetTheExtremes)
+{
+    DisplayPoints points;
+    points.add(0, 0.0, 19.6, false);
+    points.add(1, 0.417, 19.4, false);
+    points.add(2, 417.0, 19.4, true);  // 417 typed for 0.417 A, excluded
+    points.add(3, 0.833, 196.0, false); // 196 typed for 19.6 V, not yet excluded
+    EXPECT_DOUBLE_EQ(points.maxCurrent(), 0.833);
+    EXPECT_DOUBLE_EQ(points.maxVoltage(), 196.0);
+    ASSERT_TRUE(points.setExcluded(3, true)); // excluded (or superseded) later: the extremes shrink
+    EXPECT_DOUBLE_EQ(points.maxCurrent(), 0.417);
+    EXPECT_DOUBLE_EQ(points.maxVoltage(), 19.6);
+    EXPECT_DOUBLE_EQ(points.minVoltage(), 19.4);
+    ASSERT_TRUE(points.setExcluded(2, false));
+    EXPECT_DOUBLE_EQ(points.maxCurrent(), 417.0);
 }
 
 TEST(DisplayPoints, LatePointsMergeIntoTheSortedOnesEqualCurrentsInArrivalOrder)

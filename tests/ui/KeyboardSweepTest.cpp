@@ -132,6 +132,14 @@ TEST(KeyboardSweep, WholeTypedInSweepWithoutTheMouse)
     press(window.get(), Qt::Key_Down);
     press(window.get(), Qt::Key_Down);
     ASSERT_EQ(table->currentIndex().row(), 2);
+    // The reason dialog is the window's own (a real QInputDialog); the name was given at the start.
+    window->setTextPrompt([w = window.get()](const QString &title, const QString &label) -> std::optional<QString> {
+        if (title.startsWith(QLatin1String("Who is making changes")))
+            return testPerson;
+        bool ok = false;
+        const QString text = QInputDialog::getText(w, title, label, QLineEdit::Normal, QString(), &ok);
+        return ok ? std::optional<QString>(text) : std::nullopt;
+    });
     // The reason dialog is modal: once it is up, type into its field and confirm with Enter.
     bool dialogSeen = false;
     QTimer answer;

@@ -135,7 +135,7 @@ TEST(TypedSweep, ExcludeAndRestoreKeepTheFitAndTheRecord)
     ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
     const char *typed[][2] = {{"0 A", "19.60 V"}, {"1 A", "19.10 V"}, {"2 A", "18.62 V"}, {"3 A", "17.00 V"}};
     for (const auto &reading : typed)
-        ASSERT_TRUE(workspace->submitTyped(reading[0], reading[1]).isEmpty());
+        ASSERT_TRUE(workspace->submitTyped(reading[0], reading[1], true).taken()); // round numbers, confirmed
     ASSERT_EQ(workspace->liveFit().count(), 4u);
     // Excluding needs a reason; the store refuses an empty one and the fit is unchanged.
     EXPECT_FALSE(workspace->exclude(3, QString()).isEmpty());

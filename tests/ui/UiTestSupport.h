@@ -13,6 +13,8 @@
 #include <QTemporaryDir>
 #include <QTest>
 
+#include <QStringList>
+
 #include <functional>
 #include <limits>
 #include <memory>
@@ -37,14 +39,43 @@ inline void typeInto(QuantityField *field, const QString &text) { typeInto(field
 
 inline QString text(QuantityField *field) { return field->text(); }
 
+// The person the UI tests name when the window asks who makes the changes.
+inline const QString testPerson = QStringLiteral("U. Tester");
+
+// Answers the window's questions as a person would: the name when asked who makes changes,
+// `reasons` in turn for anything else (nothing when they run out: the dialog is cancelled).
+// A typed value far from the step's expectation is confirmed only when `confirm` says so.
+inline void answerPrompts(MainWindow &window, QStringList reasons = {}, bool confirm = false,
+                          QStringList *asked = nullptr)
+{
+    auto queue = std::make_shared<QStringList>(std::move(reasons));
+    window.setTextPrompt([queue, asked](const QString &title, const QString &label) -> std::optional<QString> {
+        if (asked)
+            asked->append(title + QStringLiteral(": ") + label);
+        if (title.startsWith(QLatin1String("Who is making changes")))
+            return testPerson;
+        if (queue->isEmpty())
+            return std::nullopt;
+        return queue->takeFirst();
+    });
+    window.setConfirmPrompt([confirm, asked](const QString &title, const QString &text) {
+        if (asked)
+            asked->append(title + QStringLiteral(": ") + text);
+        return confirm;
+    });
+}
+
 // A window showing the repository's demo setup, sessions going to `folder`.
 inline std::unique_ptr<MainWindow> demoWindow(const QString &folder)
 {
     auto window = std::make_unique<MainWindow>();
+    answerPrompts(*window);
     window->setSessionFolder(folder);
     const auto parsed = loadSetupFile(std::string(SAGLINE_SOURCE_DIR) + "/resources/demo-setup.json");
-    if (parsed.setup)
+    if (parsed.setup) {
+        window->setDefaultSetup(*parsed.setup);
         window->loadSetup(*parsed.setup);
+    }
     window->resize(1400, 900);
     return window;
 }

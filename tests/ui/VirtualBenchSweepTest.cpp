@@ -72,6 +72,14 @@ TEST(VirtualBenchSweep, ABlownPrimaryFuseStopsWithAnAlarmAndIsRecorded)
     // A 40 mA time-lag primary fuse on a 60 VA, 230 V transformer (rated primary current
     // about 0.26 A): it opens early in the sweep (IEC 60127-2 gates in the bench's fuse model).
     typeInto(window->setupForm()->quantityField("bench.fuse.rating_a"), "40 mA");
+    // The plan already says the fuse opens from step 3: Accept stays disabled until the limits
+    // are overridden with a reason (recorded); the bench's own stop is what is tested here.
+    EXPECT_FALSE(window->planPanel()->acceptButton()->isEnabled());
+    EXPECT_TRUE(window->planPanel()->acceptBlockedReason().contains("the primary fuse (40.0 mA time-lag) opens"))
+        << window->planPanel()->acceptBlockedReason().toStdString();
+    answerPrompts(*window, {QStringLiteral("checking that the bench stops on a blown fuse")});
+    QTest::mouseClick(window->planPanel()->overrideButton(), Qt::LeftButton);
+    EXPECT_TRUE(window->planPanel()->acceptButton()->isEnabled());
     startOnVirtualBench(*window);
     SweepWorkspace *workspace = window->workspace();
     ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
@@ -91,4 +99,9 @@ TEST(VirtualBenchSweep, ABlownPrimaryFuseStopsWithAnAlarmAndIsRecorded)
     ASSERT_TRUE(stops.ok());
     ASSERT_EQ(stops.value.size(), 1u);
     EXPECT_EQ(stops.value.front().rule, "fuse-open");
+    const auto events = stored.value->sweepEvents().value;
+    ASSERT_FALSE(events.empty());
+    EXPECT_EQ(events.front().kind, SweepEventKind::LimitOverride);
+    EXPECT_EQ(events.front().actor.person, testPerson.toStdString());
+    EXPECT_NE(events.front().detail.find("checking that the bench stops on a blown fuse"), std::string::npos);
 }

@@ -1,0 +1,422 @@
+// Session integrity through the window with real session files: sessions opened in turn show
+// their own file alone (item 1), a signed session is read-only until reopened with a reason
+// (item 3), a typed value far from the expectation asks first and a step can be retaken
+// (item 5), the verdict is provisional until every step (item 6), and an interrupted session
+// resumes at its next step (item 7). With SAGLINE_UI_SHOTS_DIR set, the key moments are saved
+// as PNG at 1366×768 and 1600×1000.
+#include "SessionFiles.h"
+#include "UiTestSupport.h"
+
+#include "CautionStrip.h"
+#include "InstrumentsPanel.h"
+#include "NextStepStrip.h"
+#include "PlanPanel.h"
+#include "ReadingsTableModel.h"
+#include "ResidualChart.h"
+#include "ResultsPanel.h"
+#include "SessionBand.h"
+#include "SessionSeal.h"
+#include "SessionStore.h"
+#include "SweepRun.h"
+#include "SweepWorkspace.h"
+#include "VoltageCurrentChart.h"
+
+#include <gtest/gtest.h>
+
+#include <QApplication>
+#include <QComboBox>
+#include <QDir>
+#include <QFileInfo>
+#include <QMessageBox>
+#include <QPainter>
+#include <QPushButton>
+#include <QTableView>
+
+using namespace sagline;
+using namespace sagline::test;
+
+namespace {
+
+// Saves the window (and a dialog drawn over its middle, if given) when SAGLINE_UI_SHOTS_DIR is set.
+void shoot(MainWindow &window, const QString &name, QWidget *dialog = nullptr)
+{
+    const QString folder = qEnvironmentVariable("SAGLINE_UI_SHOTS_DIR");
+    if (folder.isEmpty())
+        return;
+    QDir().mkpath(folder);
+    const QSize original = window.size();
+    for (const QSize size : {QSize(1366, 768), QSize(1600, 1000)}) {
+        window.resize(size);
+        window.flushCharts();
+        QApplication::processEvents();
+        QPixmap picture = window.grab();
+        if (dialog) {
+            const QPixmap box = dialog->grab();
+            QPainter painter(&picture);
+            painter.drawPixmap((picture.width() - box.width()) / 2, (picture.height() - box.height()) / 3, box);
+        }
+        picture.save(QDir(folder).filePath(QStringLiteral("%1-%2x%3.png").arg(name).arg(size.width()).arg(size.height())));
+    }
+    window.resize(original);
+}
+
+double fieldValue(MainWindow &window, const char *field, Unit unit)
+{
+    const auto parsed = parseQuantity(window.setupForm()->quantityField(QLatin1String(field))->text().toStdString(), unit);
+    return parsed.ok ? parsed.value : std::numeric_limits<double>::quiet_NaN();
+}
+
+// Every field and label the window shows for a session, checked against what its file holds.
+void expectShowsOnly(MainWindow &window, const SessionFile &file, QStringList *checked)
+{
+    SCOPED_TRACE(file.path.toStdString());
+    const Nameplate &plate = file.setup.nameplate;
+    EXPECT_DOUBLE_EQ(fieldValue(window, "nameplate.rated_power_va", Unit::VoltAmpere), plate.ratedPowerVa);
+    EXPECT_DOUBLE_EQ(fieldValue(window, "nameplate.primary_voltage_v", Unit::Volt), plate.primaryVoltageV);
+    EXPECT_DOUBLE_EQ(fieldValue(window, "nameplate.frequency_hz", Unit::Hertz), plate.frequencyHz);
+    EXPECT_DOUBLE_EQ(fieldValue(window, "nameplate.secondary_voltage_v", Unit::Volt), plate.secondaryVoltageV);
+    EXPECT_DOUBLE_EQ(fieldValue(window, "nameplate.secondary_no_load_voltage_v", Unit::Volt), *plate.secondaryNoLoadVoltageV);
+    EXPECT_DOUBLE_EQ(fieldValue(window, "bench.steps", Unit::None), file.setup.bench.steps);
+    const SessionDetails details = window.setupForm()->sessionDetails();
+    EXPECT_EQ(details.operatorName.toStdString(), file.operatorName);
+    EXPECT_EQ(details.unitSerial.toStdString(), file.serial);
+    EXPECT_DOUBLE_EQ(fieldValue(window, "session.ambient_temperature_c", Unit::Celsius), file.ambientC);
+    EXPECT_DOUBLE_EQ(fieldValue(window, "session.winding_temperature_c", Unit::Celsius), file.windingC);
+    ASSERT_TRUE(window.workspace()->plan());
+    EXPECT_EQ(static_cast<int>(window.workspace()->plan()->steps.size()), file.planned);
+    EXPECT_EQ(window.planPanel()->table()->model()->rowCount(), file.planned);
+    EXPECT_FALSE(window.planPanel()->acceptButton()->isEnabled());
+    EXPECT_EQ(window.readingsModel()->rowCount(), file.readings);
+    int excludedRows = 0;
+    for (int row = 0; row < window.readingsModel()->rowCount(); ++row)
+        excludedRows += window.readingsModel()->reading(row).excluded ? 1 : 0;
+    EXPECT_EQ(excludedRows, file.excluded);
+    EXPECT_EQ(window.pointsStatusText(), QStringLiteral("%1 point(s) recorded").arg(file.readings));
+    EXPECT_EQ(window.caution()->isAlarmShown(), file.stopped) << window.caution()->alarmText().toStdString();
+    const bool typedIn = file.serial == "X-60";
+    EXPECT_EQ(window.instrumentsPanel()->choice().source, typedIn ? ReadingSource::TypedIn : ReadingSource::VirtualBench);
+    EXPECT_TRUE(window.instrumentsPanel()->statusText().contains(typedIn ? "no instruments recorded" : "Sagline Virtual Bench"))
+        << window.instrumentsPanel()->statusText().toStdString();
+    EXPECT_FALSE(window.sourceStatusText().contains("link")) << window.sourceStatusText().toStdString();
+    EXPECT_TRUE(window.windowTitle().contains(QFileInfo(file.path).fileName())) << window.windowTitle().toStdString();
+    const QString verdict = window.results()->verdictText();
+    const QString band = window.sessionBand()->text();
+    const QString header = window.nextStep()->instructionText();
+    if (file.stopped) {
+        EXPECT_TRUE(verdict.contains("Incomplete (5 of 11 steps; safety stop at step 5 (output-va)): no verdict"))
+            << verdict.toStdString();
+        EXPECT_TRUE(band.contains("Incomplete")) << band.toStdString();
+        EXPECT_TRUE(header.contains("Sweep ended: incomplete")) << header.toStdString();
+    } else if (typedIn) {
+        EXPECT_TRUE(verdict.contains("Incomplete (4 of 9 steps; interrupted")) << verdict.toStdString();
+        EXPECT_TRUE(band.contains("interrupted")) << band.toStdString();
+        EXPECT_EQ(window.sessionBand()->resumeButton()->text(), QStringLiteral("Resume at step 4"));
+    } else {
+        EXPECT_FALSE(verdict.contains("ncomplete") || verdict.contains("rovisional")) << verdict.toStdString();
+        EXPECT_TRUE(header.contains("Sweep complete")) << header.toStdString();
+    }
+    if (file.signedOff) {
+        EXPECT_EQ(window.sessionBand()->kind(), SessionBand::Kind::Signed);
+        EXPECT_TRUE(band.contains("Signed off by L. Lead on ")) << band.toStdString();
+        EXPECT_TRUE(window.sessionBand()->reopenButton()->isVisibleTo(&window));
+    } else if (!file.stopped && !typedIn) {
+        EXPECT_EQ(window.sessionBand()->kind(), SessionBand::Kind::Hidden) << band.toStdString();
+    }
+    if (checked)
+        *checked = {"rated power", "primary voltage", "frequency", "secondary full-load voltage", "secondary no-load voltage",
+                    "steps", "operator", "unit serial", "ambient temperature", "winding temperature", "plan steps",
+                    "plan table rows", "Accept disabled", "readings table rows", "excluded rows", "status bar points",
+                    "safety-stop alarm", "instrument source", "instrument status", "status bar source (no stale link)",
+                    "window title", "verdict", "session band", "next-step header", "Resume / Reopen offered"};
+}
+
+} // namespace
+
+TEST(SessionIntegrityWindow, SessionsOpenedInTurnShowTheirOwnFileAlone)
+{
+    QTemporaryDir folder;
+    const SessionFile files[] = {writeSession(folder.path(), SessionKind::Complete),
+                                 writeSession(folder.path(), SessionKind::Crashed),
+                                 writeSession(folder.path(), SessionKind::SafetyStopped),
+                                 writeSession(folder.path(), SessionKind::Signed)};
+    auto window = demoWindow(folder.path());
+    window->show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+    // A live sweep first, so there is something stale to leave behind: the demo unit on the
+    // virtual bench, ended by the operator.
+    window->workspace()->setSimulatedTime(true);
+    window->setupForm()->setSessionDetails({QStringLiteral("Live operator"), QStringLiteral("LIVE-1"), QStringLiteral("30 °C"), {}});
+    window->instrumentsPanel()->setChoice({ReadingSource::VirtualBench, {}, {}});
+    window->planPanel()->acceptButton()->click();
+    ASSERT_TRUE(waitUntil([&] { return window->workspace()->readings().size() >= 3; }, 20000));
+    window->workspace()->stop();
+    ASSERT_TRUE(waitUntil([&] { return !window->workspace()->isRunning(); }));
+
+    QStringList checked;
+    for (const SessionFile &file : files) {
+        ASSERT_TRUE(window->openSessionFile(file.path)) << window->lastMessage().toStdString();
+        expectShowsOnly(*window, file, &checked);
+    }
+    // And back to the first, after the others.
+    ASSERT_TRUE(window->openSessionFile(files[0].path));
+    expectShowsOnly(*window, files[0], nullptr);
+    shoot(*window, QStringLiteral("opened-complete"));
+
+    // New starts from the program's defaults, never from the last session.
+    QTest::keyClick(window.get(), Qt::Key_N, Qt::ControlModifier);
+    EXPECT_FALSE(window->workspace()->store());
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "nameplate.rated_power_va", Unit::VoltAmpere), 60.0); // the demo setup
+    EXPECT_TRUE(window->setupForm()->sessionDetails().operatorName.isEmpty());
+    EXPECT_TRUE(window->setupForm()->sessionDetails().unitSerial.isEmpty());
+    EXPECT_EQ(window->readingsModel()->rowCount(), 0);
+    EXPECT_TRUE(window->pointsStatusText().isEmpty());
+    EXPECT_FALSE(window->caution()->isAlarmShown());
+    EXPECT_EQ(window->sessionBand()->kind(), SessionBand::Kind::Hidden);
+    EXPECT_TRUE(window->planPanel()->acceptButton()->isEnabled());
+    EXPECT_TRUE(window->results()->verdictText().isEmpty());
+    std::cout << "[ fields ] checked for each session: " << checked.join(", ").toStdString() << '\n';
+}
+
+TEST(SessionIntegrityWindow, SignedSessionIsReadOnlyUntilReopenedWithAReason)
+{
+    QTemporaryDir folder;
+    const SessionFile file = writeSession(folder.path(), SessionKind::Signed);
+    auto window = demoWindow(folder.path());
+    window->show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+    ASSERT_TRUE(window->openSessionFile(file.path));
+    ASSERT_EQ(window->sessionBand()->kind(), SessionBand::Kind::Signed);
+    shoot(*window, QStringLiteral("signed-session"));
+
+    // Excluding the full-load point is refused while it is signed off; nothing changes.
+    const int last = window->readingsModel()->rowCount() - 1;
+    const QString before = window->results()->value("regulation");
+    QStringList asked;
+    answerPrompts(*window, {QStringLiteral("clip fell off")}, false, &asked);
+    window->readingsView()->selectRow(last);
+    QTest::keyClick(window->readingsView(), Qt::Key_Delete, Qt::ControlModifier);
+    EXPECT_TRUE(window->lastMessage().contains("signed off; reopen it")) << window->lastMessage().toStdString();
+    EXPECT_FALSE(window->workspace()->readings()[static_cast<std::size_t>(last)].excluded);
+    EXPECT_EQ(window->results()->value("regulation"), before);
+    EXPECT_TRUE(asked.front().startsWith("Who is making changes")) << asked.join('|').toStdString();
+
+    // Reopen: asks why, records who and why, and the sign-off is superseded.
+    answerPrompts(*window, {QStringLiteral("full-load point misread"), QStringLiteral("clip fell off")});
+    QTest::mouseClick(window->sessionBand()->reopenButton(), Qt::LeftButton);
+    ASSERT_EQ(window->sessionBand()->kind(), SessionBand::Kind::ChangedAfterSignOff) << window->lastMessage().toStdString();
+    const QString band = window->sessionBand()->text();
+    EXPECT_TRUE(band.contains("Changed after sign-off")) << band.toStdString();
+    EXPECT_TRUE(band.contains("reopened by " + testPerson)) << band.toStdString();
+    EXPECT_TRUE(band.contains("full-load point misread")) << band.toStdString();
+    shoot(*window, QStringLiteral("reopened-session"));
+    window->readingsView()->selectRow(last);
+    QTest::keyClick(window->readingsView(), Qt::Key_Delete, Qt::ControlModifier);
+    EXPECT_TRUE(window->workspace()->readings()[static_cast<std::size_t>(last)].excluded) << window->lastMessage().toStdString();
+
+    // In the file: who excluded it is the person who said so, not the operator; the digest check
+    // says changed after sign-off, not altered.
+    auto stored = SessionStore::openForReview(file.path.toStdString());
+    ASSERT_TRUE(stored.ok());
+    const auto exclusions = stored.value->exclusions().value;
+    ASSERT_EQ(exclusions.size(), 1u);
+    EXPECT_EQ(exclusions[0].author, testPerson.toStdString());
+    EXPECT_NE(exclusions[0].author, file.operatorName);
+    EXPECT_FALSE(exclusions[0].osAccount.empty());
+    const SealReport seal = checkSeal(*stored.value).value;
+    EXPECT_EQ(seal.state, SealState::ChangedAfterSignOff);
+    EXPECT_EQ(seal.reopen->actor.person, testPerson.toStdString());
+}
+
+TEST(SessionIntegrityWindow, TypedValueFarFromTheStepAsksFirstAndAStepCanBeRetaken)
+{
+    QTemporaryDir folder;
+    auto window = demoWindow(folder.path());
+    window->show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+    window->setupForm()->setSessionDetails({QStringLiteral("Student"), QStringLiteral("T-417"), QStringLiteral("21 °C"), {}});
+    window->instrumentsPanel()->setChoice({ReadingSource::TypedIn, {}, {}});
+    window->planPanel()->acceptButton()->click();
+    SweepWorkspace *workspace = window->workspace();
+    ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
+    NextStepStrip *strip = window->nextStep();
+    const auto type = [&](const QString &current, const QString &voltage) {
+        typeInto(strip->currentField(), current);
+        typeInto(strip->voltageField(), voltage);
+        QTest::mouseClick(strip->recordButton(), Qt::LeftButton);
+    };
+    type("0 A", "19.62 V");
+    ASSERT_EQ(workspace->readings().size(), 1u);
+
+    // Step 1 expects about 417 mA: "417" is taken as 417 A, so the window asks before anything
+    // is recorded, showing the expected value; No keeps nothing and says why under the field.
+    QStringList asked;
+    QMessageBox *shown = nullptr;
+    window->setConfirmPrompt([&](const QString &title, const QString &text) {
+        asked << text;
+        if (!shown) { // what a person sees, for the screenshot
+            shown = new QMessageBox(QMessageBox::Question, title, text, QMessageBox::Yes | QMessageBox::No, window.get());
+            shown->setWindowModality(Qt::NonModal); // shown for the picture only; the prompt answers
+            shown->show();
+            QApplication::processEvents();
+            shoot(*window, QStringLiteral("confirm-typed-value"), shown);
+            shown->hide();
+            QApplication::setActiveWindow(window.get()); // the menu shortcuts act on the active window
+        }
+        return false;
+    });
+    type("417", "19.4 V");
+    ASSERT_EQ(asked.size(), 1);
+    EXPECT_TRUE(asked[0].contains("The current 417.0 A is 1000 times the 416.7 mA step 1 expects (typed A for mA?)"))
+        << asked[0].toStdString();
+    EXPECT_EQ(workspace->readings().size(), 1u);
+    EXPECT_TRUE(strip->currentField()->error().contains("typed A for mA?"));
+    type("0.417 A", "19.41 V");
+    ASSERT_EQ(workspace->readings().size(), 2u);
+
+    // "194" for 19.4 V, confirmed by mistake: recorded, flagged, with what was expected; at
+    // 0.833 A that is 162 VA, so the hard stop ends the sweep on it (as one slip did before).
+    window->setConfirmPrompt([&](const QString &, const QString &text) {
+        asked << text;
+        return true;
+    });
+    type("0.833 A", "194 V");
+    ASSERT_EQ(workspace->readings().size(), 3u);
+    EXPECT_TRUE(asked.back().contains("slipped decimal point")) << asked.back().toStdString();
+    EXPECT_TRUE(workspace->readings()[2].flags & flagConfirmed);
+    ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }));
+    EXPECT_TRUE(window->caution()->isAlarmShown());
+    window->flushCharts();
+
+    // Retake step 2: the sweep goes on from it; the new reading supersedes the slip, which
+    // stays in the file.
+    answerPrompts(*window, {QStringLiteral("decimal point slipped when typing")});
+    window->readingsView()->selectRow(2);
+    QTest::keyClick(window->readingsView(), Qt::Key_R, Qt::ControlModifier);
+    EXPECT_TRUE(strip->instructionText().contains("Step 2")) << strip->instructionText().toStdString();
+    EXPECT_TRUE(strip->instructionText().contains("retake")) << strip->instructionText().toStdString();
+    type("0.833 A", "19.24 V");
+    ASSERT_EQ(workspace->readings().size(), 4u);
+    EXPECT_TRUE(workspace->readings()[2].superseded);
+    EXPECT_TRUE(window->readingsModel()->data(window->readingsModel()->index(2, ReadingsTableModel::Excluded))
+                    .toString()
+                    .contains("superseded: decimal point slipped when typing"));
+    EXPECT_TRUE(strip->instructionText().contains("Step 3")) << strip->instructionText().toStdString();
+    // The superseded 194 V point sets neither chart's scale.
+    window->flushCharts();
+    EXPECT_LT(window->chart()->voltageAxisRange().second, 30.0);
+    EXPECT_LT(window->residualChart()->residualAxisRange().second, 1000.0); // mV
+    shoot(*window, QStringLiteral("retaken-step"));
+
+    auto stored = SessionStore::openForReview(workspace->sessionPath().toStdString());
+    ASSERT_TRUE(stored.ok());
+    const auto retakes = stored.value->supersessions().value;
+    ASSERT_EQ(retakes.size(), 1u);
+    EXPECT_EQ(retakes[0].reason, "decimal point slipped when typing");
+    EXPECT_EQ(retakes[0].actor.person, testPerson.toStdString());
+    bool confirmedEvent = false;
+    for (const SweepEventRecord &event : stored.value->sweepEvents().value)
+        confirmedEvent |= event.kind == SweepEventKind::ValueConfirmed && event.detail.find("194") != std::string::npos;
+    EXPECT_TRUE(confirmedEvent);
+    delete shown;
+}
+
+TEST(SessionIntegrityWindow, VerdictIsProvisionalUntilEveryStepAndIncompleteAfterAStop)
+{
+    QTemporaryDir folder;
+    auto window = demoWindow(folder.path());
+    window->show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+    window->setupForm()->setSessionDetails({QStringLiteral("Student"), QStringLiteral("P-9"), QStringLiteral("21 °C"), {}});
+    window->instrumentsPanel()->setChoice({ReadingSource::TypedIn, {}, {}});
+    window->planPanel()->acceptButton()->click();
+    SweepWorkspace *workspace = window->workspace();
+    ASSERT_TRUE(workspace->isRunning());
+    const auto steps = workspace->plan()->steps;
+    const auto typeStep = [&](std::size_t k) {
+        const double v = steps[k].predictedVoltageV + (k % 2 ? 0.004 : -0.003);
+        typeInto(window->nextStep()->currentField(), QString::number(steps[k].currentA, 'f', 4) + " A");
+        typeInto(window->nextStep()->voltageField(), QString::number(v, 'f', 3) + " V");
+        QTest::mouseClick(window->nextStep()->recordButton(), Qt::LeftButton);
+    };
+    for (std::size_t k = 0; k < 4; ++k)
+        typeStep(k);
+    ASSERT_EQ(workspace->readings().size(), 4u);
+    window->flushCharts();
+    const QString provisional = window->results()->verdictText();
+    EXPECT_TRUE(provisional.contains("Provisional (4 of 9 steps)")) << provisional.toStdString();
+    EXPECT_FALSE(provisional.contains("PASS") || provisional.contains("FAIL")) << provisional.toStdString();
+    shoot(*window, QStringLiteral("provisional-verdict"));
+    for (std::size_t k = 4; k < steps.size(); ++k)
+        typeStep(k);
+    ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }));
+    window->flushCharts();
+    const QString complete = window->results()->verdictText();
+    EXPECT_FALSE(complete.contains("rovisional") || complete.contains("ncomplete")) << complete.toStdString();
+    EXPECT_TRUE(complete.contains("PASS") || complete.contains("FAIL") || complete.contains("CANNOT DECIDE"))
+        << complete.toStdString();
+
+    // A second unit stopped by the operator after 3 steps: incomplete, never a pass.
+    QTest::keyClick(window.get(), Qt::Key_N, Qt::ControlModifier);
+    window->setupForm()->setSessionDetails({QStringLiteral("Student"), QStringLiteral("P-10"), QStringLiteral("21 °C"), {}});
+    window->instrumentsPanel()->setChoice({ReadingSource::TypedIn, {}, {}});
+    window->planPanel()->acceptButton()->click();
+    ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
+    for (std::size_t k = 0; k < 3; ++k)
+        typeStep(k);
+    QTest::mouseClick(window->nextStep()->stopButton(), Qt::LeftButton);
+    ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }));
+    window->flushCharts();
+    const QString stopped = window->results()->verdictText();
+    EXPECT_TRUE(stopped.contains("Incomplete (3 of 9 steps; stopped by the operator at step 3): no verdict"))
+        << stopped.toStdString();
+    EXPECT_EQ(window->sessionBand()->resumeButton()->text(), QStringLiteral("Resume at step 3"));
+}
+
+TEST(SessionIntegrityWindow, InterruptedSessionResumesAtItsNextStepWithTheLoadCheckedAgain)
+{
+    QTemporaryDir folder;
+    const SessionFile file = writeSession(folder.path(), SessionKind::Crashed);
+    auto window = demoWindow(folder.path());
+    window->show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+    ASSERT_TRUE(window->openSessionFile(file.path));
+    ASSERT_EQ(window->sessionBand()->kind(), SessionBand::Kind::Incomplete);
+    QPushButton *resume = window->sessionBand()->resumeButton();
+    ASSERT_TRUE(resume->isVisibleTo(window.get()));
+    QStringList asked;
+    answerPrompts(*window, {}, false, &asked);
+    QTest::mouseClick(resume, Qt::LeftButton);
+    SweepWorkspace *workspace = window->workspace();
+    ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
+    EXPECT_TRUE(asked.front().startsWith("Who is making changes")); // asked, not taken from "B. Crashed"
+    const QString instruction = window->nextStep()->instructionText();
+    EXPECT_TRUE(instruction.contains("Step 4")) << instruction.toStdString();
+    EXPECT_TRUE(instruction.contains("resumed: check the load is still at about")) << instruction.toStdString();
+    EXPECT_EQ(window->sessionBand()->kind(), SessionBand::Kind::Hidden); // running again
+    const QString provisional = window->results()->verdictText();
+    EXPECT_TRUE(provisional.contains("Provisional (4 of 9 steps)")) << provisional.toStdString();
+
+    const auto steps = workspace->plan()->steps;
+    for (std::size_t k = 4; k < steps.size(); ++k) {
+        typeInto(window->nextStep()->currentField(), QString::number(steps[k].currentA, 'f', 4) + " A");
+        typeInto(window->nextStep()->voltageField(), QString::number(steps[k].predictedVoltageV, 'f', 3) + " V");
+        QTest::mouseClick(window->nextStep()->recordButton(), Qt::LeftButton);
+        ASSERT_EQ(workspace->readings().size(), k + 1) << window->lastMessage().toStdString();
+    }
+    ASSERT_TRUE(waitUntil([&] { return !workspace->isRunning(); }));
+    EXPECT_TRUE(workspace->progress().isComplete());
+    EXPECT_TRUE(window->nextStep()->instructionText().contains("Sweep complete")) << window->nextStep()->instructionText().toStdString();
+
+    auto stored = SessionStore::openForReview(file.path.toStdString());
+    ASSERT_TRUE(stored.ok());
+    const auto events = stored.value->sweepEvents().value;
+    bool resumed = false;
+    for (const SweepEventRecord &event : events)
+        resumed |= event.kind == SweepEventKind::Resumed && event.step == 4 && event.actor.person == testPerson.toStdString();
+    EXPECT_TRUE(resumed);
+    EXPECT_EQ(events.back().kind, SweepEventKind::Finished);
+    bool confirmNote = false;
+    for (const NoteRecord &note : stored.value->notes().value)
+        confirmNote |= note.text.find("sweep resumed at step 4") != std::string::npos;
+    EXPECT_TRUE(confirmNote);
+}
