@@ -6,6 +6,8 @@
 #include "UncertaintyFormat.h"
 
 #include <QHeaderView>
+#include "VerdictCompleteness.h"
+
 #include <QLabel>
 #include <QScrollArea>
 #include <QSplitter>
@@ -99,7 +101,12 @@ void ReviewDetailView::showSession(const SessionRow *row)
                                    : *f.verdict == ConformityOutcome::Pass ? VerdictState::Pass
                                    : *f.verdict == ConformityOutcome::Fail ? VerdictState::Fail
                                                                           : VerdictState::Undecided;
-        m_results->setVerdict(state, QString::fromStdString(f.verdictText()), QString::fromStdString(f.ruleName));
+        ResultsView verdict;
+        verdict.state = state;
+        verdict.verdictText = QString::fromStdString(f.verdictText());
+        verdict.verdictRule = QString::fromStdString(f.ruleName);
+        applyCompleteness(verdict, row->progress); // an incomplete session shows no verdict
+        m_results->setVerdict(verdict.state, verdict.verdictText, verdict.verdictRule);
     } else {
         m_results->setLines({});
         m_results->setPlaceholder(tr("No fit: %1").arg(QString::fromStdString(f.message)));
@@ -117,6 +124,8 @@ void ReviewDetailView::showSession(const SessionRow *row)
     }
 
     QString history = tr("<b>Sign-off history</b><br>");
+    if (row->seal.state != SealState::NotSigned)
+        history += tr("<b>%1</b><br>").arg(text(row->seal.summary()));
     if (row->signOffs.empty())
         history += tr("not reviewed yet<br>");
     for (const SignOffRecord &s : row->signOffs)

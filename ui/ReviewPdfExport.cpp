@@ -42,10 +42,13 @@ void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *>
                       {QObject::tr("Standard deviation of R"), ohm(stats.sdOhm)},
                       {QObject::tr("Median R"), ohm(stats.medianOhm)},
                       {QObject::tr("MAD of R"), ohm(stats.madOhm)},
-                      {QObject::tr("Verdicts"), QObject::tr("pass %1, fail %2, cannot decide %3, n/a %4")
-                                                    .arg(stats.pass).arg(stats.fail).arg(stats.undecided).arg(stats.noVerdict)},
-                      {QObject::tr("Review"), QObject::tr("accepted %1, rejected %2, retest %3, not reviewed %4")
-                                                  .arg(stats.accepted).arg(stats.rejected).arg(stats.retest).arg(stats.notReviewed)}});
+                      {QObject::tr("Verdicts"), QObject::tr("pass %1, fail %2, cannot decide %3, n/a %4, incomplete %5")
+                                                    .arg(stats.pass).arg(stats.fail).arg(stats.undecided).arg(stats.noVerdict)
+                                                    .arg(stats.incomplete)},
+                      {QObject::tr("Review"), QObject::tr("accepted %1, rejected %2, retest %3, not reviewed %4, "
+                                                          "changed after sign-off %5")
+                                                  .arg(stats.accepted).arg(stats.rejected).arg(stats.retest).arg(stats.notReviewed)
+                                                  .arg(stats.changedAfterSignOff)}});
     canvas.paragraph(QObject::tr("Far from the batch: %1.").arg(qs(stats.ruleNote)));
     canvas.heading(QObject::tr("Sessions"));
     QList<QStringList> table;
