@@ -48,7 +48,9 @@ std::optional<double> readNumber(const json &object, const char *key, double low
 std::string analysisSettingsNoteText(const AnalysisSettings &settings)
 {
     json object = {{"analysis_settings", analysisSettingsVersion},
-                   {"regulation_limit_percent", optionalNumber(settings.regulationLimitPercent)},
+                   {"regulation_limit_percent", settings.regulationLimitNameplate
+                                                    ? json("nameplate")
+                                                    : optionalNumber(settings.regulationLimitPercent)},
                    {"rule", toString(settings.rule)},
                    {"reference_temperature_c", optionalNumber(settings.referenceTemperatureC)}};
     object["temperature_constant"] =
@@ -75,13 +77,16 @@ AnalysisSettingsParse parseAnalysisSettings(const std::string &text)
         return parse;
     }
     AnalysisSettings settings;
-    settings.regulationLimitPercent =
-        readNumber(object, "regulation_limit_percent", 0.0, true, maxLimitPercent, parse.errors);
+    if (const auto limit = object.find("regulation_limit_percent"); limit != object.end() && *limit == "nameplate")
+        settings.regulationLimitNameplate = true;
+    else
+        settings.regulationLimitPercent =
+            readNumber(object, "regulation_limit_percent", 0.0, true, maxLimitPercent, parse.errors);
     settings.referenceTemperatureC =
         readNumber(object, "reference_temperature_c", minReferenceC, false, maxReferenceC, parse.errors);
     const auto rule = object.find("rule");
     if (rule == object.end() || !rule->is_string() || !decisionRuleFromString(rule->get<std::string>()))
-        parse.errors.push_back({"rule", "must be \"simple\" or \"guarded\", got "
+        parse.errors.push_back({"rule", "must be \"simple\", \"guarded\" or \"non-binary\", got "
                                             + (rule == object.end() ? std::string("nothing") : rule->dump())});
     else
         settings.rule = *decisionRuleFromString(rule->get<std::string>());

@@ -19,14 +19,17 @@ inline constexpr const char *analysisSettingsNoteAuthor = "sagline/analysis-sett
 inline constexpr int analysisSettingsVersion = 1;
 
 struct AnalysisSettings {
-    std::optional<double> regulationLimitPercent;          // absent: the nameplate's regulation, %
-    DecisionRule rule = DecisionRule::GuardedAcceptance;    // ILAC-G8:09/2019
+    std::optional<double> regulationLimitPercent;          // a stated limit, %; absent: see below
+    bool regulationLimitNameplate = false;                 // the nameplate's own regulation chosen as the limit
+    DecisionRule rule = DecisionRule::NonBinary;            // ILAC-G8:09/2019 §4.2
     std::optional<double> referenceTemperatureC;           // absent: the reader's default, °C
     std::optional<TemperatureConstant> temperatureConstant; // absent: from the winding material
     bool operator==(const AnalysisSettings &) const = default;
 };
 
-// {"analysis_settings": 1, "regulation_limit_percent": 5 | null, "rule": "guarded",
+// {"analysis_settings": 1, "regulation_limit_percent": 5 | "nameplate" | null (= the setup's
+//  specification: earlier records meant the nameplate by null, which is no longer a default), "rule":
+//  "simple" | "guarded" | "non-binary",
 //  "reference_temperature_c": 75 | null, "temperature_constant": "copper-iec" | null}
 std::string analysisSettingsNoteText(const AnalysisSettings &settings);
 

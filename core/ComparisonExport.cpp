@@ -61,7 +61,8 @@ std::vector<std::string> comparisonCsvColumns()
             "series_resistance_ohm", "series_resistance_u_ohm", "winding_temperature_c", "reference_temperature_c",
             "temperature_constant_c", "series_resistance_ref_ohm", "series_resistance_ref_u_ohm", "no_load_voltage_v",
             "no_load_voltage_u_v", "rated_current_a", "regulation_percent", "regulation_u_percent",
-            "regulation_limit_percent", "verdict", "decision_rule", "safety_stops", "review_state", "reviewer",
+            "regulation_limit_percent", "verdict", "conformance_probability", "decision_rule", "limits_source",
+            "safety_stops", "review_state", "reviewer",
             "lab_sheet", "limit_hits", "robust_z", "far_from_batch", "problem"};
 }
 
@@ -87,11 +88,12 @@ std::string comparisonCsv(const std::vector<SessionRow> &rows, const BatchStatis
             number(f.resistanceRefOhm), number(f.resistanceRefUOhm), number(fitted(row, f.noLoadVoltageV)),
             number(f.noLoadVoltageUV), number(fitted(row, f.ratedCurrentA)), number(f.regulationPercent),
             number(f.regulationUPercent), number(f.regulationLimitPercent),
-            row.opened ? row.verdictShown() : std::string(), row.opened ? toString(f.rule) : std::string(),
+            row.opened ? row.verdictShown() : std::string(), number(f.conformanceProbability),
+            row.opened ? toString(f.rule) : std::string(), row.opened ? f.limitsSource : std::string(),
             row.opened ? std::to_string(row.safetyStops.size()) : std::string(),
             row.opened ? row.reviewState() : std::string(), latestReviewer(row), labSheetName(row),
             row.opened ? std::to_string(row.supervision.limitHits.size()) : std::string(), number(z),
-            row.opened ? (isFar(stats, i) ? "yes" : "no") : std::string(),
+            row.opened ? (isFar(stats, i) ? (stats.screeningOnly ? "yes (screening only)" : "yes") : "no") : std::string(),
             row.opened ? (f.ok ? std::string() : f.message) : row.problem,
         };
         for (std::size_t k = 0; k < fields.size(); ++k)
@@ -136,7 +138,9 @@ std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStati
             {"regulation_percent", jsonNumber(f.regulationPercent)},
             {"regulation_u_percent", jsonNumber(f.regulationUPercent)},
             {"regulation_limit_percent", jsonNumber(f.regulationLimitPercent)},
-            {"verdict", row.verdictShown()}, {"decision_rule", toString(f.rule)}, {"decision_rule_text", f.ruleName},
+            {"verdict", row.verdictShown()}, {"conformance_probability", jsonNumber(f.conformanceProbability)},
+            {"decision_rule", toString(f.rule)}, {"decision_rule_text", f.ruleName},
+            {"limits_source", f.limitsSource}, {"meters_known", f.metersKnown},
             {"completeness", toString(row.progress.state)},
             {"steps_recorded", row.progress.recordedSteps}, {"steps_planned", row.progress.plannedSteps},
             {"seal", toString(row.seal.state)}, {"seal_summary", row.seal.summary()},
@@ -158,16 +162,17 @@ std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStati
         {"mean_ohm", jsonNumber(stats.meanOhm)}, {"sd_ohm", jsonNumber(stats.sdOhm)},
         {"min_ohm", jsonNumber(stats.minOhm)}, {"max_ohm", jsonNumber(stats.maxOhm)},
         {"median_ohm", jsonNumber(stats.medianOhm)}, {"mad_ohm", jsonNumber(stats.madOhm)},
-        {"verdicts", {{"pass", stats.pass}, {"fail", stats.fail}, {"cannot-decide", stats.undecided}, {"n/a", stats.noVerdict},
-                      {"incomplete", stats.incomplete}}},
+        {"verdicts", {{"pass", stats.pass}, {"fail", stats.fail}, {"conditional-pass", stats.conditionalPass},
+                      {"conditional-fail", stats.conditionalFail}, {"not-judged", stats.notJudged},
+                      {"n/a", stats.noVerdict}, {"incomplete", stats.incomplete}}},
         {"review", {{"accepted", stats.accepted}, {"rejected", stats.rejected}, {"retest", stats.retest},
                     {"not_reviewed", stats.notReviewed}, {"changed_after_sign_off", stats.changedAfterSignOff}}},
         {"safety_stopped", stats.safetyStopped}, {"limit_hit", stats.limitHit},
-        {"far_from_batch_rule", stats.ruleNote},
+        {"far_from_batch_rule", stats.ruleNote}, {"far_from_batch_screening_only", stats.screeningOnly},
         {"method", toString(options.method)},
         {"reference_temperature_c", options.figures.referenceTemperatureC},
         {"copper_temperature_constant", toString(options.figures.copperConstant)},
-        {"coverage_factor", options.figures.coverageFactor},
+        {"coverage_probability", coverageProbability},
     };
     return json{{"sessions", sessions}, {"batch", batch}}.dump(2);
 }

@@ -1,24 +1,106 @@
 #include "ConformityDecision.h"
 
+#include "CombinedDistribution.h"
+#include "Distributions.h"
 #include "NumberFormat.h"
 #include "UncertaintyFormat.h"
 
+#include <algorithm>
 #include <cmath>
+#include <limits>
 
 namespace sagline {
 
+namespace {
+
+constexpr double infinity = std::numeric_limits<double>::infinity();
+
+double lowerOf(const ToleranceRange &r)
+{
+    return r.min.value_or(-infinity);
+}
+
+double upperOf(const ToleranceRange &r)
+{
+    return r.max.value_or(infinity);
+}
+
+bool inside(double value, double low, double high)
+{
+    return value >= low && value <= high;
+}
+
+// P(Y <= x) for Y = value + u·T_ν.
+double distribution(double x, double value, double u, double dof)
+{
+    if (x == infinity)
+        return 1.0;
+    if (x == -infinity)
+        return 0.0;
+    if (!(u > 0.0))
+        return x >= value ? 1.0 : 0.0;
+    const double z = (x - value) / u;
+    if (!std::isfinite(dof) || dof > 1e7)
+        return 0.5 * std::erfc(-z / std::sqrt(2.0));
+    return studentTCdf(z, dof);
+}
+
+// "the limit 12 %" or "the limits 17.5 V to 18.5 V" or "the lower limit 17.5 V".
+std::string limitText(const ToleranceRange &limits, const std::string &unit)
+{
+    const auto q = [&](double v) { return formatSignificant(v, 4) + (unit.empty() ? "" : " " + unit); };
+    if (limits.min && limits.max)
+        return "the limits " + q(*limits.min) + " to " + q(*limits.max);
+    if (limits.max)
+        return "the upper limit " + q(*limits.max);
+    return "the lower limit " + q(*limits.min);
+}
+
+int severity(ConformityOutcome outcome)
+{
+    switch (outcome) {
+    case ConformityOutcome::NotJudged: return 0;
+    case ConformityOutcome::Pass: return 1;
+    case ConformityOutcome::ConditionalPass: return 2;
+    case ConformityOutcome::ConditionalFail: return 3;
+    case ConformityOutcome::Fail: return 4;
+    }
+    return 0;
+}
+
+} // namespace
+
 std::string toString(DecisionRule rule)
 {
-    return rule == DecisionRule::SimpleAcceptance ? "simple" : "guarded";
+    switch (rule) {
+    case DecisionRule::Simple: return "simple";
+    case DecisionRule::Guarded: return "guarded";
+    case DecisionRule::NonBinary: return "non-binary";
+    }
+    return "non-binary";
 }
 
 std::optional<DecisionRule> decisionRuleFromString(std::string_view text)
 {
-    if (text == "simple")
-        return DecisionRule::SimpleAcceptance;
-    if (text == "guarded")
-        return DecisionRule::GuardedAcceptance;
+    for (DecisionRule rule : {DecisionRule::Simple, DecisionRule::Guarded, DecisionRule::NonBinary})
+        if (text == toString(rule))
+            return rule;
     return std::nullopt;
+}
+
+std::string describe(DecisionRule rule)
+{
+    switch (rule) {
+    case DecisionRule::Simple:
+        return "ILAC-G8:09/2019 §4.2.1 simple acceptance, binary, guard band w = 0 (shared risk)";
+    case DecisionRule::Guarded:
+        return "ILAC-G8:09/2019 §4.2.2 binary statement with guard band w = U (pass within the limit less U, "
+               "else fail)";
+    case DecisionRule::NonBinary:
+        return "ILAC-G8:09/2019 §4.2.3 non-binary statement with guard band w = U (pass, conditional pass, "
+               "conditional fail, fail)";
+    }
+    return "";
 }
 
 std::string toString(ConformityOutcome outcome)
@@ -26,71 +108,127 @@ std::string toString(ConformityOutcome outcome)
     switch (outcome) {
     case ConformityOutcome::Pass: return "pass";
     case ConformityOutcome::Fail: return "fail";
-    case ConformityOutcome::CannotDecide: return "cannot-decide";
+    case ConformityOutcome::ConditionalPass: return "conditional-pass";
+    case ConformityOutcome::ConditionalFail: return "conditional-fail";
+    case ConformityOutcome::NotJudged: return "not-judged";
     }
-    return "cannot-decide";
+    return "not-judged";
 }
 
-ConformityDecision decideAgainstUpperLimit(double measured, double expandedUncertainty, double upperLimit,
-                                           DecisionRule rule)
+std::string outcomeWords(ConformityOutcome outcome)
+{
+    switch (outcome) {
+    case ConformityOutcome::Pass: return "PASS";
+    case ConformityOutcome::Fail: return "FAIL";
+    case ConformityOutcome::ConditionalPass: return "CONDITIONAL PASS";
+    case ConformityOutcome::ConditionalFail: return "CONDITIONAL FAIL";
+    case ConformityOutcome::NotJudged: return "NOT JUDGED";
+    }
+    return "NOT JUDGED";
+}
+
+ConformityOutcome worseOutcome(ConformityOutcome a, ConformityOutcome b)
+{
+    return severity(a) >= severity(b) ? a : b;
+}
+
+double conformanceProbability(double value, double standardUncertainty, double effectiveDof,
+                              const ToleranceRange &limits)
+{
+    const double p = distribution(upperOf(limits), value, standardUncertainty, effectiveDof)
+                     - distribution(lowerOf(limits), value, standardUncertainty, effectiveDof);
+    return std::clamp(p, 0.0, 1.0);
+}
+
+double conformanceProbability(const UncertainValue &result, const ToleranceRange &limits)
+{
+    if (result.budget.empty() || !result.standardUncertainty || !(*result.standardUncertainty > 0.0))
+        return conformanceProbability(result.value, result.standardUncertainty.value_or(0.0),
+                                      result.effectiveDof.value_or(infinity), limits);
+    const CombinedDistribution distribution(result.budget);
+    const auto at = [&](double limit, double otherwise) {
+        return std::isfinite(limit) ? distribution.cdf(limit - result.value) : otherwise;
+    };
+    return std::clamp(at(upperOf(limits), 1.0) - at(lowerOf(limits), 0.0), 0.0, 1.0);
+}
+
+std::string conformanceProbabilityText(double probability)
+{
+    if (probability >= 0.9995)
+        return "> 99.9 %";
+    if (probability <= 0.0005)
+        return "< 0.1 %";
+    return formatSignificant(probability * 100.0, 3) + " %";
+}
+
+ConformityDecision decideConformity(const std::string &quantity, const std::string &unit, const UncertainValue &result,
+                                    const ToleranceRange &limits, DecisionRule rule)
 {
     ConformityDecision d;
+    d.quantity = quantity;
+    d.unit = unit;
     d.rule = rule;
-    d.measured = measured;
-    d.expandedUncertainty = expandedUncertainty;
-    d.upperLimit = upperLimit;
-    if (!std::isfinite(measured) || !std::isfinite(upperLimit) || !std::isfinite(expandedUncertainty)
-        || expandedUncertainty < 0.0) {
-        d.error = "the result, its expanded uncertainty (>= 0) and the limit must be finite numbers";
+    d.ruleName = describe(rule);
+    d.measured = result.value;
+    d.limits = limits;
+    d.expandedUncertainty = result.expandedUncertainty;
+    const bool badLimit = (limits.min && !std::isfinite(*limits.min)) || (limits.max && !std::isfinite(*limits.max))
+                          || (!limits.min && !limits.max) || (limits.min && limits.max && *limits.min > *limits.max);
+    if (!std::isfinite(result.value) || badLimit
+        || (result.expandedUncertainty && !(std::isfinite(*result.expandedUncertainty) && *result.expandedUncertainty >= 0.0))) {
+        d.error = quantity + ": the result, its expanded uncertainty (>= 0) and at least one finite limit are needed";
         return d;
     }
     d.ok = true;
-    const std::string value = formatSignificant(measured, 4);
-    const std::string limit = formatSignificant(upperLimit, 4);
-    if (rule == DecisionRule::SimpleAcceptance) {
-        // ILAC-G8:09/2019 §4.2.1: acceptance limit = tolerance limit; up to 50 % risk of a
-        // false accept at the limit (shared risk).
-        d.guardBand = 0.0;
-        d.acceptanceLimit = upperLimit;
-        d.ruleName = "ILAC-G8:09/2019 simple acceptance (guard band w = 0)";
-        d.outcome = measured <= upperLimit ? ConformityOutcome::Pass : ConformityOutcome::Fail;
-        d.explanation = value + (d.outcome == ConformityOutcome::Pass ? " is within " : " exceeds ")
-                        + "the limit " + limit + "; simple acceptance ignores the uncertainty (shared risk).";
-        return d;
-    }
-    // ILAC-G8:09/2019 §4.2.2 (binary with guard band) and §4.2.3 (non-binary): w = U gives at
-    // most about 2.5 % false-accept risk for a normal distribution. Between TL - U and TL + U the
-    // uncertainty interval straddles the limit: neither pass nor fail can be stated.
-    d.guardBand = expandedUncertainty;
-    d.acceptanceLimit = upperLimit - expandedUncertainty;
-    d.ruleName = "ILAC-G8:09/2019 guarded acceptance (guard band w = U, k = 2)";
-    const std::string withU = formatWithUncertainty(measured, expandedUncertainty, "");
-    if (measured <= d.acceptanceLimit) {
-        d.outcome = ConformityOutcome::Pass;
-        d.explanation = withU + " lies wholly within the limit " + limit + ".";
-    } else if (measured - expandedUncertainty > upperLimit) {
-        d.outcome = ConformityOutcome::Fail;
-        d.explanation = withU + " lies wholly beyond the limit " + limit + ".";
-    } else {
-        d.outcome = ConformityOutcome::CannotDecide;
-        d.explanation = withU + " straddles the limit " + limit
-                        + (measured <= upperLimit ? " (conditional pass: within the limit by less than U)."
-                                                  : " (conditional fail: beyond the limit by less than U).");
-    }
-    return d;
-}
+    const double low = lowerOf(limits), high = upperOf(limits);
+    const std::string value = formatSignificant(result.value, 4) + (unit.empty() ? "" : " " + unit);
+    const std::string against = limitText(limits, unit);
+    if (result.standardUncertainty)
+        d.conformanceProbability = conformanceProbability(result, limits);
+    const bool withinTolerance = inside(result.value, low, high);
 
-ConformityDecision decideAgainstUpperLimit(double measured, std::optional<double> expandedUncertainty,
-                                           double upperLimit, DecisionRule rule)
-{
-    if (expandedUncertainty || rule == DecisionRule::SimpleAcceptance)
-        return decideAgainstUpperLimit(measured, expandedUncertainty.value_or(0.0), upperLimit, rule);
-    ConformityDecision d = decideAgainstUpperLimit(measured, 0.0, upperLimit, rule);
-    if (!d.ok)
+    if (rule == DecisionRule::Simple) {
+        d.acceptance = limits;
+        d.outcome = withinTolerance ? ConformityOutcome::Pass : ConformityOutcome::Fail;
+        d.explanation = quantity + " " + value + (withinTolerance ? " is within " : " is outside ") + against
+                        + "; simple acceptance does not use the uncertainty (up to 50 % risk of a wrong decision "
+                          "at the limit).";
         return d;
-    d.outcome = ConformityOutcome::CannotDecide;
-    d.explanation = formatSignificant(measured, 4) + " has no uncertainty (too few points), so the guard band "
-                    "cannot be applied; record more points.";
+    }
+    if (!result.expandedUncertainty) {
+        d.outcome = ConformityOutcome::NotJudged;
+        d.explanation = quantity + " " + value + " has no uncertainty (too few points), so the guard band of "
+                        + toString(rule) + " acceptance cannot be applied; record more points.";
+        return d;
+    }
+    const double w = *result.expandedUncertainty;
+    d.guardBand = w;
+    if (limits.min)
+        d.acceptance.min = *limits.min + w;
+    if (limits.max)
+        d.acceptance.max = *limits.max - w;
+    const bool accepted = inside(result.value, lowerOf(d.acceptance), upperOf(d.acceptance));
+    const std::string withU = formatWithUncertainty(result.value, w, unit);
+    if (rule == DecisionRule::Guarded) {
+        d.outcome = accepted ? ConformityOutcome::Pass : ConformityOutcome::Fail;
+        d.explanation = quantity + " " + withU + (accepted ? " lies within " : " does not lie within ") + against
+                        + " less U (the acceptance limits)";
+        d.explanation += accepted || !withinTolerance ? "." : ", though within the limits themselves.";
+        return d;
+    }
+    if (accepted) {
+        d.outcome = ConformityOutcome::Pass;
+        d.explanation = quantity + " " + withU + " lies wholly within " + against + ".";
+    } else if (withinTolerance) {
+        d.outcome = ConformityOutcome::ConditionalPass;
+        d.explanation = quantity + " " + withU + " is within " + against + " by less than U (conditional pass).";
+    } else if (inside(result.value, low - w, high + w)) {
+        d.outcome = ConformityOutcome::ConditionalFail;
+        d.explanation = quantity + " " + withU + " is beyond " + against + " by less than U (conditional fail).";
+    } else {
+        d.outcome = ConformityOutcome::Fail;
+        d.explanation = quantity + " " + withU + " lies wholly beyond " + against + ".";
+    }
     return d;
 }
 

@@ -1,7 +1,15 @@
-// Pass or fail of a measured value against an upper tolerance limit (e.g. the nameplate's
-// regulation) by a decision rule of ILAC-G8:09/2019 "Guidelines on Decision Rules and
-// Statements of Conformity", section 4.2.
+// A statement of conformity of one measured result against its tolerance limits, by a decision
+// rule of ILAC-G8:09/2019 "Guidelines on Decision Rules and Statements of Conformity" §4.2,
+// with the conformance probability of JCGM 106:2012 §7 (the probability that the true value
+// lies within the limits, from the result's distribution centred on its value: the combined
+// distribution of its budget's components, which is a normal or a scaled and shifted t when
+// those are all normal or one Type A dominates). IEC Guide
+// 115:2021 is the electrotechnical sector's reading of the same ideas (from memory); Sagline
+// follows ILAC-G8 and JCGM 106 directly.
 #pragma once
+
+#include "Setup.h"
+#include "UncertaintyBudget.h"
 
 #include <optional>
 #include <string>
@@ -10,38 +18,52 @@
 namespace sagline {
 
 enum class DecisionRule {
-    SimpleAcceptance,  // ILAC-G8 §4.2.1, binary, guard band w = 0: pass if value <= limit
-    GuardedAcceptance, // ILAC-G8 §4.2.2/§4.2.3 with w = U (k = 2): pass if value <= limit - U,
-                       // fail if value > limit + U, otherwise cannot decide
+    Simple,    // ILAC-G8 §4.2.1, binary, w = 0: pass inside the tolerance limits, else fail
+    Guarded,   // ILAC-G8 §4.2.2, binary with guard band w = U: pass inside TL - U, else fail
+    NonBinary, // ILAC-G8 §4.2.3, w = U: pass, conditional pass, conditional fail, fail
 };
 
-enum class ConformityOutcome { Pass, Fail, CannotDecide };
+enum class ConformityOutcome { Pass, Fail, ConditionalPass, ConditionalFail, NotJudged };
 
-std::string toString(DecisionRule rule);          // "simple", "guarded"
+std::string toString(DecisionRule rule);                 // "simple", "guarded", "non-binary"
 std::optional<DecisionRule> decisionRuleFromString(std::string_view text);
-std::string toString(ConformityOutcome outcome);   // "pass", "fail", "cannot-decide"
+std::string describe(DecisionRule rule);                 // "ILAC-G8:09/2019 §4.2.2 binary ..."
+std::string toString(ConformityOutcome outcome);         // "pass", "conditional-pass", ..., "not-judged"
+std::string outcomeWords(ConformityOutcome outcome);     // "PASS", "CONDITIONAL PASS", ..., "NOT JUDGED"
+// The worse of two outcomes: fail > conditional-fail > conditional-pass > pass > not-judged.
+ConformityOutcome worseOutcome(ConformityOutcome a, ConformityOutcome b);
 
 struct ConformityDecision {
     bool ok = false;
-    std::string error;                 // the rule broken by the inputs when !ok
-    ConformityOutcome outcome = ConformityOutcome::CannotDecide;
-    DecisionRule rule = DecisionRule::SimpleAcceptance;
-    double measured = 0.0;             // the result, in the limit's unit (e.g. %)
-    double expandedUncertainty = 0.0;  // U of the result, same unit
-    double upperLimit = 0.0;           // tolerance limit TL
-    double guardBand = 0.0;            // w: 0 for simple acceptance, U for guarded
-    double acceptanceLimit = 0.0;      // AL = TL - w
-    std::string ruleName;              // e.g. "ILAC-G8:09/2019 guarded acceptance, w = U (k = 2)"
-    std::string explanation;           // one sentence for reports
+    std::string error;                          // the rule broken by the inputs when !ok
+    std::string quantity;                       // "regulation", "no-load voltage", ...
+    std::string unit;                           // the limits' unit, e.g. "%", "V", "Ω"
+    ConformityOutcome outcome = ConformityOutcome::NotJudged;
+    DecisionRule rule = DecisionRule::NonBinary;
+    double measured = 0.0;
+    std::optional<double> expandedUncertainty;  // U of the result (95 %)
+    ToleranceRange limits;                      // the tolerance limits TL
+    double guardBand = 0.0;                     // w: 0 for simple, U otherwise
+    ToleranceRange acceptance;                  // the acceptance limits AL = TL ∓ w
+    std::optional<double> conformanceProbability; // P(TL_min <= Y <= TL_max), 0..1 (JCGM 106:2012 §7)
+    std::string ruleName;                       // describe(rule)
+    std::string explanation;                    // one sentence for reports
 };
 
-// measured and upperLimit finite; expandedUncertainty finite and >= 0.
-ConformityDecision decideAgainstUpperLimit(double measured, double expandedUncertainty, double upperLimit,
-                                           DecisionRule rule);
-// As above, for a result whose uncertainty may be unknown (a fit of 2 points): without U,
-// guarded acceptance cannot decide (it has no guard band to apply); simple acceptance decides
-// on the value alone.
-ConformityDecision decideAgainstUpperLimit(double measured, std::optional<double> expandedUncertainty,
-                                           double upperLimit, DecisionRule rule);
+// P(min <= Y <= max) for Y = value + u·T_ν (T_ν Student t; normal when ν is infinite); u = 0
+// gives 1 inside the limits and 0 outside.
+double conformanceProbability(double value, double standardUncertainty, double effectiveDof,
+                              const ToleranceRange &limits);
+// The same with the result's own combined distribution (its budget's components,
+// CombinedDistribution.h): the distribution its coverage interval comes from.
+double conformanceProbability(const UncertainValue &result, const ToleranceRange &limits);
+// "89.2 %", "> 99.9 %", "< 0.1 %".
+std::string conformanceProbabilityText(double probability);
+
+// Judges `result` (value, u, ν_eff and U from its budget) against limits (at least one end).
+// Without an uncertainty (a two-point fit) the guarded and non-binary rules cannot apply their
+// guard band: not-judged, said so; the simple rule decides on the value alone.
+ConformityDecision decideConformity(const std::string &quantity, const std::string &unit, const UncertainValue &result,
+                                    const ToleranceRange &limits, DecisionRule rule);
 
 } // namespace sagline

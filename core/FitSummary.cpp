@@ -16,6 +16,7 @@ struct FitInput {
     std::vector<std::size_t> rows;
     std::vector<double> x, y, sx, sy;
     std::vector<double> weights;
+    std::vector<char> statedU, hasUI; // the reading stated u_voltage_v / u_current_a
 };
 
 bool isFitted(const Reading &reading)
@@ -72,6 +73,8 @@ FitStatus gatherInput(const std::vector<Reading> &readings, FitMethod method, Fi
         input.sx.push_back(uI);
         input.sy.push_back(uV);
         input.weights.push_back(method == FitMethod::Wls ? 1.0 / (uV * uV) : 1.0);
+        input.statedU.push_back(reading.uVoltageV && std::isfinite(uV) && uV > 0.0);
+        input.hasUI.push_back(reading.uCurrentA && std::isfinite(uI) && uI > 0.0);
     }
     return FitStatus::Ok;
 }
@@ -128,49 +131,62 @@ LineFitResult batchLine(const FitInput &input, bool absoluteWeights)
     return r;
 }
 
-// Externally studentized residuals with weights w (hat values of the weighted line fit).
-void studentize(FitSummary &summary, const FitInput &input, const FitOptions &options)
+// Studentized residuals (information) and the outlier screen over the used points.
+void screen(FitSummary &summary, const FitInput &input, const FitOptions &options)
 {
     const std::size_t n = input.x.size();
-    if (n < 4)
-        return;
-    double sumW = 0.0, meanX = 0.0, maxAbsY = 0.0;
+    std::vector<double> residuals(n), sigma;
+    double maxAbsY = 0.0, meanW = 0.0;
+    bool stated = true;
     for (std::size_t i = 0; i < n; ++i) {
-        sumW += input.weights[i];
-        meanX += input.weights[i] * input.x[i];
+        residuals[i] = summary.points[input.rows[i]].residualV;
         maxAbsY = std::max(maxAbsY, std::fabs(input.y[i]));
+        meanW += input.weights[i] / static_cast<double>(n);
+        stated = stated && input.statedU[i];
     }
-    meanX /= sumW;
-    double sxx = 0.0, ssr = 0.0, plain = 0.0;
-    for (std::size_t i = 0; i < n; ++i) {
-        const double e = summary.points[input.rows[i]].residualV;
-        sxx += input.weights[i] * (input.x[i] - meanX) * (input.x[i] - meanX);
-        ssr += input.weights[i] * e * e;
-        plain += e * e;
+    summary.statedRandomUncertainty = stated;
+    if (stated) {
+        sigma.resize(n);
+        for (std::size_t i = 0; i < n; ++i)
+            sigma[i] = std::hypot(input.sy[i], summary.slope * (input.hasUI[i] ? input.sx[i] : 0.0));
     }
-    // Residuals at rounding level (exact data): their ratios would be noise, flag nothing.
-    if (std::sqrt(plain / static_cast<double>(n)) <= 1e-12 * maxAbsY || !(sxx > 0.0))
-        return;
-    const double p = 2.0;
-    const double s2 = ssr / (static_cast<double>(n) - p);
+    summary.scatterFloorV =
+        resolutionScatterV(options.voltageResolutionV, options.currentResolutionA, summary.slope);
+    // Below a billionth of the voltage a scatter is arithmetic noise, not a measurement.
+    const double numericFloorV = 1e-9 * maxAbsY;
+    const bool unitWeights = summary.method == FitMethod::Ols;
+    const double studentFloor = unitWeights ? std::max(summary.scatterFloorV, numericFloorV)
+                                            : numericFloorV * std::sqrt(meanW);
+    std::vector<std::optional<double>> statistics;
+    std::vector<bool> flagged;
+    // The externally studentized residuals, always shown (n >= 4).
+    externallyStudentizedResiduals(input.x, residuals, input.weights, studentFloor, statistics);
+    for (std::size_t i = 0; i < n; ++i)
+        summary.points[input.rows[i]].studentized = statistics[i];
+    summary.outlierScreening =
+        screenResiduals(input.x, residuals, input.weights, sigma,
+                        stated ? std::max(summary.scatterFloorV, numericFloorV) : studentFloor, options.outlierScreen,
+                        statistics, flagged);
     for (std::size_t i = 0; i < n; ++i) {
         PointFit &point = summary.points[input.rows[i]];
-        const double dx = input.x[i] - meanX;
-        const double leverage = input.weights[i] * (1.0 / sumW + dx * dx / sxx);
-        if (!(leverage < 1.0 - 1e-12))
-            continue; // the line passes through this point by construction
-        const double internal = std::sqrt(input.weights[i]) * point.residualV / std::sqrt(s2 * (1.0 - leverage));
-        const double rest = static_cast<double>(n) - p - internal * internal;
-        if (!(rest > 1e-12))
-            continue;
-        point.studentized = internal * std::sqrt((static_cast<double>(n) - p - 1.0) / rest);
-        point.outlier = std::fabs(*point.studentized) > options.outlierThreshold;
+        point.screeningStatistic = statistics[i];
+        point.outlier = flagged[i];
         if (point.outlier)
             summary.outlierRows.push_back(point.row);
     }
 }
 
 } // namespace
+
+FitOptions fitOptionsFor(const std::optional<MeterSpecs> &meters)
+{
+    FitOptions options;
+    if (meters) {
+        options.voltageResolutionV = meters->voltmeter.resolution;
+        options.currentResolutionA = meters->ammeter.resolution;
+    }
+    return options;
+}
 
 std::string toString(FitMethod method)
 {
@@ -295,7 +311,16 @@ FitSummary fitReadings(const std::vector<Reading> &readings, FitMethod method, c
         const double r = summary.seriesResistanceOhm();
         summary.seriesResistanceCi = Interval{r - half, r + half};
     }
-    studentize(summary, input, options);
+    double meanX = 0.0;
+    for (std::size_t i = 0; i < n; ++i)
+        meanX += input.weights[i] * input.x[i];
+    meanX /= sumW;
+    summary.sumWeights = sumW;
+    summary.meanCurrentA = meanX;
+    summary.sxx = 0.0;
+    for (std::size_t i = 0; i < n; ++i)
+        summary.sxx += input.weights[i] * (input.x[i] - meanX) * (input.x[i] - meanX);
+    screen(summary, input, options);
 
     const QuadraticFitResult quadratic = fitQuadratic(input.x, input.y, input.weights);
     if (quadratic.ok() && quadratic.curvatureP) {
@@ -344,6 +369,10 @@ FitSummary summaryOfLiveFit(const LineFit &live)
     summary.covariance = r.covariance;
     summary.residualSdV = r.residualSd;
     summary.rSquared = r.rSquared;
+    summary.meanCurrentA = r.meanX;
+    summary.sxx = r.sxx;
+    summary.sumWeights = static_cast<double>(r.n);
+    summary.outlierScreening.reason = "not screened (live fit)";
     return summary;
 }
 

@@ -6,7 +6,9 @@
 
 #include "FitStatus.h"
 #include "LineFit.h"
+#include "OutlierScreen.h"
 #include "Reading.h"
+#include "Setup.h"
 
 #include <cstddef>
 #include <optional>
@@ -26,7 +28,9 @@ std::string toString(FitMethod method);                           // "ols", "wls
 std::optional<FitMethod> fitMethodFromString(std::string_view text); // inverse of toString
 
 struct FitOptions {
-    double outlierThreshold = 3.0;  // |studentized residual| above this flags an outlier
+    OutlierScreenOptions outlierScreen; // Bonferroni family level and the fewest points screened
+    double voltageResolutionV = 0.0; // one count of the voltmeter, V (floors the scatter); 0 = unknown
+    double currentResolutionA = 0.0; // one count of the ammeter, A; 0 = unknown
     double confidence = 0.95;       // level of the interval of R and of predictions
     int yorkMaxIterations = 200;    // York: iterations before NotConverged
     double yorkTolerance = 1e-14;   // York: stop when |Δb/b| is below this
@@ -38,7 +42,8 @@ struct PointFit {
     bool used = false;                   // false: excluded, or flagged overload / not-a-number
     double residualV = 0.0;              // V_i - (V0 - R·I_i), V (also for rows not used)
     std::optional<double> studentized;   // externally studentized residual (used rows, n >= 4)
-    bool outlier = false;                // |studentized| > FitOptions::outlierThreshold
+    std::optional<double> screeningStatistic; // what the outlier screen compared (OutlierScreen.h)
+    bool outlier = false;                // |screeningStatistic| above the screen's critical value
 };
 
 struct FitSummary {
@@ -68,7 +73,18 @@ struct FitSummary {
     std::optional<Interval> seriesResistanceCi; // interval of R, Ω (see analysisSlopeSe)
     int iterations = 0;                  // York iterations used (0 for OLS and WLS)
 
+    // The fit's geometry, for propagating a per-reading random error (core/UncertaintyBudget):
+    // cov(intercept, slope) = s²·[[1/W + x̄²/Sxx, -x̄/Sxx], [-x̄/Sxx, 1/Sxx]] with unit weights.
+    double meanCurrentA = 0.0;           // weighted mean of I, A
+    double sxx = 0.0;                    // Σ w (I - meanCurrentA)², A² (times weight units)
+    double sumWeights = 0.0;             // Σ w (n for OLS)
+    // Every used reading states its random uncertainty u_voltage_v (the normalized-residual
+    // screen and the WLS/York weights use it); false: the scatter is the only random estimate.
+    bool statedRandomUncertainty = false;
+    double scatterFloorV = 0.0;          // resolution floor of the scatter (OutlierScreen.h), V
+
     std::vector<PointFit> points;        // one per input row, in input order
+    OutlierScreening outlierScreening;   // the rule, its critical value, or why not screened
     std::vector<std::size_t> outlierRows; // rows flagged as outliers, ascending
     std::optional<double> curvatureP;    // p-value of the quadratic term (n >= 4, 3+ distinct I)
     std::optional<double> curvatureCoefficient; // c of V = a + b I + c I², V/A²
@@ -83,6 +99,9 @@ struct FitSummary {
     std::optional<double> analysisInterceptSe() const;
     std::optional<double> analysisCovariance() const;
 };
+
+// The fit options a setup implies: the meters' resolutions floor the scatter.
+FitOptions fitOptionsFor(const std::optional<MeterSpecs> &meters);
 
 // Fits the readings that are not excluded and not flagged overload or not-a-number.
 // WLS needs u_voltage_v on every used reading; York needs u_current_a and u_voltage_v.

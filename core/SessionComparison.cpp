@@ -8,6 +8,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <numeric>
 
 namespace sagline {
@@ -56,6 +57,18 @@ std::string instrumentShortName(const std::string &identity)
     return model.empty() ? maker : maker + " " + model;
 }
 
+std::string designOf(const Nameplate &nameplate)
+{
+    const auto number = [](double value) {
+        char text[32];
+        std::snprintf(text, sizeof text, "%.6g", value);
+        return std::string(text);
+    };
+    return number(nameplate.ratedPowerVa) + " VA " + number(nameplate.primaryVoltageV) + "/"
+           + number(nameplate.secondaryVoltageV) + " V " + number(nameplate.frequencyHz) + " Hz "
+           + toString(nameplate.construction) + " " + toString(nameplate.windingMaterial);
+}
+
 namespace {
 
 std::optional<double> meanOf(const std::vector<TemperatureRecord> &records, TemperatureKind kind)
@@ -98,8 +111,11 @@ FigureOptions figureOptionsFor(const ComparisonOptions &options, const std::vect
         figures.rule = recorded.settings->rule;
         row.settingsFromRecord = true;
     }
-    if (!options.limitChosen && recorded.settings->regulationLimitPercent) {
-        figures.regulationLimitPercent = recorded.settings->regulationLimitPercent;
+    if (!options.limitChosen && recorded.settings->regulationLimitNameplate) {
+        figures.regulationLimit = {RegulationLimitChoice::Kind::Nameplate, 0.0};
+        row.settingsFromRecord = true;
+    } else if (!options.limitChosen && recorded.settings->regulationLimitPercent) {
+        figures.regulationLimit = {RegulationLimitChoice::Kind::Stated, *recorded.settings->regulationLimitPercent};
         row.settingsFromRecord = true;
     }
     // Only the copper convention is a choice here; an aluminium winding always uses 225 °C.
@@ -166,7 +182,8 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     row.supervision = summarizeSupervision(notes.value);
     row.readingCount = readings.value.size();
 
-    row.fit = fitReadings(readings.value, options.method);
+    const SetupParse setup = parseSetupJson(info.value.setupJson);
+    row.fit = fitReadings(readings.value, options.method, fitOptionsFor(setup.setup ? setup.setup->meters : std::nullopt));
     row.points.reserve(readings.value.size());
     for (std::size_t i = 0; i < readings.value.size(); ++i) {
         const Reading &reading = readings.value[i];
@@ -176,7 +193,6 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     }
     row.pointsUsed = row.fit.n;
 
-    const SetupParse setup = parseSetupJson(info.value.setupJson);
     if (!setup.setup) {
         row.opened = true;
         row.figures.message = "the session's setup cannot be read: "
@@ -188,6 +204,7 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     std::optional<double> winding = meanOf(temperatures.value, TemperatureKind::Winding);
     if (!winding)
         winding = meanOf(temperatures.value, TemperatureKind::Ambient);
+    row.design = designOf(setup.setup->nameplate);
     row.figures = computeSessionFigures(row.fit, *setup.setup, winding,
                                         figureOptionsFor(options, notes.value, row));
     row.opened = true;
@@ -246,7 +263,9 @@ BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
             switch (*row->figures.verdict) {
             case ConformityOutcome::Pass: ++stats.pass; break;
             case ConformityOutcome::Fail: ++stats.fail; break;
-            case ConformityOutcome::CannotDecide: ++stats.undecided; break;
+            case ConformityOutcome::ConditionalPass: ++stats.conditionalPass; break;
+            case ConformityOutcome::ConditionalFail: ++stats.conditionalFail; break;
+            case ConformityOutcome::NotJudged: ++stats.notJudged; break;
             }
         }
         if (row->seal.state == SealState::ChangedAfterSignOff || row->seal.state == SealState::Altered) {
@@ -301,12 +320,23 @@ BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
     stats.madOhm = median(deviations);
 
     const std::string rule = "modified z-score 0.6745 (R - median)/MAD, flagged above 3.5 (Iglewicz and Hoaglin 1993)";
+    // A batch statement needs enough units of one design; below that the marks only screen.
+    std::vector<std::string> designs;
+    for (std::size_t owner : owners)
+        if (std::find(designs.begin(), designs.end(), rows[owner]->design) == designs.end())
+            designs.push_back(rows[owner]->design);
+    stats.screeningOnly = designs.size() != 1 || values.size() < farFromBatchMinimumUnits;
+    const std::string screening =
+        stats.screeningOnly ? std::string("; screening only (") + (designs.size() != 1 ? "units of more than one design"
+                                                                                       : "fewer than 10 units of one design")
+                                  + ")"
+                            : std::string();
     if (values.size() < robustZMinimumUnits) {
         stats.ruleNote = rule + ": needs at least 3 units";
     } else if (!(*stats.madOhm > 0.0)) {
         stats.ruleNote = rule + ": not applied, MAD is zero (half the units have the same R)";
     } else {
-        stats.ruleNote = rule;
+        stats.ruleNote = rule + screening;
         for (std::size_t k = 0; k < values.size(); ++k) {
             const double z = robustZConstant * (values[k] - *stats.medianOhm) / *stats.madOhm;
             stats.robustZ[owners[k]] = z;
@@ -315,6 +345,14 @@ BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
         }
     }
     return stats;
+}
+
+std::string verdictCountsText(const BatchStatistics &stats)
+{
+    return "pass " + std::to_string(stats.pass) + ", conditional pass " + std::to_string(stats.conditionalPass)
+           + ", conditional fail " + std::to_string(stats.conditionalFail) + ", fail " + std::to_string(stats.fail)
+           + ", not judged " + std::to_string(stats.notJudged) + ", n/a " + std::to_string(stats.noVerdict)
+           + ", incomplete (no verdict) " + std::to_string(stats.incomplete);
 }
 
 BatchStatistics summarizeBatch(const std::vector<SessionRow> &rows)

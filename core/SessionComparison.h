@@ -28,6 +28,9 @@ namespace sagline {
 inline constexpr double robustZThreshold = 3.5;    // Iglewicz and Hoaglin (1993)
 inline constexpr double robustZConstant = 0.6745;  // Φ⁻¹(0.75), makes MAD consistent with σ for normal data
 inline constexpr std::size_t robustZMinimumUnits = 3;
+// Far-from-batch marks are a statement about a batch only with at least this many units of one
+// design; below it (or across designs) they are labelled "screening only" (common practice).
+inline constexpr std::size_t farFromBatchMinimumUnits = 10;
 
 struct ComparisonOptions {
     FitMethod method = FitMethod::Ols;
@@ -65,6 +68,7 @@ struct SessionRow {
     SessionProgress progress;         // k of N steps and how the sweep ended
     SupervisionSummary supervision;
     bool settingsFromRecord = false;  // rule, limit or constant taken from the session's record
+    std::string design;               // designOf(nameplate): units of one design compare
     std::vector<ComparisonPoint> points; // for the overlay chart, in recording order
 
     // R the batch compares: at the reference temperature when known, else as measured.
@@ -79,6 +83,9 @@ struct SessionRow {
 // The identity of an instrument from its IEEE 488.2 *IDN? reply "maker,model,serial,firmware":
 // "maker model"; any other text is returned trimmed.
 std::string instrumentShortName(const std::string &identity);
+
+// The design a nameplate describes: "60 VA 230/18 V 50 Hz laminated copper".
+std::string designOf(const Nameplate &nameplate);
 
 // Opens one session for review and computes its row. Never throws.
 SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &options);
@@ -99,7 +106,9 @@ struct BatchStatistics {
     std::optional<double> minOhm, maxOhm;
     std::optional<double> medianOhm;
     std::optional<double> madOhm;     // median absolute deviation (unscaled)
-    std::size_t pass = 0, fail = 0, undecided = 0, noVerdict = 0;
+    std::size_t pass = 0, fail = 0, conditionalPass = 0, conditionalFail = 0;
+    std::size_t notJudged = 0;        // analysed, no limit stated
+    std::size_t noVerdict = 0;        // no analysis
     std::size_t incomplete = 0;       // ended early (stop, crash): no verdict counted
     std::size_t accepted = 0, rejected = 0, retest = 0, notReviewed = 0;
     std::size_t changedAfterSignOff = 0; // reopened or altered: the sign-off no longer holds
@@ -107,8 +116,12 @@ struct BatchStatistics {
     std::size_t limitHit = 0;         // rows with at least one lab-sheet limit hit
     std::vector<std::optional<double>> robustZ; // one per row considered (same order), when computable
     std::vector<std::size_t> farFromBatch;      // indices (into the rows considered) with |z| > 3.5
+    bool screeningOnly = true;        // fewer than 10 units of one design: the marks only screen
     std::string ruleNote;             // which rule was applied, or why it could not be
 };
+
+// "pass 3, conditional pass 1, conditional fail 0, fail 0, not judged 2, n/a 0".
+std::string verdictCountsText(const BatchStatistics &stats);
 
 // Statistics over `rows` (e.g. the selection or the filtered rows).
 BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows);

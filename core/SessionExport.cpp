@@ -1,5 +1,7 @@
 #include "SessionExport.h"
 
+#include "AssessmentJson.h"
+
 #include "CsvField.h"
 
 #include <nlohmann/json.hpp>
@@ -55,11 +57,9 @@ json fitToJson(const FitSummary &fit)
     out["no_load_voltage_se_v"] = optionalNumber(fit.interceptSe);
     out["r_squared"] = optionalNumber(fit.rSquared);
     out["residual_sd_v"] = optionalNumber(fit.residualSdV);
-    if (fit.seriesResistanceCi)
-        out["series_resistance_ci95_ohm"] = json::array({number(fit.seriesResistanceCi->low), number(fit.seriesResistanceCi->high)});
-    else
-        out["series_resistance_ci95_ohm"] = nullptr;
+    out["series_resistance_ci95_ohm"] = nullptr; // filled by the caller from the budget or the fit
     out["outliers"] = fit.outlierRows;
+    out["outlier_screening"] = outlierScreeningJson(fit.outlierScreening);
     out["curvature_p"] = optionalNumber(fit.curvatureP);
     if (fit.method != FitMethod::Ols) {
         out["series_resistance_se_scaled_ohm"] = optionalNumber(fit.slopeSeScaled);
@@ -71,9 +71,7 @@ json fitToJson(const FitSummary &fit)
 
 json uncertain(const UncertainValue &value)
 {
-    return {{"value", number(value.value)},
-            {"standard_uncertainty", optionalNumber(value.standardUncertainty)},
-            {"expanded_uncertainty", optionalNumber(value.expandedUncertainty)}};
+    return json(uncertainValueJson(value));
 }
 
 json analysisToJson(const SessionSummary &summary)
@@ -82,7 +80,9 @@ json analysisToJson(const SessionSummary &summary)
         return {{"available", false}, {"reason", summary.analysisProblem}};
     const AnalysisResult &a = *summary.analysis;
     json out = {{"available", true},
-                {"coverage_factor", number(a.coverageFactor)},
+                {"coverage_probability", coverageProbability},
+                {"uncertainty_basis", a.uncertaintyBasis},
+                {"meters_known", a.metersKnown},
                 {"series_resistance_ohm", uncertain(a.seriesResistanceOhm)},
                 {"no_load_voltage_v", uncertain(a.noLoadVoltageV)},
                 {"full_load_voltage_v", uncertain(a.fullLoadVoltageV)},
@@ -91,11 +91,9 @@ json analysisToJson(const SessionSummary &summary)
                 {"copper_loss_w", uncertain(a.copperLossW)}};
     out["primary_resistance_ohm"] = a.primaryResistanceOhm ? uncertain(*a.primaryResistanceOhm) : json(nullptr);
     out["reference_resistance_ohm"] = a.referenceResistanceOhm ? uncertain(*a.referenceResistanceOhm) : json(nullptr);
+    out["results"] = resultsJson(a);
     out["winding_temperature_c"] = optionalNumber(summary.latestTemperatureC(TemperatureKind::Winding));
-    out["reference_temperature_c"] = a.referenceResistanceOhm ? optionalNumber(summary.options.referenceTemperatureC
-                                                                                   ? summary.options.referenceTemperatureC
-                                                                                   : std::optional<double>(defaultReferenceTemperatureC))
-                                                              : json(nullptr);
+    out["reference_temperature_c"] = optionalNumber(a.referenceTemperatureC);
     out["reference_temperature_defaulted"] = summary.referenceTemperatureDefaulted;
     out["settings_used"] = describeSettingsUsed(summary);
     out["temperature_convention"] = a.temperatureCorrection ? json(a.temperatureCorrection->convention) : json(nullptr);
@@ -104,19 +102,23 @@ json analysisToJson(const SessionSummary &summary)
 
 json verdictToJson(const SessionSummary &summary)
 {
-    if (!summary.decision)
+    if (!summary.verdict)
         return nullptr;
-    const ConformityDecision &d = *summary.decision;
-    if (!d.ok)
-        return {{"outcome", nullptr}, {"error", d.error}};
-    return {{"outcome", toString(d.outcome)},        {"rule", toString(d.rule)},
-            {"rule_name", d.ruleName},               {"measured_percent", number(d.measured)},
-            {"expanded_uncertainty_percent", number(d.expandedUncertainty)},
-            {"upper_limit_percent", number(d.upperLimit)}, {"acceptance_limit_percent", number(d.acceptanceLimit)},
-            {"explanation", d.explanation}};
+    return verdictJson(*summary.verdict);
 }
 
 } // namespace
+
+std::optional<Interval> seriesResistanceInterval(const SessionSummary &summary)
+{
+    if (summary.analysis) {
+        const UncertainValue &r = summary.analysis->seriesResistanceOhm;
+        if (!r.expandedUncertainty)
+            return std::nullopt;
+        return Interval{r.value - *r.expandedUncertainty, r.value + *r.expandedUncertainty};
+    }
+    return summary.fit.seriesResistanceCi;
+}
 
 std::string readingsToCsv(const std::vector<Reading> &readings)
 {
@@ -162,16 +164,20 @@ std::string fitResultsToCsv(const SessionSummary &summary)
     row("fit_status", toString(fit.status), "", "");
     row("points_used", std::to_string(fit.n), "", "");
     if (fit.ok()) {
-        row("series_resistance", exact(fit.seriesResistanceOhm()), exact(fit.analysisSlopeSe()), "ohm");
-        row("no_load_voltage", exact(fit.noLoadVoltageV()), exact(fit.analysisInterceptSe()), "V");
+        // With an analysis, R and V0 carry their full budgets' u and the interval is R ± U.
+        const AnalysisResult *a = summary.analysis ? &*summary.analysis : nullptr;
+        row("series_resistance", exact(fit.seriesResistanceOhm()),
+            exact(a ? a->seriesResistanceOhm.standardUncertainty : fit.analysisSlopeSe()), "ohm");
+        row("no_load_voltage", exact(fit.noLoadVoltageV()),
+            exact(a ? a->noLoadVoltageV.standardUncertainty : fit.analysisInterceptSe()), "V");
         row("r_squared", exact(fit.rSquared), "", "");
         row("residual_sd", exact(fit.residualSdV), "", "V");
         row("curvature_p", exact(fit.curvatureP), "", "");
-        if (fit.seriesResistanceCi) {
-            row("series_resistance_ci95_low", exact(fit.seriesResistanceCi->low), "", "ohm");
-            row("series_resistance_ci95_high", exact(fit.seriesResistanceCi->high), "", "ohm");
+        if (const auto ci = seriesResistanceInterval(summary)) {
+            row("series_resistance_ci95_low", exact(ci->low), "", "ohm");
+            row("series_resistance_ci95_high", exact(ci->high), "", "ohm");
         }
-        if (const auto &a = summary.analysis) {
+        if (a) {
             auto add = [&](const std::string &name, const UncertainValue &v, const std::string &unit) {
                 row(name, exact(v.value), exact(v.standardUncertainty), unit);
             };
@@ -182,9 +188,16 @@ std::string fitResultsToCsv(const SessionSummary &summary)
                 add("series_resistance_referred_to_primary", *a->primaryResistanceOhm, "ohm");
             if (a->referenceResistanceOhm)
                 add("series_resistance_at_reference_temperature", *a->referenceResistanceOhm, "ohm");
+            if (a->referredFullLoadVoltageV)
+                add("full_load_voltage_at_reference_temperature", *a->referredFullLoadVoltageV, "V");
+            if (a->referredRegulationPercent)
+                add("regulation_" + toString(a->regulationBase) + "_at_reference_temperature",
+                    *a->referredRegulationPercent, "%");
+            if (a->referredCopperLossW)
+                add("copper_loss_at_reference_temperature", *a->referredCopperLossW, "W");
         }
-        if (summary.decision && summary.decision->ok)
-            row("verdict_" + toString(summary.decision->rule), toString(summary.decision->outcome), "", "");
+        if (summary.verdict)
+            row("verdict_" + toString(summary.verdict->rule), toString(summary.verdict->outcome), "", "");
         for (const PointFit &point : fit.points) {
             if (point.row >= summary.readings.size())
                 continue;
@@ -229,6 +242,10 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
                        {"planned_steps", summary.progress.plannedSteps},
                        {"label", summary.progress.label()}};
     out["fit"] = fitToJson(summary.fit);
+    if (summary.fit.ok()) {
+        if (const auto ci = seriesResistanceInterval(summary))
+            out["fit"]["series_resistance_ci95_ohm"] = json::array({number(ci->low), number(ci->high)});
+    }
     out["analysis"] = analysisToJson(summary);
     out["verdict"] = verdictToJson(summary);
     if (out["verdict"].is_object())

@@ -18,6 +18,10 @@ std::string readingsToCsv(const std::vector<Reading> &readings);
 // force), superseded_reason (a retake), recorded_by, recorded_account. Import skips these.
 std::string sessionReadingsToCsv(const SessionSummary &summary);
 
+// The 95 % interval of R printed everywhere: R ± U of its budget when the session has an
+// analysis, else the fit's own (Student t, n - 2 dof, the scatter alone). Empty below 3 points.
+std::optional<Interval> seriesResistanceInterval(const SessionSummary &summary);
+
 // Header: quantity,value,standard_uncertainty,unit, one row per fitted quantity (R, V0, ...),
 // then per reading: reading_id, residual and studentized residual under the same columns.
 std::string fitResultsToCsv(const SessionSummary &summary);

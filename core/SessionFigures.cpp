@@ -21,22 +21,26 @@ SessionFigures computeSessionFigures(const FitSummary &fit, const Setup &setup,
     figures.resistanceOhm = fit.seriesResistanceOhm();
     figures.noLoadVoltageV = fit.noLoadVoltageV();
 
-    AnalysisInput input = analysisInputFor(setup.nameplate);
+    AssessmentOptions assessmentOptions;
+    assessmentOptions.rule = options.rule;
+    assessmentOptions.regulationLimit = options.regulationLimit;
+    assessmentOptions.windingTemperatureC = windingTemperatureC;
+    assessmentOptions.referenceTemperatureC = options.referenceTemperatureC;
+    assessmentOptions.judgeAtReferenceTemperature = options.judgeAtReferenceTemperature;
+    // Only the copper convention is a choice; an aluminium winding keeps 225 °C.
     if (setup.nameplate.windingMaterial == WindingMaterial::Copper)
-        input.temperatureConstant = options.copperConstant;
-    input.coverageFactor = options.coverageFactor;
-    input.windingTemperatureC = windingTemperatureC;
-    if (windingTemperatureC)
-        input.referenceTemperatureC = options.referenceTemperatureC;
-    figures.temperatureConstantC = temperatureConstantC(input.temperatureConstant);
-    figures.ratedCurrentA = input.ratedCurrentA;
-
-    const AnalysisResult analysis = analyseFit(fit, input);
+        assessmentOptions.temperatureConstant = options.copperConstant;
+    figures.assessment = assessFit(fit, setup, assessmentOptions);
+    const AnalysisResult &analysis = figures.assessment.analysis;
+    figures.temperatureConstantC = temperatureConstantC(
+        assessmentOptions.temperatureConstant.value_or(analysisInputFor(setup.nameplate).temperatureConstant));
+    figures.ratedCurrentA = analysisInputFor(setup.nameplate).ratedCurrentA;
     if (!analysis.ok()) {
         figures.message = "no analysis at rated current: " + analysis.errors.front().message();
         return figures;
     }
     figures.ok = true;
+    figures.metersKnown = analysis.metersKnown;
     figures.resistanceOhm = analysis.seriesResistanceOhm.value;
     figures.resistanceUOhm = analysis.seriesResistanceOhm.expandedUncertainty;
     figures.noLoadVoltageV = analysis.noLoadVoltageV.value;
@@ -47,18 +51,14 @@ SessionFigures computeSessionFigures(const FitSummary &fit, const Setup &setup,
     }
     figures.regulationPercent = analysis.regulationPercent.value;
     figures.regulationUPercent = analysis.regulationPercent.expandedUncertainty;
-    figures.regulationLimitPercent = options.regulationLimitPercent ? options.regulationLimitPercent
-                                                                    : nameplateRegulationPercent(setup.nameplate);
-    if (figures.regulationLimitPercent) {
-        // U unknown (two points) is passed as unknown, never as 0: the guarded rule then cannot
-        // decide, the simple rule decides on the value alone (core/ConformityDecision.h).
-        const ConformityDecision decision = decideAgainstUpperLimit(
-            *figures.regulationPercent, figures.regulationUPercent, *figures.regulationLimitPercent, options.rule);
-        if (decision.ok) {
-            figures.verdict = decision.outcome;
-            figures.ruleName = decision.ruleName;
-        }
-    }
+    const SpecificationVerdict &verdict = figures.assessment.verdict;
+    for (const ConformityDecision &d : verdict.limits)
+        if (d.quantity.rfind("regulation", 0) == 0)
+            figures.regulationLimitPercent = d.limits.max;
+    figures.verdict = verdict.outcome;
+    figures.conformanceProbability = verdict.conformanceProbability;
+    figures.ruleName = verdict.ruleName;
+    figures.limitsSource = verdict.limitsSource;
     return figures;
 }
 

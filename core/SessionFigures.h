@@ -4,6 +4,7 @@
 // winding temperature) and the review's options, and keeps what the comparison table shows.
 #pragma once
 
+#include "ConformityAssessment.h"
 #include "ConformityDecision.h"
 #include "FitSummary.h"
 #include "ResultAnalysis.h"
@@ -19,16 +20,16 @@ struct FigureOptions {
     // T_k for copper windings: IEEE C57.12.90's 234.5 °C (the analysis default) or IEC 60076-1's 235 °C.
     // Aluminium windings always use 225 °C.
     TemperatureConstant copperConstant = TemperatureConstant::CopperIeee;
-    DecisionRule rule = DecisionRule::GuardedAcceptance;
-    double coverageFactor = 2.0;          // k for expanded uncertainties (GUM 6.2; about 95 %)
-    std::optional<double> regulationLimitPercent; // absent: the nameplate's regulation
+    DecisionRule rule = DecisionRule::NonBinary;
+    RegulationLimitChoice regulationLimit; // default: the setup's specification (none: not judged)
+    bool judgeAtReferenceTemperature = false; // true once the reference temperature was chosen
 };
 
 struct SessionFigures {
     bool ok = false;                             // a fit and an analysis at rated current
     std::string message;                         // why not (the fit's or the analysis's message)
     double resistanceOhm = 0.0;                  // R = -slope, at the measured temperature, Ω
-    std::optional<double> resistanceUOhm;        // expanded, k = coverageFactor
+    std::optional<double> resistanceUOhm;        // expanded (95 %, k = t95(ν_eff) of its own budget)
     double noLoadVoltageV = 0.0;                 // V0
     std::optional<double> noLoadVoltageUV;       // expanded
     std::optional<double> windingTemperatureC;   // temperature R was measured at
@@ -39,12 +40,16 @@ struct SessionFigures {
     double ratedCurrentA = 0.0;                  // rated VA / rated secondary voltage
     std::optional<double> regulationPercent;     // (V0 - V_fl)/V_fl × 100 at rated current
     std::optional<double> regulationUPercent;    // expanded
-    std::optional<double> regulationLimitPercent;// the tolerance limit it was judged against
-    std::optional<ConformityOutcome> verdict;    // absent: no regulation or no limit
-    DecisionRule rule = DecisionRule::GuardedAcceptance;
+    std::optional<double> regulationLimitPercent;// the regulation limit judged against, if any
+    std::optional<ConformityOutcome> verdict;    // absent: no analysis; not-judged without limits
+    std::optional<double> conformanceProbability; // the lowest of the judged limits', 0..1
+    DecisionRule rule = DecisionRule::NonBinary;
     std::string ruleName;                        // the decision's own rule text, e.g. "ILAC-G8:09/2019 ..."
+    std::string limitsSource;                    // where the limits came from
+    bool metersKnown = false;                    // the uncertainties include the meters' specifications
+    Assessment assessment;                       // everything behind these figures (budgets, limits)
 
-    std::string verdictText() const;             // "pass", "fail", "cannot-decide", or "n/a"
+    std::string verdictText() const;             // "pass", ..., "not-judged", or "n/a" without analysis
 };
 
 // `windingTemperatureC` absent: no R at the reference temperature.

@@ -129,15 +129,16 @@ std::size_t SessionSummary::readingNumber(std::int64_t readingId) const
 std::string SessionSummary::verdictText() const
 {
     std::string outcome = "not judged";
-    if (decision && decision->ok)
-        outcome = toString(decision->outcome);
+    if (verdict)
+        outcome = toString(verdict->outcome);
     return progress.verdictText(outcome);
 }
 
 namespace {
 
-// Analysis at rated current and the verdict on regulation, from the session's own nameplate
-// and winding temperature; what is missing is said in analysisProblem.
+// Analysis at rated current and the verdict against the specification, from the session's own
+// setup and winding temperature (core/ConformityAssessment); what is missing is said in
+// analysisProblem.
 void analyse(SessionSummary &summary)
 {
     if (!summary.setup) {
@@ -149,27 +150,27 @@ void analyse(SessionSummary &summary)
         return;
     }
     const ReviewOptions &options = summary.options;
-    AnalysisInput input = analysisInputFor(summary.setup->nameplate);
-    if (options.temperatureConstant)
-        input.temperatureConstant = *options.temperatureConstant;
-    input.windingTemperatureC = summary.latestTemperatureC(TemperatureKind::Winding);
-    if (input.windingTemperatureC) {
-        input.referenceTemperatureC = options.referenceTemperatureC.value_or(defaultReferenceTemperatureC);
+    AssessmentOptions assessment;
+    assessment.rule = summary.rule;
+    if (options.regulationLimit)
+        assessment.regulationLimit = *options.regulationLimit;
+    assessment.temperatureConstant = options.temperatureConstant;
+    assessment.windingTemperatureC = options.windingTemperatureC ? options.windingTemperatureC
+                                                                 : summary.latestTemperatureC(TemperatureKind::Winding);
+    if (assessment.windingTemperatureC) {
+        assessment.referenceTemperatureC = options.referenceTemperatureC.value_or(defaultReferenceTemperatureC);
         summary.referenceTemperatureDefaulted = !options.referenceTemperatureC.has_value();
+        // A defaulted reference temperature is shown, not judged at: the verdict stays on the
+        // measured values unless someone set the temperature.
+        assessment.judgeAtReferenceTemperature = !summary.referenceTemperatureDefaulted;
     }
-    AnalysisResult analysis = analyseFit(summary.fit, input);
-    if (!analysis.ok()) {
-        summary.analysisProblem = analysis.errors.front().message();
+    Assessment result = assessFit(summary.fit, *summary.setup, assessment);
+    if (!result.analysis.ok()) {
+        summary.analysisProblem = result.analysis.errors.front().message();
         return;
     }
-    summary.regulationLimitPercent = options.regulationLimitPercent ? options.regulationLimitPercent
-                                                                    : nameplateRegulationPercent(summary.setup->nameplate);
-    if (summary.regulationLimitPercent) {
-        const UncertainValue &regulation = analysis.regulationPercent;
-        summary.decision = decideAgainstUpperLimit(regulation.value, regulation.expandedUncertainty,
-                                                   *summary.regulationLimitPercent, summary.rule);
-    }
-    summary.analysis = std::move(analysis);
+    summary.analysis = std::move(result.analysis);
+    summary.verdict = std::move(result.verdict);
 }
 
 // Fills the choices the caller left open from the session's latest analysis-settings record.
@@ -182,8 +183,8 @@ void applyRecordedSettings(SessionSummary &summary)
         return given ? SettingSource::Option : inRecord ? SettingSource::SessionRecord : SettingSource::Default;
     };
     summary.ruleSource = source(options.rule.has_value(), recorded.has_value());
-    summary.regulationLimitSource =
-        source(options.regulationLimitPercent.has_value(), recorded && recorded->regulationLimitPercent);
+    const bool recordedLimit = recorded && (recorded->regulationLimitPercent || recorded->regulationLimitNameplate);
+    summary.regulationLimitSource = source(options.regulationLimit.has_value(), recordedLimit);
     summary.referenceTemperatureSource =
         source(options.referenceTemperatureC.has_value(), recorded && recorded->referenceTemperatureC);
     summary.temperatureConstantSource =
@@ -191,14 +192,17 @@ void applyRecordedSettings(SessionSummary &summary)
     if (recorded) {
         if (!options.rule)
             options.rule = recorded->rule;
-        if (!options.regulationLimitPercent)
-            options.regulationLimitPercent = recorded->regulationLimitPercent;
+        if (!options.regulationLimit && recordedLimit)
+            options.regulationLimit = recorded->regulationLimitNameplate
+                                          ? RegulationLimitChoice{RegulationLimitChoice::Kind::Nameplate, 0.0}
+                                          : RegulationLimitChoice{RegulationLimitChoice::Kind::Stated,
+                                                                  *recorded->regulationLimitPercent};
         if (!options.referenceTemperatureC)
             options.referenceTemperatureC = recorded->referenceTemperatureC;
         if (!options.temperatureConstant)
             options.temperatureConstant = recorded->temperatureConstant;
     }
-    summary.rule = options.rule.value_or(DecisionRule::GuardedAcceptance);
+    summary.rule = options.rule.value_or(DecisionRule::NonBinary);
 }
 
 } // namespace
@@ -238,7 +242,8 @@ StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const Re
     for (const StoredPlanStep &step : summary.plan.steps)
         plannedSteps.push_back(step.index);
     summary.progress = sessionProgress(plannedSteps, summary.readings, summary.safetyStops, summary.sweepEvents, false);
-    summary.fit = fitReadings(summary.readings, options.method);
+    summary.fit = fitReadings(summary.readings, options.method,
+                              fitOptionsFor(summary.setup ? summary.setup->meters : std::nullopt));
     applyRecordedSettings(summary);
     analyse(summary);
     return summary;
@@ -255,7 +260,10 @@ std::string describeSettingsUsed(const SessionSummary &summary)
     const ReviewOptions &o = summary.options;
     std::string line = "decision rule " + toString(summary.rule) + from(summary.ruleSource);
     line += "; regulation limit "
-            + (o.regulationLimitPercent ? number(*o.regulationLimitPercent) + " %" : std::string("from the nameplate"))
+            + (!o.regulationLimit ? std::string("from the specification")
+               : o.regulationLimit->kind == RegulationLimitChoice::Kind::Nameplate
+                   ? std::string("the nameplate's regulation")
+                   : number(o.regulationLimit->percent) + " %")
             + from(summary.regulationLimitSource);
     line += "; reference temperature " + number(o.referenceTemperatureC.value_or(defaultReferenceTemperatureC)) + " °C"
             + from(summary.referenceTemperatureSource);

@@ -4,6 +4,7 @@
 #pragma once
 
 #include "AnalysisSettingsRecord.h"
+#include "ConformityAssessment.h"
 #include "ConformityDecision.h"
 #include "FitSummary.h"
 #include "Reading.h"
@@ -54,9 +55,11 @@ StoredPlan parseStoredPlan(const std::string &planJson);
 // when it has one, else from the default named beside it.
 struct ReviewOptions {
     FitMethod method = FitMethod::Ols;
-    std::optional<DecisionRule> rule;                           // default: guarded (ILAC-G8:2019)
-    std::optional<double> regulationLimitPercent;               // default: the nameplate's regulation
+    std::optional<DecisionRule> rule;                           // default: non-binary (ILAC-G8:09/2019 §4.2.3)
+    std::optional<RegulationLimitChoice> regulationLimit;       // default: the setup's specification
     std::optional<double> referenceTemperatureC;                // default: 75 °C when a winding temperature exists
+                                                                // (shown; judged at only when set)
+    std::optional<double> windingTemperatureC;                  // default: the session's latest winding temperature
     std::optional<TemperatureConstant> temperatureConstant;     // default: from the winding material
 };
 
@@ -85,19 +88,18 @@ struct SessionSummary {
     SealReport seal;                         // signed, changed after sign-off, altered
     SessionProgress progress;                // k of N steps and how the sweep ended (never "running": read from a file)
     ReviewOptions options;                   // as used: the options given, gaps filled from the record
-    DecisionRule rule = DecisionRule::GuardedAcceptance; // the decision rule used
+    DecisionRule rule = DecisionRule::NonBinary; // the decision rule used
     // Where each choice came from (option, session record or default).
     SettingSource ruleSource = SettingSource::Default;
     SettingSource regulationLimitSource = SettingSource::Default;
     SettingSource referenceTemperatureSource = SettingSource::Default;
     SettingSource temperatureConstantSource = SettingSource::Default;
     RecordedAnalysisSettings recordedSettings; // the latest record and notices about bad ones
-    FitSummary fit;                          // fitReadings(readings, options.method)
+    FitSummary fit;                          // fitReadings(readings, options.method, the setup's fit options)
     std::optional<AnalysisResult> analysis;  // when the setup parsed and the fit is ok
     std::string analysisProblem;             // why there is no analysis, "" when there is
     bool referenceTemperatureDefaulted = false; // T_ref is defaultReferenceTemperatureC, not chosen
-    std::optional<double> regulationLimitPercent; // the limit the verdict used, %
-    std::optional<ConformityDecision> decision;   // the verdict on regulation
+    std::optional<SpecificationVerdict> verdict; // with the analysis: outcome (or not-judged), limits
 
     std::size_t excludedCount() const;
     // The latest recorded temperature of a kind, °C.

@@ -48,9 +48,50 @@ struct Bench {
     double dwellS = 10.0;                               // wait at each step before reading, s
 };
 
+// One meter's accuracy as a systematic error common to every reading it takes on one range
+// (JCGM 100:2008, 5.2: propagated once, never as independent per-point errors). The gain and
+// offset are half-widths of rectangular limits (u = a/sqrt(3), GUM 4.3.7); the resolution is
+// one count of the last digit (u = δ/sqrt(12), GUM F.2.2.1).
+struct MeterSpec {
+    double gainPercentOfReading = 0.0;                  // half-width, % of the reading
+    double offset = 0.0;                                // half-width, V (voltmeter) or A (ammeter)
+    double resolution = 0.0;                            // one count, V or A; 0 = not known
+};
+
+// The `meters` section: the secondary voltmeter and ammeter, and how well the winding's
+// temperature is known (for R referred to a reference temperature).
+struct MeterSpecs {
+    MeterSpec voltmeter;
+    MeterSpec ammeter;
+    std::optional<double> windingTemperatureUncertaintyC; // standard uncertainty, °C; absent: the default
+};
+
+// A two-sided (or one-sided) tolerance interval; at least one end is set.
+struct ToleranceRange {
+    std::optional<double> min;
+    std::optional<double> max;
+};
+
+// The `specification` section: the limits the unit is judged against, each judged when
+// present, with where they come from (drawing, datasheet, standard clause).
+struct Specification {
+    std::optional<double> regulationMaxPercent;         // %, full-load base
+    std::optional<ToleranceRange> fullLoadVoltageV;     // V at rated current
+    std::optional<ToleranceRange> noLoadVoltageV;       // V
+    std::optional<double> seriesResistanceMaxOhm;       // Ω, referred to the secondary
+    std::string source;                                 // free text
+
+    bool hasLimits() const
+    {
+        return regulationMaxPercent || fullLoadVoltageV || noLoadVoltageV || seriesResistanceMaxOhm;
+    }
+};
+
 struct Setup {
     Nameplate nameplate;
     Bench bench;
+    std::optional<MeterSpecs> meters;                   // absent: uncertainty from the scatter only
+    std::optional<Specification> specification;         // absent: no pass/fail (not-judged)
 };
 
 } // namespace sagline

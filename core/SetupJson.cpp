@@ -10,6 +10,7 @@
 #include <cmath>
 #include <set>
 #include <sstream>
+#include <tuple>
 
 namespace sagline {
 
@@ -343,6 +344,116 @@ void readBench(const json &object, SetupParse &out, Bench &bench)
     }
 }
 
+// One meter of the `meters` section: gain (% of reading), offset and resolution in the meter's
+// unit; every item required (0 when the meter's specification has no such term).
+void readMeter(const json &object, const std::string &name, Unit unit, SetupParse &out, MeterSpec &meter)
+{
+    const std::string path = "meters." + name;
+    const std::string suffix = unit == Unit::Volt ? "_v" : "_a";
+    if (!object.is_object()) {
+        out.errors.push_back({path, "must be an object with gain_percent_of_reading, offset" + suffix + " and resolution"
+                                        + suffix});
+        return;
+    }
+    SectionReader r(object, path, out);
+    r.rejectUnknownKeys({"gain_percent_of_reading", "offset" + suffix, "resolution" + suffix});
+    const double maxValue = unit == Unit::Volt ? maxVoltageV : 100.0;
+    meter.gainPercentOfReading = r.required("gain_percent_of_reading", Unit::Percent);
+    if (!r.isMissing("gain_percent_of_reading"))
+        r.inRange("gain_percent_of_reading", meter.gainPercentOfReading, 0.0, true, 10.0, " %",
+                  "half-width of the meter's gain error; give 0 if its specification has none");
+    meter.offset = r.required("offset" + suffix, unit);
+    if (!r.isMissing("offset" + suffix))
+        r.inRange("offset" + suffix, meter.offset, 0.0, true, maxValue, " " + unitSymbol(unit),
+                  "half-width of the meter's offset (the counts term), in " + unitSymbol(unit));
+    meter.resolution = r.required("resolution" + suffix, unit);
+    if (!r.isMissing("resolution" + suffix))
+        r.inRange("resolution" + suffix, meter.resolution, 0.0, true, maxValue, " " + unitSymbol(unit),
+                  "one count of the last digit; give 0 if unknown");
+}
+
+void readMeters(const json &object, SetupParse &out, std::optional<MeterSpecs> &meters)
+{
+    if (!object.is_object()) {
+        out.errors.push_back({"meters", "must be an object with voltmeter and ammeter"});
+        return;
+    }
+    SectionReader r(object, "meters", out);
+    r.rejectUnknownKeys({"voltmeter", "ammeter", "winding_temperature_u_c"});
+    MeterSpecs specs;
+    for (const auto &[key, unit, target] : {std::tuple{"voltmeter", Unit::Volt, &specs.voltmeter},
+                                            std::tuple{"ammeter", Unit::Ampere, &specs.ammeter}}) {
+        if (r.isMissing(key))
+            r.error(key, "is required: the meters section describes both the secondary voltmeter and ammeter");
+        else
+            readMeter(object.at(key), key, unit, out, *target);
+    }
+    if (auto u = r.quantity("winding_temperature_u_c", Unit::Celsius)) {
+        if (r.inRange("winding_temperature_u_c", *u, 0.0, false, 50.0, " °C",
+                      "standard uncertainty of the winding temperature"))
+            specs.windingTemperatureUncertaintyC = *u;
+    }
+    meters = specs;
+}
+
+// {"min": ..., "max": ...}: at least one end, min below max.
+std::optional<ToleranceRange> readRange(const json &object, const std::string &path, Unit unit, SetupParse &out)
+{
+    if (!object.is_object()) {
+        out.errors.push_back({path, "must be an object with min and/or max (" + unitQuantityName(unit) + " in "
+                                        + unitSymbol(unit) + ")"});
+        return std::nullopt;
+    }
+    SectionReader r(object, path, out);
+    r.rejectUnknownKeys({"min", "max"});
+    ToleranceRange range;
+    range.min = r.quantity("min", unit);
+    range.max = r.quantity("max", unit);
+    if (r.isMissing("min") && r.isMissing("max")) {
+        out.errors.push_back({path, "needs min, max or both"});
+        return std::nullopt;
+    }
+    if (range.min && range.max && !(*range.min < *range.max)) {
+        std::ostringstream rule;
+        rule << "must be below max (" << *range.max << " " << unitSymbol(unit) << "), got " << *range.min;
+        r.error("min", rule.str());
+        return std::nullopt;
+    }
+    if (range.min)
+        r.inRange("min", *range.min, 0.0, true, maxVoltageV, " " + unitSymbol(unit));
+    if (range.max)
+        r.inRange("max", *range.max, 0.0, false, maxVoltageV, " " + unitSymbol(unit));
+    if (r.hasError("min") || r.hasError("max"))
+        return std::nullopt;
+    return range;
+}
+
+void readSpecification(const json &object, SetupParse &out, std::optional<Specification> &specification)
+{
+    if (!object.is_object()) {
+        out.errors.push_back({"specification", "must be an object of limits and their source"});
+        return;
+    }
+    SectionReader r(object, "specification", out);
+    r.rejectUnknownKeys({"regulation_max_percent", "full_load_voltage_v", "no_load_voltage_v",
+                         "series_resistance_max_ohm", "source"});
+    Specification spec;
+    if (auto limit = r.quantity("regulation_max_percent", Unit::Percent)) {
+        if (r.inRange("regulation_max_percent", *limit, 0.0, false, 100.0, " %", "full-load base"))
+            spec.regulationMaxPercent = *limit;
+    }
+    if (!r.isMissing("full_load_voltage_v"))
+        spec.fullLoadVoltageV = readRange(object.at("full_load_voltage_v"), r.field("full_load_voltage_v"), Unit::Volt, out);
+    if (!r.isMissing("no_load_voltage_v"))
+        spec.noLoadVoltageV = readRange(object.at("no_load_voltage_v"), r.field("no_load_voltage_v"), Unit::Volt, out);
+    if (auto limit = r.quantity("series_resistance_max_ohm", Unit::Ohm)) {
+        if (r.inRange("series_resistance_max_ohm", *limit, 0.0, false, 1e6, " Ω", "referred to the secondary"))
+            spec.seriesResistanceMaxOhm = *limit;
+    }
+    spec.source = r.text("source").value_or("");
+    specification = spec;
+}
+
 // nlohmann reports a byte offset; people want a line and a column.
 std::string positionText(std::string_view text, std::size_t byte)
 {
@@ -382,8 +493,10 @@ SetupParse parseSetupJson(std::string_view text)
     }
     Setup setup;
     for (const auto &item : document.items()) {
-        if (item.key() != "nameplate" && item.key() != "bench")
-            out.errors.push_back({item.key(), "is not a setup section; the sections are nameplate and bench"});
+        if (item.key() != "nameplate" && item.key() != "bench" && item.key() != "meters"
+            && item.key() != "specification")
+            out.errors.push_back({item.key(), "is not a setup section; the sections are nameplate, bench, meters and "
+                                              "specification"});
     }
     if (!document.contains("nameplate") || !document.at("nameplate").is_object())
         out.errors.push_back({"nameplate", "is required and must be an object"});
@@ -396,6 +509,10 @@ SetupParse parseSetupJson(std::string_view text)
     } else {
         readBench(document.at("bench"), out, setup.bench);
     }
+    if (document.contains("meters") && !document.at("meters").is_null())
+        readMeters(document.at("meters"), out, setup.meters);
+    if (document.contains("specification") && !document.at("specification").is_null())
+        readSpecification(document.at("specification"), out, setup.specification);
     if (out.errors.empty())
         out.setup = setup;
     return out;
@@ -444,7 +561,34 @@ std::string setupToJson(const Setup &setup)
         {"magnetizing_fraction", b.magnetizingFraction ? json(*b.magnetizingFraction) : json(nullptr)},
         {"dwell_s", b.dwellS},
     };
-    return json{{"nameplate", nameplate}, {"bench", bench}}.dump(2);
+    json root{{"nameplate", nameplate}, {"bench", bench}};
+    if (setup.meters) {
+        const MeterSpecs &m = *setup.meters;
+        root["meters"] = {
+            {"voltmeter", {{"gain_percent_of_reading", m.voltmeter.gainPercentOfReading},
+                           {"offset_v", m.voltmeter.offset}, {"resolution_v", m.voltmeter.resolution}}},
+            {"ammeter", {{"gain_percent_of_reading", m.ammeter.gainPercentOfReading},
+                         {"offset_a", m.ammeter.offset}, {"resolution_a", m.ammeter.resolution}}},
+            {"winding_temperature_u_c",
+             m.windingTemperatureUncertaintyC ? json(*m.windingTemperatureUncertaintyC) : json(nullptr)},
+        };
+    }
+    if (setup.specification) {
+        const Specification &s = *setup.specification;
+        const auto range = [](const std::optional<ToleranceRange> &r) {
+            if (!r)
+                return json(nullptr);
+            return json{{"min", r->min ? json(*r->min) : json(nullptr)}, {"max", r->max ? json(*r->max) : json(nullptr)}};
+        };
+        root["specification"] = {
+            {"regulation_max_percent", s.regulationMaxPercent ? json(*s.regulationMaxPercent) : json(nullptr)},
+            {"full_load_voltage_v", range(s.fullLoadVoltageV)},
+            {"no_load_voltage_v", range(s.noLoadVoltageV)},
+            {"series_resistance_max_ohm", s.seriesResistanceMaxOhm ? json(*s.seriesResistanceMaxOhm) : json(nullptr)},
+            {"source", s.source},
+        };
+    }
+    return root.dump(2);
 }
 
 } // namespace sagline

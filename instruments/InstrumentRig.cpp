@@ -61,6 +61,17 @@ ScpiInstrument *InstrumentRig::instrumentFor(MeterRole role) const
     return nullptr;
 }
 
+std::optional<MeterSpecs> InstrumentRig::meterSpecs(std::optional<double> windingUncertaintyC) const
+{
+    const RoleConfig *voltmeter = roleConfig(MeterRole::SecondaryVoltage);
+    const RoleConfig *ammeter = roleConfig(MeterRole::SecondaryCurrent);
+    if (!voltmeter || !ammeter)
+        return std::nullopt;
+    MeterSpecs specs = meterSpecsOf(*voltmeter, *ammeter);
+    specs.windingTemperatureUncertaintyC = windingUncertaintyC;
+    return specs;
+}
+
 const RoleConfig *InstrumentRig::roleConfig(MeterRole role) const
 {
     ScpiInstrument *instrument = instrumentFor(role);

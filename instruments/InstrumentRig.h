@@ -26,6 +26,9 @@ public:
     QList<ScpiInstrument *> instruments() const { return m_instruments; }
     ScpiInstrument *instrumentFor(MeterRole role) const;
     const RoleConfig *roleConfig(MeterRole role) const;
+    // The secondary meters' accuracy rules as the setup's `meters` section (empty when a
+    // secondary role is unserved); `windingUncertaintyC` is carried over from the setup.
+    std::optional<MeterSpecs> meterSpecs(std::optional<double> windingUncertaintyC = std::nullopt) const;
     ProgrammableLoad *load() const { return m_load.get(); }
 
     // Empty when usable; otherwise names the problem (a secondary role unserved, a role served twice).

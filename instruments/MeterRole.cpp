@@ -52,6 +52,23 @@ double RoleConfig::standardUncertainty(double reading) const
     return halfWidth / std::sqrt(3.0);
 }
 
+MeterSpec meterSpecOf(const RoleConfig &config)
+{
+    MeterSpec spec;
+    spec.gainPercentOfReading = config.accuracy.percentOfReading;
+    spec.offset = config.accuracy.counts * config.resolution;
+    spec.resolution = config.resolution;
+    return spec;
+}
+
+MeterSpecs meterSpecsOf(const RoleConfig &voltmeter, const RoleConfig &ammeter)
+{
+    MeterSpecs specs;
+    specs.voltmeter = meterSpecOf(voltmeter);
+    specs.ammeter = meterSpecOf(ammeter);
+    return specs;
+}
+
 RoleConfig defaultRoleConfig(MeterRole role)
 {
     RoleConfig config;

@@ -2,6 +2,7 @@
 // and resolution. All of it is editable and saved with the session.
 #pragma once
 
+#include "Setup.h"
 #include "Units.h"
 
 #include <QList>
@@ -37,6 +38,14 @@ struct RoleConfig {
     // u = a / sqrt(3) (GUM, JCGM 100:2008, 4.3.7; FACTS.md §6).
     double standardUncertainty(double reading) const;
 };
+
+// The setup's view of a meter's accuracy rule: the "% of reading" is its gain, the counts times
+// one count its offset (both systematic, the same for every reading on the range), one count its
+// resolution.
+MeterSpec meterSpecOf(const RoleConfig &config);
+// The secondary voltmeter's and ammeter's rules as the setup's `meters` section; the winding
+// temperature's uncertainty is left unset (the setup's own, or the default).
+MeterSpecs meterSpecsOf(const RoleConfig &voltmeter, const RoleConfig &ammeter);
 
 // SCPI-99 defaults: MEASure:VOLTage:AC? / MEASure:CURRent:AC? (FACTS.md §8), configure with
 // the matching CONFigure command, a typical bench-meter accuracy (common practice:

@@ -193,14 +193,10 @@ Reading SweepController::makeReading(double currentA, double voltageV) const
     reading.currentA = currentA;
     reading.voltageV = voltageV;
     reading.timeUtc = m_clock->utcNowIso().toStdString();
-    if (m_rig) {
-        if (const RoleConfig *config = m_rig->roleConfig(MeterRole::SecondaryCurrent))
-            reading.uCurrentA = config->standardUncertainty(currentA);
-        if (const RoleConfig *config = m_rig->roleConfig(MeterRole::SecondaryVoltage))
-            reading.uVoltageV = config->standardUncertainty(voltageV);
-    } else {
+    // No per-reading u: a meter's accuracy rule is a gain and an offset common to all its
+    // readings (systematic), recorded once in the session's setup, not a random part of each.
+    if (!m_rig)
         reading.flags |= flagManual;
-    }
     if (m_options.simulated)
         reading.flags |= flagSimulated;
     return reading;
@@ -220,7 +216,10 @@ void SweepController::acceptPoint(Reading reading)
             // The fit's interval knows the scatter so far; the new reading also carries its own
             // meter uncertainty (resolution, accuracy), which a few points cannot reveal.
             const double half = (band->highV - band->lowV) / 2.0;
-            const double meter = 3.0 * reading.uVoltageV.value_or(0.0);
+            const RoleConfig *voltmeter = m_rig ? m_rig->roleConfig(MeterRole::SecondaryVoltage) : nullptr;
+            const double meter = 3.0 * (reading.uVoltageV ? *reading.uVoltageV
+                                        : voltmeter       ? voltmeter->standardUncertainty(reading.voltageV)
+                                                          : 0.0);
             const double widened = std::sqrt(half * half + meter * meter);
             const double low = band->predictedV - widened;
             const double high = band->predictedV + widened;

@@ -1,5 +1,6 @@
 #include "FitPresentation.h"
 
+#include "ConformityAssessment.h"
 #include "ConformityDecision.h"
 #include "ResultAnalysis.h"
 #include "TypedValue.h"
@@ -17,9 +18,10 @@ QString withU(const UncertainValue &value, const char *unit)
     return QString::fromStdString(formatWithUncertainty(value.value, value.expandedUncertainty.value_or(0.0), unit));
 }
 
-QString uNote(const UncertainValue &value, double k)
+// "U (k = 2.08, 95 %)", or why there is none.
+QString uNote(const UncertainValue &value)
 {
-    return value.expandedUncertainty ? QObject::tr("± U, k = %1").arg(k) : QObject::tr("U needs 3 points");
+    return value.expandedUncertainty ? QString::fromStdString(expandedUncertaintyLabel(value)) : QObject::tr("U needs 3 points");
 }
 
 // A typed value in `unit`, or nothing when blank; `error` gets the rule when unreadable.
@@ -45,11 +47,103 @@ void addBatchLines(const FitSummary &batch, std::size_t n, QList<ResultLine> &li
                           .arg(bends ? QObject::tr(": core saturation or winding heating?") : QString()),
                       bends});
     }
-    lines.append({QStringLiteral("outliers"), QObject::tr("Outliers flagged"), QString::number(batch.outlierRows.size()),
-                  QObject::tr("|studentized residual| > 3; excluded only with a reason"), !batch.outlierRows.empty()});
+    const OutlierScreening &screen = batch.outlierScreening;
+    if (screen.screened)
+        lines.append({QStringLiteral("outliers"), QObject::tr("Outliers flagged"), QString::number(batch.outlierRows.size()),
+                      QObject::tr("%1; critical value %2; shown, never applied")
+                          .arg(QString::fromStdString(screen.rule), formatNumber(*screen.criticalValue, 3)),
+                      !batch.outlierRows.empty()});
+    else
+        lines.append({QStringLiteral("outliers"), QObject::tr("Outliers flagged"), QObject::tr("—"),
+                      QString::fromStdString(screen.reason)});
+}
+
+// R and V0 of a fit without a nameplate (no rated current to analyse at).
+void addLineResults(const FitSummary &summary, const Setup *setup, ResultsView &view)
+{
+    const LineResults line = lineResults(summary, setup ? setup->meters : std::nullopt);
+    view.lines.append({QStringLiteral("series_resistance"), QObject::tr("Series resistance R (secondary)"),
+                       withU(line.seriesResistanceOhm, "Ω"), uNote(line.seriesResistanceOhm)});
+    view.lines.append({QStringLiteral("no_load_voltage"), QObject::tr("No-load voltage V0"), withU(line.noLoadVoltageV, "V"),
+                       uNote(line.noLoadVoltageV)});
+    view.budgets = budgetTables(line);
+}
+
+void addAnalysisLines(const AnalysisResult &a, std::optional<double> plate, ResultsView &view)
+{
+    auto &lines = view.lines;
+    lines.append({QStringLiteral("series_resistance"), QObject::tr("Series resistance R (secondary)"),
+                  withU(a.seriesResistanceOhm, "Ω"), uNote(a.seriesResistanceOhm)});
+    if (a.primaryResistanceOhm)
+        lines.append({QStringLiteral("primary_resistance"), QObject::tr("R referred to the primary"),
+                      withU(*a.primaryResistanceOhm, "Ω"), QObject::tr("× turns ratio²")});
+    lines.append({QStringLiteral("no_load_voltage"), QObject::tr("No-load voltage V0"), withU(a.noLoadVoltageV, "V"),
+                  uNote(a.noLoadVoltageV)});
+    lines.append({QStringLiteral("full_load_voltage"), QObject::tr("Voltage at rated current"),
+                  withU(a.fullLoadVoltageV, "V"), uNote(a.fullLoadVoltageV)});
+    lines.append({QStringLiteral("regulation"), QObject::tr("Regulation"), withU(a.regulationPercent, "%"),
+                  QObject::tr("%1; %2 base; nameplate %3")
+                      .arg(uNote(a.regulationPercent), QString::fromStdString(toString(a.regulationBase)),
+                           plate ? formatQuantity(*plate, Unit::Percent, 3) : QObject::tr("not given"))});
+    lines.append({QStringLiteral("copper_loss"), QObject::tr("Copper loss at rated current"), withU(a.copperLossW, "W"),
+                  QObject::tr("I² R")});
+    if (a.referenceResistanceOhm && a.temperatureCorrection && a.referenceTemperatureC) {
+        const QString at = formatQuantity(*a.referenceTemperatureC, Unit::Celsius, 3);
+        lines.append({QStringLiteral("reference_resistance"), QObject::tr("R at %1").arg(at),
+                      withU(*a.referenceResistanceOhm, "Ω"),
+                      QObject::tr("%1; %2").arg(uNote(*a.referenceResistanceOhm),
+                                                QString::fromStdString(a.temperatureCorrection->convention))});
+        if (a.referredRegulationPercent)
+            lines.append({QStringLiteral("reference_regulation"), QObject::tr("Regulation at %1").arg(at),
+                          withU(*a.referredRegulationPercent, "%"), uNote(*a.referredRegulationPercent)});
+        if (a.referredCopperLossW)
+            lines.append({QStringLiteral("reference_copper_loss"), QObject::tr("Copper loss at %1").arg(at),
+                          withU(*a.referredCopperLossW, "W"), QObject::tr("R scaled, V0 unchanged")});
+    } else {
+        lines.append({QStringLiteral("reference_resistance"), QObject::tr("R at reference temperature"), QObject::tr("—"),
+                      QObject::tr("give the winding (or ambient) and reference temperatures")});
+    }
+    lines.append({QStringLiteral("uncertainty_basis"), QObject::tr("Uncertainties include"),
+                  a.metersKnown ? QObject::tr("meters + scatter") : QObject::tr("scatter only"),
+                  QString::fromStdString(a.uncertaintyBasis), !a.metersKnown});
+    view.budgets = budgetTables(a);
+}
+
+void setVerdict(const SpecificationVerdict &v, ResultsView &view)
+{
+    view.state = verdictStateOf(v.outcome);
+    QStringList details;
+    for (const ConformityDecision &d : v.limits) {
+        QString line = QString::fromStdString(d.ok ? d.explanation : d.error);
+        if (d.conformanceProbability)
+            line += QObject::tr(" Probability of conformity %1.")
+                        .arg(QString::fromStdString(conformanceProbabilityText(*d.conformanceProbability)));
+        details << line;
+    }
+    view.verdictText = QString::fromStdString(outcomeWords(v.outcome));
+    if (v.limits.size() == 1)
+        view.verdictText += QStringLiteral(": ") + QString::fromStdString(v.limits.front().quantity);
+    else if (v.limits.empty())
+        view.verdictText += QObject::tr(": no limit stated");
+    details << QString::fromStdString(v.explanation);
+    details << QObject::tr("Limits: %1.").arg(QString::fromStdString(v.limitsSource));
+    if (!v.limits.empty())
+        details << QString::fromStdString(v.ruleName) + (v.atReferenceTemperature ? QObject::tr("; judged at the reference temperature.")
+                                                                                  : QObject::tr("; judged as measured."));
+    view.verdictRule = details.join(QLatin1Char('\n'));
 }
 
 } // namespace
+
+ResultsView assessmentView(const Assessment &assessment)
+{
+    ResultsView view;
+    if (!assessment.analysis.ok())
+        return view;
+    addAnalysisLines(assessment.analysis, assessment.verdict.nameplateRegulationPercent, view);
+    setVerdict(assessment.verdict, view);
+    return view;
+}
 
 ResultsView resultsView(const ResultsInputs &in)
 {
@@ -62,59 +156,34 @@ ResultsView resultsView(const ResultsInputs &in)
     }
     QStringList problems;
     const FitSummary summary = summaryOfLiveFit(*in.live);
-    AnalysisInput input;
-    if (in.setup)
-        input = analysisInputFor(in.setup->nameplate);
-    if (in.verdict.constant)
-        input.temperatureConstant = *in.verdict.constant;
-    input.referenceTemperatureC = typed(in.verdict.referenceTemperature, Unit::Celsius,
-                                        QStringLiteral("verdict.reference_temperature_c"), problems);
+    AssessmentOptions options;
+    options.rule = in.verdict.rule;
+    options.temperatureConstant = in.verdict.constant;
+    options.referenceTemperatureC = typed(in.verdict.referenceTemperature, Unit::Celsius,
+                                          QStringLiteral("verdict.reference_temperature_c"), problems);
     auto winding = typed(in.details.windingTemperature, Unit::Celsius, QStringLiteral("session.winding_temperature_c"), problems);
     if (!winding)
         winding = typed(in.details.ambientTemperature, Unit::Celsius, QStringLiteral("session.ambient_temperature_c"), problems);
-    input.windingTemperatureC = winding;
-    const double k = input.coverageFactor;
-    const AnalysisResult a = in.setup ? analyseFit(summary, input) : AnalysisResult{};
+    options.windingTemperatureC = winding;
+    QString limitProblem;
+    if (const auto limit = typedRegulationLimit(in.verdict.regulationLimit, QStringLiteral("verdict.regulation_limit_percent"),
+                                                &limitProblem))
+        options.regulationLimit = *limit;
+    if (!limitProblem.isEmpty())
+        problems << limitProblem;
 
-    auto &lines = view.lines;
-    if (in.setup && a.ok()) {
-        lines.append({QStringLiteral("series_resistance"), QObject::tr("Series resistance R (secondary)"),
-                      withU(a.seriesResistanceOhm, "Ω"), uNote(a.seriesResistanceOhm, k)});
-        if (a.referenceResistanceOhm && a.temperatureCorrection)
-            lines.append({QStringLiteral("reference_resistance"),
-                          QObject::tr("R at %1").arg(formatQuantity(*input.referenceTemperatureC, Unit::Celsius, 3)),
-                          withU(*a.referenceResistanceOhm, "Ω"),
-                          QString::fromStdString(describe(input.temperatureConstant))});
-        else
-            lines.append({QStringLiteral("reference_resistance"), QObject::tr("R at reference temperature"), QObject::tr("—"),
-                          QObject::tr("give the winding (or ambient) and reference temperatures")});
-        if (a.primaryResistanceOhm)
-            lines.append({QStringLiteral("primary_resistance"), QObject::tr("R referred to the primary"),
-                          withU(*a.primaryResistanceOhm, "Ω"), QObject::tr("× turns ratio²")});
-        lines.append({QStringLiteral("no_load_voltage"), QObject::tr("No-load voltage V0"), withU(a.noLoadVoltageV, "V"),
-                      uNote(a.noLoadVoltageV, k)});
-        lines.append({QStringLiteral("full_load_voltage"), QObject::tr("Voltage at rated current"),
-                      withU(a.fullLoadVoltageV, "V"),
-                      QObject::tr("at %1").arg(formatQuantity(input.ratedCurrentA, Unit::Ampere, 3))});
-        lines.append({QStringLiteral("regulation"), QObject::tr("Regulation"), withU(a.regulationPercent, "%"),
-                      QObject::tr("%1 base; nameplate %2")
-                          .arg(QString::fromStdString(toString(a.regulationBase)))
-                          .arg(nameplateRegulationPercent(in.setup->nameplate)
-                                   ? formatQuantity(*nameplateRegulationPercent(in.setup->nameplate), Unit::Percent, 3)
-                                   : QObject::tr("not given"))});
-        lines.append({QStringLiteral("copper_loss"), QObject::tr("Copper loss at rated current"), withU(a.copperLossW, "W"),
-                      QObject::tr("I² R")});
+    std::optional<Assessment> assessment;
+    if (in.setup)
+        assessment = assessFit(summary, *in.setup, options);
+    if (assessment && assessment->analysis.ok()) {
+        addAnalysisLines(assessment->analysis, assessment->verdict.nameplateRegulationPercent, view);
     } else {
-        // No nameplate to analyse against: the fit alone.
-        lines.append({QStringLiteral("series_resistance"), QObject::tr("Series resistance R (secondary)"),
-                      QString::fromStdString(formatWithUncertainty(fit.seriesResistanceOhm(), k * fit.slopeSe.value_or(0.0), "Ω")),
-                      QObject::tr("± U, k = %1").arg(k)});
-        lines.append({QStringLiteral("no_load_voltage"), QObject::tr("No-load voltage V0"),
-                      QString::fromStdString(formatWithUncertainty(fit.noLoadVoltageV(), k * fit.interceptSe.value_or(0.0), "V")),
-                      QObject::tr("± U, k = %1").arg(k)});
-        for (const auto &error : a.errors)
-            problems << QString::fromStdString(error.message());
+        addLineResults(summary, in.setup, view); // no nameplate to analyse against: the fit alone
+        if (assessment)
+            for (const auto &error : assessment->analysis.errors)
+                problems << QString::fromStdString(error.message());
     }
+    auto &lines = view.lines;
     if (in.plan)
         lines.append({QStringLiteral("series_resistance_planned"), QObject::tr("R expected from the nameplate"),
                       formatQuantity(in.plan->seriesResistanceOhm, Unit::Ohm), QObject::tr("planner's estimate")});
@@ -128,30 +197,9 @@ ResultsView resultsView(const ResultsInputs &in)
     if (in.batch)
         addBatchLines(*in.batch, fit.n, lines);
 
-    // The verdict: measured regulation against the limit, by the chosen ILAC-G8 rule.
-    if (in.setup && a.ok()) {
-        auto limit = typed(in.verdict.regulationLimit, Unit::Percent, QStringLiteral("verdict.regulation_limit_percent"), problems);
-        if (!limit)
-            limit = nameplateRegulationPercent(in.setup->nameplate);
-        if (limit && a.regulationPercent.expandedUncertainty) {
-            const ConformityDecision d = decideAgainstUpperLimit(a.regulationPercent.value, *a.regulationPercent.expandedUncertainty,
-                                                                 *limit, in.verdict.rule);
-            if (d.ok) {
-                view.state = d.outcome == ConformityOutcome::Pass   ? VerdictState::Pass
-                             : d.outcome == ConformityOutcome::Fail ? VerdictState::Fail
-                                                                    : VerdictState::Undecided;
-                const QString word = d.outcome == ConformityOutcome::Pass   ? QObject::tr("PASS")
-                                     : d.outcome == ConformityOutcome::Fail ? QObject::tr("FAIL")
-                                                                            : QObject::tr("CANNOT DECIDE");
-                view.verdictText = QObject::tr("%1: regulation %2 against a limit of %3")
-                                       .arg(word, withU(a.regulationPercent, "%"), formatQuantity(*limit, Unit::Percent, 3));
-                view.verdictRule = QString::fromStdString(d.ruleName) + QStringLiteral(". ")
-                                   + QString::fromStdString(d.explanation);
-            } else {
-                problems << QStringLiteral("verdict: ") + QString::fromStdString(d.error);
-            }
-        }
-    }
+    // The verdict against the specification's limits, by the chosen ILAC-G8 rule.
+    if (assessment && assessment->analysis.ok())
+        setVerdict(assessment->verdict, view);
     for (const QString &problem : std::as_const(problems))
         lines.append({QStringLiteral("problem"), QObject::tr("Cannot use"), problem.section(QLatin1Char(':'), 0, 0),
                       problem.mid(problem.indexOf(QLatin1Char(':')) + 1).trimmed(), true});

@@ -5,6 +5,8 @@
 // chooses what to show and how to word it.
 #pragma once
 
+#include "BudgetTable.h"
+#include "ConformityAssessment.h"
 #include "FitSummary.h"
 #include "LineFit.h"
 #include "Planner.h"
@@ -30,9 +32,12 @@ struct ResultsView {
     VerdictState state = VerdictState::None;
     QString verdictText;
     QString verdictRule;
+    std::vector<BudgetTable> budgets; // every result's uncertainty budget (the budget table)
 };
 
 ResultsView resultsView(const ResultsInputs &inputs);
+// The result lines, verdict and budgets of an assessment alone (the review's detail view).
+ResultsView assessmentView(const Assessment &assessment);
 // The fitted line and its 95 % confidence band on `grid`, and the prediction at the next step.
 FitOverlay fitOverlay(const LineFit &live, const std::vector<double> &grid, std::optional<double> nextCurrentA);
 // Chart limits from the plan (the unsafe region, rated lines, expected voltage span).

@@ -402,6 +402,7 @@ void MainWindow::refreshFitViews()
         applyCompleteness(view, m_workspace->progress()); // "provisional (k of N steps)" until complete
     m_results->setLines(view.lines);
     m_results->setVerdict(view.state, view.verdictText, view.verdictRule);
+    m_results->setBudgets(view.budgets);
 }
 
 void MainWindow::flushCharts()
@@ -486,6 +487,7 @@ void MainWindow::resetViews()
     m_residuals->pointsCleared();
     m_results->setLines({});
     m_results->setVerdict(VerdictState::None, {}, {});
+    m_results->setBudgets({});
     m_caution->clearAlarm();
     m_statusPoints->clear();
 }

@@ -77,7 +77,7 @@ QString MainWindow::writeReport(const QString &pdfPath)
     const VerdictSettings verdict = m_setupForm->verdictSettings();
     ReviewOptions options;
     options.rule = verdict.rule;
-    options.regulationLimitPercent = typedQuantity(verdict.regulationLimit, Unit::Percent);
+    options.regulationLimit = typedRegulationLimit(verdict.regulationLimit);
     options.referenceTemperatureC = typedQuantity(verdict.referenceTemperature, Unit::Celsius);
     options.temperatureConstant = verdict.constant;
     const auto summary = summarizeSession(*store, options);

@@ -70,6 +70,68 @@ void drawTitleBlock(ReportCanvas &canvas, const SessionSummary &summary, const R
                  rows);
 }
 
+namespace {
+
+// The results at the reference temperature (R scaled, V0 unchanged), when referred.
+void addReferredRows(QList<QPair<QString, QString>> &rows, const SessionSummary &summary, const AnalysisResult &a)
+{
+    if (!a.referenceResistanceOhm || !a.temperatureCorrection || !a.referenceTemperatureC) {
+        rows.append({QStringLiteral("R at a reference temperature"), QStringLiteral("not computed: no winding temperature recorded")});
+        return;
+    }
+    const QString at = QStringLiteral("at %1 °C%2").arg(*a.referenceTemperatureC).arg(summary.referenceTemperatureDefaulted
+                                                                                          ? QStringLiteral(" (default)")
+                                                                                          : QString());
+    rows.append({QStringLiteral("R %1").arg(at),
+                 withU(*a.referenceResistanceOhm, "Ω") + QStringLiteral("; winding at %1; %2")
+                                                             .arg(quantity(summary.latestTemperatureC(TemperatureKind::Winding), "°C", 3),
+                                                                  q(a.temperatureCorrection->convention))});
+    if (a.referredRegulationPercent)
+        rows.append({QStringLiteral("Regulation %1").arg(at), withU(*a.referredRegulationPercent, "%")});
+    if (a.referredFullLoadVoltageV)
+        rows.append({QStringLiteral("Full-load voltage %1").arg(at), withU(*a.referredFullLoadVoltageV, "V")});
+    if (a.referredCopperLossW)
+        rows.append({QStringLiteral("Copper loss %1").arg(at), withU(*a.referredCopperLossW, "W")});
+}
+
+void drawVerdict(ReportCanvas &canvas, const SessionSummary &summary)
+{
+    canvas.heading(QStringLiteral("Verdict"));
+    // Which choices judged this session and where each came from, so a reader can tell a
+    // printed verdict from one judged otherwise on screen.
+    canvas.paragraph(QStringLiteral("Judged with: %1.").arg(q(describeSettingsUsed(summary))), 8.0);
+    for (const std::string &notice : summary.recordedSettings.notices)
+        canvas.paragraph(q(notice), 8.0, true);
+    if (!summary.progress.isComplete()) {
+        // A sweep that ended before its last step gets no verdict, least of all a pass.
+        canvas.framedText(QStringLiteral("%1: NO VERDICT").arg(q(summary.progress.label()).toUpper()),
+                          QStringLiteral("Not every planned step was recorded, so the session is not judged; the results "
+                                         "above are from the points that were. Resume the session to record the rest."));
+        return;
+    }
+    if (!summary.verdict) {
+        canvas.framedText(QStringLiteral("NO VERDICT"), q(summary.analysisProblem));
+        return;
+    }
+    const SpecificationVerdict &v = *summary.verdict;
+    QStringList details;
+    for (const ConformityDecision &d : v.limits) {
+        QString line = q(d.ok ? outcomeWords(d.outcome) + ": " + d.explanation : d.error);
+        if (d.conformanceProbability)
+            line += QStringLiteral(" Probability of conformity %1 (JCGM 106:2012).")
+                        .arg(q(conformanceProbabilityText(*d.conformanceProbability)));
+        details << line;
+    }
+    details << QStringLiteral("Limits: %1.").arg(q(v.limitsSource));
+    if (!v.limits.empty())
+        details << QStringLiteral("Decision rule: %1; %2.")
+                       .arg(q(v.ruleName), v.atReferenceTemperature ? QStringLiteral("judged at the reference temperature")
+                                                                    : QStringLiteral("judged as measured"));
+    canvas.framedText(q(outcomeWords(v.outcome)) + QStringLiteral("  —  ") + q(v.explanation), details.join(QLatin1Char(' ')));
+}
+
+} // namespace
+
 void drawResultsAndVerdict(ReportCanvas &canvas, const SessionSummary &summary)
 {
     canvas.heading(QStringLiteral("Results"));
@@ -89,18 +151,7 @@ void drawResultsAndVerdict(ReportCanvas &canvas, const SessionSummary &summary)
         };
         if (a->primaryResistanceOhm)
             rows.append({QStringLiteral("R referred to the primary"), withU(*a->primaryResistanceOhm, "Ω")});
-        if (a->referenceResistanceOhm && a->temperatureCorrection) {
-            const double reference = summary.options.referenceTemperatureC.value_or(defaultReferenceTemperatureC);
-            rows.append({QStringLiteral("R at %1 °C%2").arg(reference).arg(summary.referenceTemperatureDefaulted
-                                                                               ? QStringLiteral(" (default)")
-                                                                               : QString()),
-                         withU(*a->referenceResistanceOhm, "Ω") + QStringLiteral(", from winding at %1; %2")
-                                                                     .arg(quantity(summary.latestTemperatureC(TemperatureKind::Winding), "°C", 3),
-                                                                          q(a->temperatureCorrection->convention))});
-        } else {
-            rows.append({QStringLiteral("R at a reference temperature"),
-                         QStringLiteral("not computed: no winding temperature recorded")});
-        }
+        addReferredRows(rows, summary, *a);
     } else {
         rows = {{QStringLiteral("Series resistance R"), q(formatQuantity(fit.seriesResistanceOhm(), "Ω"))},
                 {QStringLiteral("No-load voltage V0"), q(formatQuantity(fit.noLoadVoltageV(), "V"))},
@@ -112,48 +163,22 @@ void drawResultsAndVerdict(ReportCanvas &canvas, const SessionSummary &summary)
                           .arg(fit.n)
                           .arg(fit.rSquared ? q(formatSignificant(*fit.rSquared, 7)) : QStringLiteral("—"),
                                quantity(fit.residualSdV, "V", 3));
-    if (fit.seriesResistanceCi)
-        fitLine += QStringLiteral("; 95 % interval of R %1 to %2")
-                       .arg(q(formatQuantity(fit.seriesResistanceCi->low, "Ω")), q(formatQuantity(fit.seriesResistanceCi->high, "Ω")));
     if (fit.curvatureP)
         fitLine += QStringLiteral("; curvature check p = %1%2")
                        .arg(q(formatSignificant(*fit.curvatureP, 2)),
                             *fit.curvatureP < 0.05 ? QStringLiteral(" (the line bends: saturation or heating?)") : QString());
-    fitLine += QStringLiteral(". Uncertainties are expanded, U = k·u with k = 2 (GUM, JCGM 100:2008, 6.2).");
+    fitLine += QStringLiteral("; outlier screen: %1")
+                   .arg(fit.outlierScreening.screened
+                            ? QStringLiteral("%1 flagged (%2; critical value %3)")
+                                  .arg(fit.outlierRows.size())
+                                  .arg(q(fit.outlierScreening.rule), q(formatSignificant(*fit.outlierScreening.criticalValue, 3)))
+                            : q(fit.outlierScreening.reason));
+    fitLine += QStringLiteral(". U: expanded uncertainty at 95 % coverage, k = t95(ν_eff) of each result's budget "
+                              "(GUM, JCGM 100:2008, G.4). ");
+    if (summary.analysis)
+        fitLine += QStringLiteral("Uncertainties: %1.").arg(q(summary.analysis->uncertaintyBasis));
     canvas.paragraph(fitLine, 8.0);
-
-    canvas.heading(QStringLiteral("Verdict"));
-    // Which choices judged this session and where each came from, so a reader can tell a
-    // printed verdict from one judged otherwise on screen.
-    canvas.paragraph(QStringLiteral("Judged with: %1.").arg(q(describeSettingsUsed(summary))), 8.0);
-    for (const std::string &notice : summary.recordedSettings.notices)
-        canvas.paragraph(q(notice), 8.0, true);
-    if (!summary.progress.isComplete()) {
-        // A sweep that ended before its last step gets no verdict, least of all a pass.
-        canvas.framedText(QStringLiteral("%1: NO VERDICT").arg(q(summary.progress.label()).toUpper()),
-                          QStringLiteral("Not every planned step was recorded, so the session is not judged; the results "
-                                         "above are from the points that were. Resume the session to record the rest."));
-        return;
-    }
-    if (!summary.decision) {
-        canvas.framedText(QStringLiteral("NO VERDICT"),
-                          summary.analysis ? QStringLiteral("The nameplate gives no regulation to judge against.")
-                                           : q(summary.analysisProblem));
-        return;
-    }
-    const ConformityDecision &d = *summary.decision;
-    if (!d.ok) {
-        canvas.framedText(QStringLiteral("NO VERDICT"), q(d.error));
-        return;
-    }
-    const QString outcome = d.outcome == ConformityOutcome::Pass   ? QStringLiteral("PASS")
-                            : d.outcome == ConformityOutcome::Fail ? QStringLiteral("FAIL")
-                                                                   : QStringLiteral("CANNOT DECIDE");
-    canvas.framedText(QStringLiteral("%1  —  regulation %2 % ± %3 % against the limit %4 %")
-                          .arg(outcome, q(formatSignificant(d.measured, 4)), q(formatSignificant(d.expandedUncertainty, 2)),
-                               q(formatSignificant(d.upperLimit, 4))),
-                      QStringLiteral("Decision rule: %1. Acceptance limit %2 %. %3")
-                          .arg(q(d.ruleName), q(formatSignificant(d.acceptanceLimit, 4)), q(d.explanation)));
+    drawVerdict(canvas, summary);
 }
 
 void drawNameplateAndPlan(ReportCanvas &canvas, const SessionSummary &summary)
@@ -214,6 +239,7 @@ void drawSessionReport(ReportCanvas &canvas, const SessionSummary &summary, cons
     canvas.setPageMark(summary.isSimulated() ? QStringLiteral("SIMULATED (virtual bench)") : QString());
     drawTitleBlock(canvas, summary, options);
     drawResultsAndVerdict(canvas, summary);
+    drawUncertaintyBudget(canvas, summary);
     drawCharts(canvas, summary);
     drawNameplateAndPlan(canvas, summary);
     drawReadingsTable(canvas, summary);

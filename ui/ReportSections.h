@@ -13,6 +13,7 @@ struct SessionSummary;
 void drawTitleBlock(ReportCanvas &canvas, const SessionSummary &summary, const ReportOptions &options);
 void drawNameplateAndPlan(ReportCanvas &canvas, const SessionSummary &summary);
 void drawResultsAndVerdict(ReportCanvas &canvas, const SessionSummary &summary);
+void drawUncertaintyBudget(ReportCanvas &canvas, const SessionSummary &summary);
 void drawCharts(ReportCanvas &canvas, const SessionSummary &summary);
 void drawReadingsTable(ReportCanvas &canvas, const SessionSummary &summary);
 void drawRecordsAndSignOff(ReportCanvas &canvas, const SessionSummary &summary);

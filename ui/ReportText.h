@@ -17,11 +17,12 @@ inline QString q(const std::string &text)
     return QString::fromStdString(text);
 }
 
-// "0.4797 Ω ± 0.0057 Ω (k = 2)" or the value alone when there is no uncertainty.
+// "0.4797 Ω ± 0.0057 Ω, U (k = 2.08, 95 %)" or the value alone when there is no uncertainty.
 inline QString withU(const UncertainValue &value, const std::string &unit)
 {
     if (value.expandedUncertainty)
-        return q(formatWithUncertainty(value.value, *value.expandedUncertainty, unit));
+        return q(formatWithUncertainty(value.value, *value.expandedUncertainty, unit) + ", "
+                 + expandedUncertaintyLabel(value));
     return q(formatQuantity(value.value, unit));
 }
 

@@ -1,7 +1,10 @@
 #include "ResultsPanel.h"
 
+#include "BudgetDialog.h"
+
 #include <QGridLayout>
 #include <QLabel>
+#include <QPushButton>
 #include <QVBoxLayout>
 
 namespace sagline {
@@ -24,8 +27,21 @@ void setValueText(QLabel *value, const QString &text)
 
 } // namespace
 
+VerdictState verdictStateOf(ConformityOutcome outcome)
+{
+    switch (outcome) {
+    case ConformityOutcome::Pass: return VerdictState::Pass;
+    case ConformityOutcome::ConditionalPass: return VerdictState::ConditionalPass;
+    case ConformityOutcome::ConditionalFail: return VerdictState::ConditionalFail;
+    case ConformityOutcome::Fail: return VerdictState::Fail;
+    case ConformityOutcome::NotJudged: return VerdictState::NotJudged;
+    }
+    return VerdictState::None;
+}
+
 ResultsPanel::ResultsPanel(QWidget *parent)
-    : QWidget(parent), m_grid(new QGridLayout), m_verdict(new QLabel), m_rule(new QLabel), m_placeholder(new QLabel)
+    : QWidget(parent), m_grid(new QGridLayout), m_verdict(new QLabel), m_rule(new QLabel), m_placeholder(new QLabel),
+      m_budgetButton(new QPushButton(tr("Uncertainty budget…")))
 {
     auto *layout = new QVBoxLayout(this);
     auto *title = new QLabel(tr("Results"));
@@ -50,8 +66,27 @@ ResultsPanel::ResultsPanel(QWidget *parent)
     m_grid->setVerticalSpacing(6);
     m_grid->setColumnStretch(0, 1);
     layout->addLayout(m_grid);
+    m_budgetButton->setObjectName(QStringLiteral("budgetButton"));
+    m_budgetButton->setToolTip(tr("Each result's uncertainty budget (GUM): sources, sensitivities, contributions, "
+                                  "ν_eff and k"));
+    m_budgetButton->setEnabled(false);
+    connect(m_budgetButton, &QPushButton::clicked, this, &ResultsPanel::showBudgets);
+    layout->addWidget(m_budgetButton, 0, Qt::AlignLeft);
     layout->addStretch(1);
     setVerdict(VerdictState::None, QString(), QString());
+}
+
+void ResultsPanel::setBudgets(std::vector<BudgetTable> budgets)
+{
+    m_budgets = std::move(budgets);
+    m_budgetButton->setEnabled(!m_budgets.empty());
+}
+
+void ResultsPanel::showBudgets()
+{
+    auto *dialog = new BudgetDialog(m_budgets, this);
+    dialog->setAttribute(Qt::WA_DeleteOnClose);
+    dialog->show();
 }
 
 void ResultsPanel::setLines(const QList<ResultLine> &lines)
@@ -131,9 +166,17 @@ void ResultsPanel::setVerdict(VerdictState state, const QString &text, const QSt
         symbol = QStringLiteral("✖ ");
         style = QStringLiteral("QLabel { background: #d55e00; color: white; padding: 6px; }");
         break;
-    case VerdictState::Undecided:
-        symbol = QStringLiteral("? ");
+    case VerdictState::ConditionalPass:
+        symbol = QStringLiteral("✔? ");
         style = QStringLiteral("QLabel { background: #f0e442; color: #1a1a1a; padding: 6px; }");
+        break;
+    case VerdictState::ConditionalFail:
+        symbol = QStringLiteral("✖? ");
+        style = QStringLiteral("QLabel { background: #f0e442; color: #1a1a1a; padding: 6px; }");
+        break;
+    case VerdictState::NotJudged:
+        symbol = QStringLiteral("– ");
+        style = QStringLiteral("QLabel { border: 2px solid palette(mid); padding: 6px; }");
         break;
     case VerdictState::Provisional:
         symbol = QStringLiteral("… ");

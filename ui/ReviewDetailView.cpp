@@ -1,5 +1,7 @@
 #include "ReviewDetailView.h"
 
+#include "FitPresentation.h"
+
 #include "ReadingsTableModel.h"
 #include "ResultsPanel.h"
 #include "SessionStore.h"
@@ -19,11 +21,6 @@ namespace sagline {
 namespace {
 
 QString text(const std::string &s) { return QString::fromStdString(s).toHtmlEscaped(); }
-
-QString withU(double value, const std::optional<double> &u, const char *unit)
-{
-    return QString::fromStdString(formatWithUncertainty(value, u.value_or(0.0), unit));
-}
 
 } // namespace
 
@@ -84,33 +81,19 @@ void ReviewDetailView::showSession(const SessionRow *row)
         return;
     }
     const SessionFigures &f = row->figures;
-    QList<ResultLine> lines;
     if (f.ok) {
-        lines.append({"series_resistance", tr("Series resistance R (secondary)"), withU(f.resistanceOhm, f.resistanceUOhm, "Ω"),
-                      f.windingTemperatureC ? tr("at %1 °C, k = 2").arg(*f.windingTemperatureC, 0, 'f', 1) : tr("k = 2")});
-        if (f.resistanceRefOhm)
-            lines.append({"reference_resistance", tr("R at %1 °C").arg(f.referenceTemperatureC),
-                          withU(*f.resistanceRefOhm, f.resistanceRefUOhm, "Ω"), tr("T_k = %1 °C").arg(f.temperatureConstantC)});
-        lines.append({"no_load_voltage", tr("No-load voltage V0"), withU(f.noLoadVoltageV, f.noLoadVoltageUV, "V"), tr("k = 2")});
-        if (f.regulationPercent)
-            lines.append({"regulation", tr("Regulation at rated current"), withU(*f.regulationPercent, f.regulationUPercent, "%"),
-                          f.regulationLimitPercent ? tr("limit %1 %").arg(*f.regulationLimitPercent, 0, 'g', 4) : QString()});
-        lines.append({"points", tr("Points used"), tr("%1 of %2").arg(row->pointsUsed).arg(row->readingCount), QString()});
-        m_results->setLines(lines);
-        const VerdictState state = !f.verdict ? VerdictState::None
-                                   : *f.verdict == ConformityOutcome::Pass ? VerdictState::Pass
-                                   : *f.verdict == ConformityOutcome::Fail ? VerdictState::Fail
-                                                                          : VerdictState::Undecided;
-        ResultsView verdict;
-        verdict.state = state;
-        verdict.verdictText = QString::fromStdString(f.verdictText());
-        verdict.verdictRule = QString::fromStdString(f.ruleName);
-        applyCompleteness(verdict, row->progress); // an incomplete session shows no verdict
-        m_results->setVerdict(verdict.state, verdict.verdictText, verdict.verdictRule);
+        // The same lines, verdict and budgets as the window shows at the bench.
+        ResultsView view = assessmentView(f.assessment);
+        view.lines.append({"points", tr("Points used"), tr("%1 of %2").arg(row->pointsUsed).arg(row->readingCount), QString()});
+        m_results->setLines(view.lines);
+        applyCompleteness(view, row->progress); // an incomplete session shows no verdict
+        m_results->setVerdict(view.state, view.verdictText, view.verdictRule);
+        m_results->setBudgets(view.budgets);
     } else {
         m_results->setLines({});
         m_results->setPlaceholder(tr("No fit: %1").arg(QString::fromStdString(f.message)));
         m_results->setVerdict(VerdictState::None, QString(), QString());
+        m_results->setBudgets({});
     }
 
     // Readings with residuals from the session's own fit (read-only, computed by core).

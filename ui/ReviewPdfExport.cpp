@@ -42,9 +42,7 @@ void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *>
                       {QObject::tr("Standard deviation of R"), ohm(stats.sdOhm)},
                       {QObject::tr("Median R"), ohm(stats.medianOhm)},
                       {QObject::tr("MAD of R"), ohm(stats.madOhm)},
-                      {QObject::tr("Verdicts"), QObject::tr("pass %1, fail %2, cannot decide %3, n/a %4, incomplete %5")
-                                                    .arg(stats.pass).arg(stats.fail).arg(stats.undecided).arg(stats.noVerdict)
-                                                    .arg(stats.incomplete)},
+                      {QObject::tr("Verdicts"), qs(verdictCountsText(stats))},
                       {QObject::tr("Review"), QObject::tr("accepted %1, rejected %2, retest %3, not reviewed %4, "
                                                           "changed after sign-off %5")
                                                   .arg(stats.accepted).arg(stats.rejected).arg(stats.retest).arg(stats.notReviewed)
@@ -63,7 +61,11 @@ void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *>
         table.append({qs(row.unitSerial), qs(row.createdUtc.substr(0, 10)), withU(f.ok, f.resistanceOhm, f.resistanceUOhm, "Ω"),
                       withU(f.resistanceRefOhm.has_value(), f.resistanceRefOhm.value_or(0.0), f.resistanceRefUOhm, "Ω"),
                       withU(f.regulationPercent.has_value(), f.regulationPercent.value_or(0.0), f.regulationUPercent, "%"),
-                      qs(f.verdictText()) + (far ? QObject::tr(" · far from batch") : QString()), qs(row.reviewState())});
+                      qs(f.verdictText())
+                          + (far ? (stats.screeningOnly ? QObject::tr(" · far from batch (screening only)")
+                                                        : QObject::tr(" · far from batch"))
+                                 : QString()),
+                      qs(row.reviewState())});
     }
     canvas.table({{QObject::tr("Unit"), 0.15}, {QObject::tr("Date (UTC)"), 0.12},
                   {QObject::tr("R ± U"), 0.16, Qt::AlignRight},
@@ -71,7 +73,9 @@ void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *>
                   {QObject::tr("Regulation ± U"), 0.15, Qt::AlignRight}, {QObject::tr("Verdict"), 0.14},
                   {QObject::tr("Review"), 0.12}},
                  table);
-    canvas.paragraph(QObject::tr("Uncertainties are expanded, k = 2. Each session's full report follows."), 8.0, false, true);
+    canvas.paragraph(QObject::tr("U: expanded uncertainties at 95 % coverage, k = t95(ν_eff) from each result's own budget "
+                                 "(GUM G.4). Each session's full report follows, with its budget."),
+                     8.0, false, true);
 }
 
 // Lays the whole document out; returns the number of pages, 0 if painting failed.
@@ -107,7 +111,7 @@ QString writeReviewPdf(const std::vector<const SessionRow *> &rows, const Compar
     if (options.ruleChosen)
         review.rule = options.figures.rule;
     if (options.limitChosen)
-        review.regulationLimitPercent = options.figures.regulationLimitPercent;
+        review.regulationLimit = options.figures.regulationLimit;
     review.referenceTemperatureC = options.figures.referenceTemperatureC;
     std::vector<SessionSummary> summaries;
     for (const SessionRow *row : rows) {

@@ -39,7 +39,7 @@ SetupForm::SetupForm(QWidget *parent)
     : QWidget(parent), m_construction(new QComboBox), m_material(new QComboBox), m_fuseType(new QComboBox),
       m_decisionRule(new QComboBox), m_temperatureConstant(new QComboBox),
       m_allowOverload(new QCheckBox(tr("Allow overload"))), m_operator(new QLineEdit),
-      m_serial(new QLineEdit), m_otherErrors(new QLabel)
+      m_serial(new QLineEdit), m_specificationSource(new QLineEdit), m_otherErrors(new QLabel)
 {
     auto *layout = new QVBoxLayout(this);
     m_otherErrors->setWordWrap(true);
@@ -94,13 +94,17 @@ SetupForm::SetupForm(QWidget *parent)
     addQuantity(session, tr("Winding temperature"), QStringLiteral("session.winding_temperature_c"), Unit::Celsius, tr("blank: ambient"));
     layout->addWidget(sessionBox);
 
+    addMetersAndSpecification(layout);
+
     auto *verdictBox = new QGroupBox(tr("Results and verdict"));
     auto *verdict = new QFormLayout(verdictBox);
     addQuantity(verdict, tr("Regulation limit"), QStringLiteral("verdict.regulation_limit_percent"), Unit::Percent,
-                tr("blank: the nameplate's"));
-    m_decisionRule->addItem(tr("Guarded acceptance, w = U"), int(DecisionRule::GuardedAcceptance));
-    m_decisionRule->addItem(tr("Simple acceptance"), int(DecisionRule::SimpleAcceptance));
-    m_decisionRule->setToolTip(tr("ILAC-G8:09/2019 decision rules, section 4.2"));
+                tr("blank: the specification's; or \"nameplate\""));
+    m_decisionRule->addItem(tr("Non-binary: pass, conditional, fail (w = U)"), int(DecisionRule::NonBinary));
+    m_decisionRule->addItem(tr("Guarded, binary (w = U)"), int(DecisionRule::Guarded));
+    m_decisionRule->addItem(tr("Simple acceptance (w = 0)"), int(DecisionRule::Simple));
+    m_decisionRule->setToolTip(tr("ILAC-G8:09/2019 decision rules: §4.2.3 non-binary, §4.2.2 binary with guard band, "
+                                  "§4.2.1 simple acceptance"));
     m_decisionRule->setAccessibleName(QStringLiteral("verdict.decision_rule"));
     verdict->addRow(tr("Decision rule"), m_decisionRule);
     addQuantity(verdict, tr("Reference temperature"), QStringLiteral("verdict.reference_temperature_c"), Unit::Celsius,
@@ -161,6 +165,8 @@ QString SetupForm::setupJson() const
     insertAt(root, {QStringLiteral("bench"), QStringLiteral("allow_overload")}, m_allowOverload->isChecked());
     if (!m_fields.value(QStringLiteral("bench.fuse.rating_a"))->isBlank())
         insertAt(root, {QStringLiteral("bench"), QStringLiteral("fuse"), QStringLiteral("type")}, m_fuseType->currentData().toString());
+    if (!m_specificationSource->text().trimmed().isEmpty())
+        insertAt(root, {QStringLiteral("specification"), QStringLiteral("source")}, m_specificationSource->text().trimmed());
     return QString::fromUtf8(QJsonDocument(root).toJson(QJsonDocument::Compact));
 }
 
@@ -189,6 +195,7 @@ void SetupForm::loadSetup(const Setup &setup)
     set("bench.fuse_factor", b.fuseFactor ? plain(*b.fuseFactor) : QString());
     set("bench.magnetizing_fraction", b.magnetizingFraction ? plain(*b.magnetizingFraction) : QString());
     set("bench.dwell_s", plain(b.dwellS, Unit::Second));
+    loadMetersAndSpecification(setup);
     emit changed();
 }
 
@@ -228,8 +235,8 @@ VerdictSettings verdictSettingsFrom(const AnalysisSettings &settings)
     const auto text = [](const std::optional<double> &value) {
         return value ? QString::number(*value, 'g', 12) : QString();
     };
-    return {text(settings.regulationLimitPercent), settings.rule, text(settings.referenceTemperatureC),
-            settings.temperatureConstant};
+    return {settings.regulationLimitNameplate ? QStringLiteral("nameplate") : text(settings.regulationLimitPercent),
+            settings.rule, text(settings.referenceTemperatureC), settings.temperatureConstant};
 }
 
 void SetupForm::setVerdictSettings(const VerdictSettings &settings)
@@ -297,6 +304,7 @@ void SetupForm::setLocked(bool locked)
     for (auto *combo : {m_construction, m_material, m_fuseType})
         combo->setEnabled(!locked);
     m_allowOverload->setEnabled(!locked);
+    m_specificationSource->setReadOnly(locked);
 }
 
 } // namespace sagline

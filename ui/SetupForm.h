@@ -17,6 +17,7 @@ class QComboBox;
 class QFormLayout;
 class QLabel;
 class QLineEdit;
+class QVBoxLayout;
 
 namespace sagline {
 
@@ -32,8 +33,9 @@ struct SessionDetails {
 
 // How results are judged: the limit, the decision rule, the temperature correction.
 struct VerdictSettings {
-    QString regulationLimit;                       // as typed; blank = the nameplate's regulation
-    DecisionRule rule = DecisionRule::GuardedAcceptance;
+    QString regulationLimit;                       // as typed; blank = the setup's specification,
+                                                   // "nameplate" = the nameplate's regulation
+    DecisionRule rule = DecisionRule::NonBinary;
     QString referenceTemperature;                  // as typed; blank = no correction
     std::optional<TemperatureConstant> constant;   // none = per winding material
 };
@@ -74,6 +76,9 @@ signals:
 private:
     QuantityField *addQuantity(QFormLayout *form, const QString &label, const QString &field,
                                Unit unit, const QString &placeholder);
+    // The meters' accuracy and the specification's limits (ui/SetupFormMeters.cpp).
+    void addMetersAndSpecification(QVBoxLayout *layout);
+    void loadMetersAndSpecification(const Setup &setup);
     QHash<QString, QuantityField *> m_fields;
     QComboBox *m_construction;
     QComboBox *m_material;
@@ -83,6 +88,7 @@ private:
     QCheckBox *m_allowOverload;
     QLineEdit *m_operator;
     QLineEdit *m_serial;
+    QLineEdit *m_specificationSource;
     QLabel *m_otherErrors;
 };
 

@@ -44,6 +44,32 @@ std::optional<PredictionBand> WorkspaceLiveFit::predict(double currentA, double 
     return PredictionBand{p.value, p.prediction->low, p.prediction->high};
 }
 
+std::optional<MeterSpecs> SweepRun::meterSpecsFor(const Setup &setup, const Plan &plan, const SourceChoice &source)
+{
+    RoleConfig voltmeter = defaultRoleConfig(MeterRole::SecondaryVoltage);
+    RoleConfig ammeter = defaultRoleConfig(MeterRole::SecondaryCurrent);
+    switch (source.source) {
+    case ReadingSource::TypedIn:
+        return std::nullopt;
+    case ReadingSource::VirtualBench: {
+        // As makeVirtualBenchRig configures the bench's meters.
+        const VirtualBenchOptions bench = virtualBenchOptionsFor(setup, plan, virtualBenchSeed);
+        voltmeter.accuracy = bench.voltmeter.accuracy;
+        voltmeter.resolution = bench.voltmeter.resolution;
+        ammeter.accuracy = bench.ammeter.accuracy;
+        ammeter.resolution = bench.ammeter.resolution;
+        break;
+    }
+    case ReadingSource::SerialPort:
+    case ReadingSource::Lan:
+        break; // makeRig gives every SCPI role its defaultRoleConfig
+    }
+    MeterSpecs specs = meterSpecsOf(voltmeter, ammeter);
+    if (setup.meters)
+        specs.windingTemperatureUncertaintyC = setup.meters->windingTemperatureUncertaintyC;
+    return specs;
+}
+
 SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &plan, const SourceChoice &source,
                    bool simulatedTime, const SweepOptionsOverride &overrides)
     : m_fit(workspace)

@@ -42,6 +42,10 @@ public:
     SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &plan, const SourceChoice &source,
              bool simulatedTime,
              const SweepOptionsOverride &overrides);
+    // The secondary meters' accuracy rules the run's instruments will have, as the setup's
+    // `meters` section (the virtual bench's meters, or the SCPI roles' defaults); nothing for
+    // readings typed in (the setup's own section stands). Known before the session is made.
+    static std::optional<MeterSpecs> meterSpecsFor(const Setup &setup, const Plan &plan, const SourceChoice &source);
     ~SweepRun() override;
     QString errorString() const { return m_error; }
     void start();                        // connects the instruments first, if any

@@ -84,8 +84,12 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
                                                       + QLatin1Char('-') + stamp + QStringLiteral(".sagline"));
     // A plan cut to its safe steps is the plan of this session.
     const Plan plan = m_limitChoice.kind == LimitChoice::Truncate ? truncatedToSafe(*m_plan) : *m_plan;
+    // Meters connected: their own accuracy rules are the session's meters (core/FitBudget.h).
+    Setup recorded = *m_setup;
+    if (auto specs = SweepRun::meterSpecsFor(*m_setup, plan, source))
+        recorded.meters = specs;
     NewSession session;
-    session.setupJson = setupToJson(*m_setup);
+    session.setupJson = setupToJson(recorded);
     session.planJson = planToJson(plan);
     session.operatorName = details.operatorName.toStdString();
     session.unitSerial = details.unitSerial.toStdString();
@@ -98,6 +102,7 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
         return QString::fromStdString(created.message);
     m_run.reset();
     m_store = std::move(created.value);
+    m_setup = recorded; // the results panel judges with the meters recorded, as the report will
     m_recordedSettings.reset();
     m_details = details;
     resetReadings();
@@ -383,15 +388,17 @@ QString SweepWorkspace::recordAnalysisSettings(const VerdictSettings &verdict)
     settings.rule = verdict.rule;
     settings.temperatureConstant = verdict.constant;
     // Read by core's parser, as the results panel reads them; what does not read is not stored.
-    for (const auto &[text, unit, field, into] :
-         {std::tuple{verdict.regulationLimit, Unit::Percent, "verdict.regulation_limit_percent", &settings.regulationLimitPercent},
-          std::tuple{verdict.referenceTemperature, Unit::Celsius, "verdict.reference_temperature_c",
-                     &settings.referenceTemperatureC}}) {
-        QString problem;
-        *into = typedQuantity(text, unit, {}, &problem);
-        if (!problem.isEmpty())
-            return QString::fromLatin1(field) + QStringLiteral(": not stored in the session, ") + problem;
-    }
+    QString problem;
+    const auto limit = typedRegulationLimit(verdict.regulationLimit, {}, &problem);
+    if (!problem.isEmpty())
+        return QStringLiteral("verdict.regulation_limit_percent: not stored in the session, ") + problem;
+    if (limit && limit->kind == RegulationLimitChoice::Kind::Nameplate)
+        settings.regulationLimitNameplate = true;
+    else if (limit)
+        settings.regulationLimitPercent = limit->percent;
+    settings.referenceTemperatureC = typedQuantity(verdict.referenceTemperature, Unit::Celsius, {}, &problem);
+    if (!problem.isEmpty())
+        return QStringLiteral("verdict.reference_temperature_c: not stored in the session, ") + problem;
     if (m_recordedSettings == settings)
         return {};
     // Only what a reader will accept is stored (e.g. a limit above zero).

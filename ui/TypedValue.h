@@ -2,6 +2,7 @@
 // the one place the window turns typed text into a value.
 #pragma once
 
+#include "ConformityAssessment.h"
 #include "Units.h"
 
 #include <QString>
@@ -14,5 +15,10 @@ namespace sagline {
 // the rule alone when no field is named. `error` is left as it is otherwise.
 std::optional<double> typedQuantity(const QString &text, Unit unit, const QString &field = {},
                                     QString *error = nullptr);
+
+// The verdict's regulation limit as typed: blank = the setup's specification (nothing returned),
+// "nameplate" = the nameplate's own regulation chosen explicitly, else a percentage.
+std::optional<RegulationLimitChoice> typedRegulationLimit(const QString &text, const QString &field = {},
+                                                          QString *error = nullptr);
 
 } // namespace sagline

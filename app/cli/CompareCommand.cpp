@@ -9,6 +9,7 @@
 #include "CommandLine.h"
 
 #include "ComparisonExport.h"
+#include "ConformityAssessment.h"
 #include "NumberFormat.h"
 #include "SessionComparison.h"
 #include "SessionScan.h"
@@ -90,7 +91,11 @@ CommandLine compareCommandLine()
     line.addOption({"method"}, "ols|wls|york", "the fit method (default ols)");
     line.addOption({"reference-temperature"}, "C", "the batch's reference temperature, -50 to 250 °C (default 75)");
     line.addOption({"convention"}, "iec|ieee", "copper's T_k: 235 °C (IEC 60076-1) or 234.5 °C (IEEE C57.12.90)");
-    line.addOption({"rule"}, "guarded|simple", "the decision rule of the verdicts (ILAC-G8:09/2019)");
+    line.addOption({"rule"}, "simple|guarded|non-binary",
+                   "the decision rule of the verdicts (ILAC-G8:09/2019 §4.2.1-4.2.3; default non-binary)");
+    line.addOption({"regulation-limit"}, "PERCENT|nameplate",
+                   "judge regulation against this limit instead of each session's specification; \"nameplate\" takes "
+                   "each nameplate's own regulation, labelled so");
     line.addNote(exitCodesNote);
     return line;
 }
@@ -120,9 +125,16 @@ std::string readArguments(const CommandLine &line, Options &options)
     if (const auto text = line.valueIfSet("rule")) {
         const auto rule = decisionRuleFromString(*text);
         if (!rule)
-            return "--rule must be guarded or simple (ILAC-G8:09/2019 decision rules)";
+            return "--rule must be simple, guarded or non-binary (ILAC-G8:09/2019 §4.2 decision rules)";
         options.comparison.figures.rule = *rule;
         options.comparison.ruleChosen = true;
+    }
+    if (const auto text = line.valueIfSet("regulation-limit")) {
+        const auto limit = regulationLimitFromText(*text);
+        if (!limit)
+            return "--regulation-limit must be a percentage above 0 and at most 100, or nameplate, got '" + *text + "'";
+        options.comparison.figures.regulationLimit = *limit;
+        options.comparison.limitChosen = true;
     }
     return {};
 }
@@ -152,7 +164,8 @@ void printTable(const std::vector<SessionRow> &rows, const BatchStatistics &stat
                          withUncertainty(v0, f.noLoadVoltageUV.value_or(absent)),
                          withUncertainty(f.regulationPercent.value_or(absent), f.regulationUPercent.value_or(absent)),
                          row.verdictShown(), std::to_string(row.safetyStops.size()), row.reviewState(),
-                         (std::isfinite(z) ? formatFixed(z, 2) : std::string("n/a")) + (far ? " FAR" : "")});
+                         (std::isfinite(z) ? formatFixed(z, 2) : std::string("n/a"))
+                             + (far ? (stats.screeningOnly ? " far (screening only)" : " FAR") : "")});
     }
     std::vector<std::size_t> widths(titles.size());
     for (std::size_t c = 0; c < titles.size(); ++c) {
@@ -197,15 +210,14 @@ void printSummary(const std::vector<SessionRow> &rows, const BatchStatistics &st
         else if (ruleName != row.figures.ruleName)
             ruleName = "each session's recorded rule";
     }
-    out << "  Verdicts on regulation against the nameplate (" << (ruleName.empty() ? toString(options.figures.rule) : ruleName)
-        << "):\n    pass " << stats.pass << ", fail " << stats.fail << ", cannot decide " << stats.undecided << ", n/a "
-        << stats.noVerdict << ", incomplete (no verdict) " << stats.incomplete << '\n';
+    out << "  Verdicts against each session's specification (" << (ruleName.empty() ? toString(options.figures.rule) : ruleName)
+        << "):\n    " << verdictCountsText(stats) << '\n';
     out << "  Review: accepted " << stats.accepted << ", rejected " << stats.rejected << ", retest " << stats.retest
         << ", not reviewed " << stats.notReviewed << ", changed after sign-off " << stats.changedAfterSignOff << "; safety stops in " << stats.safetyStopped
         << " sessions; lab-sheet limit hit in " << stats.limitHit << '\n';
     out << "  Far from the batch: " << stats.ruleNote << '\n';
-    out << "  Fit: " << toString(options.method) << "; uncertainties expanded with k = "
-        << formatSignificant(options.figures.coverageFactor, 2) << "\n";
+    out << "  Fit: " << toString(options.method) << "; U: expanded uncertainties at 95 % coverage, k from each result's "
+        << "own budget (GUM G.4)\n";
 }
 
 } // namespace
@@ -219,8 +231,10 @@ int runCompare(const Arguments &args)
     std::optional<double> referenceC;
     if (!line.number("reference-temperature", -50.0, 250.0, referenceC))
         return exitInvalidInput;
-    if (referenceC)
+    if (referenceC) {
         options.comparison.figures.referenceTemperatureC = *referenceC;
+        options.comparison.figures.judgeAtReferenceTemperature = true;
+    }
     if (const std::string error = readArguments(line, options); !error.empty())
         return line.fail(error);
     const SessionFileList found = findSessionFiles(options.inputs);

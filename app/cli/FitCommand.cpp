@@ -1,15 +1,19 @@
-// sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json] [--setup SETUP.json]
-//   [--rule simple|guarded] [--regulation-limit PERCENT] [--winding-temperature C]
-//   [--reference-temperature C] [--temperature-constant copper-ieee|copper-iec|aluminium]
+// sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json] [--budget]
+//   [--setup SETUP.json] [--rule simple|guarded|non-binary] [--regulation-limit PERCENT|nameplate]
+//   [--winding-temperature C] [--reference-temperature C]
+//   [--temperature-constant copper-ieee|copper-iec|aluminium]
 // Fits V = V0 - R·I to the readings; with a nameplate (a session's setup, or --setup) it adds
-// the analysis at rated current and the verdict against the nameplate's regulation.
+// the analysis at rated current with uncertainty budgets and the verdict against the setup's
+// specification. A session goes through core's SessionSummary, so `fit`, `report`, `export` and
+// the window show the same numbers.
 #include "CliCommands.h"
 #include "FitOutput.h"
 
 #include "CommandLine.h"
 
+#include "ConformityAssessment.h"
 #include "CsvReadings.h"
-#include "SessionStore.h"
+#include "SessionSummary.h"
 #include "SetupJson.h"
 
 #include <cmath>
@@ -23,9 +27,10 @@ struct FitArguments {
     std::string dataPath;
     FitMethod method = FitMethod::Ols;
     bool json = false;
+    bool budget = false;
     std::string setupPath;
-    std::optional<DecisionRule> rule;  // default: a session's analysis-settings record, else guarded
-    std::optional<double> regulationLimit;
+    std::optional<DecisionRule> rule;  // default: a session's analysis-settings record, else non-binary
+    std::optional<RegulationLimitChoice> regulationLimit;
     std::optional<double> windingTemperatureC;
     std::optional<double> referenceTemperatureC;
     std::optional<TemperatureConstant> temperatureConstant;
@@ -37,23 +42,36 @@ int invalid(const std::string &message)
     return exitInvalidInput;
 }
 
+bool endsWith(const std::string &text, const std::string &suffix)
+{
+    return text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0;
+}
+
 CommandLine fitCommandLine()
 {
     CommandLine line("sagline-cli fit", "(DATA.csv | SESSION.sagline) [options]",
                      "Fits V = V0 - R·I to the readings of a CSV file or a session: series resistance and no-load "
-                     "voltage with their uncertainties, R², outliers and the curvature check; with a nameplate (a "
-                     "session's setup, or --setup) also regulation and copper loss at rated current and the verdict.");
+                     "voltage with their uncertainty budgets, R², the outlier screen and the curvature check; with a "
+                     "nameplate (a session's setup, or --setup) also regulation and copper loss at rated current and "
+                     "the verdict against the setup's specification.");
     line.addPositional("DATA.csv|SESSION.sagline",
                        "readings: a CSV (current_a,voltage_v[,u_current_a,u_voltage_v]) or a session file");
     line.addOption({"method"}, "ols|wls|york", "ordinary (default), weighted or York's errors-in-both-variables fit");
     line.addFlag({"json"}, "print one JSON object instead of the text");
-    line.addOption({"setup"}, "SETUP.json", "the nameplate for a CSV file");
-    line.addOption({"rule"}, "simple|guarded", "the decision rule of the verdict (ILAC-G8:09/2019)");
-    line.addOption({"regulation-limit"}, "PERCENT", "judge against this regulation limit instead of the nameplate's");
-    line.addOption({"winding-temperature"}, "C", "with --reference-temperature: the winding temperature during the test");
-    line.addOption({"reference-temperature"}, "C", "refer R to this temperature (with --winding-temperature)");
+    line.addFlag({"budget"}, "also print every result's uncertainty budget table");
+    line.addOption({"setup"}, "SETUP.json", "the nameplate, meters and specification for a CSV file");
+    line.addOption({"rule"}, "simple|guarded|non-binary",
+                   "the decision rule of the verdict (ILAC-G8:09/2019 §4.2.1-4.2.3; default non-binary)");
+    line.addOption({"regulation-limit"}, "PERCENT|nameplate",
+                   "judge regulation against this limit instead of the specification's; \"nameplate\" takes the "
+                   "nameplate's own regulation, labelled so");
+    line.addOption({"winding-temperature"}, "C", "the winding temperature during the test, -60 to 400 °C");
+    line.addOption({"reference-temperature"}, "C",
+                   "refer R (and regulation, full-load voltage, copper loss) to this temperature and judge there");
     line.addOption({"temperature-constant"}, "copper-ieee|copper-iec|aluminium",
                    "T_k for that correction: 234.5 °C (IEEE C57.12.90), 235 °C (IEC 60076-1) or 225 °C");
+    line.addNote("Without a specification in the setup and without --regulation-limit there is no pass or fail: the "
+                 "verdict is not-judged and the measured regulation is shown beside the nameplate's.");
     line.addNote(exitCodesNote);
     return line;
 }
@@ -63,6 +81,7 @@ std::optional<std::string> readArguments(const CommandLine &line, FitArguments &
 {
     out.dataPath = line.positionals().front();
     out.json = line.isSet("json");
+    out.budget = line.isSet("budget");
     out.setupPath = line.value("setup");
     if (const auto text = line.valueIfSet("method")) {
         const auto method = fitMethodFromString(*text);
@@ -73,55 +92,68 @@ std::optional<std::string> readArguments(const CommandLine &line, FitArguments &
     if (const auto text = line.valueIfSet("rule")) {
         const auto rule = decisionRuleFromString(*text);
         if (!rule)
-            return "--rule: unknown decision rule '" + *text + "'; use simple or guarded";
+            return "--rule: unknown decision rule '" + *text
+                   + "'; use simple, guarded or non-binary (ILAC-G8:09/2019 §4.2.1-4.2.3)";
         out.rule = *rule;
+    }
+    if (const auto text = line.valueIfSet("regulation-limit")) {
+        out.regulationLimit = regulationLimitFromText(*text);
+        if (!out.regulationLimit)
+            return "--regulation-limit: '" + *text + "' is neither a percentage above 0 and at most 100 nor the word "
+                   "nameplate";
     }
     if (const auto text = line.valueIfSet("temperature-constant")) {
         out.temperatureConstant = temperatureConstantFromString(*text);
         if (!out.temperatureConstant)
             return "--temperature-constant: use copper-ieee (234.5 °C), copper-iec (235 °C) or aluminium (225 °C)";
     }
-    if (out.windingTemperatureC.has_value() != out.referenceTemperatureC.has_value())
+    if (!endsWith(out.dataPath, ".sagline") && out.windingTemperatureC.has_value() != out.referenceTemperatureC.has_value())
         return "--winding-temperature and --reference-temperature go together";
     return std::nullopt;
 }
 
-bool endsWith(const std::string &text, const std::string &suffix)
+// A session: everything from core's summary (the session's setup, temperatures and recorded
+// settings, the options given here winning).
+int fitSession(const FitArguments &args, FitReport &report)
 {
-    return text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0;
+    if (!args.setupPath.empty())
+        return invalid("--setup is for a CSV; a session carries its own setup");
+    ReviewOptions review;
+    review.method = args.method;
+    review.rule = args.rule;
+    review.regulationLimit = args.regulationLimit;
+    review.referenceTemperatureC = args.referenceTemperatureC;
+    review.windingTemperatureC = args.windingTemperatureC;
+    review.temperatureConstant = args.temperatureConstant;
+    auto loaded = loadSessionSummary(args.dataPath, review);
+    if (!loaded.ok()) {
+        std::cerr << "sagline-cli fit: " << args.dataPath << ": " << loaded.message << '\n';
+        return loaded.code == StoreCode::IoError ? exitRuntimeFailure : exitInvalidInput;
+    }
+    const SessionSummary &summary = loaded.value;
+    for (const std::string &notice : summary.recordedSettings.notices)
+        report.warnings.push_back(notice);
+    report.fit = summary.fit;
+    if (!report.fit.ok())
+        return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + report.fit.message);
+    report.meters = summary.setup ? summary.setup->meters : std::nullopt;
+    report.analysis = summary.analysis;
+    report.verdict = summary.verdict;
+    if (!summary.setup)
+        report.warnings.push_back("no analysis at rated current: " + summary.analysisProblem);
+    else if (!summary.analysis)
+        report.warnings.push_back("no analysis at rated current: " + summary.analysisProblem);
+    report.hasNameplate = summary.setup.has_value();
+    report.ruleSource = summary.ruleSource;
+    report.regulationLimitSource = summary.regulationLimitSource;
+    report.temperatureConstantSource = summary.temperatureConstantSource;
+    report.settingsUsed = describeSettingsUsed(summary);
+    return exitSuccess;
 }
 
-// Loads the readings (and a session's setup). Returns an exit code on failure.
-std::optional<int> loadData(const FitArguments &args, std::vector<Reading> &readings, FitReport &report,
-                            std::optional<Setup> &setup, std::optional<AnalysisSettings> &recorded)
+// A CSV: the readings as given, the nameplate, meters and specification from --setup.
+int fitCsv(const FitArguments &args, FitReport &report)
 {
-    if (endsWith(args.dataPath, ".sagline")) {
-        auto store = SessionStore::openForReview(args.dataPath);
-        if (!store.ok()) {
-            std::cerr << "sagline-cli fit: " << args.dataPath << ": " << store.message << '\n';
-            return store.code == StoreCode::IoError ? exitRuntimeFailure : exitInvalidInput;
-        }
-        auto stored = store.value->readings();
-        auto info = store.value->info();
-        if (!stored.ok() || !info.ok()) {
-            std::cerr << "sagline-cli fit: " << args.dataPath << ": " << (stored.ok() ? info.message : stored.message) << '\n';
-            return exitRuntimeFailure;
-        }
-        readings = std::move(stored.value);
-        if (const auto notes = store.value->notes(); notes.ok()) {
-            const RecordedAnalysisSettings latest = latestAnalysisSettings(notes.value);
-            for (const std::string &notice : latest.notices)
-                report.warnings.push_back(notice);
-            recorded = latest.settings;
-        } else {
-            report.warnings.push_back("the session's notes could not be read (" + notes.message
-                                      + "); judged with the options and defaults");
-        }
-        const SetupParse parsed = parseSetupJson(info.value.setupJson);
-        if (parsed.setup)
-            setup = parsed.setup;
-        return std::nullopt;
-    }
     const ReadingsCsvParse csv = loadReadingsCsv(args.dataPath);
     if (!csv.ok()) {
         for (const FieldError &e : csv.errors)
@@ -132,33 +164,8 @@ std::optional<int> loadData(const FitArguments &args, std::vector<Reading> &read
         return invalid(args.dataPath + ": --method wls needs the column u_voltage_v (standard uncertainty of each voltage)");
     if (args.method == FitMethod::York && !(csv.hasVoltageUncertainty && csv.hasCurrentUncertainty))
         return invalid(args.dataPath + ": --method york needs the columns u_current_a and u_voltage_v (standard uncertainties)");
-    readings = csv.readings;
     report.lineNumbers = csv.lineNumbers;
-    return std::nullopt;
-}
-
-} // namespace
-
-int runFit(const Arguments &arguments)
-{
-    CommandLine line = fitCommandLine();
-    if (const auto exit = line.parse(arguments))
-        return *exit;
-    FitArguments args;
-    // Ranges: a limit is a percentage above 0; temperatures a winding can have (°C).
-    if (!line.number("regulation-limit", 1e-6, 1000.0, args.regulationLimit)
-        || !line.number("winding-temperature", -60.0, 400.0, args.windingTemperatureC)
-        || !line.number("reference-temperature", -60.0, 400.0, args.referenceTemperatureC))
-        return exitInvalidInput;
-    if (const auto error = readArguments(line, args))
-        return line.fail(*error);
-    FitReport report;
-    report.source = args.dataPath;
-    std::vector<Reading> readings;
     std::optional<Setup> setup;
-    std::optional<AnalysisSettings> recorded;
-    if (const auto code = loadData(args, readings, report, setup, recorded))
-        return *code;
     if (!args.setupPath.empty()) {
         const SetupParse parsed = loadSetupFile(args.setupPath);
         if (!parsed.setup) {
@@ -167,9 +174,12 @@ int runFit(const Arguments &arguments)
             return exitInvalidInput;
         }
         setup = parsed.setup;
+    } else if (args.regulationLimit || args.windingTemperatureC || args.rule) {
+        return invalid("--rule, --regulation-limit and the temperatures need the nameplate: give --setup SETUP.json "
+                       "or a session");
     }
-
-    report.fit = fitReadings(readings, args.method);
+    report.meters = setup ? setup->meters : std::nullopt;
+    report.fit = fitReadings(csv.readings, args.method, fitOptionsFor(report.meters));
     if (!report.fit.ok()) {
         std::string message = report.fit.message;
         // Name the CSV line as well as the row.
@@ -182,53 +192,54 @@ int runFit(const Arguments &arguments)
         }
         return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + message);
     }
+    if (!setup)
+        return exitSuccess;
+    report.hasNameplate = true;
+    AssessmentOptions options;
+    options.rule = args.rule.value_or(DecisionRule::NonBinary);
+    options.regulationLimit = args.regulationLimit.value_or(RegulationLimitChoice{});
+    options.windingTemperatureC = args.windingTemperatureC;
+    options.referenceTemperatureC = args.referenceTemperatureC;
+    options.temperatureConstant = args.temperatureConstant;
+    const auto sourceOf = [](bool given) { return given ? SettingSource::Option : SettingSource::Default; };
+    report.ruleSource = sourceOf(args.rule.has_value());
+    report.regulationLimitSource = sourceOf(args.regulationLimit.has_value());
+    report.temperatureConstantSource = sourceOf(args.temperatureConstant.has_value());
+    Assessment assessment = assessFit(report.fit, *setup, options);
+    if (!assessment.analysis.ok()) {
+        for (const FieldError &e : assessment.analysis.errors)
+            report.warnings.push_back("no analysis at rated current: " + e.message());
+        return exitSuccess;
+    }
+    report.analysis = std::move(assessment.analysis);
+    report.verdict = std::move(assessment.verdict);
+    return exitSuccess;
+}
+
+} // namespace
+
+int runFit(const Arguments &arguments)
+{
+    CommandLine line = fitCommandLine();
+    if (const auto exit = line.parse(arguments))
+        return *exit;
+    FitArguments args;
+    // Ranges: temperatures a winding can have (°C).
+    if (!line.number("winding-temperature", -60.0, 400.0, args.windingTemperatureC)
+        || !line.number("reference-temperature", -60.0, 400.0, args.referenceTemperatureC))
+        return exitInvalidInput;
+    if (const auto error = readArguments(line, args))
+        return line.fail(*error);
+    FitReport report;
+    report.source = args.dataPath;
+    report.printBudget = args.budget;
+    const int code = endsWith(args.dataPath, ".sagline") ? fitSession(args, report) : fitCsv(args, report);
+    if (code != exitSuccess)
+        return code;
     for (std::string &warning : fitWarnings(report.fit, report.lineNumbers))
         report.warnings.push_back(std::move(warning));
-
-    // Options first, then the session's record, then the defaults. The record's reference
-    // temperature is not used: the fit command refers R only to a winding temperature given here.
-    const auto sourceOf = [&](bool given, bool inRecord) {
-        return given ? SettingSource::Option : inRecord ? SettingSource::SessionRecord : SettingSource::Default;
-    };
-    report.ruleSource = sourceOf(args.rule.has_value(), recorded.has_value());
-    report.regulationLimitSource = sourceOf(args.regulationLimit.has_value(), recorded && recorded->regulationLimitPercent);
-    report.temperatureConstantSource =
-        sourceOf(args.temperatureConstant.has_value(), recorded && recorded->temperatureConstant);
-    DecisionRule rule = DecisionRule::GuardedAcceptance;
-    std::optional<double> limit = args.regulationLimit;
-    std::optional<TemperatureConstant> constant = args.temperatureConstant;
-    if (recorded) {
-        rule = recorded->rule;
-        if (!limit)
-            limit = recorded->regulationLimitPercent;
-        if (!constant)
-            constant = recorded->temperatureConstant;
-    }
-    if (args.rule)
-        rule = *args.rule;
-    if (setup) {
-        AnalysisInput input = analysisInputFor(setup->nameplate);
-        input.windingTemperatureC = args.windingTemperatureC;
-        input.referenceTemperatureC = args.referenceTemperatureC;
-        if (constant)
-            input.temperatureConstant = *constant;
-        report.analysis = analyseFit(report.fit, input);
-        if (!report.analysis->ok()) {
-            for (const FieldError &e : report.analysis->errors)
-                report.warnings.push_back("no analysis at rated current: " + e.message());
-        }
-        report.regulationLimitPercent = limit ? limit : nameplateRegulationPercent(setup->nameplate);
-    } else if (args.regulationLimit || args.windingTemperatureC) {
-        return invalid("--regulation-limit and the temperatures need the nameplate: give --setup SETUP.json or a session");
-    }
-    if (report.analysis && report.analysis->ok() && report.regulationLimitPercent) {
-        const UncertainValue &reg = report.analysis->regulationPercent;
-        report.decision = decideAgainstUpperLimit(reg.value, reg.expandedUncertainty, *report.regulationLimitPercent,
-                                                  rule);
-        if (!reg.expandedUncertainty)
-            report.warnings.push_back("the regulation has no uncertainty: the fit has too few points to give one");
-    }
-
+    if (report.analysis && !report.analysis->regulationPercent.expandedUncertainty)
+        report.warnings.push_back("the results have no uncertainty: the fit has too few points to give one");
     if (args.json)
         std::cout << fitReportJson(report).dump(2) << '\n';
     else

@@ -1,8 +1,12 @@
 #include "FitOutput.h"
 
+#include "AssessmentJson.h"
+#include "BudgetTable.h"
 #include "NumberFormat.h"
 #include "UncertaintyFormat.h"
 
+#include <algorithm>
+#include <functional>
 
 namespace sagline::cli {
 
@@ -17,15 +21,22 @@ nlohmann::json uncertainJson(const UncertainValue &v)
 {
     return {{"value", v.value},
             {"standard_uncertainty", optionalNumber(v.standardUncertainty)},
-            {"expanded_uncertainty", optionalNumber(v.expandedUncertainty)}};
+            {"expanded_uncertainty", optionalNumber(v.expandedUncertainty)},
+            {"coverage_factor", optionalNumber(v.coverageFactor)}};
 }
 
 // Pads to `width` characters, counting UTF-8 code points (setw counts bytes: "R²" is 3).
-std::string padRight(const std::string &text, std::size_t width)
+std::size_t displayWidth(const std::string &text)
 {
     std::size_t characters = 0;
     for (unsigned char c : text)
         characters += (c & 0xC0) != 0x80 ? 1 : 0;
+    return characters;
+}
+
+std::string padRight(const std::string &text, std::size_t width)
+{
+    const std::size_t characters = displayWidth(text);
     return characters >= width ? text + ' ' : text + std::string(width - characters, ' ');
 }
 
@@ -34,25 +45,6 @@ std::string rowLabel(std::size_t row, const std::vector<int> &lineNumbers)
     if (row < lineNumbers.size())
         return "line " + std::to_string(lineNumbers[row]);
     return "row " + std::to_string(row);
-}
-
-// A short number for labels: "2", "2.5", "95" (no trailing zeros).
-std::string shortNumber(double value)
-{
-    std::string text = formatSignificant(value, 3);
-    if (text.find('.') != std::string::npos) {
-        text.erase(text.find_last_not_of('0') + 1);
-        if (text.back() == '.')
-            text.pop_back();
-    }
-    return text;
-}
-
-std::string withU(const UncertainValue &v, const std::string &unit, double k)
-{
-    if (!v.expandedUncertainty)
-        return formatQuantity(v.value, unit, 4) + " (no uncertainty: too few points)";
-    return formatWithUncertainty(v.value, *v.expandedUncertainty, unit) + " (k = " + shortNumber(k) + ")";
 }
 
 std::string methodTitle(FitMethod method)
@@ -65,6 +57,84 @@ std::string methodTitle(FitMethod method)
     return "";
 }
 
+// R and V0 with their budgets: from the analysis, or from the fit and the meters alone.
+LineResults lineResultsOf(const FitReport &report)
+{
+    if (report.analysis)
+        return {report.analysis->seriesResistanceOhm, report.analysis->noLoadVoltageV, report.analysis->uncertaintyBasis};
+    return lineResults(report.fit, report.meters);
+}
+
+std::optional<Interval> seriesResistanceInterval(const FitReport &report)
+{
+    const UncertainValue r = lineResultsOf(report).seriesResistanceOhm;
+    if (!r.expandedUncertainty)
+        return std::nullopt;
+    return Interval{r.value - *r.expandedUncertainty, r.value + *r.expandedUncertainty};
+}
+
+void printBudgetTable(const BudgetTable &table, std::ostream &out)
+{
+    out << "\n" << table.title << ": " << table.summary << '\n';
+    std::vector<std::vector<std::string>> lines;
+    lines.push_back(std::vector<std::string>(std::begin(budgetColumnTitles), std::end(budgetColumnTitles)));
+    for (const BudgetTableRow &row : table.rows)
+        lines.push_back({row.source, row.type, row.distribution, row.standardUncertainty, row.sensitivity,
+                         row.contribution, row.degreesOfFreedom});
+    std::vector<std::size_t> widths(lines.front().size(), 0);
+    for (const auto &line : lines)
+        for (std::size_t c = 0; c < line.size(); ++c)
+            widths[c] = std::max(widths[c], displayWidth(line[c]));
+    for (const auto &line : lines) {
+        std::string text = "  ";
+        for (std::size_t c = 0; c < line.size(); ++c)
+            text += padRight(line[c], c + 1 < line.size() ? widths[c] + 1 : 0);
+        while (!text.empty() && text.back() == ' ')
+            text.pop_back();
+        out << text << '\n';
+    }
+}
+
+void printAnalysis(const FitReport &report, const std::function<void(const std::string &, const std::string &)> &row,
+                   std::ostream &out)
+{
+    const AnalysisResult &a = *report.analysis;
+    out << "\nAt rated secondary current (from the nameplate):\n";
+    row("Full-load voltage", valueWithExpandedUncertainty(a.fullLoadVoltageV, "V"));
+    row("Regulation", valueWithExpandedUncertainty(a.regulationPercent, "%") + ", of the "
+                          + toString(a.regulationBase) + " voltage");
+    row("Copper loss I²R", valueWithExpandedUncertainty(a.copperLossW, "W"));
+    if (a.primaryResistanceOhm)
+        row("R referred to primary", valueWithExpandedUncertainty(*a.primaryResistanceOhm, "Ω") + " (a²·R)");
+    if (a.referenceResistanceOhm && a.temperatureCorrection && a.referenceTemperatureC) {
+        out << "\nAt the reference temperature " << formatSignificant(*a.referenceTemperatureC, 3) << " °C (R × "
+            << formatSignificant(a.temperatureCorrection->factor, 5) << ", V0 unchanged; "
+            << a.temperatureCorrection->convention << "):\n";
+        row("Series resistance R", valueWithExpandedUncertainty(*a.referenceResistanceOhm, "Ω"));
+        if (a.referredFullLoadVoltageV)
+            row("Full-load voltage", valueWithExpandedUncertainty(*a.referredFullLoadVoltageV, "V"));
+        if (a.referredRegulationPercent)
+            row("Regulation", valueWithExpandedUncertainty(*a.referredRegulationPercent, "%"));
+        if (a.referredCopperLossW)
+            row("Copper loss I²R", valueWithExpandedUncertainty(*a.referredCopperLossW, "W"));
+    }
+}
+
+void printVerdict(const SpecificationVerdict &v, const std::function<void(const std::string &, const std::string &)> &row)
+{
+    row("Verdict", outcomeWords(v.outcome) + (v.atReferenceTemperature ? " (judged at the reference temperature)"
+                                                                        : " (judged as measured)"));
+    row("", v.explanation);
+    for (const ConformityDecision &d : v.limits) {
+        std::string line = d.ok ? outcomeWords(d.outcome) + ": " + d.explanation : d.error;
+        if (d.conformanceProbability)
+            line += " Probability of conformity " + conformanceProbabilityText(*d.conformanceProbability) + ".";
+        row("", line);
+    }
+    row("Decision rule", v.ruleName);
+    row("Limits from", v.limitsSource);
+}
+
 } // namespace
 
 std::vector<std::string> fitWarnings(const FitSummary &fit, const std::vector<int> &lineNumbers)
@@ -74,8 +144,10 @@ std::vector<std::string> fitWarnings(const FitSummary &fit, const std::vector<in
         warnings.push_back("the V-I line bends (quadratic term p = " + formatSignificant(*fit.curvatureP, 2)
                            + "): core saturation or winding heating; the straight-line R is an average");
     for (std::size_t row : fit.outlierRows)
-        warnings.push_back(rowLabel(row, lineNumbers) + " looks like an outlier (studentized residual "
-                           + formatSignificant(*fit.points[row].studentized, 3) + "); check it, exclude it with a reason if it is wrong");
+        warnings.push_back(rowLabel(row, lineNumbers) + " looks like an outlier (screening statistic "
+                           + formatSignificant(*fit.points[row].screeningStatistic, 3) + " beyond "
+                           + formatSignificant(*fit.outlierScreening.criticalValue, 3)
+                           + "); check it, exclude it with a reason if it is wrong");
     if (fit.mswd && *fit.mswd > 3.0)
         warnings.push_back("the scatter is larger than the stated uncertainties (MSWD = " + formatSignificant(*fit.mswd, 3)
                            + "); uncertainties were enlarged by sqrt(MSWD)");
@@ -102,10 +174,11 @@ nlohmann::json fitReportJson(const FitReport &report)
     j["r_squared"] = optionalNumber(f.rSquared);
     j["residual_sd_v"] = optionalNumber(f.residualSdV);
     j["confidence"] = f.confidence;
-    j["series_resistance_ci95_ohm"] = f.seriesResistanceCi
-                                          ? nlohmann::json::array({f.seriesResistanceCi->low, f.seriesResistanceCi->high})
-                                          : nlohmann::json(nullptr);
+    // One coverage everywhere: the 95 % interval of R is R ± U of its budget.
+    const auto ci = seriesResistanceInterval(report);
+    j["series_resistance_ci95_ohm"] = ci ? nlohmann::json::array({ci->low, ci->high}) : nlohmann::json(nullptr);
     j["outliers"] = f.outlierRows;
+    j["outlier_screening"] = outlierScreeningJson(f.outlierScreening);
     j["curvature_p"] = optionalNumber(f.curvatureP);
     j["curvature_coefficient_v_per_a2"] = optionalNumber(f.curvatureCoefficient);
     if (f.method != FitMethod::Ols) {
@@ -118,16 +191,23 @@ nlohmann::json fitReportJson(const FitReport &report)
         j["iterations"] = f.iterations;
     nlohmann::json points = nlohmann::json::array();
     for (const PointFit &p : f.points) {
-        nlohmann::json point = {{"row", p.row}, {"used", p.used}, {"residual_v", p.residualV},
-                                {"studentized", optionalNumber(p.studentized)}, {"outlier", p.outlier}};
+        nlohmann::json point = {{"row", p.row},
+                                {"used", p.used},
+                                {"residual_v", p.residualV},
+                                {"studentized", optionalNumber(p.studentized)},
+                                {"screening_statistic", optionalNumber(p.screeningStatistic)},
+                                {"outlier", p.outlier}};
         if (p.row < report.lineNumbers.size())
             point["line"] = report.lineNumbers[p.row];
         points.push_back(point);
     }
     j["points"] = points;
+    const LineResults line = lineResultsOf(report);
+    j["uncertainty_basis"] = line.uncertaintyBasis;
+    j["coverage_probability"] = coverageProbability;
     if (report.analysis) {
         const AnalysisResult &a = *report.analysis;
-        nlohmann::json analysis = {{"coverage_factor", a.coverageFactor},
+        nlohmann::json analysis = {{"coverage_probability", coverageProbability},
                                    {"full_load_voltage_v", uncertainJson(a.fullLoadVoltageV)},
                                    {"regulation_percent", uncertainJson(a.regulationPercent)},
                                    {"regulation_base", toString(a.regulationBase)},
@@ -138,15 +218,16 @@ nlohmann::json fitReportJson(const FitReport &report)
             a.referenceResistanceOhm ? uncertainJson(*a.referenceResistanceOhm) : nlohmann::json(nullptr);
         if (a.temperatureCorrection)
             analysis["temperature_convention"] = a.temperatureCorrection->convention;
+        analysis["reference_temperature_c"] = optionalNumber(a.referenceTemperatureC);
         j["analysis"] = analysis;
+        j["results"] = resultsJson(a);
+    } else {
+        j["results"] = {{"series_resistance_ohm", uncertainValueJson(line.seriesResistanceOhm)},
+                        {"no_load_voltage_v", uncertainValueJson(line.noLoadVoltageV)}};
     }
-    if (report.decision) {
-        const ConformityDecision &d = *report.decision;
-        j["verdict"] = {{"outcome", toString(d.outcome)}, {"rule", toString(d.rule)}, {"rule_name", d.ruleName},
-                        {"regulation_limit_percent", d.upperLimit}, {"acceptance_limit_percent", d.acceptanceLimit},
-                        {"explanation", d.explanation}};
-    }
-    if (report.analysis)
+    if (report.verdict)
+        j["verdict"] = verdictJson(*report.verdict);
+    if (report.hasNameplate)
         j["settings_source"] = {{"rule", toString(report.ruleSource)},
                                 {"regulation_limit", toString(report.regulationLimitSource)},
                                 {"temperature_constant", toString(report.temperatureConstantSource)}};
@@ -157,23 +238,17 @@ nlohmann::json fitReportJson(const FitReport &report)
 void printFitReport(const FitReport &report, std::ostream &out)
 {
     const FitSummary &f = report.fit;
-    const auto row = [&](const std::string &label, const std::string &text) {
+    const std::function<void(const std::string &, const std::string &)> row = [&](const std::string &label,
+                                                                                  const std::string &text) {
         out << "  " << padRight(label, 24) << text << '\n';
     };
-    std::size_t total = f.points.size();
+    const std::size_t total = f.points.size();
+    const LineResults line = lineResultsOf(report);
     out << "Straight-line fit V = V0 - R·I of " << report.source << "\n"
-        << "  " << methodTitle(f.method) << ", " << f.n << " of " << total << " readings used\n\n";
-    const double k = 2.0;
-    const auto rSe = f.analysisSlopeSe();
-    const auto v0Se = f.analysisInterceptSe();
-    const UncertainValue r{f.seriesResistanceOhm(), rSe, rSe ? std::optional<double>(k * *rSe) : std::nullopt};
-    const UncertainValue v0{f.noLoadVoltageV(), v0Se, v0Se ? std::optional<double>(k * *v0Se) : std::nullopt};
-    row("Series resistance R", withU(r, "Ω", k));
-    if (f.seriesResistanceCi)
-        row("", shortNumber(f.confidence * 100.0) + " % interval " + formatQuantity(f.seriesResistanceCi->low, "Ω")
-                    + " to " + formatQuantity(f.seriesResistanceCi->high, "Ω") + " (Student t, "
-                    + std::to_string(f.degreesOfFreedom) + " degrees of freedom)");
-    row("No-load voltage V0", withU(v0, "V", k));
+        << "  " << methodTitle(f.method) << ", " << f.n << " of " << total << " readings used\n"
+        << "  Uncertainties: " << line.uncertaintyBasis << "\n\n";
+    row("Series resistance R", valueWithExpandedUncertainty(line.seriesResistanceOhm, "Ω"));
+    row("No-load voltage V0", valueWithExpandedUncertainty(line.noLoadVoltageV, "V"));
     if (f.mswd)
         row("MSWD", formatSignificant(*f.mswd, 3) + " (S/(n-2); near 1 when the stated uncertainties explain the scatter)");
     if (f.residualSdV)
@@ -183,41 +258,40 @@ void printFitReport(const FitReport &report, std::ostream &out)
     if (f.curvatureP)
         row("Curvature check", "p = " + formatSignificant(*f.curvatureP, 2) + " for a quadratic term"
                                    + (*f.curvatureP < 0.01 ? ": the line bends" : ": no sign of bending"));
-    std::string outliers = "none";
-    if (!f.outlierRows.empty()) {
-        outliers.clear();
-        for (std::size_t rowIndex : f.outlierRows)
-            outliers += (outliers.empty() ? "" : ", ") + rowLabel(rowIndex, report.lineNumbers);
+    if (f.outlierScreening.screened) {
+        std::string outliers = "none flagged";
+        if (!f.outlierRows.empty()) {
+            outliers.clear();
+            for (std::size_t rowIndex : f.outlierRows)
+                outliers += (outliers.empty() ? "flagged: " : ", ") + rowLabel(rowIndex, report.lineNumbers);
+        }
+        row("Outlier screen", outliers + " (shown, never applied)");
+        row("", f.outlierScreening.rule + "; critical value " + formatSignificant(*f.outlierScreening.criticalValue, 4));
+    } else {
+        row("Outlier screen", f.outlierScreening.reason);
     }
-    row("Outliers (|t| > 3)", outliers + " (flagged, never dropped)");
 
-    if (report.analysis && report.analysis->ok()) {
-        const AnalysisResult &a = *report.analysis;
-        out << "\nAt rated secondary current (from the nameplate):\n";
-        row("Full-load voltage", withU(a.fullLoadVoltageV, "V", a.coverageFactor));
-        row("Regulation", withU(a.regulationPercent, "%", a.coverageFactor) + ", of the "
-                              + (a.regulationBase == RegulationBase::FullLoad ? "full-load" : "no-load") + " voltage");
-        row("Copper loss I²R", withU(a.copperLossW, "W", a.coverageFactor));
-        if (a.primaryResistanceOhm)
-            row("R referred to primary", withU(*a.primaryResistanceOhm, "Ω", a.coverageFactor) + " (a²·R)");
-        if (a.referenceResistanceOhm)
-            row("R at reference temp.", withU(*a.referenceResistanceOhm, "Ω", a.coverageFactor) + "; "
-                                            + a.temperatureCorrection->convention);
-    } else if (report.analysis) {
-        out << "\nNo analysis at rated current: " << report.analysis->errors.front().message() << '\n';
-    }
-    if (report.decision) {
-        const ConformityDecision &d = *report.decision;
-        std::string outcome = d.outcome == ConformityOutcome::Pass   ? "PASS"
-                              : d.outcome == ConformityOutcome::Fail ? "FAIL"
-                                                                     : "CANNOT DECIDE";
-        row("Verdict", outcome + " against a regulation limit of " + formatSignificant(d.upperLimit, 4) + " %");
-        row("", d.explanation);
-        row("", "Decision rule: " + d.ruleName);
-    }
     if (report.analysis)
+        printAnalysis(report, row, out);
+    if (report.verdict) {
+        out << '\n';
+        printVerdict(*report.verdict, row);
+    }
+    if (!report.settingsUsed.empty())
+        row("Judged with", report.settingsUsed);
+    else if (report.hasNameplate)
         row("Settings from", "rule: " + toString(report.ruleSource) + "; limit: " + toString(report.regulationLimitSource)
                                  + "; temperature constant: " + toString(report.temperatureConstantSource));
+    if (report.printBudget) {
+        out << "\nUncertainty budgets (GUM, JCGM 100:2008): independent inputs, contributions |cᵢ|·u(xᵢ) add in "
+               "quadrature;\nν_eff by Welch-Satterthwaite (G.4); U = half-width of the 95 % interval of the components' "
+               "combined\ndistribution, k = U/u (= t95(ν_eff) unless a rectangular limit dominates).\n";
+        const std::vector<BudgetTable> tables = report.analysis ? budgetTables(*report.analysis) : budgetTables(line);
+        for (const BudgetTable &table : tables)
+            printBudgetTable(table, out);
+        if (tables.empty())
+            out << "  none: the fit has too few points for an uncertainty\n";
+    }
     if (!report.warnings.empty()) {
         out << "\nWarnings:\n";
         for (const auto &w : report.warnings)

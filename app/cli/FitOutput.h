@@ -1,8 +1,9 @@
-// Output of `sagline-cli fit`: the JSON object of DESIGN.md and the aligned human summary.
+// Output of `sagline-cli fit`: the JSON object of DESIGN.md and the aligned human summary,
+// with the uncertainty budget tables on request.
 #pragma once
 
 #include "AnalysisSettingsRecord.h"
-#include "ConformityDecision.h"
+#include "ConformityAssessment.h"
 #include "FitSummary.h"
 #include "ResultAnalysis.h"
 
@@ -20,14 +21,17 @@ struct FitReport {
     std::string source;                      // the input file as given
     std::vector<int> lineNumbers;            // CSV line of each row (empty for a session)
     FitSummary fit;
-    std::optional<AnalysisResult> analysis;  // when a nameplate is known
-    std::optional<double> regulationLimitPercent;
-    std::optional<ConformityDecision> decision;
+    std::optional<MeterSpecs> meters;        // the setup's meters, when known
+    bool hasNameplate = false;               // a setup was given or stored
+    std::optional<AnalysisResult> analysis;  // when a nameplate is known and the analysis worked
+    std::optional<SpecificationVerdict> verdict;
     std::vector<std::string> warnings;
+    bool printBudget = false;                // --budget: print every result's budget table
     // Where the judging choices came from (shown when there is a nameplate).
     SettingSource ruleSource = SettingSource::Default;
     SettingSource regulationLimitSource = SettingSource::Default;
     SettingSource temperatureConstantSource = SettingSource::Default;
+    std::string settingsUsed;                // a session's describeSettingsUsed line
 };
 
 // Warnings a reader should see: bending, outliers, scatter beyond the stated uncertainties.

@@ -31,8 +31,11 @@ CommandLine reportCommandLine()
     line.addOption({"o", "output"}, "REPORT.pdf", "the PDF to write");
     line.addOption({"page"}, "a4|letter", "the paper size (default a4)");
     line.addOption({"method"}, "ols|wls|york", "the fit method (default ols)");
-    line.addOption({"rule"}, "simple|guarded", "the decision rule of the verdict (ILAC-G8:09/2019)");
-    line.addOption({"regulation-limit"}, "PERCENT", "judge against this regulation limit instead of the nameplate's");
+    line.addOption({"rule"}, "simple|guarded|non-binary",
+                   "the decision rule of the verdict (ILAC-G8:09/2019 §4.2.1-4.2.3; default non-binary)");
+    line.addOption({"regulation-limit"}, "PERCENT|nameplate",
+                   "judge regulation against this limit instead of the setup's specification; \"nameplate\" takes the "
+                   "nameplate's own regulation, labelled so");
     line.addOption({"reference-temperature"}, "C", "refer R to this temperature, -273.15 to 1000 °C");
     line.addOption({"temperature-constant"}, "copper-ieee|copper-iec|aluminium",
                    "T_k: 234.5 °C (IEEE C57.12.90), 235 °C (IEC 60076-1) or 225 °C");
@@ -64,8 +67,13 @@ std::string readArguments(const CommandLine &line, ReportOptions &report, Review
     if (const auto value = line.valueIfSet("rule")) {
         const auto rule = decisionRuleFromString(*value);
         if (!rule)
-            return "--rule: expected simple or guarded, got '" + *value + "'";
+            return "--rule: expected simple, guarded or non-binary, got '" + *value + "'";
         review.rule = *rule;
+    }
+    if (const auto value = line.valueIfSet("regulation-limit")) {
+        review.regulationLimit = regulationLimitFromText(*value);
+        if (!review.regulationLimit)
+            return "--regulation-limit: expected a percentage above 0 and at most 100, or nameplate, got '" + *value + "'";
     }
     if (const auto value = line.valueIfSet("temperature-constant")) {
         const auto constant = temperatureConstantFromString(*value);
@@ -87,8 +95,7 @@ int runReport(const Arguments &args)
         return *exit;
     ReportOptions report;
     ReviewOptions review;
-    if (!line.number("regulation-limit", 1e-6, 1000.0, review.regulationLimitPercent)
-        || !line.number("reference-temperature", -273.15, 1000.0, review.referenceTemperatureC))
+    if (!line.number("reference-temperature", -273.15, 1000.0, review.referenceTemperatureC))
         return exitInvalidInput;
     if (const std::string problem = readArguments(line, report, review); !problem.empty())
         return line.fail(problem);
@@ -123,8 +130,9 @@ int runReport(const Arguments &args)
     for (const std::string &notice : summary.value.recordedSettings.notices)
         std::cerr << "sagline-cli report: note: " << notice << '\n';
     std::cout << "Judged with: " << describeSettingsUsed(summary.value) << '\n';
-    if (const auto &d = summary.value.decision; d && d->ok)
-        std::cout << "Verdict on regulation: " << toString(d->outcome) << " (" << d->ruleName << ")\n";
+    if (const auto &v = summary.value.verdict)
+        std::cout << "Verdict: " << toString(v->outcome) << " (" << v->ruleName << "; limits: " << v->limitsSource
+                  << ")\n";
     std::cout << "Wrote " << outputPath << '\n';
     return exitSuccess;
 }

@@ -291,8 +291,13 @@ int runRun(const Arguments &rawArgs)
         std::cerr << "connected " << instrument->name().toStdString() << ": " << instrument->identityText().toStdString()
                   << " (" << instrument->link()->description().toStdString() << ")\n";
 
+    // The meters' own accuracy rules go into the session's setup: the analysis propagates their
+    // gain and offset once per result (core/FitBudget.h).
+    Setup recordedSetup = setup;
+    if (auto specs = rig->meterSpecs(setup.meters ? setup.meters->windingTemperatureUncertaintyC : std::nullopt))
+        recordedSetup.meters = specs;
     NewSession session;
-    session.setupJson = setupToJson(setup);
+    session.setupJson = setupToJson(recordedSetup);
     session.planJson = planToJson(plan);
     session.operatorName = !args.operatorName.empty() ? args.operatorName
                            : qEnvironmentVariableIsSet("USER") ? qEnvironmentVariable("USER").toStdString()

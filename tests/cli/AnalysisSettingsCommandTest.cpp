@@ -1,7 +1,8 @@
 // A session's analysis-settings record (core/AnalysisSettingsRecord.h) decides how `fit` and
 // `report` judge it; a command-line option still overrides it. Decision rules of
-// ILAC-G8:09/2019: simple acceptance §4.2.1 (pass when value <= TL), guarded acceptance §4.2.2
-// (pass when value <= TL - U, cannot decide up to TL + U).
+// ILAC-G8:09/2019: simple acceptance §4.2.1 (pass when value <= TL), binary guarded §4.2.2
+// (pass when value <= TL - U, else fail), non-binary §4.2.3 (conditional pass up to TL,
+// conditional fail up to TL + U).
 #include "AnalysisSettingsRecord.h"
 #include "CliTestSupport.h"
 #include "SessionStore.h"
@@ -50,16 +51,16 @@ protected:
 
     std::string session;
     double value = 0.0;    // regulation, %
-    double expanded = 0.0; // its U (k = 2), %
+    double expanded = 0.0; // its U (95 %), %
 };
 
 } // namespace
 
 TEST_F(AnalysisSettingsCommands, FitAndReportJudgeByTheRecordedSimpleRule)
 {
-    // Half a U above the value: pass by the simple rule, cannot decide by the guarded one.
+    // Half a U above the value: pass by the simple rule, conditional pass by the non-binary one.
     AnalysisSettings settings;
-    settings.rule = DecisionRule::SimpleAcceptance;
+    settings.rule = DecisionRule::Simple;
     settings.regulationLimitPercent = value + 0.5 * expanded;
     addRecord(analysisSettingsNoteText(settings));
 
@@ -72,7 +73,7 @@ TEST_F(AnalysisSettingsCommands, FitAndReportJudgeByTheRecordedSimpleRule)
 
     const auto report = runProgram(cli, {"report", session, "-o", path("r.pdf")});
     ASSERT_EQ(report.exitCode, 0) << report.err;
-    EXPECT_NE(report.out.find("Verdict on regulation: pass"), std::string::npos) << report.out;
+    EXPECT_NE(report.out.find("Verdict: pass"), std::string::npos) << report.out;
     EXPECT_NE(report.out.find("decision rule simple (session record)"), std::string::npos) << report.out;
     EXPECT_NE(report.out.find("(session record); reference temperature 75 °C (default)"), std::string::npos)
         << report.out;
@@ -81,14 +82,18 @@ TEST_F(AnalysisSettingsCommands, FitAndReportJudgeByTheRecordedSimpleRule)
 TEST_F(AnalysisSettingsCommands, OptionsOverrideTheRecord)
 {
     AnalysisSettings settings;
-    settings.rule = DecisionRule::SimpleAcceptance;
+    settings.rule = DecisionRule::Simple;
     settings.regulationLimitPercent = value + 0.5 * expanded;
     addRecord(analysisSettingsNoteText(settings));
 
+    const auto nonBinary = fitJson({"--rule", "non-binary"});
+    EXPECT_EQ(nonBinary.at("verdict").at("rule"), "non-binary");
+    EXPECT_EQ(nonBinary.at("verdict").at("outcome"), "conditional-pass");
+    EXPECT_EQ(nonBinary.at("settings_source").at("rule"), "option");
+    // The binary guarded rule cannot say "conditional": within U of the limit is a fail.
     const auto guarded = fitJson({"--rule", "guarded"});
     EXPECT_EQ(guarded.at("verdict").at("rule"), "guarded");
-    EXPECT_EQ(guarded.at("verdict").at("outcome"), "cannot-decide");
-    EXPECT_EQ(guarded.at("settings_source").at("rule"), "option");
+    EXPECT_EQ(guarded.at("verdict").at("outcome"), "fail");
 
     // A limit below the value fails by either rule; the option's limit is the one used.
     const std::string lower = std::to_string(value - 2.0 * expanded);
@@ -97,10 +102,10 @@ TEST_F(AnalysisSettingsCommands, OptionsOverrideTheRecord)
     EXPECT_EQ(limited.at("verdict").at("rule"), "simple"); // still the record's rule
     EXPECT_EQ(limited.at("settings_source").at("regulation_limit"), "option");
 
-    const auto report = runProgram(cli, {"report", session, "-o", path("g.pdf"), "--rule", "guarded"});
+    const auto report = runProgram(cli, {"report", session, "-o", path("g.pdf"), "--rule", "non-binary"});
     ASSERT_EQ(report.exitCode, 0) << report.err;
-    EXPECT_NE(report.out.find("Verdict on regulation: cannot-decide"), std::string::npos) << report.out;
-    EXPECT_NE(report.out.find("decision rule guarded (option)"), std::string::npos) << report.out;
+    EXPECT_NE(report.out.find("Verdict: conditional-pass"), std::string::npos) << report.out;
+    EXPECT_NE(report.out.find("decision rule non-binary (option)"), std::string::npos) << report.out;
 }
 
 TEST_F(AnalysisSettingsCommands, MalformedRecordIsIgnoredWithANotice)
@@ -117,13 +122,13 @@ TEST_F(AnalysisSettingsCommands, MalformedRecordIsIgnoredWithANotice)
     const auto report = runProgram(cli, {"report", session, "-o", path("m.pdf")});
     ASSERT_EQ(report.exitCode, 0) << report.err;
     EXPECT_NE(report.err.find("ignored"), std::string::npos) << report.err;
-    EXPECT_NE(report.out.find("decision rule guarded (default)"), std::string::npos) << report.out;
+    EXPECT_NE(report.out.find("decision rule non-binary (default)"), std::string::npos) << report.out;
 }
 
 TEST_F(AnalysisSettingsCommands, CompareJudgesEachSessionByItsRecordUnlessARuleIsGiven)
 {
     AnalysisSettings settings;
-    settings.rule = DecisionRule::SimpleAcceptance;
+    settings.rule = DecisionRule::Simple;
     settings.regulationLimitPercent = value + 0.5 * expanded;
     addRecord(analysisSettingsNoteText(settings));
 
@@ -134,9 +139,9 @@ TEST_F(AnalysisSettingsCommands, CompareJudgesEachSessionByItsRecordUnlessARuleI
     EXPECT_EQ(row.at("verdict"), "pass");
     EXPECT_TRUE(row.at("settings_from_record").get<bool>());
 
-    const auto guarded = runProgram(cli, {"compare", session, "--json", "--rule", "guarded"});
-    ASSERT_EQ(guarded.exitCode, 0) << guarded.err;
-    const auto optionRow = nlohmann::json::parse(guarded.out).at("sessions").at(0);
-    EXPECT_EQ(optionRow.at("decision_rule"), "guarded");
-    EXPECT_EQ(optionRow.at("verdict"), "cannot-decide");
+    const auto nonBinary = runProgram(cli, {"compare", session, "--json", "--rule", "non-binary"});
+    ASSERT_EQ(nonBinary.exitCode, 0) << nonBinary.err;
+    const auto optionRow = nlohmann::json::parse(nonBinary.out).at("sessions").at(0);
+    EXPECT_EQ(optionRow.at("decision_rule"), "non-binary");
+    EXPECT_EQ(optionRow.at("verdict"), "conditional-pass");
 }

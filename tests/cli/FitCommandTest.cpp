@@ -60,12 +60,82 @@ TEST(FitCommand, HumanSummaryShowsUnitsUncertaintyAndVerdict)
     ASSERT_EQ(r.exitCode, 0) << r.err;
     EXPECT_NE(r.out.find("Series resistance R"), std::string::npos);
     EXPECT_NE(r.out.find("mΩ ± "), std::string::npos);
-    EXPECT_NE(r.out.find("(k = 2)"), std::string::npos);
+    EXPECT_NE(r.out.find("U (k = "), std::string::npos) << r.out;
+    EXPECT_NE(r.out.find(", 95 %)"), std::string::npos) << r.out;
+    EXPECT_EQ(r.out.find("(k = 2)"), std::string::npos) << "one coverage everywhere: no fixed k = 2";
+    EXPECT_EQ(r.out.find("Student t"), std::string::npos) << "no second interval with its own coverage";
     EXPECT_NE(r.out.find("Regulation"), std::string::npos);
     EXPECT_NE(r.out.find("ILAC-G8:09/2019"), std::string::npos);
+    EXPECT_NE(r.out.find("demo specification sheet DS-60"), std::string::npos) << r.out;
+    EXPECT_NE(r.out.find("meters' specifications"), std::string::npos) << r.out;
     const auto j = nlohmann::json::parse(runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--json"}).out);
     EXPECT_TRUE(j["analysis"]["regulation_percent"]["expanded_uncertainty"].is_number());
     EXPECT_TRUE(j["verdict"]["outcome"].is_string());
+}
+
+TEST(FitCommand, JsonCarriesResultsWithBudgetsVerdictAndScreen)
+{
+    const auto r = runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--json"});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const auto j = nlohmann::json::parse(r.out);
+    for (const char *result : {"series_resistance_ohm", "no_load_voltage_v", "regulation_percent", "full_load_voltage_v",
+                               "copper_loss_w"}) {
+        const auto &v = j["results"][result];
+        for (const char *key : {"value", "standard_uncertainty", "effective_dof", "coverage_factor",
+                                "expanded_uncertainty", "budget"})
+            EXPECT_TRUE(v.contains(key)) << result << "." << key;
+        ASSERT_TRUE(v["budget"].is_array()) << result;
+        ASSERT_FALSE(v["budget"].empty()) << result;
+        for (const auto &row : v["budget"])
+            for (const char *key : {"source", "type", "distribution", "standard_uncertainty", "sensitivity", "contribution"})
+                EXPECT_TRUE(row.contains(key)) << result << " budget " << key;
+        EXPECT_NEAR(v["expanded_uncertainty"].get<double>(),
+                    v["coverage_factor"].get<double>() * v["standard_uncertainty"].get<double>(), 1e-12);
+    }
+    // The 95 % interval of R is R ± U of its budget: one coverage everywhere.
+    const double rValue = j["results"]["series_resistance_ohm"]["value"].get<double>();
+    const double rU = j["results"]["series_resistance_ohm"]["expanded_uncertainty"].get<double>();
+    EXPECT_NEAR(j["series_resistance_ci95_ohm"][0].get<double>(), rValue - rU, 1e-12);
+    EXPECT_NEAR(j["series_resistance_ci95_ohm"][1].get<double>(), rValue + rU, 1e-12);
+    const std::string outcome = j["verdict"]["outcome"];
+    EXPECT_TRUE(outcome == "pass" || outcome == "fail" || outcome == "conditional-pass" || outcome == "conditional-fail"
+                || outcome == "not-judged") << outcome;
+    EXPECT_TRUE(j["verdict"]["conformance_probability"].is_number());
+    EXPECT_EQ(j["verdict"]["limits"].size(), 4u); // the demo specification's four limits
+    EXPECT_TRUE(j["outlier_screening"]["screened"].get<bool>());
+    EXPECT_TRUE(j["outlier_screening"]["critical_value"].is_number());
+    EXPECT_FALSE(j["outlier_screening"]["rule"].get<std::string>().empty());
+    for (const auto &point : j["points"])
+        EXPECT_TRUE(point["outlier"].is_boolean());
+}
+
+TEST(FitCommand, RulesLimitsAndTheBudgetTable)
+{
+    const auto budget = runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--budget"});
+    ASSERT_EQ(budget.exitCode, 0) << budget.err;
+    for (const char *text : {"Uncertainty budgets", "voltmeter gain", "ammeter offset", "contribution", "Welch"})
+        EXPECT_NE(budget.out.find(text), std::string::npos) << text << "\n" << budget.out;
+    // The nameplate's regulation as the limit only when asked, and then labelled so.
+    const auto nameplate = nlohmann::json::parse(
+        runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--json", "--regulation-limit", "nameplate"}).out);
+    EXPECT_NE(nameplate["verdict"]["limits_source"].get<std::string>().find("nameplate's own regulation"),
+              std::string::npos);
+    for (const char *rule : {"simple", "guarded", "non-binary"}) {
+        const auto j = nlohmann::json::parse(
+            runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--json", "--rule", rule}).out);
+        EXPECT_EQ(j["verdict"]["rule"], rule);
+    }
+    const auto bad = runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--rule", "strict"});
+    EXPECT_EQ(bad.exitCode, 2);
+    EXPECT_NE(bad.err.find("simple, guarded or non-binary"), std::string::npos) << bad.err;
+    const auto badLimit = runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--regulation-limit", "plate"});
+    EXPECT_EQ(badLimit.exitCode, 2);
+    EXPECT_NE(badLimit.err.find("nameplate"), std::string::npos) << badLimit.err;
+    // No setup: no limit to judge against, and the options that need one are refused.
+    EXPECT_EQ(runProgram(cli, {"fit", demoReadings, "--rule", "simple"}).exitCode, 2);
+    const auto alone = nlohmann::json::parse(runProgram(cli, {"fit", demoReadings, "--json"}).out);
+    EXPECT_FALSE(alone.contains("verdict"));
+    EXPECT_NE(alone["uncertainty_basis"].get<std::string>().find("not recorded"), std::string::npos);
 }
 
 TEST(FitCommand, CsvErrorsNameLineAndColumnAndExitTwo)

@@ -51,7 +51,7 @@ TEST_F(SessionCommands, ImportThenExportGivesTheSameReadings)
                         0),
               0u)
         << csv;
-    EXPECT_NE(csv.find("\r\n0.41699999999999998,19.364000000000001,"), std::string::npos) << csv;
+    EXPECT_NE(csv.find("\r\n0.41699999999999998,19.373000000000001,"), std::string::npos) << csv;
 }
 
 TEST_F(SessionCommands, ImportReadsBomCrlfBlankLinesAndSpaces)

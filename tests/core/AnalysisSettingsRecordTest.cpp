@@ -32,19 +32,30 @@ TEST(AnalysisSettingsRecord, RoundTripsEveryField)
 {
     AnalysisSettings full;
     full.regulationLimitPercent = 7.25;
-    full.rule = DecisionRule::SimpleAcceptance;
+    full.rule = DecisionRule::Simple;
     full.referenceTemperatureC = 20.0;
     full.temperatureConstant = TemperatureConstant::CopperIec;
     const AnalysisSettingsParse back = parseAnalysisSettings(analysisSettingsNoteText(full));
     ASSERT_TRUE(back.settings) << back.errors.front().message();
     EXPECT_EQ(*back.settings, full);
 
-    const AnalysisSettings defaults; // nameplate limit, guarded, reader's reference, per material
+    const AnalysisSettings defaults; // the specification's limit, non-binary, reader's reference, per material
     const std::string text = analysisSettingsNoteText(defaults);
     EXPECT_NE(text.find("\"regulation_limit_percent\":null"), std::string::npos) << text;
+    EXPECT_NE(text.find("\"rule\":\"non-binary\""), std::string::npos) << text;
     const AnalysisSettingsParse plain = parseAnalysisSettings(text);
     ASSERT_TRUE(plain.settings);
     EXPECT_EQ(*plain.settings, defaults);
+
+    // The nameplate's regulation chosen explicitly is stored as such, not as a number.
+    AnalysisSettings nameplate;
+    nameplate.regulationLimitNameplate = true;
+    nameplate.rule = DecisionRule::Guarded;
+    const std::string nameplateText = analysisSettingsNoteText(nameplate);
+    EXPECT_NE(nameplateText.find("\"regulation_limit_percent\":\"nameplate\""), std::string::npos) << nameplateText;
+    const AnalysisSettingsParse nameplateBack = parseAnalysisSettings(nameplateText);
+    ASSERT_TRUE(nameplateBack.settings);
+    EXPECT_EQ(*nameplateBack.settings, nameplate);
 }
 
 TEST(AnalysisSettingsRecord, BadRecordsNameTheKey)
@@ -69,7 +80,7 @@ TEST(AnalysisSettingsRecord, BadRecordsNameTheKey)
 TEST(AnalysisSettingsRecord, LatestReadableRecordWinsAndBadOnesAreReported)
 {
     AnalysisSettings first;
-    first.rule = DecisionRule::SimpleAcceptance;
+    first.rule = DecisionRule::Simple;
     first.regulationLimitPercent = 4.0;
     AnalysisSettings second = first;
     second.regulationLimitPercent = 6.0;
@@ -116,33 +127,43 @@ std::string writeSession(const test::TempFolder &folder, const std::vector<std::
 TEST(AnalysisSettingsRecord, SummaryJudgesByTheRecordUnlessAnOptionSaysOtherwise)
 {
     test::TempFolder folder;
-    // Without a record: the defaults (guarded, the nameplate's regulation as the limit).
+    // Without a record: the defaults (non-binary; no specification and no limit: not judged).
     const auto plain = loadSessionSummary(writeSession(folder, {}));
     ASSERT_TRUE(plain.ok()) << plain.message;
-    ASSERT_TRUE(plain.value.analysis);
-    EXPECT_EQ(plain.value.rule, DecisionRule::GuardedAcceptance);
+    ASSERT_TRUE(plain.value.analysis && plain.value.verdict);
+    EXPECT_EQ(plain.value.rule, DecisionRule::NonBinary);
     EXPECT_EQ(plain.value.ruleSource, SettingSource::Default);
     EXPECT_EQ(plain.value.regulationLimitSource, SettingSource::Default);
+    EXPECT_EQ(plain.value.verdict->outcome, ConformityOutcome::NotJudged);
     EXPECT_TRUE(plain.value.recordedSettings.notices.empty());
-    const UncertainValue regulation = plain.value.analysis->regulationPercent;
+    // The record below sets 20 °C: the verdict then uses the regulation referred to 20 °C.
+    ReviewOptions at20;
+    at20.referenceTemperatureC = 20.0;
+    const auto referred = loadSessionSummary(plain.value.path, at20);
+    ASSERT_TRUE(referred.ok() && referred.value.analysis && referred.value.analysis->referredRegulationPercent);
+    const UncertainValue regulation = *referred.value.analysis->referredRegulationPercent;
     ASSERT_TRUE(regulation.expandedUncertainty);
     const double u = *regulation.expandedUncertainty;
     ASSERT_GT(u, 0.0);
 
     // A limit half a U above the value: simple acceptance passes (value <= TL, ILAC-G8 §4.2.1),
-    // guarded acceptance cannot decide (TL - U < value <= TL + U, §4.2.2).
+    // the non-binary rule gives a conditional pass (TL - U < value <= TL, §4.2.3), the binary
+    // guarded rule a fail (value > TL - U, §4.2.2).
     std::filesystem::remove(folder.file("settings.sagline"));
     AnalysisSettings simple;
-    simple.rule = DecisionRule::SimpleAcceptance;
+    simple.rule = DecisionRule::Simple;
     simple.regulationLimitPercent = regulation.value + 0.5 * u;
     simple.referenceTemperatureC = 20.0;
     const std::string path = writeSession(folder, {analysisSettingsNoteText(simple), "{broken"});
     const auto recorded = loadSessionSummary(path);
     ASSERT_TRUE(recorded.ok()) << recorded.message;
-    ASSERT_TRUE(recorded.value.decision);
-    EXPECT_EQ(recorded.value.decision->rule, DecisionRule::SimpleAcceptance);
-    EXPECT_EQ(recorded.value.decision->outcome, ConformityOutcome::Pass);
-    EXPECT_DOUBLE_EQ(recorded.value.decision->upperLimit, *simple.regulationLimitPercent);
+    ASSERT_TRUE(recorded.value.verdict);
+    ASSERT_EQ(recorded.value.verdict->limits.size(), 1u);
+    const ConformityDecision &decision = recorded.value.verdict->limits.front();
+    EXPECT_EQ(decision.rule, DecisionRule::Simple);
+    EXPECT_EQ(decision.outcome, ConformityOutcome::Pass);
+    EXPECT_DOUBLE_EQ(*decision.limits.max, *simple.regulationLimitPercent);
+    EXPECT_TRUE(recorded.value.verdict->atReferenceTemperature);
     EXPECT_EQ(recorded.value.ruleSource, SettingSource::SessionRecord);
     EXPECT_EQ(recorded.value.regulationLimitSource, SettingSource::SessionRecord);
     EXPECT_EQ(recorded.value.referenceTemperatureSource, SettingSource::SessionRecord);
@@ -153,11 +174,16 @@ TEST(AnalysisSettingsRecord, SummaryJudgesByTheRecordUnlessAnOptionSaysOtherwise
     EXPECT_NE(used.find("decision rule simple (session record)"), std::string::npos) << used;
     EXPECT_NE(used.find("reference temperature 20 °C (session record)"), std::string::npos) << used;
 
-    ReviewOptions guarded;
-    guarded.rule = DecisionRule::GuardedAcceptance;
-    const auto overridden = loadSessionSummary(path, guarded);
-    ASSERT_TRUE(overridden.ok() && overridden.value.decision);
-    EXPECT_EQ(overridden.value.decision->outcome, ConformityOutcome::CannotDecide);
+    ReviewOptions nonBinary;
+    nonBinary.rule = DecisionRule::NonBinary;
+    const auto overridden = loadSessionSummary(path, nonBinary);
+    ASSERT_TRUE(overridden.ok() && overridden.value.verdict);
+    EXPECT_EQ(overridden.value.verdict->outcome, ConformityOutcome::ConditionalPass);
     EXPECT_EQ(overridden.value.ruleSource, SettingSource::Option);
     EXPECT_EQ(overridden.value.regulationLimitSource, SettingSource::SessionRecord);
+    ReviewOptions guarded;
+    guarded.rule = DecisionRule::Guarded;
+    const auto binary = loadSessionSummary(path, guarded);
+    ASSERT_TRUE(binary.ok() && binary.value.verdict);
+    EXPECT_EQ(binary.value.verdict->outcome, ConformityOutcome::Fail);
 }

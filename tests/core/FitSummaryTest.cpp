@@ -166,7 +166,14 @@ TEST(FitSummary, FlagsAnOutlierWithoutDroppingIt)
     ASSERT_EQ(s.outlierRows, std::vector<std::size_t>{4});
     EXPECT_TRUE(s.points[4].outlier);
     EXPECT_LT(*s.points[4].studentized, -3.0);
-    EXPECT_EQ(fitReadings(readingsOf(i, v), FitMethod::Ols, FitOptions{100.0}).outlierRows.size(), 0u);
+    // The screen is a Bonferroni-bounded test (OutlierScreen.h): with 11 points its critical
+    // value is t(1 - 0.05/22, 8) = 3.89987 (scipy.stats.t.ppf(1 - 0.05/22, 8)).
+    ASSERT_TRUE(s.outlierScreening.screened);
+    EXPECT_NEAR(*s.outlierScreening.criticalValue, 3.89987, 1e-4);
+    EXPECT_LT(*s.points[4].screeningStatistic, -*s.outlierScreening.criticalValue);
+    FitOptions lenient;
+    lenient.outlierScreen.familyAlpha = 1e-12; // a critical value far beyond the misread
+    EXPECT_EQ(fitReadings(readingsOf(i, v), FitMethod::Ols, lenient).outlierRows.size(), 0u);
     // The weighted methods flag the same reading.
     auto withU = readingsOf(i, v);
     for (auto &r : withU) {

@@ -10,7 +10,7 @@ TEST(NoteText, ProgramRecordsReadAsWords)
 {
     AnalysisSettings settings;
     settings.regulationLimitPercent = 5.0;
-    settings.rule = DecisionRule::SimpleAcceptance;
+    settings.rule = DecisionRule::Simple;
     const NoteRecord note{1, "2026-12-02T10:00:00.000Z", analysisSettingsNoteAuthor, analysisSettingsNoteText(settings), {}};
     EXPECT_TRUE(isProgramNote(note));
     const std::string text = readableNoteText(note);

@@ -52,7 +52,8 @@ TEST(SessionComparison, RowMatchesIndependentLeastSquares)
     TempFolder folder;
     DemoUnit unit;
     const std::string path = makeDemoSession(folder.file("unit.sagline"), unit);
-    ComparisonOptions options; // OLS, guarded acceptance, 75 °C, copper 234.5 °C
+    ComparisonOptions options; // OLS, non-binary rule, 75 °C, copper 234.5 °C; the nameplate's limit chosen
+    options.figures.regulationLimit = {RegulationLimitChoice::Kind::Nameplate, 0.0};
     const SessionRow row = loadSessionRow(path, options);
     ASSERT_TRUE(row.opened) << row.problem;
     ASSERT_TRUE(row.figures.ok) << row.figures.message;
@@ -62,8 +63,12 @@ TEST(SessionComparison, RowMatchesIndependentLeastSquares)
     const double seIntercept = std::sqrt(fit.covariance(0, 0));
     EXPECT_NEAR(row.figures.resistanceOhm, -fit.slope, 1e-10);
     EXPECT_NEAR(row.figures.noLoadVoltageV, fit.intercept, 1e-10);
-    EXPECT_NEAR(*row.figures.resistanceUOhm, 2.0 * seSlope, 1e-9 * seSlope);
-    EXPECT_NEAR(*row.figures.noLoadVoltageUV, 2.0 * seIntercept, 1e-9 * seIntercept);
+    // No meter specifications in this setup: the scatter alone, ν = n - 2 = 9, k = t_0.975(9) =
+    // 2.262157 (scipy.stats.t.ppf(0.975, 9); GUM Table G.2: 2.26).
+    const double k = 2.262157;
+    EXPECT_NEAR(*row.figures.resistanceUOhm, k * seSlope, 1e-6 * seSlope);
+    EXPECT_NEAR(*row.figures.noLoadVoltageUV, k * seIntercept, 1e-6 * seIntercept);
+    EXPECT_FALSE(row.figures.metersKnown);
 
     // R at 75 °C from 20 °C, copper, T_k = 234.5 °C: factor 1.216110 (FACTS.md §3 check value).
     EXPECT_NEAR(*row.figures.resistanceRefOhm / row.figures.resistanceOhm, 1.216110, 1e-6);
@@ -77,7 +82,7 @@ TEST(SessionComparison, RowMatchesIndependentLeastSquares)
                                 (regulation(fit.intercept, fit.slope + h1, rated) - regulation(fit.intercept, fit.slope - h1, rated)) / (2 * h1));
     const double uReg = std::sqrt((jacobian * fit.covariance * jacobian.transpose())(0, 0));
     EXPECT_NEAR(*row.figures.regulationPercent, reg, 1e-9);
-    EXPECT_NEAR(*row.figures.regulationUPercent, 2.0 * uReg, 1e-5 * uReg);
+    EXPECT_NEAR(*row.figures.regulationUPercent, k * uReg, 1e-5 * uReg);
     // Nameplate regulation (26.4 - 24)/24 × 100 = 10 %.
     EXPECT_NEAR(*row.figures.regulationLimitPercent, 10.0, 1e-12);
 
@@ -213,6 +218,26 @@ TEST(SessionComparison, RobustZFlagsTheUnitFarFromTheBatch)
     EXPECT_NEAR(*stats.robustZ[5], 67.22517, 1e-4);
     EXPECT_NEAR(*stats.robustZ[2], -1.124167, 1e-6);
     EXPECT_NE(stats.ruleNote.find("Iglewicz"), std::string::npos);
+    // Six units: the marks only screen (a batch statement wants 10 units of one design).
+    EXPECT_TRUE(stats.screeningOnly);
+    EXPECT_NE(stats.ruleNote.find("screening only"), std::string::npos) << stats.ruleNote;
+}
+
+TEST(SessionComparison, FarFromBatchNeedsTenUnitsOfOneDesign)
+{
+    std::vector<SessionRow> rows;
+    for (double r : {1.150, 1.152, 1.148, 1.151, 1.149, 1.150, 1.153, 1.147, 1.151, 1.30})
+        rows.push_back(fittedRow(r));
+    BatchStatistics stats = summarizeBatch(rows);
+    EXPECT_FALSE(stats.screeningOnly) << stats.ruleNote;
+    ASSERT_EQ(stats.farFromBatch.size(), 1u);
+    EXPECT_EQ(stats.farFromBatch[0], 9u);
+    EXPECT_EQ(stats.ruleNote.find("screening only"), std::string::npos) << stats.ruleNote;
+    // One unit of another design: ten units, but not of one design.
+    rows[3].design = "another design";
+    stats = summarizeBatch(rows);
+    EXPECT_TRUE(stats.screeningOnly);
+    EXPECT_NE(stats.ruleNote.find("more than one design"), std::string::npos) << stats.ruleNote;
 }
 
 TEST(SessionComparison, BatchUsesReferenceTemperatureOnlyWhenEveryUnitHasIt)
@@ -244,20 +269,30 @@ TEST(SessionComparison, RuleNeedsThreeUnitsAndANonZeroMad)
 TEST(SessionComparison, CountsVerdictsReviewsAndUnreadableRows)
 {
     std::vector<SessionRow> rows = {fittedRow(1.0, ConformityOutcome::Pass), fittedRow(1.1, ConformityOutcome::Fail),
-                                    fittedRow(1.2, ConformityOutcome::CannotDecide), fittedRow(1.3, ConformityOutcome::Pass)};
+                                    fittedRow(1.2, ConformityOutcome::ConditionalPass), fittedRow(1.3, ConformityOutcome::Pass),
+                                    fittedRow(1.4, ConformityOutcome::NotJudged)};
     rows[1].signOffs.push_back({1, "t", "Lead", Verdict::Accepted, "", "", "", ""});
     rows[1].signOffs.push_back({2, "t", "Lead", Verdict::Rejected, "over limit", "", "", ""});
     rows[2].safetyStops.push_back({});
     SessionRow bad;
     bad.problem = "corrupt";
     rows.push_back(bad);
+    // A unit whose sweep stopped before its last step: counted incomplete, never as its outcome.
+    SessionRow stopped = fittedRow(1.5, ConformityOutcome::Pass);
+    stopped.progress.state = Completeness::Stopped;
+    rows.push_back(stopped);
     const BatchStatistics stats = summarizeBatch(rows);
     EXPECT_EQ(stats.pass, 2u);
     EXPECT_EQ(stats.fail, 1u);
-    EXPECT_EQ(stats.undecided, 1u);
+    EXPECT_EQ(stats.conditionalPass, 1u);
+    EXPECT_EQ(stats.conditionalFail, 0u);
+    EXPECT_EQ(stats.notJudged, 1u);
+    EXPECT_EQ(stats.incomplete, 1u);
+    EXPECT_EQ(verdictCountsText(stats),
+              "pass 2, conditional pass 1, conditional fail 0, fail 1, not judged 1, n/a 0, incomplete (no verdict) 1");
     EXPECT_EQ(stats.rejected, 1u);
     EXPECT_EQ(stats.accepted, 0u);
-    EXPECT_EQ(stats.notReviewed, 3u);
+    EXPECT_EQ(stats.notReviewed, 5u);
     EXPECT_EQ(stats.safetyStopped, 1u);
     EXPECT_EQ(stats.unreadable, 1u);
     EXPECT_EQ(rows[1].reviewState(), "rejected");
@@ -291,43 +326,56 @@ TEST(SessionFigures, CopperConstantFollowsTheOption)
     EXPECT_NEAR(*row.figures.resistanceRefOhm / row.figures.resistanceOhm, 1.215686, 1e-6);
 }
 
-TEST(SessionFigures, GuardedVerdictOnTheDemoUnit)
+TEST(SessionFigures, NoLimitIsNotJudgedAndTheNameplateOnlyWhenChosen)
 {
     // R = 1.10 Ω: regulation 100·R·I/(V0 - R·I) = 100 × 2.29167 / 24.10833 = 9.506 %, U about
-    // 0.03 %, well below the nameplate's 10 % (26.4 V no-load, 24 V full-load): a guarded pass.
+    // 0.03 %. The setup states no specification: not judged. With the nameplate's own 10 %
+    // (26.4 V no-load, 24 V full-load) chosen as the limit, a non-binary pass, so labelled.
     TempFolder folder;
     DemoUnit unit;
     unit.resistanceOhm = 1.10;
     const std::string path = makeDemoSession(folder.file("unit.sagline"), unit);
-    const SessionRow row = loadSessionRow(path, {});
+    const SessionRow plain = loadSessionRow(path, {});
+    ASSERT_TRUE(plain.figures.ok);
+    EXPECT_NEAR(*plain.figures.regulationPercent, 9.506, 0.05); // the demo scatter moves the fit a little
+    EXPECT_EQ(plain.figures.verdictText(), "not-judged");
+    EXPECT_FALSE(plain.figures.regulationLimitPercent.has_value());
+    ComparisonOptions nameplate;
+    nameplate.figures.regulationLimit = {RegulationLimitChoice::Kind::Nameplate, 0.0};
+    const SessionRow row = loadSessionRow(path, nameplate);
     ASSERT_TRUE(row.figures.ok);
-    EXPECT_NEAR(*row.figures.regulationPercent, 9.506, 0.05); // the demo scatter moves the fit a little
     EXPECT_EQ(row.figures.verdictText(), "pass");
+    EXPECT_NEAR(*row.figures.regulationLimitPercent, 10.0, 1e-9);
+    EXPECT_NE(row.figures.limitsSource.find("nameplate"), std::string::npos) << row.figures.limitsSource;
     EXPECT_NE(row.figures.ruleName.find("ILAC-G8"), std::string::npos) << row.figures.ruleName;
+    ASSERT_TRUE(row.figures.conformanceProbability.has_value());
+    EXPECT_GT(*row.figures.conformanceProbability, 0.999);
 }
 
 TEST(SessionFigures, UnknownUncertaintyIsNotTakenAsZero)
 {
     // Two readings: the line goes through both, so the fit has no scatter to give an
-    // uncertainty (n - 2 = 0 degrees of freedom) and regulation has no U. Guarded acceptance
-    // (ILAC-G8:09/2019 §4.2.2, w = U) then has no guard band to apply: it cannot decide, even
-    // though the value (about 9.5 %) is below the 10 % limit. U = 0 would have called it a pass.
+    // uncertainty (n - 2 = 0 degrees of freedom) and regulation has no U. The guard band of the
+    // non-binary rule (ILAC-G8:09/2019 §4.2.3, w = U) cannot be applied: not judged, even though
+    // the value (about 9.5 %) is below the 10 % limit. U = 0 would have called it a pass.
     TempFolder folder;
     DemoUnit unit;
     unit.resistanceOhm = 1.10;
     unit.points = 2;
     const std::string path = makeDemoSession(folder.file("unit.sagline"), unit);
-    const SessionRow guarded = loadSessionRow(path, {});
+    ComparisonOptions nameplate;
+    nameplate.figures.regulationLimit = {RegulationLimitChoice::Kind::Nameplate, 0.0};
+    const SessionRow guarded = loadSessionRow(path, nameplate);
     ASSERT_TRUE(guarded.figures.ok) << guarded.figures.message;
     ASSERT_TRUE(guarded.figures.regulationPercent.has_value());
     EXPECT_LT(*guarded.figures.regulationPercent, 10.0);
     EXPECT_FALSE(guarded.figures.regulationUPercent.has_value());
-    EXPECT_EQ(guarded.figures.verdictText(), "cannot-decide");
-    EXPECT_NE(guarded.figures.ruleName.find("guarded"), std::string::npos) << guarded.figures.ruleName;
+    EXPECT_EQ(guarded.figures.verdictText(), "not-judged");
+    EXPECT_NE(guarded.figures.ruleName.find("non-binary"), std::string::npos) << guarded.figures.ruleName;
 
     // Simple acceptance (ILAC-G8 §4.2.1, w = 0) decides on the value alone, as the rule says.
-    ComparisonOptions simple;
-    simple.figures.rule = DecisionRule::SimpleAcceptance;
+    ComparisonOptions simple = nameplate;
+    simple.figures.rule = DecisionRule::Simple;
     const SessionRow row = loadSessionRow(path, simple);
     ASSERT_TRUE(row.figures.ok);
     EXPECT_EQ(row.figures.verdictText(), "pass");

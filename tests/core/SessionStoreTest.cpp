@@ -256,8 +256,8 @@ TEST(SessionStore, BatchAppendIsAllOrNothing)
 
 TEST(SessionSummary, TwoPointsGiveNoGuardedVerdict)
 {
-    // Two readings fit exactly and carry no uncertainty: guarded acceptance (ILAC-G8:2019
-    // §4.2.2) has no guard band to apply and must not pass the unit.
+    // Two readings fit exactly and carry no uncertainty: the guarded rules (ILAC-G8:09/2019
+    // §4.2.2, §4.2.3) have no guard band to apply and must not pass the unit.
     TempFolder folder;
     const std::string path = folder.file("two.sagline");
     {
@@ -269,10 +269,16 @@ TEST(SessionSummary, TwoPointsGiveNoGuardedVerdict)
         ASSERT_TRUE(created.value->appendReading(sampleReading(0, 0.0, 26.4)).ok());
         ASSERT_TRUE(created.value->appendReading(sampleReading(1, 1.0, 25.9)).ok());
     }
-    const auto summary = loadSessionSummary(path);
-    ASSERT_TRUE(summary.ok()) << summary.message;
-    ASSERT_TRUE(summary.value.fit.ok()) << summary.value.fit.message;
-    ASSERT_TRUE(summary.value.analysis.has_value()) << summary.value.analysisProblem;
-    ASSERT_TRUE(summary.value.decision.has_value());
-    EXPECT_NE(summary.value.decision->outcome, ConformityOutcome::Pass);
+    for (DecisionRule rule : {DecisionRule::Guarded, DecisionRule::NonBinary}) {
+        ReviewOptions options;
+        options.rule = rule;
+        options.regulationLimit = RegulationLimitChoice{RegulationLimitChoice::Kind::Nameplate, 0.0};
+        const auto summary = loadSessionSummary(path, options);
+        ASSERT_TRUE(summary.ok()) << summary.message;
+        ASSERT_TRUE(summary.value.fit.ok()) << summary.value.fit.message;
+        ASSERT_TRUE(summary.value.analysis.has_value()) << summary.value.analysisProblem;
+        ASSERT_TRUE(summary.value.verdict.has_value());
+        ASSERT_EQ(summary.value.verdict->limits.size(), 1u);
+        EXPECT_EQ(summary.value.verdict->outcome, ConformityOutcome::NotJudged);
+    }
 }

@@ -54,7 +54,7 @@ TEST(AnalysisSettingsRecording, StartingASweepAndChangingSettingsWriteRecords)
     SetupForm *form = window->setupForm();
     QComboBox *rule = combo(form, "verdict.decision_rule");
     ASSERT_NE(rule, nullptr);
-    rule->setCurrentIndex(rule->findData(int(DecisionRule::SimpleAcceptance)));
+    rule->setCurrentIndex(rule->findData(int(DecisionRule::Simple)));
     typeInto(form->quantityField("verdict.regulation_limit_percent"), "4,5 %");
     EXPECT_EQ(window->workspace()->store(), nullptr); // nothing to write into yet
     SessionDetails details;
@@ -71,17 +71,17 @@ TEST(AnalysisSettingsRecording, StartingASweepAndChangingSettingsWriteRecords)
     ASSERT_NE(store, nullptr);
     auto records = storedRecords(*store);
     ASSERT_EQ(records.size(), 1u);
-    EXPECT_EQ(records[0].rule, DecisionRule::SimpleAcceptance);
+    EXPECT_EQ(records[0].rule, DecisionRule::Simple);
     ASSERT_TRUE(records[0].regulationLimitPercent);
     EXPECT_DOUBLE_EQ(*records[0].regulationLimitPercent, 4.5);
     EXPECT_FALSE(records[0].referenceTemperatureC);
     EXPECT_FALSE(records[0].temperatureConstant);
 
     // A change while the session is open is stored once typing pauses.
-    rule->setCurrentIndex(rule->findData(int(DecisionRule::GuardedAcceptance)));
+    rule->setCurrentIndex(rule->findData(int(DecisionRule::Guarded)));
     ASSERT_TRUE(waitUntil([&] { return storedRecords(*store).size() == 2; }));
     records = storedRecords(*store);
-    EXPECT_EQ(records.back().rule, DecisionRule::GuardedAcceptance);
+    EXPECT_EQ(records.back().rule, DecisionRule::Guarded);
     EXPECT_DOUBLE_EQ(records.back().regulationLimitPercent.value_or(0.0), 4.5);
 
     // A value that does not parse is not stored; the message names the field.
@@ -96,6 +96,6 @@ TEST(AnalysisSettingsRecording, StartingASweepAndChangingSettingsWriteRecords)
     auto reopened = demoWindow(folder.path());
     ASSERT_TRUE(reopened->openSessionFile(path)) << reopened->lastMessage().toStdString();
     const VerdictSettings shown = reopened->setupForm()->verdictSettings();
-    EXPECT_EQ(shown.rule, DecisionRule::GuardedAcceptance);
+    EXPECT_EQ(shown.rule, DecisionRule::Guarded);
     EXPECT_EQ(shown.regulationLimit, QStringLiteral("4.5"));
 }

@@ -80,7 +80,7 @@ TEST(ReportStory, TellsTheSameStoryAsTheWindow)
         ASSERT_TRUE(store.value->excludeReading(readings.back().id, "clip fell off", "M. Second").ok());
         AnalysisSettings settings;
         settings.regulationLimitPercent = 12.0;
-        settings.rule = DecisionRule::SimpleAcceptance;
+        settings.rule = DecisionRule::Simple;
         ASSERT_TRUE(store.value->addNote(analysisSettingsNoteAuthor, analysisSettingsNoteText(settings)).ok());
     }
     const QString pdf = folder.filePath(QStringLiteral("story.pdf"));

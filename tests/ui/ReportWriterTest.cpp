@@ -33,7 +33,10 @@ std::string makeDemoSession(const fs::path &folder)
                         R"("construction":"laminated","winding_material":"copper"},)"
                         R"("bench":{"steps":8,"top_fraction":1.0,"overload_factor":1.1,"allow_overload":false,)"
                         R"("rheostat":{"total_resistance_ohm":50,"power_rating_w":600},)"
-                        R"("fuse":{"rating_a":0.5,"type":"time-lag"},"dwell_s":5}})";
+                        R"("fuse":{"rating_a":0.5,"type":"time-lag"},"dwell_s":5},)"
+                        R"("meters":{"voltmeter":{"gain_percent_of_reading":0.05,"offset_v":"0.3 mV","resolution_v":"0.1 mV"},)"
+                        R"("ammeter":{"gain_percent_of_reading":0.2,"offset_a":"0.5 mA","resolution_a":"0.1 mA"}},)"
+                        R"("specification":{"regulation_max_percent":10,"source":"customer drawing D-17, a scenario of our own"}})";
     session.planJson = R"({"rated_secondary_current_a":3.3333,"series_resistance_ohm":0.48,"turns_ratio":11.73,)"
                        R"("recommended_fuse":{"rating_a":0.5,"type":"time-lag","factor":1.6},"warnings":[],"steps":[)"
                        R"({"index":0,"current_a":0,"predicted_voltage_v":19.6,"load_resistance_ohm":null,"output_va":0,"fuse_outlook":"holds"},)"
@@ -128,7 +131,7 @@ TEST_F(ReportWriter, WritesEverySectionWithTheSessionsValues)
     const auto summary = loadSessionSummary(makeDemoSession(m_folder));
     ASSERT_TRUE(summary.ok()) << summary.message;
     ASSERT_TRUE(summary.value.fit.ok()) << summary.value.fit.message;
-    ASSERT_TRUE(summary.value.decision.has_value());
+    ASSERT_TRUE(summary.value.verdict.has_value());
     const QString pdf = QString::fromStdString((m_folder / "demo-report-a4.pdf").string());
     ReportOptions options;
     options.producedBy = QStringLiteral("sagline test");
@@ -140,9 +143,11 @@ TEST_F(ReportWriter, WritesEverySectionWithTheSessionsValues)
     const QString text = pdfText(pdf);
     for (const char *expected : {"Transformer load test report", "T60-0421", "R. Okafor", "DEMO INSTRUMENTS,DM-6,SN10231",
                                  "Series resistance", "No-load voltage", "Regulation", "Copper loss", "R at 75 °C",
-                                 "Verdict", "Decision rule: ILAC-G8", "Nameplate and bench", "Readings",
+                                 "Verdict", "Decision rule:", "Nameplate and bench", "Readings",
                                  "excluded: voltage still drifting", "Exclusion history", "restored", "Safety stops",
-                                 "66 VA limit", "Cautions", "mains voltage", "Tested by", "Reviewed by", "M. Lindqvist"})
+                                 "66 VA limit", "Cautions", "mains voltage", "Tested by", "Reviewed by", "M. Lindqvist",
+                                 "Uncertainty budget", "voltmeter gain", "ammeter gain", "Welch", "k = ",
+                                 "Probability of conformity", "customer drawing D-17", "outlier screen"})
         EXPECT_TRUE(text.contains(QString::fromUtf8(expected))) << expected;
     EXPECT_TRUE(text.contains(QStringLiteral("page 1 of %1").arg(pages))) << "footer numbering";
     EXPECT_TRUE(text.contains(QStringLiteral("page %1 of %1").arg(pages)));

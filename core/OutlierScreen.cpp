@@ -1,0 +1,219 @@
+#include "OutlierScreen.h"
+
+#include "Distributions.h"
+#include "NumberFormat.h"
+
+#include <algorithm>
+#include <cmath>
+
+namespace sagline {
+
+namespace {
+
+// The weighted line's centring sums: Σw, the weighted mean of x and Σw(x - x̄)².
+struct Centre {
+    double sumW = 0.0;
+    double meanX = 0.0;
+    double sxx = 0.0;
+};
+
+Centre centreOf(std::span<const double> x, std::span<const double> w)
+{
+    Centre c;
+    for (std::size_t i = 0; i < x.size(); ++i) {
+        c.sumW += w[i];
+        c.meanX += w[i] * x[i];
+    }
+    c.meanX /= c.sumW;
+    for (std::size_t i = 0; i < x.size(); ++i)
+        c.sxx += w[i] * (x[i] - c.meanX) * (x[i] - c.meanX);
+    return c;
+}
+
+// Normalized residuals e_i/sqrt(Var e_i) with known σ_j. For a line fitted with weights w,
+// e = (I - H) ε with H_ij = w_j (1/W + d_i d_j/Sxx), so
+// Var e_i = σ_i² (1 - 2 H_ii) + Σ_j H_ij² σ_j², whose sum takes three running sums (O(n)).
+// With w = 1/σ² it is σ_i² (1 - H_ii).
+void normalizedResiduals(std::span<const double> x, std::span<const double> e, std::span<const double> w,
+                         std::span<const double> sigma, double floorV, std::vector<std::optional<double>> &out)
+{
+    const Centre c = centreOf(x, w);
+    double a = 0.0, b = 0.0, q = 0.0; // Σ w²σ², Σ w²σ² d, Σ w²σ² d²
+    const auto sigmaOf = [&](std::size_t i) { return std::max(sigma[i], floorV); };
+    for (std::size_t j = 0; j < x.size(); ++j) {
+        const double d = x[j] - c.meanX;
+        const double v = w[j] * w[j] * sigmaOf(j) * sigmaOf(j);
+        a += v;
+        b += v * d;
+        q += v * d * d;
+    }
+    for (std::size_t i = 0; i < x.size(); ++i) {
+        const double d = x[i] - c.meanX;
+        const double hii = w[i] * (1.0 / c.sumW + d * d / c.sxx);
+        const double s2 = sigmaOf(i) * sigmaOf(i);
+        const double spread = a / (c.sumW * c.sumW) + 2.0 * d * b / (c.sumW * c.sxx) + d * d * q / (c.sxx * c.sxx);
+        const double variance = s2 * (1.0 - 2.0 * hii) + spread;
+        out[i] = variance > 1e-30 * s2 && hii < 1.0 - 1e-12 ? std::optional<double>(e[i] / std::sqrt(variance))
+                                                             : std::nullopt;
+    }
+}
+
+// Externally studentized residuals t_i = sqrt(w_i) e_i / (s_(i) sqrt(1 - h_i)), where s_(i) is the
+// scatter without point i ((n-2)s² - w_i e_i²/(1 - h_i))/(n-3), floored by floorV.
+void studentized(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
+                 std::vector<std::optional<double>> &out)
+{
+    const std::size_t n = x.size();
+    const Centre c = centreOf(x, w);
+    double ssr = 0.0;
+    for (std::size_t i = 0; i < n; ++i)
+        ssr += w[i] * e[i] * e[i];
+    const double dof = static_cast<double>(n) - 2.0;
+    for (std::size_t i = 0; i < n; ++i) {
+        const double d = x[i] - c.meanX;
+        const double hii = w[i] * (1.0 / c.sumW + d * d / c.sxx);
+        if (!(hii < 1.0 - 1e-12))
+            continue; // the line passes through this point by construction
+        const double without = (ssr - w[i] * e[i] * e[i] / (1.0 - hii)) / (dof - 1.0);
+        double s = std::sqrt(std::max(0.0, without));
+        if (s < floorV)
+            s = floorV;
+        if (!(s > 0.0))
+            continue; // no floor and no scatter left: no ratio to form
+        out[i] = std::sqrt(w[i]) * e[i] / (s * std::sqrt(1.0 - hii));
+    }
+}
+
+// "5", "2.5": a percentage as people write it.
+std::string shortNumber(double value)
+{
+    std::string text = formatSignificant(value, 4);
+    if (text.find('.') != std::string::npos) {
+        text.erase(text.find_last_not_of('0') + 1);
+        if (text.back() == '.')
+            text.pop_back();
+    }
+    return text;
+}
+
+} // namespace
+
+void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
+                                    std::span<const double> weights, double floor,
+                                    std::vector<std::optional<double>> &statistics)
+{
+    statistics.assign(x.size(), std::nullopt);
+    if (x.size() >= 4)
+        studentized(x, residuals, weights, floor, statistics);
+}
+
+double resolutionScatterV(double voltageResolutionV, double currentResolutionA, double slopeVPerA)
+{
+    const double v = std::isfinite(voltageResolutionV) && voltageResolutionV > 0.0 ? voltageResolutionV : 0.0;
+    const double i = std::isfinite(currentResolutionA) && currentResolutionA > 0.0 ? currentResolutionA : 0.0;
+    return std::sqrt((v * v + slopeVPerA * slopeVPerA * i * i) / 12.0);
+}
+
+namespace {
+
+// The statistic of every point of one pass (the active points only).
+void passStatistics(bool known, std::span<const double> x, std::span<const double> e, std::span<const double> w,
+                    std::span<const double> sigma, double floorV, std::vector<std::optional<double>> &out)
+{
+    out.assign(x.size(), std::nullopt);
+    if (known && x.size() >= 3)
+        normalizedResiduals(x, e, w, sigma, floorV, out);
+    else if (!known && x.size() >= 4)
+        studentized(x, e, w, floorV, out);
+}
+
+double criticalValue(bool known, std::size_t n, double familyAlpha)
+{
+    const double tail = familyAlpha / (2.0 * static_cast<double>(n));
+    return known ? normalQuantile(1.0 - tail) : studentTQuantile(1.0 - tail, static_cast<double>(n) - 3.0);
+}
+
+// Residuals of the active points about the line refitted without the points set aside: the
+// weighted line through (x, e) is the change of the fitted line, so e - (δa + δb·x).
+void refitResiduals(std::vector<double> &x, std::vector<double> &e, const std::vector<double> &w)
+{
+    const Centre c = centreOf(x, w);
+    double meanE = 0.0, sxe = 0.0;
+    for (std::size_t i = 0; i < x.size(); ++i)
+        meanE += w[i] * e[i] / c.sumW;
+    for (std::size_t i = 0; i < x.size(); ++i)
+        sxe += w[i] * (x[i] - c.meanX) * (e[i] - meanE);
+    const double slope = c.sxx > 0.0 ? sxe / c.sxx : 0.0;
+    for (std::size_t i = 0; i < x.size(); ++i)
+        e[i] -= meanE + slope * (x[i] - c.meanX);
+}
+
+} // namespace
+
+OutlierScreening screenResiduals(std::span<const double> x, std::span<const double> residuals,
+                                 std::span<const double> weights, std::span<const double> knownSigmaV,
+                                 double scatterFloorV, const OutlierScreenOptions &options,
+                                 std::vector<std::optional<double>> &statistics, std::vector<bool> &flagged)
+{
+    const std::size_t n = x.size();
+    flagged.assign(n, false);
+    OutlierScreening screening;
+    const bool known = !knownSigmaV.empty();
+    const double floorV = std::isfinite(scatterFloorV) && scatterFloorV > 0.0 ? scatterFloorV : 0.0;
+    const std::string family = "Bonferroni, " + shortNumber(options.familyAlpha * 100.0) + " % per sweep";
+    const std::string sequence = "; the largest beyond it is flagged and set aside, the rest screened again";
+    if (known)
+        screening.rule = "normalized residual e/(σ·sqrt(1 - h)) with the readings' stated random uncertainty, "
+                         "against z(1 - α/(2n)) (" + family + ")" + sequence;
+    else
+        screening.rule = "externally studentized residual (n - 3 degrees of freedom"
+                         + std::string(floorV > 0.0 ? ", scatter floored by the resolution" : "")
+                         + "), against t(1 - α/(2n), n - 3) (" + family + ")" + sequence;
+    passStatistics(known, x, residuals, weights, knownSigmaV, floorV, statistics);
+    if (n < options.minimumPoints) {
+        screening.reason = "too few points to screen (" + std::to_string(n) + "; the screen needs "
+                           + std::to_string(options.minimumPoints) + ")";
+        return screening;
+    }
+    screening.screened = true;
+    screening.criticalValue = criticalValue(known, n, options.familyAlpha);
+    // On a clean sweep only the first pass can flag, so the family level holds; setting a flagged
+    // point aside before looking again keeps one gross misread from dragging the line (and,
+    // with a known σ, every other residual) past the critical value.
+    std::vector<std::size_t> active(n);
+    for (std::size_t i = 0; i < n; ++i)
+        active[i] = i;
+    std::vector<double> ax, ae, aw, as;
+    std::vector<std::optional<double>> passed = statistics;
+    for (bool first = true;; first = false) {
+        if (!first) {
+            ax.clear(), ae.clear(), aw.clear(), as.clear();
+            for (std::size_t i : active) {
+                ax.push_back(x[i]);
+                ae.push_back(residuals[i]);
+                aw.push_back(weights[i]);
+                if (known)
+                    as.push_back(knownSigmaV[i]);
+            }
+            refitResiduals(ax, ae, aw);
+            passStatistics(known, ax, ae, aw, as, floorV, passed);
+            for (std::size_t k = 0; k < active.size(); ++k)
+                statistics[active[k]] = passed[k];
+        }
+        const double critical = criticalValue(known, active.size(), options.familyAlpha);
+        std::optional<std::size_t> worst;
+        for (std::size_t k = 0; k < active.size(); ++k)
+            if (passed[k] && std::fabs(*passed[k]) > critical
+                && (!worst || std::fabs(*passed[k]) > std::fabs(*passed[*worst])))
+                worst = k;
+        if (!worst)
+            break;
+        flagged[active[*worst]] = true;
+        active.erase(active.begin() + static_cast<std::ptrdiff_t>(*worst));
+        if (active.size() < options.minimumPoints)
+            break;
+    }
+    return screening;
+}
+
+} // namespace sagline
