@@ -1,12 +1,12 @@
 #include "CsvReadings.h"
 
 #include "AsciiText.h"
+#include "TextFile.h"
 
+#include <algorithm>
 #include <charconv>
 #include <cmath>
-#include <fstream>
 #include <optional>
-#include <sstream>
 
 namespace sagline {
 
@@ -31,9 +31,9 @@ constexpr KnownColumn knownColumns[] = {
     {"recorded_account", Column::Provenance},
 };
 
-// Splits one line on commas; a cell may be double-quoted ("" is a literal quote).
-// Returns false for an unterminated quote.
-bool splitCells(std::string_view line, std::vector<std::string> &cells)
+// Splits one line on commas; a cell may be double-quoted ("" is a literal quote). Cells are
+// trimmed of spaces unless quoted. Returns false for an unterminated quote.
+bool splitQuotedCells(std::string_view line, std::vector<std::string> &cells)
 {
     cells.clear();
     std::string cell;
@@ -66,6 +66,26 @@ bool splitCells(std::string_view line, std::vector<std::string> &cells)
         return false;
     cells.push_back(wasQuoted ? cell : std::string(trimSpace(cell)));
     return true;
+}
+
+// The same into views: of the line itself when it has no quote (the common case, no copy),
+// else of `unquoted`, which holds the quoted line's cells until the next call.
+bool splitCells(std::string_view line, std::vector<std::string_view> &cells, std::vector<std::string> &unquoted)
+{
+    cells.clear();
+    if (line.find('"') != std::string_view::npos) {
+        if (!splitQuotedCells(line, unquoted))
+            return false;
+        cells.assign(unquoted.begin(), unquoted.end());
+        return true;
+    }
+    while (true) {
+        const std::size_t comma = line.find(',');
+        cells.push_back(trimSpace(line.substr(0, comma)));
+        if (comma == std::string_view::npos)
+            return true;
+        line.remove_prefix(comma + 1);
+    }
 }
 
 std::optional<double> parseNumber(std::string_view text)
@@ -122,18 +142,18 @@ private:
             m_result.errors.push_back({"line " + std::to_string(line) + (column.empty() ? "" : ", column " + std::string(column)),
                                        std::move(rule)});
     }
-    bool parseHeader(int line, const std::vector<std::string> &cells);
-    void parseRow(int line, const std::vector<std::string> &cells);
+    bool parseHeader(int line, const std::vector<std::string_view> &cells);
+    void parseRow(int line, const std::vector<std::string_view> &cells);
 
     ReadingsCsvParse m_result;
     std::vector<Column> m_columns;
     std::vector<std::string> m_names;
 };
 
-bool Parser::parseHeader(int line, const std::vector<std::string> &cells)
+bool Parser::parseHeader(int line, const std::vector<std::string_view> &cells)
 {
     bool good = true;
-    for (const std::string &cell : cells) {
+    for (const std::string_view cell : cells) {
         const KnownColumn *match = nullptr;
         for (const auto &known : knownColumns)
             if (known.name == cell)
@@ -150,7 +170,7 @@ bool Parser::parseHeader(int line, const std::vector<std::string> &cells)
                 good = false;
             }
         m_columns.push_back(match->column);
-        m_names.push_back(cell);
+        m_names.emplace_back(cell);
     }
     for (const char *required : {"current_a", "voltage_v"}) {
         bool present = false;
@@ -168,7 +188,7 @@ bool Parser::parseHeader(int line, const std::vector<std::string> &cells)
     return good;
 }
 
-void Parser::parseRow(int line, const std::vector<std::string> &cells)
+void Parser::parseRow(int line, const std::vector<std::string_view> &cells)
 {
     if (cells.size() != m_columns.size()) {
         error(line, "", "has " + std::to_string(cells.size()) + " cells, the header has " + std::to_string(m_columns.size()));
@@ -177,8 +197,9 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
     Reading reading;
     bool good = true;
     for (std::size_t i = 0; i < cells.size(); ++i) {
-        const std::string &cell = cells[i];
+        const std::string_view cell = cells[i];
         const std::string &name = m_names[i];
+        const auto quote = [cell] { return std::string(cell); };
         switch (m_columns[i]) {
         case Column::Current:
         case Column::Voltage: {
@@ -187,10 +208,10 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
                 error(line, name, "is empty; a number is required");
                 good = false;
             } else if (!value) {
-                error(line, name, "not a finite number: '" + cell + "' (use '.' as the decimal point, SI units)");
+                error(line, name, "not a finite number: '" + quote() + "' (use '.' as the decimal point, SI units)");
                 good = false;
             } else if (*value < 0.0) {
-                error(line, name, "must be zero or above (an RMS value), got " + cell);
+                error(line, name, "must be zero or above (an RMS value), got " + quote());
                 good = false;
             } else {
                 (m_columns[i] == Column::Current ? reading.currentA : reading.voltageV) = *value;
@@ -203,10 +224,10 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
                 break;
             const auto value = parseNumber(cell);
             if (!value) {
-                error(line, name, "not a finite number: '" + cell + "'");
+                error(line, name, "not a finite number: '" + quote() + "'");
                 good = false;
             } else if (!(*value > 0.0)) {
-                error(line, name, "a standard uncertainty must be above zero, got " + cell);
+                error(line, name, "a standard uncertainty must be above zero, got " + quote());
                 good = false;
             } else {
                 (m_columns[i] == Column::UCurrent ? reading.uCurrentA : reading.uVoltageV) = *value;
@@ -219,7 +240,7 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
             int step = -1;
             const auto [end, ec] = std::from_chars(cell.data(), cell.data() + cell.size(), step);
             if (ec != std::errc() || end != cell.data() + cell.size() || step < 0) {
-                error(line, name, "must be a whole number of 0 or more, got '" + cell + "'");
+                error(line, name, "must be a whole number of 0 or more, got '" + quote() + "'");
                 good = false;
             } else {
                 reading.step = step;
@@ -230,7 +251,7 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
         case Column::Flags: {
             const auto flags = parseFlags(cell);
             if (!flags) {
-                error(line, name, "unknown flag in '" + cell + "'; flags are names joined by '|', e.g. unstable|outlier");
+                error(line, name, "unknown flag in '" + quote() + "'; flags are names joined by '|', e.g. unstable|outlier");
                 good = false;
             } else {
                 reading.flags = *flags;
@@ -241,7 +262,7 @@ void Parser::parseRow(int line, const std::vector<std::string> &cells)
         case Column::Excluded: {
             const auto excluded = parseBool(cell);
             if (!excluded) {
-                error(line, name, "must be true or false, got '" + cell + "'");
+                error(line, name, "must be true or false, got '" + quote() + "'");
                 good = false;
             } else {
                 reading.excluded = *excluded;
@@ -263,7 +284,12 @@ ReadingsCsvParse Parser::run(std::string_view text)
     bool haveHeader = false;
     bool headerGood = false;
     int lineNumber = 0;
-    std::vector<std::string> cells;
+    std::vector<std::string_view> cells;
+    std::vector<std::string> unquoted;
+    // One reading per line at most: reserving for them all saves growing a large vector.
+    const auto lines = static_cast<std::size_t>(std::count(text.begin(), text.end(), '\n')) + 1;
+    m_result.readings.reserve(lines);
+    m_result.lineNumbers.reserve(lines);
     while (!text.empty()) {
         const std::size_t end = text.find('\n');
         std::string_view line = text.substr(0, end);
@@ -271,7 +297,7 @@ ReadingsCsvParse Parser::run(std::string_view text)
         ++lineNumber;
         if (trimSpace(line).empty())
             continue;
-        if (!splitCells(line, cells)) {
+        if (!splitCells(line, cells, unquoted)) {
             error(lineNumber, "", "a double quote is not closed");
             continue;
         }
@@ -304,20 +330,13 @@ ReadingsCsvParse parseReadingsCsv(std::string_view text)
 
 ReadingsCsvParse loadReadingsCsv(const std::string &path)
 {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) {
+    const std::optional<std::string> text = readTextFile(path);
+    if (!text) {
         ReadingsCsvParse result;
-        result.errors.push_back({"file", "cannot open '" + path + "' for reading"});
+        result.errors.push_back({"file", "cannot open or read '" + path + "'"});
         return result;
     }
-    std::ostringstream buffer;
-    buffer << in.rdbuf();
-    if (in.bad()) {
-        ReadingsCsvParse result;
-        result.errors.push_back({"file", "read error on '" + path + "'"});
-        return result;
-    }
-    return parseReadingsCsv(buffer.str());
+    return parseReadingsCsv(*text);
 }
 
 } // namespace sagline

@@ -6,6 +6,7 @@
 #include "SessionStore.h"
 #include "SetupJson.h"
 
+#include <algorithm>
 #include <filesystem>
 
 namespace sagline {
@@ -58,26 +59,26 @@ ImportResult importReadingsCsv(const ImportRequest &request)
     session.createdBy = {request.person, ""};
 
     const std::string fileName = std::filesystem::path(request.csvPath).filename().string();
-    for (std::size_t i = 0; i < csv.readings.size(); ++i)
-        csv.readings[i].rawText = "imported from " + fileName + " line " + std::to_string(csv.lineNumbers[i]);
+    const std::string origin = "imported from " + fileName + " line ";
+    for (std::size_t i = 0; i < csv.readings.size(); ++i) {
+        std::string &raw = csv.readings[i].rawText;
+        raw.reserve(origin.size() + 10);
+        raw.append(origin).append(std::to_string(csv.lineNumbers[i]));
+    }
 
     // The readings go in before the file appears under its name: a failed or killed import
-    // leaves no session behind, and never removes a file it did not create.
-    std::size_t recorded = 0, excluded = 0;
-    auto created = SessionStore::create(request.outputPath, session, [&](SessionStore &store) {
-        const auto ids = store.appendReadings(csv.readings);
+    // leaves no session behind, and never removes a file it did not create. The readings and
+    // the exclusions marked in the file are one transaction.
+    MarkedExclusions marked;
+    marked.author = request.person.empty() ? request.operatorName : request.person;
+    marked.reason = [&](std::size_t i) {
+        return "marked excluded in " + fileName + " line " + std::to_string(csv.lineNumbers[i]);
+    };
+    std::size_t recorded = 0;
+    const StoreStatus created = SessionStore::createClosed(request.outputPath, session, [&](SessionStore &store) {
+        const auto ids = store.appendReadings(csv.readings, &marked);
         if (!ids.ok())
             return ids.status();
-        for (std::size_t i = 0; i < csv.readings.size(); ++i) {
-            if (!csv.readings[i].excluded)
-                continue;
-            const auto done = store.excludeReading(ids.value[i], "marked excluded in " + fileName + " line " +
-                                                                     std::to_string(csv.lineNumbers[i]),
-                                                   request.person.empty() ? request.operatorName : request.person);
-            if (!done.ok())
-                return done.status();
-            ++excluded;
-        }
         recorded = ids.value.size();
         return StoreStatus::success();
     });
@@ -86,7 +87,8 @@ ImportResult importReadingsCsv(const ImportRequest &request)
         result.message = created.message;
         return result;
     }
-    result.excluded = excluded;
+    result.excluded = static_cast<std::size_t>(
+        std::count_if(csv.readings.begin(), csv.readings.end(), [](const Reading &r) { return r.excluded; }));
     result.readings = recorded;
     return result;
 }

@@ -4,6 +4,7 @@
 #pragma once
 
 #include <cstdint>
+#include <functional>
 #include <optional>
 #include <string>
 
@@ -28,6 +29,12 @@ struct NewSession {
     std::optional<double> windingTemperatureC; // winding at the start (cold), °C
     std::string softwareVersion;               // the writing program's version, for traceability
     Actor createdBy;                           // who creates it; an empty OS account is filled in
+};
+
+// Who excluded the readings an import marks excluded, and why (SessionStore::appendReadings).
+struct MarkedExclusions {
+    std::string author;                             // required
+    std::function<std::string(std::size_t)> reason; // for readings[index]; required, not blank
 };
 
 struct SessionInfo {

@@ -185,9 +185,28 @@ StoreStatus SessionStore::requireWritable() const
 StoreOpen SessionStore::create(const std::string &path, const NewSession &session,
                                const std::function<StoreStatus(SessionStore &)> &fill)
 {
+    auto published = buildAndPublish(path, session, fill);
+    if (!published.ok())
+        return StoreOpen::failure(published.status());
+    StoreOpen opened = open(path, true, std::move(published.value));
+    if (opened.ok())
+        opened.value->setActor(session.createdBy); // as createFile's store had it
+    return opened;
+}
+
+StoreStatus SessionStore::createClosed(const std::string &path, const NewSession &session,
+                                       const std::function<StoreStatus(SessionStore &)> &fill)
+{
+    return buildAndPublish(path, session, fill).status(); // the lock goes with the result
+}
+
+StoreResult<SessionWriterLock> SessionStore::buildAndPublish(const std::string &path, const NewSession &session,
+                                                             const std::function<StoreStatus(SessionStore &)> &fill)
+{
+    using Result = StoreResult<SessionWriterLock>;
     std::error_code error;
     if (std::filesystem::exists(path, error) || std::filesystem::exists(path + "-journal", error))
-        return StoreOpen::failure(StoreCode::FileExists, path + ": already exists; a session file is never overwritten");
+        return Result::failure(StoreCode::FileExists, path + ": already exists; a session file is never overwritten");
     const std::string temporary = temporarySibling(path);
     const auto named = [&](const std::string &message) {
         // Messages name the file the user asked for, not the temporary one.
@@ -198,7 +217,7 @@ StoreOpen SessionStore::create(const std::string &path, const NewSession &sessio
     };
     auto lock = SessionWriterLock::createAndAcquire(temporary);
     if (!lock.ok())
-        return StoreOpen::failure(lock.code == StoreCode::FileExists ? StoreCode::IoError : lock.code, named(lock.message));
+        return Result::failure(lock.code == StoreCode::FileExists ? StoreCode::IoError : lock.code, named(lock.message));
     // From here on only this call's own temporary file (and its journal) is ever removed.
     struct RemoveTemporary {
         std::string path;
@@ -215,20 +234,17 @@ StoreOpen SessionStore::create(const std::string &path, const NewSession &sessio
     {
         StoreOpen built = createFile(temporary, session);
         if (!built.ok())
-            return StoreOpen::failure(built.code, named(built.message));
+            return Result::failure(built.code, named(built.message));
         if (fill) {
             built.value->m_path = path;
             if (StoreStatus status = fill(*built.value); !status.ok())
-                return StoreOpen::failure(status.code, named(status.message));
+                return Result::failure(status.code, named(status.message));
         }
     } // the connection closes: the file is complete and committed, with no journal
     if (StoreStatus status = publishExclusively(temporary, path); !status.ok())
-        return StoreOpen::failure(status);
+        return Result::failure(status);
     cleanup.keep = true;
-    StoreOpen opened = open(path, true, std::move(lock.value));
-    if (opened.ok())
-        opened.value->setActor(session.createdBy); // as createFile's store had it
-    return opened;
+    return std::move(lock.value);
 }
 
 StoreOpen SessionStore::createFile(const std::string &path, const NewSession &session)

@@ -30,6 +30,7 @@
 #include <functional>
 #include <memory>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace sagline {
@@ -47,6 +48,10 @@ public:
     static StoreResult<std::unique_ptr<SessionStore>>
     create(const std::string &path, const NewSession &session,
            const std::function<StoreStatus(SessionStore &)> &fill = {});
+    // The same for a caller that only writes the file (an import): it is published and
+    // closed, not opened again, which would run the integrity check over all of it.
+    static StoreStatus createClosed(const std::string &path, const NewSession &session,
+                                    const std::function<StoreStatus(SessionStore &)> &fill);
     // Opens an existing session to continue it (resume a sweep, add notes, exclusions, a
     // sign-off). Takes the writer lock: Busy, naming the holder's host and process, while
     // another program writes it. An older schema is upgraded in place, in one transaction. A
@@ -83,7 +88,10 @@ public:
     // non-finite value is stored as "no value"); uncertainties, when given, finite and ≥ 0.
     StoreResult<std::int64_t> appendReading(const Reading &reading);
     // Records several readings in one transaction (an import): all or none. Returns their ids.
-    StoreResult<std::vector<std::int64_t>> appendReadings(const std::vector<Reading> &readings);
+    // With `marked`, each reading whose `excluded` is set also gets its exclusion row in that
+    // transaction (an import's marks); without, reading.excluded is ignored.
+    StoreResult<std::vector<std::int64_t>> appendReadings(const std::vector<Reading> &readings,
+                                                          const MarkedExclusions *marked = nullptr);
     // Excludes a reading from the fit, or restores it; reason required. NotFound for an
     // unknown reading id.
     StoreResult<std::int64_t> excludeReading(std::int64_t readingId, const std::string &reason, const std::string &author);
@@ -142,6 +150,9 @@ public:
 
 private:
     SessionStore(std::string path, SqliteHandle db, bool readOnly, int fileVersion);
+    // create's work up to the file under its name; returns the writer lock still held.
+    static StoreResult<SessionWriterLock> buildAndPublish(const std::string &path, const NewSession &session,
+                                                          const std::function<StoreStatus(SessionStore &)> &fill);
     static StoreResult<std::unique_ptr<SessionStore>> open(const std::string &path, bool forWriting,
                                                            SessionWriterLock lock = {});
     static StoreResult<std::unique_ptr<SessionStore>> createFile(const std::string &path, const NewSession &session);
@@ -152,6 +163,9 @@ private:
                                               const std::string &author);
     std::string now() const;
     StoreStatus checkReading(const Reading &reading) const;
+    // appendReadings' exclusions (readings index, reason) inside its transaction; an SQLite code.
+    int insertExclusions(const std::vector<std::pair<std::size_t, std::string>> &exclusions,
+                         const std::vector<std::int64_t> &ids, const std::string &author, const std::string &stamp);
 
     std::string m_path;
     SessionWriterLock m_writerLock; // before m_db: released only after the connection has closed

@@ -2,6 +2,7 @@
 // synchronous=EXTRA), the row id returned only after the commit returned.
 #include "SessionStore.h"
 
+#include "SessionStoreRows.h"
 #include "SqliteStatement.h"
 
 #include <sqlite3.h>
@@ -48,22 +49,10 @@ StoreStatus SessionStore::checkReading(const Reading &reading) const
 
 namespace {
 
-constexpr const char *insertReadingSql =
-    "INSERT INTO reading (time_utc, step, current_a, voltage_v, u_current_a, u_voltage_v, flags, raw_text, person, "
-    "os_account) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)";
+using storerows::isBlank;
 
-void bindReading(SqliteStatement &insert, const Reading &reading, const std::string &time, const Actor &actor)
-{
-    insert.bind(1, time).bind(2, reading.step).bind(3, reading.currentA).bind(4, reading.voltageV);
-    insert.bind(5, reading.uCurrentA).bind(6, reading.uVoltageV);
-    insert.bind(7, static_cast<std::int64_t>(reading.flags)).bind(8, reading.rawText);
-    insert.bind(9, actor.person).bind(10, actor.osAccount);
-}
-
-bool isBlank(const std::string &text)
-{
-    return text.find_first_not_of(" \t\r\n") == std::string::npos;
-}
+const std::string insertReadingSql = std::string("INSERT INTO reading (") + storerows::readingColumns
+                                     + ") VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)";
 
 } // namespace
 
@@ -75,44 +64,8 @@ StoreResult<std::int64_t> SessionStore::appendReading(const Reading &reading)
     if (StoreStatus status = checkReading(reading); !status.ok())
         return Result::failure(status);
     const std::string time = reading.timeUtc.empty() ? now() : reading.timeUtc;
-    return insertRow(m_db.get(), insertReadingSql, "reading",
-                     [&](SqliteStatement &insert) { bindReading(insert, reading, time, m_actor); });
-}
-
-StoreResult<std::vector<std::int64_t>> SessionStore::appendReadings(const std::vector<Reading> &readings)
-{
-    using Result = StoreResult<std::vector<std::int64_t>>;
-    if (StoreStatus status = requireUnsealed(); !status.ok())
-        return Result::failure(status);
-    for (std::size_t i = 0; i < readings.size(); ++i) {
-        if (StoreStatus status = checkReading(readings[i]); !status.ok())
-            return Result::failure(status.code, "reading " + std::to_string(i + 1) + " of " +
-                                                    std::to_string(readings.size()) + ": " + status.message);
-    }
-    SqliteTransaction transaction(m_db.get());
-    if (transaction.beginCode() != SQLITE_OK)
-        return Result::failure(sqliteFailure(m_db.get(), transaction.beginCode(), "cannot record the readings"));
-    SqliteStatement insert;
-    int rc = insert.prepare(m_db.get(), insertReadingSql);
-    std::vector<std::int64_t> ids;
-    ids.reserve(readings.size());
-    const std::string stamp = now();
-    for (const Reading &reading : readings) {
-        if (rc != SQLITE_OK)
-            break;
-        bindReading(insert, reading, reading.timeUtc.empty() ? stamp : reading.timeUtc, m_actor);
-        rc = insert.step();
-        if (rc != SQLITE_DONE)
-            break;
-        rc = SQLITE_OK;
-        ids.push_back(sqlite3_last_insert_rowid(m_db.get()));
-        insert.reset();
-    }
-    if (rc == SQLITE_OK)
-        rc = transaction.commit();
-    if (rc != SQLITE_OK)
-        return Result::failure(sqliteFailure(m_db.get(), rc, "cannot record the readings; none was recorded"));
-    return ids;
+    return insertRow(m_db.get(), insertReadingSql.c_str(), "reading",
+                     [&](SqliteStatement &insert) { storerows::bindReading(insert, 1, reading, time, m_actor); });
 }
 
 StoreResult<std::int64_t> SessionStore::insertExclusion(std::int64_t readingId, bool excluded, const std::string &reason,
@@ -138,10 +91,7 @@ StoreResult<std::int64_t> SessionStore::insertExclusion(std::int64_t readingId, 
     if (rc != SQLITE_ROW)
         return Result::failure(sqliteFailure(m_db.get(), rc, "cannot look up the reading"));
     const std::string time = now();
-    return insertRow(m_db.get(),
-                     "INSERT INTO exclusion (reading_id, excluded, reason, author, time_utc, os_account) "
-                     "VALUES (?, ?, ?, ?, ?, ?)",
-                     excluded ? "exclusion" : "restore", [&](SqliteStatement &insert) {
+    return insertRow(m_db.get(), storerows::insertExclusionSql, excluded ? "exclusion" : "restore", [&](SqliteStatement &insert) {
                          insert.bind(1, readingId).bind(2, excluded ? 1 : 0).bind(3, reason).bind(4, author).bind(5, time);
                          insert.bind(6, m_actor.osAccount);
                      });
@@ -237,7 +187,7 @@ StoreResult<std::int64_t> SessionStore::appendRetake(const Reading &reading, std
     SqliteStatement insert;
     rc = insert.prepare(m_db.get(), insertReadingSql);
     if (rc == SQLITE_OK) {
-        bindReading(insert, reading, time, m_actor);
+        storerows::bindReading(insert, 1, reading, time, m_actor);
         rc = insert.step();
     }
     if (rc != SQLITE_DONE)

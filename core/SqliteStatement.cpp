@@ -80,6 +80,16 @@ SqliteStatement &SqliteStatement::bind(int index, std::string_view text)
     return *this;
 }
 
+SqliteStatement &SqliteStatement::bindUncopied(int index, std::string_view text)
+{
+    if (!m_stmt) {
+        noteBind(SQLITE_MISUSE);
+        return *this;
+    }
+    noteBind(sqlite3_bind_text64(m_stmt, index, text.data(), text.size(), SQLITE_STATIC, SQLITE_UTF8));
+    return *this;
+}
+
 SqliteStatement &SqliteStatement::bind(int index, const std::optional<double> &value)
 {
     return value ? bind(index, *value) : bindNull(index);
@@ -108,6 +118,13 @@ void SqliteStatement::reset()
     sqlite3_reset(m_stmt);
     sqlite3_clear_bindings(m_stmt);
     m_bindError = 0;
+}
+
+void SqliteStatement::resetKeepingBindings()
+{
+    if (!m_stmt)
+        return;
+    sqlite3_reset(m_stmt); // its code repeats the last step's, already handled
 }
 
 bool SqliteStatement::isNull(int column) const

@@ -30,6 +30,9 @@ public:
     SqliteStatement &bind(int index, std::int64_t value);
     SqliteStatement &bind(int index, int value) { return bind(index, static_cast<std::int64_t>(value)); }
     SqliteStatement &bind(int index, std::string_view text);
+    // As bind(text) but without a copy (bulk inserts): `text` must stay valid and unchanged
+    // until the statement is reset or bound again.
+    SqliteStatement &bindUncopied(int index, std::string_view text);
     SqliteStatement &bind(int index, const std::optional<double> &value);
     SqliteStatement &bindNull(int index);
 
@@ -37,6 +40,8 @@ public:
     int step();
     // Makes the statement ready to run again with fresh bindings.
     void reset();
+    // Ready to run again with the same bindings: a bulk insert rebinds only what changes.
+    void resetKeepingBindings();
 
     // Columns are 0-based; valid after step() returned SQLITE_ROW.
     bool isNull(int column) const;

@@ -1,4 +1,4 @@
-// Reading a whole text file (a setup or lab-sheet JSON) for a parser that takes the text.
+// Reading a whole text file (a setup, lab-sheet JSON or readings CSV) for a parser that takes the text.
 #pragma once
 
 #include "FieldError.h"
@@ -9,7 +9,7 @@
 namespace sagline {
 
 // The file's bytes without a leading UTF-8 byte-order mark (Windows editors write one);
-// nothing when it cannot be opened.
+// nothing when it cannot be opened or read.
 std::optional<std::string> readTextFile(const std::string &path);
 
 // The error a loader reports for a file that readTextFile could not open.
