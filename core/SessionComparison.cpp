@@ -1,5 +1,7 @@
 #include "SessionComparison.h"
 
+#include "SessionSummary.h"
+
 #include "AnalysisSettingsRecord.h"
 #include "SessionStore.h"
 #include "SetupJson.h"
@@ -22,9 +24,18 @@ std::optional<double> SessionRow::comparedResistanceOhm(bool atReference) const
 
 std::string SessionRow::reviewState() const
 {
+    if (seal.state == SealState::Altered)
+        return "ALTERED after sign-off";
+    if (seal.state == SealState::ChangedAfterSignOff)
+        return "changed after sign-off";
     if (signOffs.empty())
         return "not reviewed";
     return toString(signOffs.back().verdict);
+}
+
+std::string SessionRow::verdictShown() const
+{
+    return progress.verdictText(figures.verdictText());
 }
 
 std::string instrumentShortName(const std::string &identity)
@@ -141,8 +152,10 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     const auto stops = store.safetyStops();
     const auto signOffs = store.signOffs();
     const auto notes = store.notes();
+    const auto events = store.sweepEvents();
+    const auto seal = checkSeal(store);
     for (const StoreStatus &status : {readings.status(), temperatures.status(), instruments.status(), stops.status(),
-                                      signOffs.status(), notes.status()}) {
+                                      signOffs.status(), notes.status(), events.status(), seal.status()}) {
         if (!status.ok())
             return failedRow(row, toString(status.code), status.message);
     }
@@ -161,6 +174,11 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
 
     row.safetyStops = stops.value;
     row.signOffs = signOffs.value;
+    row.seal = seal.value;
+    std::vector<int> plannedSteps;
+    for (const StoredPlanStep &step : parseStoredPlan(info.value.planJson).steps)
+        plannedSteps.push_back(step.index);
+    row.progress = sessionProgress(plannedSteps, readings.value, stops.value, events.value, false);
     row.supervision = summarizeSupervision(notes.value);
     row.readingCount = readings.value.size();
 
@@ -237,7 +255,9 @@ BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
             ++fitted;
             allHaveReference = allHaveReference && row->figures.resistanceRefOhm.has_value();
         }
-        if (!row->figures.verdict) {
+        if (!row->progress.isComplete()) {
+            ++stats.incomplete; // a sweep that ended early gets no verdict, least of all a pass
+        } else if (!row->figures.verdict) {
             ++stats.noVerdict;
         } else {
             switch (*row->figures.verdict) {
@@ -248,7 +268,9 @@ BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
             case ConformityOutcome::NotJudged: ++stats.notJudged; break;
             }
         }
-        if (row->signOffs.empty()) {
+        if (row->seal.state == SealState::ChangedAfterSignOff || row->seal.state == SealState::Altered) {
+            ++stats.changedAfterSignOff;
+        } else if (row->signOffs.empty()) {
             ++stats.notReviewed;
         } else {
             switch (row->signOffs.back().verdict) {
@@ -329,7 +351,8 @@ std::string verdictCountsText(const BatchStatistics &stats)
 {
     return "pass " + std::to_string(stats.pass) + ", conditional pass " + std::to_string(stats.conditionalPass)
            + ", conditional fail " + std::to_string(stats.conditionalFail) + ", fail " + std::to_string(stats.fail)
-           + ", not judged " + std::to_string(stats.notJudged) + ", n/a " + std::to_string(stats.noVerdict);
+           + ", not judged " + std::to_string(stats.notJudged) + ", n/a " + std::to_string(stats.noVerdict)
+           + ", incomplete (no verdict) " + std::to_string(stats.incomplete);
 }
 
 BatchStatistics summarizeBatch(const std::vector<SessionRow> &rows)

@@ -12,7 +12,9 @@
 
 #include "FitSummary.h"
 #include "SessionFigures.h"
+#include "SessionProgress.h"
 #include "SessionRecords.h"
+#include "SessionSeal.h"
 #include "SupervisedRecords.h"
 
 #include <cstddef>
@@ -62,6 +64,8 @@ struct SessionRow {
     SessionFigures figures;
     std::vector<SafetyStopRecord> safetyStops;
     std::vector<SignOffRecord> signOffs; // oldest first
+    SealReport seal;                  // signed, changed after sign-off, altered
+    SessionProgress progress;         // k of N steps and how the sweep ended
     SupervisionSummary supervision;
     bool settingsFromRecord = false;  // rule, limit or constant taken from the session's record
     std::string design;               // designOf(nameplate): units of one design compare
@@ -69,8 +73,11 @@ struct SessionRow {
 
     // R the batch compares: at the reference temperature when known, else as measured.
     std::optional<double> comparedResistanceOhm(bool atReference) const;
-    // "not reviewed", or the latest sign-off: "accepted", "rejected", "retest".
+    // "not reviewed", or the latest sign-off: "accepted", "rejected", "retest"; "changed after
+    // sign-off" once it was reopened, "ALTERED" when a digest no longer matches.
     std::string reviewState() const;
+    // The verdict as shown: the outcome for a complete session, else "incomplete (...)".
+    std::string verdictShown() const;
 };
 
 // The identity of an instrument from its IEEE 488.2 *IDN? reply "maker,model,serial,firmware":
@@ -102,7 +109,9 @@ struct BatchStatistics {
     std::size_t pass = 0, fail = 0, conditionalPass = 0, conditionalFail = 0;
     std::size_t notJudged = 0;        // analysed, no limit stated
     std::size_t noVerdict = 0;        // no analysis
+    std::size_t incomplete = 0;       // ended early (stop, crash): no verdict counted
     std::size_t accepted = 0, rejected = 0, retest = 0, notReviewed = 0;
+    std::size_t changedAfterSignOff = 0; // reopened or altered: the sign-off no longer holds
     std::size_t safetyStopped = 0;    // rows with at least one safety stop
     std::size_t limitHit = 0;         // rows with at least one lab-sheet limit hit
     std::vector<std::optional<double>> robustZ; // one per row considered (same order), when computable

@@ -96,7 +96,9 @@ SessionProgress sessionProgress(const std::vector<int> &plannedSteps, const std:
     } else if (last == End::Finished || (!progress.tracksSteps && last != End::SafetyStop && last != End::OperatorStop)) {
         progress.state = Completeness::Complete;
     } else if (last == End::SafetyStop) {
-        progress.state = Completeness::Stopped;
+        // A stop after every planned step was recorded (an extra step beyond the plan) leaves
+        // the planned sweep complete.
+        progress.state = everyStep ? Completeness::Complete : Completeness::Stopped;
         progress.endReason = "safety stop at step " + std::to_string(lastStep) + " (" + lastRule + ")";
     } else if (last == End::OperatorStop) {
         progress.state = everyStep ? Completeness::Complete : Completeness::Stopped;

@@ -115,6 +115,19 @@ const SupersessionRecord *SessionSummary::supersessionOf(std::int64_t readingId)
     return nullptr;
 }
 
+bool SessionSummary::isSimulated() const
+{
+    return std::any_of(readings.begin(), readings.end(), [](const Reading &r) { return (r.flags & flagSimulated) != 0; });
+}
+
+std::size_t SessionSummary::readingNumber(std::int64_t readingId) const
+{
+    // Ids grow with recording order, so the number is the id's place in the sorted list.
+    const auto found = std::lower_bound(readings.begin(), readings.end(), readingId,
+                                        [](const Reading &r, std::int64_t id) { return r.id < id; });
+    return found != readings.end() && found->id == readingId ? static_cast<std::size_t>(found - readings.begin()) + 1 : 0;
+}
+
 std::string SessionSummary::verdictText() const
 {
     std::string outcome = "not judged";

@@ -113,6 +113,11 @@ struct SessionSummary {
     // The verdict as every output shows it: the outcome when the session is complete, else
     // "provisional (k of N steps)" or "incomplete (...)" (core/SessionProgress.h).
     std::string verdictText() const;
+    // Readings from the virtual bench (flagged simulated): every printed page says so.
+    bool isSimulated() const;
+    // The reading's number as the window, the report, the export and sagline-cli count them
+    // (from 1, in recording order); 0 for an id the session does not hold.
+    std::size_t readingNumber(std::int64_t readingId) const;
 };
 
 // One line for reports: each judging choice used and where it came from, e.g. "decision rule

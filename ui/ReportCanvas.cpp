@@ -9,7 +9,7 @@
 namespace sagline {
 
 namespace {
-constexpr double footerHeightPt = 18.0;
+constexpr double footerHeightPt = 26.0; // two lines: a long file name wraps instead of being cut
 constexpr double cellPaddingPt = 2.0;
 } // namespace
 
@@ -227,12 +227,23 @@ void ReportCanvas::drawFooter()
 {
     const QFont f = font(7.5);
     m_painter.setFont(f);
-    const double top = toDevice(m_contentPt.height() + 6.0);
-    const QRectF line(toDevice(m_contentPt.left()), top, toDevice(m_contentPt.width()), toDevice(footerHeightPt - 6.0));
+    const double top = toDevice(m_contentPt.height() + 4.0);
+    const QRectF line(toDevice(m_contentPt.left()), top, toDevice(m_contentPt.width()), toDevice(footerHeightPt - 4.0));
     m_painter.drawLine(line.topLeft(), line.topRight());
-    m_painter.drawText(line, Qt::AlignLeft | Qt::AlignVCenter, m_footerText);
     const QString page = m_totalPages > 0 ? QStringLiteral("page %1 of %2").arg(m_page).arg(m_totalPages)
                                           : QStringLiteral("page %1").arg(m_page);
+    const double pageWidth = toDevice(60.0);
+    double left = line.left();
+    if (!m_pageMark.isEmpty()) {
+        // Bold, first, on every page: a reader of any single page sees it.
+        m_painter.setFont(font(7.5, true));
+        const double markWidth = m_painter.fontMetrics().horizontalAdvance(m_pageMark) + toDevice(8.0);
+        m_painter.drawText(QRectF(left, line.top(), markWidth, line.height()), Qt::AlignLeft | Qt::AlignVCenter, m_pageMark);
+        left += markWidth;
+        m_painter.setFont(f);
+    }
+    m_painter.drawText(QRectF(left, line.top(), line.right() - left - pageWidth, line.height()),
+                       Qt::AlignLeft | Qt::AlignVCenter | Qt::TextWordWrap, m_footerText);
     m_painter.drawText(line, Qt::AlignRight | Qt::AlignVCenter, page);
 }
 

@@ -55,6 +55,8 @@ public:
 
     // Draws the last page's footer; call once at the end.
     void finish();
+    // A mark printed in bold on every page's footer from now on ("SIMULATED ..."); "" for none.
+    void setPageMark(const QString &mark) { m_pageMark = mark; }
 
 private:
     QFont font(double sizePt, bool bold = false, bool italic = false) const;
@@ -64,6 +66,7 @@ private:
     QPagedPaintDevice &m_device;
     QPainter &m_painter;
     QString m_footerText;
+    QString m_pageMark;
     int m_totalPages;
     double m_unit;       // device units per point
     QRectF m_contentPt;  // content area in points, relative to the paint rectangle

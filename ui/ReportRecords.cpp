@@ -5,6 +5,7 @@
 #include "ReportReadingRows.h"
 #include "ReportSections.h"
 #include "ReportText.h"
+#include "NoteText.h"
 #include "SessionSummary.h"
 
 #include <QPainter>
@@ -17,6 +18,16 @@ namespace sagline {
 using namespace reporttext;
 
 namespace {
+
+// "9 (step 8)": the reading's number and its plan step, as the window shows them.
+QString readingAndStep(const SessionSummary &summary, std::int64_t readingId)
+{
+    const std::size_t number = summary.readingNumber(readingId);
+    if (number == 0)
+        return QString::number(readingId);
+    const int step = summary.readings[number - 1].step;
+    return step >= 0 ? QStringLiteral("%1 (step %2)").arg(number).arg(step) : QString::number(number);
+}
 
 enum class PointRole { Used, Outlier, Excluded, NotFitted };
 
@@ -163,11 +174,19 @@ void drawReadingsTable(ReportCanvas &canvas, const SessionSummary &summary)
         switch (roleOf(summary, row)) {
         case PointRole::Used: status = QStringLiteral("used"); break;
         case PointRole::Outlier: status = QStringLiteral("used, outlier"); break;
-        case PointRole::Excluded: status = QStringLiteral("excluded: ") + q(summary.exclusionReason(r.id)); break;
+        case PointRole::Excluded:
+            if (const SupersessionRecord *retake = r.superseded ? summary.supersessionOf(r.id) : nullptr)
+                status = QStringLiteral("superseded by reading %1: %2")
+                             .arg(summary.readingNumber(retake->replacementId))
+                             .arg(q(retake->reason));
+            else
+                status = QStringLiteral("excluded: ") + q(summary.exclusionReason(r.id));
+            break;
         case PointRole::NotFitted: status = QStringLiteral("not fitted"); break;
         }
         const bool hasResidual = point != nullptr && summary.fit.ok() && std::isfinite(r.currentA);
-        rows.append({QString::number(r.id), r.step >= 0 ? QString::number(r.step) : QString(),
+        // Numbered as the window and sagline-cli number readings (from 1, in recording order).
+        rows.append({QString::number(row + 1), r.step >= 0 ? QString::number(r.step) : QString(),
                      r.timeUtc.size() >= 19 ? q(r.timeUtc.substr(11, 8)) : q(r.timeUtc), fixed(r.currentA, 4),
                      fixed(r.uCurrentA, 5), fixed(r.voltageV, 4), fixed(r.uVoltageV, 4),
                      hasResidual ? fixed(point->residualV * 1000.0, 2) : QString(),
@@ -210,10 +229,33 @@ void drawRecordsAndSignOff(ReportCanvas &canvas, const SessionSummary &summary)
         canvas.heading(QStringLiteral("Exclusion history"));
         QList<QStringList> rows;
         for (const ExclusionRecord &e : summary.exclusions)
-            rows.append({readableUtc(e.timeUtc), QString::number(e.readingId),
-                         e.excluded ? QStringLiteral("excluded") : QStringLiteral("restored"), q(e.reason), q(e.author)});
-        canvas.table({{QStringLiteral("Time"), 0.2}, {QStringLiteral("Reading"), 0.08, Qt::AlignRight},
-                      {QStringLiteral("Action"), 0.1}, {QStringLiteral("Reason"), 0.44}, {QStringLiteral("By"), 0.18}},
+            rows.append({readableUtc(e.timeUtc), readingAndStep(summary, e.readingId),
+                         e.excluded ? QStringLiteral("excluded") : QStringLiteral("restored"), q(e.reason),
+                         whoDid(e.author, e.osAccount)});
+        canvas.table({{QStringLiteral("Time"), 0.18}, {QStringLiteral("Reading (step)"), 0.11, Qt::AlignRight},
+                      {QStringLiteral("Action"), 0.09}, {QStringLiteral("Reason"), 0.37}, {QStringLiteral("By"), 0.25}},
+                     rows);
+    }
+    if (!summary.supersessions.empty()) {
+        canvas.heading(QStringLiteral("Steps taken again"));
+        QList<QStringList> rows;
+        for (const SupersessionRecord &r : summary.supersessions)
+            rows.append({readableUtc(r.timeUtc), readingAndStep(summary, r.readingId),
+                         QString::number(summary.readingNumber(r.replacementId)), q(r.reason),
+                         whoDid(r.actor.person, r.actor.osAccount)});
+        canvas.table({{QStringLiteral("Time"), 0.18}, {QStringLiteral("Reading (step)"), 0.11, Qt::AlignRight},
+                      {QStringLiteral("Replaced by"), 0.09, Qt::AlignRight}, {QStringLiteral("Reason"), 0.37},
+                      {QStringLiteral("By"), 0.25}},
+                     rows);
+    }
+    if (!summary.sweepEvents.empty()) {
+        canvas.heading(QStringLiteral("Course of the sweep"));
+        QList<QStringList> rows;
+        for (const SweepEventRecord &e : summary.sweepEvents)
+            rows.append({readableUtc(e.timeUtc), q(toString(e.kind)), e.step >= 0 ? QString::number(e.step) : QString(),
+                         q(e.detail), whoDid(e.actor.person, e.actor.osAccount)});
+        canvas.table({{QStringLiteral("Time"), 0.18}, {QStringLiteral("Event"), 0.13}, {QStringLiteral("Step"), 0.06, Qt::AlignRight},
+                      {QStringLiteral("Detail"), 0.38}, {QStringLiteral("By"), 0.25}},
                      rows);
     }
     canvas.heading(QStringLiteral("Safety stops"));
@@ -222,7 +264,8 @@ void drawRecordsAndSignOff(ReportCanvas &canvas, const SessionSummary &summary)
     } else {
         QList<QStringList> rows;
         for (const SafetyStopRecord &s : summary.safetyStops)
-            rows.append({readableUtc(s.timeUtc), s.step >= 0 ? QString::number(s.step) : QString(), q(s.rule), q(s.message),
+            rows.append({readableUtc(s.timeUtc), s.step >= 0 ? QString::number(s.step) : QString(), q(s.rule),
+                         q(s.message) + QStringLiteral(" (sweep run by %1)").arg(whoDid(s.actor.person, s.actor.osAccount)),
                          s.measured ? q(formatSignificant(*s.measured, 4)) : QString(),
                          s.limitValue ? q(formatSignificant(*s.limitValue, 4)) : QString()});
         canvas.table({{QStringLiteral("Time"), 0.18}, {QStringLiteral("Step"), 0.06, Qt::AlignRight},
@@ -230,21 +273,53 @@ void drawRecordsAndSignOff(ReportCanvas &canvas, const SessionSummary &summary)
                       {QStringLiteral("Measured"), 0.1, Qt::AlignRight}, {QStringLiteral("Limit value"), 0.1, Qt::AlignRight}},
                      rows);
     }
-    if (!summary.notes.empty()) {
-        // Capped: a session may hold notes of any length and number (a 15 MB note once took a
-        // report 46 s and 1 GB); the session file keeps them whole.
-        constexpr std::size_t maxNotes = 300;
-        constexpr int maxNoteCharacters = 2000;
-        canvas.heading(QStringLiteral("Notes"));
-        QList<QStringList> rows;
-        for (std::size_t i = 0; i < summary.notes.size() && i < maxNotes; ++i) {
-            const NoteRecord &n = summary.notes[i];
-            rows.append({readableUtc(n.timeUtc), shortened(n.author, 80), shortened(n.text, maxNoteCharacters)});
+    // The analysis-settings records as a table of their own, the other notes in words. Notes
+    // are capped: a session may hold notes of any length and number (a 15 MB note once took a
+    // report 46 s and 1 GB); the session file keeps them whole.
+    constexpr qsizetype maxNotes = 300;
+    constexpr int maxNoteCharacters = 2000;
+    QList<QStringList> settingsRows;
+    QList<QStringList> noteRows;
+    qsizetype notesLeftOut = 0;
+    for (const NoteRecord &n : summary.notes) {
+        if (n.author == analysisSettingsNoteAuthor) {
+            const AnalysisSettingsParse parsed = parseAnalysisSettings(n.text);
+            if (parsed.settings) {
+                const AnalysisSettings &a = *parsed.settings;
+                settingsRows.append({readableUtc(n.timeUtc),
+                                     a.regulationLimitPercent ? q(formatSignificant(*a.regulationLimitPercent, 4)) + " %"
+                                                              : QStringLiteral("the nameplate's"),
+                                     q(toString(a.rule)),
+                                     a.referenceTemperatureC ? q(formatSignificant(*a.referenceTemperatureC, 4)) + " °C"
+                                                             : QStringLiteral("default"),
+                                     a.temperatureConstant ? q(toString(*a.temperatureConstant))
+                                                           : QStringLiteral("per winding material"),
+                                     whoDid(n.actor.person, n.actor.osAccount)});
+                continue;
+            }
         }
-        canvas.table({{QStringLiteral("Time"), 0.2}, {QStringLiteral("By"), 0.16}, {QStringLiteral("Note"), 0.64}}, rows);
-        if (summary.notes.size() > maxNotes)
-            canvas.paragraph(QStringLiteral("%1 more notes are in the session file and not printed here.")
-                                 .arg(summary.notes.size() - maxNotes),
+        if (noteRows.size() >= maxNotes) {
+            ++notesLeftOut;
+            continue;
+        }
+        noteRows.append({readableUtc(n.timeUtc),
+                         shortened(noteAuthorName(n), 80)
+                             + (n.actor.osAccount.empty() ? QString()
+                                                          : QStringLiteral(" (account %1)").arg(shortened(n.actor.osAccount, 40))),
+                         shortened(readableNoteText(n), maxNoteCharacters)});
+    }
+    if (!settingsRows.isEmpty()) {
+        canvas.heading(QStringLiteral("Analysis settings recorded"));
+        canvas.table({{QStringLiteral("Time"), 0.18}, {QStringLiteral("Regulation limit"), 0.14},
+                      {QStringLiteral("Decision rule"), 0.12}, {QStringLiteral("Reference temperature"), 0.14},
+                      {QStringLiteral("Temperature constant"), 0.17}, {QStringLiteral("Set by"), 0.25}},
+                     settingsRows);
+    }
+    if (!noteRows.isEmpty()) {
+        canvas.heading(QStringLiteral("Notes"));
+        canvas.table({{QStringLiteral("Time"), 0.18}, {QStringLiteral("By"), 0.22}, {QStringLiteral("Note"), 0.6}}, noteRows);
+        if (notesLeftOut > 0)
+            canvas.paragraph(QStringLiteral("%1 more notes are in the session file and not printed here.").arg(notesLeftOut),
                              8.0, false, true);
     }
     canvas.heading(QStringLiteral("Cautions"));
@@ -257,12 +332,21 @@ void drawRecordsAndSignOff(ReportCanvas &canvas, const SessionSummary &summary)
                      8.0);
     canvas.heading(QStringLiteral("Sign-off"));
     if (!summary.signOffs.empty()) {
+        canvas.paragraph(q(summary.seal.summary()), 9.0, summary.seal.state != SealState::Signed);
         QList<QStringList> rows;
         for (const SignOffRecord &s : summary.signOffs)
-            rows.append({readableUtc(s.timeUtc), q(s.reviewer), q(toString(s.verdict)), q(s.comment)});
-        canvas.table({{QStringLiteral("Time"), 0.2}, {QStringLiteral("Reviewer"), 0.18}, {QStringLiteral("Verdict"), 0.12},
-                      {QStringLiteral("Comment"), 0.5}},
+            rows.append({readableUtc(s.timeUtc), whoDid(s.reviewer, s.osAccount), q(toString(s.verdict)), q(s.comment),
+                         s.digest.empty() ? QStringLiteral("none") : q(s.digest.substr(0, 12)) + QStringLiteral("…")});
+        canvas.table({{QStringLiteral("Time"), 0.18}, {QStringLiteral("Reviewer"), 0.24}, {QStringLiteral("Decision"), 0.1},
+                      {QStringLiteral("Comment"), 0.33}, {QStringLiteral("SHA-256"), 0.15}},
                      rows);
+        if (!summary.reopens.empty()) {
+            QList<QStringList> reopened;
+            for (const ReopenRecord &r : summary.reopens)
+                reopened.append({readableUtc(r.timeUtc), whoDid(r.actor.person, r.actor.osAccount), q(r.reason)});
+            canvas.paragraph(QStringLiteral("Reopened after sign-off (the sign-off before each is superseded):"), 8.5, true);
+            canvas.table({{QStringLiteral("Time"), 0.18}, {QStringLiteral("By"), 0.3}, {QStringLiteral("Why"), 0.52}}, reopened);
+        }
     }
     canvas.ensureSpace(100.0);
     canvas.signatureLines({QStringLiteral("Tested by (name, signature)"), QStringLiteral("Date")});

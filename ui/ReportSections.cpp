@@ -24,10 +24,28 @@ void drawTitleBlock(ReportCanvas &canvas, const SessionSummary &summary, const R
                           readableUtc(options.generatedUtc.toStdString())));
     const auto ambient = summary.latestTemperatureC(TemperatureKind::Ambient);
     const auto winding = summary.latestTemperatureC(TemperatureKind::Winding);
+    if (summary.isSimulated())
+        canvas.framedText(QStringLiteral("SIMULATED"),
+                          QStringLiteral("The readings come from the virtual bench (a simulated transformer and meters), not "
+                                         "from a measurement. Every page says so."));
+    QStringList recorders;
+    for (const Actor &actor : summary.readingActors) {
+        const QString who = whoDid(actor.person, actor.osAccount);
+        if (!recorders.contains(who))
+            recorders.append(who);
+    }
     canvas.keyValues({
         {QStringLiteral("Unit serial number"), q(info.unitSerial)},
         {QStringLiteral("Operator"), q(info.operatorName)},
-        {QStringLiteral("Session file"), QFileInfo(q(summary.path)).fileName()},
+        {QStringLiteral("Session file"), breakable(QFileInfo(q(summary.path)).fileName())},
+        {QStringLiteral("Created by"), whoDid(info.createdBy.person, info.createdBy.osAccount)},
+        {QStringLiteral("Readings recorded by"), recorders.isEmpty() ? QStringLiteral("—") : recorders.join(QStringLiteral("; "))},
+        {QStringLiteral("Completeness"), summary.progress.isComplete()
+                                             ? QStringLiteral("complete (%1 of %2 steps)")
+                                                   .arg(summary.progress.recordedSteps)
+                                                   .arg(summary.progress.plannedSteps)
+                                             : q(summary.progress.label())},
+        {QStringLiteral("Sign-off"), q(summary.seal.summary())},
         {QStringLiteral("Recorded by"), q(info.softwareVersion) + QStringLiteral(" (schema %1)").arg(info.schemaVersion)},
         {QStringLiteral("Readings"), QStringLiteral("%1 recorded, %2 excluded, %3 used in the fit")
                                          .arg(summary.readings.size())
@@ -84,6 +102,13 @@ void drawVerdict(ReportCanvas &canvas, const SessionSummary &summary)
     canvas.paragraph(QStringLiteral("Judged with: %1.").arg(q(describeSettingsUsed(summary))), 8.0);
     for (const std::string &notice : summary.recordedSettings.notices)
         canvas.paragraph(q(notice), 8.0, true);
+    if (!summary.progress.isComplete()) {
+        // A sweep that ended before its last step gets no verdict, least of all a pass.
+        canvas.framedText(QStringLiteral("%1: NO VERDICT").arg(q(summary.progress.label()).toUpper()),
+                          QStringLiteral("Not every planned step was recorded, so the session is not judged; the results "
+                                         "above are from the points that were. Resume the session to record the rest."));
+        return;
+    }
     if (!summary.verdict) {
         canvas.framedText(QStringLiteral("NO VERDICT"), q(summary.analysisProblem));
         return;
@@ -211,13 +236,14 @@ void drawNameplateAndPlan(ReportCanvas &canvas, const SessionSummary &summary)
 
 void drawSessionReport(ReportCanvas &canvas, const SessionSummary &summary, const ReportOptions &options)
 {
+    canvas.setPageMark(summary.isSimulated() ? QStringLiteral("SIMULATED (virtual bench)") : QString());
     drawTitleBlock(canvas, summary, options);
     drawResultsAndVerdict(canvas, summary);
     drawUncertaintyBudget(canvas, summary);
     drawCharts(canvas, summary);
     drawNameplateAndPlan(canvas, summary);
     drawReadingsTable(canvas, summary);
-    drawRecordsAndSignOff(canvas, summary);
+    drawRecordsAndSignOff(canvas, summary); // the mark stays for the last page's footer
 }
 
 void setUpReportPdf(QPdfWriter &writer, const ReportOptions &options)

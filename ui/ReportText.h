@@ -46,6 +46,32 @@ inline QString fixed(const std::optional<double> &value, int decimals)
     return value ? fixed(*value, decimals) : QString();
 }
 
+// A file name or path that may break across lines after '/', '-', '_' and '.' (a zero-width
+// space there), so a long name wraps instead of being cut at the column's edge.
+inline QString breakable(QString text)
+{
+    static const QString breaks = QStringLiteral("/-_.");
+    QString out;
+    out.reserve(text.size() + text.size() / 4);
+    for (const QChar c : text) {
+        out += c;
+        if (breaks.contains(c))
+            out += QChar(0x200B);
+    }
+    return out;
+}
+
+// "L. Lead (account lead)", "(name not given) (account lead)", "" for nobody at all.
+inline QString whoDid(const std::string &person, const std::string &account)
+{
+    if (person.empty() && account.empty())
+        return QStringLiteral("(not recorded)");
+    QString text = person.empty() ? QStringLiteral("(name not given)") : q(person);
+    if (!account.empty())
+        text += QStringLiteral(" (account %1)").arg(q(account));
+    return text;
+}
+
 // "2026-12-02T10:15:03.250Z" -> "2026-12-02 10:15:03 UTC"
 inline QString readableUtc(const std::string &iso)
 {

@@ -3,6 +3,7 @@
 #include "OutputFile.h"
 #include "ReportCanvas.h"
 #include "ReportSections.h"
+#include "ReportText.h"
 #include "SessionSummary.h"
 
 #include <QFileInfo>
@@ -24,7 +25,8 @@ int render(QPdfWriter &writer, const SessionSummary &summary, const ReportOption
     painter.setRenderHint(QPainter::Antialiasing);
     const QString footer = QStringLiteral("Unit %1 · %2 · %3")
                                .arg(QString::fromStdString(summary.info.unitSerial),
-                                    QFileInfo(QString::fromStdString(summary.path)).fileName(), options.producedBy);
+                                    reporttext::breakable(QFileInfo(QString::fromStdString(summary.path)).fileName()),
+                                    options.producedBy);
     ReportCanvas canvas(writer, painter, footer, totalPages);
     drawSessionReport(canvas, summary, options);
     canvas.finish();

@@ -8,6 +8,8 @@
 #include "UncertaintyFormat.h"
 
 #include <QHeaderView>
+#include "VerdictCompleteness.h"
+
 #include <QLabel>
 #include <QScrollArea>
 #include <QSplitter>
@@ -84,6 +86,7 @@ void ReviewDetailView::showSession(const SessionRow *row)
         ResultsView view = assessmentView(f.assessment);
         view.lines.append({"points", tr("Points used"), tr("%1 of %2").arg(row->pointsUsed).arg(row->readingCount), QString()});
         m_results->setLines(view.lines);
+        applyCompleteness(view, row->progress); // an incomplete session shows no verdict
         m_results->setVerdict(view.state, view.verdictText, view.verdictRule);
         m_results->setBudgets(view.budgets);
     } else {
@@ -104,6 +107,8 @@ void ReviewDetailView::showSession(const SessionRow *row)
     }
 
     QString history = tr("<b>Sign-off history</b><br>");
+    if (row->seal.state != SealState::NotSigned)
+        history += tr("<b>%1</b><br>").arg(text(row->seal.summary()));
     if (row->signOffs.empty())
         history += tr("not reviewed yet<br>");
     for (const SignOffRecord &s : row->signOffs)

@@ -43,8 +43,10 @@ void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *>
                       {QObject::tr("Median R"), ohm(stats.medianOhm)},
                       {QObject::tr("MAD of R"), ohm(stats.madOhm)},
                       {QObject::tr("Verdicts"), qs(verdictCountsText(stats))},
-                      {QObject::tr("Review"), QObject::tr("accepted %1, rejected %2, retest %3, not reviewed %4")
-                                                  .arg(stats.accepted).arg(stats.rejected).arg(stats.retest).arg(stats.notReviewed)}});
+                      {QObject::tr("Review"), QObject::tr("accepted %1, rejected %2, retest %3, not reviewed %4, "
+                                                          "changed after sign-off %5")
+                                                  .arg(stats.accepted).arg(stats.rejected).arg(stats.retest).arg(stats.notReviewed)
+                                                  .arg(stats.changedAfterSignOff)}});
     canvas.paragraph(QObject::tr("Far from the batch: %1.").arg(qs(stats.ruleNote)));
     canvas.heading(QObject::tr("Sessions"));
     QList<QStringList> table;

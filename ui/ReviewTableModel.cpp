@@ -145,10 +145,12 @@ QVariant ReviewTableModel::display(const SessionRow &row, int rowIndex, int colu
     case NoLoadVoltage: return withU(f.ok, f.noLoadVoltageV, f.noLoadVoltageUV, "V");
     case Regulation:
         return f.regulationPercent ? withU(true, *f.regulationPercent, f.regulationUPercent, "%") : QStringLiteral("—");
-    case Verdict: return f.ok ? text(f.verdictText()) : text(f.message);
+    case Verdict: return f.ok ? text(row.verdictShown()) : text(f.message);
     case Rule: return text(toString(f.rule));
     case SafetyStops: return static_cast<int>(row.safetyStops.size());
     case Review: {
+        if (row.seal.state == SealState::ChangedAfterSignOff || row.seal.state == SealState::Altered)
+            return text(row.reviewState());
         if (row.signOffs.empty())
             return tr("not reviewed");
         const SignOffRecord &last = row.signOffs.back();
@@ -199,7 +201,9 @@ QVariant ReviewTableModel::data(const QModelIndex &index, int role) const
     case Qt::DisplayRole: return display(row, index.row(), index.column());
     case SortRole: return sortValue(row, index.row(), index.column());
     case VerdictRole:
-        return !row.opened ? QStringLiteral("unreadable") : text(row.figures.verdictText());
+        return !row.opened                  ? QStringLiteral("unreadable")
+               : !row.progress.isComplete() ? QStringLiteral("incomplete")
+                                            : text(row.figures.verdictText());
     case DateRole: return QDate::fromString(text(row.createdUtc.substr(0, 10)), Qt::ISODate);
     case Qt::TextAlignmentRole: {
         const int c = index.column();

@@ -138,7 +138,7 @@ QWidget *ReviewWindow::createFilterBar()
     m_text->setPlaceholderText(tr("Filter: unit, operator, instrument, file, lab sheet…"));
     m_text->setClearButtonEnabled(true);
     m_verdict->addItem(tr("every verdict"), QString());
-    for (const char *verdict : {"pass", "conditional-pass", "conditional-fail", "fail", "not-judged", "n/a", "unreadable"})
+    for (const char *verdict : {"pass", "conditional-pass", "conditional-fail", "fail", "not-judged", "n/a", "incomplete", "unreadable"})
         m_verdict->addItem(QString::fromLatin1(verdict), QString::fromLatin1(verdict));
     for (QDateEdit *edit : {m_from, m_to}) {
         edit->setCalendarPopup(true);
@@ -312,7 +312,7 @@ void ReviewWindow::updateSummary()
         tr("<b>%1: %2 session(s)</b><br>"
            "R %3 (%4 units): mean %5, standard deviation %6, median %7, range %8 to %9<br>"
            "Verdicts: %10<br>"
-           "Review: accepted %14, rejected %15, retest %16, not reviewed %17<br>"
+           "Review: accepted %14, rejected %15, retest %16, not reviewed %17, changed after sign-off %23<br>"
            "Safety stops in %18 · lab-sheet limit hit in %19 · unreadable %20<br>"
            "<b>Far from the batch:</b> %21<br><small>%22</small>")
             .arg(selection ? tr("Selection") : tr("Shown"))
@@ -323,7 +323,8 @@ void ReviewWindow::updateSummary()
             .arg(QString::fromStdString(verdictCountsText(s)))
             .arg(s.accepted).arg(s.rejected).arg(s.retest).arg(s.notReviewed)
             .arg(s.safetyStopped).arg(s.limitHit).arg(s.unreadable)
-            .arg(far.isEmpty() ? tr("none") : far.toHtmlEscaped(), QString::fromStdString(s.ruleNote).toHtmlEscaped()));
+            .arg(far.isEmpty() ? tr("none") : far.toHtmlEscaped(), QString::fromStdString(s.ruleNote).toHtmlEscaped())
+            .arg(s.changedAfterSignOff));
     QStringList unreadable = m_problemLines;
     for (const SessionRow &row : m_model->rows())
         if (!row.opened)

@@ -163,7 +163,7 @@ void printTable(const std::vector<SessionRow> &rows, const BatchStatistics &stat
                          withUncertainty(f.resistanceRefOhm.value_or(absent), f.resistanceRefUOhm.value_or(absent)),
                          withUncertainty(v0, f.noLoadVoltageUV.value_or(absent)),
                          withUncertainty(f.regulationPercent.value_or(absent), f.regulationUPercent.value_or(absent)),
-                         f.verdictText(), std::to_string(row.safetyStops.size()), row.reviewState(),
+                         row.verdictShown(), std::to_string(row.safetyStops.size()), row.reviewState(),
                          (std::isfinite(z) ? formatFixed(z, 2) : std::string("n/a"))
                              + (far ? (stats.screeningOnly ? " far (screening only)" : " FAR") : "")});
     }
@@ -213,7 +213,7 @@ void printSummary(const std::vector<SessionRow> &rows, const BatchStatistics &st
     out << "  Verdicts against each session's specification (" << (ruleName.empty() ? toString(options.figures.rule) : ruleName)
         << "):\n    " << verdictCountsText(stats) << '\n';
     out << "  Review: accepted " << stats.accepted << ", rejected " << stats.rejected << ", retest " << stats.retest
-        << ", not reviewed " << stats.notReviewed << "; safety stops in " << stats.safetyStopped
+        << ", not reviewed " << stats.notReviewed << ", changed after sign-off " << stats.changedAfterSignOff << "; safety stops in " << stats.safetyStopped
         << " sessions; lab-sheet limit hit in " << stats.limitHit << '\n';
     out << "  Far from the batch: " << stats.ruleNote << '\n';
     out << "  Fit: " << toString(options.method) << "; U: expanded uncertainties at 95 % coverage, k from each result's "

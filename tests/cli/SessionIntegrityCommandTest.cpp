@@ -121,6 +121,15 @@ TEST_F(SessionIntegrityCommand, SignOffSealsReopenUnsealsAndVerifyTellsAlteredFr
     EXPECT_EQ(r.exitCode, 0);
     EXPECT_NE(r.out.find("changed after sign-off"), std::string::npos) << r.out;
     EXPECT_NE(r.out.find("full-load point misread"), std::string::npos) << r.out;
+    // compare and the export say so too; the altered copy is named as altered.
+    r = runProgram(cli, {"compare", session, altered, "--json"});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const auto compared = nlohmann::json::parse(r.out);
+    EXPECT_EQ(compared["sessions"][0]["review_state"], "changed after sign-off");
+    EXPECT_EQ(compared["sessions"][1]["review_state"], "ALTERED after sign-off");
+    EXPECT_EQ(compared["batch"]["review"]["changed_after_sign_off"], 2);
+    const auto exported = nlohmann::json::parse(runProgram(cli, {"export", session, "--json", "-"}).out);
+    EXPECT_EQ(exported["seal"]["state"], "changed after sign-off");
 
     EXPECT_EQ(runProgram(cli, {"verify", demoSetup}).exitCode, 2); // not a session
 }
@@ -184,4 +193,11 @@ TEST_F(SessionIntegrityCommand, AnOverrideIsRecordedWithThePersonAndTheReason)
     EXPECT_EQ(json["sweep_events"][0]["kind"], "limit-override");
     EXPECT_NE(json["sweep_events"][0]["detail"].get<std::string>().find("fan-cooled"), std::string::npos);
     EXPECT_EQ(json["sweep_events"][0]["person"], "L. Lead");
+    // Stopped before its last step: incomplete everywhere, and no verdict.
+    EXPECT_EQ(json["progress"]["state"], "stopped");
+    EXPECT_EQ(json["verdict"]["as_shown"].get<std::string>().rfind("incomplete (", 0), 0u) << json["verdict"].dump();
+    const auto compared = nlohmann::json::parse(runProgram(cli, {"compare", path("over.sagline"), "--json"}).out);
+    EXPECT_EQ(compared["sessions"][0]["verdict"].get<std::string>().rfind("incomplete (", 0), 0u) << compared.dump();
+    EXPECT_EQ(compared["batch"]["verdicts"]["incomplete"], 1);
+    EXPECT_EQ(compared["batch"]["verdicts"]["pass"], 0);
 }

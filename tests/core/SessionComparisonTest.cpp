@@ -277,16 +277,22 @@ TEST(SessionComparison, CountsVerdictsReviewsAndUnreadableRows)
     SessionRow bad;
     bad.problem = "corrupt";
     rows.push_back(bad);
+    // A unit whose sweep stopped before its last step: counted incomplete, never as its outcome.
+    SessionRow stopped = fittedRow(1.5, ConformityOutcome::Pass);
+    stopped.progress.state = Completeness::Stopped;
+    rows.push_back(stopped);
     const BatchStatistics stats = summarizeBatch(rows);
     EXPECT_EQ(stats.pass, 2u);
     EXPECT_EQ(stats.fail, 1u);
     EXPECT_EQ(stats.conditionalPass, 1u);
     EXPECT_EQ(stats.conditionalFail, 0u);
     EXPECT_EQ(stats.notJudged, 1u);
-    EXPECT_EQ(verdictCountsText(stats), "pass 2, conditional pass 1, conditional fail 0, fail 1, not judged 1, n/a 0");
+    EXPECT_EQ(stats.incomplete, 1u);
+    EXPECT_EQ(verdictCountsText(stats),
+              "pass 2, conditional pass 1, conditional fail 0, fail 1, not judged 1, n/a 0, incomplete (no verdict) 1");
     EXPECT_EQ(stats.rejected, 1u);
     EXPECT_EQ(stats.accepted, 0u);
-    EXPECT_EQ(stats.notReviewed, 4u);
+    EXPECT_EQ(stats.notReviewed, 5u);
     EXPECT_EQ(stats.safetyStopped, 1u);
     EXPECT_EQ(stats.unreadable, 1u);
     EXPECT_EQ(rows[1].reviewState(), "rejected");

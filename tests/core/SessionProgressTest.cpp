@@ -109,3 +109,12 @@ TEST(SessionProgress, OlderFileWithEveryStepIsComplete)
 {
     EXPECT_TRUE(sessionProgress({0, 1, 2}, readingsAt({0, 1, 2}), {}, {}, false).isComplete());
 }
+
+TEST(SessionProgress, StopAfterEveryPlannedStepLeavesTheSweepComplete)
+{
+    SafetyStopRecord stop;
+    stop.timeUtc = "2026-01-01T10:09:00.000Z";
+    stop.step = 9; // an extra step beyond the plan
+    stop.rule = "output-va";
+    EXPECT_TRUE(sessionProgress({0, 1, 2}, readingsAt({0, 1, 2}), {stop}, {}, false).isComplete());
+}
