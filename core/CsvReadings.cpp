@@ -18,7 +18,12 @@ constexpr std::size_t maxErrors = 100;
 // where sums of squares overflow (a CSV of 1e300 A would make every fit "degenerate").
 constexpr double maxReadingValue = 1e6;
 
-enum class Column { Current, Voltage, UCurrent, UVoltage, Step, Time, Flags, Excluded, Provenance };
+enum class Column {
+    Current, Voltage, UCurrent, UVoltage, Step, Time, Flags, Excluded, Provenance,
+    // The primary side: values and their standard uncertainties, each optional per row.
+    PrimaryVoltage, PrimaryCurrent, PrimaryPower, PrimaryPowerFactor, PrimaryReactivePower,
+    UPrimaryVoltage, UPrimaryCurrent, UPrimaryPower, UPrimaryPowerFactor, UPrimaryReactivePower,
+};
 
 struct KnownColumn {
     std::string_view name;
@@ -29,6 +34,12 @@ constexpr KnownColumn knownColumns[] = {
     {"current_a", Column::Current}, {"voltage_v", Column::Voltage}, {"u_current_a", Column::UCurrent},
     {"u_voltage_v", Column::UVoltage}, {"step", Column::Step}, {"time_utc", Column::Time},
     {"flags", Column::Flags}, {"excluded", Column::Excluded},
+    {"primary_voltage_v", Column::PrimaryVoltage}, {"primary_current_a", Column::PrimaryCurrent},
+    {"primary_power_w", Column::PrimaryPower}, {"primary_power_factor", Column::PrimaryPowerFactor},
+    {"primary_reactive_power_var", Column::PrimaryReactivePower},
+    {"u_primary_voltage_v", Column::UPrimaryVoltage}, {"u_primary_current_a", Column::UPrimaryCurrent},
+    {"u_primary_power_w", Column::UPrimaryPower}, {"u_primary_power_factor", Column::UPrimaryPowerFactor},
+    {"u_primary_reactive_power_var", Column::UPrimaryReactivePower},
     // Who did what, as a session export writes it: kept in the session it came from, not imported.
     {"exclusion_reason", Column::Provenance}, {"excluded_by", Column::Provenance},
     {"superseded_reason", Column::Provenance}, {"recorded_by", Column::Provenance},
@@ -148,6 +159,7 @@ private:
     }
     bool parseHeader(int line, const std::vector<std::string_view> &cells);
     void parseRow(int line, const std::vector<std::string_view> &cells);
+    bool parsePrimaryCell(int line, const std::string &name, Column column, std::string_view cell, PrimaryReading &primary);
 
     ReadingsCsvParse m_result;
     std::vector<Column> m_columns;
@@ -164,7 +176,8 @@ bool Parser::parseHeader(int line, const std::vector<std::string_view> &cells)
                 match = &known;
         if (!match) {
             error(line, cell, "unknown column; expected current_a, voltage_v, u_current_a, u_voltage_v, step, "
-                              "time_utc, flags or excluded");
+                              "time_utc, flags, excluded, primary_voltage_v, primary_current_a, primary_power_w, "
+                              "primary_power_factor, primary_reactive_power_var or u_ before a primary column");
             good = false;
             continue;
         }
@@ -190,6 +203,47 @@ bool Parser::parseHeader(int line, const std::vector<std::string_view> &cells)
         m_result.hasVoltageUncertainty = m_result.hasVoltageUncertainty || c == Column::UVoltage;
     }
     return good;
+}
+
+// A primary-side cell: blank means "not read"; a value is finite, zero or above (RMS values,
+// power drawn), a power factor at most 1, an uncertainty above zero.
+bool Parser::parsePrimaryCell(int line, const std::string &name, Column column, std::string_view cell, PrimaryReading &primary)
+{
+    if (cell.empty())
+        return true;
+    const auto value = parseNumber(cell);
+    const bool isUncertainty = column >= Column::UPrimaryVoltage;
+    if (!value) {
+        error(line, name, "not a finite number: '" + printableText(cell, 40) + "' (use '.' as the decimal point, SI units)");
+        return false;
+    }
+    if (isUncertainty ? !(*value > 0.0) : *value < 0.0) {
+        error(line, name, std::string(isUncertainty ? "a standard uncertainty must be above zero" : "must be zero or above")
+                              + ", got " + printableText(cell, 40));
+        return false;
+    }
+    if (column == Column::PrimaryPowerFactor && *value > 1.0) {
+        error(line, name, "a power factor is between 0 and 1, got " + printableText(cell, 40));
+        return false;
+    }
+    if (!isUncertainty && *value > maxReadingValue) {
+        error(line, name, "is beyond any bench reading (at most 1e6), got " + printableText(cell, 40));
+        return false;
+    }
+    switch (column) {
+    case Column::PrimaryVoltage: primary.voltageV = value; break;
+    case Column::PrimaryCurrent: primary.currentA = value; break;
+    case Column::PrimaryPower: primary.powerW = value; break;
+    case Column::PrimaryPowerFactor: primary.powerFactor = value; break;
+    case Column::PrimaryReactivePower: primary.reactivePowerVar = value; break;
+    case Column::UPrimaryVoltage: primary.uVoltageV = value; break;
+    case Column::UPrimaryCurrent: primary.uCurrentA = value; break;
+    case Column::UPrimaryPower: primary.uPowerW = value; break;
+    case Column::UPrimaryPowerFactor: primary.uPowerFactor = value; break;
+    case Column::UPrimaryReactivePower: primary.uReactivePowerVar = value; break;
+    default: break;
+    }
+    return true;
 }
 
 void Parser::parseRow(int line, const std::vector<std::string_view> &cells)
@@ -267,6 +321,18 @@ void Parser::parseRow(int line, const std::vector<std::string_view> &cells)
             break;
         }
         case Column::Provenance: break;
+        case Column::PrimaryVoltage:
+        case Column::PrimaryCurrent:
+        case Column::PrimaryPower:
+        case Column::PrimaryPowerFactor:
+        case Column::PrimaryReactivePower:
+        case Column::UPrimaryVoltage:
+        case Column::UPrimaryCurrent:
+        case Column::UPrimaryPower:
+        case Column::UPrimaryPowerFactor:
+        case Column::UPrimaryReactivePower:
+            good = parsePrimaryCell(line, name, m_columns[i], cell, reading.primary) && good;
+            break;
         case Column::Excluded: {
             const auto excluded = parseBool(cell);
             if (!excluded) {

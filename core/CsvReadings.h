@@ -1,7 +1,10 @@
 // The readings CSV of DESIGN.md: a header row, then one point per line, comma separated,
 // '.' decimal point, SI units. Columns (any order): current_a, voltage_v (required),
 // u_current_a, u_voltage_v (optional standard uncertainties; a blank cell means "not known"),
-// and the export's step, time_utc, flags, excluded (optional). Tolerates a UTF-8 BOM, CRLF line
+// and the export's step, time_utc, flags, excluded (optional), and the primary side
+// primary_voltage_v, primary_current_a, primary_power_w, primary_power_factor,
+// primary_reactive_power_var with u_ before any of them for its standard uncertainty (each
+// optional, a blank cell meaning "not read"). Tolerates a UTF-8 BOM, CRLF line
 // ends, blank lines, spaces around cells and double-quoted cells. Never throws.
 #pragma once
 

@@ -22,6 +22,24 @@ enum ReadingFlag : std::uint32_t {
 
 std::string flagsToString(std::uint32_t flags); // "unstable|outlier", "" when none
 
+// What the primary-side meters read with a point, each value nullable (a bench may have none,
+// a voltmeter only, or a power analyser reading all of them). Units SI: V, A, W, var; the power
+// factor is |P|/S, 0..1. Each u* is the value's standard uncertainty (absent: not known).
+struct PrimaryReading {
+    std::optional<double> voltageV;          // V1, V RMS
+    std::optional<double> uVoltageV;
+    std::optional<double> currentA;          // I1, A RMS
+    std::optional<double> uCurrentA;
+    std::optional<double> powerW;            // P1, active power drawn, W
+    std::optional<double> uPowerW;
+    std::optional<double> powerFactor;       // P1/S1, 0..1
+    std::optional<double> uPowerFactor;
+    std::optional<double> reactivePowerVar;  // Q1, var (magnitude)
+    std::optional<double> uReactivePowerVar;
+
+    bool hasAny() const { return voltageV || currentA || powerW || powerFactor || reactivePowerVar; }
+};
+
 struct Reading {
     std::int64_t id = 0;             // session-store row id; 0 before it is stored
     int step = -1;                   // plan step index, -1 when not part of a plan
@@ -34,6 +52,7 @@ struct Reading {
     std::string rawText;             // the instruments' own text for this point
     bool excluded = false;           // left out of the fit: excluded, or superseded (reasons in the store)
     bool superseded = false;         // replaced by a retake of its step (then also `excluded`)
+    PrimaryReading primary;          // the primary side, when its meters were read
 };
 
 } // namespace sagline

@@ -7,6 +7,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
@@ -108,6 +109,24 @@ json verdictToJson(const SessionSummary &summary)
     return verdictJson(*summary.verdict);
 }
 
+// The primary-side columns, written only when some reading has a primary side (a session
+// without primary meters keeps the plain format).
+constexpr const char *primaryHeader = ",primary_voltage_v,u_primary_voltage_v,primary_current_a,u_primary_current_a,"
+                                      "primary_power_w,u_primary_power_w,primary_power_factor,u_primary_power_factor,"
+                                      "primary_reactive_power_var,u_primary_reactive_power_var";
+
+bool anyPrimary(const std::vector<Reading> &readings)
+{
+    return std::any_of(readings.begin(), readings.end(), [](const Reading &r) { return r.primary.hasAny(); });
+}
+
+std::string primaryCells(const PrimaryReading &p)
+{
+    return ',' + exact(p.voltageV) + ',' + exact(p.uVoltageV) + ',' + exact(p.currentA) + ',' + exact(p.uCurrentA) + ',' +
+           exact(p.powerW) + ',' + exact(p.uPowerW) + ',' + exact(p.powerFactor) + ',' + exact(p.uPowerFactor) + ',' +
+           exact(p.reactivePowerVar) + ',' + exact(p.uReactivePowerVar);
+}
+
 } // namespace
 
 std::optional<Interval> seriesResistanceInterval(const SessionSummary &summary)
@@ -123,12 +142,14 @@ std::optional<Interval> seriesResistanceInterval(const SessionSummary &summary)
 
 std::string readingsToCsv(const std::vector<Reading> &readings)
 {
-    std::string out = "current_a,voltage_v,u_current_a,u_voltage_v,step,time_utc,flags,excluded\r\n";
+    const bool primary = anyPrimary(readings);
+    std::string out = std::string("current_a,voltage_v,u_current_a,u_voltage_v,step,time_utc,flags,excluded") +
+                      (primary ? primaryHeader : "") + "\r\n";
     for (const Reading &reading : readings) {
         out += exact(reading.currentA) + ',' + exact(reading.voltageV) + ',' + exact(reading.uCurrentA) + ',' +
                exact(reading.uVoltageV) + ',' + (reading.step >= 0 ? std::to_string(reading.step) : std::string()) + ',' +
                csvField(reading.timeUtc) + ',' + csvField(flagsToString(reading.flags)) + ',' +
-               (reading.excluded ? "true" : "false") + "\r\n";
+               (reading.excluded ? "true" : "false") + (primary ? primaryCells(reading.primary) : std::string()) + "\r\n";
     }
     return out;
 }
@@ -136,8 +157,10 @@ std::string readingsToCsv(const std::vector<Reading> &readings)
 std::string sessionReadingsToCsv(const SessionSummary &summary)
 {
     // The import columns first (import reads this back), then who did what, which import skips.
-    std::string out = "current_a,voltage_v,u_current_a,u_voltage_v,step,time_utc,flags,excluded,exclusion_reason,"
-                      "excluded_by,superseded_reason,recorded_by,recorded_account\r\n";
+    const bool primary = anyPrimary(summary.readings);
+    std::string out = std::string("current_a,voltage_v,u_current_a,u_voltage_v,step,time_utc,flags,excluded") +
+                      (primary ? primaryHeader : "") +
+                      ",exclusion_reason,excluded_by,superseded_reason,recorded_by,recorded_account\r\n";
     for (std::size_t i = 0; i < summary.readings.size(); ++i) {
         const Reading &reading = summary.readings[i];
         const ExclusionRecord *exclusion = summary.latestExclusion(reading.id);
@@ -147,7 +170,8 @@ std::string sessionReadingsToCsv(const SessionSummary &summary)
         out += exact(reading.currentA) + ',' + exact(reading.voltageV) + ',' + exact(reading.uCurrentA) + ',' +
                exact(reading.uVoltageV) + ',' + (reading.step >= 0 ? std::to_string(reading.step) : std::string()) + ',' +
                csvField(reading.timeUtc) + ',' + csvField(flagsToString(reading.flags)) + ',' +
-               (reading.excluded ? "true" : "false") + ',' + csvField(excludedByRecord ? exclusion->reason : "") + ',' +
+               (reading.excluded ? "true" : "false") + (primary ? primaryCells(reading.primary) : std::string()) + ',' +
+               csvField(excludedByRecord ? exclusion->reason : "") + ',' +
                csvField(excludedByRecord ? exclusion->author : "") + ',' + csvField(retake ? retake->reason : "") + ',' +
                csvField(actor.person) + ',' + csvField(actor.osAccount) + "\r\n";
     }

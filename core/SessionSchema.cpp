@@ -81,7 +81,7 @@ struct Migration {
     const char *sql;
 };
 
-constexpr std::array<Migration, 2> migrations{{
+constexpr std::array<Migration, 3> migrations{{
     {2, R"sql(
 CREATE TABLE sign_off (
     id INTEGER PRIMARY KEY,
@@ -138,6 +138,23 @@ CREATE TABLE reopen (
     os_account TEXT NOT NULL
 );
 )sql"},
+    // The primary side as data: what the supply-side meters read with a reading, each nullable,
+    // with its standard uncertainty. `id` is the reading's id (one row per reading at most).
+    {4, R"sql(
+CREATE TABLE primary_reading (
+    id INTEGER PRIMARY KEY REFERENCES reading(id),
+    voltage_v REAL,
+    u_voltage_v REAL,
+    current_a REAL,
+    u_current_a REAL,
+    power_w REAL,
+    u_power_w REAL,
+    power_factor REAL,
+    u_power_factor REAL,
+    reactive_power_var REAL,
+    u_reactive_power_var REAL
+);
+)sql"},
 }};
 
 struct SchemaObject {
@@ -146,7 +163,7 @@ struct SchemaObject {
     int sinceVersion;
 };
 
-constexpr std::array<SchemaObject, 12> expectedObjects{{
+constexpr std::array<SchemaObject, 13> expectedObjects{{
     {"table", "session", 1},
     {"table", "temperature", 1},
     {"table", "instrument", 1},
@@ -159,6 +176,7 @@ constexpr std::array<SchemaObject, 12> expectedObjects{{
     {"table", "supersession", 3},
     {"table", "sweep_event", 3},
     {"table", "reopen", 3},
+    {"table", "primary_reading", 4},
 }};
 
 StoreStatus setUserVersion(sqlite3 *db, int version)

@@ -21,7 +21,9 @@ inline constexpr std::uint32_t sessionApplicationId = 0x53474C4Eu;
 //   2  sign_off (review sign-offs); index on exclusion(reading_id)
 //   3  person and OS account on every record; sealed sign-offs (digest, content marks);
 //      supersession (retakes), sweep_event, reopen
-inline constexpr int sessionSchemaVersion = 3;
+//   4  primary_reading (primary voltage, current, active power, power factor, reactive power,
+//      each nullable with its standard uncertainty)
+inline constexpr int sessionSchemaVersion = 4;
 
 // Creates the current schema in an empty database, inside the caller's transaction.
 StoreStatus createSessionSchema(sqlite3 *db);

@@ -10,6 +10,7 @@
 #include <array>
 #include <cstring>
 #include <map>
+#include <vector>
 
 namespace sagline {
 
@@ -35,6 +36,12 @@ constexpr std::array<DigestTable, 11> digestTables{{
     {"reopen", "id, time_utc, sign_off_id, reason, person, os_account"},
 }};
 constexpr const char *digestFormat = "sagline-seal-1";
+// Tables added after format 1: covered when a sign-off's content marks name them (every
+// sign-off made since they exist), so older seals still check against what they covered.
+constexpr std::array<DigestTable, 1> laterDigestTables{{
+    {"primary_reading", "id, voltage_v, u_voltage_v, current_a, u_current_a, power_w, u_power_w, power_factor, "
+                        "u_power_factor, reactive_power_var, u_reactive_power_var"},
+}};
 
 // Typed and length-prefixed, so no two different contents encode alike ("ab","c" vs "a","bc").
 void encodeText(Sha256 &hash, char tag, std::string_view text)
@@ -81,6 +88,10 @@ std::string marksText(const Marks &marks)
         const auto found = marks.find(table.name);
         text += std::string(text.empty() ? "" : ";") + table.name + "=" + std::to_string(found == marks.end() ? 0 : found->second);
     }
+    for (const DigestTable &table : laterDigestTables) {
+        if (const auto found = marks.find(table.name); found != marks.end())
+            text += std::string(";") + table.name + "=" + std::to_string(found->second);
+    }
     return text;
 }
 
@@ -112,7 +123,9 @@ std::optional<Marks> parseMarks(const std::string &text)
 StoreResult<Marks> readMarks(sqlite3 *db)
 {
     Marks marks;
-    for (const DigestTable &table : digestTables) {
+    std::vector<DigestTable> tables(digestTables.begin(), digestTables.end());
+    tables.insert(tables.end(), laterDigestTables.begin(), laterDigestTables.end());
+    for (const DigestTable &table : tables) {
         SqliteStatement query;
         int rc = query.prepare(db, std::string("SELECT coalesce(max(id), 0) FROM ") + table.name);
         if (rc == SQLITE_OK)
@@ -128,7 +141,12 @@ StoreResult<std::string> digestOf(sqlite3 *db, const Marks &marks, const SignOff
 {
     Sha256 hash;
     hash.update(digestFormat);
-    for (const DigestTable &table : digestTables) {
+    std::vector<DigestTable> tables(digestTables.begin(), digestTables.end());
+    for (const DigestTable &table : laterDigestTables) {
+        if (marks.count(table.name))
+            tables.push_back(table);
+    }
+    for (const DigestTable &table : tables) {
         const auto mark = marks.find(table.name);
         const std::int64_t last = mark == marks.end() ? 0 : mark->second;
         encodeText(hash, 'S', table.name);

@@ -163,6 +163,10 @@ private:
                                               const std::string &author);
     std::string now() const;
     StoreStatus checkReading(const Reading &reading) const;
+    // appendReadings' primary sides (readings that have one) inside its transaction; an SQLite code.
+    int insertPrimarySides(const std::vector<Reading> &readings, const std::vector<std::int64_t> &ids);
+    // Fills each reading's primary side from the primary_reading table (readings sorted by id).
+    StoreStatus attachPrimarySides(std::vector<Reading> &readings) const;
     // appendReadings' exclusions (readings index, reason) inside its transaction; an SQLite code.
     int insertExclusions(const std::vector<std::pair<std::size_t, std::string>> &exclusions,
                          const std::vector<std::int64_t> &ids, const std::string &author, const std::string &stamp);

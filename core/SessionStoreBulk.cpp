@@ -94,6 +94,8 @@ StoreResult<std::vector<std::int64_t>> SessionStore::appendReadings(const std::v
             rc = SQLITE_OK;
         insert.resetKeepingBindings();
     }
+    if (rc == SQLITE_OK)
+        rc = insertPrimarySides(readings, ids);
     if (rc == SQLITE_OK && !exclusions.empty())
         rc = insertExclusions(exclusions, ids, marked->author, stamp);
     if (rc == SQLITE_OK)
@@ -101,6 +103,24 @@ StoreResult<std::vector<std::int64_t>> SessionStore::appendReadings(const std::v
     if (rc != SQLITE_OK)
         return Result::failure(sqliteFailure(m_db.get(), rc, "cannot record the readings; none was recorded"));
     return ids;
+}
+
+int SessionStore::insertPrimarySides(const std::vector<Reading> &readings, const std::vector<std::int64_t> &ids)
+{
+    SqliteStatement insert;
+    for (std::size_t i = 0; i < readings.size(); ++i) {
+        if (!readings[i].primary.hasAny())
+            continue;
+        if (!insert.isValid()) {
+            if (const int rc = insert.prepare(m_db.get(), storerows::insertPrimarySql); rc != SQLITE_OK)
+                return rc;
+        }
+        storerows::bindPrimary(insert, ids[i], readings[i].primary);
+        if (const int rc = insert.step(); rc != SQLITE_DONE)
+            return rc;
+        insert.resetKeepingBindings();
+    }
+    return SQLITE_OK;
 }
 
 int SessionStore::insertExclusions(const std::vector<std::pair<std::size_t, std::string>> &exclusions,

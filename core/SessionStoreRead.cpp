@@ -138,7 +138,49 @@ StoreResult<std::vector<Reading>> SessionStore::readings() const
             reading.excluded = (exclusion != excludedById.end() && exclusion->second) || reading.superseded;
             return problem;
         });
+    if (result.ok()) {
+        if (StoreStatus status = attachPrimarySides(result.value); !status.ok())
+            return StoreResult<std::vector<Reading>>::failure(status);
+    }
     return result;
+}
+
+StoreStatus SessionStore::attachPrimarySides(std::vector<Reading> &readings) const
+{
+    SqliteStatement query;
+    int rc = query.prepare(m_db.get(), "SELECT id, voltage_v, u_voltage_v, current_a, u_current_a, power_w, u_power_w, "
+                                       "power_factor, u_power_factor, reactive_power_var, u_reactive_power_var "
+                                       "FROM primary_reading ORDER BY id");
+    if (rc != SQLITE_OK)
+        return sqliteFailure(m_db.get(), rc, "cannot read the primary-side readings");
+    std::size_t next = 0; // both lists ascend by id: one merge walk
+    while ((rc = query.step()) == SQLITE_ROW) {
+        const std::int64_t id = query.columnInt64(0);
+        const std::string where = "primary_reading row " + std::to_string(id) + ": ";
+        while (next < readings.size() && readings[next].id < id)
+            ++next;
+        if (next == readings.size() || readings[next].id != id)
+            return StoreStatus::failure(StoreCode::Corrupt, where + "belongs to no reading");
+        PrimaryReading &p = readings[next].primary;
+        std::optional<double> *fields[] = {&p.voltageV, &p.uVoltageV, &p.currentA, &p.uCurrentA, &p.powerW,
+                                           &p.uPowerW, &p.powerFactor, &p.uPowerFactor, &p.reactivePowerVar,
+                                           &p.uReactivePowerVar};
+        for (int column = 1; column <= 10; ++column) {
+            const int type = query.columnType(column);
+            if (type != SQLITE_INTEGER && type != SQLITE_FLOAT && type != SQLITE_NULL)
+                return StoreStatus::failure(StoreCode::Corrupt, where + "holds text or bytes, not a number");
+            const auto value = query.columnOptionalDouble(column);
+            // Every primary value is an RMS quantity, a power drawn, or its uncertainty: >= 0.
+            if (value && (!std::isfinite(*value) || *value < 0.0))
+                return StoreStatus::failure(StoreCode::Corrupt, where + "a value is not a finite number, zero or above");
+            *fields[column - 1] = value;
+        }
+        if (p.powerFactor && *p.powerFactor > 1.0)
+            return StoreStatus::failure(StoreCode::Corrupt, where + "a power factor above 1");
+    }
+    if (rc != SQLITE_DONE)
+        return sqliteFailure(m_db.get(), rc, "cannot read the primary-side readings");
+    return StoreStatus::success();
 }
 
 StoreResult<std::vector<Reading>> SessionStore::includedReadings() const

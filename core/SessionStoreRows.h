@@ -29,6 +29,18 @@ inline void bindReading(SqliteStatement &insert, int first, const Reading &readi
     insert.bindUncopied(first + 8, actor.person).bindUncopied(first + 9, actor.osAccount);
 }
 
+// The primary side of a reading, one row keyed by the reading's id (schema 4).
+constexpr const char *insertPrimarySql =
+    "INSERT INTO primary_reading (id, voltage_v, u_voltage_v, current_a, u_current_a, power_w, u_power_w, power_factor, "
+    "u_power_factor, reactive_power_var, u_reactive_power_var) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)";
+
+inline void bindPrimary(SqliteStatement &insert, std::int64_t readingId, const PrimaryReading &p)
+{
+    insert.bind(1, readingId).bind(2, p.voltageV).bind(3, p.uVoltageV).bind(4, p.currentA).bind(5, p.uCurrentA);
+    insert.bind(6, p.powerW).bind(7, p.uPowerW).bind(8, p.powerFactor).bind(9, p.uPowerFactor);
+    insert.bind(10, p.reactivePowerVar).bind(11, p.uReactivePowerVar);
+}
+
 inline bool isBlank(const std::string &text)
 {
     return text.find_first_not_of(" \t\r\n") == std::string::npos;

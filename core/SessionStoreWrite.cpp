@@ -44,6 +44,20 @@ StoreStatus SessionStore::checkReading(const Reading &reading) const
                                     "overload or not-a-number");
     if (!isFiniteOrAbsent(reading.uCurrentA) || !isFiniteOrAbsent(reading.uVoltageV))
         return StoreStatus::failure(StoreCode::InvalidArgument, "reading: standard uncertainties must be finite and not negative");
+    const PrimaryReading &p = reading.primary;
+    for (const auto &[value, name] : {std::pair{&p.voltageV, "primary voltage"}, std::pair{&p.uVoltageV, "u(primary voltage)"},
+                                      std::pair{&p.currentA, "primary current"}, std::pair{&p.uCurrentA, "u(primary current)"},
+                                      std::pair{&p.powerW, "primary power"}, std::pair{&p.uPowerW, "u(primary power)"},
+                                      std::pair{&p.powerFactor, "primary power factor"},
+                                      std::pair{&p.uPowerFactor, "u(primary power factor)"},
+                                      std::pair{&p.reactivePowerVar, "primary reactive power"},
+                                      std::pair{&p.uReactivePowerVar, "u(primary reactive power)"}}) {
+        if (!isFiniteOrAbsent(*value))
+            return StoreStatus::failure(StoreCode::InvalidArgument,
+                                        std::string("reading: ") + name + " must be a finite number, zero or above");
+    }
+    if (p.powerFactor && *p.powerFactor > 1.0)
+        return StoreStatus::failure(StoreCode::InvalidArgument, "reading: primary power factor must be between 0 and 1");
     return StoreStatus::success();
 }
 
@@ -64,8 +78,24 @@ StoreResult<std::int64_t> SessionStore::appendReading(const Reading &reading)
     if (StoreStatus status = checkReading(reading); !status.ok())
         return Result::failure(status);
     const std::string time = reading.timeUtc.empty() ? now() : reading.timeUtc;
-    return insertRow(m_db.get(), insertReadingSql.c_str(), "reading",
-                     [&](SqliteStatement &insert) { storerows::bindReading(insert, 1, reading, time, m_actor); });
+    if (!reading.primary.hasAny())
+        return insertRow(m_db.get(), insertReadingSql.c_str(), "reading",
+                         [&](SqliteStatement &insert) { storerows::bindReading(insert, 1, reading, time, m_actor); });
+    // With its primary side: both rows in one durable transaction, or neither.
+    SqliteTransaction transaction(m_db.get());
+    if (transaction.beginCode() != SQLITE_OK)
+        return Result::failure(sqliteFailure(m_db.get(), transaction.beginCode(), "cannot record the reading; nothing was recorded"));
+    auto id = insertRow(m_db.get(), insertReadingSql.c_str(), "reading",
+                        [&](SqliteStatement &insert) { storerows::bindReading(insert, 1, reading, time, m_actor); });
+    if (!id.ok())
+        return id;
+    auto primary = insertRow(m_db.get(), storerows::insertPrimarySql, "reading's primary side",
+                             [&](SqliteStatement &insert) { storerows::bindPrimary(insert, id.value, reading.primary); });
+    if (!primary.ok())
+        return primary;
+    if (const int rc = transaction.commit(); rc != SQLITE_OK)
+        return Result::failure(sqliteFailure(m_db.get(), rc, "cannot record the reading; nothing was recorded"));
+    return id;
 }
 
 StoreResult<std::int64_t> SessionStore::insertExclusion(std::int64_t readingId, bool excluded, const std::string &reason,

@@ -175,6 +175,21 @@ void analyse(SessionSummary &summary)
     summary.verdict = std::move(result.verdict);
 }
 
+// Losses, efficiency and the equivalent circuit from the primary readings, beside the fit.
+void analysePrimary(SessionSummary &summary)
+{
+    const bool anyPrimary = std::any_of(summary.readings.begin(), summary.readings.end(),
+                                        [](const Reading &r) { return r.primary.hasAny(); });
+    if (!summary.setup || !anyPrimary)
+        return;
+    const AnalysisInput analysisInput = analysisInputFor(*summary.setup);
+    PrimarySideInput input = primarySideInputFor(summary.setup->nameplate);
+    input.regulationPowerFactor = summary.options.regulationPowerFactor;
+    input.leading = summary.options.leadingPowerFactor;
+    input.regulationBase = analysisInput.regulationBase;
+    summary.primarySide = analysePrimarySide(summary.readings, summary.fit.ok() ? &summary.fit : nullptr, &analysisInput, input);
+}
+
 // Fills the choices the caller left open from the session's latest analysis-settings record.
 void applyRecordedSettings(SessionSummary &summary)
 {
@@ -244,10 +259,16 @@ StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const Re
     for (const StoredPlanStep &step : summary.plan.steps)
         plannedSteps.push_back(step.index);
     summary.progress = sessionProgress(plannedSteps, summary.readings, summary.safetyStops, summary.sweepEvents, false);
-    summary.fit = fitReadings(summary.readings, options.method,
-                              fitOptionsFor(summary.setup ? summary.setup->meters : std::nullopt));
+    const double ratedPrimaryV = summary.setup ? summary.setup->nameplate.primaryVoltageV : 0.0;
+    summary.supply = assessSupply(summary.readings, ratedPrimaryV, options.fitVoltages, options.supplyDriftTolerancePercent);
+    const FitOptions fitOptions = fitOptionsFor(summary.setup ? summary.setup->meters : std::nullopt);
+    if (summary.supply.fitVoltages == FitVoltages::Referred)
+        summary.fit = fitReadings(referToRatedSupply(summary.readings, ratedPrimaryV), options.method, fitOptions);
+    else
+        summary.fit = fitReadings(summary.readings, options.method, fitOptions);
     applyRecordedSettings(summary);
     analyse(summary);
+    analysePrimary(summary);
     return summary;
 }
 

@@ -7,6 +7,7 @@
 #include "ConformityAssessment.h"
 #include "ConformityDecision.h"
 #include "FitSummary.h"
+#include "PrimarySideAnalysis.h"
 #include "Reading.h"
 #include "ResultAnalysis.h"
 #include "SessionProgress.h"
@@ -61,6 +62,11 @@ struct ReviewOptions {
                                                                 // (shown; judged at only when set)
     std::optional<double> windingTemperatureC;                  // default: the session's latest winding temperature
     std::optional<TemperatureConstant> temperatureConstant;     // default: from the winding material
+    // The primary side (core/SupplyReferral.h, core/PrimarySideAnalysis.h).
+    FitVoltages fitVoltages = FitVoltages::Referred;            // referred to rated V1 when V1 was measured
+    double supplyDriftTolerancePercent = defaultSupplyDriftTolerancePercent;
+    double regulationPowerFactor = defaultRegulationPowerFactor; // regulation predicted at this cos φ
+    bool leadingPowerFactor = false;                            // ... lagging unless this is set
 };
 
 // 75 °C: IEC 60076-1's reference temperature (from memory, FACTS.md §3), used for small
@@ -100,6 +106,8 @@ struct SessionSummary {
     std::string analysisProblem;             // why there is no analysis, "" when there is
     bool referenceTemperatureDefaulted = false; // T_ref is defaultReferenceTemperatureC, not chosen
     std::optional<SpecificationVerdict> verdict; // with the analysis: outcome (or not-judged), limits
+    SupplyAssessment supply;                 // the supply over the sweep and what the fit was made on
+    std::optional<PrimarySideResult> primarySide; // when a reading has primary values and the setup parsed
 
     std::size_t excludedCount() const;
     // The latest recorded temperature of a kind, °C.

@@ -2,8 +2,19 @@
 
 #include <algorithm>
 #include <cmath>
+#include <complex>
 
 namespace sagline {
+
+double defaultCoreLossFraction(Construction construction)
+{
+    switch (construction) {
+    case Construction::Laminated: return 0.05;
+    case Construction::Toroidal: return 0.015;
+    case Construction::Other: return 0.03;
+    }
+    return 0.03;
+}
 
 TransformerParameters transformerParametersFor(const Setup &setup, double magnetizingFraction, double ratedRiseK)
 {
@@ -19,6 +30,8 @@ TransformerParameters transformerParametersFor(const Setup &setup, double magnet
     p.seriesResistanceOhm = (v2nl - v2fl) / i2rated;
     p.temperatureConstantC = n.windingMaterial == WindingMaterial::Aluminium ? 225.0 : 234.5;
     p.magnetizingCurrentA = magnetizingFraction * n.ratedPowerVa / n.primaryVoltageV;
+    p.coreLossW = defaultCoreLossFraction(n.construction) * n.ratedPowerVa;
+    p.leakageReactanceOhm = defaultLeakageReactanceToResistance * p.seriesResistanceOhm;
     const double ratedLoss = i2rated * i2rated * p.seriesResistanceOhm;
     p.thermalResistanceKPerW = ratedLoss > 0.0 ? ratedRiseK / ratedLoss : 0.0;
     return p;
@@ -55,16 +68,42 @@ TransformerState TransformerModel::state() const
     s.supplied = m_supplied;
     if (!m_supplied)
         return s;
-    const double v0 = m_parameters.noLoadVoltageV();
+    using Complex = std::complex<double>;
+    const TransformerParameters &p = m_parameters;
+    const double a = p.turnsRatio;
+    // The shunt branch across the primary terminals, fixed by the readings at the rated supply.
+    Complex shunt(0.0, 0.0);
+    if (p.coreLossW > 0.0)
+        shunt += 1.0 / (p.primaryVoltageV * p.primaryVoltageV / p.coreLossW);
+    if (p.magnetizingCurrentA > 0.0)
+        shunt += 1.0 / Complex(0.0, p.primaryVoltageV / p.magnetizingCurrentA);
+    // The series branch and load, referred to the primary (a²·Z).
+    const Complex series(s.seriesResistanceOhm + (m_loadOhm ? *m_loadOhm : 0.0), p.leakageReactanceOhm);
+    const Complex admittance = shunt + (m_loadOhm ? 1.0 / (a * a * series) : Complex(0.0, 0.0));
+    const Complex supply(p.supplyResistanceOhm, p.supplyReactanceOhm);
+    Complex v1(p.primaryVoltageV, 0.0);
+    Complex i1(0.0, 0.0);
+    if (std::abs(admittance) > 0.0) {
+        const Complex inner = 1.0 / admittance;
+        i1 = p.primaryVoltageV / (supply + inner);
+        v1 = i1 * inner;
+    }
     if (m_loadOhm) {
-        s.secondaryCurrentA = v0 / (*m_loadOhm + s.seriesResistanceOhm);
+        const Complex i2 = (v1 / a) / series;
+        s.secondaryCurrentA = std::abs(i2);
         s.secondaryVoltageV = s.secondaryCurrentA * *m_loadOhm;
     } else {
-        s.secondaryVoltageV = v0;
+        s.secondaryVoltageV = std::abs(v1) / a;
     }
     s.copperLossW = s.secondaryCurrentA * s.secondaryCurrentA * s.seriesResistanceOhm;
-    const double referred = s.secondaryCurrentA / m_parameters.turnsRatio;
-    s.primaryCurrentA = std::hypot(referred, m_parameters.magnetizingCurrentA);
+    const Complex power = v1 * std::conj(i1);
+    s.primaryVoltageV = std::abs(v1);
+    s.primaryCurrentA = std::abs(i1);
+    s.primaryPowerW = power.real();
+    s.primaryReactivePowerVar = std::abs(power.imag());
+    const double apparent = s.primaryVoltageV * s.primaryCurrentA;
+    s.primaryPowerFactor = apparent > 0.0 ? std::min(1.0, s.primaryPowerW / apparent) : 1.0;
+    s.coreLossW = p.coreLossW * std::norm(v1) / (p.primaryVoltageV * p.primaryVoltageV);
     return s;
 }
 

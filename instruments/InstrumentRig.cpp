@@ -80,8 +80,7 @@ const RoleConfig *InstrumentRig::roleConfig(MeterRole role) const
 
 QString InstrumentRig::validate() const
 {
-    for (MeterRole role : {MeterRole::SecondaryVoltage, MeterRole::SecondaryCurrent, MeterRole::PrimaryVoltage,
-                           MeterRole::PrimaryCurrent}) {
+    for (MeterRole role : allMeterRoles()) {
         int servedBy = 0;
         for (ScpiInstrument *instrument : m_instruments)
             servedBy += instrument->roleConfig(role) ? 1 : 0;
@@ -149,7 +148,7 @@ QList<InstrumentIdentityRecord> InstrumentRig::records() const
                             .arg(role.accuracy.percentOfReading)
                             .arg(role.accuracy.counts)
                             .arg(role.resolution)
-                            .arg(QString::fromStdString(unitSymbol(roleUnit(role.role))), role.queryCommand);
+                            .arg(roleUnitSymbol(role.role), role.queryCommand);
         }
         if (instrument == m_loadInstrument)
             keys << QStringLiteral("load");

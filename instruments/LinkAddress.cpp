@@ -184,7 +184,7 @@ InstrumentRig *makeRig(const RigAddresses &addresses, QString *error, QObject *p
     return rig;
 }
 
-InstrumentRig *makeVirtualBenchRig(VirtualBench *bench, bool singleMeter, QObject *parent)
+InstrumentRig *makeVirtualBenchRig(VirtualBench *bench, bool singleMeter, QObject *parent, bool primaryAnalyser)
 {
     auto *rig = new InstrumentRig(parent);
     auto roleFor = [bench](MeterRole role) {
@@ -210,6 +210,27 @@ InstrumentRig *makeVirtualBenchRig(VirtualBench *bench, bool singleMeter, QObjec
         ammeter->setRoles({roleFor(MeterRole::SecondaryCurrent)});
         rig->addInstrument(voltmeter);
         rig->addInstrument(ammeter);
+    }
+    if (primaryAnalyser) {
+        auto *analyser = new ScpiInstrument(QStringLiteral("primary analyser"), new VirtualBenchLink(bench->primaryMeter()));
+        QList<RoleConfig> roles;
+        for (MeterRole role : {MeterRole::PrimaryVoltage, MeterRole::PrimaryCurrent, MeterRole::PrimaryPower,
+                               MeterRole::PrimaryReactivePower}) {
+            RoleConfig config = defaultRoleConfig(role);
+            config.configureCommands.clear(); // one instrument, several functions: no switching
+            if (role == MeterRole::PrimaryVoltage)
+                config.resolution = 0.01;
+            else if (role == MeterRole::PrimaryCurrent)
+                config.resolution = 0.0001;
+            else if (role == MeterRole::PrimaryPower)
+                config.accuracy = bench->options().primaryPower.accuracy, config.resolution = bench->options().primaryPower.resolution;
+            else
+                config.accuracy = bench->options().primaryReactivePower.accuracy,
+                config.resolution = bench->options().primaryReactivePower.resolution;
+            roles << config;
+        }
+        analyser->setRoles(roles);
+        rig->addInstrument(analyser);
     }
     rig->setLoadInstrument(new ScpiInstrument(QStringLiteral("load"), new VirtualBenchLink(bench->loadInstrument())));
     return rig;

@@ -45,7 +45,9 @@ struct RigAddresses {
 // Builds the rig for the given addresses, or says which address is wrong.
 InstrumentRig *makeRig(const RigAddresses &addresses, QString *error, QObject *parent = nullptr);
 // The virtual bench's rig, in process: a voltmeter and an ammeter (or the two-channel power
-// meter when `singleMeter`) and the programmable load.
-InstrumentRig *makeVirtualBenchRig(VirtualBench *bench, bool singleMeter, QObject *parent = nullptr);
+// meter when `singleMeter`) and the programmable load; with `primaryAnalyser` also the mains-side
+// analyser serving the primary voltage, current, active and reactive power.
+InstrumentRig *makeVirtualBenchRig(VirtualBench *bench, bool singleMeter, QObject *parent = nullptr,
+                                   bool primaryAnalyser = false);
 
 } // namespace sagline

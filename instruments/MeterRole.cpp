@@ -11,6 +11,9 @@ QString roleName(MeterRole role)
     case MeterRole::SecondaryCurrent: return QStringLiteral("secondary ammeter");
     case MeterRole::PrimaryVoltage: return QStringLiteral("primary voltmeter");
     case MeterRole::PrimaryCurrent: return QStringLiteral("primary ammeter");
+    case MeterRole::PrimaryPower: return QStringLiteral("primary power meter");
+    case MeterRole::PrimaryPowerFactor: return QStringLiteral("primary power-factor meter");
+    case MeterRole::PrimaryReactivePower: return QStringLiteral("primary reactive-power meter");
     }
     return QStringLiteral("meter");
 }
@@ -22,14 +25,28 @@ QString roleKey(MeterRole role)
     case MeterRole::SecondaryCurrent: return QStringLiteral("secondary_current");
     case MeterRole::PrimaryVoltage: return QStringLiteral("primary_voltage");
     case MeterRole::PrimaryCurrent: return QStringLiteral("primary_current");
+    case MeterRole::PrimaryPower: return QStringLiteral("primary_power");
+    case MeterRole::PrimaryPowerFactor: return QStringLiteral("primary_power_factor");
+    case MeterRole::PrimaryReactivePower: return QStringLiteral("primary_reactive_power");
     }
     return {};
 }
 
+QList<MeterRole> allMeterRoles()
+{
+    return {MeterRole::SecondaryVoltage, MeterRole::SecondaryCurrent, MeterRole::PrimaryVoltage, MeterRole::PrimaryCurrent,
+            MeterRole::PrimaryPower, MeterRole::PrimaryPowerFactor, MeterRole::PrimaryReactivePower};
+}
+
+QList<MeterRole> primaryMeterRoles()
+{
+    return {MeterRole::PrimaryVoltage, MeterRole::PrimaryCurrent, MeterRole::PrimaryPower, MeterRole::PrimaryPowerFactor,
+            MeterRole::PrimaryReactivePower};
+}
+
 std::optional<MeterRole> roleFromKey(const QString &key)
 {
-    for (MeterRole role : {MeterRole::SecondaryVoltage, MeterRole::SecondaryCurrent, MeterRole::PrimaryVoltage,
-                           MeterRole::PrimaryCurrent}) {
+    for (MeterRole role : allMeterRoles()) {
         if (roleKey(role) == key)
             return role;
     }
@@ -38,7 +55,23 @@ std::optional<MeterRole> roleFromKey(const QString &key)
 
 Unit roleUnit(MeterRole role)
 {
-    return (role == MeterRole::SecondaryVoltage || role == MeterRole::PrimaryVoltage) ? Unit::Volt : Unit::Ampere;
+    switch (role) {
+    case MeterRole::SecondaryVoltage:
+    case MeterRole::PrimaryVoltage: return Unit::Volt;
+    case MeterRole::SecondaryCurrent:
+    case MeterRole::PrimaryCurrent: return Unit::Ampere;
+    case MeterRole::PrimaryPower: return Unit::Watt;
+    case MeterRole::PrimaryPowerFactor:
+    case MeterRole::PrimaryReactivePower: return Unit::None;
+    }
+    return Unit::None;
+}
+
+QString roleUnitSymbol(MeterRole role)
+{
+    if (role == MeterRole::PrimaryReactivePower)
+        return QStringLiteral("var");
+    return QString::fromStdString(unitSymbol(roleUnit(role)));
 }
 
 bool roleIsRequired(MeterRole role)
@@ -73,7 +106,15 @@ RoleConfig defaultRoleConfig(MeterRole role)
 {
     RoleConfig config;
     config.role = role;
-    if (roleUnit(role) == Unit::Volt) {
+    if (role == MeterRole::PrimaryPower || role == MeterRole::PrimaryPowerFactor || role == MeterRole::PrimaryReactivePower) {
+        config.queryCommand = role == MeterRole::PrimaryPower         ? QStringLiteral("MEASure:POWer:AC?")
+                              : role == MeterRole::PrimaryPowerFactor ? QStringLiteral("MEASure:POWer:AC:PFACtor?")
+                                                                      : QStringLiteral("MEASure:POWer:AC:REACtive?");
+        config.accuracy = role == MeterRole::PrimaryPowerFactor ? AccuracySpec{0.0, 5.0}
+                          : role == MeterRole::PrimaryPower     ? AccuracySpec{0.5, 3.0}
+                                                                : AccuracySpec{1.0, 3.0};
+        config.resolution = role == MeterRole::PrimaryPowerFactor ? 0.001 : 0.01;
+    } else if (roleUnit(role) == Unit::Volt) {
         config.queryCommand = QStringLiteral("MEASure:VOLTage:AC?");
         config.configureCommands = {QStringLiteral("CONFigure:VOLTage:AC")};
         config.accuracy = {0.5, 3.0};

@@ -13,12 +13,22 @@
 
 namespace sagline {
 
-enum class MeterRole { SecondaryVoltage, SecondaryCurrent, PrimaryVoltage, PrimaryCurrent };
+// The primary roles are optional; a power analyser on the primary side serves several of them
+// (voltage, current, active power and reactive power or power factor) on one instrument.
+enum class MeterRole {
+    SecondaryVoltage, SecondaryCurrent, PrimaryVoltage, PrimaryCurrent,
+    PrimaryPower, PrimaryPowerFactor, PrimaryReactivePower,
+};
+
+// Every role, the secondary pair first; the primary roles alone.
+QList<MeterRole> allMeterRoles();
+QList<MeterRole> primaryMeterRoles();
 
 QString roleName(MeterRole role);          // "secondary voltmeter", ...
 QString roleKey(MeterRole role);           // "secondary_voltage", ... (files, command line)
 std::optional<MeterRole> roleFromKey(const QString &key);
-Unit roleUnit(MeterRole role);             // Volt or Ampere
+Unit roleUnit(MeterRole role);             // Volt, Ampere, Watt; None for power factor and reactive power
+QString roleUnitSymbol(MeterRole role);    // "V", "A", "W", "", "var"
 bool roleIsRequired(MeterRole role);       // the secondary roles are; the primary ones are optional
 
 // A meter's accuracy as makers state it: ±(percentOfReading % of reading + counts x resolution).
@@ -50,6 +60,10 @@ MeterSpecs meterSpecsOf(const RoleConfig &voltmeter, const RoleConfig &ammeter);
 // SCPI-99 defaults: MEASure:VOLTage:AC? / MEASure:CURRent:AC? (FACTS.md §8), configure with
 // the matching CONFigure command, a typical bench-meter accuracy (common practice:
 // 0.5 % + 3 counts for AC volts, 1 % + 3 counts for AC amps) and resolution (1 mV, 1 mA).
+// Power roles: MEASure:POWer:AC? (active), MEASure:POWer:AC:PFACtor?, MEASure:POWer:AC:REACtive?
+// in the SCPI style; analysers differ, so these are editable like every query (common practice:
+// 0.5 % + 3 counts at 10 mW for power, 5 counts at 0.001 for power factor, 1 % + 3 counts at
+// 10 mvar for reactive power).
 RoleConfig defaultRoleConfig(MeterRole role);
 
 } // namespace sagline

@@ -240,6 +240,17 @@ QByteArray SimInstrument::execute(const QString &header, const QString &paramete
         *isMeasurement = true;
         return measure(false);
     }
+    if (isMeter && (is("MEASure:POWer:AC?") || is("MEASure:POWer:AC:REACtive?") || is("MEASure:POWer:AC:PFACtor?"))) {
+        *isMeasurement = true;
+        if (m_kind != SimInstrumentKind::PrimaryMeter) {
+            pushError(-241, QStringLiteral("Hardware missing; this %1 cannot measure power").arg(toString(m_kind)));
+            return QByteArray("9.91000000E+37");
+        }
+        const std::optional<double> value = is("MEASure:POWer:AC?")            ? m_bench->readPrimaryPower()
+                                            : is("MEASure:POWer:AC:REACtive?") ? m_bench->readPrimaryReactivePower()
+                                                                               : m_bench->readPrimaryPowerFactor();
+        return value ? QByteArray::number(*value, 'E', 8) : QByteArray("9.90000000E+37");
+    }
     if (isMeter && (is("READ?") || is("FETCh?"))) {
         *isMeasurement = true;
         return measure(m_measureVoltage);

@@ -167,6 +167,8 @@ private:
     void event(const QString &text);
     const PlanStep *planStep(int step) const; // by plan step index; null if the plan has none
     Reading makeReading(double currentA, double voltageV) const;
+    static QString primaryRawLabel(MeterRole role);
+    void setPrimaryValue(MeterRole role, double value);
     double expectedVoltage() const;
 
     Plan m_plan;
@@ -193,6 +195,8 @@ private:
     std::optional<std::pair<double, double>> m_lastPair; // (V, I) of the last good read
     std::shared_ptr<void> m_readChain;                   // keeps the current read's continuation alive
     QString m_lastRaw;
+    PrimaryReading m_pendingPrimary; // the primary meters' values with the latest secondary pair
+    PrimaryReading m_lastPrimary;    // ... with m_lastPair
     QString m_pauseReason;
     struct Retake {
         std::int64_t supersededId = 0;

@@ -34,6 +34,7 @@ void SweepController::startMeasuring()
     m_tracker.start(static_cast<double>(m_clock->nowMs()) / 1000.0);
     m_lastPair.reset();
     m_lastRaw.clear();
+    m_pendingPrimary = {};
     readPair();
 }
 
@@ -44,8 +45,7 @@ void SweepController::readPair()
     // read in parallel; the roles of one instrument one after the other.
     std::map<ScpiInstrument *, std::vector<MeterRole>> byInstrument;
     auto pending = std::make_shared<PendingRead>();
-    for (MeterRole role : {MeterRole::SecondaryVoltage, MeterRole::SecondaryCurrent, MeterRole::PrimaryVoltage,
-                           MeterRole::PrimaryCurrent}) {
+    for (MeterRole role : allMeterRoles()) {
         if (ScpiInstrument *instrument = m_rig->instrumentFor(role)) {
             byInstrument[instrument].push_back(role);
             ++pending->expected;
@@ -77,14 +77,17 @@ void SweepController::handleValues(const std::map<MeterRole, std::pair<MeterValu
     const auto &[voltage, voltageMs] = values.at(MeterRole::SecondaryVoltage);
     const auto &[current, currentMs] = values.at(MeterRole::SecondaryCurrent);
     QString raw = QStringLiteral("V: %1; I: %2").arg(QString::fromLatin1(voltage.raw), QString::fromLatin1(current.raw));
-    for (MeterRole role : {MeterRole::PrimaryVoltage, MeterRole::PrimaryCurrent}) {
+    m_pendingPrimary = {};
+    for (MeterRole role : primaryMeterRoles()) {
         auto it = values.find(role);
         if (it == values.end())
             continue;
         const MeterValue &v = it->second.first;
-        raw += QStringLiteral("; %1: %2").arg(role == MeterRole::PrimaryVoltage ? QStringLiteral("V1") : QStringLiteral("I1"),
-                                              v.status == MeterValue::Status::Failed ? QStringLiteral("(no reading)")
-                                                                                      : QString::fromLatin1(v.raw));
+        raw += QStringLiteral("; %1: %2").arg(primaryRawLabel(role), v.status == MeterValue::Status::Failed
+                                                                          ? QStringLiteral("(no reading)")
+                                                                          : QString::fromLatin1(v.raw));
+        if (v.isValue())
+            setPrimaryValue(role, v.value);
         if (v.status == MeterValue::Status::Overload) {
             SafetyPoint point;
             point.overloadedRole = roleName(role).toStdString();
@@ -150,6 +153,7 @@ void SweepController::handlePair(const MeterValue &voltage, std::int64_t voltage
     }
     m_lastPair = std::make_pair(voltage.value, current.value);
     m_lastRaw = raw;
+    m_lastPrimary = m_pendingPrimary;
     m_tracker.add(voltage.value, current.value);
     if (m_tracker.isStable()) {
         Reading reading = makeReading(current.value, voltage.value);
@@ -167,6 +171,7 @@ void SweepController::scheduleRead()
             Reading reading = makeReading(m_lastPair->second, m_lastPair->first);
             reading.flags |= flagUnstable;
             reading.rawText = m_lastRaw.toStdString();
+            reading.primary = m_lastPrimary;
             emit notice(tr("step %1: readings did not settle within %2 s; recording the last one as unstable")
                             .arg(m_step)
                             .arg(m_options.stability.maxTimeS));
@@ -190,9 +195,40 @@ void SweepController::scheduleRead()
     });
 }
 
+QString SweepController::primaryRawLabel(MeterRole role)
+{
+    switch (role) {
+    case MeterRole::PrimaryVoltage: return QStringLiteral("V1");
+    case MeterRole::PrimaryCurrent: return QStringLiteral("I1");
+    case MeterRole::PrimaryPower: return QStringLiteral("P1");
+    case MeterRole::PrimaryPowerFactor: return QStringLiteral("PF1");
+    case MeterRole::PrimaryReactivePower: return QStringLiteral("Q1");
+    default: return roleKey(role);
+    }
+}
+
+// A primary value as data, with its standard uncertainty from the role's accuracy rule (the
+// primary side has no fit to carry a systematic budget, so each reading keeps its own u).
+void SweepController::setPrimaryValue(MeterRole role, double value)
+{
+    const RoleConfig *config = m_rig ? m_rig->roleConfig(role) : nullptr;
+    const std::optional<double> u = config ? std::optional<double>(config->standardUncertainty(value)) : std::nullopt;
+    const double magnitude = std::fabs(value); // RMS values and power drawn; a meter may sign them
+    PrimaryReading &p = m_pendingPrimary;
+    switch (role) {
+    case MeterRole::PrimaryVoltage: p.voltageV = magnitude, p.uVoltageV = u; break;
+    case MeterRole::PrimaryCurrent: p.currentA = magnitude, p.uCurrentA = u; break;
+    case MeterRole::PrimaryPower: p.powerW = magnitude, p.uPowerW = u; break;
+    case MeterRole::PrimaryPowerFactor: p.powerFactor = std::min(1.0, magnitude), p.uPowerFactor = u; break;
+    case MeterRole::PrimaryReactivePower: p.reactivePowerVar = magnitude, p.uReactivePowerVar = u; break;
+    default: break;
+    }
+}
+
 Reading SweepController::makeReading(double currentA, double voltageV) const
 {
     Reading reading;
+    reading.primary = m_pendingPrimary;
     reading.step = m_step;
     reading.currentA = currentA;
     reading.voltageV = voltageV;

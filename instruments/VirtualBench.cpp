@@ -50,7 +50,8 @@ VirtualBenchOptions virtualBenchOptionsFor(const Setup &setup, const Plan &plan,
 }
 
 VirtualBench::VirtualBench(const VirtualBenchOptions &options, Clock *clock, QObject *parent)
-    : QObject(parent), m_options(options), m_clock(clock), m_transformer(options.transformer), m_random(options.seed)
+    : QObject(parent), m_options(options), m_clock(clock), m_transformer(options.transformer), m_random(options.seed),
+      m_primaryRandom(options.seed ^ 0x5052494D41525931ull)
 {
     if (options.fuse && options.fuse->ratingA > 0.0)
         m_fuse = std::make_unique<FuseModel>(options.fuse->ratingA, options.fuse->type);
@@ -60,6 +61,8 @@ VirtualBench::VirtualBench(const VirtualBenchOptions &options, Clock *clock, QOb
     std::uniform_real_distribution<double> unit(-1.0, 1.0);
     m_voltmeterGain = 1.0 + unit(m_random) * options.voltmeter.accuracy.percentOfReading / 300.0;
     m_ammeterGain = 1.0 + unit(m_random) * options.ammeter.accuracy.percentOfReading / 300.0;
+    m_powerGain = 1.0 + unit(m_primaryRandom) * options.primaryPower.accuracy.percentOfReading / 300.0;
+    m_reactiveGain = 1.0 + unit(m_primaryRandom) * options.primaryReactivePower.accuracy.percentOfReading / 300.0;
     m_voltmeter = new SimInstrument(SimInstrumentKind::Voltmeter, this, options.seed * 4 + 1, this);
     m_ammeter = new SimInstrument(SimInstrumentKind::Ammeter, this, options.seed * 4 + 2, this);
     m_powerMeter = new SimInstrument(SimInstrumentKind::PowerMeter, this, options.seed * 4 + 3, this);
@@ -171,15 +174,28 @@ std::optional<double> VirtualBench::readCurrent()
 
 namespace sagline {
 
+std::optional<double> VirtualBench::primaryReading(double trueValue, const SimMeterSpec &spec, double gain)
+{
+    double value = trueValue * gain + std::normal_distribution<double>(0.0, spec.noiseSd)(m_primaryRandom);
+    value = std::fabs(value);
+    if (value > spec.rangeMax)
+        return std::nullopt;
+    if (spec.resolution > 0.0)
+        value = std::round(value / spec.resolution) * spec.resolution;
+    return value;
+}
+
 std::optional<double> VirtualBench::readPrimaryVoltage()
 {
     // The mains meter sits on the supply side of the fuse (common practice: it shows the
-    // supply even when the fuse has opened). Ranged and specified like the secondary meters.
+    // supply even when the fuse has opened): the terminal voltage while the primary is supplied,
+    // the supply's own EMF once the fuse opened. Ranged and specified like the secondary meters.
     SimMeterSpec spec = m_options.voltmeter;
     spec.rangeMax = 750.0;
-    spec.resolution = 0.1;
-    spec.noiseSd = 0.1;
-    return meterReading(m_options.transformer.primaryVoltageV, spec, m_voltmeterGain);
+    spec.resolution = 0.01;
+    spec.noiseSd = 0.01;
+    const TransformerState s = state();
+    return primaryReading(s.supplied ? s.primaryVoltageV : m_options.transformer.primaryVoltageV, spec, m_voltmeterGain);
 }
 
 std::optional<double> VirtualBench::readPrimaryCurrent()
@@ -188,7 +204,23 @@ std::optional<double> VirtualBench::readPrimaryCurrent()
     spec.rangeMax = 10.0;
     spec.resolution = 0.0001;
     spec.noiseSd = 0.0001;
-    return meterReading(state().primaryCurrentA, spec, m_ammeterGain);
+    return primaryReading(state().primaryCurrentA, spec, m_ammeterGain);
+}
+
+std::optional<double> VirtualBench::readPrimaryPower()
+{
+    return primaryReading(state().primaryPowerW, m_options.primaryPower, m_powerGain);
+}
+
+std::optional<double> VirtualBench::readPrimaryReactivePower()
+{
+    return primaryReading(state().primaryReactivePowerVar, m_options.primaryReactivePower, m_reactiveGain);
+}
+
+std::optional<double> VirtualBench::readPrimaryPowerFactor()
+{
+    const double pf = state().primaryPowerFactor;
+    return std::min(1.0, std::round((pf + std::normal_distribution<double>(0.0, 0.0005)(m_primaryRandom)) * 1000.0) / 1000.0);
 }
 
 } // namespace sagline

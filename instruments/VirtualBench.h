@@ -31,6 +31,10 @@ struct VirtualBenchOptions {
     std::optional<FuseSpec> fuse;  // the primary fuse; none = no fuse fitted
     SimMeterSpec voltmeter;
     SimMeterSpec ammeter;
+    // The primary power analyser's active and reactive power channels (W, var); its voltage and
+    // current channels are specified like the secondary meters, ranged for the mains.
+    SimMeterSpec primaryPower{0.01, 0.01, {0.5, 3}, 5000.0};
+    SimMeterSpec primaryReactivePower{0.01, 0.01, {1.0, 3}, 5000.0};
     std::uint64_t seed = 1;
     // Ends every instrument's serial number. Empty: processSerialSuffix(), so a bench in another
     // process (a simulator started later on a reused pty or port) never passes for this one.
@@ -67,6 +71,9 @@ public:
     std::optional<double> readCurrent();
     std::optional<double> readPrimaryVoltage(); // the supply, V RMS (0 once the fuse opened)
     std::optional<double> readPrimaryCurrent(); // through the fuse, A RMS
+    std::optional<double> readPrimaryPower();   // active power into the primary, W
+    std::optional<double> readPrimaryReactivePower(); // var
+    std::optional<double> readPrimaryPowerFactor();   // 0..1, to 0.001
 
     // The instruments on this bench (owned by it): a voltmeter, an ammeter, a two-channel
     // power meter (both secondary V and I) and the programmable load.
@@ -74,7 +81,7 @@ public:
     SimInstrument *ammeter() const { return m_ammeter; }
     SimInstrument *powerMeter() const { return m_powerMeter; }
     SimInstrument *loadInstrument() const { return m_load; }
-    SimInstrument *primaryMeter() const { return m_primaryMeter; } // mains-side V and I
+    SimInstrument *primaryMeter() const { return m_primaryMeter; } // mains-side analyser: V, I, P, Q, PF
     QList<SimInstrument *> instruments() const { return {m_voltmeter, m_ammeter, m_powerMeter, m_load, m_primaryMeter}; }
 
     std::mt19937_64 &random() { return m_random; }
@@ -88,6 +95,7 @@ signals:
 private:
     void update();
     std::optional<double> meterReading(double trueValue, const SimMeterSpec &spec, double gain);
+    std::optional<double> primaryReading(double trueValue, const SimMeterSpec &spec, double gain);
 
     VirtualBenchOptions m_options;
     Clock *m_clock;
@@ -95,6 +103,9 @@ private:
     std::unique_ptr<FuseModel> m_fuse;
     std::int64_t m_lastUpdateMs = 0;
     std::mt19937_64 m_random;
+    std::mt19937_64 m_primaryRandom; // the primary analyser's own noise, so reading it leaves the secondary's sequence alone
+    double m_powerGain = 1.0;
+    double m_reactiveGain = 1.0;
     double m_voltmeterGain = 1.0;
     double m_ammeterGain = 1.0;
     SimInstrument *m_voltmeter;

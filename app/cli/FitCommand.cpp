@@ -17,6 +17,7 @@
 #include "SessionSummary.h"
 #include "SetupJson.h"
 
+#include <algorithm>
 #include <cmath>
 #include <iostream>
 
@@ -35,6 +36,9 @@ struct FitArguments {
     std::optional<double> windingTemperatureC;
     std::optional<double> referenceTemperatureC;
     std::optional<TemperatureConstant> temperatureConstant;
+    FitVoltages fitVoltages = FitVoltages::Referred;
+    double powerFactor = defaultRegulationPowerFactor;
+    bool leading = false;
 };
 
 int invalid(const std::string &message)
@@ -71,6 +75,15 @@ CommandLine fitCommandLine()
                    "refer R (and regulation, full-load voltage, copper loss) to this temperature and judge there");
     line.addOption({"temperature-constant"}, "copper-ieee|copper-iec|aluminium",
                    "T_k for that correction: 234.5 °C (IEEE C57.12.90), 235 °C (IEC 60076-1) or 225 °C");
+    line.addFlag({"raw-voltages"}, "fit the secondary voltages as read, not referred to the rated primary voltage");
+    line.addOption({"power-factor"}, "PF",
+                   "predict the regulation at this load power factor, 0.05 to 1 (default 0.8, common practice)");
+    line.addFlag({"leading"}, "that power factor is leading (capacitive load); lagging otherwise");
+    line.addNote("With primary readings (primary_voltage_v, primary_current_a, primary_power_w, "
+                 "primary_power_factor, primary_reactive_power_var) and a nameplate: no-load loss and current, "
+                 "efficiency per step and at rated load, the peak-efficiency load, the series reactance and the "
+                 "regulation at the chosen power factor. Where the primary voltage was read, the fit is made on the "
+                 "secondary voltages referred to the rated primary voltage unless --raw-voltages.");
     line.addNote("Without a specification in the setup and without --regulation-limit there is no pass or fail: the "
                  "verdict is not-judged and the measured regulation is shown beside the nameplate's.");
     line.addNote(exitCodesNote);
@@ -83,6 +96,8 @@ std::optional<std::string> readArguments(const CommandLine &line, FitArguments &
     out.dataPath = line.positionals().front();
     out.json = line.isSet("json");
     out.budget = line.isSet("budget");
+    out.fitVoltages = line.isSet("raw-voltages") ? FitVoltages::Raw : FitVoltages::Referred;
+    out.leading = line.isSet("leading");
     out.setupPath = line.value("setup");
     if (const auto text = line.valueIfSet("method")) {
         const auto method = fitMethodFromString(*text);
@@ -126,6 +141,9 @@ int fitSession(const FitArguments &args, FitReport &report)
     review.referenceTemperatureC = args.referenceTemperatureC;
     review.windingTemperatureC = args.windingTemperatureC;
     review.temperatureConstant = args.temperatureConstant;
+    review.fitVoltages = args.fitVoltages;
+    review.regulationPowerFactor = args.powerFactor;
+    review.leadingPowerFactor = args.leading;
     auto loaded = loadSessionSummary(args.dataPath, review);
     if (!loaded.ok()) {
         std::cerr << "sagline-cli fit: " << args.dataPath << ": " << loaded.message << '\n';
@@ -149,6 +167,10 @@ int fitSession(const FitArguments &args, FitReport &report)
     report.regulationLimitSource = summary.regulationLimitSource;
     report.temperatureConstantSource = summary.temperatureConstantSource;
     report.settingsUsed = describeSettingsUsed(summary);
+    if (summary.setup) {
+        report.supply = summary.supply;
+        report.primarySide = summary.primarySide;
+    }
     return exitSuccess;
 }
 
@@ -180,7 +202,16 @@ int fitCsv(const FitArguments &args, FitReport &report)
                        "or a session");
     }
     report.meters = setup ? setup->meters : std::nullopt;
-    report.fit = fitReadings(csv.readings, args.method, fitOptionsFor(report.meters));
+    if (setup) {
+        report.supply = assessSupply(csv.readings, setup->nameplate.primaryVoltageV, args.fitVoltages);
+        if (report.supply->fitVoltages == FitVoltages::Referred)
+            report.fit = fitReadings(referToRatedSupply(csv.readings, setup->nameplate.primaryVoltageV), args.method,
+                                     fitOptionsFor(report.meters));
+        else
+            report.fit = fitReadings(csv.readings, args.method, fitOptionsFor(report.meters));
+    } else {
+        report.fit = fitReadings(csv.readings, args.method, fitOptionsFor(report.meters));
+    }
     if (!report.fit.ok()) {
         std::string message = report.fit.message;
         // Name the CSV line as well as the row.
@@ -214,6 +245,15 @@ int fitCsv(const FitArguments &args, FitReport &report)
     }
     report.analysis = std::move(assessment.analysis);
     report.verdict = std::move(assessment.verdict);
+    const bool anyPrimary = std::any_of(csv.readings.begin(), csv.readings.end(),
+                                        [](const Reading &r) { return r.primary.hasAny(); });
+    if (anyPrimary) {
+        const AnalysisInput analysisInput = analysisInputFor(*setup);
+        PrimarySideInput input = primarySideInputFor(setup->nameplate);
+        input.regulationPowerFactor = args.powerFactor;
+        input.leading = args.leading;
+        report.primarySide = analysePrimarySide(csv.readings, &report.fit, &analysisInput, input);
+    }
     return exitSuccess;
 }
 
@@ -226,9 +266,12 @@ int runFit(const Arguments &arguments)
         return *exit;
     FitArguments args;
     // Ranges: temperatures a winding can have (°C).
+    std::optional<double> powerFactor;
     if (!line.number("winding-temperature", -60.0, 400.0, args.windingTemperatureC)
-        || !line.number("reference-temperature", -60.0, 400.0, args.referenceTemperatureC))
+        || !line.number("reference-temperature", -60.0, 400.0, args.referenceTemperatureC)
+        || !line.number("power-factor", 0.05, 1.0, powerFactor))
         return exitInvalidInput;
+    args.powerFactor = powerFactor.value_or(defaultRegulationPowerFactor);
     if (const auto error = readArguments(line, args))
         return line.fail(*error);
     FitReport report;

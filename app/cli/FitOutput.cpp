@@ -3,6 +3,7 @@
 #include "AssessmentJson.h"
 #include "BudgetTable.h"
 #include "NumberFormat.h"
+#include "PrimarySideJson.h"
 #include "UncertaintyFormat.h"
 
 #include <algorithm>
@@ -120,6 +121,52 @@ void printAnalysis(const FitReport &report, const std::function<void(const std::
     }
 }
 
+void printPrimarySide(const FitReport &report, const std::function<void(const std::string &, const std::string &)> &row,
+                      std::ostream &out)
+{
+    out << "\nPrimary side and supply:\n";
+    row("Supply", report.supply->statement);
+    if (!report.primarySide)
+        return;
+    const PrimarySideResult &p = *report.primarySide;
+    const auto show = [&](const std::string &label, const std::optional<UncertainValue> &v, const std::string &unit,
+                          const std::string &after = "") {
+        if (v)
+            row(label, valueWithExpandedUncertainty(*v, unit) + after);
+    };
+    if (p.openCircuit) {
+        const OpenCircuitResult &oc = *p.openCircuit;
+        show("No-load loss P0", oc.noLoadLossW, "W", " (at the rated primary voltage)");
+        show("No-load current I0", oc.noLoadCurrentA, "A");
+        show("I0 of rated primary", oc.noLoadCurrentPercent, "%");
+        show("No-load power factor", oc.noLoadPowerFactor, "");
+        show("Core-loss resistance", oc.coreLossResistanceOhm, "Ω", " (Rc = V1²/P0, primary side)");
+        show("Magnetizing reactance", oc.magnetizingReactanceOhm, "Ω", " (Xm = V1²/Q0, primary side)");
+    }
+    show("Efficiency at rated", p.efficiencyAtRatedPercent, "%");
+    show("Peak efficiency", p.maxEfficiencyPercent, "%");
+    show("... at current", p.maxEfficiencyCurrentA, "A", " (copper loss = core loss, I = sqrt(P0/R))");
+    show("Series reactance X", p.seriesReactanceOhm, "Ω",
+         p.seriesReactanceResolved ? " (referred to the secondary)" : " (not resolved by the meters)");
+    show("Regulation at pf " + formatSignificant(p.regulationPowerFactor, 2) + (p.leading ? " lead" : " lag"),
+         p.regulationAtPowerFactorPercent, "%", " (ΔV ≈ I(R cos φ ± X sin φ))");
+    if (!p.steps.empty()) {
+        out << "  Losses per step (W; η in %, U at 95 %):
+";
+        out << "    " << padRight("I2 (A)", 9) << padRight("P1", 9) << padRight("P2", 9) << padRight("core", 8)
+            << padRight("copper", 8) << padRight("rest", 8) << "η\n";
+        for (const StepLosses &s : p.steps) {
+            out << "    " << padRight(formatSignificant(s.currentA, 4), 9) << padRight(formatSignificant(s.inputPowerW.value, 4), 9)
+                << padRight(formatSignificant(s.outputPowerW.value, 4), 9) << padRight(formatSignificant(s.coreLossW.value, 3), 8)
+                << padRight(s.copperLossW ? formatSignificant(s.copperLossW->value, 3) : "-", 8)
+                << padRight(s.remainderW ? formatSignificant(s.remainderW->value, 2) : "-", 8)
+                << valueWithExpandedUncertainty(s.efficiencyPercent, "") << '\n';
+        }
+    }
+    for (const std::string &note : p.notes)
+        row("Note", note);
+}
+
 void printVerdict(const SpecificationVerdict &v, const std::function<void(const std::string &, const std::string &)> &row)
 {
     row("Verdict", outcomeWords(v.outcome) + (v.atReferenceTemperature ? " (judged at the reference temperature)"
@@ -225,6 +272,9 @@ nlohmann::json fitReportJson(const FitReport &report)
         j["results"] = {{"series_resistance_ohm", uncertainValueJson(line.seriesResistanceOhm)},
                         {"no_load_voltage_v", uncertainValueJson(line.noLoadVoltageV)}};
     }
+    addPrimaryResultsJson(j["results"], report.primarySide);
+    if (report.supply)
+        j["primary_side"] = primarySideJson(report.primarySide, *report.supply);
     if (report.verdict)
         j["verdict"] = verdictJson(*report.verdict);
     if (report.hasNameplate)
@@ -273,6 +323,8 @@ void printFitReport(const FitReport &report, std::ostream &out)
 
     if (report.analysis)
         printAnalysis(report, row, out);
+    if (report.supply)
+        printPrimarySide(report, row, out);
     if (report.verdict) {
         out << '\n';
         printVerdict(*report.verdict, row);

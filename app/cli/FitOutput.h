@@ -5,7 +5,9 @@
 #include "AnalysisSettingsRecord.h"
 #include "ConformityAssessment.h"
 #include "FitSummary.h"
+#include "PrimarySideAnalysis.h"
 #include "ResultAnalysis.h"
+#include "SupplyReferral.h"
 
 #include <nlohmann/json.hpp>
 
@@ -32,6 +34,8 @@ struct FitReport {
     SettingSource regulationLimitSource = SettingSource::Default;
     SettingSource temperatureConstantSource = SettingSource::Default;
     std::string settingsUsed;                // a session's describeSettingsUsed line
+    std::optional<SupplyAssessment> supply;  // with a nameplate: the supply and what the fit was made on
+    std::optional<PrimarySideResult> primarySide; // with primary readings and a nameplate
 };
 
 // Warnings a reader should see: bending, outliers, scatter beyond the stated uncertainties.

@@ -4,6 +4,7 @@
 // unless --sim-realtime); with real meters the operator sets the load and presses Enter.
 #include "CliCommands.h"
 #include "FitOutput.h"
+#include "VirtualBenchTruth.h"
 
 #include "CommandLine.h"
 
@@ -18,6 +19,7 @@
 #include "ResultAnalysis.h"
 #include "SessionStore.h"
 #include "SessionStoreSink.h"
+#include "SessionSummary.h"
 #include "SetupJson.h"
 #include "SweepController.h"
 #include "VirtualBench.h"
@@ -28,6 +30,7 @@
 #include <QSocketNotifier>
 #include <QTimer>
 
+#include <algorithm>
 #include <cerrno>
 #include <csignal>
 #include <cstdio>
@@ -52,6 +55,8 @@ struct RunArguments {
     bool sim = false;
     bool simRealtime = false;
     bool simSingleMeter = false;
+    bool simPrimaryMeter = false;             // the mains-side analyser on the virtual bench
+    std::optional<double> simSupplyRegulation; // % the simulated supply sags at rated primary current
     std::uint64_t seed = 1;
     std::optional<double> simFuseRatingA;
     RigAddresses addresses;
@@ -104,6 +109,12 @@ CommandLine runCommandLine()
     line.addFlag({"sim-realtime"}, "real time instead of simulated time");
     line.addFlag({"sim-single-meter"}, "one meter (the power meter) in both roles");
     line.addOption({"sim-fuse-rating"}, "A", "another primary fuse rating, above 0 to 1000 A");
+    line.addFlag({"sim-primary-meter"},
+                 "a power analyser on the primary too (voltage, current, active and reactive power): losses, "
+                 "efficiency and the series reactance in the results");
+    line.addOption({"sim-supply-regulation"}, "PERCENT",
+                   "a supply with its own resistance that sags by PERCENT (0 to 20) at rated primary current "
+                   "(default 0, a stiff supply)");
     line.addNote("ADDR: a serial port PORT[,BAUD[,8N1[,rtscts|xonxoff]]] or tcp:HOST[:PORT] (SCPI raw socket, "
                  "port 5025 by default).");
     line.addNote(exitCodesNote);
@@ -117,7 +128,8 @@ std::optional<int> readArguments(const CommandLine &line, RunArguments *out)
     out->outputPath = line.value("output");
     out->simRealtime = line.isSet("sim-realtime");
     out->simSingleMeter = line.isSet("sim-single-meter");
-    out->sim = line.isSet("sim") || out->simRealtime || out->simSingleMeter;
+    out->simPrimaryMeter = line.isSet("sim-primary-meter");
+    out->sim = line.isSet("sim") || out->simRealtime || out->simSingleMeter || out->simPrimaryMeter;
     out->addresses.voltmeter = QString::fromLocal8Bit(line.value("voltmeter"));
     out->addresses.ammeter = QString::fromLocal8Bit(line.value("ammeter"));
     out->addresses.meter = QString::fromLocal8Bit(line.value("meter"));
@@ -138,6 +150,7 @@ std::optional<int> readArguments(const CommandLine &line, RunArguments *out)
     std::optional<std::uint64_t> seed;
     // Ranges that keep every later conversion (to milliseconds, to int) exact and every wait finite.
     if (!line.number("sim-fuse-rating", 1e-6, 1000.0, out->simFuseRatingA) || !line.number("ambient", -60.0, 80.0, out->ambientC)
+        || !line.number("sim-supply-regulation", 0.0, 20.0, out->simSupplyRegulation)
         || !line.number("dwell", 0.0, 86400.0, out->dwellS) || !line.number("read-interval", 0.0, 3600.0, out->readIntervalS)
         || !line.integer("timeout-ms", 50, 600000, timeoutMs)
         || !line.unsignedInteger("seed", std::numeric_limits<std::uint64_t>::max(), seed))
@@ -264,8 +277,11 @@ int runRun(const Arguments &rawArgs)
         VirtualBenchOptions options = virtualBenchOptionsFor(setup, plan, args.seed);
         if (args.simFuseRatingA && options.fuse)
             options.fuse->ratingA = *args.simFuseRatingA;
+        if (args.simSupplyRegulation && plan.ratedPrimaryCurrentA > 0.0)
+            options.transformer.supplyResistanceOhm =
+                *args.simSupplyRegulation / 100.0 * setup.nameplate.primaryVoltageV / plan.ratedPrimaryCurrentA;
         bench = std::make_unique<VirtualBench>(options, clock.get());
-        rig.reset(makeVirtualBenchRig(bench.get(), args.simSingleMeter));
+        rig.reset(makeVirtualBenchRig(bench.get(), args.simSingleMeter, nullptr, args.simPrimaryMeter));
     } else {
         QString error;
         rig.reset(makeRig(args.addresses, &error));
@@ -455,10 +471,23 @@ int runRun(const Arguments &rawArgs)
     if (readings.ok()) {
         FitReport report;
         report.source = args.outputPath;
-        report.fit = fitReadings(readings.value, FitMethod::Ols);
+        // The session's own summary when it has primary readings: the fit on referred voltages,
+        // losses and efficiency, as `fit` and the report show them.
+        const bool anyPrimary = std::any_of(readings.value.begin(), readings.value.end(),
+                                            [](const Reading &r) { return r.primary.hasAny(); });
+        std::optional<SessionSummary> summary;
+        if (anyPrimary) {
+            if (auto loaded = summarizeSession(*store); loaded.ok())
+                summary = std::move(loaded.value);
+        }
+        report.fit = summary ? summary->fit : fitReadings(readings.value, FitMethod::Ols);
         if (report.fit.ok()) {
             report.warnings = fitWarnings(report.fit, {});
             report.analysis = analyseFit(report.fit, analysisInputFor(setup.nameplate));
+            if (summary) {
+                report.supply = summary->supply;
+                report.primarySide = summary->primarySide;
+            }
             std::cout << '\n';
             printFitReport(report, std::cout);
         } else {
@@ -480,6 +509,7 @@ int runRun(const Arguments &rawArgs)
                   << " %, ammeter " << QString::number((gi - 1.0) * 100.0, 'f', 3).toStdString()
                   << " %; seen through them: V0 " << QString::number(t.noLoadVoltageV() * gv, 'f', 4).toStdString() << " V, R "
                   << QString::number(t.seriesResistanceOhm * gv / gi, 'f', 4).toStdString() << " Ω at 20 °C\n";
+        printVirtualBenchTruth(*bench, plan.ratedSecondaryCurrentA, std::cout);
     }
     switch (result) {
     case SweepOutcome::Completed: return exitSuccess;

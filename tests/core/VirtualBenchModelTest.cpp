@@ -89,9 +89,12 @@ TEST(TransformerModel, ParametersReproduceTheNameplate)
     TransformerModel model(p);
     model.setLoadResistance(18.0 / (60.0 / 18.0)); // rated load: 5.4 Ω
     // At rated load and reference temperature the model sits slightly above 18 V, because R is
-    // defined from the planned straight line and the load is set for the planned voltage.
+    // defined from the planned straight line and the load is set for the planned voltage; the
+    // default leakage reactance (0.25 R) is in quadrature with the load and takes only a little.
     EXPECT_NEAR(p.seriesResistanceOhm, (19.6 - 18.0) / (60.0 / 18.0), 1e-12);
-    EXPECT_NEAR(model.state().secondaryVoltageV, 19.6 * 5.4 / (5.4 + 0.48), 1e-12);
+    EXPECT_NEAR(p.leakageReactanceOhm, 0.25 * 0.48, 1e-12);
+    EXPECT_NEAR(p.coreLossW, 0.05 * 60.0, 1e-12); // laminated default
+    EXPECT_NEAR(model.state().secondaryVoltageV, 19.6 * 5.4 / std::hypot(5.4 + 0.48, 0.12), 1e-12);
     EXPECT_NEAR(p.magnetizingCurrentA, 0.15 * 60.0 / 230.0, 1e-12);
     EXPECT_NEAR(p.thermalResistanceKPerW * 0.48 * std::pow(60.0 / 18.0, 2), 40.0, 1e-9);
 }
@@ -199,4 +202,34 @@ TEST(StabilityRule, StableAfterKAgreeingReadingsOnly)
     tracker.start(200.0);
     EXPECT_FALSE(tracker.isStable());
     EXPECT_EQ(tracker.readingCount(), 0);
+}
+
+// The equivalent circuit balances: P1 = P2 + R·I2² + core loss and Q1 = V1²/Xm + X·I2² at the
+// primary terminals (a lossless ideal ratio between them); core loss follows V1² when the supply
+// sags through its own impedance.
+TEST(TransformerModel, PowersBalanceAcrossTheEquivalentCircuit)
+{
+    TransformerParameters p;
+    p.primaryVoltageV = 230.0;
+    p.turnsRatio = 230.0 / 19.6;
+    p.seriesResistanceOhm = 0.48;
+    p.leakageReactanceOhm = 0.15;
+    p.magnetizingCurrentA = 0.04;
+    p.coreLossW = 3.0;
+    p.supplyResistanceOhm = 6.0;
+    p.supplyReactanceOhm = 2.0;
+    TransformerModel model(p);
+    const TransformerState open = model.state();
+    EXPECT_LT(open.primaryVoltageV, 230.0); // the no-load current already drops a little
+    EXPECT_NEAR(open.primaryPowerW, 3.0 * std::pow(open.primaryVoltageV / 230.0, 2), 1e-9);
+    model.setLoadResistance(5.4);
+    const TransformerState s = model.state();
+    const double p2 = s.secondaryVoltageV * s.secondaryCurrentA;
+    EXPECT_NEAR(s.primaryPowerW, p2 + s.copperLossW + s.coreLossW, 1e-9);
+    EXPECT_NEAR(s.coreLossW, 3.0 * std::pow(s.primaryVoltageV / 230.0, 2), 1e-12);
+    const double xm = 230.0 / 0.04;
+    EXPECT_NEAR(s.primaryReactivePowerVar, s.primaryVoltageV * s.primaryVoltageV / xm + 0.15 * s.secondaryCurrentA * s.secondaryCurrentA,
+                1e-9);
+    EXPECT_LT(s.primaryVoltageV, open.primaryVoltageV - 1.0); // the supply sags under load
+    EXPECT_NEAR(s.primaryPowerFactor, s.primaryPowerW / (s.primaryVoltageV * s.primaryCurrentA), 1e-12);
 }

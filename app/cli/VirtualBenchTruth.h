@@ -1,0 +1,17 @@
+// What the virtual bench really is, printed after a simulated run so a fit can be checked
+// against it: the transformer's parameters and, derived from them with core's formulas, the
+// no-load loss, series reactance, efficiency at rated load and its peak.
+#pragma once
+
+#include <ostream>
+
+namespace sagline {
+class VirtualBench;
+}
+
+namespace sagline::cli {
+
+// `ratedSecondaryCurrentA` from the nameplate (S/V2).
+void printVirtualBenchTruth(VirtualBench &bench, double ratedSecondaryCurrentA, std::ostream &out);
+
+} // namespace sagline::cli

@@ -1,0 +1,97 @@
+#include "SupplyReferral.h"
+
+#include "NumberFormat.h"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+
+namespace sagline {
+
+namespace {
+
+bool isUsed(const Reading &reading)
+{
+    return !reading.excluded && (reading.flags & (flagOverload | flagNotANumber)) == 0 && std::isfinite(reading.voltageV)
+           && std::isfinite(reading.currentA);
+}
+
+// "230 V", "229.8 V": up to 4 significant digits without trailing zeros.
+std::string volts(double value)
+{
+    char text[32];
+    std::snprintf(text, sizeof text, "%.4g V", value);
+    return text;
+}
+
+bool hasSupplyVoltage(const Reading &reading)
+{
+    return reading.primary.voltageV && *reading.primary.voltageV > 0.0;
+}
+
+} // namespace
+
+std::string toString(FitVoltages voltages)
+{
+    return voltages == FitVoltages::Referred ? "referred" : "raw";
+}
+
+SupplyAssessment assessSupply(const std::vector<Reading> &readings, double ratedPrimaryVoltageV, FitVoltages wanted,
+                              double tolerancePercent)
+{
+    SupplyAssessment out;
+    out.ratedPrimaryVoltageV = ratedPrimaryVoltageV;
+    out.tolerancePercent = tolerancePercent;
+    for (const Reading &reading : readings) {
+        if (!isUsed(reading))
+            continue;
+        ++out.readingsUsed;
+        if (!hasSupplyVoltage(reading))
+            continue;
+        ++out.readingsWithVoltage;
+        const double v = *reading.primary.voltageV;
+        out.lowestV = out.lowestV ? std::min(*out.lowestV, v) : v;
+        out.highestV = out.highestV ? std::max(*out.highestV, v) : v;
+    }
+    const std::string rated = volts(ratedPrimaryVoltageV);
+    if (out.readingsWithVoltage == 0 || !(ratedPrimaryVoltageV > 0.0)) {
+        out.fitVoltages = FitVoltages::Raw;
+        out.statement = "no primary voltage was measured: the supply is assumed to have held its rated " + rated +
+                        " throughout, so any sag of the supply under load is inside the fitted R";
+        return out;
+    }
+    out.driftPercent = (*out.highestV - *out.lowestV) / ratedPrimaryVoltageV * 100.0;
+    out.drifted = *out.driftPercent > tolerancePercent;
+    out.fitVoltages = wanted;
+    const std::string range = "the supply read " + volts(*out.lowestV) + " to " + volts(*out.highestV) + " (" +
+                              formatSignificant(*out.driftPercent, 2) +
+                              " % of rated, tolerance " + formatSignificant(tolerancePercent, 2) + " %)";
+    if (wanted == FitVoltages::Referred)
+        out.statement = "fit on secondary voltages referred to the rated primary " + rated + " (V2·" + rated + "/V1); " + range;
+    else
+        out.statement = "fit on the raw secondary voltages (not referred to the rated primary " + rated + "); " + range;
+    if (out.readingsWithVoltage < out.readingsUsed)
+        out.statement += "; " + std::to_string(out.readingsUsed - out.readingsWithVoltage) + " of " +
+                         std::to_string(out.readingsUsed) + " readings have no primary voltage and are used as read";
+    if (out.drifted)
+        out.statement += "; the supply drifted beyond the tolerance during the sweep";
+    return out;
+}
+
+std::vector<Reading> referToRatedSupply(const std::vector<Reading> &readings, double ratedPrimaryVoltageV)
+{
+    std::vector<Reading> referred = readings;
+    if (!(ratedPrimaryVoltageV > 0.0) || !std::isfinite(ratedPrimaryVoltageV))
+        return referred;
+    for (Reading &reading : referred) {
+        if (!hasSupplyVoltage(reading))
+            continue;
+        const double factor = ratedPrimaryVoltageV / *reading.primary.voltageV;
+        reading.voltageV *= factor;
+        if (reading.uVoltageV)
+            *reading.uVoltageV *= factor;
+    }
+    return referred;
+}
+
+} // namespace sagline

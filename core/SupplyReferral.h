@@ -1,0 +1,50 @@
+// The secondary fit assumes the supply held still. When the primary voltage was measured with
+// a reading, its secondary voltage is referred to the rated primary voltage, V2·V1,rated/V1
+// (the ideal ratio holds the EMF proportional to the supply), so a supply that sags under load
+// does not add its own impedance to the fitted R. The referred readings are what the fit uses
+// by default; the raw ones stay available. Pure C++.
+#pragma once
+
+#include "Reading.h"
+
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace sagline {
+
+// How far the supply may move during a sweep before it is flagged: 2 % of rated (common
+// practice; about what a stiff laboratory supply holds from no load to full load).
+inline constexpr double defaultSupplyDriftTolerancePercent = 2.0;
+
+// Which secondary voltages a fit was made on.
+enum class FitVoltages {
+    Referred, // V2·V1,rated/V1 where V1 was measured (the default)
+    Raw,      // as read
+};
+std::string toString(FitVoltages voltages); // "referred", "raw"
+
+struct SupplyAssessment {
+    double ratedPrimaryVoltageV = 0.0;
+    std::size_t readingsWithVoltage = 0;     // used readings that carry V1
+    std::size_t readingsUsed = 0;            // used readings (included, with values)
+    std::optional<double> lowestV;           // V1 over the used readings
+    std::optional<double> highestV;
+    std::optional<double> driftPercent;      // (highest - lowest) / rated · 100
+    double tolerancePercent = defaultSupplyDriftTolerancePercent;
+    bool drifted = false;                    // driftPercent above the tolerance
+    FitVoltages fitVoltages = FitVoltages::Raw; // what the fit is made on
+    std::string statement;                   // one sentence for every output
+};
+
+// Looks at the supply over the included readings. `wanted` Referred gives Referred only when
+// some reading carries V1; without a primary voltmeter the statement says the supply is
+// assumed to have held its rated value.
+SupplyAssessment assessSupply(const std::vector<Reading> &readings, double ratedPrimaryVoltageV, FitVoltages wanted,
+                              double tolerancePercent = defaultSupplyDriftTolerancePercent);
+
+// The readings with each secondary voltage (and its u) scaled by V1,rated/V1 where V1 was read
+// (above zero); others unchanged. Same order and size, so fit rows still index the originals.
+std::vector<Reading> referToRatedSupply(const std::vector<Reading> &readings, double ratedPrimaryVoltageV);
+
+} // namespace sagline
