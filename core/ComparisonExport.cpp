@@ -55,6 +55,16 @@ std::string latestReviewer(const SessionRow &row)
     return row.signOffs.empty() ? std::string() : row.signOffs.back().reviewer;
 }
 
+std::optional<double> valueOf(const std::optional<UncertainValue> &v)
+{
+    return v ? std::optional<double>(v->value) : std::nullopt;
+}
+
+std::optional<double> expandedOf(const std::optional<UncertainValue> &v)
+{
+    return v ? v->expandedUncertainty : std::nullopt;
+}
+
 } // namespace
 
 std::vector<std::string> comparisonCsvColumns()
@@ -63,7 +73,8 @@ std::vector<std::string> comparisonCsvColumns()
             "series_resistance_ohm", "series_resistance_u_ohm", "winding_temperature_c", "reference_temperature_c",
             "temperature_constant_c", "series_resistance_ref_ohm", "series_resistance_ref_u_ohm", "no_load_voltage_v",
             "no_load_voltage_u_v", "rated_current_a", "regulation_percent", "regulation_u_percent",
-            "regulation_limit_percent", "verdict", "conformance_probability", "decision_rule", "limits_source",
+            "regulation_limit_percent", "efficiency_at_rated_percent", "efficiency_at_rated_u_percent", "no_load_loss_w",
+            "no_load_loss_u_w", "verdict", "conformance_probability", "decision_rule", "limits_source",
             "safety_stops", "review_state", "reviewer",
             "lab_sheet", "limit_hits", "robust_z", "far_from_batch", "problem"};
 }
@@ -89,8 +100,9 @@ std::string comparisonCsv(const std::vector<SessionRow> &rows, const BatchStatis
             number(fitted(row, f.referenceTemperatureC)), number(fitted(row, f.temperatureConstantC)),
             number(f.resistanceRefOhm), number(f.resistanceRefUOhm), number(fitted(row, f.noLoadVoltageV)),
             number(f.noLoadVoltageUV), number(fitted(row, f.ratedCurrentA)), number(f.regulationPercent),
-            number(f.regulationUPercent), number(f.regulationLimitPercent),
-            row.opened ? row.verdictShown() : std::string(), number(f.conformanceProbability),
+            number(f.regulationUPercent), number(f.regulationLimitPercent), number(valueOf(row.efficiencyAtRated())),
+            number(expandedOf(row.efficiencyAtRated())), number(valueOf(row.noLoadLoss())),
+            number(expandedOf(row.noLoadLoss())), row.opened ? row.verdictShown() : std::string(), number(f.conformanceProbability),
             row.opened ? toString(f.rule) : std::string(), row.opened ? f.limitsSource : std::string(),
             row.opened ? std::to_string(row.safetyStops.size()) : std::string(),
             row.opened ? row.reviewState() : std::string(), latestReviewer(row), labSheetName(row),
@@ -140,6 +152,11 @@ std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStati
             {"regulation_percent", jsonNumber(f.regulationPercent)},
             {"regulation_u_percent", jsonNumber(f.regulationUPercent)},
             {"regulation_limit_percent", jsonNumber(f.regulationLimitPercent)},
+            {"efficiency_at_rated_percent", jsonNumber(valueOf(row.efficiencyAtRated()))},
+            {"efficiency_at_rated_u_percent", jsonNumber(expandedOf(row.efficiencyAtRated()))},
+            {"no_load_loss_w", jsonNumber(valueOf(row.noLoadLoss()))},
+            {"no_load_loss_u_w", jsonNumber(expandedOf(row.noLoadLoss()))},
+            {"fit_voltages", toString(row.supply.fitVoltages)},
             {"verdict", row.verdictShown()}, {"conformance_probability", jsonNumber(f.conformanceProbability)},
             {"decision_rule", toString(f.rule)}, {"decision_rule_text", f.ruleName},
             {"limits_source", f.limitsSource}, {"meters_known", f.metersKnown},

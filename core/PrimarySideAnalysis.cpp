@@ -471,6 +471,24 @@ PrimarySideResult analysePrimarySide(const std::vector<Reading> &readings, const
     return Analyser(readings, fit, analysisInput, input).run();
 }
 
+std::vector<EfficiencyCurvePoint> efficiencyCurve(const PrimarySideResult &result, const FitSummary &fit,
+                                                  double maxCurrentA, int points)
+{
+    std::vector<EfficiencyCurvePoint> curve;
+    if (!result.openCircuit || !result.openCircuit->noLoadLossW || !fit.ok() || !(fit.seriesResistanceOhm() > 0.0)
+        || !(maxCurrentA > 0.0) || !std::isfinite(maxCurrentA) || points < 2)
+        return curve;
+    const double v0 = fit.intercept, r = fit.seriesResistanceOhm(), p0 = result.openCircuit->noLoadLossW->value;
+    curve.reserve(static_cast<std::size_t>(points));
+    for (int k = 0; k < points; ++k) {
+        const double i = maxCurrentA * k / (points - 1);
+        if (v0 - r * i <= 0.0)
+            break; // beyond where the line reaches zero volts
+        curve.push_back({i, 100.0 * formulas::modelEfficiency(v0, r, p0, i), p0, r * i * i});
+    }
+    return curve;
+}
+
 PrimarySideInput primarySideInputFor(const Nameplate &nameplate)
 {
     PrimarySideInput in;

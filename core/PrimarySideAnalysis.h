@@ -96,6 +96,18 @@ struct PrimarySideResult {
 PrimarySideResult analysePrimarySide(const std::vector<Reading> &readings, const FitSummary *fit,
                                      const AnalysisInput *analysisInput, const PrimarySideInput &input);
 
+// The model's efficiency and loss split against load current, for the window's chart: at each of
+// `points` currents from 0 to `maxCurrentA`, η = P2/(P2 + P0 + R·I²) with P2 = (V0 - R·I)·I, the
+// core loss P0 (referred to rated V1) and the copper loss R·I². Empty without P0 or a usable fit.
+struct EfficiencyCurvePoint {
+    double currentA = 0.0;
+    double efficiencyPercent = 0.0;
+    double coreLossW = 0.0;
+    double copperLossW = 0.0;
+};
+std::vector<EfficiencyCurvePoint> efficiencyCurve(const PrimarySideResult &result, const FitSummary &fit,
+                                                  double maxCurrentA, int points = 100);
+
 // From the nameplate: V1, S/V1, S/V2 and the defaults above.
 PrimarySideInput primarySideInputFor(const Nameplate &nameplate);
 

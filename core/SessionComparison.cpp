@@ -183,7 +183,13 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     row.readingCount = readings.value.size();
 
     const SetupParse setup = parseSetupJson(info.value.setupJson);
-    row.fit = fitReadings(readings.value, options.method, fitOptionsFor(setup.setup ? setup.setup->meters : std::nullopt));
+    // As the session's own summary does: on readings referred to the rated supply when V1 was read.
+    const double ratedPrimaryV = setup.setup ? setup.setup->nameplate.primaryVoltageV : 0.0;
+    row.supply = assessSupply(readings.value, ratedPrimaryV, FitVoltages::Referred);
+    const FitOptions fitOptions = fitOptionsFor(setup.setup ? setup.setup->meters : std::nullopt);
+    row.fit = row.supply.fitVoltages == FitVoltages::Referred
+                  ? fitReadings(referToRatedSupply(readings.value, ratedPrimaryV), options.method, fitOptions)
+                  : fitReadings(readings.value, options.method, fitOptions);
     row.points.reserve(readings.value.size());
     for (std::size_t i = 0; i < readings.value.size(); ++i) {
         const Reading &reading = readings.value[i];
@@ -207,8 +213,23 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     row.design = designOf(setup.setup->nameplate);
     row.figures = computeSessionFigures(row.fit, *setup.setup, winding,
                                         figureOptionsFor(options, notes.value, row));
+    if (std::any_of(readings.value.begin(), readings.value.end(), [](const Reading &r) { return r.primary.hasAny(); })) {
+        const AnalysisInput analysisInput = analysisInputFor(*setup.setup);
+        row.primarySide = analysePrimarySide(readings.value, row.fit.ok() ? &row.fit : nullptr, &analysisInput,
+                                             primarySideInputFor(setup.setup->nameplate));
+    }
     row.opened = true;
     return row;
+}
+
+std::optional<UncertainValue> SessionRow::efficiencyAtRated() const
+{
+    return primarySide ? primarySide->efficiencyAtRatedPercent : std::nullopt;
+}
+
+std::optional<UncertainValue> SessionRow::noLoadLoss() const
+{
+    return primarySide && primarySide->openCircuit ? primarySide->openCircuit->noLoadLossW : std::nullopt;
 }
 
 std::vector<SessionRow> loadSessionRows(const std::vector<std::string> &paths, const ComparisonOptions &options,

@@ -11,7 +11,9 @@
 #pragma once
 
 #include "FitSummary.h"
+#include "PrimarySideAnalysis.h"
 #include "SessionFigures.h"
+#include "SupplyReferral.h"
 #include "SessionProgress.h"
 #include "SessionRecords.h"
 #include "SessionSeal.h"
@@ -70,6 +72,12 @@ struct SessionRow {
     bool settingsFromRecord = false;  // rule, limit or constant taken from the session's record
     std::string design;               // designOf(nameplate): units of one design compare
     std::vector<ComparisonPoint> points; // for the overlay chart, in recording order
+    SupplyAssessment supply;          // what the fit was made on (referred to rated V1 when it was read)
+    std::optional<PrimarySideResult> primarySide; // losses and efficiency, with primary readings
+
+    // Efficiency at rated load and no-load loss with their expanded uncertainties, when known.
+    std::optional<UncertainValue> efficiencyAtRated() const;
+    std::optional<UncertainValue> noLoadLoss() const;
 
     // R the batch compares: at the reference temperature when known, else as measured.
     std::optional<double> comparedResistanceOhm(bool atReference) const;

@@ -4,6 +4,7 @@
 
 #include "CsvField.h"
 #include "JsonReader.h"
+#include "PrimarySideJson.h"
 
 #include <nlohmann/json.hpp>
 
@@ -93,7 +94,9 @@ json analysisToJson(const SessionSummary &summary)
                 {"copper_loss_w", uncertain(a.copperLossW)}};
     out["primary_resistance_ohm"] = a.primaryResistanceOhm ? uncertain(*a.primaryResistanceOhm) : json(nullptr);
     out["reference_resistance_ohm"] = a.referenceResistanceOhm ? uncertain(*a.referenceResistanceOhm) : json(nullptr);
-    out["results"] = resultsJson(a);
+    nlohmann::json results = resultsJson(a);
+    addPrimaryResultsJson(results, summary.primarySide);
+    out["results"] = results;
     out["winding_temperature_c"] = optionalNumber(summary.latestTemperatureC(TemperatureKind::Winding));
     out["reference_temperature_c"] = optionalNumber(a.referenceTemperatureC);
     out["reference_temperature_defaulted"] = summary.referenceTemperatureDefaulted;
@@ -221,6 +224,31 @@ std::string fitResultsToCsv(const SessionSummary &summary)
             if (a->referredCopperLossW)
                 add("copper_loss_at_reference_temperature", *a->referredCopperLossW, "W");
         }
+        row("fit_voltages", toString(summary.supply.fitVoltages), "", "");
+        if (const auto &p = summary.primarySide) {
+            auto addOptional = [&](const std::string &name, const std::optional<UncertainValue> &v, const std::string &unit) {
+                if (v)
+                    row(name, exact(v->value), exact(v->standardUncertainty), unit);
+            };
+            if (p->openCircuit) {
+                addOptional("no_load_loss", p->openCircuit->noLoadLossW, "W");
+                addOptional("no_load_current", p->openCircuit->noLoadCurrentA, "A");
+                addOptional("no_load_power_factor", p->openCircuit->noLoadPowerFactor, "");
+                addOptional("core_loss_resistance", p->openCircuit->coreLossResistanceOhm, "ohm");
+                addOptional("magnetizing_reactance", p->openCircuit->magnetizingReactanceOhm, "ohm");
+            }
+            addOptional("efficiency_at_rated", p->efficiencyAtRatedPercent, "%");
+            addOptional("max_efficiency", p->maxEfficiencyPercent, "%");
+            addOptional("max_efficiency_current", p->maxEfficiencyCurrentA, "A");
+            addOptional("series_reactance", p->seriesReactanceOhm, "ohm");
+            addOptional("regulation_at_power_factor", p->regulationAtPowerFactorPercent, "%");
+            for (const StepLosses &s : p->steps) {
+                const std::string id = std::to_string(s.readingId);
+                row("efficiency_reading_" + id, exact(s.efficiencyPercent.value), exact(s.efficiencyPercent.standardUncertainty), "%");
+                if (s.remainderW)
+                    row("loss_remainder_reading_" + id, exact(s.remainderW->value), exact(s.remainderW->standardUncertainty), "W");
+            }
+        }
         if (summary.verdict)
             row("verdict_" + toString(summary.verdict->rule), toString(summary.verdict->outcome), "", "");
         for (const PointFit &point : fit.points) {
@@ -275,6 +303,7 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
             out["fit"]["series_resistance_ci95_ohm"] = json::array({number(ci->low), number(ci->high)});
     }
     out["analysis"] = analysisToJson(summary);
+    out["primary_side"] = json(primarySideJson(summary.primarySide, summary.supply));
     out["verdict"] = verdictToJson(summary);
     if (out["verdict"].is_object())
         out["verdict"]["as_shown"] = summary.verdictText(); // "provisional (k of N steps)" until complete

@@ -67,9 +67,9 @@ SupplyAssessment assessSupply(const std::vector<Reading> &readings, double rated
                               formatSignificant(*out.driftPercent, 2) +
                               " % of rated, tolerance " + formatSignificant(tolerancePercent, 2) + " %)";
     if (wanted == FitVoltages::Referred)
-        out.statement = "fit on secondary voltages referred to the rated primary " + rated + " (V2·" + rated + "/V1); " + range;
+        out.statement = "fit on the readings referred to the rated primary " + rated + " (V2 and I2 × " + rated + "/V1); " + range;
     else
-        out.statement = "fit on the raw secondary voltages (not referred to the rated primary " + rated + "); " + range;
+        out.statement = "fit on the readings as read (not referred to the rated primary " + rated + "); " + range;
     if (out.readingsWithVoltage < out.readingsUsed)
         out.statement += "; " + std::to_string(out.readingsUsed - out.readingsWithVoltage) + " of " +
                          std::to_string(out.readingsUsed) + " readings have no primary voltage and are used as read";
@@ -88,8 +88,11 @@ std::vector<Reading> referToRatedSupply(const std::vector<Reading> &readings, do
             continue;
         const double factor = ratedPrimaryVoltageV / *reading.primary.voltageV;
         reading.voltageV *= factor;
+        reading.currentA *= factor;
         if (reading.uVoltageV)
             *reading.uVoltageV *= factor;
+        if (reading.uCurrentA)
+            *reading.uCurrentA *= factor;
     }
     return referred;
 }

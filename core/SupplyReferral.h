@@ -1,8 +1,10 @@
 // The secondary fit assumes the supply held still. When the primary voltage was measured with
-// a reading, its secondary voltage is referred to the rated primary voltage, V2·V1,rated/V1
-// (the ideal ratio holds the EMF proportional to the supply), so a supply that sags under load
-// does not add its own impedance to the fitted R. The referred readings are what the fit uses
-// by default; the raw ones stay available. Pure C++.
+// a reading, the reading is referred to the rated primary voltage: with k = V1,rated/V1, V2·k
+// and I2·k, the point the same resistive load would give at the rated supply (the circuit is
+// linear, so its load line scales with the supply; scaling V2 alone would also scale the R·I2
+// drop by k and leave R biased by the sag). A supply that sags under load then adds nothing of
+// its own impedance to the fitted R. The referred readings are what the fit uses by default;
+// the raw ones stay available. Pure C++.
 #pragma once
 
 #include "Reading.h"
@@ -43,8 +45,9 @@ struct SupplyAssessment {
 SupplyAssessment assessSupply(const std::vector<Reading> &readings, double ratedPrimaryVoltageV, FitVoltages wanted,
                               double tolerancePercent = defaultSupplyDriftTolerancePercent);
 
-// The readings with each secondary voltage (and its u) scaled by V1,rated/V1 where V1 was read
-// (above zero); others unchanged. Same order and size, so fit rows still index the originals.
+// The readings with each secondary voltage and current (and their u) scaled by V1,rated/V1 where
+// V1 was read (above zero); others unchanged. Same order and size, so fit rows still index the
+// originals.
 std::vector<Reading> referToRatedSupply(const std::vector<Reading> &readings, double ratedPrimaryVoltageV);
 
 } // namespace sagline

@@ -8,6 +8,8 @@
 #include "PlanPanel.h"
 #include "QuantityField.h"
 #include "ReadingsTableModel.h"
+#include "EfficiencyChart.h"
+#include "PrimarySideLines.h"
 #include "ResidualChart.h"
 #include "ResultsPanel.h"
 #include "SessionBand.h"
@@ -77,7 +79,8 @@ MainWindow::MainWindow(QWidget *parent)
     : QMainWindow(parent), m_workspace(new SweepWorkspace(this)), m_caution(new CautionStrip),
       m_nextStep(new NextStepStrip), m_leftTabs(new QTabWidget), m_setupForm(new SetupForm),
       m_planPanel(new PlanPanel), m_instruments(new InstrumentsPanel), m_chart(new VoltageCurrentChart(m_points)),
-      m_residuals(new ResidualChart(m_points)), m_results(new ResultsPanel), m_readingsModel(new ReadingsTableModel(this)),
+      m_residuals(new ResidualChart(m_points)), m_efficiency(new EfficiencyChart),
+      m_topChartSplitter(new QSplitter(Qt::Horizontal)), m_results(new ResultsPanel), m_readingsModel(new ReadingsTableModel(this)),
       m_readingsView(new QTableView), m_mainSplitter(new QSplitter(Qt::Horizontal)),
       m_chartSplitter(new QSplitter(Qt::Vertical)), m_rightSplitter(new QSplitter(Qt::Vertical)),
       m_statusSource(new QLabel), m_statusSession(new QLabel), m_statusPoints(new QLabel), m_recentMenu(nullptr),
@@ -130,7 +133,13 @@ void MainWindow::createLayout()
     m_leftTabs->addTab(m_planPanel, tr("&2 Plan"));
     m_leftTabs->addTab(m_instruments, tr("&3 Instruments"));
 
-    m_chartSplitter->addWidget(m_chart);
+    m_topChartSplitter->addWidget(m_chart);
+    m_topChartSplitter->addWidget(m_efficiency);
+    m_topChartSplitter->setStretchFactor(0, 3);
+    m_topChartSplitter->setStretchFactor(1, 2);
+    m_topChartSplitter->setChildrenCollapsible(false);
+    m_efficiency->hide(); // until a reading carries the primary power
+    m_chartSplitter->addWidget(m_topChartSplitter);
     m_chartSplitter->addWidget(m_residuals);
     m_chartSplitter->setStretchFactor(0, 3);
     m_chartSplitter->setStretchFactor(1, 1);
@@ -400,6 +409,14 @@ void MainWindow::refreshFitViews()
     ResultsView view = resultsView(inputs);
     if (m_workspace->store())
         applyCompleteness(view, m_workspace->progress()); // "provisional (k of N steps)" until complete
+    const SweepWorkspace::PrimarySideView &primary = m_workspace->primarySide();
+    if (m_workspace->setup())
+        view.lines += primarySideLines(primary.supply, primary.result);
+    const bool showEfficiency = primary.result && primary.result->hasPowerMeter;
+    m_efficiency->setVisible(showEfficiency);
+    if (showEfficiency)
+        m_efficiency->setResult(primary.result, primary.fit,
+                                inputs.plan && !inputs.plan->steps.empty() ? inputs.plan->steps.back().currentA : 0.0);
     m_results->setLines(view.lines);
     m_results->setVerdict(view.state, view.verdictText, view.verdictRule);
     m_results->setBudgets(view.budgets);
@@ -461,6 +478,7 @@ void MainWindow::applyColourScheme()
     const bool dark = isDarkPalette(palette());
     m_chart->applyColours(dark);
     m_residuals->applyColours(dark);
+    m_efficiency->applyColours(dark);
     QPalette stripPalette = m_nextStep->palette();
     stripPalette.setColor(QPalette::Window, palette().color(QPalette::AlternateBase));
     m_nextStep->setPalette(stripPalette);

@@ -30,6 +30,7 @@ class NextStepStrip;
 class PlanPanel;
 class ReadingsTableModel;
 class ResidualChart;
+class EfficiencyChart;
 class ResultsPanel;
 class SessionBand;
 class SetupForm;
@@ -73,6 +74,7 @@ public:
     NextStepStrip *nextStep() const { return m_nextStep; }
     VoltageCurrentChart *chart() const { return m_chart; }
     ResidualChart *residualChart() const { return m_residuals; }
+    EfficiencyChart *efficiencyChart() const { return m_efficiency; }
     ResultsPanel *results() const { return m_results; }
     CautionStrip *caution() const { return m_caution; }
     SessionBand *sessionBand() const { return m_band; }
@@ -149,6 +151,8 @@ private:
     DisplayPoints m_points; // what both charts draw, sorted once for both
     VoltageCurrentChart *m_chart;
     ResidualChart *m_residuals;
+    EfficiencyChart *m_efficiency;   // beside the V–I chart, shown once readings carry primary power
+    QSplitter *m_topChartSplitter;   // the V–I chart and the efficiency chart side by side
     ResultsPanel *m_results;
     ReadingsTableModel *m_readingsModel;
     QTableView *m_readingsView;

@@ -239,6 +239,7 @@ void drawSessionReport(ReportCanvas &canvas, const SessionSummary &summary, cons
     canvas.setPageMark(summary.isSimulated() ? QStringLiteral("SIMULATED (virtual bench)") : QString());
     drawTitleBlock(canvas, summary, options);
     drawResultsAndVerdict(canvas, summary);
+    drawPrimarySide(canvas, summary);
     drawUncertaintyBudget(canvas, summary);
     drawCharts(canvas, summary);
     drawNameplateAndPlan(canvas, summary);

@@ -13,6 +13,8 @@ struct SessionSummary;
 void drawTitleBlock(ReportCanvas &canvas, const SessionSummary &summary, const ReportOptions &options);
 void drawNameplateAndPlan(ReportCanvas &canvas, const SessionSummary &summary);
 void drawResultsAndVerdict(ReportCanvas &canvas, const SessionSummary &summary);
+// The supply, open-circuit quantities, efficiency and every step's loss balance (ReportPrimarySide.cpp).
+void drawPrimarySide(ReportCanvas &canvas, const SessionSummary &summary);
 void drawUncertaintyBudget(ReportCanvas &canvas, const SessionSummary &summary);
 void drawCharts(ReportCanvas &canvas, const SessionSummary &summary);
 void drawReadingsTable(ReportCanvas &canvas, const SessionSummary &summary);

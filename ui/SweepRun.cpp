@@ -92,7 +92,8 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
         break;
     case ReadingSource::VirtualBench:
         m_bench = std::make_unique<VirtualBench>(virtualBenchOptionsFor(setup, plan, virtualBenchSeed), m_clock.get());
-        m_rig.reset(makeVirtualBenchRig(m_bench.get(), false));
+        // The whole demo bench: the secondary meters and the mains-side analyser (losses, efficiency).
+        m_rig.reset(makeVirtualBenchRig(m_bench.get(), false, nullptr, true));
         options.simulated = true;
         options.dwellMs = std::min(options.dwellMs, virtualBenchDwellMs);
         options.readIntervalMs = std::min(options.readIntervalMs, virtualBenchReadIntervalMs);

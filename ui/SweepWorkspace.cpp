@@ -1,5 +1,7 @@
 #include "SweepWorkspace.h"
 
+#include <algorithm>
+
 #include "BuildInfo.h"
 #include "ManualEntry.h"
 #include "PlanJson.h"
@@ -460,6 +462,26 @@ const FitSummary &SweepWorkspace::summary()
         m_summaryDue.start(static_cast<int>(summaryIntervalMs - m_summaryClock.elapsed()));
     }
     return m_summary;
+}
+
+const SweepWorkspace::PrimarySideView &SweepWorkspace::primarySide()
+{
+    if (m_primaryAt == m_fitChanges)
+        return m_primary;
+    m_primaryAt = m_fitChanges;
+    m_primary = {};
+    const bool anyPrimary = std::any_of(m_readings.begin(), m_readings.end(), [](const Reading &r) { return r.primary.hasAny(); });
+    if (!m_setup || !anyPrimary)
+        return m_primary;
+    const double ratedV1 = m_setup->nameplate.primaryVoltageV;
+    m_primary.supply = assessSupply(m_readings, ratedV1, FitVoltages::Referred);
+    m_primary.fit = m_primary.supply.fitVoltages == FitVoltages::Referred
+                        ? fitReadings(referToRatedSupply(m_readings, ratedV1), FitMethod::Ols, fitOptionsFor(m_setup->meters))
+                        : fitReadings(m_readings, FitMethod::Ols, fitOptionsFor(m_setup->meters));
+    const AnalysisInput analysisInput = analysisInputFor(*m_setup);
+    m_primary.result = analysePrimarySide(m_readings, m_primary.fit.ok() ? &m_primary.fit : nullptr, &analysisInput,
+                                          primarySideInputFor(m_setup->nameplate));
+    return m_primary;
 }
 
 void SweepWorkspace::backgroundSummaryArrived(std::uint64_t fitChange, const FitSummary &summary)

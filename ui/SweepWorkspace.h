@@ -11,6 +11,7 @@
 #include "FitSummary.h"
 #include "LineFit.h"
 #include "PlanGates.h"
+#include "PrimarySideAnalysis.h"
 #include "Planner.h"
 #include "Reading.h"
 #include "SessionProgress.h"
@@ -165,6 +166,14 @@ public:
     // 5 000 points; above that on a worker thread at most once a second, returning the last
     // one meanwhile (fitChanged() when a new one arrives). The live fit is always current.
     const FitSummary &summary();
+    // The primary side of the readings so far (core's analysis on the fit of the readings referred
+    // to the rated supply), recomputed when the readings changed; empty without primary values.
+    struct PrimarySideView {
+        SupplyAssessment supply;
+        FitSummary fit;                           // on the referred readings (or raw, without V1)
+        std::optional<PrimarySideResult> result;
+    };
+    const PrimarySideView &primarySide();
     double residualOf(double currentA, double voltageV) const;
     std::optional<double> nextCurrentA() const { return m_nextCurrentA; }
 
@@ -210,6 +219,8 @@ private:
     };
     Line m_line;                 // the live fit's line, cached for per-row residuals
     FitSummary m_summary;
+    PrimarySideView m_primary;
+    std::uint64_t m_primaryAt = std::numeric_limits<std::uint64_t>::max(); // m_fitChanges it was made at
     QElapsedTimer m_summaryClock;
     bool m_summaryStale = true;
     BackgroundFit *m_backgroundFit;

@@ -151,8 +151,7 @@ void printPrimarySide(const FitReport &report, const std::function<void(const st
     show("Regulation at pf " + formatSignificant(p.regulationPowerFactor, 2) + (p.leading ? " lead" : " lag"),
          p.regulationAtPowerFactorPercent, "%", " (ΔV ≈ I(R cos φ ± X sin φ))");
     if (!p.steps.empty()) {
-        out << "  Losses per step (W; η in %, U at 95 %):
-";
+        out << "  Losses per step (W; η in %, U at 95 %):\n";
         out << "    " << padRight("I2 (A)", 9) << padRight("P1", 9) << padRight("P2", 9) << padRight("core", 8)
             << padRight("copper", 8) << padRight("rest", 8) << "η\n";
         for (const StepLosses &s : p.steps) {

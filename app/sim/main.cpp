@@ -59,6 +59,13 @@ void handleCommand(const QString &line, VirtualBench *bench)
                    .arg(s.copperTemperatureC, 0, 'f', 2)
                    .arg(bench->isFuseOpen() ? QStringLiteral("OPEN") : QStringLiteral("ok"))
                    .arg(bench->load() ? QString::number(*bench->load()) + QStringLiteral(" ohm") : QStringLiteral("open"));
+        out << QStringLiteral("V1 %1 V, P1 %2 W, Q1 %3 var, pf %4, core loss %5 W, copper loss %6 W\n")
+                   .arg(s.primaryVoltageV, 0, 'f', 3)
+                   .arg(s.primaryPowerW, 0, 'f', 4)
+                   .arg(s.primaryReactivePowerVar, 0, 'f', 4)
+                   .arg(s.primaryPowerFactor, 0, 'f', 4)
+                   .arg(s.coreLossW, 0, 'f', 4)
+                   .arg(s.copperLossW, 0, 'f', 4);
     } else if (words[0] == QStringLiteral("fault") && target && words.size() >= 3) {
         const auto fault = simFaultFromString(words[2]);
         if (!fault) {
@@ -240,6 +247,14 @@ int main(int argc, char **argv)
                .arg(t.thermalTimeConstantS, 0, 'f', 0)
                .arg(bench.fuse ? QStringLiteral("%1 A %2").arg(bench.fuse->ratingA).arg(QString::fromStdString(toString(bench.fuse->type)))
                                : QStringLiteral("none"));
+    out << QStringLiteral("  primary side: core loss P0 %1 W at %2 V, series reactance X %3 ohm (secondary), supply "
+                          "impedance %4 + j%5 ohm; the primary meter also answers MEAS:POW:AC?, MEAS:POW:AC:REAC?, "
+                          "MEAS:POW:AC:PFAC?\n")
+               .arg(t.coreLossW, 0, 'f', 4)
+               .arg(t.primaryVoltageV, 0, 'f', 1)
+               .arg(t.leakageReactanceOhm, 0, 'f', 4)
+               .arg(t.supplyResistanceOhm, 0, 'f', 3)
+               .arg(t.supplyReactanceOhm, 0, 'f', 3);
     QList<QObject *> endpoints;
     for (SimInstrument *instrument : virtualBench.instruments()) {
         QString listing = QStringLiteral("  %1").arg(toString(instrument->kind()), -12);

@@ -197,27 +197,31 @@ TEST(PrimarySideAnalysis, LossesThatDoNotAddUpAreWarned)
     EXPECT_NE(out.warnings.front().find("do not add up"), std::string::npos) << out.warnings.front();
 }
 
-// A supply with its own impedance: V1 = 230 - 2·I2 (V), EMF ∝ V1, transformer R = 0.5 Ω. The raw
-// fit takes the supply's sag as resistance (2/9.2 ≈ 0.217 Ω more, a = 9.2); the referred fit
-// gives back 0.5 Ω to within the referral's own scaling of the R·I drop (230/V1, up to 3.6 %
-// here: 0.518 Ω), and the 3.5 % drift is flagged against the 2 % tolerance.
+// A supply with its own impedance (a scenario of our own): EMF 230 V behind 18.4 Ω, a = 9.2,
+// transformer R = 0.5 Ω, loads RL from open circuit down to 5 Ω. The secondary sees the supply's
+// impedance as 18.4/9.2² = 0.2174 Ω more R; referring each reading to the rated 230 V (V2 and I2
+// scaled alike: the same load at the rated supply) gives back 0.5 Ω exactly, and the sag
+// (8 % here) is flagged against the 2 % tolerance.
 TEST(SupplyReferral, ReferredFitRemovesTheSupplySag)
 {
+    const double a = 9.2, rs = 18.4, r = 0.5;
     std::vector<Reading> readings;
-    for (int k = 0; k <= 8; ++k) {
-        const double i = 0.5 * k;
-        const double v1 = 230.0 - 2.0 * i;
-        Reading r = point(k, i, v1 / 9.2 - 0.5 * i);
-        r.primary.voltageV = v1;
-        readings.push_back(r);
+    const double loads[] = {0.0, 50.0, 25.0, 12.0, 8.0, 5.0};
+    for (int k = 0; k < 6; ++k) {
+        const double i = k == 0 ? 0.0 : (230.0 / a) / (r + loads[k] + rs / (a * a));
+        const double v1 = 230.0 - rs * i / a;
+        Reading reading = point(k, i, k == 0 ? 230.0 / a : i * loads[k]);
+        reading.primary.voltageV = v1;
+        readings.push_back(reading);
     }
     const FitSummary raw = fitReadings(readings, FitMethod::Ols);
     const FitSummary referred = fitReadings(referToRatedSupply(readings, 230.0), FitMethod::Ols);
-    EXPECT_NEAR(raw.seriesResistanceOhm(), 0.5 + 2.0 / 9.2, 1e-3);
-    EXPECT_NEAR(referred.seriesResistanceOhm(), 0.5, 0.02); // the referral also scales the R·I term slightly
+    EXPECT_NEAR(raw.seriesResistanceOhm(), r + rs / (a * a), 1e-9);
+    EXPECT_NEAR(referred.seriesResistanceOhm(), r, 1e-9);
+    EXPECT_NEAR(referred.noLoadVoltageV(), 230.0 / a, 1e-9);
     const SupplyAssessment supply = assessSupply(readings, 230.0, FitVoltages::Referred);
     EXPECT_EQ(supply.fitVoltages, FitVoltages::Referred);
-    EXPECT_NEAR(*supply.driftPercent, 8.0 / 230.0 * 100.0, 1e-9);
+    EXPECT_NEAR(*supply.driftPercent, (230.0 - *readings.back().primary.voltageV) / 230.0 * 100.0, 1e-9);
     EXPECT_TRUE(supply.drifted);
     EXPECT_NE(supply.statement.find("referred"), std::string::npos) << supply.statement;
     EXPECT_NE(supply.statement.find("drifted"), std::string::npos) << supply.statement;

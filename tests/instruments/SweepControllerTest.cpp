@@ -338,7 +338,14 @@ TEST(SweepController, OptionalPrimaryMetersAreReadWithEveryPoint)
     ASSERT_TRUE(sweep.run());
     EXPECT_EQ(*sweep.outcome, SweepOutcome::Completed);
     ASSERT_EQ(sweep.recorded.size(), sweep.plan.steps.size());
-    // 230 V supply; the last step draws about the plan's primary current (0.287 A).
+    // 230 V supply; the last step draws the plan's primary current (0.287 A, load and magnetizing
+    // current) plus the core-loss current the bench now models (3 W / 230 V in phase): about 0.30 A.
     EXPECT_NE(sweep.recorded.back().rawText.find("; V1: 2.30"), std::string::npos) << sweep.recorded.back().rawText;
-    EXPECT_NE(sweep.recorded.back().rawText.find("; I1: 2.8"), std::string::npos) << sweep.recorded.back().rawText;
+    EXPECT_NE(sweep.recorded.back().rawText.find("; I1: 3.0"), std::string::npos) << sweep.recorded.back().rawText;
+    // ... and kept as data with their standard uncertainties, not only as text.
+    const PrimaryReading &last = sweep.recorded.back().primary;
+    ASSERT_TRUE(last.voltageV && last.currentA && last.uVoltageV && last.uCurrentA);
+    EXPECT_NEAR(*last.voltageV, 230.0, 1.0);
+    EXPECT_NEAR(*last.currentA, 0.30, 0.01);
+    EXPECT_FALSE(last.powerW) << "no power role on this meter";
 }
