@@ -1,8 +1,9 @@
 // `sagline-cli run` against meters that misbehave after they have connected, headless: each
 // run must end by itself within a bounded time (exit 4, gave up) with the load switched off,
 // the reason in the session and no reading taken from the bad replies. Reproducers (issue 18):
-// a meter that sends 1 MB without a newline, one that answers one byte a second, and one that
-// closes the connection after *IDN? made `run` loop "link lost ... restored" or wait for ever.
+// a single meter that stops answering, one that sends 1 MB without a newline, one that answers
+// one byte a second, and one that closes the connection after *IDN? made `run` loop "link
+// lost ... restored" or wait for ever.
 #include "OperatorSweep.h"
 
 #include "SessionStore.h"
@@ -23,6 +24,7 @@ enum class Misbehaviour {
     EndlessLine,    // every measurement reply is 1 MB with no newline
     OneByteASecond, // every measurement reply trickles in at one byte a second
     ClosesAfterIdn, // answers the connect sequence, then closes at the first measurement
+    Silent,         // answers the connect sequence, then never a measurement
 };
 
 // A meter on loopback TCP that answers the connect sequence (*IDN?, the error queue, *OPC?)
@@ -84,6 +86,8 @@ private:
         }
         case Misbehaviour::ClosesAfterIdn:
             socket->disconnectFromHost();
+            break;
+        case Misbehaviour::Silent:
             break;
         }
     }
@@ -182,4 +186,12 @@ TEST(HostileMeterRun, AMeterClosingAfterItsIdentityEndsTheRunInsteadOfLooping)
     // It came back a few times (more than 3 in one step counts as lost), not for ever.
     EXPECT_GT(meter.connections, 1);
     EXPECT_LT(meter.connections, 30);
+}
+
+TEST(HostileMeterRun, AMeterThatStopsAnsweringEndsTheRun)
+{
+    HostileMeter meter(Misbehaviour::Silent);
+    const RunResult r = runAgainst(meter);
+    expectGaveUpCleanly(r);
+    EXPECT_GT(meter.measurements, 0);
 }
