@@ -10,6 +10,7 @@
 
 #include "BuildInfo.h"
 #include "Clock.h"
+#include "ConformityAssessment.h"
 #include "InstrumentRig.h"
 #include "LineFitLiveFit.h"
 #include "LinkAddress.h"
@@ -471,22 +472,30 @@ int runRun(const Arguments &rawArgs)
     if (readings.ok()) {
         FitReport report;
         report.source = args.outputPath;
-        // The session's own summary when it has primary readings: the fit on referred voltages,
-        // losses and efficiency, as `fit` and the report show them.
-        const bool anyPrimary = std::any_of(readings.value.begin(), readings.value.end(),
-                                            [](const Reading &r) { return r.primary.hasAny(); });
-        std::optional<SessionSummary> summary;
-        if (anyPrimary) {
-            if (auto loaded = summarizeSession(*store); loaded.ok())
-                summary = std::move(loaded.value);
-        }
-        report.fit = summary ? summary->fit : fitReadings(readings.value, FitMethod::Ols);
+        // The setup as recorded (with the meters' accuracy rules) and core's one assessment, so
+        // these are the numbers `fit SESSION` prints for the new file: on the readings referred to
+        // the rated supply where the primary voltage was read.
+        const double ratedPrimaryV = recordedSetup.nameplate.primaryVoltageV;
+        report.supply = assessSupply(readings.value, ratedPrimaryV, FitVoltages::Referred);
+        report.fit = report.supply->fitVoltages == FitVoltages::Referred
+                         ? fitReadings(referToRatedSupply(readings.value, ratedPrimaryV), FitMethod::Ols,
+                                       fitOptionsFor(recordedSetup.meters))
+                         : fitReadings(readings.value, FitMethod::Ols, fitOptionsFor(recordedSetup.meters));
         if (report.fit.ok()) {
             report.warnings = fitWarnings(report.fit, {});
-            report.analysis = analyseFit(report.fit, analysisInputFor(setup.nameplate));
-            if (summary) {
-                report.supply = summary->supply;
-                report.primarySide = summary->primarySide;
+            report.meters = recordedSetup.meters;
+            report.hasNameplate = true;
+            if (std::any_of(readings.value.begin(), readings.value.end(), [](const Reading &r) { return r.primary.hasAny(); })) {
+                const AnalysisInput analysisInput = analysisInputFor(recordedSetup);
+                report.primarySide = analysePrimarySide(readings.value, &report.fit, &analysisInput,
+                                                        primarySideInputFor(recordedSetup.nameplate));
+            }
+            const Assessment assessment = assessFit(report.fit, recordedSetup, AssessmentOptions{});
+            if (assessment.analysis.ok()) {
+                report.analysis = assessment.analysis;
+                report.verdict = assessment.verdict;
+            } else {
+                report.warnings.push_back("no analysis at rated current: " + assessment.analysis.errors.front().message());
             }
             std::cout << '\n';
             printFitReport(report, std::cout);
