@@ -155,7 +155,8 @@ int fitSession(const FitArguments &args, FitReport &report)
 // A CSV: the readings as given, the nameplate, meters and specification from --setup.
 int fitCsv(const FitArguments &args, FitReport &report)
 {
-    const ReadingsCsvParse csv = loadReadingsCsv(args.dataPath);
+    // Only the fit's columns of each reading are kept: a million rows take 37 MB, not 150.
+    ReadingColumnsCsvParse csv = loadReadingColumnsCsv(args.dataPath);
     if (!csv.ok()) {
         for (const FieldError &e : csv.errors)
             std::cerr << "sagline-cli fit: " << args.dataPath << ", " << e.message() << '\n';
@@ -165,7 +166,7 @@ int fitCsv(const FitArguments &args, FitReport &report)
         return invalid(args.dataPath + ": --method wls needs the column u_voltage_v (standard uncertainty of each voltage)");
     if (args.method == FitMethod::York && !(csv.hasVoltageUncertainty && csv.hasCurrentUncertainty))
         return invalid(args.dataPath + ": --method york needs the columns u_current_a and u_voltage_v (standard uncertainties)");
-    report.lineNumbers = csv.lineNumbers;
+    report.lineNumbers = std::move(csv.lineNumbers);
     std::optional<Setup> setup;
     if (!args.setupPath.empty()) {
         const SetupParse parsed = loadSetupFile(args.setupPath);
@@ -180,7 +181,8 @@ int fitCsv(const FitArguments &args, FitReport &report)
                        "or a session");
     }
     report.meters = setup ? setup->meters : std::nullopt;
-    report.fit = fitReadings(csv.readings, args.method, fitOptionsFor(report.meters));
+    report.fit = fitReadings(csv.columns, args.method, fitOptionsFor(report.meters));
+    csv.columns.clear(); // the fit has what it needs; the output needs only the line numbers
     if (!report.fit.ok()) {
         std::string message = report.fit.message;
         // Name the CSV line as well as the row.
@@ -242,7 +244,7 @@ int runFit(const Arguments &arguments)
     if (report.analysis && !report.analysis->regulationPercent.expandedUncertainty)
         report.warnings.push_back("the results have no uncertainty: the fit has too few points to give one");
     if (args.json)
-        std::cout << jsonText(fitReportJson(report), 2) << '\n';
+        writeFitReportJson(report, std::cout);
     else
         printFitReport(report, std::cout);
     return exitSuccess;
