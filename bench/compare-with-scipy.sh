@@ -91,18 +91,19 @@ pair() {
     ma=$(median "$work/$a.times" 2); mb=$(median "$work/$b.times" 2)
     awk -v l="$label" -v ta="$ta" -v tb="$tb" -v ma="$ma" -v mb="$mb" -v a="$a" 'BEGIN {
         ratio = (a == "york") ? tb / ta : ta / tb
-        printf "%-28s %10.1f %10.1f %8.2f %10.1f %10.1f\n", l, ta / 1000, tb / 1000, ratio, ma / 1024, mb / 1024 }'
+        printf "%-32s %10.1f %10.1f %8.2f %10.1f %10.1f\n", l, ta / 1000, tb / 1000, ratio, ma / 1024, mb / 1024 }'
 }
 
 echo "compare-with-scipy: $rounds alternating rounds per row, medians; $(nproc) cores, load $(cut -d' ' -f1-3 /proc/loadavg)"
 echo "CLI: $cli ($("$cli" --version 2>/dev/null | head -1)); $($python -c 'import numpy, scipy; print("NumPy", numpy.__version__, "SciPy", scipy.__version__)')"
-printf "%-28s %10s %10s %8s %10s %10s\n" "case" "CLI ms" "script ms" "ratio" "CLI MB" "script MB"
+printf "%-32s %10s %10s %8s %10s %10s\n" "case" "CLI ms" "script ms" "ratio" "CLI MB" "script MB"
 for n in $sizes; do
     $python "$here/make-readings-csv.py" "$n" random "$work/r$n.csv"
     pair "fit --json vs linregress $n" cli "$cli" fit "$work/r$n.csv" --json -- scipy "$python" "$work/linregress.py" "$work/r$n.csv"
 done
 if [ -f "$work/r100000.csv" ] || $python "$here/make-readings-csv.py" 100000 random "$work/r100000.csv"; then
-    pair "york vs scipy.odr 100000" york "$cli" fit "$work/r100000.csv" --method york --json -- odr "$python" "$work/odr.py" "$work/r100000.csv"
+    pair "york --json vs odr 100000" york "$cli" fit "$work/r100000.csv" --method york --json -- odr "$python" "$work/odr.py" "$work/r100000.csv"
+    pair "york (text) vs odr 100000" york "$cli" fit "$work/r100000.csv" --method york -- odr "$python" "$work/odr.py" "$work/r100000.csv"
     # The demo transformer's setup (resources/demo-setup.json), so the session's fit has the
     # analysis at rated current and the verdict as a real session does.
     if "$cli" import "$work/r100000.csv" --setup "$here/../resources/demo-setup.json" \

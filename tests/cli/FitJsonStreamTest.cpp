@@ -8,7 +8,9 @@
 #include "CsvReadings.h"
 #include "FitSummary.h"
 
-#include <cinttypes>
+#include <nlohmann/json.hpp>
+
+#include <cstdint>
 #include <cstdio>
 
 using namespace sagline;
@@ -108,11 +110,13 @@ TEST_F(FitJsonStream, LargeOutputIsTheTreesTextAndCoresNumbers)
         ASSERT_EQ(q["outlier"].get<bool>(), p.outlier);
         ASSERT_EQ(q["residual_v"].get<double>(), p.residualV) << i;
         ASSERT_EQ(q["studentized"].is_null(), !p.studentized) << i;
-        if (p.studentized)
+        if (p.studentized) {
             ASSERT_EQ(q["studentized"].get<double>(), *p.studentized) << i;
+        }
         ASSERT_EQ(q["screening_statistic"].is_null(), !p.screeningStatistic) << i;
-        if (p.screeningStatistic)
+        if (p.screeningStatistic) {
             ASSERT_EQ(q["screening_statistic"].get<double>(), *p.screeningStatistic) << i;
+        }
     }
     EXPECT_EQ(j["slope"].get<double>(), fit.slope);
     EXPECT_EQ(j["intercept"].get<double>(), fit.intercept);
