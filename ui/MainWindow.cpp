@@ -509,7 +509,7 @@ void MainWindow::showSweepState()
         m_nextStep->setSweepState(StripState::Settling, {},
                                   tr("⏳ Settling: reading in %1 s (dwell %2 s)")
                                       .arg(seconds)
-                                      .arg((controller->options().dwellMs + 999) / 1000));
+                                      .arg(QString::number(static_cast<double>(controller->options().dwellMs) / 1000.0, 'g', 3)));
         break;
     }
     case SweepState::SettingLoad:

@@ -16,6 +16,7 @@
 #include <QClipboard>
 #include <QComboBox>
 #include <QFile>
+#include <QPushButton>
 #include <QGuiApplication>
 #include <QValueAxis>
 #include <QWheelEvent>

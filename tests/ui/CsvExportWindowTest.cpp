@@ -12,6 +12,7 @@
 
 #include <QComboBox>
 #include <QFile>
+#include <QPushButton>
 #include <QTableView>
 
 using namespace sagline;

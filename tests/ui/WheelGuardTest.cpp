@@ -9,7 +9,6 @@
 
 #include <QComboBox>
 #include <QScrollArea>
-#include <QScrollBar>
 #include <QSpinBox>
 #include <QWheelEvent>
 
@@ -50,13 +49,11 @@ TEST(WheelGuard, ScrollingTheSetupFormLeavesTheFuseTypeAlone)
     auto *scroll = qobject_cast<QScrollArea *>(window->setupForm()->parentWidget()->parentWidget());
     ASSERT_NE(scroll, nullptr);
     scroll->ensureWidgetVisible(fuseType);
-    const int scrolledBefore = scroll->verticalScrollBar()->value();
     fuseType->clearFocus();
     wheelOver(fuseType, 1);
     EXPECT_EQ(fuseType->currentIndex(), before);
-    // The wheel went on to the page instead (when there is room to scroll down).
-    if (scroll->verticalScrollBar()->maximum() > scrolledBefore)
-        EXPECT_GT(scroll->verticalScrollBar()->value(), scrolledBefore);
+    // (A real wheel event then goes on to the scroll area; one sent by a test is not passed on
+    // to parents by QApplication, so the page's scrolling is not checked here.)
 
     fuseType->setFocus();
     ASSERT_TRUE(waitUntil([&] { return fuseType->hasFocus(); }, 2000));
