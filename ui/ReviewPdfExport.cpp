@@ -19,9 +19,9 @@ namespace {
 
 QString qs(const std::string &s) { return QString::fromStdString(s); }
 
-QString withU(bool ok, double value, const std::optional<double> &u, const char *unit)
+QString withU(bool ok, double value, const std::optional<double> &u, const std::optional<double> &k, const char *unit)
 {
-    return ok ? qs(formatWithUncertainty(value, u.value_or(0.0), unit)) : QStringLiteral("—");
+    return ok ? qs(formatWithCoverage(value, u, k, unit)) : QStringLiteral("—");
 }
 
 void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *> &rows, const BatchStatistics &stats,
@@ -58,9 +58,11 @@ void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *>
         }
         const SessionFigures &f = row.figures;
         const bool far = std::find(stats.farFromBatch.begin(), stats.farFromBatch.end(), i) != stats.farFromBatch.end();
-        table.append({qs(row.unitSerial), qs(row.createdUtc.substr(0, 10)), withU(f.ok, f.resistanceOhm, f.resistanceUOhm, "Ω"),
-                      withU(f.resistanceRefOhm.has_value(), f.resistanceRefOhm.value_or(0.0), f.resistanceRefUOhm, "Ω"),
-                      withU(f.regulationPercent.has_value(), f.regulationPercent.value_or(0.0), f.regulationUPercent, "%"),
+        table.append({qs(row.unitSerial), qs(row.createdUtc.substr(0, 10)), withU(f.ok, f.resistanceOhm, f.resistanceUOhm, f.resistanceK, "Ω"),
+                      withU(f.resistanceRefOhm.has_value(), f.resistanceRefOhm.value_or(0.0), f.resistanceRefUOhm,
+                            f.resistanceRefK, "Ω"),
+                      withU(f.regulationPercent.has_value(), f.regulationPercent.value_or(0.0), f.regulationUPercent,
+                            f.regulationK, "%"),
                       qs(f.verdictText())
                           + (far ? (stats.screeningOnly ? QObject::tr(" · far from batch (screening only)")
                                                         : QObject::tr(" · far from batch"))

@@ -210,3 +210,24 @@ TEST(FitCommand, FitsASessionHonouringExclusionsAndItsNameplate)
     EXPECT_TRUE(j["analysis"]["regulation_percent"]["value"].is_number()); // from the session's nameplate
     std::filesystem::remove_all(dir);
 }
+
+TEST(FitCommand, RunPrintsWhatFitPrintsForItsSession)
+{
+    // The summary at the end of a sweep is the one `fit SESSION` gives for the file it wrote:
+    // the meters' specifications recorded from the instruments are in both budgets, and the
+    // verdict against the setup's specification is there too.
+    const auto session = std::filesystem::temp_directory_path() / "sagline-fit-test-run-same.sagline";
+    std::filesystem::remove(session);
+    const auto run = runProgram(cli, {"run", demoSetup, "--sim", "--seed", "7", "-o", session.string()});
+    ASSERT_EQ(run.exitCode, 0) << run.err;
+    const auto fit = runProgram(cli, {"fit", session.string()});
+    ASSERT_EQ(fit.exitCode, 0) << fit.err;
+    const auto line = [](const std::string &text, const std::string &label) {
+        const auto at = text.find(label);
+        return at == std::string::npos ? std::string("(missing: " + label + ")") : text.substr(at, text.find('\n', at) - at);
+    };
+    for (const char *label : {"Uncertainties:", "Series resistance R", "No-load voltage V0", "Regulation", "Verdict"})
+        EXPECT_EQ(line(run.out, label), line(fit.out, label)) << label;
+    EXPECT_EQ(run.out.find("were not recorded"), std::string::npos) << run.out;
+    std::filesystem::remove(session);
+}
