@@ -75,8 +75,9 @@ void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *>
                   {QObject::tr("Regulation ± U"), 0.15, Qt::AlignRight}, {QObject::tr("Verdict"), 0.14},
                   {QObject::tr("Review"), 0.12}},
                  table);
-    canvas.paragraph(QObject::tr("U: expanded uncertainties at 95 % coverage, k = t95(ν_eff) from each result's own budget "
-                                 "(GUM G.4). Each session's full report follows, with its budget."),
+    canvas.paragraph(QObject::tr("U: expanded uncertainties at 95 % coverage with the k of each result's own budget, k = U/u: "
+                                 "t95(ν_eff) (GUM G.4) unless a rectangular meter limit dominates. Each session's full "
+                                 "report follows, with its budget."),
                      8.0, false, true);
 }
 

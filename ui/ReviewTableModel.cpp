@@ -33,8 +33,8 @@ QVariant number(bool ok, double value)
 // Every U in the table is at 95 % with the k of its own budget, printed beside it.
 QString coverageNote()
 {
-    return QObject::tr("± U: expanded uncertainty at 95 % coverage, k = t95(ν_eff) of the result's own budget "
-                       "(GUM G.4), shown beside each value");
+    return QObject::tr("± U: expanded uncertainty at 95 % coverage with the k of the result's own budget, shown "
+                       "beside each value: k = U/u, t95(ν_eff) (GUM G.4) unless a rectangular meter limit dominates");
 }
 
 } // namespace
