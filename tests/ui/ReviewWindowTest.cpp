@@ -111,10 +111,10 @@ TEST(ReviewWindow, OverlaySignOffExportAndScreenshot)
     EXPECT_NE(window->summaryText().indexOf(QStringLiteral("Selection: 3")), -1) << window->summaryText().toStdString();
 
     const int row = window->filter()->mapToSource(window->filter()->index(proxyRowOf(*window, "DEMO-0002"), 0)).row();
-    EXPECT_EQ(window->signOff(row, {"Lab Lead", Verdict::Accepted, "consistent with the batch"}, true), QString());
+    EXPECT_EQ(window->signOff(row, {"Lab Lead", ReviewDecision::Accepted, "consistent with the batch"}, true), QString());
     EXPECT_EQ(window->model()->sessionRow(row).reviewState(), "accepted");
     EXPECT_NE(window->detail()->historyText().indexOf(QStringLiteral("Lab Lead")), -1);
-    EXPECT_FALSE(window->signOff(row, {"", Verdict::Accepted, ""}, true).isEmpty()) << "a reviewer is required";
+    EXPECT_FALSE(window->signOff(row, {"", ReviewDecision::Accepted, ""}, true).isEmpty()) << "a reviewer is required";
 
     const QString csv = QString::fromStdString(folder.file("review.csv"));
     EXPECT_EQ(window->exportCsv(csv), QString());
