@@ -175,6 +175,13 @@ bool MainWindow::openSessionFile(const QString &path)
     }
     rememberRecent(path);
     const QString readOnly = m_workspace->readOnlyReason();
+    if (!m_workspace->setup() && !m_workspace->errors().empty()) {
+        // Its readings are shown, but nothing planned or judged from a setup that does not read.
+        showMessage(tr("Opened %1, but its stored setup cannot be read: %2")
+                        .arg(path, QString::fromStdString(m_workspace->errors().front().message())),
+                    true);
+        return true;
+    }
     showMessage(readOnly.isEmpty() ? tr("Opened %1").arg(path) : tr("Opened %1 for review only. %2").arg(path, readOnly));
     return true;
 }

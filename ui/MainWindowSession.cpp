@@ -144,9 +144,12 @@ void MainWindow::showSession()
         handleSetupChanged();
     } else if (records.fromFile) {
         // Everything from the file alone.
-        if (workspace->setup()) {
+        {
             const QSignalBlocker block(m_setupForm); // the session's plan stands; the form only shows it
-            m_setupForm->loadSetup(*workspace->setup());
+            if (workspace->setup())
+                m_setupForm->loadSetup(*workspace->setup());
+            else
+                m_setupForm->clearSetup(); // an unreadable stored setup shows as empty, never as the last one
         }
         m_setupForm->setSessionDetails(sessionDetailsFrom(records));
         m_setupForm->setVerdictSettings(workspace->recordedAnalysisSettings()

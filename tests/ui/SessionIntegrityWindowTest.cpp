@@ -48,7 +48,9 @@ void shoot(MainWindow &window, const QString &name, QWidget *dialog = nullptr)
     for (const QSize size : {QSize(1366, 768), QSize(1600, 1000)}) {
         window.resize(size);
         window.flushCharts();
-        QApplication::processEvents();
+        // Word-wrapped labels settle over a few layout passes after a resize (height for width).
+        for (int pass = 0; pass < 5; ++pass)
+            QTest::qWait(20);
         QPixmap picture = window.grab();
         if (dialog) {
             const QPixmap box = dialog->grab();

@@ -104,3 +104,41 @@ TEST(SessionOpening, ASessionBeingWrittenElsewhereIsShownForReviewNamingTheWrite
     reading.voltageV = 19.6;
     EXPECT_TRUE(writer.value->appendReading(reading).ok());
 }
+
+TEST(SessionOpening, AStoredSetupNestedTooDeeplyIsNamedNotACrash)
+{
+    // Reproducer: a session whose stored setup held a value nested 50 000 arrays deep crashed
+    // the window on opening (stack overflow while building the error message).
+    QTemporaryDir folder;
+    const QString path = folder.filePath(QStringLiteral("deep.sagline"));
+    NewSession session;
+    session.setupJson = R"({"nameplate": )" + std::string(50000, '[') + "1" + std::string(50000, ']') + "}";
+    session.planJson = "{}";
+    session.operatorName = "Attacker";
+    session.unitSerial = "X-1";
+    {
+        auto store = SessionStore::create(path.toStdString(), session);
+        ASSERT_TRUE(store.ok()) << store.message;
+        Reading reading;
+        reading.step = 0;
+        reading.voltageV = 19.6;
+        ASSERT_TRUE(store.value->appendReading(reading).ok());
+    }
+    const QByteArray before = bytesOf(path);
+    auto window = demoWindow(folder.path());
+    window->show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+    window->openSessionFile(path); // shown for review or refused; either way it says why
+    const QString said = window->lastMessage();
+    EXPECT_TRUE(said.contains(QStringLiteral("nested more than 32 levels deep"))) << said.toStdString();
+    EXPECT_TRUE(said.contains(QStringLiteral("stored setup cannot be read"))) << said.toStdString();
+    EXPECT_LT(said.size(), 2000) << "the hostile text was echoed";
+    // The form shows no nameplate rather than the demo's (or the last session's).
+    EXPECT_TRUE(window->setupForm()->quantityField(QStringLiteral("nameplate.rated_power_va"))->text().isEmpty());
+    EXPECT_EQ(window->workspace()->readings().size(), 1u);
+    // The window still works: New gives the program's defaults.
+    QTest::keyClick(window.get(), Qt::Key_N, Qt::ControlModifier);
+    EXPECT_FALSE(window->workspace()->store());
+    window.reset();
+    EXPECT_EQ(bytesOf(path), before) << "opening must not change the file";
+}
