@@ -46,10 +46,10 @@ std::string demoSheetJson()
 
 void writeText(const std::string &path, const std::string &text) { std::ofstream(path, std::ios::binary) << text; }
 
-struct Bench {
+struct StudentBench {
     TempFolder folder;
     StudentBenchWindow window;
-    Bench()
+    StudentBench()
     {
         std::filesystem::create_directories(folder.file("sheets"));
         writeText(folder.file("sheets/lab3.json"), demoSheetJson());
@@ -68,7 +68,7 @@ struct Bench {
 
 TEST(StudentBenchWindow, ListsTheFoldersSheetsAndLocksWithReasons)
 {
-    Bench bench;
+    StudentBench bench;
     ASSERT_EQ(bench.window.sheetCount(), 2);
     EXPECT_NE(bench.window.chooseSheet(0).indexOf(QStringLiteral("not usable")), -1) << "broken.json sorts first";
     ASSERT_EQ(bench.window.chooseSheet(1), QString());
@@ -86,7 +86,7 @@ TEST(StudentBenchWindow, ListsTheFoldersSheetsAndLocksWithReasons)
 
 TEST(StudentBenchWindow, SupervisorConfirmsWithTheirNameAndPinBeforeAnythingIsWritten)
 {
-    Bench bench;
+    StudentBench bench;
     ASSERT_EQ(bench.window.chooseSheet(1), QString());
     const StudentStart start{"B. Student", "DEMO-0101", "C. Supervisor", "2468"};
     EXPECT_NE(bench.window.start(start).indexOf(QStringLiteral("checklist")), -1);
@@ -104,7 +104,7 @@ TEST(StudentBenchWindow, SupervisorConfirmsWithTheirNameAndPinBeforeAnythingIsWr
 
 TEST(StudentBenchWindow, AFullSessionThroughTheLockedBenchWithChartAndFit)
 {
-    Bench bench;
+    StudentBench bench;
     ASSERT_EQ(bench.window.chooseSheet(1), QString());
     bench.tickAll();
     ASSERT_EQ(bench.window.start({"B. Student", "DEMO-0101", "C. Supervisor", "2468"}), QString());
@@ -119,8 +119,13 @@ TEST(StudentBenchWindow, AFullSessionThroughTheLockedBenchWithChartAndFit)
     const char *amps[] = {"0 A", "417 mA", "0.833", "1.25 A", "1.667 A"};
     const char *volts[] = {"26,40 V", "25.92 V", "25.44", "24.96 V", "24.47 V"};
     for (int k = 0; k < 5; ++k) {
-        EXPECT_EQ(bench.window.enterReading(QString::fromLatin1(amps[k]), QString::fromLatin1(volts[k])), QString())
-            << k << ": " << bench.window.messageText().toStdString();
+        QString refused = bench.window.enterReading(QString::fromLatin1(amps[k]), QString::fromLatin1(volts[k]));
+        if (refused.startsWith(QStringLiteral("Check the typed value"))) {
+            // As at the bench: a value outside the line's prediction is asked about first; the
+            // student looks again and records it (Enter a second time), flagged "confirmed".
+            refused = bench.window.enterReading(QString::fromLatin1(amps[k]), QString::fromLatin1(volts[k]));
+        }
+        EXPECT_EQ(refused, QString()) << k << ": " << bench.window.messageText().toStdString();
         if (k == 2) {
             bench.window.flushCharts();
             EXPECT_TRUE(bench.window.workspace()->liveFit().result().ok()) << "the line forms as the points arrive";
