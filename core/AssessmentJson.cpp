@@ -101,6 +101,7 @@ json outlierScreeningJson(const OutlierScreening &screening)
 {
     return {{"screened", screening.screened},
             {"rule", screening.rule},
+            {"source", screening.source},
             {"critical_value", number(screening.criticalValue)},
             {"reason", screening.reason}};
 }

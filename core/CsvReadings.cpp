@@ -1,6 +1,7 @@
 #include "CsvReadings.h"
 
 #include "AsciiText.h"
+#include "CsvNumber.h"
 #include "OutputText.h"
 #include "TextFile.h"
 
@@ -35,9 +36,9 @@ constexpr KnownColumn knownColumns[] = {
     {"recorded_account", Column::Provenance},
 };
 
-// Splits one line on commas; a cell may be double-quoted ("" is a literal quote). Cells are
-// trimmed of spaces unless quoted. Returns false for an unterminated quote.
-bool splitQuotedCells(std::string_view line, std::vector<std::string> &cells)
+// Splits one line on the separator; a cell may be double-quoted ("" is a literal quote). Cells
+// are trimmed of spaces unless quoted. Returns false for an unterminated quote.
+bool splitQuotedCells(std::string_view line, char separator, std::vector<std::string> &cells)
 {
     cells.clear();
     std::string cell;
@@ -58,7 +59,7 @@ bool splitQuotedCells(std::string_view line, std::vector<std::string> &cells)
             cell.clear();
             quoted = true;
             wasQuoted = true;
-        } else if (c == ',') {
+        } else if (c == separator) {
             cells.push_back(wasQuoted ? cell : std::string(trimSpace(cell)));
             cell.clear();
             wasQuoted = false;
@@ -74,35 +75,23 @@ bool splitQuotedCells(std::string_view line, std::vector<std::string> &cells)
 
 // The same into views: of the line itself when it has no quote (the common case, no copy),
 // else of `unquoted`, which holds the quoted line's cells until the next call.
-bool splitCells(std::string_view line, std::vector<std::string_view> &cells, std::vector<std::string> &unquoted)
+bool splitCells(std::string_view line, char separator, std::vector<std::string_view> &cells,
+                std::vector<std::string> &unquoted)
 {
     cells.clear();
     if (line.find('"') != std::string_view::npos) {
-        if (!splitQuotedCells(line, unquoted))
+        if (!splitQuotedCells(line, separator, unquoted))
             return false;
         cells.assign(unquoted.begin(), unquoted.end());
         return true;
     }
     while (true) {
-        const std::size_t comma = line.find(',');
-        cells.push_back(trimSpace(line.substr(0, comma)));
-        if (comma == std::string_view::npos)
+        const std::size_t at = line.find(separator);
+        cells.push_back(trimSpace(line.substr(0, at)));
+        if (at == std::string_view::npos)
             return true;
-        line.remove_prefix(comma + 1);
+        line.remove_prefix(at + 1);
     }
-}
-
-std::optional<double> parseNumber(std::string_view text)
-{
-    if (!text.empty() && text.front() == '+')
-        text.remove_prefix(1);
-    if (text.empty() || text.front() == '+')
-        return std::nullopt;
-    double value = 0.0;
-    const auto [end, error] = std::from_chars(text.data(), text.data() + text.size(), value);
-    if (error != std::errc() || end != text.data() + text.size() || !std::isfinite(value))
-        return std::nullopt;
-    return value;
 }
 
 std::optional<std::uint32_t> parseFlags(std::string_view text)
@@ -148,11 +137,137 @@ private:
     }
     bool parseHeader(int line, const std::vector<std::string_view> &cells);
     void parseRow(int line, const std::vector<std::string_view> &cells);
+    std::optional<double> readNumber(int line, const std::string &name, std::string_view cell);
+    bool statementLine(int line, std::string_view text, bool haveHeader);
+    bool settleDecimalMark(std::string_view rows, int firstLine);
 
     ReadingsCsvParse m_result;
     std::vector<Column> m_columns;
     std::vector<std::string> m_names;
+    char m_separator = ',';
+    std::optional<DecimalMark> m_statedMark; // from a "# decimal_mark:" line before the header
+    int m_statedLine = 0;
+    DecimalMark m_mark = DecimalMark::Point;
+    bool m_markKnown = true; // false: nothing decides, so a number like 1,250 is refused
 };
+
+bool isNumberColumn(Column c)
+{
+    return c == Column::Current || c == Column::Voltage || c == Column::UCurrent || c == Column::UVoltage;
+}
+
+bool isComment(std::string_view line)
+{
+    line = trimSpace(line);
+    return !line.empty() && line.front() == '#';
+}
+
+// ';' or a tab when the header is separated by one (a spreadsheet saving decimal commas), else ','.
+char separatorOf(std::string_view header)
+{
+    if (header.find(';') != std::string_view::npos)
+        return ';';
+    if (header.find('\t') != std::string_view::npos && header.find(',') == std::string_view::npos)
+        return '\t';
+    return ',';
+}
+
+// A comment line; a decimal-mark statement is taken only before the header.
+bool Parser::statementLine(int line, std::string_view text, bool haveHeader)
+{
+    const DecimalMarkStatement statement = parseDecimalMarkComment(text);
+    if (!statement.isStatement)
+        return true;
+    if (haveHeader) {
+        error(line, "", "a decimal_mark comment must come before the header row");
+        return false;
+    }
+    if (!statement.mark) {
+        error(line, "", statement.problem);
+        return false;
+    }
+    if (m_statedMark && *m_statedMark != *statement.mark) {
+        error(line, "", "states the decimal mark '" + std::string(1, toChar(*statement.mark)) + "', line "
+                            + std::to_string(m_statedLine) + " stated '" + std::string(1, toChar(*m_statedMark)) + "'");
+        return false;
+    }
+    m_statedMark = statement.mark;
+    m_statedLine = line;
+    return true;
+}
+
+// After the header: the file's decimal mark, stated, fixed by a comma separator (the CSV
+// contract), or shown by the numbers themselves; false when the file cannot be read at all.
+bool Parser::settleDecimalMark(std::string_view rows, int firstLine)
+{
+    if (m_statedMark) {
+        if (*m_statedMark == DecimalMark::Comma && m_separator == ',') {
+            error(m_statedLine, "", "a decimal comma needs cells separated by ';' or tabs; this file's header is "
+                                    "separated by ','");
+            return false;
+        }
+        m_mark = *m_statedMark;
+        m_result.decimalMark = m_mark;
+        m_result.decimalMarkBasis = "stated on line " + std::to_string(m_statedLine);
+        return true;
+    }
+    if (m_separator == ',') {
+        m_result.decimalMarkBasis = "'.' in a comma-separated file";
+        return true;
+    }
+    // The first number that can only be read one way decides; two that disagree refuse the file.
+    std::optional<std::pair<int, std::string>> point, comma;
+    std::vector<std::string_view> cells;
+    std::vector<std::string> unquoted;
+    for (int line = firstLine; !rows.empty() && !(point && comma); ++line) {
+        const std::size_t end = rows.find('\n');
+        const std::string_view text = rows.substr(0, end);
+        rows = end == std::string_view::npos ? std::string_view() : rows.substr(end + 1);
+        if (trimSpace(text).empty() || isComment(text) || !splitCells(text, m_separator, cells, unquoted))
+            continue;
+        for (std::size_t i = 0; i < cells.size() && i < m_columns.size(); ++i) {
+            if (!isNumberColumn(m_columns[i]))
+                continue;
+            const MarkEvidence evidence = markEvidence(cells[i]);
+            auto &first = evidence == MarkEvidence::Point ? point : comma;
+            if ((evidence == MarkEvidence::Point || evidence == MarkEvidence::Comma) && !first)
+                first = std::pair(line, printableText(cells[i], 40));
+        }
+    }
+    if (point && comma) {
+        m_result.errors.push_back(
+            {"file", "line " + std::to_string(point->first) + " writes '" + point->second + "' with a decimal point, line "
+                         + std::to_string(comma->first) + " '" + comma->second
+                         + "' with a decimal comma; state the file's mark on a line '# decimal_mark: ,' (or '.') "
+                           "before the header"});
+        return false;
+    }
+    if (point || comma) {
+        m_mark = comma ? DecimalMark::Comma : DecimalMark::Point;
+        m_result.decimalMark = m_mark;
+        const auto &[line, cell] = comma ? *comma : *point;
+        m_result.decimalMarkBasis = "shown by '" + cell + "' on line " + std::to_string(line);
+        return true;
+    }
+    m_markKnown = false;
+    m_result.decimalMarkBasis = "not stated, and no number shows it";
+    return true;
+}
+
+std::optional<double> Parser::readNumber(int line, const std::string &name, std::string_view cell)
+{
+    const auto quote = printableText(cell, 40);
+    if (!m_markKnown && markEvidence(cell) == MarkEvidence::Ambiguous) {
+        error(line, name, "'" + quote + "' could have a thousands separator or a decimal mark, and nothing in the file "
+                          "says which; state the file's mark on a line '# decimal_mark: ,' (or '.') before the header");
+        return std::nullopt;
+    }
+    std::string problem;
+    const auto value = parseCsvNumber(cell, m_mark, problem);
+    if (!value)
+        error(line, name, "'" + quote + "' " + problem);
+    return value;
+}
 
 bool Parser::parseHeader(int line, const std::vector<std::string_view> &cells)
 {
@@ -195,7 +310,12 @@ bool Parser::parseHeader(int line, const std::vector<std::string_view> &cells)
 void Parser::parseRow(int line, const std::vector<std::string_view> &cells)
 {
     if (cells.size() != m_columns.size()) {
-        error(line, "", "has " + std::to_string(cells.size()) + " cells, the header has " + std::to_string(m_columns.size()));
+        std::string rule = "has " + std::to_string(cells.size()) + " cells, the header has " + std::to_string(m_columns.size());
+        if (m_separator == ',' && cells.size() > m_columns.size())
+            rule += "; a number written with a comma, such as 1,250? Cells here are separated by ',', so numbers take "
+                    "'.' and no thousands separator (1250 or 1.25); a file with decimal commas separates its cells "
+                    "with ';' and may state '# decimal_mark: ,' before the header";
+        error(line, "", std::move(rule));
         return;
     }
     Reading reading;
@@ -208,12 +328,11 @@ void Parser::parseRow(int line, const std::vector<std::string_view> &cells)
         switch (m_columns[i]) {
         case Column::Current:
         case Column::Voltage: {
-            const auto value = parseNumber(cell);
+            const auto value = cell.empty() ? std::nullopt : readNumber(line, name, cell);
             if (cell.empty()) {
                 error(line, name, "is empty; a number is required");
                 good = false;
             } else if (!value) {
-                error(line, name, "not a finite number: '" + quote() + "' (use '.' as the decimal point, SI units)");
                 good = false;
             } else if (*value < 0.0) {
                 error(line, name, "must be zero or above (an RMS value), got " + quote());
@@ -230,9 +349,8 @@ void Parser::parseRow(int line, const std::vector<std::string_view> &cells)
         case Column::UVoltage: {
             if (cell.empty())
                 break;
-            const auto value = parseNumber(cell);
+            const auto value = readNumber(line, name, cell);
             if (!value) {
-                error(line, name, "not a finite number: '" + quote() + "'");
                 good = false;
             } else if (!(*value > 0.0)) {
                 error(line, name, "a standard uncertainty must be above zero, got " + quote());
@@ -305,20 +423,27 @@ ReadingsCsvParse Parser::run(std::string_view text)
         ++lineNumber;
         if (trimSpace(line).empty())
             continue;
-        if (!splitCells(line, cells, unquoted)) {
+        if (isComment(line)) {
+            if (!statementLine(lineNumber, line, haveHeader) && !haveHeader)
+                break;
+            continue;
+        }
+        if (!haveHeader)
+            m_separator = separatorOf(line);
+        if (!splitCells(line, m_separator, cells, unquoted)) {
             error(lineNumber, "", "a double quote is not closed");
             continue;
         }
         if (!haveHeader) {
             haveHeader = true;
-            headerGood = parseHeader(lineNumber, cells);
+            headerGood = parseHeader(lineNumber, cells) && settleDecimalMark(text, lineNumber + 1);
             if (!headerGood)
                 break;
             continue;
         }
         parseRow(lineNumber, cells);
     }
-    if (!haveHeader)
+    if (!haveHeader && m_result.errors.empty())
         m_result.errors.push_back({"file", "is empty; expected a header row current_a,voltage_v"});
     else if (headerGood && m_result.readings.empty() && m_result.errors.empty())
         m_result.errors.push_back({"file", "has a header but no readings"});

@@ -1,10 +1,15 @@
 // The readings CSV of DESIGN.md: a header row, then one point per line, comma separated,
-// '.' decimal point, SI units. Columns (any order): current_a, voltage_v (required),
+// '.' decimal point, SI units. A file with decimal commas separates its cells with ';' (or
+// tabs) and may state its mark on a comment line before the header, "# decimal_mark: ,";
+// unstated, the numbers must show it, and a number such as 1,250 that could be either a
+// thousands separator or a decimal comma is refused with its line (core/CsvNumber.h). Lines
+// starting with '#' are comments. Columns (any order): current_a, voltage_v (required),
 // u_current_a, u_voltage_v (optional standard uncertainties; a blank cell means "not known"),
 // and the export's step, time_utc, flags, excluded (optional). Tolerates a UTF-8 BOM, CRLF line
 // ends, blank lines, spaces around cells and double-quoted cells. Never throws.
 #pragma once
 
+#include "CsvNumber.h"
 #include "FieldError.h"
 #include "Reading.h"
 
@@ -19,6 +24,8 @@ struct ReadingsCsvParse {
     std::vector<int> lineNumbers;  // the 1-based file line of each reading, parallel to readings
     bool hasCurrentUncertainty = false; // the u_current_a column is present
     bool hasVoltageUncertainty = false; // the u_voltage_v column is present
+    DecimalMark decimalMark = DecimalMark::Point; // the mark the numbers were read with
+    std::string decimalMarkBasis;  // how it is known: "stated on line 1", "'.' in a comma-separated file", ...
     FieldErrors errors;            // each names "line N, column NAME" (or "file") and the rule
 
     bool ok() const { return errors.empty(); }

@@ -29,9 +29,16 @@ struct OutlierScreenOptions {
     std::size_t minimumPoints = 6;     // below this: not screened
 };
 
+// Where the rule comes from, as every output names it beside the flag.
+inline constexpr const char *outlierScreenSource =
+    "Bonferroni-bounded test of externally studentized residuals, Cook and Weisberg, Residuals and "
+    "Influence in Regression (1982) §2.2; t(n - p - 1) distribution of the studentized residual, Belsley, "
+    "Kuh and Welsch, Regression Diagnostics (1980) (both from memory)";
+
 struct OutlierScreening {
     bool screened = false;
     std::string rule;                   // the statistic, the critical value's origin
+    std::string source = outlierScreenSource; // the published rule it follows
     std::optional<double> criticalValue; // |statistic| above this is flagged
     std::string reason;                 // why not screened, "" when screened
 };

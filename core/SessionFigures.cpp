@@ -43,14 +43,18 @@ SessionFigures computeSessionFigures(const FitSummary &fit, const Setup &setup,
     figures.metersKnown = analysis.metersKnown;
     figures.resistanceOhm = analysis.seriesResistanceOhm.value;
     figures.resistanceUOhm = analysis.seriesResistanceOhm.expandedUncertainty;
+    figures.resistanceK = analysis.seriesResistanceOhm.coverageFactor;
     figures.noLoadVoltageV = analysis.noLoadVoltageV.value;
     figures.noLoadVoltageUV = analysis.noLoadVoltageV.expandedUncertainty;
+    figures.noLoadVoltageK = analysis.noLoadVoltageV.coverageFactor;
     if (analysis.referenceResistanceOhm) {
         figures.resistanceRefOhm = analysis.referenceResistanceOhm->value;
         figures.resistanceRefUOhm = analysis.referenceResistanceOhm->expandedUncertainty;
+        figures.resistanceRefK = analysis.referenceResistanceOhm->coverageFactor;
     }
     figures.regulationPercent = analysis.regulationPercent.value;
     figures.regulationUPercent = analysis.regulationPercent.expandedUncertainty;
+    figures.regulationK = analysis.regulationPercent.coverageFactor;
     const SpecificationVerdict &verdict = figures.assessment.verdict;
     for (const ConformityDecision &d : verdict.limits)
         if (d.quantity.rfind("regulation", 0) == 0)

@@ -30,16 +30,20 @@ struct SessionFigures {
     std::string message;                         // why not (the fit's or the analysis's message)
     double resistanceOhm = 0.0;                  // R = -slope, at the measured temperature, Ω
     std::optional<double> resistanceUOhm;        // expanded (95 %, k = t95(ν_eff) of its own budget)
+    std::optional<double> resistanceK;           // that k (each U has its own)
     double noLoadVoltageV = 0.0;                 // V0
     std::optional<double> noLoadVoltageUV;       // expanded
+    std::optional<double> noLoadVoltageK;
     std::optional<double> windingTemperatureC;   // temperature R was measured at
     double referenceTemperatureC = 75.0;
     double temperatureConstantC = 234.5;         // T_k used
     std::optional<double> resistanceRefOhm;      // R at the reference temperature
     std::optional<double> resistanceRefUOhm;     // expanded
+    std::optional<double> resistanceRefK;
     double ratedCurrentA = 0.0;                  // rated VA / rated secondary voltage
     std::optional<double> regulationPercent;     // (V0 - V_fl)/V_fl × 100 at rated current
     std::optional<double> regulationUPercent;    // expanded
+    std::optional<double> regulationK;
     std::optional<double> regulationLimitPercent;// the regulation limit judged against, if any
     std::optional<ConformityOutcome> verdict;    // absent: no analysis; not-judged without limits
     std::optional<double> conformanceProbability; // the lowest of the judged limits', 0..1

@@ -1,6 +1,7 @@
 #include "UncertaintyFormat.h"
 
 #include "NumberFormat.h"
+#include "UncertaintyBudget.h"
 
 #include <algorithm>
 #include <cmath>
@@ -54,6 +55,15 @@ std::string formatWithUncertainty(double value, double uncertainty, const std::s
     const int decimals = std::clamp(1 - static_cast<int>(std::floor(std::log10(u))), 0, 12);
     const std::string symbol = std::string(p.symbol) + unit;
     return fixed(v, decimals) + space + symbol + " ± " + fixed(u, decimals) + space + symbol;
+}
+
+std::string formatWithCoverage(double value, std::optional<double> expanded, std::optional<double> k,
+                               const std::string &unit)
+{
+    const std::string text = formatWithUncertainty(value, expanded.value_or(0.0), unit);
+    if (!expanded || !(*expanded > 0.0) || !k || !std::isfinite(*k) || !std::isfinite(value))
+        return text;
+    return text + " (" + coverageFactorText(*k) + ")";
 }
 
 } // namespace sagline

@@ -1,6 +1,7 @@
 #include "Units.h"
 
 #include "AsciiText.h"
+#include "CsvNumber.h"
 
 #include <array>
 #include <cerrno>
@@ -138,6 +139,10 @@ QuantityParse parseQuantity(std::string_view text, Unit expected)
     if (hasComma) {
         if (number.find(',') != number.rfind(','))
             return failure("'" + std::string(text) + "' has more than one ','");
+        // "1,250" may be a thousands separator or a decimal comma: never guessed (core/CsvNumber.h).
+        if (markEvidence(number) == MarkEvidence::Ambiguous)
+            return failure("'" + std::string(text) + "' could have a thousands separator or a decimal comma; write it "
+                           "without a thousands separator, with '.' or ',' as the decimal mark (such as 1250 or 1.25)");
         number[number.find(',')] = '.';
     }
     for (char c : number) {

@@ -21,6 +21,7 @@ of the probabilistically symmetric 95 % interval (2.5 % and 97.5 % quantiles), J
 Prints the values pinned in MonteCarloBudgetTest.cpp. Debian's /usr/bin/python3 with
 python3-numpy (scripts/install-deps.sh installs python3-scipy, which brings it). A million draws
 per sweep, seed 20261212."""
+import argparse
 import csv
 import json
 import pathlib
@@ -44,6 +45,9 @@ def quantity(value):
 
 def load(csv_path, setup_path):
     rows = list(csv.DictReader((ROOT / csv_path).open()))
+    # An export's excluded or superseded rows are not fitted.
+    rows = [r for r in rows if (r.get("excluded") or "false") not in ("true", "1", "yes")
+            and not (r.get("superseded_reason") or "")]
     current = np.array([float(r["current_a"]) for r in rows])
     voltage = np.array([float(r["voltage_v"]) for r in rows])
     setup = json.loads((ROOT / setup_path).read_text())
@@ -98,7 +102,23 @@ def check(name, csv_path, setup_path, winding_c, reference_c, rng):
 
 
 def main():
-    rng = np.random.default_rng(20261212)
+    parser = argparse.ArgumentParser(
+        description="Monte Carlo check of the budgets; with no options the two pinned sweeps, else the "
+        "sweep given (a readings CSV, e.g. from `sagline-cli export SESSION --csv`, and its setup).")
+    parser.add_argument("--csv", help="readings CSV (current_a, voltage_v columns)")
+    parser.add_argument("--setup", help="the setup JSON with its meters section")
+    parser.add_argument("--winding", type=float, default=23.0, help="winding temperature, degC")
+    parser.add_argument("--reference", type=float, default=75.0, help="reference temperature, degC")
+    parser.add_argument("--name", default="given")
+    parser.add_argument("--seed", type=int, default=20261212)
+    args = parser.parse_args()
+    rng = np.random.default_rng(args.seed)
+    if args.csv or args.setup:
+        if not (args.csv and args.setup):
+            parser.error("--csv and --setup go together")
+        check(args.name, pathlib.Path(args.csv).resolve(), pathlib.Path(args.setup).resolve(), args.winding,
+              args.reference, rng)
+        return
     check("demo", "resources/demo-readings.csv", "resources/demo-setup.json", 23.0, 75.0, rng)
     check("own", "tests/data/own-sweep-25va.csv", "tests/data/own-sweep-25va-setup.json", 31.0, 75.0, rng)
 

@@ -50,8 +50,9 @@ void addBatchLines(const FitSummary &batch, std::size_t n, QList<ResultLine> &li
     const OutlierScreening &screen = batch.outlierScreening;
     if (screen.screened)
         lines.append({QStringLiteral("outliers"), QObject::tr("Outliers flagged"), QString::number(batch.outlierRows.size()),
-                      QObject::tr("%1; critical value %2; shown, never applied")
-                          .arg(QString::fromStdString(screen.rule), formatNumber(*screen.criticalValue, 3)),
+                      QObject::tr("%1; critical value %2; shown, never applied. Source: %3")
+                          .arg(QString::fromStdString(screen.rule), formatNumber(*screen.criticalValue, 3),
+                               QString::fromStdString(screen.source)),
                       !batch.outlierRows.empty()});
     else
         lines.append({QStringLiteral("outliers"), QObject::tr("Outliers flagged"), QObject::tr("—"),

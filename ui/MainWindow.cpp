@@ -5,6 +5,7 @@
 #include "FitPresentation.h"
 #include "InstrumentsPanel.h"
 #include "NextStepStrip.h"
+#include "OutlierFlagText.h"
 #include "PlanPanel.h"
 #include "QuantityField.h"
 #include "ReadingsTableModel.h"
@@ -392,7 +393,10 @@ void MainWindow::refreshFitViews()
     ResultsInputs inputs;
     inputs.live = &fit;
     inputs.batch = &m_workspace->summary();
-    m_readingsModel->setOutliers(inputs.batch->outlierRows);
+    std::vector<QString> outlierTexts;
+    for (std::size_t row : inputs.batch->outlierRows)
+        outlierTexts.push_back(QString::fromStdString(outlierFlagText(*inputs.batch, row)));
+    m_readingsModel->setOutliers(inputs.batch->outlierRows, outlierTexts);
     inputs.setup = m_workspace->setup() ? &*m_workspace->setup() : nullptr;
     inputs.plan = m_workspace->plan() ? &*m_workspace->plan() : nullptr;
     inputs.verdict = m_setupForm->verdictSettings();

@@ -36,18 +36,29 @@ void ReadingsTableModel::setResidualFunction(ResidualFunction residual)
         emit dataChanged(index(0, Residual), index(rowCount() - 1, Residual), {Qt::DisplayRole});
 }
 
-void ReadingsTableModel::setOutliers(const std::vector<std::size_t> &rows)
+void ReadingsTableModel::setOutliers(const std::vector<std::size_t> &rows, const std::vector<QString> &explanations)
 {
-    if (rows == m_outliers)
+    if (rows == m_outliers && explanations == m_outlierTexts)
         return;
     m_outliers = rows;
+    m_outlierTexts = explanations;
+    m_outlierTexts.resize(m_outliers.size());
     if (!m_rows.empty())
-        emit dataChanged(index(0, Flags), index(rowCount() - 1, Flags), {Qt::DisplayRole, Qt::ForegroundRole});
+        emit dataChanged(index(0, Flags), index(rowCount() - 1, Flags),
+                         {Qt::DisplayRole, Qt::ForegroundRole, Qt::ToolTipRole});
 }
 
 bool ReadingsTableModel::isOutlier(int row) const
 {
     return std::binary_search(m_outliers.begin(), m_outliers.end(), static_cast<std::size_t>(row));
+}
+
+QString ReadingsTableModel::outlierExplanation(int row) const
+{
+    const auto at = std::lower_bound(m_outliers.begin(), m_outliers.end(), static_cast<std::size_t>(row));
+    if (at == m_outliers.end() || *at != static_cast<std::size_t>(row))
+        return {};
+    return m_outlierTexts[static_cast<std::size_t>(at - m_outliers.begin())];
 }
 
 void ReadingsTableModel::setExcluded(int row, bool excluded, const QString &reason)
@@ -103,6 +114,8 @@ QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
         return QColor(0xb3, 0x50, 0x00); // as the results' warnings; the ▲ carries it without colour
     if (role == Qt::ToolTipRole && index.column() == Excluded && r.excluded)
         return row.reason;
+    if (role == Qt::ToolTipRole && index.column() == Flags && isOutlier(index.row()))
+        return outlierExplanation(index.row());
     if (role == Qt::ToolTipRole && index.column() == Time)
         return QString::fromStdString(r.timeUtc);
     if (role != Qt::DisplayRole)

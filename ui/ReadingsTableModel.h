@@ -26,8 +26,10 @@ public:
     void clear();
     void setResidualFunction(ResidualFunction residual);
     // Rows the batch fit flags as outliers (ascending): marked in the flags column, so the
-    // reading behind "Outliers flagged" in the results can be found and judged.
-    void setOutliers(const std::vector<std::size_t> &rows);
+    // reading behind "Outliers flagged" in the results can be found and judged. explanations
+    // (parallel to rows, core's outlierFlagText) are the flag's tooltip: statistic, rule, source.
+    void setOutliers(const std::vector<std::size_t> &rows, const std::vector<QString> &explanations = {});
+    QString outlierExplanation(int row) const; // "" when the row is not flagged
     void setExcluded(int row, bool excluded, const QString &reason);
     // A retake replaced this row's reading: it shows as superseded, with the retake's reason.
     void setSuperseded(int row, const QString &reason);
@@ -50,6 +52,7 @@ private:
     std::vector<Row> m_rows;
     ResidualFunction m_residual;
     std::vector<std::size_t> m_outliers;
+    std::vector<QString> m_outlierTexts; // parallel to m_outliers
     bool isOutlier(int row) const;
 };
 

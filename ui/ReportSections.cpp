@@ -169,12 +169,13 @@ void drawResultsAndVerdict(ReportCanvas &canvas, const SessionSummary &summary)
                             *fit.curvatureP < 0.05 ? QStringLiteral(" (the line bends: saturation or heating?)") : QString());
     fitLine += QStringLiteral("; outlier screen: %1")
                    .arg(fit.outlierScreening.screened
-                            ? QStringLiteral("%1 flagged (%2; critical value %3)")
+                            ? QStringLiteral("%1 flagged (%2; critical value %3; %4)")
                                   .arg(fit.outlierRows.size())
-                                  .arg(q(fit.outlierScreening.rule), q(formatSignificant(*fit.outlierScreening.criticalValue, 3)))
+                                  .arg(q(fit.outlierScreening.rule), q(formatSignificant(*fit.outlierScreening.criticalValue, 3)),
+                                       q(fit.outlierScreening.source))
                             : q(fit.outlierScreening.reason));
-    fitLine += QStringLiteral(". U: expanded uncertainty at 95 % coverage, k = t95(ν_eff) of each result's budget "
-                              "(GUM, JCGM 100:2008, G.4). ");
+    fitLine += QStringLiteral(". U: expanded uncertainty at 95 % coverage, k = U/u of each result's budget: t95(ν_eff) "
+                              "(GUM, JCGM 100:2008, G.4) unless a rectangular meter limit dominates. ");
     if (summary.analysis)
         fitLine += QStringLiteral("Uncertainties: %1.").arg(q(summary.analysis->uncertaintyBasis));
     canvas.paragraph(fitLine, 8.0);

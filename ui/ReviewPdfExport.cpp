@@ -19,9 +19,9 @@ namespace {
 
 QString qs(const std::string &s) { return QString::fromStdString(s); }
 
-QString withU(bool ok, double value, const std::optional<double> &u, const char *unit)
+QString withU(bool ok, double value, const std::optional<double> &u, const std::optional<double> &k, const char *unit)
 {
-    return ok ? qs(formatWithUncertainty(value, u.value_or(0.0), unit)) : QStringLiteral("—");
+    return ok ? qs(formatWithCoverage(value, u, k, unit)) : QStringLiteral("—");
 }
 
 QString ohm(const std::optional<double> &v) { return v ? qs(formatQuantity(*v, "Ω")) : QStringLiteral("—"); }
@@ -56,9 +56,11 @@ void drawDesign(ReportCanvas &canvas, const DesignStatistics &design, const std:
         const SessionFigures &f = row.figures;
         const bool far = stats.isFarFromBatch(i);
         table.append({fileName(row), qs(row.unitSerial), startedText(row.createdUtc),
-                      withU(f.ok, f.resistanceOhm, f.resistanceUOhm, "Ω"),
-                      withU(f.resistanceRefOhm.has_value(), f.resistanceRefOhm.value_or(0.0), f.resistanceRefUOhm, "Ω"),
-                      withU(f.regulationPercent.has_value(), f.regulationPercent.value_or(0.0), f.regulationUPercent, "%"),
+                      withU(f.ok, f.resistanceOhm, f.resistanceUOhm, f.resistanceK, "Ω"),
+                      withU(f.resistanceRefOhm.has_value(), f.resistanceRefOhm.value_or(0.0), f.resistanceRefUOhm,
+                            f.resistanceRefK, "Ω"),
+                      withU(f.regulationPercent.has_value(), f.regulationPercent.value_or(0.0), f.regulationUPercent,
+                            f.regulationK, "%"),
                       qs(row.verdictWords())
                           + (far ? (design.screeningOnly ? QObject::tr(" · far from batch (screening only)")
                                                          : QObject::tr(" · far from batch"))
@@ -138,8 +140,9 @@ void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *>
         canvas.heading(QObject::tr("Not compared"));
         canvas.paragraph(unreadable.join(QLatin1Char('\n')));
     }
-    canvas.paragraph(QObject::tr("U: expanded uncertainties at 95 % coverage, k = t95(ν_eff) from each result's own budget "
-                                 "(GUM G.4). Each session's full report follows, with its budget."),
+    canvas.paragraph(QObject::tr("U: expanded uncertainties at 95 % coverage with the k of each result's own budget, k = U/u: "
+                                 "t95(ν_eff) (GUM G.4) unless a rectangular meter limit dominates. Each session's full "
+                                 "report follows, with its budget."),
                      8.0, false, true);
 }
 

@@ -17,11 +17,12 @@ namespace {
 
 QString text(const std::string &s) { return QString::fromStdString(s); }
 
-QString withU(bool ok, double value, const std::optional<double> &expanded, const char *unit)
+QString withU(bool ok, double value, const std::optional<double> &expanded, const std::optional<double> &k,
+              const char *unit)
 {
     if (!ok || !std::isfinite(value))
         return QStringLiteral("—");
-    return text(formatWithUncertainty(value, expanded.value_or(0.0), unit));
+    return text(formatWithCoverage(value, expanded, k, unit));
 }
 
 // "2026-12-01 09:00:05" from the stored "2026-12-01T09:00:05.000Z"; other text as stored.
@@ -35,6 +36,13 @@ QString startedText(const std::string &utc)
 QVariant number(bool ok, double value)
 {
     return ok && std::isfinite(value) ? QVariant(value) : QVariant();
+}
+
+// Every U in the table is at 95 % with the k of its own budget, printed beside it.
+QString coverageNote()
+{
+    return QObject::tr("± U: expanded uncertainty at 95 % coverage with the k of the result's own budget, shown "
+                       "beside each value: k = U/u, t95(ν_eff) (GUM G.4) unless a rectangular meter limit dominates");
 }
 
 } // namespace
@@ -100,11 +108,15 @@ QVariant ReviewTableModel::headerData(int section, Qt::Orientation orientation, 
         return role == Qt::DisplayRole ? QVariant(section + 1) : QVariant();
     if (role == Qt::ToolTipRole) {
         switch (section) {
-        case Resistance: return tr("Series resistance referred to the secondary, at the measured winding temperature, ± U (k = 2)");
-        case ResistanceRef: return tr("Series resistance at the reference temperature, R_ref = R (T_k + T_ref)/(T_k + T_m), ± U (k = 2)");
-        case NoLoadVoltage: return tr("No-load voltage V0 from the fit, ± U (k = 2)");
-        case Regulation: return tr("Regulation at rated current, (V0 - V_fl)/V_fl × 100, ± U (k = 2)");
-        case RobustZ: return tr("Modified z-score 0.6745 (R - median)/MAD; above 3.5 in magnitude the unit is far from the batch (Iglewicz and Hoaglin 1993)");
+        case Resistance: return tr("Series resistance referred to the secondary, at the measured winding temperature, %1").arg(coverageNote());
+        case ResistanceRef: return tr("Series resistance at the reference temperature, R_ref = R (T_k + T_ref)/(T_k + T_m), %1").arg(coverageNote());
+        case NoLoadVoltage: return tr("No-load voltage V0 from the fit, %1").arg(coverageNote());
+        case Regulation: return tr("Regulation at rated current, (V0 - V_fl)/V_fl × 100, %1").arg(coverageNote());
+        case RobustZ:
+            return tr("Modified z-score 0.6745 (R - median)/MAD; above 3.5 in magnitude the unit is far from the batch "
+                      "(Iglewicz and Hoaglin 1993). %1")
+                .arg(m_stats.screeningOnly ? tr("Screening only: a statement about the batch needs at least 10 units of one design")
+                                           : tr("At least 10 units of one design: the mark is a statement about the batch"));
         case Points: return tr("Readings used by the fit / readings recorded");
         case Design: return tr("The setup's design name, or its nameplate (rating, voltages, frequency, construction, winding); "
                                "statistics and far-from-batch marks are taken within one design only");
@@ -154,12 +166,14 @@ QVariant ReviewTableModel::display(const SessionRow &row, int rowIndex, int colu
     case Operator: return text(row.operatorName);
     case Instruments: return row.instruments.empty() ? tr("typed in") : text(row.instruments);
     case Points: return QStringLiteral("%1 / %2").arg(row.pointsUsed).arg(row.readingCount);
-    case Resistance: return withU(f.ok, f.resistanceOhm, f.resistanceUOhm, "Ω");
+    case Resistance: return withU(f.ok, f.resistanceOhm, f.resistanceUOhm, f.resistanceK, "Ω");
     case ResistanceRef:
-        return f.resistanceRefOhm ? withU(true, *f.resistanceRefOhm, f.resistanceRefUOhm, "Ω") : tr("no temperature");
-    case NoLoadVoltage: return withU(f.ok, f.noLoadVoltageV, f.noLoadVoltageUV, "V");
+        return f.resistanceRefOhm ? withU(true, *f.resistanceRefOhm, f.resistanceRefUOhm, f.resistanceRefK, "Ω")
+                                  : tr("no temperature");
+    case NoLoadVoltage: return withU(f.ok, f.noLoadVoltageV, f.noLoadVoltageUV, f.noLoadVoltageK, "V");
     case Regulation:
-        return f.regulationPercent ? withU(true, *f.regulationPercent, f.regulationUPercent, "%") : QStringLiteral("—");
+        return f.regulationPercent ? withU(true, *f.regulationPercent, f.regulationUPercent, f.regulationK, "%")
+                                   : QStringLiteral("—");
     case Verdict: return f.ok ? text(row.verdictWords()) : text(f.message);
     case Rule: return text(toString(f.rule));
     case SafetyStops: return static_cast<int>(row.safetyStops.size());
@@ -178,7 +192,10 @@ QVariant ReviewTableModel::display(const SessionRow &row, int rowIndex, int colu
         if (static_cast<std::size_t>(rowIndex) >= z.size() || !z[static_cast<std::size_t>(rowIndex)])
             return QStringLiteral("—");
         const QString value = QString::number(*z[static_cast<std::size_t>(rowIndex)], 'f', 2);
-        return isFarFromBatch(rowIndex) ? tr("%1  ▲ far from batch").arg(value) : value;
+        if (!isFarFromBatch(rowIndex))
+            return value;
+        return m_stats.screeningOnly ? tr("%1  ▲ far from batch (screening only)").arg(value)
+                                     : tr("%1  ▲ far from batch").arg(value);
     }
     default: return {};
     }

@@ -267,6 +267,7 @@ void printFitReport(const FitReport &report, std::ostream &out)
         }
         row("Outlier screen", outliers + " (shown, never applied)");
         row("", f.outlierScreening.rule + "; critical value " + formatSignificant(*f.outlierScreening.criticalValue, 4));
+        row("", "source: " + f.outlierScreening.source);
     } else {
         row("Outlier screen", f.outlierScreening.reason);
     }

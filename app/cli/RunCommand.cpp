@@ -9,6 +9,7 @@
 
 #include "BuildInfo.h"
 #include "Clock.h"
+#include "ConformityAssessment.h"
 #include "InstrumentRig.h"
 #include "LineFitLiveFit.h"
 #include "LinkAddress.h"
@@ -455,10 +456,20 @@ int runRun(const Arguments &rawArgs)
     if (readings.ok()) {
         FitReport report;
         report.source = args.outputPath;
-        report.fit = fitReadings(readings.value, FitMethod::Ols);
+        // The setup as recorded (with the meters' accuracy rules) and core's one assessment, so
+        // these are the numbers `fit SESSION` prints for the new file.
+        report.fit = fitReadings(readings.value, FitMethod::Ols, fitOptionsFor(recordedSetup.meters));
         if (report.fit.ok()) {
             report.warnings = fitWarnings(report.fit, {});
-            report.analysis = analyseFit(report.fit, analysisInputFor(setup.nameplate));
+            report.meters = recordedSetup.meters;
+            report.hasNameplate = true;
+            const Assessment assessment = assessFit(report.fit, recordedSetup, AssessmentOptions{});
+            if (assessment.analysis.ok()) {
+                report.analysis = assessment.analysis;
+                report.verdict = assessment.verdict;
+            } else {
+                report.warnings.push_back("no analysis at rated current: " + assessment.analysis.errors.front().message());
+            }
             std::cout << '\n';
             printFitReport(report, std::cout);
         } else {

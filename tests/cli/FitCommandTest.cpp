@@ -210,3 +210,42 @@ TEST(FitCommand, FitsASessionHonouringExclusionsAndItsNameplate)
     EXPECT_TRUE(j["analysis"]["regulation_percent"]["value"].is_number()); // from the session's nameplate
     std::filesystem::remove_all(dir);
 }
+
+TEST(FitCommand, RunPrintsWhatFitPrintsForItsSession)
+{
+    // The summary at the end of a sweep is the one `fit SESSION` gives for the file it wrote:
+    // the meters' specifications recorded from the instruments are in both budgets, and the
+    // verdict against the setup's specification is there too.
+    const auto session = std::filesystem::temp_directory_path() / "sagline-fit-test-run-same.sagline";
+    std::filesystem::remove(session);
+    const auto run = runProgram(cli, {"run", demoSetup, "--sim", "--seed", "7", "-o", session.string()});
+    ASSERT_EQ(run.exitCode, 0) << run.err;
+    const auto fit = runProgram(cli, {"fit", session.string()});
+    ASSERT_EQ(fit.exitCode, 0) << fit.err;
+    const auto line = [](const std::string &text, const std::string &label) {
+        const auto at = text.find(label);
+        return at == std::string::npos ? std::string("(missing: " + label + ")") : text.substr(at, text.find('\n', at) - at);
+    };
+    for (const char *label : {"Uncertainties:", "Series resistance R", "No-load voltage V0", "Regulation", "Verdict"})
+        EXPECT_EQ(line(run.out, label), line(fit.out, label)) << label;
+    EXPECT_EQ(run.out.find("were not recorded"), std::string::npos) << run.out;
+    std::filesystem::remove(session);
+}
+
+TEST(FitCommand, ACommaNumberIsRefusedWithItsLineUnlessTheMarkIsStated)
+{
+    // "1,250": a thousands separator or a decimal comma? Refused (exit 2) naming the line.
+    const std::string ambiguous = writeTemp("ambiguous.csv", "current_a;voltage_v\n0;26\n1,250;24\n2;23\n");
+    const auto refused = runProgram(cli, {"fit", ambiguous});
+    EXPECT_EQ(refused.exitCode, 2) << refused.out;
+    EXPECT_NE(refused.err.find("line 3, column current_a"), std::string::npos) << refused.err;
+    EXPECT_NE(refused.err.find("# decimal_mark: ,"), std::string::npos) << refused.err;
+    // Stated, the same file is read with decimal commas: 1,250 A is 1.25 A.
+    const std::string stated =
+        writeTemp("stated.csv", "# decimal_mark: ,\ncurrent_a;voltage_v\n0;26\n1,250;24,75\n2,5;23,5\n");
+    const auto read = runProgram(cli, {"fit", stated, "--json"});
+    ASSERT_EQ(read.exitCode, 0) << read.err;
+    const auto j = nlohmann::json::parse(read.out);
+    EXPECT_NEAR(j.at("series_resistance_ohm").get<double>(), 1.0, 1e-9);
+    EXPECT_NEAR(j.at("no_load_voltage_v").get<double>(), 26.0, 1e-9);
+}

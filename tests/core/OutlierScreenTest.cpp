@@ -10,6 +10,8 @@
 // sample fluctuates. The rule it replaced (|studentized residual| > 3) is measured beside it.
 // SAGLINE_SCREEN_SWEEPS sets N (the asan-ubsan run may use fewer; the margin widens with it).
 #include "FitSummary.h"
+#include "NumberFormat.h"
+#include "OutlierFlagText.h"
 
 #include <gtest/gtest.h>
 
@@ -203,4 +205,27 @@ TEST(OutlierScreen, CriticalValuesAreBonferroniQuantiles)
     const FitSummary stated = fitReadings(simulate(s, random, unused), FitMethod::Ols, options());
     EXPECT_TRUE(stated.statedRandomUncertainty);
     EXPECT_NEAR(*stated.outlierScreening.criticalValue, 2.73437, 1e-4);
+}
+
+TEST(OutlierScreen, FlagTextNamesTheStatisticTheRuleAndItsSource)
+{
+    // A clean 8-point line with a 0.5 V misread at step 5: the screen flags it, and the words
+    // shown beside the flag give its statistic, the critical value, the rule and the source.
+    std::vector<Reading> readings(8);
+    for (std::size_t k = 0; k < readings.size(); ++k) {
+        readings[k].currentA = 0.25 * static_cast<double>(k);
+        readings[k].voltageV = 26.4 - 1.2 * readings[k].currentA + ((k % 3) == 0 ? 0.004 : -0.002);
+    }
+    readings[5].voltageV += 0.5;
+    const FitSummary fit = fitReadings(readings, FitMethod::Ols, options());
+    ASSERT_TRUE(fit.ok()) << fit.message;
+    ASSERT_EQ(fit.outlierRows, std::vector<std::size_t>{5});
+    const std::string text = outlierFlagText(fit, 5);
+    EXPECT_NE(text.find("critical value ±" + formatSignificant(*fit.outlierScreening.criticalValue, 3)), std::string::npos)
+        << text;
+    EXPECT_NE(text.find(fit.outlierScreening.rule), std::string::npos) << text;
+    EXPECT_NE(text.find("Cook and Weisberg"), std::string::npos) << text;
+    EXPECT_NE(text.find("never applied"), std::string::npos) << text;
+    EXPECT_EQ(outlierFlagText(fit, 4), "");
+    EXPECT_EQ(fit.outlierScreening.source, std::string(outlierScreenSource));
 }

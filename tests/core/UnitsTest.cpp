@@ -39,6 +39,17 @@ TEST(Units, AcceptsCommaAsDecimalSeparator)
     EXPECT_DOUBLE_EQ(parseQuantity("0,5", Unit::Ampere).value, 0.5);
 }
 
+TEST(Units, RefusesACommaThatCouldBeAThousandsSeparator)
+{
+    // "1,250 V": one thousand two hundred and fifty, or one and a quarter? Refused, never guessed.
+    const auto q = parseQuantity("1,250 V", Unit::Volt);
+    EXPECT_FALSE(q.ok);
+    EXPECT_NE(q.error.find("thousands separator"), std::string::npos) << q.error;
+    EXPECT_DOUBLE_EQ(parseQuantity("0,250 V", Unit::Volt).value, 0.25); // no thousands group starts with 0
+    EXPECT_DOUBLE_EQ(parseQuantity("1,25 V", Unit::Volt).value, 1.25);
+    EXPECT_DOUBLE_EQ(parseQuantity("1.250 V", Unit::Volt).value, 1.25); // '.' is always the decimal point here
+}
+
 TEST(Units, RefusesMixedSeparators)
 {
     const auto q = parseQuantity("1.234,5 V", Unit::Volt);

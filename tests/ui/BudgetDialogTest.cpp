@@ -8,11 +8,14 @@
 #include "ResultsPanel.h"
 #include "UiTestSupport.h"
 
+#include <QPainter>
 #include <QPushButton>
 #include <QTableWidget>
 #include <QTemporaryDir>
 
 #include <gtest/gtest.h>
+
+#include <algorithm>
 
 using namespace sagline;
 using namespace sagline::test;
@@ -25,6 +28,26 @@ void keepScreenshot(QWidget *widget, const QString &name)
     if (folder.isEmpty())
         return;
     widget->grab().save(folder + QLatin1Char('/') + name);
+}
+
+// The window with the budget dialog open over it, as a person at that screen size sees them:
+// the dialog sized to fit inside the window and centred on it (the offscreen platform has no
+// screen to photograph, so the two grabs are composed where the window manager would put them).
+void keepScreenshotWithDialog(QWidget *window, QWidget *dialog, const QString &name)
+{
+    const QString folder = qEnvironmentVariable("SAGLINE_SCREENSHOT_DIR");
+    if (folder.isEmpty())
+        return;
+    QPixmap picture = window->grab();
+    const QPixmap over = dialog->grab();
+    QPainter painter(&picture);
+    const QPoint at((picture.width() - over.width()) / 2, (picture.height() - over.height()) / 2);
+    painter.fillRect(QRect(at + QPoint(4, 4), over.size()), QColor(0, 0, 0, 60)); // a shadow, so the edge shows
+    painter.drawPixmap(at, over);
+    painter.setPen(QColor(0x60, 0x60, 0x60));
+    painter.drawRect(QRect(at, over.size()).adjusted(0, 0, -1, -1));
+    painter.end();
+    picture.save(folder + QLatin1Char('/') + name);
 }
 
 QStringList tableRows(QTableWidget *table)
@@ -62,7 +85,7 @@ TEST(BudgetDialog, TheDemoBudgetListsEachMetersGainAndOffset)
     keepScreenshot(window.get(), QStringLiteral("window-1366x768.png"));
 
     BudgetDialog dialog(results->budgets(), window.get());
-    dialog.resize(1100, 700);
+    dialog.resize(std::min(1100, window->width() - 80), std::min(700, window->height() - 80));
     dialog.show();
     ASSERT_TRUE(QTest::qWaitForWindowExposed(&dialog));
     const QStringList rows = tableRows(dialog.table());
@@ -88,7 +111,10 @@ TEST(BudgetDialog, TheDemoBudgetListsEachMetersGainAndOffset)
     }
     EXPECT_TRUE(cancels) << rows.join(QLatin1Char('\n')).toStdString();
     keepScreenshot(&dialog, QStringLiteral("budget-dialog.png"));
+    keepScreenshotWithDialog(window.get(), &dialog, QStringLiteral("budget-in-window-1366x768.png"));
     window->resize(1600, 1000);
+    dialog.resize(std::min(1300, window->width() - 80), std::min(860, window->height() - 80));
     runEventsUntil([] { return false; }, 200);
     keepScreenshot(window.get(), QStringLiteral("window-1600x1000.png"));
+    keepScreenshotWithDialog(window.get(), &dialog, QStringLiteral("budget-in-window-1600x1000.png"));
 }

@@ -38,9 +38,16 @@ TEST(ReadingsTable, TheOutlierRowIsMarkedAndNoOther)
     ASSERT_EQ(model->rowCount(), static_cast<int>(std::size(scatterV)));
     for (int row = 0; row < model->rowCount(); ++row) {
         const QString flags = model->data(model->index(row, ReadingsTableModel::Flags)).toString();
-        if (row == static_cast<int>(misreadRow))
+        // The flag's tooltip names the rule and its source; an unflagged row has none.
+        const QString tip = model->data(model->index(row, ReadingsTableModel::Flags), Qt::ToolTipRole).toString();
+        if (row == static_cast<int>(misreadRow)) {
             EXPECT_TRUE(flags.contains(QStringLiteral("▲ outlier"))) << flags.toStdString();
-        else
+            EXPECT_TRUE(tip.contains(QStringLiteral("Bonferroni"))) << tip.toStdString();
+            EXPECT_TRUE(tip.contains(QStringLiteral("Cook and Weisberg"))) << tip.toStdString();
+            EXPECT_TRUE(tip.contains(QStringLiteral("critical value"))) << tip.toStdString();
+        } else {
             EXPECT_FALSE(flags.contains(QStringLiteral("outlier"))) << "row " << row << ": " << flags.toStdString();
+            EXPECT_TRUE(tip.isEmpty()) << "row " << row << ": " << tip.toStdString();
+        }
     }
 }

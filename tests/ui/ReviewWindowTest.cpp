@@ -8,8 +8,10 @@
 #include "ReviewOverlayChart.h"
 #include "ReviewTableModel.h"
 #include "ReviewWindow.h"
+#include "UncertaintyBudget.h"
 
 #include <QDir>
+#include <QRegularExpression>
 #include <QFile>
 #include <QSignalSpy>
 #include <QTableView>
@@ -65,10 +67,16 @@ TEST(ReviewWindow, ScansAFolderAndListsTheBadFile)
     EXPECT_NE(window->problemsText().indexOf(QStringLiteral("damaged.sagline")), -1) << window->problemsText().toStdString();
     EXPECT_NE(window->summaryText().indexOf(QStringLiteral("DEMO-0005")), -1) << "far from the batch";
     EXPECT_NE(window->summaryText().indexOf(QStringLiteral("Iglewicz")), -1);
-    // Every number has its unit.
+    // Every number has its unit, and its U the k of its own budget (not a blanket k = 2).
     const QString r = window->filter()->index(proxyRowOf(*window, "DEMO-0001"), ReviewTableModel::Resistance).data().toString();
-    EXPECT_TRUE(r.endsWith(QStringLiteral("Ω"))) << r.toStdString();
-    EXPECT_NE(r.indexOf(QStringLiteral("±")), -1) << r.toStdString();
+    EXPECT_TRUE(r.contains(QRegularExpression(QStringLiteral("Ω ± [0-9.]+ m?Ω \\(k = [0-9.]+\\)$")))) << r.toStdString();
+    const SessionFigures &figures = window->model()->sessionRow(window->filter()->mapToSource(
+        window->filter()->index(proxyRowOf(*window, "DEMO-0001"), 0)).row()).figures;
+    ASSERT_TRUE(figures.resistanceK.has_value());
+    EXPECT_TRUE(r.endsWith(QString::fromStdString("(" + coverageFactorText(*figures.resistanceK) + ")"))) << r.toStdString();
+    const QString tip = window->model()->headerData(ReviewTableModel::Resistance, Qt::Horizontal, Qt::ToolTipRole).toString();
+    EXPECT_EQ(tip.indexOf(QStringLiteral("k = 2)")), -1) << tip.toStdString();
+    EXPECT_NE(tip.indexOf(QStringLiteral("t95(ν_eff)")), -1) << tip.toStdString();
 }
 
 TEST(ReviewWindow, SortsNumericallyAndFilters)
