@@ -106,16 +106,28 @@ QWidget *StudentBenchWindow::createSheetPanel()
     form->addRow(tr("Student"), m_student);
     form->addRow(tr("Unit serial"), m_serial);
     startLayout->addLayout(form);
-    startLayout->addWidget(new QLabel(tr("<b>Safety checklist</b> (you tick it; it is recorded in the session):")));
+    const auto wrapped = [](const QString &text) {
+        auto *label = new QLabel(text);
+        label->setWordWrap(true);
+        return label;
+    };
+    startLayout->addWidget(wrapped(tr("<b>Safety checklist</b> (you tick it; it is recorded in the session):")));
     for (const ChecklistItem &item : standardSafetyChecklist({}).items) {
-        auto *check = new QCheckBox(q(item.text));
+        // A check box does not wrap its text: the box, then the item as a wrapped label that ticks it too.
+        auto *check = new QCheckBox;
         check->setToolTip(q(item.text));
-        check->setStyleSheet(QStringLiteral("QCheckBox { spacing: 6px; }"));
+        check->setAccessibleName(q(item.text));
+        auto *label = new QLabel(q(item.text));
+        label->setWordWrap(true);
+        label->setBuddy(check);
+        auto *row = new QHBoxLayout;
+        row->addWidget(check, 0, Qt::AlignTop);
+        row->addWidget(label, 1);
         connect(check, &QCheckBox::toggled, this, &StudentBenchWindow::refreshStartButton);
         m_checks << check;
-        startLayout->addWidget(check);
+        startLayout->addLayout(row);
     }
-    startLayout->addWidget(new QLabel(tr("<b>Supervisor</b>: checks the set-up and confirms it with their own name.")));
+    startLayout->addWidget(wrapped(tr("<b>Supervisor</b>: checks the set-up and confirms it with their own name.")));
     auto *supervisorForm = new QFormLayout;
     m_supervisor = new QLineEdit;
     m_supervisor->setPlaceholderText(tr("the supervisor's name"));
@@ -310,6 +322,11 @@ QString StudentBenchWindow::start(const StudentStart &start)
         }
         confirmation.pinChecked = true;
     }
+    // The form shows who started it, also when a test or a script called start() directly.
+    m_student->setText(start.student.trimmed());
+    m_serial->setText(start.unitSerial.trimmed());
+    m_supervisor->setText(start.supervisor.trimmed());
+    m_pin->clear();
     m_workspace->setPerson(start.student.trimmed());
     const QString stamp = QDateTime::currentDateTimeUtc().toString(QStringLiteral("yyyyMMdd-HHmmss"));
     m_workspace->setNextSessionFileName(

@@ -57,6 +57,7 @@ void StudentBenchWindow::createLayout()
     auto *sheetScroll = new QScrollArea;
     sheetScroll->setWidget(createSheetPanel());
     sheetScroll->setWidgetResizable(true);
+    sheetScroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff); // texts wrap to the panel's width
     sheetScroll->setMinimumWidth(380);
 
     auto *chartSplitter = new QSplitter(Qt::Vertical);
