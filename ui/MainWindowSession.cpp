@@ -325,21 +325,4 @@ void MainWindow::overrideLimits()
     handlePlanChanged();
 }
 
-void MainWindow::newSessionFromSetupFile()
-{
-    const QString path = QFileDialog::getOpenFileName(this, tr("New session from a setup file"), m_sessionFolder,
-                                                      tr("Setup files (*.json)"));
-    if (path.isEmpty())
-        return;
-    const SetupParse parsed = loadSetupFile(path.toStdString());
-    if (!parsed.setup) {
-        showMessage(QString::fromStdString(parsed.errors.front().message()), true);
-        return;
-    }
-    newSession();
-    if (m_workspace->store())
-        return; // the running sweep was not stopped
-    m_setupForm->loadSetup(*parsed.setup);
-}
-
 } // namespace sagline

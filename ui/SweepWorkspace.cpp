@@ -217,11 +217,17 @@ void SweepWorkspace::pauseOrResume()
 {
     if (!isRunning())
         return;
-    m_paused = !m_paused;
-    if (m_paused)
-        m_run->controller()->pause();
-    else
-        m_run->controller()->resume();
+    SweepController *controller = m_run->controller();
+    // A pause the controller made itself (no valid reading, a failed commit) is resumed by the
+    // same button; a lost link is not: pausing then means the operator's pause on top of it.
+    const bool resuming = controller->state() == SweepState::Paused && (m_paused || !controller->isLinkDown());
+    m_paused = !resuming;
+    if (m_paused) {
+        controller->pause();
+    } else {
+        controller->resume();
+        emit notice(tr("Resumed at step %1").arg(controller->currentStep()));
+    }
     emit runningChanged(true);
 }
 

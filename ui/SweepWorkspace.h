@@ -49,6 +49,11 @@ struct SourceChoice {
     // A separate ammeter, in either form ("/dev/ttyUSB1", "192.168.1.21:5025"); the port or
     // address above is then the voltmeter. Empty: that one meter reads both.
     QString ammeterAddress = {};
+    // Serial settings for the ports above as "BAUD,FORMAT,FLOW" ("9600,8N1,none"); empty: the
+    // link's defaults (9600 8N1, no flow control). An address that carries its own wins.
+    QString serialFormat = {};
+    // An optional programmable load (serial or LAN address); it then sets each step itself.
+    QString loadAddress = {};
 };
 
 // What an open session holds besides its readings, read from its file when it is opened (and
@@ -185,6 +190,7 @@ signals:
     void safetyStopped(const QString &text);
     void notice(const QString &text);
     void runningChanged(bool running);
+    void sweepStateChanged();              // the controller moved (settling, measuring, paused, ...)
     void instrumentStatus(const QString &status); // connecting, connected (identities), lost, failed
 
 private:

@@ -5,6 +5,7 @@
 #include "DataDirectory.h"
 #include "PrintableOutput.h"
 
+#include <csignal>
 #include <cstring>
 #include <iostream>
 #include <optional>
@@ -55,6 +56,10 @@ void printUsage(std::ostream &out)
 
 int main(int argc, char **argv)
 {
+    // A file size limit (ulimit -f) would kill the program mid-write with SIGXFSZ, leaving a
+    // temporary file behind and saying nothing; ignored, the write fails with EFBIG and is
+    // reported like a full disk, with the temporary file removed.
+    std::signal(SIGXFSZ, SIG_IGN);
     // What is printed for people is kept printable (a name or a meter reply from elsewhere
     // never drives the terminal); export may write data (CSV) to standard output, left as is.
     sagline::PrintableOutput messages(std::cerr);
