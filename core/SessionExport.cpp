@@ -283,7 +283,7 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
                                 {"person", n.actor.person}, {"os_account", n.actor.osAccount}});
     out["sign_offs"] = json::array();
     for (const auto &s : summary.signOffs)
-        out["sign_offs"].push_back({{"time_utc", s.timeUtc}, {"reviewer", s.reviewer}, {"verdict", toString(s.verdict)},
+        out["sign_offs"].push_back({{"time_utc", s.timeUtc}, {"reviewer", s.reviewer}, {"decision", toString(s.decision)},
                                     {"comment", s.comment}, {"os_account", s.osAccount}, {"sha256", s.digest}});
     out["reopens"] = json::array();
     for (const auto &r : summary.reopens)

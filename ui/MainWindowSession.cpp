@@ -211,7 +211,7 @@ void MainWindow::showSessionState()
         m_band->setState(SessionBand::Kind::Signed,
                          tr("✔ Signed off by %1 on %2 (%3). Read-only: reopen it, with a reason, to change it.")
                              .arg(QString::fromStdString(seal.signOff->reviewer), dateTime(seal.signOff->timeUtc),
-                                  QString::fromStdString(toString(seal.signOff->verdict))),
+                                  QString::fromStdString(toString(seal.signOff->decision))),
                          !readOnly);
         break;
     case SealState::ChangedAfterSignOff:

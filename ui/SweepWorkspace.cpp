@@ -80,8 +80,10 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
     QString serial = details.unitSerial;
     serial.replace(QRegularExpression(QStringLiteral("[^A-Za-z0-9_.-]+")), QStringLiteral("_"));
     const QString stamp = QDateTime::currentDateTimeUtc().toString(QStringLiteral("yyyyMMdd-HHmmss-zzz"));
-    const QString path = QDir(sessionFolder).filePath((serial.isEmpty() ? QStringLiteral("unit") : serial)
-                                                      + QLatin1Char('-') + stamp + QStringLiteral(".sagline"));
+    const QString path = QDir(sessionFolder).filePath(!m_nextFileName.isEmpty() ? m_nextFileName
+                                                      : (serial.isEmpty() ? QStringLiteral("unit") : serial)
+                                                            + QLatin1Char('-') + stamp + QStringLiteral(".sagline"));
+    m_nextFileName.clear();
     // A plan cut to its safe steps is the plan of this session.
     const Plan plan = m_limitChoice.kind == LimitChoice::Truncate ? truncatedToSafe(*m_plan) : *m_plan;
     // Meters connected: their own accuracy rules are the session's meters (core/FitBudget.h).

@@ -111,6 +111,9 @@ public:
     void setPerson(const QString &person);
     QString person() const { return m_person; }
 
+    // The next session's file name inside the session folder ("" = "<serial>-<UTC time>.sagline");
+    // a supervised session names it from the student, the unit and the time. Used once.
+    void setNextSessionFileName(const QString &name) { m_nextFileName = name; }
     // Creates the session file and starts the sweep. Returns "" or what is wrong, naming the field.
     QString startSweep(const SessionDetails &details, const QString &sessionPath, const SourceChoice &source);
     // Continues an open session that stopped or was interrupted at its first step without a
@@ -231,6 +234,7 @@ private:
     QString m_person;
     LimitChoice m_limitChoice;
     QString m_readOnlyReason;
+    QString m_nextFileName;
 };
 
 } // namespace sagline

@@ -34,6 +34,8 @@ constexpr Command commands[] = {
     {"sign-off", sagline::cli::runSignOff, "sign-off SESSION.sagline --by NAME --decision accept|reject|retest [--comment TEXT]\n"
                                            "                                     sign off and seal (SHA-256 digest of the content)"},
     {"reopen", sagline::cli::runReopen, "reopen SESSION.sagline --by NAME --reason TEXT   lift a sign-off so the session can change"},
+    {"labsheet", sagline::cli::runLabSheet, "labsheet check SHEET.json | labsheet new --setup SETUP.json -o SHEET.json\n"
+                                            "                                     check a lab sheet, or write one from a setup to edit"},
     {"verify", sagline::cli::runVerify, "verify SESSION.sagline             integrity and sign-off digests (exit 0 intact, 1 altered)"},
 };
 
