@@ -246,7 +246,7 @@ void StudentBenchWindow::showSheet()
         auto *h = new QHBoxLayout(row);
         h->setContentsMargins(0, 0, 0, 0);
         h->addWidget(field, 1);
-        auto *lock = new QLabel(tr("🔒 locked"));
+        auto *lock = new QLabel(tr("(locked by the sheet)"));
         lock->setToolTip(reason);
         h->addWidget(lock);
         form->addRow(label, row);
