@@ -1,14 +1,19 @@
-// Speed of the fit engine (issue 3): one point added to the live fit at several sizes, a batch
-// OLS of 1 000 000 points against GSL's gsl_fit_linear and against a loop that only sums x and y
-// (the memory-bandwidth floor), and York at 1 000 and 100 000 points.
-// Run: cmake --preset release && cmake --build --preset release --target FitBenchmark &&
-//      build/release/bench/FitBenchmark
+// Speed of the fit engine: one point added to the live fit at several sizes; fitReadings (the
+// batch fit the CLI, the window and the report call: line, residuals, studentized residuals,
+// outlier screen, curvature) at 1e3/1e5/1e6 readings, also with every buffer on new pages;
+// the bare line fitLine; GSL's gsl_fit_linear; a bandwidth floor that only sums x and y with
+// four accumulators each; York at 1 000 and 100 000 points.
+// Run each case in its own process (glibc's mmap threshold moves after large frees, which
+// changed york/100000 5x with what ran before it):
+//   cmake --preset release && cmake --build --preset release --target FitBenchmark &&
+//   bench/run-separately.sh build/release/bench/FitBenchmark
 #include "FitSummary.h"
 #include "LineFit.h"
 #include "YorkFit.h"
 
 #include <benchmark/benchmark.h>
 
+#include <malloc.h>
 #include <random>
 #include <vector>
 
@@ -124,22 +129,30 @@ void gslFitLinear(benchmark::State &state)
 BENCHMARK(gslFitLinear)->Arg(million)->Unit(benchmark::kMillisecond);
 #endif
 
-// The floor: one pass that only sums x and y.
-void sumOnly(benchmark::State &state)
+// The floor: one pass that only sums x and y, four independent accumulators per array so the
+// loop waits on memory, not on the latency of one chain of additions.
+void sumFloor(benchmark::State &state)
 {
     const Data &d = data(static_cast<std::size_t>(state.range(0)));
+    const std::size_t n = d.x.size();
     for (auto _ : state) {
-        double sx = 0.0, sy = 0.0;
-        for (std::size_t i = 0; i < d.x.size(); ++i) {
-            sx += d.x[i];
-            sy += d.y[i];
+        double sx[4] = {0.0, 0.0, 0.0, 0.0}, sy[4] = {0.0, 0.0, 0.0, 0.0};
+        std::size_t i = 0;
+        for (; i + 4 <= n; i += 4)
+            for (std::size_t k = 0; k < 4; ++k) {
+                sx[k] += d.x[i + k];
+                sy[k] += d.y[i + k];
+            }
+        for (; i < n; ++i) {
+            sx[0] += d.x[i];
+            sy[0] += d.y[i];
         }
-        benchmark::DoNotOptimize(sx);
-        benchmark::DoNotOptimize(sy);
+        benchmark::DoNotOptimize(sx[0] + sx[1] + sx[2] + sx[3]);
+        benchmark::DoNotOptimize(sy[0] + sy[1] + sy[2] + sy[3]);
     }
     state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
 }
-BENCHMARK(sumOnly)->Arg(million)->Unit(benchmark::kMillisecond);
+BENCHMARK(sumFloor)->Arg(million)->Unit(benchmark::kMillisecond);
 
 void york(benchmark::State &state)
 {
@@ -154,19 +167,41 @@ void york(benchmark::State &state)
 }
 BENCHMARK(york)->Arg(1000)->Arg(100000)->Unit(benchmark::kMillisecond);
 
-// The whole batch summary a UI refresh asks for (fit, residuals, studentized, curvature).
-void fitReadingsSummary(benchmark::State &state)
+std::vector<Reading> readingsOf(const Data &d)
 {
-    const Data &d = data(static_cast<std::size_t>(state.range(0)));
     std::vector<Reading> readings(d.x.size());
     for (std::size_t i = 0; i < d.x.size(); ++i) {
         readings[i].currentA = d.x[i];
         readings[i].voltageV = d.y[i];
     }
+    return readings;
+}
+
+// fitReadings as the product calls it (OLS: line, residuals, studentized residuals, the outlier
+// screen and the curvature check), its buffers reused from the iteration before.
+void fitReadingsOls(benchmark::State &state)
+{
+    const std::vector<Reading> readings = readingsOf(data(static_cast<std::size_t>(state.range(0))));
     for (auto _ : state)
         benchmark::DoNotOptimize(fitReadings(readings, FitMethod::Ols));
+    state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
 }
-BENCHMARK(fitReadingsSummary)->Arg(20)->Arg(1000)->Unit(benchmark::kMicrosecond);
+BENCHMARK(fitReadingsOls)->Arg(20)->Arg(1000)->Arg(100000)->Arg(million)->Unit(benchmark::kMillisecond);
+
+// The same from a fresh heap, as in a process that fits once (the CLI): every buffer above
+// 128 KiB comes from the kernel as new pages and goes back when freed (the mmap threshold is
+// pinned at glibc's starting value, so it cannot rise after the first free). Run it in its own
+// process (bench/run-separately.sh): the setting stays for the rest of the program.
+void fitReadingsFreshHeap(benchmark::State &state)
+{
+    const std::vector<Reading> readings = readingsOf(data(static_cast<std::size_t>(state.range(0))));
+    mallopt(M_MMAP_THRESHOLD, 128 * 1024);
+    mallopt(M_TRIM_THRESHOLD, 128 * 1024);
+    for (auto _ : state)
+        benchmark::DoNotOptimize(fitReadings(readings, FitMethod::Ols));
+    state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
+}
+BENCHMARK(fitReadingsFreshHeap)->Arg(million)->Unit(benchmark::kMillisecond);
 
 } // namespace
 

@@ -60,9 +60,12 @@ const FileSystemCalls &FileSystemCalls::system()
 std::string temporarySibling(const std::string &path)
 {
     const std::filesystem::path target(path);
+    // The process id keeps the names of two processes apart even when one was forked from the
+    // other after the generator was seeded (a child inherits the parent's generator state).
     static thread_local std::mt19937_64 random(std::random_device{}());
-    char suffix[16];
-    std::snprintf(suffix, sizeof suffix, "%08x", static_cast<unsigned>(random() & 0xFFFFFFFFu));
+    char suffix[40];
+    std::snprintf(suffix, sizeof suffix, "%ld-%08x", static_cast<long>(::getpid()),
+                  static_cast<unsigned>(random() & 0xFFFFFFFFu));
     return (target.parent_path() / ("." + target.filename().string() + "." + suffix + ".partial")).string();
 }
 

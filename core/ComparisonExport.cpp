@@ -45,6 +45,52 @@ bool isFar(const BatchStatistics &stats, std::size_t index)
     return std::find(stats.farFromBatch.begin(), stats.farFromBatch.end(), index) != stats.farFromBatch.end();
 }
 
+std::string designLabel(const SessionRow &row)
+{
+    return row.design.empty() ? std::string(unknownDesignLabel) : row.design;
+}
+
+// "yes", "yes (screening only)" when the row's design has fewer than 10 units, or "no".
+std::string farText(const BatchStatistics &stats, std::size_t index)
+{
+    if (!isFar(stats, index))
+        return "no";
+    const DesignStatistics *group = stats.designOfRow(index);
+    return group && !group->screeningOnly ? "yes" : "yes (screening only)";
+}
+
+json rowIndices(const std::vector<std::size_t> &indices)
+{
+    json list = json::array();
+    for (std::size_t i : indices)
+        list.push_back(i);
+    return list;
+}
+
+json designJson(const DesignStatistics &d, const std::vector<SessionRow> &rows)
+{
+    const IndividualsChart &c = d.chart;
+    json points = json::array();
+    for (std::size_t k = 0; k < d.chartRows.size(); ++k) {
+        const SessionRow &row = rows[d.chartRows[k]];
+        const bool outside = std::find(c.outside.begin(), c.outside.end(), k) != c.outside.end();
+        points.push_back({{"session", d.chartRows[k]}, {"started_utc", row.createdUtc},
+                          {"unit_serial", row.unitSerial}, {"outside_limits", outside}});
+    }
+    return {
+        {"design", d.design}, {"sessions", rowIndices(d.rows)}, {"resistance_count", d.resistanceCount},
+        {"mean_ohm", jsonNumber(d.meanOhm)}, {"sd_ohm", jsonNumber(d.sdOhm)}, {"min_ohm", jsonNumber(d.minOhm)},
+        {"max_ohm", jsonNumber(d.maxOhm)}, {"median_ohm", jsonNumber(d.medianOhm)}, {"mad_ohm", jsonNumber(d.madOhm)},
+        {"far_from_batch_rule", d.ruleNote}, {"far_from_batch_screening_only", d.screeningOnly},
+        {"control_chart",
+         {{"kind", "individuals (moving range of 2, d2 = 1.128)"}, {"n", c.n},
+          {"centre_ohm", jsonNumber(c.centre)}, {"average_moving_range_ohm", jsonNumber(c.averageMovingRange)},
+          {"sigma_ohm", jsonNumber(c.sigma)}, {"upper_limit_ohm", jsonNumber(c.upper)},
+          {"lower_limit_ohm", jsonNumber(c.lower)}, {"preliminary", c.preliminary}, {"note", c.note},
+          {"points_in_time_order", points}}},
+    };
+}
+
 std::string labSheetName(const SessionRow &row)
 {
     return row.supervision.labSheet ? row.supervision.labSheet->title : std::string();
@@ -69,15 +115,15 @@ std::optional<double> expandedOf(const std::optional<UncertainValue> &v)
 
 std::vector<std::string> comparisonCsvColumns()
 {
-    return {"file", "unit_serial", "date_utc", "operator", "instruments", "readings", "points_used",
+    return {"file", "design", "unit_serial", "started_utc", "operator", "instruments", "readings", "points_used",
             "series_resistance_ohm", "series_resistance_u_ohm", "series_resistance_k", "winding_temperature_c",
             "reference_temperature_c", "temperature_constant_c", "series_resistance_ref_ohm",
             "series_resistance_ref_u_ohm", "series_resistance_ref_k", "no_load_voltage_v", "no_load_voltage_u_v",
             "no_load_voltage_k", "rated_current_a", "regulation_percent", "regulation_u_percent", "regulation_k",
             "regulation_limit_percent", "efficiency_at_rated_percent", "efficiency_at_rated_u_percent",
             "no_load_loss_w", "no_load_loss_u_w", "verdict", "conformance_probability", "decision_rule", "limits_source",
-            "safety_stops", "review_state", "reviewer",
-            "lab_sheet", "limit_hits", "robust_z", "far_from_batch", "problem"};
+            "safety_stops", "review_decision", "reviewer",
+            "lab_sheet", "supervisor", "limit_hits", "robust_z", "far_from_batch", "problem"};
 }
 
 std::string comparisonCsv(const std::vector<SessionRow> &rows, const BatchStatistics &stats)
@@ -94,7 +140,8 @@ std::string comparisonCsv(const std::vector<SessionRow> &rows, const BatchStatis
         if (i < stats.robustZ.size())
             z = stats.robustZ[i];
         const std::vector<std::string> fields = {
-            row.path, row.unitSerial, row.createdUtc, row.operatorName, row.instruments,
+            row.path, row.opened ? designLabel(row) : std::string(), row.unitSerial, row.createdUtc, row.operatorName,
+            row.instruments,
             row.opened ? std::to_string(row.readingCount) : std::string(),
             row.opened ? std::to_string(row.pointsUsed) : std::string(),
             number(fitted(row, f.resistanceOhm)), number(f.resistanceUOhm), number(f.resistanceK),
@@ -109,8 +156,9 @@ std::string comparisonCsv(const std::vector<SessionRow> &rows, const BatchStatis
             row.opened ? toString(f.rule) : std::string(), row.opened ? f.limitsSource : std::string(),
             row.opened ? std::to_string(row.safetyStops.size()) : std::string(),
             row.opened ? row.reviewState() : std::string(), latestReviewer(row), labSheetName(row),
+            row.supervision.supervisor ? row.supervision.supervisor->supervisor : std::string(),
             row.opened ? std::to_string(row.supervision.limitHits.size()) : std::string(), number(z),
-            row.opened ? (isFar(stats, i) ? (stats.screeningOnly ? "yes (screening only)" : "yes") : "no") : std::string(),
+            row.opened ? farText(stats, i) : std::string(),
             row.opened ? (f.ok ? std::string() : f.message) : row.problem,
         };
         for (std::size_t k = 0; k < fields.size(); ++k)
@@ -133,15 +181,15 @@ std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStati
         const SessionFigures &f = row.figures;
         json signOffs = json::array();
         for (const auto &s : row.signOffs)
-            signOffs.push_back({{"time_utc", s.timeUtc}, {"reviewer", s.reviewer}, {"verdict", toString(s.verdict)},
+            signOffs.push_back({{"time_utc", s.timeUtc}, {"reviewer", s.reviewer}, {"decision", toString(s.decision)},
                                 {"comment", s.comment}});
         json stops = json::array();
         for (const auto &s : row.safetyStops)
             stops.push_back({{"time_utc", s.timeUtc}, {"step", s.step}, {"rule", s.rule}, {"message", s.message},
                              {"measured", jsonNumber(s.measured)}, {"limit", jsonNumber(s.limitValue)}});
         json session = {
-            {"file", row.path}, {"opened", true}, {"notice", row.notice}, {"unit_serial", row.unitSerial},
-            {"date_utc", row.createdUtc}, {"operator", row.operatorName}, {"instruments", row.instruments},
+            {"file", row.path}, {"opened", true}, {"notice", row.notice}, {"design", designLabel(row)},
+            {"unit_serial", row.unitSerial}, {"started_utc", row.createdUtc}, {"operator", row.operatorName}, {"instruments", row.instruments},
             {"readings", row.readingCount}, {"points_used", row.pointsUsed}, {"fit_ok", f.ok},
             {"fit_message", f.message},
             {"series_resistance_ohm", jsonNumber(fitted(row, f.resistanceOhm))},
@@ -171,16 +219,22 @@ std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStati
             {"steps_recorded", row.progress.recordedSteps}, {"steps_planned", row.progress.plannedSteps},
             {"seal", toString(row.seal.state)}, {"seal_summary", row.seal.summary()},
             {"settings_from_record", row.settingsFromRecord},
-            {"safety_stops", stops}, {"review_state", row.reviewState()}, {"sign_offs", signOffs},
+            {"safety_stops", stops}, {"review_decision", row.reviewState()}, {"sign_offs", signOffs},
             {"lab_sheet", row.supervision.labSheet ? json(row.supervision.labSheet->title) : json(nullptr)},
             {"lab_sheet_fingerprint",
              row.supervision.labSheet ? json(row.supervision.labSheet->fingerprint) : json(nullptr)},
+            {"supervisor", row.supervision.supervisor ? json(row.supervision.supervisor->supervisor) : json(nullptr)},
+            {"supervisor_pin_checked", row.supervision.supervisor ? json(row.supervision.supervisor->pinChecked) : json(nullptr)},
+            {"student", row.supervision.labSheet ? json(row.supervision.labSheet->student) : json(nullptr)},
             {"limit_hits", row.supervision.limitHits.size()},
             {"robust_z", i < stats.robustZ.size() ? jsonNumber(stats.robustZ[i]) : json(nullptr)},
             {"far_from_batch", isFar(stats, i)},
         };
         sessions.push_back(session);
     }
+    json designsJson = json::array();
+    for (const DesignStatistics &d : stats.designs)
+        designsJson.push_back(designJson(d, rows));
     const json batch = {
         {"sessions", stats.sessions}, {"unreadable", stats.unreadable}, {"without_fit", stats.withoutFit},
         {"resistance_basis", stats.atReferenceTemperature ? "reference temperature" : "as measured"},
@@ -194,6 +248,7 @@ std::string comparisonJson(const std::vector<SessionRow> &rows, const BatchStati
         {"review", {{"accepted", stats.accepted}, {"rejected", stats.rejected}, {"retest", stats.retest},
                     {"not_reviewed", stats.notReviewed}, {"changed_after_sign_off", stats.changedAfterSignOff}}},
         {"safety_stopped", stats.safetyStopped}, {"limit_hit", stats.limitHit},
+        {"designs", designsJson},
         {"far_from_batch_rule", stats.ruleNote}, {"far_from_batch_screening_only", stats.screeningOnly},
         {"method", toString(options.method)},
         {"reference_temperature_c", options.figures.referenceTemperatureC},

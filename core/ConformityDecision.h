@@ -28,7 +28,10 @@ enum class ConformityOutcome { Pass, Fail, ConditionalPass, ConditionalFail, Not
 std::string toString(DecisionRule rule);                 // "simple", "guarded", "non-binary"
 std::optional<DecisionRule> decisionRuleFromString(std::string_view text);
 std::string describe(DecisionRule rule);                 // "ILAC-G8:09/2019 §4.2.2 binary ..."
+inline constexpr const char *noAnalysisWords = "NO ANALYSIS"; // a session without a fit or setup to judge
 std::string toString(ConformityOutcome outcome);         // "pass", "conditional-pass", ..., "not-judged"
+// The one spelling people read, in the window, the review, the CLI tables and the reports; the
+// tokens of toString are for files read by programs (CSV, JSON).
 std::string outcomeWords(ConformityOutcome outcome);     // "PASS", "CONDITIONAL PASS", ..., "NOT JUDGED"
 // The worse of two outcomes: fail > conditional-fail > conditional-pass > pass > not-judged.
 ConformityOutcome worseOutcome(ConformityOutcome a, ConformityOutcome b);

@@ -137,7 +137,10 @@ std::optional<bool> parseBool(std::string_view text)
 
 class Parser {
 public:
+    // columns: keep each reading only as the fit's columns (m_columns), not as a Reading.
+    explicit Parser(bool columns = false) : m_keepColumns(columns) {}
     ReadingsCsvParse run(std::string_view text);
+    ReadingColumns takeColumns() { return std::move(m_fitColumns); }
 
 private:
     void error(int line, std::string_view column, std::string rule)
@@ -153,6 +156,8 @@ private:
     bool statementLine(int line, std::string_view text, bool haveHeader);
     bool settleDecimalMark(std::string_view rows, int firstLine);
 
+    bool m_keepColumns = false;
+    ReadingColumns m_fitColumns;
     ReadingsCsvParse m_result;
     std::vector<Column> m_columns;
     std::vector<std::string> m_names;
@@ -462,7 +467,10 @@ void Parser::parseRow(int line, const std::vector<std::string_view> &cells)
         }
     }
     if (good) {
-        m_result.readings.push_back(std::move(reading));
+        if (m_keepColumns)
+            m_fitColumns.append(reading);
+        else
+            m_result.readings.push_back(std::move(reading));
         m_result.lineNumbers.push_back(line);
     }
 }
@@ -478,7 +486,10 @@ ReadingsCsvParse Parser::run(std::string_view text)
     std::vector<std::string> unquoted;
     // One reading per line at most: reserving for them all saves growing a large vector.
     const auto lines = static_cast<std::size_t>(std::count(text.begin(), text.end(), '\n')) + 1;
-    m_result.readings.reserve(lines);
+    if (m_keepColumns)
+        m_fitColumns.reserve(lines);
+    else
+        m_result.readings.reserve(lines);
     m_result.lineNumbers.reserve(lines);
     while (!text.empty()) {
         const std::size_t end = text.find('\n');
@@ -509,10 +520,11 @@ ReadingsCsvParse Parser::run(std::string_view text)
     }
     if (!haveHeader && m_result.errors.empty())
         m_result.errors.push_back({"file", "is empty; expected a header row current_a,voltage_v"});
-    else if (headerGood && m_result.readings.empty() && m_result.errors.empty())
+    else if (headerGood && m_result.lineNumbers.empty() && m_result.errors.empty())
         m_result.errors.push_back({"file", "has a header but no readings"});
     if (!m_result.errors.empty()) {
         m_result.readings.clear();
+        m_fitColumns.clear();
         m_result.lineNumbers.clear();
     }
     return std::move(m_result);
@@ -534,6 +546,30 @@ ReadingsCsvParse loadReadingsCsv(const std::string &path)
         return result;
     }
     return parseReadingsCsv(*file.text);
+}
+
+ReadingColumnsCsvParse parseReadingColumnsCsv(std::string_view text)
+{
+    Parser parser(true);
+    ReadingsCsvParse parsed = parser.run(text);
+    ReadingColumnsCsvParse result;
+    result.columns = parser.takeColumns();
+    result.lineNumbers = std::move(parsed.lineNumbers);
+    result.hasCurrentUncertainty = parsed.hasCurrentUncertainty;
+    result.hasVoltageUncertainty = parsed.hasVoltageUncertainty;
+    result.errors = std::move(parsed.errors);
+    return result;
+}
+
+ReadingColumnsCsvParse loadReadingColumnsCsv(const std::string &path)
+{
+    const TextFileRead file = readTextFile(path, maxReadingsFileBytes);
+    if (!file.text) {
+        ReadingColumnsCsvParse result;
+        result.errors.push_back({"file", "'" + path + "' " + file.error});
+        return result;
+    }
+    return parseReadingColumnsCsv(*file.text);
 }
 
 } // namespace sagline

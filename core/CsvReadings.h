@@ -14,6 +14,7 @@
 
 #include "CsvNumber.h"
 #include "FieldError.h"
+#include "FitSummary.h"
 #include "Reading.h"
 
 #include <string>
@@ -38,6 +39,21 @@ struct ReadingsCsvParse {
 // u_* finite and > 0 or blank; step an integer >= 0 or blank; flags names joined by '|'
 // (see flagsToString); excluded true/false/1/0/yes/no or blank. At most 100 errors are listed.
 ReadingsCsvParse parseReadingsCsv(std::string_view text);
+
+// The same file checked by the same rules, the readings kept only as the fit's columns
+// (33 bytes a reading instead of 144): for `fit` of a large CSV.
+struct ReadingColumnsCsvParse {
+    ReadingColumns columns;        // one row per data line, in file order (empty if errors)
+    std::vector<int> lineNumbers;  // the 1-based file line of each row
+    bool hasCurrentUncertainty = false;
+    bool hasVoltageUncertainty = false;
+    FieldErrors errors;
+
+    bool ok() const { return errors.empty(); }
+};
+
+ReadingColumnsCsvParse parseReadingColumnsCsv(std::string_view text);
+ReadingColumnsCsvParse loadReadingColumnsCsv(const std::string &path);
 
 // Reads the file, then parses it; an unreadable file is an error on the field "file".
 ReadingsCsvParse loadReadingsCsv(const std::string &path);

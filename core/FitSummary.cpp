@@ -37,11 +37,54 @@ std::string rowName(std::size_t row)
 }
 
 // Checks the values and uncertainties the method needs; empty string when all is well.
-FitStatus gatherInput(const std::vector<Reading> &readings, FitMethod method, FitInput &input, std::string &message)
+// What the fit reads of one reading: values, stated uncertainties and whether it is fitted.
+struct RowValues {
+    double currentA = 0.0;
+    double voltageV = 0.0;
+    std::optional<double> uCurrentA;
+    std::optional<double> uVoltageV;
+    bool fitted = false;
+};
+
+// The two kinds of input the fit takes, read the same way.
+struct ReadingRows {
+    const std::vector<Reading> &readings;
+    std::size_t size() const { return readings.size(); }
+    RowValues operator[](std::size_t row) const
+    {
+        const Reading &r = readings[row];
+        return {r.currentA, r.voltageV, r.uCurrentA, r.uVoltageV, isFitted(r)};
+    }
+};
+
+struct ColumnRows {
+    const ReadingColumns &columns;
+    std::size_t size() const { return columns.currentA.size(); }
+    RowValues operator[](std::size_t row) const
+    {
+        const std::uint8_t state = columns.state[row];
+        RowValues v{columns.currentA[row], columns.voltageV[row], std::nullopt, std::nullopt,
+                    (state & ReadingColumns::fitted) != 0};
+        if (state & ReadingColumns::hasCurrentUncertainty)
+            v.uCurrentA = columns.uCurrentA[row];
+        if (state & ReadingColumns::hasVoltageUncertainty)
+            v.uVoltageV = columns.uVoltageV[row];
+        return v;
+    }
+};
+
+template <typename Rows>
+FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, std::string &message)
 {
+    // At most one entry per reading: reserved once, so a million readings grow no vector.
+    for (auto *column : {&input.x, &input.y, &input.sx, &input.sy, &input.weights})
+        column->reserve(readings.size());
+    input.rows.reserve(readings.size());
+    input.statedU.reserve(readings.size());
+    input.hasUI.reserve(readings.size());
     for (std::size_t row = 0; row < readings.size(); ++row) {
-        const Reading &reading = readings[row];
-        if (!isFitted(reading))
+        const RowValues reading = readings[row];
+        if (!reading.fitted)
             continue;
         if (!std::isfinite(reading.currentA) || !std::isfinite(reading.voltageV)) {
             message = rowName(row) + ": the current or the voltage is not a finite number";
@@ -79,43 +122,45 @@ FitStatus gatherInput(const std::vector<Reading> &readings, FitMethod method, Fi
     return FitStatus::Ok;
 }
 
-// Two-pass weighted line: means first, then centred sums (the accurate batch form).
+// Two-pass weighted line: means first, then centred sums (the accurate batch form). The
+// status (all currents equal, overflow) comes from the same test the live fit applies.
 LineFitResult batchLine(const FitInput &input, bool absoluteWeights)
 {
-    LineFit probe; // for the degenerate checks and the status texts
-    double sumW = 0.0, meanX = 0.0, meanY = 0.0;
+    LineFitResult r;
+    r.n = input.x.size();
+    r.degreesOfFreedom = static_cast<int>(r.n) - 2;
+    double sumW = 0.0, meanX = 0.0, meanY = 0.0, maxAbsX = 0.0;
     for (std::size_t i = 0; i < input.x.size(); ++i) {
         sumW += input.weights[i];
         meanX += input.weights[i] * input.x[i];
         meanY += input.weights[i] * input.y[i];
-        probe.add(input.x[i], input.y[i], input.weights[i]);
+        maxAbsX = std::max(maxAbsX, std::fabs(input.x[i]));
     }
-    LineFitResult r = absoluteWeights ? probe.weightedResult() : probe.result();
-    if (!r.ok())
-        return r;
     meanX /= sumW;
     meanY /= sumW;
-    double sxx = 0.0, sxy = 0.0;
+    double sxx = 0.0, sxy = 0.0, syy = 0.0;
     for (std::size_t i = 0; i < input.x.size(); ++i) {
         const double dx = input.x[i] - meanX;
+        const double dy = input.y[i] - meanY;
         sxx += input.weights[i] * dx * dx;
-        sxy += input.weights[i] * dx * (input.y[i] - meanY);
+        sxy += input.weights[i] * dx * dy;
+        syy += input.weights[i] * dy * dy;
     }
-    r.slope = sxy / sxx;
-    r.intercept = meanY - r.slope * meanX;
     r.meanX = meanX;
     r.meanY = meanY;
+    if (!lineFromCentredSums(r, sxx, sxy, syy, sumW, maxAbsX))
+        return r;
+    r.slope = sxy / sxx;
+    r.intercept = meanY - r.slope * meanX;
     r.sxx = sxx;
-    double ssr = 0.0, sst = 0.0;
+    double ssr = 0.0;
     for (std::size_t i = 0; i < input.x.size(); ++i) {
         const double e = input.y[i] - r.intercept - r.slope * input.x[i];
-        const double dy = input.y[i] - meanY;
         ssr += input.weights[i] * e * e;
-        sst += input.weights[i] * dy * dy;
     }
     r.rSquared.reset();
-    if (sst > 0.0)
-        r.rSquared = std::clamp(1.0 - ssr / sst, 0.0, 1.0);
+    if (syy > 0.0) // syy is Σ w (y - ȳ)², the total sum of squares
+        r.rSquared = std::clamp(1.0 - ssr / syy, 0.0, 1.0);
     const std::size_t n = input.x.size();
     if (absoluteWeights) {
         r.slopeSe = std::sqrt(1.0 / sxx);
@@ -227,7 +272,10 @@ std::optional<double> FitSummary::analysisCovariance() const
     return *covariance * std::max(1.0, mswd.value_or(1.0));
 }
 
-FitSummary fitReadings(const std::vector<Reading> &readings, FitMethod method, const FitOptions &options)
+namespace {
+
+template <typename Rows>
+FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &options)
 {
     FitSummary summary;
     summary.method = method;
@@ -272,13 +320,22 @@ FitSummary fitReadings(const std::vector<Reading> &readings, FitMethod method, c
         summary.covariance = r.covariance;
     }
     summary.status = FitStatus::Ok;
+    // The curvature check first: its working matrices are gone before the per-point results
+    // are allocated, which keeps the peak of a million-reading fit lower.
+    {
+        const QuadraticFitResult quadratic = fitQuadratic(input.x, input.y, input.weights);
+        if (quadratic.ok() && quadratic.curvatureP) {
+            summary.curvatureP = quadratic.curvatureP;
+            summary.curvatureCoefficient = quadratic.c2;
+        }
+    }
 
     // Residuals of every row; sums over the fitted ones.
     summary.points.resize(readings.size());
     for (std::size_t row = 0; row < readings.size(); ++row) {
         PointFit &point = summary.points[row];
         point.row = row;
-        const Reading &reading = readings[row];
+        const RowValues reading = readings[row];
         if (std::isfinite(reading.currentA) && std::isfinite(reading.voltageV))
             point.residualV = reading.voltageV - summary.intercept - summary.slope * reading.currentA;
     }
@@ -321,13 +378,44 @@ FitSummary fitReadings(const std::vector<Reading> &readings, FitMethod method, c
     for (std::size_t i = 0; i < n; ++i)
         summary.sxx += input.weights[i] * (input.x[i] - meanX) * (input.x[i] - meanX);
     screen(summary, input, options);
-
-    const QuadraticFitResult quadratic = fitQuadratic(input.x, input.y, input.weights);
-    if (quadratic.ok() && quadratic.curvatureP) {
-        summary.curvatureP = quadratic.curvatureP;
-        summary.curvatureCoefficient = quadratic.c2;
-    }
     return summary;
+}
+
+} // namespace
+
+FitSummary fitReadings(const std::vector<Reading> &readings, FitMethod method, const FitOptions &options)
+{
+    return fitRows(ReadingRows{readings}, method, options);
+}
+
+FitSummary fitReadings(const ReadingColumns &columns, FitMethod method, const FitOptions &options)
+{
+    return fitRows(ColumnRows{columns}, method, options);
+}
+
+void ReadingColumns::reserve(std::size_t n)
+{
+    currentA.reserve(n);
+    voltageV.reserve(n);
+    uCurrentA.reserve(n);
+    uVoltageV.reserve(n);
+    state.reserve(n);
+}
+
+void ReadingColumns::append(const Reading &reading)
+{
+    currentA.push_back(reading.currentA);
+    voltageV.push_back(reading.voltageV);
+    uCurrentA.push_back(reading.uCurrentA.value_or(0.0));
+    uVoltageV.push_back(reading.uVoltageV.value_or(0.0));
+    state.push_back(static_cast<std::uint8_t>((isFitted(reading) ? fitted : 0)
+                                              | (reading.uCurrentA ? hasCurrentUncertainty : 0)
+                                              | (reading.uVoltageV ? hasVoltageUncertainty : 0)));
+}
+
+void ReadingColumns::clear()
+{
+    *this = ReadingColumns();
 }
 
 LinePrediction predictVoltage(const FitSummary &summary, double currentA, std::optional<double> uNewReadingV)

@@ -11,6 +11,7 @@
 #include "Setup.h"
 
 #include <cstddef>
+#include <cstdint>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -103,10 +104,29 @@ struct FitSummary {
 // The fit options a setup implies: the meters' resolutions floor the scatter.
 FitOptions fitOptionsFor(const std::optional<MeterSpecs> &meters);
 
+// What the fit reads of each reading, as columns: 33 bytes a reading instead of a Reading's 144
+// (a million-row CSV for `fit` needs no times, raw texts or ids).
+struct ReadingColumns {
+    enum State : std::uint8_t {
+        fitted = 1,                // not excluded, not flagged overload or not-a-number
+        hasCurrentUncertainty = 2, // uCurrentA holds the stated u(I)
+        hasVoltageUncertainty = 4, // uVoltageV holds the stated u(V)
+    };
+    std::vector<double> currentA, voltageV, uCurrentA, uVoltageV; // A, V; u is 0 when not stated
+    std::vector<std::uint8_t> state;                               // State bits
+
+    std::size_t size() const { return currentA.size(); }
+    void reserve(std::size_t n);
+    void append(const Reading &reading);
+    void clear();
+};
+
 // Fits the readings that are not excluded and not flagged overload or not-a-number.
 // WLS needs u_voltage_v on every used reading; York needs u_current_a and u_voltage_v.
 // Degenerate input gives a status and a message, never NaN and never a throw.
 FitSummary fitReadings(const std::vector<Reading> &readings, FitMethod method, const FitOptions &options = {});
+// The same fit of readings held as columns (row numbers are column indices): the same numbers.
+FitSummary fitReadings(const ReadingColumns &columns, FitMethod method, const FitOptions &options = {});
 
 // The live (O(1), ordinary least squares) fit as a FitSummary: line, standard errors,
 // covariance, residual SD and R², without per-point results, so analyseFit can run on every

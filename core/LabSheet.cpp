@@ -131,6 +131,50 @@ void readFuse(const json &locks, LabSheetLocks &out, FieldErrors &errors)
     }
 }
 
+// {"scheme": "pbkdf2-hmac-sha256", "iterations": N, "salt": hex, "hash": hex}, as written by
+// `sagline-cli labsheet new --supervisor-pin`; never the PIN itself.
+void readSupervisorPin(const json &value, LabSheetLocks &out, FieldErrors &errors)
+{
+    const std::string path = "locks.supervisor_pin";
+    if (!value.is_object()) {
+        errors.push_back({path, "must be an object with scheme, iterations, salt and hash (written by "
+                                "sagline-cli labsheet new --supervisor-pin; never the PIN itself)"});
+        return;
+    }
+    SupervisorPinLock lock;
+    const std::size_t before = errors.size();
+    for (const auto &item : value.items()) {
+        if (item.key() != "scheme" && item.key() != "iterations" && item.key() != "salt" && item.key() != "hash")
+            errors.push_back({path + "." + item.key(), "is not a PIN field; the fields are scheme, iterations, salt and hash"});
+    }
+    if (isMissing(value, "scheme") || value.at("scheme") != supervisorPinScheme)
+        errors.push_back({path + ".scheme", std::string("must be \"") + supervisorPinScheme + "\""});
+    if (isMissing(value, "iterations") || !value.at("iterations").is_number_integer()
+        || value.at("iterations").get<long long>() < 1000 || value.at("iterations").get<long long>() > 10000000)
+        errors.push_back({path + ".iterations", "must be a whole number from 1000 to 10000000"});
+    else
+        lock.iterations = static_cast<std::uint32_t>(value.at("iterations").get<long long>());
+    const auto hexField = [&](const char *key, std::size_t minBytes, std::size_t maxBytes, std::string &target) {
+        const std::string field = path + "." + key;
+        if (isMissing(value, key) || !value.at(key).is_string()) {
+            errors.push_back({field, "is required: hexadecimal text"});
+            return;
+        }
+        const std::string text = value.at(key).get<std::string>();
+        const auto bytes = fromHex(text);
+        if (!bytes || bytes->size() < minBytes || bytes->size() > maxBytes) {
+            errors.push_back({field, "must be " + std::to_string(minBytes * 2) + " to " + std::to_string(maxBytes * 2)
+                                         + " hexadecimal digits"});
+            return;
+        }
+        target = text;
+    };
+    hexField("salt", 8, 64, lock.saltHex);
+    hexField("hash", 32, 32, lock.hashHex);
+    if (errors.size() == before)
+        out.supervisorPin = lock;
+}
+
 void readLocks(const json &document, LabSheetLocks &out, FieldErrors &errors)
 {
     if (isMissing(document, "locks") || !document.at("locks").is_object()) {
@@ -141,9 +185,10 @@ void readLocks(const json &document, LabSheetLocks &out, FieldErrors &errors)
     const json &locks = document.at("locks");
     for (const auto &item : locks.items()) {
         const std::string &key = item.key();
-        if (key != "plan_fixed" && key != "max_load_fraction" && key != "required_fuse" && key != "typed_in_only")
+        if (key != "plan_fixed" && key != "max_load_fraction" && key != "required_fuse" && key != "typed_in_only"
+            && key != "supervisor_pin")
             errors.push_back({"locks." + key, "is not a lock; the locks are plan_fixed, max_load_fraction, "
-                                              "required_fuse and typed_in_only"});
+                                              "required_fuse, typed_in_only and supervisor_pin"});
     }
     if (auto fixed = readBool(locks, "locks", "plan_fixed", errors))
         out.planFixed = *fixed;
@@ -158,6 +203,8 @@ void readLocks(const json &document, LabSheetLocks &out, FieldErrors &errors)
             out.maxLoadFraction = *fraction;
     }
     readFuse(locks, out, errors);
+    if (!isMissing(locks, "supervisor_pin"))
+        readSupervisorPin(locks.at("supervisor_pin"), out, errors);
 }
 
 // The setup must not plan beyond the sheet, and its fuse must be the required one.
@@ -257,12 +304,15 @@ LabSheetParse loadLabSheetFile(const std::string &path)
 
 std::string labSheetToJson(const LabSheet &sheet)
 {
-    const json locks = {
+    json locks = {
         {"plan_fixed", sheet.locks.planFixed},
         {"max_load_fraction", sheet.locks.maxLoadFraction},
         {"required_fuse", {{"rating_a", sheet.locks.requiredFuse.ratingA}, {"type", toString(sheet.locks.requiredFuse.type)}}},
         {"typed_in_only", sheet.locks.typedInOnly},
     };
+    if (const auto &pin = sheet.locks.supervisorPin)
+        locks["supervisor_pin"] = {{"scheme", pin->scheme}, {"iterations", pin->iterations}, {"salt", pin->saltHex},
+                                   {"hash", pin->hashHex}};
     const json document = {
         {"format", labSheetFormatName},
         {"version", labSheetFormatVersion},

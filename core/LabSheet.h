@@ -6,7 +6,9 @@
 //   {"format": "sagline-lab-sheet", "version": 1, "title": "...",
 //    "setup": { ...the setup file's object... },
 //    "locks": {"plan_fixed": true, "max_load_fraction": 0.8,
-//              "required_fuse": {"rating_a": 0.315, "type": "time-lag"}, "typed_in_only": true},
+//              "required_fuse": {"rating_a": 0.315, "type": "time-lag"}, "typed_in_only": true,
+//              "supervisor_pin": {"scheme": "pbkdf2-hmac-sha256", "iterations": 100000,
+//                                 "salt": "<32 hex>", "hash": "<64 hex>"}},     (optional)
 //    "instructions": "..."}
 //
 // Parsing collects every invalid field, each error naming the field ("locks.max_load_fraction")
@@ -16,6 +18,7 @@
 #include "FieldError.h"
 #include "Planner.h"
 #include "Setup.h"
+#include "SupervisorPin.h"
 
 #include <optional>
 #include <string>
@@ -35,6 +38,8 @@ struct LabSheetLocks {
     double maxLoadFraction = 1.0;   // highest load current allowed, as a fraction of rated secondary current
     FuseSpec requiredFuse;          // the primary fuse that must be fitted (rating and type)
     bool typedInOnly = true;        // no instrument link: readings are typed in by hand
+    // When set, the supervisor confirms the set-up with this PIN as well as their name.
+    std::optional<SupervisorPinLock> supervisorPin;
 };
 
 struct LabSheet {

@@ -42,6 +42,11 @@ bool setLineFromMoments(LineFitResult &r, double sxx, double sxy, double syy, do
 
 } // namespace
 
+bool lineFromCentredSums(LineFitResult &r, double sxx, double sxy, double syy, double weightSum, double maxAbsX)
+{
+    return setLineFromMoments(r, sxx, sxy, syy, weightSum, maxAbsX);
+}
+
 bool LineFit::add(double x, double y, double weight)
 {
     if (!std::isfinite(x) || !std::isfinite(y) || !std::isfinite(weight) || !(weight > 0.0))

@@ -42,6 +42,11 @@ struct LineFitResult {
     double noLoadVoltageV() const { return intercept; }    // V0 = a, V
 };
 
+// The line from centred sums a batch fit computed in two passes (means first): the same status
+// and message as the live fit (all currents equal, squares that overflow) and the same slope,
+// intercept and R² formulas. r.meanX and r.meanY are the caller's; false when there is no line.
+bool lineFromCentredSums(LineFitResult &r, double sxx, double sxy, double syy, double weightSum, double maxAbsX);
+
 // A two-sided interval.
 struct Interval {
     double low = 0.0;

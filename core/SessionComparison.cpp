@@ -30,12 +30,17 @@ std::string SessionRow::reviewState() const
         return "changed after sign-off";
     if (signOffs.empty())
         return "not reviewed";
-    return toString(signOffs.back().verdict);
+    return toString(signOffs.back().decision);
 }
 
 std::string SessionRow::verdictShown() const
 {
     return progress.verdictText(figures.verdictText());
+}
+
+std::string SessionRow::verdictWords() const
+{
+    return progress.verdictText(figures.verdict ? outcomeWords(*figures.verdict) : std::string(noAnalysisWords));
 }
 
 std::string instrumentShortName(const std::string &identity)
@@ -67,6 +72,11 @@ std::string designOf(const Nameplate &nameplate)
     return number(nameplate.ratedPowerVa) + " VA " + number(nameplate.primaryVoltageV) + "/"
            + number(nameplate.secondaryVoltageV) + " V " + number(nameplate.frequencyHz) + " Hz "
            + toString(nameplate.construction) + " " + toString(nameplate.windingMaterial);
+}
+
+std::string designName(const Setup &setup)
+{
+    return setup.design.empty() ? designOf(setup.nameplate) : setup.design;
 }
 
 namespace {
@@ -210,7 +220,7 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     std::optional<double> winding = meanOf(temperatures.value, TemperatureKind::Winding);
     if (!winding)
         winding = meanOf(temperatures.value, TemperatureKind::Ambient);
-    row.design = designOf(setup.setup->nameplate);
+    row.design = designName(*setup.setup);
     row.figures = computeSessionFigures(row.fit, *setup.setup, winding,
                                         figureOptionsFor(options, notes.value, row));
     if (std::any_of(readings.value.begin(), readings.value.end(), [](const Reading &r) { return r.primary.hasAny(); })) {
@@ -258,6 +268,77 @@ std::optional<double> median(std::vector<double> values)
     return (lower + upper) / 2.0;
 }
 
+namespace {
+
+constexpr const char *robustZRule = "modified z-score 0.6745 (R - median)/MAD, flagged above 3.5 (Iglewicz and Hoaglin 1993)";
+
+// The spread, robust z and control chart of one design's rows; z and far marks go into the
+// batch-wide vectors at the rows' own indices.
+void describeGroup(const std::vector<const SessionRow *> &rows, bool atReference, DesignStatistics &group,
+                   std::vector<std::optional<double>> &robustZ, std::vector<std::size_t> &farFromBatch)
+{
+    std::vector<double> values;
+    std::vector<std::size_t> owners;
+    for (std::size_t i : group.rows) {
+        if (const auto r = rows[i]->comparedResistanceOhm(atReference)) {
+            values.push_back(*r);
+            owners.push_back(i);
+        }
+    }
+    group.resistanceCount = values.size();
+    // Time order for the control chart: the session's start (ISO 8601 UTC sorts as text); the
+    // given order breaks ties so that the chart is the same on every run.
+    group.chartRows = owners;
+    std::stable_sort(group.chartRows.begin(), group.chartRows.end(),
+                     [&](std::size_t a, std::size_t b) { return rows[a]->createdUtc < rows[b]->createdUtc; });
+    std::vector<double> inTime;
+    for (std::size_t i : group.chartRows)
+        inTime.push_back(*rows[i]->comparedResistanceOhm(atReference));
+    group.chart = individualsChart(inTime);
+
+    if (values.empty()) {
+        group.ruleNote = "no session of this design has a fitted R";
+        return;
+    }
+    const double n = static_cast<double>(values.size());
+    // Two-pass mean and variance (no raw power sums).
+    const double mean = std::accumulate(values.begin(), values.end(), 0.0) / n;
+    group.meanOhm = mean;
+    group.minOhm = *std::min_element(values.begin(), values.end());
+    group.maxOhm = *std::max_element(values.begin(), values.end());
+    if (values.size() >= 2) {
+        double squares = 0.0;
+        for (double v : values)
+            squares += (v - mean) * (v - mean);
+        group.sdOhm = std::sqrt(squares / (n - 1.0));
+    }
+    group.medianOhm = median(values);
+    std::vector<double> deviations;
+    deviations.reserve(values.size());
+    for (double v : values)
+        deviations.push_back(std::fabs(v - *group.medianOhm));
+    group.madOhm = median(deviations);
+
+    // A batch statement needs enough units of the design; below that the marks only screen.
+    group.screeningOnly = values.size() < farFromBatchMinimumUnits;
+    const std::string rule = robustZRule;
+    if (values.size() < robustZMinimumUnits) {
+        group.ruleNote = rule + ": needs at least 3 units of the design";
+    } else if (!(*group.madOhm > 0.0)) {
+        group.ruleNote = rule + ": not applied, MAD is zero (half the units have the same R)";
+    } else {
+        group.ruleNote = rule + (group.screeningOnly ? "; screening only (fewer than 10 units of the design)" : "");
+        for (std::size_t k = 0; k < values.size(); ++k) {
+            const double z = robustZConstant * (values[k] - *group.medianOhm) / *group.madOhm;
+            robustZ[owners[k]] = z;
+            if (std::fabs(z) > robustZThreshold)
+                farFromBatch.push_back(owners[k]);
+        }
+    }
+}
+
+} // namespace
+
 BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
 {
     BatchStatistics stats;
@@ -294,10 +375,10 @@ BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
         } else if (row->signOffs.empty()) {
             ++stats.notReviewed;
         } else {
-            switch (row->signOffs.back().verdict) {
-            case Verdict::Accepted: ++stats.accepted; break;
-            case Verdict::Rejected: ++stats.rejected; break;
-            case Verdict::Retest: ++stats.retest; break;
+            switch (row->signOffs.back().decision) {
+            case ReviewDecision::Accepted: ++stats.accepted; break;
+            case ReviewDecision::Rejected: ++stats.rejected; break;
+            case ReviewDecision::Retest: ++stats.retest; break;
             }
         }
         if (!row->safetyStops.empty())
@@ -308,72 +389,67 @@ BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
     // Compare like with like: at the reference temperature only when every fitted row has it.
     stats.atReferenceTemperature = fitted > 0 && allHaveReference;
 
-    std::vector<double> values;
-    std::vector<std::size_t> owners;
     for (std::size_t i = 0; i < rows.size(); ++i) {
-        if (const auto r = rows[i]->comparedResistanceOhm(stats.atReferenceTemperature)) {
-            values.push_back(*r);
-            owners.push_back(i);
+        if (!rows[i]->opened)
+            continue;
+        const std::string design = rows[i]->design.empty() ? std::string(unknownDesignLabel) : rows[i]->design;
+        auto group = std::find_if(stats.designs.begin(), stats.designs.end(),
+                                  [&](const DesignStatistics &d) { return d.design == design; });
+        if (group == stats.designs.end()) {
+            stats.designs.push_back({});
+            stats.designs.back().design = design;
+            group = stats.designs.end() - 1;
         }
+        group->rows.push_back(i);
     }
-    stats.resistanceCount = values.size();
-    if (values.empty()) {
-        stats.ruleNote = "no session has a fitted R";
-        return stats;
+    for (DesignStatistics &group : stats.designs) {
+        describeGroup(rows, stats.atReferenceTemperature, group, stats.robustZ, stats.farFromBatch);
+        stats.resistanceCount += group.resistanceCount;
     }
-    const double n = static_cast<double>(values.size());
-    // Two-pass mean and variance (no raw power sums).
-    const double mean = std::accumulate(values.begin(), values.end(), 0.0) / n;
-    stats.meanOhm = mean;
-    stats.minOhm = *std::min_element(values.begin(), values.end());
-    stats.maxOhm = *std::max_element(values.begin(), values.end());
-    if (values.size() >= 2) {
-        double squares = 0.0;
-        for (double v : values)
-            squares += (v - mean) * (v - mean);
-        stats.sdOhm = std::sqrt(squares / (n - 1.0));
-    }
-    stats.medianOhm = median(values);
-    std::vector<double> deviations;
-    deviations.reserve(values.size());
-    for (double v : values)
-        deviations.push_back(std::fabs(v - *stats.medianOhm));
-    stats.madOhm = median(deviations);
+    std::sort(stats.farFromBatch.begin(), stats.farFromBatch.end());
 
-    const std::string rule = "modified z-score 0.6745 (R - median)/MAD, flagged above 3.5 (Iglewicz and Hoaglin 1993)";
-    // A batch statement needs enough units of one design; below that the marks only screen.
-    std::vector<std::string> designs;
-    for (std::size_t owner : owners)
-        if (std::find(designs.begin(), designs.end(), rows[owner]->design) == designs.end())
-            designs.push_back(rows[owner]->design);
-    stats.screeningOnly = designs.size() != 1 || values.size() < farFromBatchMinimumUnits;
-    const std::string screening =
-        stats.screeningOnly ? std::string("; screening only (") + (designs.size() != 1 ? "units of more than one design"
-                                                                                       : "fewer than 10 units of one design")
-                                  + ")"
-                            : std::string();
-    if (values.size() < robustZMinimumUnits) {
-        stats.ruleNote = rule + ": needs at least 3 units";
-    } else if (!(*stats.madOhm > 0.0)) {
-        stats.ruleNote = rule + ": not applied, MAD is zero (half the units have the same R)";
+    if (stats.designs.size() == 1) {
+        const DesignStatistics &only = stats.designs.front();
+        stats.meanOhm = only.meanOhm;
+        stats.sdOhm = only.sdOhm;
+        stats.minOhm = only.minOhm;
+        stats.maxOhm = only.maxOhm;
+        stats.medianOhm = only.medianOhm;
+        stats.madOhm = only.madOhm;
+        stats.screeningOnly = only.screeningOnly;
+        stats.ruleNote = only.ruleNote;
+    } else if (stats.designs.empty()) {
+        stats.ruleNote = "no session has a fitted R";
     } else {
-        stats.ruleNote = rule + screening;
-        for (std::size_t k = 0; k < values.size(); ++k) {
-            const double z = robustZConstant * (values[k] - *stats.medianOhm) / *stats.madOhm;
-            stats.robustZ[owners[k]] = z;
-            if (std::fabs(z) > robustZThreshold)
-                stats.farFromBatch.push_back(owners[k]);
-        }
+        stats.screeningOnly = std::any_of(stats.designs.begin(), stats.designs.end(),
+                                          [](const DesignStatistics &d) { return d.screeningOnly; });
+        stats.ruleNote = std::string(robustZRule) + ", within each of " + std::to_string(stats.designs.size())
+                         + " designs; no statistics across designs";
     }
     return stats;
 }
 
+const DesignStatistics *BatchStatistics::designOfRow(std::size_t index) const
+{
+    for (const DesignStatistics &group : designs)
+        if (std::find(group.rows.begin(), group.rows.end(), index) != group.rows.end())
+            return &group;
+    return nullptr;
+}
+
+bool BatchStatistics::isFarFromBatch(std::size_t index) const
+{
+    return std::find(farFromBatch.begin(), farFromBatch.end(), index) != farFromBatch.end();
+}
+
 std::string verdictCountsText(const BatchStatistics &stats)
 {
-    return "pass " + std::to_string(stats.pass) + ", conditional pass " + std::to_string(stats.conditionalPass)
-           + ", conditional fail " + std::to_string(stats.conditionalFail) + ", fail " + std::to_string(stats.fail)
-           + ", not judged " + std::to_string(stats.notJudged) + ", n/a " + std::to_string(stats.noVerdict)
-           + ", incomplete (no verdict) " + std::to_string(stats.incomplete);
+    const auto count = [](ConformityOutcome outcome, std::size_t n) { return outcomeWords(outcome) + " " + std::to_string(n); };
+    return count(ConformityOutcome::Pass, stats.pass) + ", " + count(ConformityOutcome::ConditionalPass, stats.conditionalPass)
+           + ", " + count(ConformityOutcome::ConditionalFail, stats.conditionalFail) + ", "
+           + count(ConformityOutcome::Fail, stats.fail) + ", " + count(ConformityOutcome::NotJudged, stats.notJudged)
+           + ", " + noAnalysisWords + " " + std::to_string(stats.noVerdict) + ", incomplete (no verdict) "
+           + std::to_string(stats.incomplete);
 }
 
 BatchStatistics summarizeBatch(const std::vector<SessionRow> &rows)

@@ -10,6 +10,7 @@
 // spread, as it can with mean and SD) and needs at least 3 units and MAD > 0.
 #pragma once
 
+#include "ControlChart.h"
 #include "FitSummary.h"
 #include "PrimarySideAnalysis.h"
 #include "SessionFigures.h"
@@ -17,6 +18,7 @@
 #include "SessionProgress.h"
 #include "SessionRecords.h"
 #include "SessionSeal.h"
+#include "Setup.h"
 #include "SupervisedRecords.h"
 
 #include <cstddef>
@@ -70,7 +72,7 @@ struct SessionRow {
     SessionProgress progress;         // k of N steps and how the sweep ended
     SupervisionSummary supervision;
     bool settingsFromRecord = false;  // rule, limit or constant taken from the session's record
-    std::string design;               // designOf(nameplate): units of one design compare
+    std::string design;               // designName(setup): units of one design compare; "" without a setup
     std::vector<ComparisonPoint> points; // for the overlay chart, in recording order
     SupplyAssessment supply;          // what the fit was made on (referred to rated V1 when it was read)
     std::optional<PrimarySideResult> primarySide; // losses and efficiency, with primary readings
@@ -84,8 +86,12 @@ struct SessionRow {
     // "not reviewed", or the latest sign-off: "accepted", "rejected", "retest"; "changed after
     // sign-off" once it was reopened, "ALTERED" when a digest no longer matches.
     std::string reviewState() const;
-    // The verdict as shown: the outcome for a complete session, else "incomplete (...)".
+    // The verdict as data (CSV, JSON): the outcome's token ("conditional-pass") for a complete
+    // session, else "incomplete (...)".
     std::string verdictShown() const;
+    // The verdict as people read it in every table, window and report: outcomeWords
+    // ("CONDITIONAL PASS"), "NO ANALYSIS" without one, else "incomplete (...)".
+    std::string verdictWords() const;
 };
 
 // The identity of an instrument from its IEEE 488.2 *IDN? reply "maker,model,serial,firmware":
@@ -94,6 +100,11 @@ std::string instrumentShortName(const std::string &identity);
 
 // The design a nameplate describes: "60 VA 230/18 V 50 Hz laminated copper".
 std::string designOf(const Nameplate &nameplate);
+// The design a session belongs to: the setup's own `design` name when it gives one, else designOf
+// its nameplate. Batch statistics, far-from-batch marks and control charts never cross designs.
+std::string designName(const Setup &setup);
+// The label of the group of sessions whose setup could not be read (no design known).
+inline constexpr const char *unknownDesignLabel = "design unknown (setup unreadable)";
 
 // Opens one session for review and computes its row. Never throws.
 SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &options);
@@ -103,12 +114,30 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
 std::vector<SessionRow> loadSessionRows(const std::vector<std::string> &paths, const ComparisonOptions &options,
                                         const std::function<bool(std::size_t done, std::size_t total)> &progress = {});
 
+// The spread of R over the units of one design, and the far-from-batch marks within it.
+struct DesignStatistics {
+    std::string design;               // designName of every row in the group
+    std::vector<std::size_t> rows;    // indices into the rows considered, in their given order
+    std::size_t resistanceCount = 0;  // rows of the group with a fitted R
+    std::optional<double> meanOhm;
+    std::optional<double> sdOhm;      // sample standard deviation (n - 1)
+    std::optional<double> minOhm, maxOhm;
+    std::optional<double> medianOhm;
+    std::optional<double> madOhm;     // median absolute deviation (unscaled)
+    bool screeningOnly = true;        // fewer than 10 units: the marks only screen
+    std::string ruleNote;             // which rule was applied, or why it could not be
+    // R of the group's units in time order (session start), for the trend chart.
+    std::vector<std::size_t> chartRows; // indices into the rows considered, oldest first
+    IndividualsChart chart;             // over R of chartRows, in that order
+};
+
 struct BatchStatistics {
     std::size_t sessions = 0;         // rows considered
     std::size_t unreadable = 0;       // rows that did not open
     std::size_t withoutFit = 0;       // opened, but no fit (too few points, ...)
     bool atReferenceTemperature = false; // R compared at the reference temperature (all rows had a temperature)
     std::size_t resistanceCount = 0;  // rows in the R statistics
+    // Spread over the whole batch: only when it holds one design (else see `designs`).
     std::optional<double> meanOhm;
     std::optional<double> sdOhm;      // sample standard deviation (n - 1)
     std::optional<double> minOhm, maxOhm;
@@ -122,13 +151,20 @@ struct BatchStatistics {
     std::size_t changedAfterSignOff = 0; // reopened or altered: the sign-off no longer holds
     std::size_t safetyStopped = 0;    // rows with at least one safety stop
     std::size_t limitHit = 0;         // rows with at least one lab-sheet limit hit
+    // Each row's z is taken within its own design's group only; a unit is never far from
+    // units of another design.
     std::vector<std::optional<double>> robustZ; // one per row considered (same order), when computable
-    std::vector<std::size_t> farFromBatch;      // indices (into the rows considered) with |z| > 3.5
-    bool screeningOnly = true;        // fewer than 10 units of one design: the marks only screen
+    std::vector<std::size_t> farFromBatch;      // indices (into the rows considered) with |z| > 3.5 in their design
+    bool screeningOnly = true;        // some design has fewer than 10 units: its marks only screen
     std::string ruleNote;             // which rule was applied, or why it could not be
+    std::vector<DesignStatistics> designs; // one per design among the opened rows, in order of first appearance
+    // The group of row `index` (into the rows considered); nullptr for an unopened row.
+    const DesignStatistics *designOfRow(std::size_t index) const;
+    bool isFarFromBatch(std::size_t index) const;
 };
 
-// "pass 3, conditional pass 1, conditional fail 0, fail 0, not judged 2, n/a 0".
+// "PASS 3, CONDITIONAL PASS 1, CONDITIONAL FAIL 0, FAIL 0, NOT JUDGED 2, no analysis 0, incomplete (no verdict) 0":
+// the outcome words as the window and the reports spell them.
 std::string verdictCountsText(const BatchStatistics &stats);
 
 // Statistics over `rows` (e.g. the selection or the filtered rows).

@@ -9,8 +9,9 @@
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
+#include <charconv>
 #include <cmath>
-#include <cstdio>
+#include <system_error>
 
 namespace sagline {
 
@@ -18,14 +19,18 @@ namespace {
 
 using json = nlohmann::ordered_json; // keys in the order written: session first
 
-// Shortest text that reads back to the same double ("%.17g" always does).
+// The shortest text that reads back to the same double: std::to_chars without a precision
+// gives the shortest round-trip form (C++17 [charconv.to.chars]), so 19.6 is written "19.6",
+// not "19.600000000000001" as "%.17g" would.
 std::string exact(double value)
 {
     if (!std::isfinite(value))
         return {};
     char text[40];
-    std::snprintf(text, sizeof text, "%.17g", value);
-    return text;
+    const auto [end, error] = std::to_chars(text, text + sizeof text, value);
+    if (error != std::errc())
+        return {};
+    return std::string(text, end);
 }
 
 std::string exact(const std::optional<double> &value)
@@ -331,7 +336,7 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
                                 {"person", n.actor.person}, {"os_account", n.actor.osAccount}});
     out["sign_offs"] = json::array();
     for (const auto &s : summary.signOffs)
-        out["sign_offs"].push_back({{"time_utc", s.timeUtc}, {"reviewer", s.reviewer}, {"verdict", toString(s.verdict)},
+        out["sign_offs"].push_back({{"time_utc", s.timeUtc}, {"reviewer", s.reviewer}, {"decision", toString(s.decision)},
                                     {"comment", s.comment}, {"os_account", s.osAccount}, {"sha256", s.digest}});
     out["reopens"] = json::array();
     for (const auto &r : summary.reopens)

@@ -101,9 +101,9 @@ struct SafetyStopRecord {
     Actor actor;                       // who ran the sweep
 };
 
-enum class Verdict { Accepted, Rejected, Retest };
-const char *toString(Verdict verdict);                 // "accepted", "rejected", "retest"
-std::optional<Verdict> verdictFromString(const std::string &text);
+enum class ReviewDecision { Accepted, Rejected, Retest };
+const char *toString(ReviewDecision verdict);                 // "accepted", "rejected", "retest"
+std::optional<ReviewDecision> reviewDecisionFromString(const std::string &text);
 
 // A reviewer's sign-off (a lab lead accepting or rejecting the session). From schema 3 it
 // seals the session: the SHA-256 digest of its content up to `contentMarks` (see
@@ -112,7 +112,7 @@ struct SignOffRecord {
     std::int64_t id = 0;
     std::string timeUtc;
     std::string reviewer;              // required
-    Verdict verdict = Verdict::Accepted;
+    ReviewDecision decision = ReviewDecision::Accepted;
     std::string comment;
     std::string osAccount;
     std::string digest;                // hex SHA-256; "" for sign-offs older than schema 3

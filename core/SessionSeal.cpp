@@ -168,7 +168,7 @@ StoreResult<std::string> digestOf(sqlite3 *db, const Marks &marks, const SignOff
     encodeText(hash, 'S', "signed");
     for (const std::string *field : {&signOff.timeUtc, &signOff.reviewer, &signOff.comment, &signOff.osAccount, &marksField})
         encodeText(hash, 'T', *field);
-    encodeText(hash, 'T', toString(signOff.verdict));
+    encodeText(hash, 'T', toString(signOff.decision));
     return hash.hexDigest();
 }
 
@@ -205,7 +205,7 @@ StoreResult<std::string> SessionStore::recomputeSealDigest(const SignOffRecord &
     return digestOf(m_db.get(), *marks, record, record.contentMarks);
 }
 
-StoreResult<std::int64_t> SessionStore::addSignOff(const std::string &reviewer, Verdict verdict, const std::string &comment)
+StoreResult<std::int64_t> SessionStore::addSignOff(const std::string &reviewer, ReviewDecision verdict, const std::string &comment)
 {
     using Result = StoreResult<std::int64_t>;
     if (StoreStatus status = requireWritable(); !status.ok())
@@ -223,7 +223,7 @@ StoreResult<std::int64_t> SessionStore::addSignOff(const std::string &reviewer, 
     SignOffRecord record;
     record.timeUtc = now();
     record.reviewer = reviewer;
-    record.verdict = verdict;
+    record.decision = verdict;
     record.comment = comment;
     record.osAccount = m_actor.osAccount;
     record.contentMarks = marksText(marks.value);
@@ -286,11 +286,11 @@ std::string SealReport::summary() const
     switch (state) {
     case SealState::NotSigned: return "not signed off";
     case SealState::Signed:
-        return "signed off by " + signOff->reviewer + " on " + signOff->timeUtc + " (" + toString(signOff->verdict) + ")"
+        return "signed off by " + signOff->reviewer + " on " + signOff->timeUtc + " (" + toString(signOff->decision) + ")"
                + (signOff->digest.empty() ? "; signed before sealing existed (no digest)" : "; digest intact");
     case SealState::ChangedAfterSignOff:
         return "changed after sign-off: the sign-off by " + signOff->reviewer + " on " + signOff->timeUtc + " ("
-               + toString(signOff->verdict) + ") is superseded; reopened by "
+               + toString(signOff->decision) + ") is superseded; reopened by "
                + (reopen->actor.person.empty() ? std::string("(name not recorded)") : reopen->actor.person) + " on "
                + reopen->timeUtc + ": " + reopen->reason;
     case SealState::Altered: {

@@ -20,8 +20,8 @@ std::string signOffRequestError(const SignOffRequest &request)
         return "reviewer: the reviewer's name is required";
     if (request.reviewer.size() > 200)
         return "reviewer: at most 200 characters";
-    if (request.verdict != Verdict::Accepted && isBlank(request.comment))
-        return std::string("comment: say why the session is ") + (request.verdict == Verdict::Rejected ? "rejected" : "to be repeated");
+    if (request.decision != ReviewDecision::Accepted && isBlank(request.comment))
+        return std::string("comment: say why the session is ") + (request.decision == ReviewDecision::Rejected ? "rejected" : "to be repeated");
     if (request.comment.size() > 10000)
         return "comment: at most 10000 characters";
     return {};
@@ -51,7 +51,7 @@ StoreResult<std::int64_t> signOffSession(const std::string &path, const SignOffR
     if (!store.ok())
         return Result::failure(store.status());
     store.value->setActor({request.reviewer, ""});
-    return store.value->addSignOff(request.reviewer, request.verdict, request.comment);
+    return store.value->addSignOff(request.reviewer, request.decision, request.comment);
 }
 
 } // namespace sagline

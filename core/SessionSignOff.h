@@ -15,7 +15,7 @@ namespace sagline {
 
 struct SignOffRequest {
     std::string reviewer;           // required
-    Verdict verdict = Verdict::Accepted;
+    ReviewDecision decision = ReviewDecision::Accepted;
     std::string comment;            // required when the verdict is reject or retest (say why)
 };
 

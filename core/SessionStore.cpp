@@ -96,12 +96,12 @@ const char *toString(TemperatureKind kind)
     return kind == TemperatureKind::Winding ? "winding" : "ambient";
 }
 
-const char *toString(Verdict verdict)
+const char *toString(ReviewDecision verdict)
 {
     switch (verdict) {
-    case Verdict::Accepted: return "accepted";
-    case Verdict::Rejected: return "rejected";
-    case Verdict::Retest: return "retest";
+    case ReviewDecision::Accepted: return "accepted";
+    case ReviewDecision::Rejected: return "rejected";
+    case ReviewDecision::Retest: return "retest";
     }
     return "accepted";
 }
@@ -131,9 +131,9 @@ std::optional<SweepEventKind> sweepEventKindFromString(const std::string &text)
     return std::nullopt;
 }
 
-std::optional<Verdict> verdictFromString(const std::string &text)
+std::optional<ReviewDecision> reviewDecisionFromString(const std::string &text)
 {
-    for (Verdict verdict : {Verdict::Accepted, Verdict::Rejected, Verdict::Retest}) {
+    for (ReviewDecision verdict : {ReviewDecision::Accepted, ReviewDecision::Rejected, ReviewDecision::Retest}) {
         if (text == toString(verdict))
             return verdict;
     }

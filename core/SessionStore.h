@@ -102,7 +102,7 @@ public:
     StoreResult<std::int64_t> recordSafetyStop(const SafetyStopRecord &stop); // id and timeUtc are set by the store
     // Signs off and seals: stores the SHA-256 digest of the session's content as it is now
     // (SessionSeal.h). Refused while an earlier sign-off is still in force.
-    StoreResult<std::int64_t> addSignOff(const std::string &reviewer, Verdict verdict, const std::string &comment);
+    StoreResult<std::int64_t> addSignOff(const std::string &reviewer, ReviewDecision verdict, const std::string &comment);
     // Lifts the sign-off in force so the session can be changed again, recording who
     // (actor().person, required) and why (required). Only on a sealed session.
     StoreResult<std::int64_t> reopen(const std::string &reason);

@@ -292,10 +292,10 @@ StoreResult<std::vector<SignOffRecord>> SessionStore::signOffs() const
                                         record.timeUtc = row.columnText(1);
                                         record.reviewer = row.columnText(2);
                                         const std::string verdict = row.columnText(3);
-                                        const auto parsed = verdictFromString(verdict);
+                                        const auto parsed = reviewDecisionFromString(verdict);
                                         if (!parsed)
                                             return "unknown verdict '" + verdict + "'";
-                                        record.verdict = *parsed;
+                                        record.decision = *parsed;
                                         record.comment = row.columnText(4);
                                         record.osAccount = row.columnText(5);
                                         record.digest = row.columnText(6);

@@ -88,6 +88,9 @@ struct Specification {
 };
 
 struct Setup {
+    // A name the lab gives the design ("PT-60 rev B"); units with the same name are compared with
+    // one another. Empty: the design is told by the nameplate (rating, voltages, construction).
+    std::string design;
     Nameplate nameplate;
     Bench bench;
     std::optional<MeterSpecs> meters;                   // absent: uncertainty from the scatter only

@@ -469,6 +469,37 @@ void readSpecification(const json &object, SetupParse &out, std::optional<Specif
     specification = spec;
 }
 
+// "design": an optional name of up to 80 characters, printable text, not only spaces.
+void readDesignName(const json &document, SetupParse &out, std::string &design)
+{
+    if (!document.contains("design") || document.at("design").is_null())
+        return;
+    const json &value = document.at("design");
+    if (!value.is_string()) {
+        out.errors.push_back({"design", "must be text naming the design, e.g. \"PT-60 rev B\""});
+        return;
+    }
+    const std::string text = value.get<std::string>();
+    const auto first = text.find_first_not_of(' ');
+    if (first == std::string::npos) {
+        out.errors.push_back({"design", "must not be empty; leave it out to group by the nameplate"});
+        return;
+    }
+    const std::string trimmed = text.substr(first, text.find_last_not_of(' ') - first + 1);
+    if (trimmed.size() > maxDesignNameBytes) {
+        out.errors.push_back({"design", "must be at most " + std::to_string(maxDesignNameBytes) + " bytes, got "
+                                            + std::to_string(trimmed.size())});
+        return;
+    }
+    for (unsigned char c : trimmed) {
+        if (c < 0x20 || c == 0x7f) {
+            out.errors.push_back({"design", "must be one line of printable text (no control characters)"});
+            return;
+        }
+    }
+    design = trimmed;
+}
+
 } // namespace
 
 SetupParse parseSetupJson(std::string_view text)
@@ -487,10 +518,11 @@ SetupParse parseSetupJson(std::string_view text)
     Setup setup;
     for (const auto &item : document.items()) {
         if (item.key() != "nameplate" && item.key() != "bench" && item.key() != "meters"
-            && item.key() != "specification")
-            out.errors.push_back({item.key(), "is not a setup section; the sections are nameplate, bench, meters and "
-                                              "specification"});
+            && item.key() != "specification" && item.key() != "design")
+            out.errors.push_back({item.key(), "is not a setup section; the sections are design, nameplate, bench, "
+                                              "meters and specification"});
     }
+    readDesignName(document, out, setup.design);
     if (!document.contains("nameplate") || !document.at("nameplate").is_object())
         out.errors.push_back({"nameplate", "is required and must be an object"});
     else
@@ -556,6 +588,8 @@ std::string setupToJson(const Setup &setup)
         {"dwell_s", b.dwellS},
     };
     json root{{"nameplate", nameplate}, {"bench", bench}};
+    if (!setup.design.empty())
+        root["design"] = setup.design;
     if (setup.meters) {
         const MeterSpecs &m = *setup.meters;
         root["meters"] = {

@@ -5,12 +5,16 @@
 #include "FieldError.h"
 #include "Setup.h"
 
+#include <cstddef>
 #include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
 
 namespace sagline {
+
+// The longest design name a setup may carry ("design": "PT-60 rev B"), in bytes of UTF-8.
+inline constexpr std::size_t maxDesignNameBytes = 80;
 
 struct SetupParse {
     std::optional<Setup> setup;            // set when errors is empty

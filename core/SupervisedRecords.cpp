@@ -5,6 +5,7 @@
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
+#include <cctype>
 
 namespace sagline {
 
@@ -27,9 +28,61 @@ SafetyChecklist standardSafetyChecklist(const std::string &student)
                          "circuit (IEC 61010 CAT marking)", false},
         {"leads-checked", "Leads, clips and plugs checked: no damaged insulation, shrouded connectors, "
                           "secondary wiring done with the supply off", false},
-        {"supervisor-present", "A supervisor is present and has checked the set-up", false},
     };
     return list;
+}
+
+std::string supervisorConfirmationError(const SupervisorConfirmation &confirmation)
+{
+    const auto trimmed = [](const std::string &text) {
+        const auto first = text.find_first_not_of(" \t");
+        return first == std::string::npos ? std::string() : text.substr(first, text.find_last_not_of(" \t") - first + 1);
+    };
+    const std::string supervisor = trimmed(confirmation.supervisor);
+    if (supervisor.empty())
+        return "supervisor: the supervisor's own name is required";
+    if (supervisor.size() > 120)
+        return "supervisor: at most 120 characters";
+    for (unsigned char c : supervisor)
+        if (c < 0x20 || c == 0x7f)
+            return "supervisor: one line of printable text";
+    std::string a = supervisor, b = trimmed(confirmation.student);
+    std::transform(a.begin(), a.end(), a.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
+    std::transform(b.begin(), b.end(), b.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
+    if (a == b)
+        return "supervisor: the student cannot confirm their own set-up; the supervisor gives their name";
+    return {};
+}
+
+std::string supervisorNoteText(const SupervisorConfirmation &confirmation)
+{
+    return json{{"supervisor_confirmed", confirmation.supervisor},
+                {"student", confirmation.student},
+                {"pin_checked", confirmation.pinChecked}}
+        .dump(-1, ' ', false, json::error_handler_t::replace);
+}
+
+std::string supervisedSessionFileName(const std::string &student, const std::string &unitSerial,
+                                      const std::string &utcStamp)
+{
+    const auto part = [](const std::string &text, const char *fallback) {
+        std::string out;
+        for (unsigned char c : text) {
+            const bool keep = std::isalnum(c) || c == '-' || c == '_' || c == '.';
+            if (keep)
+                out.push_back(static_cast<char>(c));
+            else if (!out.empty() && out.back() != '-')
+                out.push_back('-');
+        }
+        while (!out.empty() && (out.back() == '-' || out.back() == '.'))
+            out.pop_back();
+        while (!out.empty() && (out.front() == '-' || out.front() == '.'))
+            out.erase(out.begin());
+        if (out.size() > 40)
+            out.resize(40);
+        return out.empty() ? std::string(fallback) : out;
+    };
+    return part(student, "student") + "_" + part(unitSerial, "unit") + "_" + utcStamp + "Z.sagline";
 }
 
 LabSheetStamp labSheetStamp(const LabSheet &sheet, const std::string &student)
@@ -111,6 +164,19 @@ std::optional<SafetyChecklist> readChecklist(const json &object)
     return list;
 }
 
+std::optional<SupervisorConfirmation> readSupervisor(const json &object, const std::string &timeUtc)
+{
+    if (!object.contains("supervisor_confirmed") || !object.at("supervisor_confirmed").is_string())
+        return std::nullopt;
+    SupervisorConfirmation confirmation;
+    confirmation.supervisor = object.at("supervisor_confirmed").get<std::string>();
+    confirmation.student = stringOr(object, "student");
+    confirmation.pinChecked = object.contains("pin_checked") && object.at("pin_checked").is_boolean()
+                              && object.at("pin_checked").get<bool>();
+    confirmation.timeUtc = timeUtc;
+    return confirmation;
+}
+
 std::optional<LimitHit> readLimitHit(const json &object, const std::string &timeUtc)
 {
     if (!object.contains("limit_hit") || !object.at("limit_hit").is_string())
@@ -135,7 +201,8 @@ SupervisionSummary summarizeSupervision(const std::vector<NoteRecord> &notes)
         const bool sheetNote = note.author == labSheetNoteAuthor;
         const bool checklistNote = note.author == checklistNoteAuthor;
         const bool limitNote = note.author == limitHitNoteAuthor;
-        if (!sheetNote && !checklistNote && !limitNote)
+        const bool supervisorNote = note.author == supervisorNoteAuthor;
+        if (!sheetNote && !checklistNote && !limitNote && !supervisorNote)
             continue;
         const auto object = parseObject(note.text);
         bool understood = false;
@@ -148,6 +215,11 @@ SupervisionSummary summarizeSupervision(const std::vector<NoteRecord> &notes)
         } else if (object && checklistNote) {
             if (auto list = readChecklist(*object)) {
                 summary.checklist = *list;
+                understood = true;
+            }
+        } else if (object && supervisorNote) {
+            if (auto confirmation = readSupervisor(*object, note.timeUtc)) {
+                summary.supervisor = *confirmation;
                 understood = true;
             }
         } else if (object && limitNote) {

@@ -17,6 +17,7 @@ namespace sagline {
 inline constexpr const char *labSheetNoteAuthor = "sagline/lab-sheet";
 inline constexpr const char *checklistNoteAuthor = "sagline/safety-checklist";
 inline constexpr const char *limitHitNoteAuthor = "sagline/lab-sheet-limit";
+inline constexpr const char *supervisorNoteAuthor = "sagline/supervisor-confirmation";
 
 // The lab sheet a session was run under, as stamped into the session when it was created.
 struct LabSheetStamp {
@@ -40,9 +41,31 @@ struct SafetyChecklist {
     bool complete() const;          // every item ticked
 };
 
-// The four items every supervised session starts with (fused and isolated supply, meters and
-// leads rated for the measurement category, leads checked, supervisor present), all unticked.
+// The three items every supervised session starts with (fused and isolated supply, meters and
+// leads rated for the measurement category, leads checked), all unticked. That a supervisor
+// checked the set-up is not the student's tick: the supervisor confirms it (SupervisorConfirmation).
 SafetyChecklist standardSafetyChecklist(const std::string &student);
+
+// The supervisor's own confirmation of the set-up, given before the session can start: their
+// name, and whether the sheet's PIN was asked for and matched (a session is never started with
+// a PIN that did not match).
+struct SupervisorConfirmation {
+    std::string supervisor;         // required, as they typed it
+    std::string student;            // whom they confirmed it for
+    bool pinChecked = false;        // the sheet asked for a PIN and it matched
+    std::string timeUtc;            // from the note, when read back
+};
+// "" when the confirmation may be recorded; else the field and the rule ("supervisor: ...").
+// A supervisor must not be the student.
+std::string supervisorConfirmationError(const SupervisorConfirmation &confirmation);
+std::string supervisorNoteText(const SupervisorConfirmation &confirmation);
+
+// The file name of a supervised session: "<student>_<unit>_<yyyymmdd-hhmmss>Z.sagline", each
+// part reduced to letters, digits, '-', '_' and '.' (other characters become '-'), at most 40
+// characters each, so a folder of sessions sorts by student and a second student never meets
+// "already exists". `utcStamp` is "20261202-153012".
+std::string supervisedSessionFileName(const std::string &student, const std::string &unitSerial,
+                                      const std::string &utcStamp);
 
 // A reading or step the lab sheet refused.
 struct LimitHit {
@@ -64,6 +87,7 @@ struct SupervisionSummary {
     std::optional<LabSheetStamp> labSheet;      // the first lab-sheet note
     std::optional<SafetyChecklist> checklist;   // the latest checklist note
     std::vector<LimitHit> limitHits;            // oldest first
+    std::optional<SupervisorConfirmation> supervisor; // the latest confirmation
     int unreadable = 0;
 };
 SupervisionSummary summarizeSupervision(const std::vector<NoteRecord> &notes);

@@ -47,7 +47,7 @@ void writeSeed(const std::string &folder)
     }
     created.value->excludeReading(3, "seed", "fuzz");
     created.value->addNote("fuzz", "seed note");
-    created.value->addSignOff("fuzz", Verdict::Accepted, "seed");
+    created.value->addSignOff("fuzz", ReviewDecision::Accepted, "seed");
 }
 
 } // namespace

@@ -150,6 +150,13 @@ std::int64_t SweepController::pausedForMs() const
     return m_pausedAtMs < 0 ? -1 : m_clock->nowMs() - m_pausedAtMs;
 }
 
+std::int64_t SweepController::settlingRemainingMs() const
+{
+    if (m_state != SweepState::Settling || m_settleEndsMs < 0)
+        return -1;
+    return std::max<std::int64_t>(0, m_settleEndsMs - m_clock->nowMs());
+}
+
 void SweepController::event(const QString &text)
 {
     if (m_sink)
@@ -278,6 +285,7 @@ void SweepController::loadReady()
     setState(SweepState::Settling);
     if (m_state != SweepState::Settling)
         return; // a stateChanged handler paused or stopped the sweep
+    m_settleEndsMs = m_clock->nowMs() + m_options.dwellMs;
     m_timer = m_clock->callAfter(m_options.dwellMs, this, [this] {
         m_timer = 0;
         startMeasuring();

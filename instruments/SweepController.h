@@ -125,6 +125,11 @@ public:
     QString pauseReason() const { return m_pauseReason; }
     // How long the sweep has been paused, on its clock; -1 when it is not paused.
     std::int64_t pausedForMs() const;
+    // While the step settles (the dwell): how long until the meters are read, on the sweep's
+    // clock; -1 in any other state.
+    std::int64_t settlingRemainingMs() const;
+    bool isLinkDown() const { return m_linkDown; }          // paused because a meter's link is lost
+    bool isOperatorPaused() const { return m_operatorPaused; }
 
 signals:
     void stateChanged(sagline::SweepState state);
@@ -190,6 +195,7 @@ private:
     bool m_pauseInDoubt = false;  // paused by the operator during this step: the load is checked again on resume
     bool m_confirmedBeforePause = false; // the operator had confirmed this step's load before the pause
     bool m_linkDown = false;
+    std::int64_t m_settleEndsMs = -1; // clock time the dwell ends, while Settling
     bool m_operatorPaused = false;
     std::optional<Reading> m_uncommitted; // a reading whose commit failed; retried on resume()
     std::optional<std::pair<double, double>> m_lastPair; // (V, I) of the last good read

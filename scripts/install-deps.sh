@@ -9,7 +9,7 @@ packages=(
     # core
     libeigen3-dev libsqlite3-dev nlohmann-json3-dev
     # instruments, ui
-    qt6-base-dev qt6-charts-dev qt6-serialport-dev qt6-qpa-plugins libqt6opengl6-dev
+    qt6-base-dev qt6-charts-dev qt6-serialport-dev qt6-svg-dev qt6-qpa-plugins libqt6opengl6-dev
     libgl-dev libxkbcommon-dev
     fonts-dejavu-core
     # tests and benchmarks

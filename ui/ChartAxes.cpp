@@ -35,6 +35,27 @@ double niceStep(double raw)
 
 } // namespace
 
+namespace {
+
+// Ticks on round values every `step`, labelled with the fewest decimals that show each exactly.
+void setTicks(QValueAxis *axis, double first, double step)
+{
+    axis->setTickType(QValueAxis::TicksDynamic);
+    axis->setTickAnchor(first);
+    axis->setTickInterval(step);
+    int decimals = std::clamp(static_cast<int>(std::ceil(-std::log10(step) - 1e-9)), 0, 6);
+    while (decimals < 6) {
+        // Fewest decimals that show every tick exactly (0.25 needs two, 0.5 one, 5 none).
+        const double scaled = step * std::pow(10.0, decimals);
+        if (std::abs(scaled - std::round(scaled)) < 1e-6)
+            break;
+        ++decimals;
+    }
+    axis->setLabelFormat(QStringLiteral("%.%1f").arg(decimals));
+}
+
+} // namespace
+
 void applySpan(QValueAxis *axis, const AxisSpan &span, int ticks)
 {
     double low = span.low;
@@ -47,19 +68,18 @@ void applySpan(QValueAxis *axis, const AxisSpan &span, int ticks)
     // A little room beyond the outer ticks so markers on the edge (the open-circuit point at
     // I = 0) are drawn whole; ticks stay on round values anchored at the first one.
     const double pad = 0.015 * (last - first);
-    axis->setTickType(QValueAxis::TicksDynamic);
-    axis->setTickAnchor(first);
-    axis->setTickInterval(step);
     axis->setRange(first - pad, last + pad);
-    int decimals = std::clamp(static_cast<int>(std::ceil(-std::log10(step) - 1e-9)), 0, 6);
-    while (decimals < 6) {
-        // Fewest decimals that show every tick exactly (0.25 needs two, 0.5 one, 5 none).
-        const double scaled = step * std::pow(10.0, decimals);
-        if (std::abs(scaled - std::round(scaled)) < 1e-6)
-            break;
-        ++decimals;
-    }
-    axis->setLabelFormat(QStringLiteral("%.%1f").arg(decimals));
+    setTicks(axis, first, step);
+}
+
+void retickShownRange(QValueAxis *axis, int ticks)
+{
+    const double low = axis->min();
+    const double high = axis->max();
+    if (!(high > low))
+        return;
+    const double step = niceStep((high - low) / std::max(1, ticks - 1));
+    setTicks(axis, std::ceil(low / step - 1e-9) * step, step);
 }
 
 } // namespace sagline

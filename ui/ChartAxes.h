@@ -22,5 +22,7 @@ struct AxisSpan {
 AxisSpan grownSpan(const AxisSpan &current, double lowNeeded, double highNeeded, double headroom);
 // Sets the axis to the span on nice tick values and a label format with just enough decimals.
 void applySpan(QValueAxis *axis, const AxisSpan &span, int ticks = 6);
+// Round ticks and label decimals for the range the axis shows now (after a zoom or pan).
+void retickShownRange(QValueAxis *axis, int ticks = 6);
 
 } // namespace sagline

@@ -151,8 +151,10 @@ ResultsView resultsView(const ResultsInputs &in)
     ResultsView view;
     const LineFitResult fit = in.live->result();
     if (!fit.ok()) {
-        view.lines.append({QStringLiteral("status"), QObject::tr("Fit"), QString::fromStdString(fit.message),
-                           QObject::tr("needs two points at different currents"), true});
+        // The value column holds short values (it does not wrap); the reason goes in the note.
+        view.lines.append({QStringLiteral("status"), QObject::tr("Fit"), QObject::tr("not yet"),
+                           QObject::tr("%1; it needs two points at different currents").arg(QString::fromStdString(fit.message)),
+                           true});
         return view;
     }
     QStringList problems;

@@ -1,6 +1,7 @@
 #include "MainWindow.h"
 
 #include "CautionStrip.h"
+#include "ElidedLabel.h"
 #include "ChartStyle.h"
 #include "FitPresentation.h"
 #include "InstrumentsPanel.h"
@@ -19,16 +20,19 @@
 #include "VerdictCompleteness.h"
 #include "SweepWorkspace.h"
 #include "VoltageCurrentChart.h"
+#include "WheelGuard.h"
 
 #include <QAction>
 #include <QApplication>
 #include <QComboBox>
+#include <QFileDialog>
 #include <QHeaderView>
 #include <QInputDialog>
 #include <QMessageBox>
 #include <QLabel>
 #include <QMenuBar>
 #include <QPushButton>
+#include <QRegularExpression>
 #include <QScrollArea>
 #include <QSplitter>
 #include <QStatusBar>
@@ -84,7 +88,8 @@ MainWindow::MainWindow(QWidget *parent)
       m_topChartSplitter(new QSplitter(Qt::Horizontal)), m_results(new ResultsPanel), m_readingsModel(new ReadingsTableModel(this)),
       m_readingsView(new QTableView), m_mainSplitter(new QSplitter(Qt::Horizontal)),
       m_chartSplitter(new QSplitter(Qt::Vertical)), m_rightSplitter(new QSplitter(Qt::Vertical)),
-      m_statusSource(new QLabel), m_statusSession(new QLabel), m_statusPoints(new QLabel), m_recentMenu(nullptr),
+      m_statusMessage(new ElidedLabel), m_statusSource(new ElidedLabel),
+      m_statusSession(new ElidedLabel(Qt::ElideMiddle)), m_statusPoints(new QLabel), m_recentMenu(nullptr),
       m_band(new SessionBand)
 {
     setWindowTitle(tr("Sagline: transformer load test"));
@@ -98,9 +103,13 @@ MainWindow::MainWindow(QWidget *parent)
         return QMessageBox::question(this, title, text, QMessageBox::Yes | QMessageBox::No, QMessageBox::No)
                == QMessageBox::Yes;
     };
+    m_savePathPrompt = [this](const QString &title, const QString &suggested, const QString &filter) {
+        return QFileDialog::getSaveFileName(this, title, suggested, filter);
+    };
     createLayout();
     createActions();
     wireWorkspace();
+    guardWheelInside(this); // no combo or spin box changes under a scrolling wheel
     m_resultsTimer.setSingleShot(true);
     m_resultsTimer.setInterval(100);
     connect(&m_resultsTimer, &QTimer::timeout, this, &MainWindow::refreshFitViews);
@@ -109,14 +118,18 @@ MainWindow::MainWindow(QWidget *parent)
     connect(&m_settingsTimer, &QTimer::timeout, this, &MainWindow::storeAnalysisSettings);
     // The window never gives up on a paused sweep (its operator decides) but says how long it
     // has been waiting and why.
-    m_waitingTimer.setInterval(1000);
+    // A quarter second keeps the dwell countdown's seconds even.
+    m_waitingTimer.setInterval(250);
     connect(&m_waitingTimer, &QTimer::timeout, this, [this] {
         const SweepRun *run = m_workspace->run();
         const SweepController *controller = run ? run->controller() : nullptr;
         const std::int64_t waitedMs = controller ? controller->pausedForMs() : -1;
         m_nextStep->setWaiting(waitedMs < 0 ? QString()
                                             : tr("Paused for %1: %2").arg(formatWaited(waitedMs), controller->pauseReason()));
+        showSweepState();
     });
+    m_messageTimer.setSingleShot(true);
+    connect(&m_messageTimer, &QTimer::timeout, this, [this] { m_statusMessage->setFullText(QString()); });
     m_waitingTimer.start();
     readSettings();
     applyColourScheme();
@@ -184,7 +197,12 @@ void MainWindow::createLayout()
     layout->addWidget(m_mainSplitter, 1);
     setCentralWidget(central);
 
-    // Permanent widgets sit on the right; messages use the left part and never cover them.
+    // Messages on the left, the fields on the right; each is shortened with "…" (whole text in
+    // its tooltip) rather than run into its neighbour.
+    m_statusMessage->setObjectName(QStringLiteral("statusMessage"));
+    m_statusSource->setMaximumWidth(360);
+    m_statusSession->setMaximumWidth(420);
+    statusBar()->addWidget(m_statusMessage, 1);
     statusBar()->addPermanentWidget(m_statusPoints);
     statusBar()->addPermanentWidget(m_statusSource);
     statusBar()->addPermanentWidget(m_statusSession);
@@ -208,7 +226,8 @@ void MainWindow::wireWorkspace()
     connect(m_band, &SessionBand::resumeRequested, this, &MainWindow::resumeSession);
     connect(m_nextStep, &NextStepStrip::recordRequested, this, &MainWindow::handleRecord);
     connect(m_nextStep, &NextStepStrip::pauseRequested, m_workspace, &SweepWorkspace::pauseOrResume);
-    connect(m_nextStep, &NextStepStrip::stopRequested, m_workspace, &SweepWorkspace::stop);
+    connect(m_nextStep, &NextStepStrip::stopRequested, this, &MainWindow::confirmStop);
+    connect(m_workspace, &SweepWorkspace::sweepStateChanged, this, &MainWindow::showSweepState);
     connect(m_workspace, &SweepWorkspace::readingRecorded, this, &MainWindow::handleReadingRecorded);
     connect(m_workspace, &SweepWorkspace::readingChanged, this, &MainWindow::handleReadingChanged);
     connect(m_workspace, &SweepWorkspace::fitChanged, this, [this] {
@@ -224,7 +243,7 @@ void MainWindow::wireWorkspace()
     connect(m_workspace, &SweepWorkspace::notice, this, [this](const QString &text) { showMessage(text); });
     connect(m_workspace, &SweepWorkspace::runningChanged, this, &MainWindow::handleRunningChanged);
     const auto showSessionFile = [this] {
-        m_statusSession->setText(m_workspace->store() ? tr("Session: %1").arg(m_workspace->sessionPath()) : QString());
+        m_statusSession->setFullText(m_workspace->store() ? tr("Session: %1").arg(m_workspace->sessionPath()) : QString());
         rebuildRecentMenu(); // a failed start removes the session file it had created
     };
     connect(m_workspace, &SweepWorkspace::sessionChanged, this, showSessionFile);
@@ -236,6 +255,7 @@ void MainWindow::wireWorkspace()
         m_instrumentState = status.section(QLatin1Char('\n'), 0, 0).section(QLatin1Char(':'), 0, 0).trimmed();
         showSourceStatus();
     });
+    connect(m_instruments, &InstrumentsPanel::testRequested, this, &MainWindow::testMeters);
     connect(m_instruments, &InstrumentsPanel::choiceChanged, this, [this] {
         m_nextStep->setTypedEntry(m_instruments->choice().source == ReadingSource::TypedIn);
         m_instrumentState.clear();
@@ -248,10 +268,10 @@ void MainWindow::wireWorkspace()
 void MainWindow::showSourceStatus()
 {
     const QString source = m_instruments->sourceBox()->currentText();
-    m_statusSource->setText(m_instrumentState.isEmpty() ? source : tr("%1: %2").arg(source, m_instrumentState));
+    m_statusSource->setFullText(m_instrumentState.isEmpty() ? source : tr("%1: %2").arg(source, m_instrumentState));
 }
 
-QString MainWindow::sourceStatusText() const { return m_statusSource->text(); }
+QString MainWindow::sourceStatusText() const { return m_statusSource->fullText(); }
 
 void MainWindow::loadSetup(const Setup &setup) { m_setupForm->loadSetup(setup); }
 
@@ -351,7 +371,11 @@ void MainWindow::handleRecord()
     showMessage(refusal, true);
 }
 
-void MainWindow::handleReadingRecorded(int row) { showRecordedReadings(row, row + 1); }
+void MainWindow::handleReadingRecorded(int row)
+{
+    showRecordedReadings(row, row + 1);
+    checkNoLoadReading(m_workspace->readings()[static_cast<std::size_t>(row)]);
+}
 
 void MainWindow::showRecordedReadings(int first, int end)
 {
@@ -475,6 +499,67 @@ void MainWindow::handleRunningChanged(bool running)
         showSessionState();
         refreshFitViews(); // provisional from now on
     }
+    showSweepState();
+}
+
+void MainWindow::showSweepState()
+{
+    const SweepRun *run = m_workspace->run();
+    const SweepController *controller = run ? run->controller() : nullptr;
+    if (!m_workspace->isRunning() || !controller) {
+        m_nextStep->setSweepState(StripState::Idle);
+        return;
+    }
+    const int step = controller->currentStep();
+    m_nextStep->setPaused(controller->state() == SweepState::Paused && (m_workspace->isPaused() || !controller->isLinkDown()));
+    if (run->isConnecting()) {
+        m_nextStep->setSweepState(StripState::Busy, {}, tr("Connecting to the meters…"));
+        return;
+    }
+    switch (controller->state()) {
+    case SweepState::Paused:
+        if (controller->isLinkDown())
+            m_nextStep->setSweepState(StripState::LinkLost, tr("⚠ Link lost at step %1 — recorded points are kept").arg(step),
+                                      tr("The sweep goes on at this step when the meters answer again."));
+        else
+            m_nextStep->setSweepState(StripState::Paused, tr("❚❚ Paused — resume to continue at step %1").arg(step));
+        break;
+    case SweepState::Settling: {
+        const std::int64_t remainingMs = controller->settlingRemainingMs();
+        const std::int64_t seconds = (std::max<std::int64_t>(0, remainingMs) + 999) / 1000; // whole seconds, rounded up
+        m_nextStep->setSweepState(StripState::Settling, {},
+                                  tr("⏳ Settling: reading in %1 s (dwell %2 s)")
+                                      .arg(seconds)
+                                      .arg(QString::number(static_cast<double>(controller->options().dwellMs) / 1000.0, 'g', 3)));
+        break;
+    }
+    case SweepState::SettingLoad:
+        m_nextStep->setSweepState(StripState::Busy, {}, tr("Setting the programmable load…"));
+        break;
+    case SweepState::Measuring:
+        m_nextStep->setSweepState(StripState::Busy, {}, tr("Reading the meters…"));
+        break;
+    case SweepState::WaitingForLoad:
+    case SweepState::WaitingForEntry:
+        m_nextStep->setSweepState(StripState::Ready);
+        break;
+    case SweepState::Idle:
+    case SweepState::Finished:
+    case SweepState::Stopped:
+        m_nextStep->setSweepState(StripState::Idle);
+        break;
+    }
+}
+
+void MainWindow::confirmStop()
+{
+    if (!m_workspace->isRunning())
+        return;
+    if (!m_confirmPrompt(tr("Stop the sweep"),
+                         tr("Stop the sweep now? Every recorded point stays in the session file; the session can be "
+                            "resumed later at its next step.")))
+        return;
+    m_workspace->stop();
 }
 
 void MainWindow::applyColourScheme()
@@ -483,9 +568,7 @@ void MainWindow::applyColourScheme()
     m_chart->applyColours(dark);
     m_residuals->applyColours(dark);
     m_efficiency->applyColours(dark);
-    QPalette stripPalette = m_nextStep->palette();
-    stripPalette.setColor(QPalette::Window, palette().color(QPalette::AlternateBase));
-    m_nextStep->setPalette(stripPalette);
+    m_nextStep->applyColours(dark);
 }
 
 void MainWindow::changeEvent(QEvent *event)
@@ -495,11 +578,45 @@ void MainWindow::changeEvent(QEvent *event)
     QMainWindow::changeEvent(event);
 }
 
-void MainWindow::showMessage(const QString &text, bool error)
+QString MainWindow::withFieldLabels(const QString &text) const
 {
-    m_lastMessage = text;
-    statusBar()->showMessage(error ? QStringLiteral("✖ ") + text : text, error ? 0 : 8000);
+    // Messages from core name fields by their setup-file keys ("bench.fuse_factor: ..."); the
+    // window speaks the labels the person sees on the form instead.
+    static const QRegularExpression key(QStringLiteral(
+        "\\b(?:nameplate|bench|session|verdict|meters|specification|reading|instruments)(?:\\.[a-z0-9_]+)+"));
+    QString spoken = text;
+    QRegularExpressionMatchIterator matches = key.globalMatch(text);
+    QList<QRegularExpressionMatch> found;
+    while (matches.hasNext())
+        found.prepend(matches.next()); // replaced from the end, so earlier offsets hold
+    for (const QRegularExpressionMatch &match : found) {
+        QString label = m_setupForm->labelFor(match.captured());
+        if (label.isEmpty() && match.captured() == QLatin1String("reading.current_a"))
+            label = tr("Current I");
+        if (label.isEmpty() && match.captured() == QLatin1String("reading.voltage_v"))
+            label = tr("Voltage V");
+        if (label.isEmpty() && match.captured() == QLatin1String("instruments.serial_port"))
+            label = tr("Meter port");
+        if (label.isEmpty() && match.captured() == QLatin1String("instruments.lan_address"))
+            label = tr("Meter address");
+        if (!label.isEmpty())
+            spoken.replace(match.capturedStart(), match.capturedLength(), label);
+    }
+    return spoken;
 }
+
+void MainWindow::showMessage(const QString &rawText, bool error)
+{
+    const QString text = withFieldLabels(rawText);
+    m_lastMessage = text;
+    // Every message expires: a problem stays long enough to be read (it is also shown where it
+    // belongs, under its field or in the strip), news goes sooner. A newer message replaces it.
+    m_statusMessage->setStyleSheet(error ? QStringLiteral("QLabel { color: #d55e00; font-weight: bold; }") : QString());
+    m_statusMessage->setFullText(error ? QStringLiteral("✖ ") + text : text);
+    m_messageTimer.start(error ? 20000 : 8000);
+}
+
+QString MainWindow::shownMessage() const { return m_statusMessage->fullText(); }
 
 void MainWindow::resetViews()
 {

@@ -5,6 +5,7 @@
 #pragma once
 
 #include "DisplayPoints.h"
+#include "SessionSummary.h"
 #include "SweepWorkspace.h"
 #include "Setup.h"
 
@@ -25,6 +26,8 @@ class QTableView;
 namespace sagline {
 
 class CautionStrip;
+class ElidedLabel;
+class MeterCheck;
 class InstrumentsPanel;
 class NextStepStrip;
 class PlanPanel;
@@ -81,10 +84,31 @@ public:
     QString pointsStatusText() const; // the status bar's "N point(s) recorded"
     ReadingsTableModel *readingsModel() const { return m_readingsModel; }
     QTableView *readingsView() const { return m_readingsView; }
-    QString lastMessage() const { return m_lastMessage; }
+    QString lastMessage() const { return m_lastMessage; }  // the latest message, even after it expired
+    QString shownMessage() const;                          // the message on display now ("" once expired)
+    ElidedLabel *messageLabel() const { return m_statusMessage; }
     QString sourceStatusText() const; // the status bar's source and meter status
     QMenu *recentMenu() const { return m_recentMenu; }
+    QMenu *sweepMenu() const { return m_sweepMenu; }
+    // Asks where to save (a save dialog): "" when cancelled. Replaceable for tests.
+    using SavePathPrompt = std::function<QString(const QString &title, const QString &suggested, const QString &filter)>;
+    void setSavePathPrompt(SavePathPrompt prompt) { m_savePathPrompt = std::move(prompt); }
+    // Writes the open session's readings as CSV (core's session export: shortest round-trip
+    // digits, exclusion reasons and who excluded). A path without an extension gets ".csv";
+    // another extension is refused. "" or the reason nothing was written.
+    QString exportCsvTo(const QString &path);
     QStringList recentFiles() const { return m_recentFiles; } // newest first; existing files only
+    // Setup files in the CLI's format (DESIGN.md). Opening one closes the open session (a
+    // running sweep is stopped only when the person agrees) and fills the form; saving writes
+    // the form's setup as core reads it, refused with the fields named when it does not read.
+    // "" or the reason.
+    QString openSetupFile(const QString &path);
+    QString saveSetupFile(const QString &path);
+    QStringList recentSetups() const { return m_recentSetups; } // newest first; existing files only
+    // Nameplates kept under a name in the user's settings, for units tested often.
+    QString saveNameplatePreset(const QString &name); // "" or why not
+    bool applyNameplatePreset(const QString &name);
+    QStringList nameplatePresets() const;
 
 protected:
     void closeEvent(QCloseEvent *event) override;
@@ -112,6 +136,10 @@ private:
     void handleStep(int step, const QString &instruction);
     void handleSafetyStop(const QString &text);
     void handleRunningChanged(bool running);
+    void showSweepState(); // the strip's state, banner, countdown and buttons from the controller
+    void testMeters();     // Connect and test (ui/MainWindowInstruments.cpp)
+    void checkNoLoadReading(const Reading &reading);
+    void confirmStop();
     void excludeSelected();
     void restoreSelected();
     void addNote();
@@ -130,16 +158,22 @@ private:
     void resumeSession();
     void useSafeSteps();
     void overrideLimits();
-    void newSessionFromSetupFile();
+    // Setup files and nameplate presets (ui/MainWindowSetupFiles.cpp).
+    void openSetupDialog();
+    void saveSetupDialog();
+    void rebuildSetupMenus();
+    void savePresetDialog();
 
     void newSession();
     void openSessionDialog();
     void saveCopyAs();
     void exportCsv();
     void reportPdf();
+    ReviewOptions reviewOptions() const; // the verdict settings on the form, for exports and the report
     void rememberRecent(const QString &path);
     void rebuildRecentMenu();
     void showMessage(const QString &text, bool error = false);
+    QString withFieldLabels(const QString &text) const; // setup-file keys replaced by the form's labels
 
     SweepWorkspace *m_workspace;
     CautionStrip *m_caution;
@@ -159,12 +193,20 @@ private:
     QSplitter *m_mainSplitter;
     QSplitter *m_chartSplitter;
     QSplitter *m_rightSplitter;
-    QLabel *m_statusSource;
+    ElidedLabel *m_statusMessage; // transient messages: they expire, and never cover the fields
+    QTimer m_messageTimer;
+    ElidedLabel *m_statusSource;
     QString m_instrumentState; // the meters' last status word, shown beside the source
-    QLabel *m_statusSession;
+    ElidedLabel *m_statusSession;
     QLabel *m_statusPoints;
     QMenu *m_recentMenu;
+    QMenu *m_sweepMenu = nullptr;
+    SavePathPrompt m_savePathPrompt;
+    MeterCheck *m_meterCheck = nullptr; // the last Connect and test (child of the window)
     QStringList m_recentFiles;
+    QStringList m_recentSetups;
+    QMenu *m_recentSetupsMenu = nullptr;
+    QMenu *m_presetsMenu = nullptr;
     QString m_sessionFolder;
     QString m_lastMessage;
     QTimer m_resultsTimer;

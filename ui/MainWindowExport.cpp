@@ -3,6 +3,7 @@
 #include "MainWindow.h"
 
 #include "BuildInfo.h"
+#include "OutputExtension.h"
 #include "OutputFile.h"
 #include "ReportWriter.h"
 #include "SessionExport.h"
@@ -14,7 +15,8 @@
 #include "Units.h"
 
 #include <QDateTime>
-#include <QFileDialog>
+#include <QFile>
+#include <QDir>
 #include <QFileInfo>
 
 namespace sagline {
@@ -31,26 +33,50 @@ QString suggestedPath(const QString &sessionPath, const QString &suffix)
 
 void MainWindow::exportCsv()
 {
-    SessionStore *store = m_workspace->store();
-    if (!store) {
+    if (!m_workspace->store()) {
         showMessage(tr("No session is open."), true);
         return;
     }
-    const QString path = QFileDialog::getSaveFileName(this, tr("Export readings"), suggestedPath(m_workspace->sessionPath(), QStringLiteral(".csv")),
-                                                      tr("CSV files (*.csv)"));
+    const QString path = m_savePathPrompt(tr("Export readings"), suggestedPath(m_workspace->sessionPath(), QStringLiteral(".csv")),
+                                          tr("CSV files (*.csv)"));
     if (path.isEmpty())
         return;
-    const auto readings = store->readings();
-    if (!readings.ok()) {
-        showMessage(QString::fromStdString(readings.message), true);
-        return;
-    }
-    if (const QString problem = writeOutputFile(path, QByteArray::fromStdString(readingsToCsv(readings.value)));
-        !problem.isEmpty()) {
+    const QString problem = exportCsvTo(path);
+    if (!problem.isEmpty())
         showMessage(problem, true);
-        return;
-    }
-    showMessage(tr("%n reading(s) exported to %1", nullptr, static_cast<int>(readings.value.size())).arg(path));
+}
+
+QString MainWindow::exportCsvTo(const QString &requestedPath)
+{
+    SessionStore *store = m_workspace->store();
+    if (!store)
+        return tr("No session is open.");
+    const OutputName name = outputNameFor(QFile::encodeName(requestedPath).toStdString(), "CSV", {"csv"});
+    if (!name.ok())
+        return QFile::decodeName(QByteArray::fromStdString(name.error));
+    const QString path = QFile::decodeName(QByteArray::fromStdString(name.path));
+    // The session's own export (as sagline-cli export writes it): every reading with who
+    // recorded it, the exclusion reason and who excluded it, the retake's reason.
+    const auto summary = summarizeSession(*store, reviewOptions());
+    if (!summary.ok())
+        return QString::fromStdString(summary.message);
+    if (const QString problem = writeOutputFile(path, QByteArray::fromStdString(sessionReadingsToCsv(summary.value)));
+        !problem.isEmpty())
+        return problem;
+    showMessage(tr("%n reading(s) exported to %1", nullptr, static_cast<int>(summary.value.readings.size())).arg(path));
+    return {};
+}
+
+ReviewOptions MainWindow::reviewOptions() const
+{
+    // Exports and the report judge the results as the window does.
+    const VerdictSettings verdict = m_setupForm->verdictSettings();
+    ReviewOptions options;
+    options.rule = verdict.rule;
+    options.regulationLimit = typedRegulationLimit(verdict.regulationLimit);
+    options.referenceTemperatureC = typedQuantity(verdict.referenceTemperature, Unit::Celsius);
+    options.temperatureConstant = verdict.constant;
+    return options;
 }
 
 void MainWindow::reportPdf()
@@ -60,10 +86,16 @@ void MainWindow::reportPdf()
         showMessage(tr("No session is open."), true);
         return;
     }
-    const QString path = QFileDialog::getSaveFileName(this, tr("Report to PDF"), suggestedPath(m_workspace->sessionPath(), QStringLiteral(".pdf")),
-                                                      tr("PDF files (*.pdf)"));
-    if (path.isEmpty())
+    const QString chosen = m_savePathPrompt(tr("Report to PDF"), suggestedPath(m_workspace->sessionPath(), QStringLiteral(".pdf")),
+                                            tr("PDF files (*.pdf)"));
+    if (chosen.isEmpty())
         return;
+    const OutputName name = outputNameFor(QFile::encodeName(chosen).toStdString(), "PDF", {"pdf"});
+    if (!name.ok()) {
+        showMessage(QFile::decodeName(QByteArray::fromStdString(name.error)), true);
+        return;
+    }
+    const QString path = QFile::decodeName(QByteArray::fromStdString(name.path));
     const QString error = writeReport(path);
     showMessage(error.isEmpty() ? tr("Report written to %1").arg(path) : error, !error.isEmpty());
 }
@@ -73,14 +105,7 @@ QString MainWindow::writeReport(const QString &pdfPath)
     SessionStore *store = m_workspace->store();
     if (!store)
         return tr("No session is open.");
-    // The report judges the results as the window does.
-    const VerdictSettings verdict = m_setupForm->verdictSettings();
-    ReviewOptions options;
-    options.rule = verdict.rule;
-    options.regulationLimit = typedRegulationLimit(verdict.regulationLimit);
-    options.referenceTemperatureC = typedQuantity(verdict.referenceTemperature, Unit::Celsius);
-    options.temperatureConstant = verdict.constant;
-    const auto summary = summarizeSession(*store, options);
+    const auto summary = summarizeSession(*store, reviewOptions());
     if (!summary.ok())
         return QString::fromStdString(summary.message);
     ReportOptions report;

@@ -2,7 +2,9 @@
 // table actions, and the settings kept between runs.
 #include "MainWindow.h"
 
+#include "HelpMenu.h"
 #include "InstrumentsPanel.h"
+#include "NextStepStrip.h"
 #include "PlanPanel.h"
 #include "ReadingsTableModel.h"
 #include "ReviewMenu.h"
@@ -20,10 +22,14 @@
 #include <QMenuBar>
 #include <QMessageBox>
 #include <QMimeData>
+#include <QGuiApplication>
+#include <QScreen>
 #include <QSettings>
 #include <QSplitter>
 #include <QStandardPaths>
 #include <QTableView>
+
+#include <algorithm>
 
 namespace sagline {
 
@@ -36,7 +42,14 @@ void MainWindow::createActions()
 {
     QMenu *file = menuBar()->addMenu(tr("&File"));
     file->addAction(tr("&New session"), QKeySequence::New, this, &MainWindow::newSession);
-    file->addAction(tr("New session from a setup &file…"), this, &MainWindow::newSessionFromSetupFile);
+    file->addSeparator();
+    file->addAction(tr("Open se&tup…"), QKeySequence(Qt::CTRL | Qt::ALT | Qt::Key_O), this, &MainWindow::openSetupDialog);
+    m_recentSetupsMenu = file->addMenu(tr("Recent set&ups"));
+    file->addAction(tr("Sa&ve setup as…"), QKeySequence(Qt::CTRL | Qt::ALT | Qt::Key_S), this, &MainWindow::saveSetupDialog);
+    m_presetsMenu = file->addMenu(tr("Nameplate &presets"));
+    connect(m_recentSetupsMenu, &QMenu::aboutToShow, this, &MainWindow::rebuildSetupMenus);
+    connect(m_presetsMenu, &QMenu::aboutToShow, this, &MainWindow::rebuildSetupMenus);
+    file->addSeparator();
     file->addAction(tr("&Open session…"), QKeySequence::Open, this, &MainWindow::openSessionDialog);
     m_recentMenu = file->addMenu(tr("Open &recent"));
     // Files deleted or moved since the list was built (by hand, or a failed start that removed
@@ -49,13 +62,14 @@ void MainWindow::createActions()
     file->addSeparator();
     file->addAction(tr("&Quit"), QKeySequence::Quit, this, &QWidget::close);
 
-    QMenu *sweep = menuBar()->addMenu(tr("&Sweep"));
-    sweep->addAction(tr("&Accept plan and start"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_A), this,
-                     &MainWindow::handleAccept);
-    sweep->addAction(tr("&Record (Ctrl+Enter)"), this, &MainWindow::handleRecord);
-    sweep->addAction(tr("&Pause or resume"), QKeySequence(Qt::CTRL | Qt::Key_Period), m_workspace,
-                     &SweepWorkspace::pauseOrResume);
-    sweep->addAction(tr("&Stop"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_S), m_workspace, &SweepWorkspace::stop);
+    // The same actions as the plan's Accept button and the strip's buttons: enabled together.
+    m_sweepMenu = menuBar()->addMenu(tr("&Sweep"));
+    m_sweepMenu->addAction(m_planPanel->acceptAction());
+    m_sweepMenu->addSeparator();
+    m_sweepMenu->addAction(m_nextStep->recordAction());
+    m_sweepMenu->addAction(m_nextStep->pauseAction());
+    m_sweepMenu->addSeparator();
+    m_sweepMenu->addAction(m_nextStep->stopAction()); // no shortcut; asks first
 
     QMenu *readings = menuBar()->addMenu(tr("&Readings"));
     auto *exclude = readings->addAction(tr("E&xclude selected point…"), QKeySequence(Qt::CTRL | Qt::Key_Delete), this,
@@ -74,17 +88,25 @@ void MainWindow::createActions()
     view->addAction(tr("&Instruments"), QKeySequence(Qt::ALT | Qt::Key_3), this, [this] { m_leftTabs->setCurrentIndex(2); });
     view->addAction(tr("R&eadings table"), QKeySequence(Qt::ALT | Qt::Key_4), this, [this] { m_readingsView->setFocus(); });
     addReviewMenu(this); // review workspace and supervised sessions (ui/ReviewMenu)
+    addHelpMenu(this);   // user guide, shortcuts, About (ui/HelpMenu)
     rebuildRecentMenu();
 }
 
 void MainWindow::readSettings()
 {
     QSettings settings;
-    restoreGeometry(settings.value(QStringLiteral("window/geometry")).toByteArray());
+    // The size the person left it at; the first time, most of the screen (all of a 1366 x 768
+    // laptop's, less the panel), which the layout is made to fit.
+    if (!restoreGeometry(settings.value(QStringLiteral("window/geometry")).toByteArray())) {
+        const QScreen *screen = QGuiApplication::primaryScreen();
+        const QSize available = screen ? screen->availableGeometry().size() : QSize(1366, 740);
+        resize(std::min(available.width(), 1600), std::min(available.height(), 1000));
+    }
     m_mainSplitter->restoreState(settings.value(QStringLiteral("window/mainSplitter")).toByteArray());
     m_chartSplitter->restoreState(settings.value(QStringLiteral("window/chartSplitter")).toByteArray());
     m_rightSplitter->restoreState(settings.value(QStringLiteral("window/rightSplitter")).toByteArray());
     m_recentFiles = settings.value(QStringLiteral("files/recent")).toStringList();
+    m_recentSetups = settings.value(QStringLiteral("files/recentSetups")).toStringList();
     m_sessionFolder = settings.value(QStringLiteral("files/sessionFolder")).toString();
     if (m_sessionFolder.isEmpty())
         m_sessionFolder = QStandardPaths::writableLocation(QStandardPaths::DocumentsLocation)
@@ -94,12 +116,15 @@ void MainWindow::readSettings()
     choice.serialPort = settings.value(QStringLiteral("instruments/serialPort")).toString();
     choice.lanAddress = settings.value(QStringLiteral("instruments/lanAddress")).toString();
     choice.ammeterAddress = settings.value(QStringLiteral("instruments/ammeterAddress")).toString();
+    choice.serialFormat = settings.value(QStringLiteral("instruments/serialFormat")).toString();
+    choice.loadAddress = settings.value(QStringLiteral("instruments/loadAddress")).toString();
     m_instruments->setChoice(choice);
     m_defaultChoice = choice;
     SessionDetails details;
     details.operatorName = settings.value(QStringLiteral("session/operator")).toString();
     m_setupForm->setSessionDetails(details);
     rebuildRecentMenu();
+    rebuildSetupMenus();
 }
 
 void MainWindow::writeSettings() const
@@ -110,11 +135,14 @@ void MainWindow::writeSettings() const
     settings.setValue(QStringLiteral("window/chartSplitter"), m_chartSplitter->saveState());
     settings.setValue(QStringLiteral("window/rightSplitter"), m_rightSplitter->saveState());
     settings.setValue(QStringLiteral("files/recent"), m_recentFiles);
+    settings.setValue(QStringLiteral("files/recentSetups"), m_recentSetups);
     const SourceChoice choice = m_instruments->choice();
     settings.setValue(QStringLiteral("instruments/source"), int(choice.source));
     settings.setValue(QStringLiteral("instruments/serialPort"), choice.serialPort);
     settings.setValue(QStringLiteral("instruments/lanAddress"), choice.lanAddress);
     settings.setValue(QStringLiteral("instruments/ammeterAddress"), choice.ammeterAddress);
+    settings.setValue(QStringLiteral("instruments/serialFormat"), choice.serialFormat);
+    settings.setValue(QStringLiteral("instruments/loadAddress"), choice.loadAddress);
     settings.setValue(QStringLiteral("session/operator"), m_setupForm->sessionDetails().operatorName);
 }
 
@@ -235,10 +263,12 @@ void MainWindow::excludeSelected()
     if (!reason)
         return;
     const QString error = m_workspace->exclude(rows.front().row(), *reason);
-    if (!error.isEmpty())
+    if (!error.isEmpty()) {
         showMessage(error, true);
-    else
-        m_readingsModel->setExcluded(rows.front().row(), true, reason->trimmed());
+        return;
+    }
+    m_readingsModel->setExcluded(rows.front().row(), true, reason->trimmed());
+    showMessage(tr("Reading %1 excluded: %2").arg(rows.front().row() + 1).arg(reason->trimmed()));
 }
 
 void MainWindow::restoreSelected()
@@ -254,8 +284,8 @@ void MainWindow::restoreSelected()
     if (!reason)
         return;
     const QString error = m_workspace->restore(rows.front().row(), *reason);
-    if (!error.isEmpty())
-        showMessage(error, true);
+    showMessage(error.isEmpty() ? tr("Reading %1 restored: %2").arg(rows.front().row() + 1).arg(reason->trimmed()) : error,
+                !error.isEmpty());
 }
 
 void MainWindow::addNote()

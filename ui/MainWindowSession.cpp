@@ -211,7 +211,7 @@ void MainWindow::showSessionState()
         m_band->setState(SessionBand::Kind::Signed,
                          tr("✔ Signed off by %1 on %2 (%3). Read-only: reopen it, with a reason, to change it.")
                              .arg(QString::fromStdString(seal.signOff->reviewer), dateTime(seal.signOff->timeUtc),
-                                  QString::fromStdString(toString(seal.signOff->verdict))),
+                                  QString::fromStdString(toString(seal.signOff->decision))),
                          !readOnly);
         break;
     case SealState::ChangedAfterSignOff:
@@ -323,23 +323,6 @@ void MainWindow::overrideLimits()
     m_workspace->setLimitChoice({LimitChoice::Override, *reason});
     showMessage(tr("Limits overridden by %1: %2").arg(m_workspace->person(), reason->trimmed()), true);
     handlePlanChanged();
-}
-
-void MainWindow::newSessionFromSetupFile()
-{
-    const QString path = QFileDialog::getOpenFileName(this, tr("New session from a setup file"), m_sessionFolder,
-                                                      tr("Setup files (*.json)"));
-    if (path.isEmpty())
-        return;
-    const SetupParse parsed = loadSetupFile(path.toStdString());
-    if (!parsed.setup) {
-        showMessage(QString::fromStdString(parsed.errors.front().message()), true);
-        return;
-    }
-    newSession();
-    if (m_workspace->store())
-        return; // the running sweep was not stopped
-    m_setupForm->loadSetup(*parsed.setup);
 }
 
 } // namespace sagline

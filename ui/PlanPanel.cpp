@@ -1,5 +1,8 @@
 #include "PlanPanel.h"
 
+#include "ActionButton.h"
+#include <QAction>
+
 #include "PlanTableModel.h"
 #include "UiFormat.h"
 
@@ -28,6 +31,7 @@ QString row(const QString &name, const QString &value, const QString &note = {})
 PlanPanel::PlanPanel(QWidget *parent)
     : QWidget(parent), m_summary(new QLabel), m_warnings(new QLabel), m_table(new QTableView),
       m_model(new PlanTableModel(this)), m_accept(new QPushButton(tr("Accept plan and start the sweep"))),
+      m_acceptAction(new QAction(tr("&Accept plan and start the sweep"), this)),
       m_blocked(new QLabel), m_safeSteps(new QPushButton(tr("Use only the safe steps"))),
       m_override(new QPushButton(tr("Override the limits…")))
 {
@@ -62,7 +66,12 @@ PlanPanel::PlanPanel(QWidget *parent)
     layout->addWidget(m_blocked);
     layout->addLayout(gate);
     layout->addWidget(m_accept);
-    connect(m_accept, &QPushButton::clicked, this, &PlanPanel::acceptRequested);
+    // The button and the Sweep menu's item are one action: enabled together. Code that sets
+    // the button's enabled state reaches the action through the binding.
+    m_acceptAction->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_A));
+    m_acceptAction->setEnabled(false);
+    connect(m_acceptAction, &QAction::triggered, this, &PlanPanel::acceptRequested);
+    bindButtonToAction(m_accept, m_acceptAction);
     connect(m_safeSteps, &QPushButton::clicked, this, &PlanPanel::safeStepsRequested);
     connect(m_override, &QPushButton::clicked, this, &PlanPanel::overrideRequested);
     setPlan(std::nullopt);
@@ -120,7 +129,7 @@ void PlanPanel::setAcceptBlocked(const QString &reason, bool unsafeSteps)
     m_isBlocked = !reason.isEmpty();
     m_blocked->setText(reason);
     m_blocked->setVisible(m_isBlocked);
-    m_accept->setToolTip(reason);
+    m_acceptAction->setToolTip(reason);
     m_safeSteps->setVisible(unsafeSteps);
     m_override->setVisible(unsafeSteps);
     m_accept->setEnabled(m_hasPlan && !m_isBlocked);
@@ -130,7 +139,7 @@ QString PlanPanel::acceptBlockedReason() const { return m_isBlocked ? m_blocked-
 
 void PlanPanel::setAccepted(bool accepted)
 {
-    m_accept->setText(accepted ? tr("Plan accepted: sweep in progress") : tr("Accept plan and start the sweep"));
+    m_acceptAction->setText(accepted ? tr("Plan accepted: sweep in progress") : tr("&Accept plan and start the sweep"));
     if (accepted)
         m_accept->setEnabled(false);
 }

@@ -6,6 +6,7 @@
 
 #include <QWidget>
 
+class QAction;
 class QLabel;
 class QPushButton;
 class QTableView;
@@ -25,6 +26,7 @@ public:
     void setAcceptBlocked(const QString &reason, bool unsafeSteps);
     QString acceptBlockedReason() const;
     QPushButton *acceptButton() const { return m_accept; }
+    QAction *acceptAction() const { return m_acceptAction; } // shared with the Sweep menu
     QPushButton *safeStepsButton() const { return m_safeSteps; }
     QPushButton *overrideButton() const { return m_override; }
     QTableView *table() const { return m_table; }
@@ -41,6 +43,7 @@ private:
     QTableView *m_table;
     PlanTableModel *m_model;
     QPushButton *m_accept;
+    QAction *m_acceptAction;
     QLabel *m_blocked;
     QPushButton *m_safeSteps;
     QPushButton *m_override;

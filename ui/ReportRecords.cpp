@@ -335,7 +335,7 @@ void drawRecordsAndSignOff(ReportCanvas &canvas, const SessionSummary &summary)
         canvas.paragraph(q(summary.seal.summary()), 9.0, summary.seal.state != SealState::Signed);
         QList<QStringList> rows;
         for (const SignOffRecord &s : summary.signOffs)
-            rows.append({readableUtc(s.timeUtc), whoDid(s.reviewer, s.osAccount), q(toString(s.verdict)), q(s.comment),
+            rows.append({readableUtc(s.timeUtc), whoDid(s.reviewer, s.osAccount), q(toString(s.decision)), q(s.comment),
                          s.digest.empty() ? QStringLiteral("none") : q(s.digest.substr(0, 12)) + QStringLiteral("…")});
         canvas.table({{QStringLiteral("Time"), 0.18}, {QStringLiteral("Reviewer"), 0.24}, {QStringLiteral("Decision"), 0.1},
                       {QStringLiteral("Comment"), 0.33}, {QStringLiteral("SHA-256"), 0.15}},

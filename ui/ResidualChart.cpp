@@ -1,6 +1,7 @@
 #include "ResidualChart.h"
 
 #include "ChartLegend.h"
+#include "InteractiveChartView.h"
 #include "VoltageCurrentChart.h"
 
 #include <QChart>
@@ -20,7 +21,7 @@ constexpr double millivoltsPerVolt = 1000.0;
 } // namespace
 
 ResidualChart::ResidualChart(const DisplayPoints &points, QWidget *parent)
-    : QWidget(parent), m_view(new QChartView), m_chart(new QChart), m_legend(new ChartLegend),
+    : QWidget(parent), m_view(new InteractiveChartView), m_chart(new QChart), m_legend(new ChartLegend),
       m_axisX(new QValueAxis), m_axisY(new QValueAxis), m_points(points)
 {
     m_chart->legend()->hide();
@@ -39,8 +40,13 @@ ResidualChart::ResidualChart(const DisplayPoints &points, QWidget *parent)
     m_view->setChart(m_chart);
     m_view->setRenderHint(QPainter::Antialiasing);
     m_view->setMinimumSize(400, 150);
-    m_view->setFocusPolicy(Qt::NoFocus);
     m_view->setAccessibleName(tr("Residuals chart"));
+    connect(m_view, &InteractiveChartView::viewChangedByUser, this, [this] {
+        m_userView = true;
+        retickShownRange(m_axisX);
+        retickShownRange(m_axisY, 5);
+    });
+    connect(m_view, &InteractiveChartView::resetRequested, this, &ResidualChart::resetView);
     auto *layout = new QVBoxLayout(this);
     layout->setContentsMargins(0, 0, 0, 0);
     layout->setSpacing(0);
@@ -153,13 +159,22 @@ void ResidualChart::flushNow()
     const AxisSpan y{-largest * 1.2, largest * 1.2};
     const double top = std::max(m_maxCurrentA, m_points.maxCurrent());
     const AxisSpan x = grownSpan(m_x, 0.0, top > 0.0 ? top : 1.0, 0.12);
+    // The person's zoom or pan stands until reset; the autoscaled spans are kept for then.
     if (std::abs(y.high - m_y.high) > 0.25 * m_y.high || m_y.isEmpty() || y.high > m_y.high) {
-        applySpan(m_axisY, y, 5);
-        m_y = {m_axisY->min(), m_axisY->max()};
+        if (m_userView) {
+            m_y = y;
+        } else {
+            applySpan(m_axisY, y, 5);
+            m_y = {m_axisY->min(), m_axisY->max()};
+        }
     }
     if (x.high != m_x.high || x.low != m_x.low) {
-        applySpan(m_axisX, {std::max(0.0, x.low), x.high});
-        m_x = {m_axisX->min(), m_axisX->max()};
+        if (m_userView) {
+            m_x = {std::max(0.0, x.low), x.high};
+        } else {
+            applySpan(m_axisX, {std::max(0.0, x.low), x.high});
+            m_x = {m_axisX->min(), m_axisX->max()};
+        }
     }
     m_included->replace(toQtPoints(included));
     m_excluded->replace(toQtPoints(excluded));
@@ -172,6 +187,15 @@ void ResidualChart::flushNow()
         m_upperGuide->clear();
         m_lowerGuide->clear();
     }
+}
+
+void ResidualChart::resetView()
+{
+    m_userView = false;
+    m_chart->zoomReset();
+    m_x = m_y = {};
+    m_dirty = true;
+    flushNow();
 }
 
 std::pair<double, double> ResidualChart::residualAxisRange() const { return {m_y.low, m_y.high}; }

@@ -14,13 +14,13 @@
 #include <functional>
 
 class QChart;
-class QChartView;
 class QLineSeries;
 class QValueAxis;
 
 namespace sagline {
 
 class ChartLegend;
+class InteractiveChartView;
 
 class ResidualChart : public QWidget {
     Q_OBJECT
@@ -36,14 +36,20 @@ public:
     void setResidualFunction(ResidualFunction residual, double residualSdV);
     void setCurrentSpan(double maxCurrentA);
     void applyColours(bool dark);
+    // Zoom and pan (InteractiveChartView): while the person's view stands, new points do not
+    // rescale the axes; resetView() returns to the autoscaled view of the included points.
+    bool isUserView() const { return m_userView; }
+    void resetView();
     void flushNow();
+    InteractiveChartView *chartView() const { return m_view; }
     int drawnIncludedCount() const;
     std::pair<double, double> residualAxisRange() const; // as drawn after the last flush, mV
 
 private:
     void scheduleFlush();
 
-    QChartView *m_view;
+    InteractiveChartView *m_view;
+    bool m_userView = false; // zoomed or panned by the person: no autoscaling until reset
     QChart *m_chart;
     ChartLegend *m_legend;
     QValueAxis *m_axisX;

@@ -113,7 +113,7 @@ void ReviewDetailView::showSession(const SessionRow *row)
         history += tr("not reviewed yet<br>");
     for (const SignOffRecord &s : row->signOffs)
         history += tr("%1 · <b>%2</b> by %3%4<br>")
-                       .arg(text(s.timeUtc), text(toString(s.verdict)), text(s.reviewer),
+                       .arg(text(s.timeUtc), text(toString(s.decision)), text(s.reviewer),
                             s.comment.empty() ? QString() : QStringLiteral(": ") + text(s.comment));
     history += tr("<br><b>Safety stops</b><br>");
     if (row->safetyStops.empty())
@@ -127,6 +127,12 @@ void ReviewDetailView::showSession(const SessionRow *row)
                        .arg(sup.labSheet->maxLoadFraction * 100.0, 0, 'g', 3);
         history += sup.checklist && sup.checklist->complete() ? tr("Safety checklist ticked by %1<br>").arg(text(sup.checklist->student))
                                                               : tr("<b>Safety checklist not complete</b><br>");
+        history += tr("Student: %1<br>").arg(text(sup.labSheet->student));
+        history += sup.supervisor
+                       ? tr("Set-up confirmed by the supervisor %1 at %2%3<br>")
+                             .arg(text(sup.supervisor->supervisor), text(sup.supervisor->timeUtc),
+                                  sup.supervisor->pinChecked ? tr(" (with the sheet's PIN)") : QString())
+                       : tr("<b>No supervisor's confirmation recorded</b><br>");
         history += tr("Limit hits: %1<br>").arg(sup.limitHits.size());
         for (const LimitHit &hit : sup.limitHits)
             history += QStringLiteral("&nbsp;&nbsp;%1 · %2<br>").arg(text(hit.timeUtc), text(hit.message));

@@ -42,7 +42,7 @@ bool ReviewFilterModel::filterAcceptsRow(int sourceRow, const QModelIndex &sourc
             return false;
     }
     if (!m_text.isEmpty()) {
-        for (int column : {ReviewTableModel::File, ReviewTableModel::Unit, ReviewTableModel::Operator,
+        for (int column : {ReviewTableModel::Design, ReviewTableModel::File, ReviewTableModel::Unit, ReviewTableModel::Operator,
                            ReviewTableModel::Instruments, ReviewTableModel::LabSheet, ReviewTableModel::Review}) {
             if (model->index(sourceRow, column, sourceParent).data().toString().contains(m_text, Qt::CaseInsensitive))
                 return true;

@@ -1,16 +1,37 @@
 #include "ReviewMenu.h"
 
-#include "LabSheet.h"
+#include "DataDirectory.h"
 #include "ReviewWindow.h"
-#include "SupervisedWindow.h"
+#include "StudentBenchWindow.h"
 
-#include <QFileDialog>
+#include <QDir>
 #include <QMainWindow>
 #include <QMenu>
 #include <QMenuBar>
-#include <QMessageBox>
+#include <QSettings>
 
 namespace sagline {
+
+namespace {
+
+// The lab-sheet folder a supervisor chose last; at first the installed examples.
+QString sheetFolder()
+{
+    const QString chosen = QSettings().value(QStringLiteral("supervised/sheetFolder")).toString();
+    if (!chosen.isEmpty())
+        return chosen;
+    const DataDirectoryResult data = findDataDirectory();
+    return data.ok() ? QString::fromStdString(data.path.string()) : QDir::homePath();
+}
+
+QString sessionFolder()
+{
+    return QSettings()
+        .value(QStringLiteral("supervised/sessionFolder"), QDir::home().filePath(QStringLiteral("sagline-sessions")))
+        .toString();
+}
+
+} // namespace
 
 void addReviewMenu(QMainWindow *window)
 {
@@ -21,22 +42,12 @@ void addReviewMenu(QMainWindow *window)
         review->show();
         (void)window;
     });
-    menu->addAction(QObject::tr("&Supervised session from a lab sheet…"), window, [window] {
-        const QString path = QFileDialog::getOpenFileName(window, QObject::tr("Open a lab sheet"), QString(),
-                                                          QObject::tr("Lab sheets (*.json);;All files (*)"));
-        if (path.isEmpty())
-            return;
-        const LabSheetParse parsed = loadLabSheetFile(path.toStdString());
-        if (!parsed.sheet) {
-            QStringList lines;
-            for (const FieldError &error : parsed.errors)
-                lines << QString::fromStdString(error.message());
-            QMessageBox::warning(window, QObject::tr("Lab sheet not usable"), lines.join(QLatin1Char('\n')));
-            return;
-        }
-        auto *supervised = new SupervisedWindow(*parsed.sheet);
-        supervised->setAttribute(Qt::WA_DeleteOnClose);
-        supervised->show();
+    menu->addAction(QObject::tr("&Supervised session from a lab sheet…"), window, [] {
+        auto *student = new StudentBenchWindow; // its own top-level window: the bench, locked by the sheet
+        student->setAttribute(Qt::WA_DeleteOnClose);
+        student->setSessionFolder(sessionFolder());
+        student->setSheetFolder(sheetFolder());
+        student->show();
     });
 }
 

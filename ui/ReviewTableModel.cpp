@@ -25,6 +25,14 @@ QString withU(bool ok, double value, const std::optional<double> &expanded, cons
     return text(formatWithCoverage(value, expanded, k, unit));
 }
 
+// "2026-12-01 09:00:05" from the stored "2026-12-01T09:00:05.000Z"; other text as stored.
+QString startedText(const std::string &utc)
+{
+    if (utc.size() < 19 || utc[10] != 'T')
+        return text(utc);
+    return text(utc.substr(0, 10) + " " + utc.substr(11, 8));
+}
+
 QVariant number(bool ok, double value)
 {
     return ok && std::isfinite(value) ? QVariant(value) : QVariant();
@@ -110,15 +118,21 @@ QVariant ReviewTableModel::headerData(int section, Qt::Orientation orientation, 
                 .arg(m_stats.screeningOnly ? tr("Screening only: a statement about the batch needs at least 10 units of one design")
                                            : tr("At least 10 units of one design: the mark is a statement about the batch"));
         case Points: return tr("Readings used by the fit / readings recorded");
+        case Design: return tr("The setup's design name, or its nameplate (rating, voltages, frequency, construction, winding); "
+                               "statistics and far-from-batch marks are taken within one design only");
+        case Date: return tr("When the session was started (UTC)");
+        case Verdict: return tr("The measurement verdict from the metrology rules (ILAC-G8 decision rule)");
+        case Review: return tr("The reviewer's decision at sign-off: accepted, rejected or retest");
         default: return {};
         }
     }
     if (role != Qt::DisplayRole)
         return {};
     switch (section) {
+    case Design: return tr("Design");
     case File: return tr("File");
     case Unit: return tr("Unit serial");
-    case Date: return tr("Date (UTC)");
+    case Date: return tr("Started (UTC)");
     case Operator: return tr("Operator");
     case Instruments: return tr("Instruments");
     case Points: return tr("Points");
@@ -129,7 +143,7 @@ QVariant ReviewTableModel::headerData(int section, Qt::Orientation orientation, 
     case Verdict: return tr("Verdict");
     case Rule: return tr("Decision rule");
     case SafetyStops: return tr("Safety stops");
-    case Review: return tr("Review");
+    case Review: return tr("Reviewer's decision");
     case LabSheet: return tr("Lab sheet");
     case LimitHits: return tr("Limit hits");
     case RobustZ: return tr("Robust z");
@@ -146,8 +160,9 @@ QVariant ReviewTableModel::display(const SessionRow &row, int rowIndex, int colu
         // The reason is long: it goes in the tooltip and the "Not compared" list, not in a column.
         return column == Unit ? QVariant(tr("(unreadable)")) : column == Verdict ? QVariant(tr("cannot be opened")) : QVariant();
     switch (column) {
+    case Design: return text(row.design.empty() ? std::string(unknownDesignLabel) : row.design);
     case Unit: return text(row.unitSerial);
-    case Date: return text(row.createdUtc.substr(0, 10));
+    case Date: return startedText(row.createdUtc);
     case Operator: return text(row.operatorName);
     case Instruments: return row.instruments.empty() ? tr("typed in") : text(row.instruments);
     case Points: return QStringLiteral("%1 / %2").arg(row.pointsUsed).arg(row.readingCount);
@@ -159,7 +174,7 @@ QVariant ReviewTableModel::display(const SessionRow &row, int rowIndex, int colu
     case Regulation:
         return f.regulationPercent ? withU(true, *f.regulationPercent, f.regulationUPercent, f.regulationK, "%")
                                    : QStringLiteral("—");
-    case Verdict: return f.ok ? text(row.verdictShown()) : text(f.message);
+    case Verdict: return f.ok ? text(row.verdictWords()) : text(f.message);
     case Rule: return text(toString(f.rule));
     case SafetyStops: return static_cast<int>(row.safetyStops.size());
     case Review: {
@@ -168,7 +183,7 @@ QVariant ReviewTableModel::display(const SessionRow &row, int rowIndex, int colu
         if (row.signOffs.empty())
             return tr("not reviewed");
         const SignOffRecord &last = row.signOffs.back();
-        return tr("%1 by %2").arg(text(toString(last.verdict)), text(last.reviewer));
+        return tr("%1 by %2").arg(text(toString(last.decision)), text(last.reviewer));
     }
     case LabSheet: return row.supervision.labSheet ? text(row.supervision.labSheet->title) : QString();
     case LimitHits: return row.supervision.labSheet ? QVariant(static_cast<int>(row.supervision.limitHits.size())) : QVariant();

@@ -16,11 +16,13 @@ class ReviewTableModel : public QAbstractTableModel {
     Q_OBJECT
 public:
     enum Column {
-        File, Unit, Date, Operator, Instruments, Points, Resistance, ResistanceRef, NoLoadVoltage, Regulation,
+        Design, File, Unit, Date, Operator, Instruments, Points, Resistance, ResistanceRef, NoLoadVoltage, Regulation,
         Verdict, Rule, SafetyStops, Review, LabSheet, LimitHits, RobustZ, ColumnCount
     };
     static constexpr int SortRole = Qt::UserRole;      // numbers as double, text as text
-    static constexpr int VerdictRole = Qt::UserRole + 1; // "pass", "fail", "cannot-decide", "n/a", "unreadable"
+    // The verdict's token for the filter: "pass", "conditional-pass", ..., "not-judged", "n/a",
+    // "incomplete" or "unreadable"; the table shows the words (outcomeWords) people read everywhere.
+    static constexpr int VerdictRole = Qt::UserRole + 1;
     static constexpr int DateRole = Qt::UserRole + 2;    // QDate of the session (UTC)
 
     explicit ReviewTableModel(QObject *parent = nullptr);

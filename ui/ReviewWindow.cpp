@@ -10,7 +10,10 @@
 #include "ReviewPdfExport.h"
 #include "ReviewScanWorker.h"
 #include "ReviewTableModel.h"
+#include "ReviewTrendChart.h"
 #include "SignOffDialog.h"
+
+#include "ConformityDecision.h"
 
 #include <QAction>
 #include <QComboBox>
@@ -52,14 +55,16 @@ ReviewWindow::ReviewWindow(QWidget *parent)
     : QMainWindow(parent), m_model(new ReviewTableModel(this)), m_filter(new ReviewFilterModel(this)),
       m_table(new QTableView), m_text(new QLineEdit), m_verdict(new QComboBox), m_from(new QDateEdit), m_to(new QDateEdit),
       m_summary(new QLabel), m_problems(new QLabel), m_status(new QLabel), m_progress(new QProgressBar),
-      m_tabs(new QTabWidget), m_overlay(new ReviewOverlayChart), m_detail(new ReviewDetailView)
+      m_tabs(new QTabWidget), m_overlay(new ReviewOverlayChart), m_detail(new ReviewDetailView),
+      m_trend(new ReviewTrendChart)
 {
     setWindowTitle(tr("Sagline review: compare and sign off sessions"));
     m_model->setReferenceTemperature(m_options.figures.referenceTemperatureC);
     m_filter->setSourceModel(m_model);
     m_table->setModel(m_filter);
     m_table->setSortingEnabled(true);
-    m_table->sortByColumn(ReviewTableModel::Unit, Qt::AscendingOrder);
+    // Grouped by design: units of one design next to each other, in the order they were loaded.
+    m_table->sortByColumn(ReviewTableModel::Design, Qt::AscendingOrder);
     m_table->setSelectionBehavior(QAbstractItemView::SelectRows);
     m_table->setSelectionMode(QAbstractItemView::ExtendedSelection);
     m_table->setEditTriggers(QAbstractItemView::NoEditTriggers);
@@ -67,7 +72,7 @@ ReviewWindow::ReviewWindow(QWidget *parent)
     m_table->verticalHeader()->hide();
     m_table->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
     m_table->horizontalHeader()->setStretchLastSection(true);
-    for (int column : {ReviewTableModel::File, ReviewTableModel::Instruments, ReviewTableModel::Rule})
+    for (int column : {ReviewTableModel::Instruments, ReviewTableModel::Rule})
         m_table->setColumnHidden(column, true); // on offer in the Columns menu
     m_summary->setTextFormat(Qt::RichText);
     m_summary->setWordWrap(true);
@@ -87,6 +92,7 @@ ReviewWindow::ReviewWindow(QWidget *parent)
     summaryScroll->setWidgetResizable(true);
     summaryScroll->setMinimumWidth(300);
     m_tabs->addTab(m_overlay, tr("Overlay of selected sessions"));
+    m_tabs->addTab(m_trend, tr("Trend per design (control chart)"));
     m_tabs->addTab(m_detail, tr("Session detail (read-only)"));
     auto *lower = new QSplitter(Qt::Horizontal);
     lower->addWidget(summaryScroll);
@@ -138,8 +144,14 @@ QWidget *ReviewWindow::createFilterBar()
     m_text->setPlaceholderText(tr("Filter: unit, operator, instrument, file, lab sheet…"));
     m_text->setClearButtonEnabled(true);
     m_verdict->addItem(tr("every verdict"), QString());
-    for (const char *verdict : {"pass", "conditional-pass", "conditional-fail", "fail", "not-judged", "n/a", "incomplete", "unreadable"})
-        m_verdict->addItem(QString::fromLatin1(verdict), QString::fromLatin1(verdict));
+    // The words people read (as in the table, the window and the reports); the tokens filter.
+    for (ConformityOutcome outcome : {ConformityOutcome::Pass, ConformityOutcome::ConditionalPass,
+                                      ConformityOutcome::ConditionalFail, ConformityOutcome::Fail,
+                                      ConformityOutcome::NotJudged})
+        m_verdict->addItem(QString::fromStdString(outcomeWords(outcome)), QString::fromStdString(toString(outcome)));
+    m_verdict->addItem(QString::fromLatin1(noAnalysisWords), QStringLiteral("n/a"));
+    m_verdict->addItem(tr("incomplete (no verdict)"), QStringLiteral("incomplete"));
+    m_verdict->addItem(tr("unreadable"), QStringLiteral("unreadable"));
     for (QDateEdit *edit : {m_from, m_to}) {
         edit->setCalendarPopup(true);
         edit->setDisplayFormat(QStringLiteral("yyyy-MM-dd"));
@@ -303,28 +315,43 @@ void ReviewWindow::updateSummary()
     const bool selection = !selectedSourceRows().empty();
     const auto rows = selectedOrVisibleRows();
     const BatchStatistics s = summarizeBatch(rows);
-    QString far;
-    for (std::size_t index : s.farFromBatch)
-        far += (far.isEmpty() ? QString() : QStringLiteral(", ")) + QString::fromStdString(rows[index]->unitSerial);
     const QString basis = s.atReferenceTemperature ? tr("at %1 °C").arg(m_options.figures.referenceTemperatureC)
                                                    : tr("as measured");
-    m_summary->setText(
-        tr("<b>%1: %2 session(s)</b><br>"
-           "R %3 (%4 units): mean %5, standard deviation %6, median %7, range %8 to %9<br>"
-           "Verdicts: %10<br>"
-           "Review: accepted %14, rejected %15, retest %16, not reviewed %17, changed after sign-off %23<br>"
-           "Safety stops in %18 · lab-sheet limit hit in %19 · unreadable %20<br>"
-           "<b>Far from the batch:</b> %21<br><small>%22</small>")
-            .arg(selection ? tr("Selection") : tr("Shown"))
-            .arg(s.sessions)
-            .arg(basis)
-            .arg(s.resistanceCount)
-            .arg(ohm(s.meanOhm), ohm(s.sdOhm), ohm(s.medianOhm), ohm(s.minOhm), ohm(s.maxOhm))
-            .arg(QString::fromStdString(verdictCountsText(s)))
-            .arg(s.accepted).arg(s.rejected).arg(s.retest).arg(s.notReviewed)
-            .arg(s.safetyStopped).arg(s.limitHit).arg(s.unreadable)
-            .arg(far.isEmpty() ? tr("none") : far.toHtmlEscaped(), QString::fromStdString(s.ruleNote).toHtmlEscaped())
-            .arg(s.changedAfterSignOff));
+    QString text = tr("<b>%1: %2 session(s) of %n design(s)</b>", "", static_cast<int>(s.designs.size()))
+                       .arg(selection ? tr("Selection") : tr("Shown"))
+                       .arg(s.sessions);
+    if (s.designs.size() > 1)
+        text += tr("<br><i>Statistics, far-from-batch marks and control limits are per design, never across designs.</i>");
+    for (const DesignStatistics &d : s.designs) {
+        QString far;
+        for (std::size_t index : d.rows)
+            if (s.isFarFromBatch(index))
+                far += (far.isEmpty() ? QString() : QStringLiteral(", ")) + QString::fromStdString(rows[index]->unitSerial);
+        QString limits;
+        if (d.chart.hasLimits())
+            limits = tr("control limits %1 to %2 (%n outside)", "", static_cast<int>(d.chart.outside.size()))
+                         .arg(ohm(d.chart.lower), ohm(d.chart.upper));
+        else
+            limits = QString::fromStdString(d.chart.note).toHtmlEscaped();
+        text += tr("<hr><b>%1</b> (%2 session(s))<br>"
+                   "R %3 (%4 units): mean %5, standard deviation %6, median %7, range %8 to %9<br>"
+                   "%10<br><b>Far from the batch:</b> %11<br><small>%12</small>")
+                    .arg(QString::fromStdString(d.design).toHtmlEscaped())
+                    .arg(d.rows.size())
+                    .arg(basis)
+                    .arg(d.resistanceCount)
+                    .arg(ohm(d.meanOhm), ohm(d.sdOhm), ohm(d.medianOhm), ohm(d.minOhm), ohm(d.maxOhm))
+                    .arg(limits, far.isEmpty() ? tr("none") : far.toHtmlEscaped(),
+                         QString::fromStdString(d.ruleNote).toHtmlEscaped());
+    }
+    text += tr("<hr>Verdicts: %1<br>"
+               "Reviewer's decisions: accepted %2, rejected %3, retest %4, not reviewed %5, changed after sign-off %6<br>"
+               "Safety stops in %7 · incomplete %8 · lab-sheet limit hit in %9 · unreadable %10")
+                .arg(QString::fromStdString(verdictCountsText(s)).toHtmlEscaped())
+                .arg(s.accepted).arg(s.rejected).arg(s.retest).arg(s.notReviewed).arg(s.changedAfterSignOff)
+                .arg(s.safetyStopped).arg(s.incomplete).arg(s.limitHit).arg(s.unreadable);
+    m_summary->setText(text);
+    m_trend->setBatch(rows, s, m_options.figures.referenceTemperatureC);
     QStringList unreadable = m_problemLines;
     for (const SessionRow &row : m_model->rows())
         if (!row.opened)
@@ -359,7 +386,7 @@ QString ReviewWindow::signOff(int sourceRow, const SignOffRequest &request, bool
             this, tr("Write the sign-off?"),
             tr("Add this sign-off to %1?\n\n%2 by %3\n\nIt is written into the session file as a new review record "
                "with the UTC time. The readings and every other record stay unchanged.")
-                .arg(QString::fromStdString(row.path), QString::fromLatin1(toString(request.verdict)),
+                .arg(QString::fromStdString(row.path), QString::fromLatin1(toString(request.decision)),
                      QString::fromStdString(request.reviewer)));
         if (answer != QMessageBox::Yes)
             return tr("not signed: cancelled");
@@ -372,7 +399,7 @@ QString ReviewWindow::signOff(int sourceRow, const SignOffRequest &request, bool
     m_detail->showSession(&m_model->sessionRow(sourceRow));
     updateSummary();
     m_status->setText(tr("Signed %1 as %2.").arg(QFileInfo(QString::fromStdString(row.path)).fileName(),
-                                                  QString::fromLatin1(toString(request.verdict))));
+                                                  QString::fromLatin1(toString(request.decision))));
     return {};
 }
 

@@ -1,6 +1,7 @@
 // The review workspace for lab leads: open many saved sessions (files, or folders scanned in
 // the background with progress and cancel), compare them in a sortable, filterable table with
-// chosen columns, see batch statistics and the far-from-batch flag for the selection, overlay
+// chosen columns grouped by design, see each design's statistics, far-from-batch flag and control
+// chart (trend of R) for the selection, overlay
 // the selected sessions' V–I data, read one session in full, sign sessions off (the only
 // write, after confirmation) and export the comparison to CSV and a combined PDF.
 #pragma once
@@ -28,6 +29,7 @@ class ReviewFilterModel;
 class ReviewOverlayChart;
 class ReviewScanWorker;
 class ReviewTableModel;
+class ReviewTrendChart;
 
 class ReviewWindow : public QMainWindow {
     Q_OBJECT
@@ -50,6 +52,8 @@ public:
     QTableView *table() const { return m_table; }
     ReviewOverlayChart *overlay() const { return m_overlay; }
     ReviewDetailView *detail() const { return m_detail; }
+    ReviewTrendChart *trend() const { return m_trend; }
+    QTabWidget *tabs() const { return m_tabs; }
     QString summaryText() const;
     QString problemsText() const;
     QString statusText() const;
@@ -88,6 +92,7 @@ private:
     QTabWidget *m_tabs;
     ReviewOverlayChart *m_overlay;
     ReviewDetailView *m_detail;
+    ReviewTrendChart *m_trend;
     QAction *m_cancelAction = nullptr;
     QThread m_thread;
     ReviewScanWorker *m_worker = nullptr;

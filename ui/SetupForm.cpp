@@ -60,10 +60,12 @@ SetupForm::SetupForm(QWidget *parent)
     m_construction->addItem(tr("Other"), QStringLiteral("other"));
     m_construction->setAccessibleName(QStringLiteral("nameplate.construction"));
     nameplate->addRow(tr("Construction"), m_construction);
+    m_labels.insert(QStringLiteral("nameplate.construction"), tr("Construction"));
     m_material->addItem(tr("Copper"), QStringLiteral("copper"));
     m_material->addItem(tr("Aluminium"), QStringLiteral("aluminium"));
     m_material->setAccessibleName(QStringLiteral("nameplate.winding_material"));
     nameplate->addRow(tr("Winding material"), m_material);
+    m_labels.insert(QStringLiteral("nameplate.winding_material"), tr("Winding material"));
     layout->addWidget(nameplateBox);
 
     auto *benchBox = new QGroupBox(tr("Bench and sweep"));
@@ -79,6 +81,11 @@ SetupForm::SetupForm(QWidget *parent)
     m_fuseType->addItem(tr("Quick-acting (F)"), QStringLiteral("quick-acting"));
     m_fuseType->setAccessibleName(QStringLiteral("bench.fuse.type"));
     bench->addRow(tr("Fuse type"), m_fuseType);
+    m_labels.insert(QStringLiteral("bench.fuse.type"), tr("Fuse type"));
+    m_labels.insert(QStringLiteral("bench.fuse"), tr("Primary fuse fitted"));
+    m_labels.insert(QStringLiteral("bench.rheostat"), tr("Rheostat"));
+    m_labels.insert(QStringLiteral("bench.allow_overload"), tr("Allow overload"));
+    m_labels.insert(QStringLiteral("nameplate"), tr("Nameplate"));
     addQuantity(bench, tr("Fuse factor (× rated I1)"), QStringLiteral("bench.fuse_factor"), Unit::None, tr("default: per construction"));
     addQuantity(bench, tr("Magnetizing I (× rated I1)"), QStringLiteral("bench.magnetizing_fraction"), Unit::None, tr("default: per construction"));
     addQuantity(bench, tr("Dwell per step"), QStringLiteral("bench.dwell_s"), Unit::Second, tr("e.g. 10 s"));
@@ -90,6 +97,8 @@ SetupForm::SetupForm(QWidget *parent)
     m_serial->setAccessibleName(QStringLiteral("session.unit_serial"));
     session->addRow(tr("Operator"), m_operator);
     session->addRow(tr("Unit serial number"), m_serial);
+    m_labels.insert(QStringLiteral("session.operator"), tr("Operator"));
+    m_labels.insert(QStringLiteral("session.unit_serial"), tr("Unit serial number"));
     addQuantity(session, tr("Ambient temperature"), QStringLiteral("session.ambient_temperature_c"), Unit::Celsius, tr("e.g. 23 °C"));
     addQuantity(session, tr("Winding temperature"), QStringLiteral("session.winding_temperature_c"), Unit::Celsius, tr("blank: ambient"));
     layout->addWidget(sessionBox);
@@ -136,6 +145,7 @@ QuantityField *SetupForm::addQuantity(QFormLayout *form, const QString &label, c
     const QString suffix = unitText(unit);
     form->addRow(suffix.isEmpty() ? label : label + QStringLiteral(" (") + suffix + QLatin1Char(')'), quantity);
     m_fields.insert(field, quantity);
+    m_labels.insert(field, label);
     if (field.startsWith(QLatin1String("verdict.")) || field.endsWith(QLatin1String("temperature_c")))
         connect(quantity, &QuantityField::edited, this, &SetupForm::verdictChanged);
     else if (!field.startsWith(QLatin1String("session.")))
@@ -144,6 +154,50 @@ QuantityField *SetupForm::addQuantity(QFormLayout *form, const QString &label, c
 }
 
 QuantityField *SetupForm::quantityField(const QString &field) const { return m_fields.value(field); }
+
+QString SetupForm::labelFor(const QString &field) const { return m_labels.value(field); }
+
+QString SetupForm::spokenError(const FieldError &error) const
+{
+    const QString label = labelFor(QString::fromStdString(error.field));
+    if (label.isEmpty())
+        return QString::fromStdString(error.message());
+    // message() made the text printable; take its rule part (after the field it starts with).
+    const QString message = QString::fromStdString(error.message());
+    const QString field = QString::fromStdString(error.field) + QStringLiteral(": ");
+    return label + QStringLiteral(": ") + (message.startsWith(field) ? message.mid(field.size()) : QString::fromStdString(error.rule));
+}
+
+QJsonObject SetupForm::nameplateValues() const
+{
+    QJsonObject nameplate;
+    for (auto it = m_fields.cbegin(); it != m_fields.cend(); ++it) {
+        if (it.key().startsWith(QLatin1String("nameplate.")) && !it.value()->isBlank())
+            nameplate.insert(it.key().mid(10), it.value()->text().trimmed());
+    }
+    nameplate.insert(QStringLiteral("construction"), m_construction->currentData().toString());
+    nameplate.insert(QStringLiteral("winding_material"), m_material->currentData().toString());
+    return nameplate;
+}
+
+void SetupForm::applyNameplate(const QJsonObject &nameplate)
+{
+    for (auto it = m_fields.cbegin(); it != m_fields.cend(); ++it) {
+        if (!it.key().startsWith(QLatin1String("nameplate.")))
+            continue;
+        const QJsonValue value = nameplate.value(it.key().mid(10));
+        it.value()->setText(value.isDouble() ? plain(value.toDouble()) : value.toString());
+    }
+    const int construction = m_construction->findData(nameplate.value(QStringLiteral("construction")).toString());
+    const int material = m_material->findData(nameplate.value(QStringLiteral("winding_material")).toString());
+    {
+        const QSignalBlocker blockConstruction(m_construction);
+        const QSignalBlocker blockMaterial(m_material);
+        m_construction->setCurrentIndex(std::max(0, construction));
+        m_material->setCurrentIndex(std::max(0, material));
+    }
+    emit changed();
+}
 
 QString SetupForm::setupJson() const
 {
@@ -277,7 +331,7 @@ void SetupForm::showErrors(const FieldErrors &errors)
         if (target && target->error().isEmpty())
             target->setError(rule);
         else
-            other << QString::fromStdString(error.message());
+            other << spokenError(error);
     }
     m_otherErrors->setText(other.isEmpty() ? QString() : QStringLiteral("✖ ") + other.join(QStringLiteral("\n✖ ")));
     m_otherErrors->setVisible(!other.isEmpty());

@@ -13,6 +13,7 @@
 #include <QWidget>
 
 class QCheckBox;
+class QJsonObject;
 class QComboBox;
 class QFormLayout;
 class QLabel;
@@ -68,6 +69,16 @@ public:
     QStringList shownErrors() const; // "field: rule" for every error on display
     void setLocked(bool locked);     // read-only once readings exist
     QuantityField *quantityField(const QString &field) const;
+    // The field's label as the form shows it ("Rated power" for "nameplate.rated_power_va");
+    // "" for a field the form does not have.
+    QString labelFor(const QString &field) const;
+    // An error as a person reads it: the field's label, then the rule ("Rated power: must be
+    // above zero"); a field the form does not know is named as core named it.
+    QString spokenError(const FieldError &error) const;
+    // The nameplate as typed (a preset): the setup file's "nameplate" object of strings.
+    QJsonObject nameplateValues() const;
+    // Puts a preset's nameplate into the form (the other sections stay); emits changed().
+    void applyNameplate(const QJsonObject &nameplate);
 
 signals:
     void changed();        // the nameplate or bench: the plan is recomputed
@@ -80,6 +91,7 @@ private:
     void addMetersAndSpecification(QVBoxLayout *layout);
     void loadMetersAndSpecification(const Setup &setup);
     QHash<QString, QuantityField *> m_fields;
+    QHash<QString, QString> m_labels; // field key -> label on the form
     QComboBox *m_construction;
     QComboBox *m_material;
     QComboBox *m_fuseType;

@@ -16,13 +16,13 @@ SignOffDialog::SignOffDialog(const QString &sessionName, const QString &reviewer
       m_problem(new QLabel)
 {
     setWindowTitle(tr("Sign off %1").arg(sessionName));
-    m_verdict->addItem(tr("Accept"), static_cast<int>(Verdict::Accepted));
-    m_verdict->addItem(tr("Reject"), static_cast<int>(Verdict::Rejected));
-    m_verdict->addItem(tr("Repeat the test"), static_cast<int>(Verdict::Retest));
+    m_verdict->addItem(tr("Accept"), static_cast<int>(ReviewDecision::Accepted));
+    m_verdict->addItem(tr("Reject"), static_cast<int>(ReviewDecision::Rejected));
+    m_verdict->addItem(tr("Repeat the test"), static_cast<int>(ReviewDecision::Retest));
     m_comment->setPlaceholderText(tr("Required when rejecting or asking for a repeat: say why."));
     auto *form = new QFormLayout;
     form->addRow(tr("Reviewer"), m_reviewer);
-    form->addRow(tr("Verdict"), m_verdict);
+    form->addRow(tr("Reviewer's decision"), m_verdict);
     form->addRow(tr("Comment"), m_comment);
     auto *note = new QLabel(tr("The sign-off is added to the session file as a new review record with the UTC time. "
                                "Nothing else in the file changes; earlier sign-offs stay in its history."));
@@ -49,7 +49,7 @@ SignOffDialog::SignOffDialog(const QString &sessionName, const QString &reviewer
 
 SignOffRequest SignOffDialog::request() const
 {
-    return {m_reviewer->text().trimmed().toStdString(), static_cast<Verdict>(m_verdict->currentData().toInt()),
+    return {m_reviewer->text().trimmed().toStdString(), static_cast<ReviewDecision>(m_verdict->currentData().toInt()),
             m_comment->toPlainText().trimmed().toStdString()};
 }
 

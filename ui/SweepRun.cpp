@@ -2,6 +2,7 @@
 
 #include "InstrumentRig.h"
 #include "LinkAddress.h"
+#include "RigForSource.h"
 #include "SessionStore.h"
 #include "SweepWorkspace.h"
 #include "VirtualBench.h"
@@ -86,7 +87,6 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
     options.recordedSteps = overrides.recordedSteps;
     options.firstStep = overrides.firstStep;
     QString error;
-    RigAddresses addresses;
     switch (source.source) {
     case ReadingSource::TypedIn:
         break;
@@ -100,19 +100,9 @@ SweepRun::SweepRun(SweepWorkspace *workspace, const Setup &setup, const Plan &pl
         break;
     case ReadingSource::SerialPort:
     case ReadingSource::Lan:
-        addresses.meter = source.source == ReadingSource::SerialPort ? source.serialPort : source.lanAddress;
-        if (!addresses.meter.isEmpty() && !source.ammeterAddress.isEmpty()) {
-            addresses.voltmeter = addresses.meter; // two meters, one per role
-            addresses.ammeter = source.ammeterAddress;
-            addresses.meter.clear();
-        } else if (addresses.meter.isEmpty()) {
-            m_error = source.source == ReadingSource::SerialPort ? tr("instruments.serial_port: pick a port or type its path")
-                                                                 : tr("instruments.lan_address: type the meter's address");
-            return;
-        }
-        m_rig.reset(makeRig(addresses, &error));
+        m_rig.reset(rigForSource(source, &error));
         if (!m_rig) {
-            m_error = QStringLiteral("instruments: ") + error;
+            m_error = error;
             return;
         }
         break;
@@ -150,6 +140,7 @@ void SweepRun::wireController(SweepWorkspace *workspace)
         emit workspace->safetyStopped(QString::fromStdString(trip.message));
     });
     connect(controller, &SweepController::notice, workspace, &SweepWorkspace::notice);
+    connect(controller, &SweepController::stateChanged, workspace, &SweepWorkspace::sweepStateChanged);
     connect(controller, &SweepController::paused, workspace,
             [workspace](const QString &reason) { emit workspace->notice(tr("Paused: %1").arg(reason)); });
     connect(controller, &SweepController::linkLost, workspace,

@@ -82,8 +82,10 @@ QString SweepWorkspace::startSweep(const SessionDetails &details, const QString 
     QString serial = details.unitSerial;
     serial.replace(QRegularExpression(QStringLiteral("[^A-Za-z0-9_.-]+")), QStringLiteral("_"));
     const QString stamp = QDateTime::currentDateTimeUtc().toString(QStringLiteral("yyyyMMdd-HHmmss-zzz"));
-    const QString path = QDir(sessionFolder).filePath((serial.isEmpty() ? QStringLiteral("unit") : serial)
-                                                      + QLatin1Char('-') + stamp + QStringLiteral(".sagline"));
+    const QString path = QDir(sessionFolder).filePath(!m_nextFileName.isEmpty() ? m_nextFileName
+                                                      : (serial.isEmpty() ? QStringLiteral("unit") : serial)
+                                                            + QLatin1Char('-') + stamp + QStringLiteral(".sagline"));
+    m_nextFileName.clear();
     // A plan cut to its safe steps is the plan of this session.
     const Plan plan = m_limitChoice.kind == LimitChoice::Truncate ? truncatedToSafe(*m_plan) : *m_plan;
     // Meters connected: their own accuracy rules are the session's meters (core/FitBudget.h).
@@ -217,11 +219,17 @@ void SweepWorkspace::pauseOrResume()
 {
     if (!isRunning())
         return;
-    m_paused = !m_paused;
-    if (m_paused)
-        m_run->controller()->pause();
-    else
-        m_run->controller()->resume();
+    SweepController *controller = m_run->controller();
+    // A pause the controller made itself (no valid reading, a failed commit) is resumed by the
+    // same button; a lost link is not: pausing then means the operator's pause on top of it.
+    const bool resuming = controller->state() == SweepState::Paused && (m_paused || !controller->isLinkDown());
+    m_paused = !resuming;
+    if (m_paused) {
+        controller->pause();
+    } else {
+        controller->resume();
+        emit notice(tr("Resumed at step %1").arg(controller->currentStep()));
+    }
     emit runningChanged(true);
 }
 

@@ -50,6 +50,11 @@ struct SourceChoice {
     // A separate ammeter, in either form ("/dev/ttyUSB1", "192.168.1.21:5025"); the port or
     // address above is then the voltmeter. Empty: that one meter reads both.
     QString ammeterAddress = {};
+    // Serial settings for the ports above as "BAUD,FORMAT,FLOW" ("9600,8N1,none"); empty: the
+    // link's defaults (9600 8N1, no flow control). An address that carries its own wins.
+    QString serialFormat = {};
+    // An optional programmable load (serial or LAN address); it then sets each step itself.
+    QString loadAddress = {};
 };
 
 // What an open session holds besides its readings, read from its file when it is opened (and
@@ -107,6 +112,9 @@ public:
     void setPerson(const QString &person);
     QString person() const { return m_person; }
 
+    // The next session's file name inside the session folder ("" = "<serial>-<UTC time>.sagline");
+    // a supervised session names it from the student, the unit and the time. Used once.
+    void setNextSessionFileName(const QString &name) { m_nextFileName = name; }
     // Creates the session file and starts the sweep. Returns "" or what is wrong, naming the field.
     QString startSweep(const SessionDetails &details, const QString &sessionPath, const SourceChoice &source);
     // Continues an open session that stopped or was interrupted at its first step without a
@@ -191,6 +199,7 @@ signals:
     void safetyStopped(const QString &text);
     void notice(const QString &text);
     void runningChanged(bool running);
+    void sweepStateChanged();              // the controller moved (settling, measuring, paused, ...)
     void instrumentStatus(const QString &status); // connecting, connected (identities), lost, failed
 
 private:
@@ -236,6 +245,7 @@ private:
     QString m_person;
     LimitChoice m_limitChoice;
     QString m_readOnlyReason;
+    QString m_nextFileName;
 };
 
 } // namespace sagline

@@ -1,6 +1,7 @@
 #include "VoltageCurrentChart.h"
 
 #include "ChartLegend.h"
+#include "InteractiveChartView.h"
 #include "UiFormat.h"
 
 #include <QAreaSeries>
@@ -28,7 +29,7 @@ QList<QPointF> thinned(std::span<const PlotPoint> points, std::size_t limit)
 } // namespace
 
 VoltageCurrentChart::VoltageCurrentChart(const DisplayPoints &points, QWidget *parent)
-    : QWidget(parent), m_view(new QChartView), m_chart(new QChart), m_legend(new ChartLegend),
+    : QWidget(parent), m_view(new InteractiveChartView), m_chart(new QChart), m_legend(new ChartLegend),
       m_axisX(new QValueAxis), m_axisY(new QValueAxis), m_points(points)
 {
     m_chart->legend()->hide();
@@ -66,8 +67,13 @@ VoltageCurrentChart::VoltageCurrentChart(const DisplayPoints &points, QWidget *p
     m_view->setChart(m_chart); // the view owns the chart
     m_view->setRenderHint(QPainter::Antialiasing);
     m_view->setMinimumSize(400, 260);
-    m_view->setFocusPolicy(Qt::NoFocus);
     m_view->setAccessibleName(tr("Voltage against current chart"));
+    connect(m_view, &InteractiveChartView::viewChangedByUser, this, [this] {
+        m_userView = true;
+        retickShownRange(m_axisX);
+        retickShownRange(m_axisY, 6);
+    });
+    connect(m_view, &InteractiveChartView::resetRequested, this, &VoltageCurrentChart::resetView);
     auto *layout = new QVBoxLayout(this);
     layout->setContentsMargins(0, 0, 0, 0);
     layout->setSpacing(0);
@@ -170,6 +176,14 @@ void VoltageCurrentChart::rescale()
 
 std::pair<double, double> VoltageCurrentChart::voltageAxisRange() const { return {m_y.low, m_y.high}; }
 
+void VoltageCurrentChart::resetView()
+{
+    m_userView = false;
+    m_chart->zoomReset();
+    rescale();
+    flushNow();
+}
+
 void VoltageCurrentChart::pointsCleared()
 {
     m_overlay = {};
@@ -223,10 +237,13 @@ void VoltageCurrentChart::growRanges()
     m_x = {std::max(0.0, x.low), x.high};
     m_y = y;
     if (changed) {
-        applySpan(m_axisX, m_x);
-        applySpan(m_axisY, m_y);
-        m_x = {m_axisX->min(), m_axisX->max()};
-        m_y = {m_axisY->min(), m_axisY->max()};
+        // The person's zoom or pan stands until reset; the autoscaled spans are kept for then.
+        if (!m_userView) {
+            applySpan(m_axisX, m_x);
+            applySpan(m_axisY, m_y);
+            m_x = {m_axisX->min(), m_axisX->max()};
+            m_y = {m_axisY->min(), m_axisY->max()};
+        }
         rebuildLimitSeries();
         if (m_x.high != shownHighCurrent)
             emit currentSpanChanged();

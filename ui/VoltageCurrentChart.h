@@ -20,13 +20,13 @@
 
 class QAreaSeries;
 class QChart;
-class QChartView;
 class QLineSeries;
 class QValueAxis;
 
 namespace sagline {
 
 class ChartLegend;
+class InteractiveChartView;
 
 struct ChartLimits {
     double ratedCurrentA = 0.0;
@@ -66,6 +66,10 @@ public:
     // `count` currents spanning the current axis, for core to evaluate the line and band on.
     std::vector<double> gridCurrents(int count) const;
     void applyColours(bool dark);
+    // Zoom and pan (InteractiveChartView): while the person's view stands, new points do not
+    // rescale the axes; resetView() returns to the autoscaled view of the included points.
+    bool isUserView() const { return m_userView; }
+    void resetView();
     // Pushes pending changes to the series at once (the timer does this ~10 times a second).
     void flushNow();
 
@@ -74,7 +78,7 @@ public:
     int drawnExcludedCount() const;
     int drawnFitPointCount() const;
     bool hasPrediction() const;
-    QChartView *chartView() const { return m_view; }
+    InteractiveChartView *chartView() const { return m_view; }
     ChartLegend *legend() const { return m_legend; }
 
 signals:
@@ -89,7 +93,8 @@ private:
     void rebuildLegend();
     QLineSeries *newSeries();
 
-    QChartView *m_view;
+    InteractiveChartView *m_view;
+    bool m_userView = false; // zoomed or panned by the person: no autoscaling until reset
     QChart *m_chart;
     ChartLegend *m_legend;
     QValueAxis *m_axisX;

@@ -36,5 +36,6 @@ int runNote(const Arguments &args);
 int runSignOff(const Arguments &args);
 int runReopen(const Arguments &args);
 int runVerify(const Arguments &args);
+int runLabSheet(const Arguments &args);
 
 } // namespace sagline::cli

@@ -1,9 +1,10 @@
-// sagline-cli compare FILES_OR_FOLDERS... [--csv OUT.csv] [--json]: one row per session, batch
-// statistics and the far-from-batch flag, for a lab lead's review. Every file is opened
+// sagline-cli compare FILES_OR_FOLDERS... [--csv OUT.csv] [--json]: one row per session, grouped by
+// design, with each design's statistics, far-from-batch flag and control chart, for a lab lead's review. Every file is opened
 // untrusted and read-only; a bad file is listed with its reason and the others are compared.
 // Exit code 0 when every input was compared, 2 when some input could not be (the rest is still
 // printed and written), 1 when the CSV cannot be written.
 #include "CliCommands.h"
+#include "CompareTable.h"
 #include "SessionCliSupport.h"
 
 #include "CommandLine.h"
@@ -25,50 +26,6 @@
 namespace sagline::cli {
 
 namespace {
-
-// Display width of UTF-8 text: one column per code point (enough for Ω, ±, °).
-std::size_t displayWidth(const std::string &text)
-{
-    std::size_t width = 0;
-    for (unsigned char c : text)
-        width += (c & 0xC0) != 0x80 ? 1 : 0;
-    return width;
-}
-
-std::string pad(const std::string &text, std::size_t width, bool right = false)
-{
-    const std::size_t w = displayWidth(text);
-    const std::string fill(w < width ? width - w : 0, ' ');
-    return right ? fill + text : text + fill;
-}
-
-// "1.952 ± 0.023": U to two significant digits, the value to the same decimal place (GUM 7.2.6).
-// Absent values are NaN here (value_or), which also spares GCC 12 a false "maybe uninitialized".
-std::string withUncertainty(double value, double expanded)
-{
-    if (!std::isfinite(value))
-        return "n/a";
-    if (!std::isfinite(expanded) || expanded <= 0.0)
-        return formatSignificant(value, 4);
-    const int magnitude = static_cast<int>(std::floor(std::log10(expanded)));
-    const int decimals = std::max(0, std::min(9, 1 - magnitude));
-    return formatFixed(value, decimals) + " ± " + formatFixed(expanded, decimals);
-}
-
-// "75", "72.5": a temperature as typed, without padding zeros.
-std::string plainNumber(double value)
-{
-    std::string text = formatSignificant(value, 4);
-    if (text.find('.') != std::string::npos) {
-        while (text.back() == '0')
-            text.pop_back();
-        if (text.back() == '.')
-            text.pop_back();
-    }
-    return text;
-}
-
-constexpr double absent = std::numeric_limits<double>::quiet_NaN();
 
 struct Options {
     std::vector<std::string> inputs;
@@ -139,87 +96,6 @@ std::string readArguments(const CommandLine &line, Options &options)
     return {};
 }
 
-void printTable(const std::vector<SessionRow> &rows, const BatchStatistics &stats, const ComparisonOptions &options,
-                std::ostream &out)
-{
-    const std::string refTitle = "R at " + plainNumber(options.figures.referenceTemperatureC) + " °C (Ω)";
-    const std::vector<std::string> titles = {"unit",    "date (UTC)", "operator", "points",  "R (Ω)",  refTitle,
-                                             "V0 (V)",  "regulation (%)", "verdict", "stops", "review", "z"};
-    std::vector<std::vector<std::string>> cells;
-    for (std::size_t i = 0; i < rows.size(); ++i) {
-        const SessionRow &row = rows[i];
-        if (!row.opened)
-            continue;
-        const SessionFigures &f = row.figures;
-        const double r = f.ok ? f.resistanceOhm : absent;
-        const double v0 = f.ok ? f.noLoadVoltageV : absent;
-        const double z = stats.robustZ[i].value_or(absent);
-        bool far = false;
-        for (auto k : stats.farFromBatch)
-            far = far || k == i;
-        cells.push_back({row.unitSerial, row.createdUtc.substr(0, 10), row.operatorName,
-                         std::to_string(row.pointsUsed) + "/" + std::to_string(row.readingCount),
-                         withUncertainty(r, f.resistanceUOhm.value_or(absent)),
-                         withUncertainty(f.resistanceRefOhm.value_or(absent), f.resistanceRefUOhm.value_or(absent)),
-                         withUncertainty(v0, f.noLoadVoltageUV.value_or(absent)),
-                         withUncertainty(f.regulationPercent.value_or(absent), f.regulationUPercent.value_or(absent)),
-                         row.verdictShown(), std::to_string(row.safetyStops.size()), row.reviewState(),
-                         (std::isfinite(z) ? formatFixed(z, 2) : std::string("n/a"))
-                             + (far ? (stats.screeningOnly ? " far (screening only)" : " FAR") : "")});
-    }
-    std::vector<std::size_t> widths(titles.size());
-    for (std::size_t c = 0; c < titles.size(); ++c) {
-        widths[c] = displayWidth(titles[c]);
-        for (const auto &line : cells)
-            widths[c] = std::max(widths[c], displayWidth(line[c]));
-    }
-    auto printLine = [&](const std::vector<std::string> &line) {
-        std::string text;
-        for (std::size_t c = 0; c < line.size(); ++c)
-            text += (c ? "  " : "") + pad(line[c], widths[c], c >= 3 && c <= 7);
-        while (!text.empty() && text.back() == ' ')
-            text.pop_back();
-        out << text << '\n';
-    };
-    printLine(titles);
-    for (const auto &line : cells)
-        printLine(line);
-}
-
-void printSummary(const std::vector<SessionRow> &rows, const BatchStatistics &stats, const ComparisonOptions &options, std::ostream &out)
-{
-    const std::string basis = stats.atReferenceTemperature
-                                  ? "at " + plainNumber(options.figures.referenceTemperatureC) + " °C"
-                                  : "as measured (not every session has a winding temperature)";
-    out << "\nBatch: " << stats.sessions << " sessions, " << stats.unreadable << " unreadable, " << stats.withoutFit
-        << " without a fit\n";
-    if (stats.meanOhm) {
-        out << "  R " << basis << ": mean " << formatQuantity(*stats.meanOhm, "Ω");
-        if (stats.sdOhm)
-            out << ", standard deviation " << formatQuantity(*stats.sdOhm, "Ω");
-        out << ", median " << formatQuantity(*stats.medianOhm, "Ω") << ", range " << formatQuantity(*stats.minOhm, "Ω")
-            << " to " << formatQuantity(*stats.maxOhm, "Ω") << " (" << stats.resistanceCount << " units)\n";
-    }
-    // Sessions judged by their own recorded rule may differ; then the table's rule column says which.
-    std::string ruleName;
-    for (const auto &row : rows) {
-        if (!row.opened)
-            continue;
-        if (ruleName.empty())
-            ruleName = row.figures.ruleName;
-        else if (ruleName != row.figures.ruleName)
-            ruleName = "each session's recorded rule";
-    }
-    out << "  Verdicts against each session's specification (" << (ruleName.empty() ? toString(options.figures.rule) : ruleName)
-        << "):\n    " << verdictCountsText(stats) << '\n';
-    out << "  Review: accepted " << stats.accepted << ", rejected " << stats.rejected << ", retest " << stats.retest
-        << ", not reviewed " << stats.notReviewed << ", changed after sign-off " << stats.changedAfterSignOff << "; safety stops in " << stats.safetyStopped
-        << " sessions; lab-sheet limit hit in " << stats.limitHit << '\n';
-    out << "  Far from the batch: " << stats.ruleNote << '\n';
-    out << "  Fit: " << toString(options.method) << "; U: expanded uncertainties at 95 % coverage, k from each result's "
-        << "own budget (GUM G.4)\n";
-}
-
 } // namespace
 
 int runCompare(const Arguments &args)
@@ -268,8 +144,7 @@ int runCompare(const Arguments &args)
     if (options.asJson) {
         std::cout << comparisonJson(rows, stats, options.comparison) << '\n';
     } else {
-        printTable(rows, stats, options.comparison, std::cout);
-        printSummary(rows, stats, options.comparison, std::cout);
+        printComparison(rows, stats, options.comparison, std::cout);
     }
     return incomplete || found.files.empty() ? exitInvalidInput : exitSuccess;
 }

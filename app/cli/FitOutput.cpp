@@ -2,6 +2,8 @@
 
 #include "AssessmentJson.h"
 #include "BudgetTable.h"
+#include "JsonNumberText.h"
+#include "OutputText.h"
 #include "NumberFormat.h"
 #include "PrimarySideJson.h"
 #include "UncertaintyFormat.h"
@@ -181,6 +183,53 @@ void printVerdict(const SpecificationVerdict &v, const std::function<void(const 
     row("Limits from", v.limitsSource);
 }
 
+// One entry of "points" as the tree holds it (keys in the tree's order: alphabetical).
+nlohmann::json pointJson(const PointFit &p, const std::vector<int> &lineNumbers)
+{
+    nlohmann::json point = {{"row", p.row},
+                            {"used", p.used},
+                            {"residual_v", p.residualV},
+                            {"studentized", optionalNumber(p.studentized)},
+                            {"screening_statistic", optionalNumber(p.screeningStatistic)},
+                            {"outlier", p.outlier}};
+    if (p.row < lineNumbers.size())
+        point["line"] = lineNumbers[p.row];
+    return point;
+}
+
+nlohmann::json pointsJson(const FitReport &report)
+{
+    nlohmann::json points = nlohmann::json::array();
+    for (const PointFit &p : report.fit.points)
+        points.push_back(pointJson(p, report.lineNumbers));
+    return points;
+}
+
+// The same entry as text, as dump(2) writes it one level down ("points" is a top-level key):
+// members at 6 spaces, sorted by name like the tree's std::map.
+void appendPointText(std::string &out, const PointFit &p, const std::vector<int> &lineNumbers)
+{
+    out += "    {\n";
+    if (p.row < lineNumbers.size()) {
+        out += "      \"line\": ";
+        appendJsonInteger(out, lineNumbers[p.row]);
+        out += ",\n";
+    }
+    out += "      \"outlier\": ";
+    appendJsonBool(out, p.outlier);
+    out += ",\n      \"residual_v\": ";
+    appendJsonNumber(out, p.residualV);
+    out += ",\n      \"row\": ";
+    appendJsonUnsigned(out, p.row);
+    out += ",\n      \"screening_statistic\": ";
+    appendJsonNumber(out, p.screeningStatistic);
+    out += ",\n      \"studentized\": ";
+    appendJsonNumber(out, p.studentized);
+    out += ",\n      \"used\": ";
+    appendJsonBool(out, p.used);
+    out += "\n    }";
+}
+
 } // namespace
 
 std::vector<std::string> fitWarnings(const FitSummary &fit, const std::vector<int> &lineNumbers)
@@ -202,7 +251,7 @@ std::vector<std::string> fitWarnings(const FitSummary &fit, const std::vector<in
     return warnings;
 }
 
-nlohmann::json fitReportJson(const FitReport &report)
+nlohmann::json fitReportJson(const FitReport &report, PointsInJson points)
 {
     const FitSummary &f = report.fit;
     nlohmann::json j;
@@ -235,19 +284,10 @@ nlohmann::json fitReportJson(const FitReport &report)
     }
     if (f.method == FitMethod::York)
         j["iterations"] = f.iterations;
-    nlohmann::json points = nlohmann::json::array();
-    for (const PointFit &p : f.points) {
-        nlohmann::json point = {{"row", p.row},
-                                {"used", p.used},
-                                {"residual_v", p.residualV},
-                                {"studentized", optionalNumber(p.studentized)},
-                                {"screening_statistic", optionalNumber(p.screeningStatistic)},
-                                {"outlier", p.outlier}};
-        if (p.row < report.lineNumbers.size())
-            point["line"] = report.lineNumbers[p.row];
-        points.push_back(point);
-    }
-    j["points"] = points;
+    if (points == PointsInJson::Tree)
+        j["points"] = pointsJson(report);
+    else
+        j["points"] = nlohmann::json::array(); // the place writeFitReportJson streams them into
     const LineResults line = lineResultsOf(report);
     j["uncertainty_basis"] = line.uncertaintyBasis;
     j["coverage_probability"] = coverageProbability;
@@ -349,6 +389,41 @@ void printFitReport(const FitReport &report, std::ostream &out)
         for (const auto &w : report.warnings)
             out << "  - " << w << '\n';
     }
+}
+
+} // namespace sagline::cli
+
+namespace sagline::cli {
+
+void writeFitReportJson(const FitReport &report, std::ostream &out)
+{
+    const std::string text = jsonText(fitReportJson(report, PointsInJson::Placeholder), 2);
+    const std::string_view placeholder = "\n  \"points\": []";
+    // A newline inside a string is escaped, so this text occurs once: where the key is.
+    const std::size_t at = text.find(placeholder);
+    const std::vector<PointFit> &points = report.fit.points;
+    if (at == std::string::npos || points.empty()) {
+        out << text << '\n';
+        return;
+    }
+    const std::size_t arrayStart = at + placeholder.size() - 2; // at the "[]"
+    out.write(text.data(), static_cast<std::streamsize>(arrayStart));
+    std::string chunk = "[\n";
+    constexpr std::size_t flushAt = 1 << 16;
+    chunk.reserve(flushAt + 512);
+    for (std::size_t i = 0; i < points.size(); ++i) {
+        if (i > 0)
+            chunk += ",\n";
+        appendPointText(chunk, points[i], report.lineNumbers);
+        if (chunk.size() >= flushAt) {
+            out.write(chunk.data(), static_cast<std::streamsize>(chunk.size()));
+            chunk.clear();
+        }
+    }
+    chunk += "\n  ]";
+    out.write(chunk.data(), static_cast<std::streamsize>(chunk.size()));
+    out.write(text.data() + arrayStart + 2, static_cast<std::streamsize>(text.size() - arrayStart - 2));
+    out << '\n';
 }
 
 } // namespace sagline::cli

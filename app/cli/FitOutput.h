@@ -41,7 +41,15 @@ struct FitReport {
 // Warnings a reader should see: bending, outliers, scatter beyond the stated uncertainties.
 std::vector<std::string> fitWarnings(const FitSummary &fit, const std::vector<int> &lineNumbers);
 
-nlohmann::json fitReportJson(const FitReport &report);
+// Whether fitReportJson puts the per-point array in the tree or leaves it empty for the stream.
+enum class PointsInJson { Tree, Placeholder };
+
+// The JSON object as a tree (with every point: memory grows with the points; for tests and
+// small fits). writeFitReportJson writes the same text, the points streamed.
+nlohmann::json fitReportJson(const FitReport &report, PointsInJson points = PointsInJson::Tree);
+// `fit --json`: the text jsonText(fitReportJson(report), 2) would be, plus a newline, without
+// the per-point tree (a million points: 1.5 GB as a tree).
+void writeFitReportJson(const FitReport &report, std::ostream &out);
 void printFitReport(const FitReport &report, std::ostream &out);
 
 } // namespace sagline::cli

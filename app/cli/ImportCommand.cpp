@@ -72,7 +72,8 @@ int runImport(const Arguments &args)
     const ImportResult result = importReadingsCsv(request);
     if (!result.ok()) {
         for (const FieldError &error : result.errors)
-            std::cerr << "sagline-cli import: " << result.errorsFile << ": " << error.message() << '\n';
+            std::cerr << "sagline-cli import: " << (error.field == result.errorsFile ? std::string() : result.errorsFile + ": ")
+                      << error.message() << '\n';
         if (result.errors.empty())
             std::cerr << "sagline-cli import: " << result.message << '\n';
         return exitCodeFor(result.code);

@@ -216,7 +216,9 @@ int runRun(const Arguments &rawArgs)
     const SetupParse parsed = loadSetupFile(args.setupPath);
     if (!parsed.setup) {
         for (const FieldError &e : parsed.errors)
-            std::cerr << "sagline-cli run: " << args.setupPath << ", " << e.message() << '\n';
+            // A whole-file error names the file already; a field error gets the file in front.
+            std::cerr << "sagline-cli run: " << (e.field == args.setupPath ? std::string() : args.setupPath + ", ") << e.message()
+                      << '\n';
         return exitInvalidInput;
     }
     const Setup &setup = *parsed.setup;

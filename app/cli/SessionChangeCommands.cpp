@@ -119,11 +119,11 @@ int runSignOff(const Arguments &args)
     request.comment = line.value("comment");
     const std::string decision = line.value("decision");
     if (decision == "accept")
-        request.verdict = Verdict::Accepted;
+        request.decision = ReviewDecision::Accepted;
     else if (decision == "reject")
-        request.verdict = Verdict::Rejected;
+        request.decision = ReviewDecision::Rejected;
     else if (decision == "retest")
-        request.verdict = Verdict::Retest;
+        request.decision = ReviewDecision::Retest;
     else
         return line.fail("--decision: expected accept, reject or retest, got '" + decision + "'");
     if (const std::string error = signOffRequestError(request); !error.empty())

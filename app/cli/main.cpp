@@ -5,6 +5,7 @@
 #include "DataDirectory.h"
 #include "PrintableOutput.h"
 
+#include <csignal>
 #include <cstring>
 #include <iostream>
 #include <optional>
@@ -33,6 +34,8 @@ constexpr Command commands[] = {
     {"sign-off", sagline::cli::runSignOff, "sign-off SESSION.sagline --by NAME --decision accept|reject|retest [--comment TEXT]\n"
                                            "                                     sign off and seal (SHA-256 digest of the content)"},
     {"reopen", sagline::cli::runReopen, "reopen SESSION.sagline --by NAME --reason TEXT   lift a sign-off so the session can change"},
+    {"labsheet", sagline::cli::runLabSheet, "labsheet check SHEET.json | labsheet new --setup SETUP.json -o SHEET.json\n"
+                                            "                                     check a lab sheet, or write one from a setup to edit"},
     {"verify", sagline::cli::runVerify, "verify SESSION.sagline             integrity and sign-off digests (exit 0 intact, 1 altered)"},
 };
 
@@ -53,6 +56,10 @@ void printUsage(std::ostream &out)
 
 int main(int argc, char **argv)
 {
+    // A file size limit (ulimit -f) would kill the program mid-write with SIGXFSZ, leaving a
+    // temporary file behind and saying nothing; ignored, the write fails with EFBIG and is
+    // reported like a full disk, with the temporary file removed.
+    std::signal(SIGXFSZ, SIG_IGN);
     // What is printed for people is kept printable (a name or a meter reply from elsewhere
     // never drives the terminal); export may write data (CSV) to standard output, left as is.
     sagline::PrintableOutput messages(std::cerr);

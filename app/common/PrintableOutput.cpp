@@ -2,11 +2,19 @@
 
 #include "OutputText.h"
 
+#include <string_view>
+
 namespace sagline {
 
 namespace {
 constexpr std::size_t maxPendingBytes = 64 * 1024; // a line longer than this is passed on in parts
+
+// Printable ASCII: what printableText passes on unchanged.
+bool isPlainByte(char c)
+{
+    return c >= 0x20 && c < 0x7F;
 }
+} // namespace
 
 PrintableOutput::PrintableOutput(std::ostream &stream) : m_stream(stream), m_target(stream.rdbuf(this)) {}
 
@@ -41,18 +49,37 @@ int PrintableOutput::sync()
 }
 
 // Passes on every complete line (all of it when `all`), made printable; a line break ends each.
+// Runs of lines of plain ASCII go on in one write, as they are (printableText would copy them
+// unchanged): a million-line JSON document costs one scan, not a copy per character.
 void PrintableOutput::emitLines(bool all)
 {
-    std::size_t start = 0;
-    for (std::size_t end = m_pending.find('\n'); end != std::string::npos; end = m_pending.find('\n', start)) {
-        const std::string line = printableText(std::string_view(m_pending).substr(start, end - start)) + '\n';
-        m_target->sputn(line.data(), static_cast<std::streamsize>(line.size()));
-        start = end + 1;
+    const auto write = [this](std::string_view text) {
+        m_target->sputn(text.data(), static_cast<std::streamsize>(text.size()));
+    };
+    const std::string_view pending = m_pending;
+    std::size_t start = 0;     // first byte not yet passed on
+    std::size_t lineStart = 0; // first byte after the last line break seen
+    bool plainLine = true;
+    for (std::size_t i = 0; i < pending.size(); ++i) {
+        const char c = pending[i];
+        if (isPlainByte(c))
+            continue;
+        if (c != '\n') {
+            plainLine = false;
+            continue;
+        }
+        if (!plainLine) {
+            write(pending.substr(start, lineStart - start));
+            write(printableText(pending.substr(lineStart, i - lineStart)) + '\n');
+            start = i + 1;
+            plainLine = true;
+        }
+        lineStart = i + 1;
     }
-    m_pending.erase(0, start);
+    write(pending.substr(start, lineStart - start));
+    m_pending.erase(0, lineStart);
     if (all && !m_pending.empty()) {
-        const std::string rest = printableText(m_pending);
-        m_target->sputn(rest.data(), static_cast<std::streamsize>(rest.size()));
+        write(printableText(m_pending));
         m_pending.clear();
     }
 }

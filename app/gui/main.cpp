@@ -17,6 +17,7 @@
 #include <QTextStream>
 #include <QTimer>
 
+#include <csignal>
 #include <cstdio>
 #include <cstring>
 #include <optional>
@@ -76,6 +77,9 @@ std::optional<int> answerRequest(const sagline::CommandLine &line)
 
 int main(int argc, char **argv)
 {
+    // A file size limit fails a write (reported, temporary file removed) instead of killing
+    // the program mid-write: see app/cli/main.cpp.
+    std::signal(SIGXFSZ, SIG_IGN);
     QElapsedTimer sinceMain; // --startup-probe: also from here to the first painted frame
     sinceMain.start();
     sagline::CommandLine line = guiCommandLine();

@@ -157,7 +157,8 @@ int main(int argc, char **argv)
     const SetupParse setupParse = loadSetupFile(line.positionals().front());
     if (!setupParse.setup) {
         for (const FieldError &e : setupParse.errors)
-            std::cerr << "sagline-sim: " << line.positionals().front() << ": " << e.message() << '\n';
+            std::cerr << "sagline-sim: " << (e.field == line.positionals().front() ? std::string() : line.positionals().front() + ": ")
+                      << e.message() << '\n';
         return 2;
     }
     const PlanResult planResult = makePlan(*setupParse.setup);

@@ -14,6 +14,7 @@
 //   UiBenchmark --memory-probe N      fills the window with N points, paints, prints, exits
 //                                     (run under /usr/bin/time -v for the peak memory)
 #include "DemoSession.h"
+#include "InteractiveChartView.h"
 #include "MainWindow.h"
 #include "ResidualChart.h"
 #include "SetupJson.h"

@@ -162,6 +162,21 @@ TEST_F(OutputSafety, AReportThatCannotBeWrittenWhollyIsNotWrittenAtAll)
     expectSessionsUnchanged();
 }
 
+TEST_F(OutputSafety, AFileSizeLimitFromTheShellIsAFailedWriteNotAKill)
+{
+    // Found by hand: under `ulimit -f 20` the report was killed by SIGXFSZ mid-write (exit 153),
+    // said nothing and left its hidden temporary file behind.
+    RunOptions options;
+    options.fileSizeLimit = 20000;
+    options.defaultFileSizeSignal = true;
+    const auto r = runProgram(cli, {"report", session, "-o", path("limited.pdf")}, {}, options);
+    EXPECT_EQ(r.exitCode, 1) << r.err;
+    EXPECT_NE(r.err.find(path("limited.pdf") + ": cannot write (the file is larger than this system allows)"), std::string::npos)
+        << r.err;
+    expectOnly({});
+    expectSessionsUnchanged();
+}
+
 TEST_F(OutputSafety, AnExportThatCannotBeWrittenLeavesTheOldFileAndNoTemporary)
 {
     write("readings.csv", "older readings");

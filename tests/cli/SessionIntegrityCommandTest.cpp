@@ -125,8 +125,8 @@ TEST_F(SessionIntegrityCommand, SignOffSealsReopenUnsealsAndVerifyTellsAlteredFr
     r = runProgram(cli, {"compare", session, altered, "--json"});
     ASSERT_EQ(r.exitCode, 0) << r.err;
     const auto compared = nlohmann::json::parse(r.out);
-    EXPECT_EQ(compared["sessions"][0]["review_state"], "changed after sign-off");
-    EXPECT_EQ(compared["sessions"][1]["review_state"], "ALTERED after sign-off");
+    EXPECT_EQ(compared["sessions"][0]["review_decision"], "changed after sign-off");
+    EXPECT_EQ(compared["sessions"][1]["review_decision"], "ALTERED after sign-off");
     EXPECT_EQ(compared["batch"]["review"]["changed_after_sign_off"], 2);
     const auto exported = nlohmann::json::parse(runProgram(cli, {"export", session, "--json", "-"}).out);
     EXPECT_EQ(exported["seal"]["state"], "changed after sign-off");

@@ -33,7 +33,7 @@ TEST(ComparisonExport, CsvHasOneLinePerSessionAndNoNan)
     std::getline(lines, second);
     std::getline(lines, third);
     EXPECT_FALSE(std::getline(lines, extra));
-    EXPECT_EQ(header.rfind("file,unit_serial,date_utc,operator,instruments,readings,points_used,series_resistance_ohm,", 0), 0u);
+    EXPECT_EQ(header.rfind("file,design,unit_serial,started_utc,operator,instruments,readings,points_used,series_resistance_ohm,", 0), 0u);
     EXPECT_NE(first.find("\"DEMO, \"\"quoted\"\"\""), std::string::npos) << first;
     EXPECT_NE(second.find("at least 2"), std::string::npos) << second; // the fit's reason, not a number
     EXPECT_NE(third.find("not a session"), std::string::npos) << third;

@@ -189,7 +189,7 @@ TEST(FitSummary, FlagsAnOutlierWithoutDroppingIt)
 
 TEST(FitSummary, DegenerateInputGivesStatusAndMessage)
 {
-    EXPECT_EQ(fitReadings({}, FitMethod::Ols).status, FitStatus::TooFewPoints);
+    EXPECT_EQ(fitReadings(std::vector<Reading>{}, FitMethod::Ols).status, FitStatus::TooFewPoints);
     EXPECT_EQ(fitReadings(readingsOf({1.0}, {2.0}), FitMethod::Ols).status, FitStatus::TooFewPoints);
     const FitSummary same = fitReadings(readingsOf({1.0, 1.0, 1.0}, {2.0, 2.1, 2.2}), FitMethod::Ols);
     EXPECT_EQ(same.status, FitStatus::DegenerateCurrent);

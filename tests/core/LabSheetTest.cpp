@@ -1,11 +1,17 @@
 // Lab sheets: parsing with field-named errors, round trip, and the pure limit checks that a
 // supervised session applies. The demo sheet is invented (50 VA, 230 V to 24 V unit).
 #include "LabSheet.h"
+#include "LabSheetFolder.h"
 #include "Planner.h"
 
 #include <gtest/gtest.h>
 
 #include <nlohmann/json.hpp>
+
+#include <filesystem>
+#include <fstream>
+
+#include <unistd.h>
 
 using namespace sagline;
 
@@ -129,4 +135,57 @@ TEST(LabSheet, LimitChecks)
     EXPECT_TRUE(checkFuseAgainstSheet(sheet, {0.5, FuseType::TimeLag}).allowed);
     EXPECT_FALSE(checkFuseAgainstSheet(sheet, {0.5, FuseType::QuickActing}).allowed);
     EXPECT_FALSE(checkFuseAgainstSheet(sheet, {1.0, FuseType::TimeLag}).allowed);
+}
+
+TEST(LabSheet, SupervisorPinIsReadCheckedAndRoundTrips)
+{
+    nlohmann::json document = demoSheet();
+    const SupervisorPinLock lock = makeSupervisorPinLock("2468", std::vector<std::uint8_t>(16, 7), 2000);
+    document["locks"]["supervisor_pin"] = {{"scheme", lock.scheme}, {"iterations", lock.iterations},
+                                           {"salt", lock.saltHex}, {"hash", lock.hashHex}};
+    const LabSheetParse parse = parseLabSheetJson(document.dump());
+    ASSERT_TRUE(parse.sheet) << allErrors(parse);
+    ASSERT_TRUE(parse.sheet->locks.supervisorPin);
+    EXPECT_TRUE(supervisorPinMatches(*parse.sheet->locks.supervisorPin, "2468"));
+    const LabSheetParse again = parseLabSheetJson(labSheetToJson(*parse.sheet));
+    ASSERT_TRUE(again.sheet && again.sheet->locks.supervisorPin) << allErrors(again);
+    EXPECT_EQ(again.sheet->locks.supervisorPin->hashHex, lock.hashHex);
+
+    // A PIN written into the sheet in the clear, and other mistakes, are named.
+    document["locks"]["supervisor_pin"] = "2468";
+    EXPECT_TRUE(hasError(parseLabSheetJson(document.dump()), "locks.supervisor_pin", "never the PIN itself"));
+    document["locks"]["supervisor_pin"] = {{"scheme", "md5"}, {"iterations", 10}, {"salt", "xyz"}, {"hash", "00"},
+                                           {"pin", "2468"}};
+    const LabSheetParse bad = parseLabSheetJson(document.dump());
+    EXPECT_TRUE(hasError(bad, "locks.supervisor_pin.scheme", "pbkdf2")) << allErrors(bad);
+    EXPECT_TRUE(hasError(bad, "locks.supervisor_pin.iterations", "1000")) << allErrors(bad);
+    EXPECT_TRUE(hasError(bad, "locks.supervisor_pin.salt", "hexadecimal")) << allErrors(bad);
+    EXPECT_TRUE(hasError(bad, "locks.supervisor_pin.hash", "hexadecimal")) << allErrors(bad);
+    EXPECT_TRUE(hasError(bad, "locks.supervisor_pin.pin", "not a PIN field")) << allErrors(bad);
+}
+
+TEST(LabSheet, FolderListsUsableSheetsAndSaysWhyTheOthersAreNot)
+{
+    const auto folder = std::filesystem::temp_directory_path() / ("sagline-sheets-" + std::to_string(::getpid()));
+    std::filesystem::create_directories(folder / "sub");
+    const auto write = [](const std::filesystem::path &path, const std::string &text) {
+        std::ofstream(path, std::ios::binary) << text;
+    };
+    write(folder / "b-lab.json", demoSheet().dump());
+    nlohmann::json broken = demoSheet();
+    broken["locks"]["max_load_fraction"] = 7;
+    write(folder / "a-broken.json", broken.dump());
+    write(folder / "notes.txt", "not json");
+    write(folder / "sub" / "c-lab.json", demoSheet().dump()); // subfolders are not searched
+    const auto sheets = findLabSheets(folder.string());
+    ASSERT_EQ(sheets.size(), 2u);
+    EXPECT_NE(sheets[0].path.find("a-broken.json"), std::string::npos);
+    EXPECT_FALSE(sheets[0].sheet.has_value());
+    EXPECT_NE(sheets[0].problem.find("locks.max_load_fraction"), std::string::npos) << sheets[0].problem;
+    ASSERT_TRUE(sheets[1].sheet.has_value());
+    EXPECT_EQ(sheets[1].sheet->title, "Lab 3: load test of a 50 VA toroid");
+    std::string error;
+    EXPECT_TRUE(findLabSheets((folder / "missing").string(), &error).empty());
+    EXPECT_FALSE(error.empty());
+    std::filesystem::remove_all(folder);
 }

@@ -14,11 +14,14 @@
 
 namespace sagline::test {
 
-inline const char *demoSetupJson()
+// The demo setup; another rating (VA) or a design name makes another design of the same family.
+inline std::string demoSetupJson(double ratedPowerVa = 50.0, const std::string &design = {})
 {
-    return R"({"nameplate":{"rated_power_va":50,"primary_voltage_v":230,"frequency_hz":50,"secondary_voltage_v":24,)"
-           R"("secondary_no_load_voltage_v":26.4,"construction":"toroidal","winding_material":"copper"},)"
-           R"("bench":{"steps":10,"top_fraction":1.0,"fuse":{"rating_a":0.5,"type":"time-lag"}}})";
+    return std::string("{") + (design.empty() ? std::string() : "\"design\":\"" + design + "\",")
+           + R"("nameplate":{"rated_power_va":)" + std::to_string(ratedPowerVa)
+           + R"(,"primary_voltage_v":230,"frequency_hz":50,"secondary_voltage_v":24,)"
+             R"("secondary_no_load_voltage_v":26.4,"construction":"toroidal","winding_material":"copper"},)"
+             R"("bench":{"steps":10,"top_fraction":1.0,"fuse":{"rating_a":0.5,"type":"time-lag"}}})";
 }
 
 struct DemoUnit {
@@ -29,13 +32,15 @@ struct DemoUnit {
     int points = 11;                // currents 0 .. 2.0833 A in equal steps
     double scatterV = 0.004;        // amplitude of the deterministic scatter, V
     double windingC = 20.0;         // recorded winding temperature, °C
+    double ratedPowerVa = 50.0;     // the nameplate's rating: another value is another design
+    std::string design;             // the setup's design name, "" for none
 };
 
-// Readings of a demo unit: I_k = k/(n-1) · 50/24 A, V_k = V0 - R I_k + scatter·sin(1.7 k + R).
+// Readings of a demo unit: I_k = k/(n-1) · VA/24 A, V_k = V0 - R I_k + scatter·sin(1.7 k + R).
 inline std::vector<Reading> demoReadings(const DemoUnit &unit)
 {
     std::vector<Reading> readings;
-    const double rated = 50.0 / 24.0;
+    const double rated = unit.ratedPowerVa / 24.0;
     for (int k = 0; k < unit.points; ++k) {
         Reading reading;
         reading.step = k;
@@ -52,7 +57,7 @@ inline std::vector<Reading> demoReadings(const DemoUnit &unit)
 inline std::string makeDemoSession(const std::string &path, const DemoUnit &unit)
 {
     NewSession session;
-    session.setupJson = demoSetupJson();
+    session.setupJson = demoSetupJson(unit.ratedPowerVa, unit.design);
     session.operatorName = unit.operatorName;
     session.unitSerial = unit.serial;
     session.windingTemperatureC = unit.windingC;

@@ -233,11 +233,85 @@ TEST(SessionComparison, FarFromBatchNeedsTenUnitsOfOneDesign)
     ASSERT_EQ(stats.farFromBatch.size(), 1u);
     EXPECT_EQ(stats.farFromBatch[0], 9u);
     EXPECT_EQ(stats.ruleNote.find("screening only"), std::string::npos) << stats.ruleNote;
-    // One unit of another design: ten units, but not of one design.
+    // One unit of another design: nine of the first design (screening only), and one alone.
     rows[3].design = "another design";
     stats = summarizeBatch(rows);
     EXPECT_TRUE(stats.screeningOnly);
-    EXPECT_NE(stats.ruleNote.find("more than one design"), std::string::npos) << stats.ruleNote;
+    ASSERT_EQ(stats.designs.size(), 2u);
+    EXPECT_NE(stats.ruleNote.find("within each of 2 designs"), std::string::npos) << stats.ruleNote;
+    EXPECT_NE(stats.designs[0].ruleNote.find("screening only"), std::string::npos) << stats.designs[0].ruleNote;
+    EXPECT_FALSE(stats.robustZ[3].has_value()) << "one unit alone has no batch to be far from";
+}
+
+TEST(SessionComparison, ThreeDesignsNeverFlagAcrossDesigns)
+{
+    // A folder of 20, 60 and 100 VA units (scenario of our own): R differs by design by a factor
+    // of ten, which across designs would make every small unit "far"; within its design none is.
+    std::vector<SessionRow> rows;
+    const struct {
+        const char *design;
+        double r;
+    } units[] = {{"20 VA", 6.10}, {"60 VA", 0.631}, {"100 VA", 0.301}, {"20 VA", 6.05}, {"60 VA", 0.628},
+                 {"100 VA", 0.299}, {"20 VA", 6.12}, {"60 VA", 0.634}, {"100 VA", 0.303}, {"60 VA", 0.630}};
+    for (const auto &unit : units) {
+        rows.push_back(fittedRow(unit.r));
+        rows.back().design = unit.design;
+        rows.back().figures.resistanceRefOhm.reset();
+    }
+    const BatchStatistics stats = summarizeBatch(rows);
+    EXPECT_TRUE(stats.farFromBatch.empty());
+    ASSERT_EQ(stats.designs.size(), 3u);
+    EXPECT_FALSE(stats.meanOhm.has_value()) << "no mean across designs";
+    EXPECT_EQ(stats.resistanceCount, 10u);
+    EXPECT_EQ(stats.designs[0].design, "20 VA");
+    EXPECT_EQ(stats.designs[0].rows, (std::vector<std::size_t>{0, 3, 6}));
+    EXPECT_NEAR(*stats.designs[0].meanOhm, (6.10 + 6.05 + 6.12) / 3.0, 1e-12);
+    EXPECT_NEAR(*stats.designs[1].meanOhm, (0.631 + 0.628 + 0.634 + 0.630) / 4.0, 1e-12);
+    EXPECT_NEAR(*stats.designs[2].medianOhm, 0.301, 1e-12);
+    for (std::size_t i = 0; i < rows.size(); ++i) {
+        ASSERT_TRUE(stats.robustZ[i].has_value()) << i;
+        EXPECT_LT(std::fabs(*stats.robustZ[i]), robustZThreshold) << i;
+    }
+    // Each design has its own control chart, over its own units only.
+    EXPECT_EQ(stats.designs[1].chart.n, 4u);
+    EXPECT_TRUE(stats.designs[1].chart.hasLimits());
+    EXPECT_NEAR(*stats.designs[1].chart.centre, *stats.designs[1].meanOhm, 1e-15);
+    EXPECT_EQ(stats.designOfRow(9), &stats.designs[1]);
+    // The same rows as one design would have flagged the small units.
+    for (auto &row : rows)
+        row.design = "one design";
+    EXPECT_FALSE(summarizeBatch(rows).farFromBatch.empty());
+}
+
+TEST(SessionComparison, FarWithinItsOwnDesignIsStillFlagged)
+{
+    std::vector<SessionRow> rows;
+    for (double r : {0.630, 0.631, 0.629, 0.632, 0.90})
+        rows.push_back(fittedRow(r));
+    for (double r : {6.10, 6.05, 6.12})
+        rows.push_back(fittedRow(r));
+    for (std::size_t i = 0; i < rows.size(); ++i)
+        rows[i].design = i < 5 ? "60 VA" : "20 VA";
+    const BatchStatistics stats = summarizeBatch(rows);
+    ASSERT_EQ(stats.farFromBatch.size(), 1u);
+    EXPECT_EQ(stats.farFromBatch[0], 4u);
+}
+
+TEST(SessionComparison, ControlChartFollowsTheSessionsStartTimes)
+{
+    // Given out of time order: the chart takes them by start time.
+    std::vector<SessionRow> rows = {fittedRow(11.0), fittedRow(10.0), fittedRow(14.0), fittedRow(12.0), fittedRow(13.0)};
+    const char *started[] = {"2026-12-03T08:00:00.000Z", "2026-12-01T08:00:00.000Z", "2026-12-04T08:00:00.000Z",
+                             "2026-12-02T08:00:00.000Z", "2026-12-05T08:00:00.000Z"};
+    for (std::size_t i = 0; i < rows.size(); ++i) {
+        rows[i].createdUtc = started[i];
+        rows[i].figures.resistanceRefOhm.reset();
+    }
+    const BatchStatistics stats = summarizeBatch(rows);
+    ASSERT_EQ(stats.designs.size(), 1u);
+    // In time order 10, 12, 11, 14, 13: the hand-worked example of ControlChartTest.
+    EXPECT_EQ(stats.designs[0].chartRows, (std::vector<std::size_t>{1, 3, 0, 2, 4}));
+    EXPECT_NEAR(*stats.designs[0].chart.upper, 16.6542553, 1e-7);
 }
 
 TEST(SessionComparison, BatchUsesReferenceTemperatureOnlyWhenEveryUnitHasIt)
@@ -271,8 +345,8 @@ TEST(SessionComparison, CountsVerdictsReviewsAndUnreadableRows)
     std::vector<SessionRow> rows = {fittedRow(1.0, ConformityOutcome::Pass), fittedRow(1.1, ConformityOutcome::Fail),
                                     fittedRow(1.2, ConformityOutcome::ConditionalPass), fittedRow(1.3, ConformityOutcome::Pass),
                                     fittedRow(1.4, ConformityOutcome::NotJudged)};
-    rows[1].signOffs.push_back({1, "t", "Lead", Verdict::Accepted, "", "", "", ""});
-    rows[1].signOffs.push_back({2, "t", "Lead", Verdict::Rejected, "over limit", "", "", ""});
+    rows[1].signOffs.push_back({1, "t", "Lead", ReviewDecision::Accepted, "", "", "", ""});
+    rows[1].signOffs.push_back({2, "t", "Lead", ReviewDecision::Rejected, "over limit", "", "", ""});
     rows[2].safetyStops.push_back({});
     SessionRow bad;
     bad.problem = "corrupt";
@@ -288,8 +362,8 @@ TEST(SessionComparison, CountsVerdictsReviewsAndUnreadableRows)
     EXPECT_EQ(stats.conditionalFail, 0u);
     EXPECT_EQ(stats.notJudged, 1u);
     EXPECT_EQ(stats.incomplete, 1u);
-    EXPECT_EQ(verdictCountsText(stats),
-              "pass 2, conditional pass 1, conditional fail 0, fail 1, not judged 1, n/a 0, incomplete (no verdict) 1");
+    EXPECT_EQ(verdictCountsText(stats), "PASS 2, CONDITIONAL PASS 1, CONDITIONAL FAIL 0, FAIL 1, NOT JUDGED 1, "
+                                        "NO ANALYSIS 0, incomplete (no verdict) 1");
     EXPECT_EQ(stats.rejected, 1u);
     EXPECT_EQ(stats.accepted, 0u);
     EXPECT_EQ(stats.notReviewed, 5u);

@@ -42,7 +42,7 @@ std::string signedSession(const TempFolder &folder, const std::string &name = "s
     EXPECT_TRUE(store.excludeReading(first, "lead loose", "B. Operator").ok());
     EXPECT_TRUE(store.addNote("B. Operator", "fan on").ok());
     store.setActor({"C. Lead", ""});
-    const auto signedOff = store.addSignOff("C. Lead", Verdict::Accepted, "");
+    const auto signedOff = store.addSignOff("C. Lead", ReviewDecision::Accepted, "");
     EXPECT_TRUE(signedOff.ok()) << signedOff.message;
     return path;
 }
@@ -71,7 +71,7 @@ TEST(SessionSeal, SignedSessionRefusesEveryChangeUntilReopened)
     EXPECT_EQ(store.value->addNote("D. Someone", "after the fact").code, StoreCode::Sealed);
     EXPECT_EQ(store.value->appendReading(sampleReading(3, 1.5, 23.7)).code, StoreCode::Sealed);
     EXPECT_EQ(store.value->recordTemperature(TemperatureKind::Ambient, 22.0, "room").code, StoreCode::Sealed);
-    EXPECT_EQ(store.value->addSignOff("D. Someone", Verdict::Rejected, "no").code, StoreCode::Sealed);
+    EXPECT_EQ(store.value->addSignOff("D. Someone", ReviewDecision::Rejected, "no").code, StoreCode::Sealed);
     EXPECT_EQ(store.value->readingCount().value, 3);
     EXPECT_EQ(sealOf(path).state, SealState::Signed);
 }
@@ -112,7 +112,7 @@ TEST(SessionSeal, SecondSignOffAfterReopenSealsAgainAndBothDigestsHold)
         store.value->setActor({"D. Lead", ""});
         ASSERT_TRUE(store.value->reopen("one more note").ok());
         ASSERT_TRUE(store.value->addNote("D. Lead", "checked the fuse").ok());
-        ASSERT_TRUE(store.value->addSignOff("D. Lead", Verdict::Accepted, "").ok());
+        ASSERT_TRUE(store.value->addSignOff("D. Lead", ReviewDecision::Accepted, "").ok());
     }
     const SealReport report = sealOf(path);
     EXPECT_EQ(report.state, SealState::Signed) << report.summary();

@@ -71,7 +71,7 @@ std::string makeRichSession(const TempFolder &folder)
     stop.measured = 51.0;
     stop.limitValue = 50.0;
     store.value->recordSafetyStop(stop);
-    store.value->addSignOff("First Reviewer", Verdict::Retest, "repeat at 80 %");
+    store.value->addSignOff("First Reviewer", ReviewDecision::Retest, "repeat at 80 %");
     // A sign-off seals the session: the next one needs it reopened first.
     store.value->setActor({"First Reviewer", ""});
     store.value->reopen("repeated at 80 %, ready for a second look");
@@ -88,7 +88,7 @@ TEST(SessionSignOff, WritesOnlyOneNewSignOffRow)
     ASSERT_EQ(before.at("sign_off").size(), 1u);
     ASSERT_FALSE(before.at("reading").empty());
 
-    const auto id = signOffSession(path, {"Lab Lead", Verdict::Accepted, "matches the batch"});
+    const auto id = signOffSession(path, {"Lab Lead", ReviewDecision::Accepted, "matches the batch"});
     ASSERT_TRUE(id.ok()) << id.message;
 
     const auto after = dumpTables(path);
@@ -110,7 +110,7 @@ TEST(SessionSignOff, WritesOnlyOneNewSignOffRow)
     ASSERT_TRUE(review.ok());
     const auto history = review.value->signOffs().value;
     ASSERT_EQ(history.size(), 2u);
-    EXPECT_EQ(history[1].verdict, Verdict::Accepted);
+    EXPECT_EQ(history[1].decision, ReviewDecision::Accepted);
 }
 
 TEST(SessionSignOff, IncompleteRequestChangesNothing)
@@ -118,10 +118,10 @@ TEST(SessionSignOff, IncompleteRequestChangesNothing)
     TempFolder folder;
     const std::string path = makeRichSession(folder);
     const std::string before = fileBytes(path);
-    auto result = signOffSession(path, {"   ", Verdict::Accepted, ""});
+    auto result = signOffSession(path, {"   ", ReviewDecision::Accepted, ""});
     EXPECT_EQ(result.code, StoreCode::InvalidArgument);
     EXPECT_NE(result.message.find("reviewer"), std::string::npos);
-    result = signOffSession(path, {"Lab Lead", Verdict::Rejected, ""});
+    result = signOffSession(path, {"Lab Lead", ReviewDecision::Rejected, ""});
     EXPECT_EQ(result.code, StoreCode::InvalidArgument);
     EXPECT_NE(result.message.find("comment"), std::string::npos);
     EXPECT_EQ(fileBytes(path), before);
@@ -141,7 +141,7 @@ TEST(SessionSignOff, OlderAndNewerSchemasAreRefusedUnchanged)
         sqlite3_close(db);
     }
     std::string before = fileBytes(older);
-    auto result = signOffSession(older, {"Lab Lead", Verdict::Accepted, ""});
+    auto result = signOffSession(older, {"Lab Lead", ReviewDecision::Accepted, ""});
     EXPECT_FALSE(result.ok());
     EXPECT_NE(result.message.find("older"), std::string::npos) << result.message;
     EXPECT_EQ(fileBytes(older), before);
@@ -149,10 +149,10 @@ TEST(SessionSignOff, OlderAndNewerSchemasAreRefusedUnchanged)
     const std::string newer = makeDemoSession(folder.file("newer.sagline"), DemoUnit{});
     runSql(newer, "CREATE TABLE calibration (id INTEGER PRIMARY KEY); PRAGMA user_version = 9;");
     before = fileBytes(newer);
-    result = signOffSession(newer, {"Lab Lead", Verdict::Accepted, ""});
+    result = signOffSession(newer, {"Lab Lead", ReviewDecision::Accepted, ""});
     EXPECT_EQ(result.code, StoreCode::NewerVersion) << result.message;
     EXPECT_EQ(fileBytes(newer), before);
 
-    result = signOffSession(folder.file("missing.sagline"), {"Lab Lead", Verdict::Accepted, ""});
+    result = signOffSession(folder.file("missing.sagline"), {"Lab Lead", ReviewDecision::Accepted, ""});
     EXPECT_EQ(result.code, StoreCode::CannotOpen) << result.message;
 }

@@ -159,8 +159,8 @@ TEST(SessionStore, RecordsSafetyStopsAndSignOffs)
         stop.measured = 61.0;
         stop.limitValue = 50.0;
         ASSERT_TRUE(store.recordSafetyStop(stop).ok());
-        ASSERT_TRUE(store.addSignOff("Lab Lead", Verdict::Retest, "repeat from step 6 with a cooler unit").ok());
-        EXPECT_EQ(store.addSignOff("", Verdict::Accepted, "").code, StoreCode::InvalidArgument);
+        ASSERT_TRUE(store.addSignOff("Lab Lead", ReviewDecision::Retest, "repeat from step 6 with a cooler unit").ok());
+        EXPECT_EQ(store.addSignOff("", ReviewDecision::Accepted, "").code, StoreCode::InvalidArgument);
     }
     auto opened = SessionStore::openForReview(path);
     ASSERT_TRUE(opened.ok()) << opened.message;
@@ -172,7 +172,7 @@ TEST(SessionStore, RecordsSafetyStopsAndSignOffs)
     EXPECT_EQ(stops[0].timeUtc, "2026-12-02T11:00:00.000Z");
     const auto signOffs = opened.value->signOffs().value;
     ASSERT_EQ(signOffs.size(), 1u);
-    EXPECT_EQ(signOffs[0].verdict, Verdict::Retest);
+    EXPECT_EQ(signOffs[0].decision, ReviewDecision::Retest);
     EXPECT_EQ(signOffs[0].reviewer, "Lab Lead");
 }
 
@@ -186,7 +186,7 @@ TEST(SessionStore, ReviewStoreRefusesEveryWrite)
     auto &store = *opened.value;
     EXPECT_EQ(store.appendReading(sampleReading(0, 0, 26)).code, StoreCode::ReadOnly);
     EXPECT_EQ(store.addNote("x", "y").code, StoreCode::ReadOnly);
-    EXPECT_EQ(store.addSignOff("x", Verdict::Accepted, "").code, StoreCode::ReadOnly);
+    EXPECT_EQ(store.addSignOff("x", ReviewDecision::Accepted, "").code, StoreCode::ReadOnly);
 }
 
 TEST(SessionStore, ResumesAnExistingSessionAndAppends)

@@ -210,7 +210,7 @@ TEST(SessionStoreMigration, ReviewOfVersionOneUpgradesACopyOnly)
 
     auto writing = SessionStore::openForWriting(path);
     ASSERT_TRUE(writing.ok()) << writing.message;
-    EXPECT_TRUE(writing.value->addSignOff("Lab Lead", Verdict::Accepted, "migrated file").ok());
+    EXPECT_TRUE(writing.value->addSignOff("Lab Lead", ReviewDecision::Accepted, "migrated file").ok());
     writing.value.reset();
     auto again = SessionStore::openForReview(path);
     ASSERT_TRUE(again.ok()) << again.message;

@@ -3,6 +3,7 @@
 // programs creating the same path cannot both win, and the loser removes nothing but its own
 // temporary file; a second writer is refused naming the holder's process and host; readers
 // neither block the writer nor see a half-written reading.
+#include "AtomicFile.h"
 #include "SessionTestSupport.h"
 
 #include <gtest/gtest.h>
@@ -104,6 +105,10 @@ TEST(SessionWriter, OfSimultaneousCreatorsExactlyOneWins)
     // Reproducer: two `run`s on one path at once; the loser's clean-up used to delete the
     // finished session. Eight processes start together on one path, several times over.
     TempFolder folder;
+    // Seeds this process's temporary-name generator before forking, as a program that wrote a
+    // file before starting children would: the children inherit its state and must still not
+    // pick the same temporary name.
+    (void)temporarySibling(folder.file("seed.sagline"));
     for (int round = 0; round < 5; ++round) {
         const std::string path = folder.file("race-" + std::to_string(round) + ".sagline");
         int go[2];
@@ -232,7 +237,14 @@ TEST(SessionWriter, ASecondWriterIsRefusedNamingTheHolder)
             EXPECT_NEAR(r.voltageV, 26.4 - r.currentA, 1e-9);
         std::this_thread::sleep_for(std::chrono::milliseconds(10));
     }
-    std::this_thread::sleep_for(std::chrono::milliseconds(100));
+    // The writer must have gone on appending beside the readers: wait (on a loaded machine,
+    // as long as a minute) until it has recorded the 20 readings it checks for itself.
+    for (int wait = 0; wait < 6000 && last < 20; ++wait) {
+        std::this_thread::sleep_for(std::chrono::milliseconds(10));
+        auto review = SessionStore::openForReview(path);
+        ASSERT_TRUE(review.ok()) << review.message;
+        last = review.value->readings().value.size();
+    }
     (void)!::write(done[1], "\n", 1);
     int status = 0;
     ::waitpid(pid, &status, 0);

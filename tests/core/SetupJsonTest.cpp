@@ -230,3 +230,32 @@ TEST(SetupJson, UnreadableFileIsAnError)
     ASSERT_FALSE(parsed.setup);
     EXPECT_NE(parsed.errors[0].rule.find("no such file"), std::string::npos) << parsed.errors[0].rule;
 }
+
+TEST(SetupJson, DesignNameIsOptionalTrimmedAndKept)
+{
+    json document = validSetup();
+    SetupParse parsed = parseSetupJson(document.dump());
+    ASSERT_TRUE(parsed.setup.has_value());
+    EXPECT_TRUE(parsed.setup->design.empty());
+    EXPECT_EQ(json::parse(setupToJson(*parsed.setup)).contains("design"), false);
+    document["design"] = "  PT-60 rev B ";
+    parsed = parseSetupJson(document.dump());
+    ASSERT_TRUE(parsed.setup.has_value());
+    EXPECT_EQ(parsed.setup->design, "PT-60 rev B");
+    const SetupParse again = parseSetupJson(setupToJson(*parsed.setup));
+    ASSERT_TRUE(again.setup.has_value());
+    EXPECT_EQ(again.setup->design, "PT-60 rev B");
+}
+
+TEST(SetupJson, BadDesignNamesAreNamed)
+{
+    json document = validSetup();
+    document["design"] = 60;
+    expectFieldError(document, "design", "text");
+    document["design"] = "   ";
+    expectFieldError(document, "design", "empty");
+    document["design"] = std::string(81, 'x');
+    expectFieldError(document, "design", "80");
+    document["design"] = "line one\nline two";
+    expectFieldError(document, "design", "printable");
+}

@@ -50,7 +50,7 @@ changelog_version=$(dpkg-parsechangelog -l "$packaging/doc/changelog" -S Version
     || fail "packaging/doc/changelog's latest entry is $changelog_version, the project is $version: add an entry"
 
 # --- Man pages -----------------------------------------------------------------------------------
-for page in "$packaging"/man/*.1; do
+for page in "$packaging"/man/*.1 "$packaging"/man/*.5; do
     name=$(basename "$page")
     grep -q "^\.TH .*\"Sagline $version\"" "$page" \
         || fail "$name: .TH does not name \"Sagline $version\""

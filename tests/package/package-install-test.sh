@@ -76,7 +76,9 @@ depends=$(dpkg-deb -f "$deb" Depends)
 
 # The package's paths, as they will be on the machine (./usr/bin/ -> /usr/bin).
 awk '{ print $6 }' "$work/contents" | sed -e 's|^\./|/|' -e 's|/$||' | grep -v '^$' | grep -v '^/$' >"$work/paths"
-expected=(/usr/share/$package/demo-setup.json /usr/share/doc/$package/copyright
+expected=(/usr/share/$package/demo-setup.json /usr/share/$package/lab-sheet-40va-toroid.json
+          /usr/share/$package/lab-sheet-12va-laminated.json /usr/share/man/man5/sagline-labsheet.5.gz
+          /usr/share/doc/$package/copyright
           /usr/share/doc/$package/changelog.gz /usr/share/mime/packages/sagline.xml)
 for program in "${programs[@]}"; do
     expected+=("/usr/bin/$program" "/usr/share/man/man1/$program.1.gz")

@@ -23,6 +23,8 @@ struct RunOptions {
     // full disk at that point. SIGXFSZ is ignored so the write returns an error instead of
     // killing it; stdout and stderr then come through pipes.
     std::optional<rlim_t> fileSizeLimit;
+    // Leave SIGXFSZ as a shell leaves it (default: kill), to check the program copes by itself.
+    bool defaultFileSizeSignal = false;
 };
 
 struct ProgramResult {
@@ -67,7 +69,8 @@ inline ProgramResult runProgram(const std::string &program, const std::vector<st
                 _exit(127);
             for (int fd : {outPipe[0], outPipe[1], errPipe[0], errPipe[1]})
                 close(fd);
-            std::signal(SIGXFSZ, SIG_IGN); // a write past the limit fails with EFBIG instead
+            // a write past the limit fails with EFBIG instead
+            std::signal(SIGXFSZ, options.defaultFileSizeSignal ? SIG_DFL : SIG_IGN);
             const rlimit limit{*options.fileSizeLimit, *options.fileSizeLimit};
             if (setrlimit(RLIMIT_FSIZE, &limit) != 0)
                 _exit(127);

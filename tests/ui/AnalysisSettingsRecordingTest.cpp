@@ -84,9 +84,9 @@ TEST(AnalysisSettingsRecording, StartingASweepAndChangingSettingsWriteRecords)
     EXPECT_EQ(records.back().rule, DecisionRule::Guarded);
     EXPECT_DOUBLE_EQ(records.back().regulationLimitPercent.value_or(0.0), 4.5);
 
-    // A value that does not parse is not stored; the message names the field.
+    // A value that does not parse is not stored; the message names the field by its label.
     typeInto(form->quantityField("verdict.regulation_limit_percent"), "lots");
-    ASSERT_TRUE(waitUntil([&] { return window->lastMessage().contains("verdict.regulation_limit_percent"); }))
+    ASSERT_TRUE(waitUntil([&] { return window->lastMessage().startsWith("Regulation limit: "); }))
         << window->lastMessage().toStdString();
     EXPECT_EQ(storedRecords(*store).size(), 2u);
 

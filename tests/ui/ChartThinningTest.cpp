@@ -3,6 +3,7 @@
 #include "UiTestSupport.h"
 
 #include "DisplayPoints.h"
+#include "InteractiveChartView.h"
 #include "ReadingsTableModel.h"
 #include "ResidualChart.h"
 #include "SweepWorkspace.h"

@@ -2,7 +2,7 @@
 // simulator started quiet (fixed seed, low noise, no copper heating), a window on the demo setup
 // with a short plan (5 load steps, 50 ms dwell) connected through the instruments panel as a
 // person does, and the operator's part of a step: set the simulator's load over its own link,
-// click "Load is set". Shared by the window's tests over real links.
+// click Record. Shared by the window's tests over real links.
 #pragma once
 
 #include "UiTestSupport.h"

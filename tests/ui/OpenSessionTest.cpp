@@ -5,6 +5,7 @@
 #include "UiTestSupport.h"
 
 #include "DemoSession.h"
+#include "InteractiveChartView.h"
 #include "ReadingsTableModel.h"
 #include "ResidualChart.h"
 #include "RunProgram.h"

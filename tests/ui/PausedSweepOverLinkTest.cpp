@@ -1,7 +1,7 @@
 // The operator pauses a sweep through the window over a real link (sagline-sim as its own
 // process, its two-channel meter on loopback TCP typed in as the LAN address), someone turns the
 // rheostat while it is paused, and the operator resumes: the window asks to check the step's
-// load again and reads nothing until "Load is set" is clicked; the step is then read at its
+// load again and reads nothing until Record is clicked; the step is then read at its
 // planned current, the sweep completes with every step once, and the session notes say so.
 #include "LinkSweep.h"
 
@@ -42,7 +42,7 @@ TEST(PausedSweepOverLink, AfterResumeTheStepWaitsForTheLoadToBeCheckedAndIsReadA
     ASSERT_TRUE(s.asksAgainAndHolds(QStringLiteral("resumed: check the load is still at about"), step));
     ASSERT_EQ(workspace->readings().size(), paused);
 
-    // The operator puts the load back and clicks "Load is set": the step is read at the planned
+    // The operator puts the load back and clicks Record: the step is read at the planned
     // current (twice the resistance would give about half of it).
     ASSERT_TRUE(s.recordStep(paused));
     EXPECT_NEAR(workspace->readings()[paused].currentA, step.currentA, 0.05 * step.currentA);

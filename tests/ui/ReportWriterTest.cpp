@@ -78,7 +78,7 @@ std::string makeDemoSession(const fs::path &folder)
     stop.measured = 66.2;
     stop.limitValue = 66.0;
     store.recordSafetyStop(stop);
-    store.addSignOff("M. Lindqvist", Verdict::Accepted, "checked against the plan; exclusion of step 5 agreed");
+    store.addSignOff("M. Lindqvist", ReviewDecision::Accepted, "checked against the plan; exclusion of step 5 agreed");
     return path.string();
 }
 

@@ -7,6 +7,7 @@
 #include "ReviewFilterModel.h"
 #include "ReviewOverlayChart.h"
 #include "ReviewTableModel.h"
+#include "ReviewTrendChart.h"
 #include "ReviewWindow.h"
 #include "UncertaintyBudget.h"
 
@@ -14,6 +15,7 @@
 #include <QRegularExpression>
 #include <QFile>
 #include <QSignalSpy>
+#include <QTabWidget>
 #include <QTableView>
 #include <QTest>
 
@@ -119,10 +121,10 @@ TEST(ReviewWindow, OverlaySignOffExportAndScreenshot)
     EXPECT_NE(window->summaryText().indexOf(QStringLiteral("Selection: 3")), -1) << window->summaryText().toStdString();
 
     const int row = window->filter()->mapToSource(window->filter()->index(proxyRowOf(*window, "DEMO-0002"), 0)).row();
-    EXPECT_EQ(window->signOff(row, {"Lab Lead", Verdict::Accepted, "consistent with the batch"}, true), QString());
+    EXPECT_EQ(window->signOff(row, {"Lab Lead", ReviewDecision::Accepted, "consistent with the batch"}, true), QString());
     EXPECT_EQ(window->model()->sessionRow(row).reviewState(), "accepted");
     EXPECT_NE(window->detail()->historyText().indexOf(QStringLiteral("Lab Lead")), -1);
-    EXPECT_FALSE(window->signOff(row, {"", Verdict::Accepted, ""}, true).isEmpty()) << "a reviewer is required";
+    EXPECT_FALSE(window->signOff(row, {"", ReviewDecision::Accepted, ""}, true).isEmpty()) << "a reviewer is required";
 
     const QString csv = QString::fromStdString(folder.file("review.csv"));
     EXPECT_EQ(window->exportCsv(csv), QString());
@@ -141,4 +143,73 @@ TEST(ReviewWindow, OverlaySignOffExportAndScreenshot)
     EXPECT_TRUE(window->grab().save(QStringLiteral("screenshots/review-window.png")));
     window->table()->clicked(window->filter()->index(proxyRowOf(*window, "DEMO-0002"), 0));
     EXPECT_TRUE(window->detail()->grab().save(QStringLiteral("screenshots/review-detail.png")));
+}
+
+TEST(ReviewWindow, GroupsThreeDesignsAndDrawsEachDesignsTrend)
+{
+    // A lab's folder: 20, 60 and 100 VA units of one family (scenario of our own), R tenfold apart.
+    TempFolder folder;
+    std::filesystem::create_directories(folder.file("lab"));
+    const struct {
+        double va;
+        double r;
+    } units[] = {{20, 6.10}, {60, 0.631}, {100, 0.301}, {20, 6.05}, {60, 0.628}, {100, 0.299}, {20, 6.12},
+                 {60, 0.634}, {100, 0.303}, {60, 0.630}, {60, 0.629}, {60, 0.702}};
+    int i = 0;
+    for (const auto &spec : units) {
+        DemoUnit unit;
+        unit.serial = "LAB-" + std::to_string(++i);
+        unit.resistanceOhm = spec.r;
+        unit.ratedPowerVa = spec.va;
+        unit.scatterV = 0.0005;
+        makeDemoSession(folder.file("lab/unit" + std::to_string(i) + ".sagline"), unit);
+    }
+    auto window = std::make_unique<ReviewWindow>();
+    QSignalSpy finished(window.get(), &ReviewWindow::scanFinished);
+    window->addInputs({QString::fromStdString(folder.file("lab"))});
+    ASSERT_TRUE(finished.wait(30000));
+    ASSERT_EQ(window->model()->rowCount(), 12);
+    const BatchStatistics &stats = window->model()->statistics();
+    ASSERT_EQ(stats.designs.size(), 3u);
+    // Within its design the 0.702 Ω unit is far (median 0.6305 Ω, MAD 0.002 Ω: z = 0.6745 × 0.0715 / 0.002 ≈ 24) and above the
+    // 60 VA control limit; across designs nothing else is flagged.
+    ASSERT_EQ(stats.farFromBatch.size(), 1u);
+    EXPECT_EQ(window->model()->sessionRow(static_cast<int>(stats.farFromBatch[0])).unitSerial, "LAB-12");
+    const QString summary = window->summaryText();
+    EXPECT_NE(summary.indexOf(QStringLiteral("never across designs")), -1) << summary.toStdString();
+    EXPECT_NE(summary.indexOf(QStringLiteral("20 VA 230/24 V 50 Hz toroidal copper")), -1);
+    // The design column groups the table; the verdict reads as the window and the reports spell it.
+    EXPECT_EQ(window->filter()->index(0, ReviewTableModel::Design).data().toString(),
+              window->filter()->index(1, ReviewTableModel::Design).data().toString());
+    EXPECT_EQ(window->model()->headerData(ReviewTableModel::Review, Qt::Horizontal).toString(), "Reviewer's decision");
+    EXPECT_EQ(window->filter()->index(0, ReviewTableModel::Verdict).data().toString(), "NOT JUDGED");
+    EXPECT_NE(window->filter()->index(0, ReviewTableModel::Date).data().toString().indexOf(QLatin1Char(':')), -1)
+        << "the start time, not only the date";
+
+    ReviewTrendChart *trend = window->trend();
+    ASSERT_EQ(trend->designCount(), 3);
+    int sixty = -1;
+    for (int d = 0; d < trend->designCount(); ++d) {
+        trend->showDesign(d);
+        if (trend->shownDesign().startsWith(QStringLiteral("60 VA")))
+            sixty = d;
+    }
+    ASSERT_GE(sixty, 0);
+    trend->showDesign(sixty);
+    EXPECT_EQ(trend->pointCount(), 6);
+    EXPECT_TRUE(trend->hasLimits());
+    EXPECT_EQ(trend->outsideCount(), 1) << trend->noteText().toStdString();
+    EXPECT_NE(trend->noteText().indexOf(QStringLiteral("LAB-12")), -1) << trend->noteText().toStdString();
+
+    QDir().mkpath(QStringLiteral("screenshots"));
+    window->tabs()->setCurrentWidget(trend);
+    for (const QSize size : {QSize(1366, 768), QSize(1600, 1000)}) {
+        window->resize(size);
+        window->show();
+        ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+        QTest::qWait(50);
+        const QString suffix = QStringLiteral("-%1x%2.png").arg(size.width()).arg(size.height());
+        EXPECT_TRUE(window->grab().save(QStringLiteral("screenshots/review-grouped-by-design") + suffix));
+        EXPECT_TRUE(trend->grab().save(QStringLiteral("screenshots/review-trend-chart") + suffix));
+    }
 }

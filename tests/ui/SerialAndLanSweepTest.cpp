@@ -1,7 +1,7 @@
 // Whole sweeps through the window against sagline-sim running as its own process: its two-channel
 // meter on a pseudo-terminal typed in as the serial port, or on loopback TCP typed in as the LAN
 // address; or its voltmeter on a pty and its separate ammeter on loopback TCP. The test plays the operator: it sets the simulator's load for each step over the
-// load's own SCPI link, then clicks the window's "Load is set" (Record) button. Wall time, with
+// load's own SCPI link, then clicks the window's Record button. Wall time, with
 // a short dwell, a quiet simulator (low noise) and no copper heating so a sweep takes seconds.
 // Also: the simulator killed mid-sweep.
 #include "LinkSweep.h"

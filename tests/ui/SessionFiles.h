@@ -138,7 +138,7 @@ inline SessionFile writeSession(const QString &folder, SessionKind kind)
         store.recordSweepEvent(SweepEventKind::Finished, plan.steps.back().index, {});
     if (kind == SessionKind::Signed) {
         store.setActor({"L. Lead", ""});
-        store.addSignOff("L. Lead", Verdict::Accepted, "as planned");
+        store.addSignOff("L. Lead", ReviewDecision::Accepted, "as planned");
     }
     return file;
 }

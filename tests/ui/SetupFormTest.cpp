@@ -24,7 +24,7 @@ TEST(SetupForm, WrongUnitIsShownUnderItsFieldAndBlocksThePlan)
     EXPECT_FALSE(power->error().isEmpty());
     EXPECT_FALSE(window->planPanel()->acceptButton()->isEnabled());
     // The message names the field (status line) and the rule (under the field).
-    EXPECT_TRUE(window->lastMessage().startsWith("nameplate.rated_power_va")) << window->lastMessage().toStdString();
+    EXPECT_TRUE(window->lastMessage().startsWith("Rated power: ")) << window->lastMessage().toStdString(); // the label, not the key
 
     typeInto(power, "60 VA");
     EXPECT_TRUE(power->error().isEmpty());

@@ -92,7 +92,7 @@ TEST(SimVanishesMidSweep, OverASerialPortTheSimComingBackResumesTheSweepAtTheSam
 {
     // The simulator restarted on the same pty link path (same serial numbers, the same meters): the
     // meter reconnects on its own; the window asks the operator to check the interrupted step's
-    // load again and reads nothing until "Load is set" is clicked; then the step is read again
+    // load again and reads nothing until Record is clicked; then the step is read again
     // and the sweep completes, every step once, in order.
     LinkSweep s;
     ASSERT_TRUE(s.connect(ReadingSource::SerialPort));

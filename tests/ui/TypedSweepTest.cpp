@@ -83,7 +83,7 @@ TEST(TypedSweep, NameplateToResultsByKeyboardAndMouse)
     EXPECT_TRUE(window->workspace()->readings().empty());
     EXPECT_FALSE(strip->currentField()->error().isEmpty());
     EXPECT_TRUE(strip->currentField()->error().contains("ammeter")) << strip->currentField()->error().toStdString();
-    EXPECT_TRUE(window->lastMessage().startsWith("reading.current_a")) << window->lastMessage().toStdString();
+    EXPECT_TRUE(window->lastMessage().startsWith("Current I: ")) << window->lastMessage().toStdString(); // the label, not the key
 
     // Eight readings: typed, then Enter in the voltage field records (keyboard only).
     for (std::size_t k = 0; k < plan->steps.size(); ++k) {

@@ -44,7 +44,8 @@ inline const QString testPerson = QStringLiteral("U. Tester");
 
 // Answers the window's questions as a person would: the name when asked who makes changes,
 // `reasons` in turn for anything else (nothing when they run out: the dialog is cancelled).
-// A typed value far from the step's expectation is confirmed only when `confirm` says so.
+// A typed value far from the step's expectation is confirmed only when `confirm` says so;
+// stopping the sweep is always confirmed (the person clicked Stop meaning it).
 inline void answerPrompts(MainWindow &window, QStringList reasons = {}, bool confirm = false,
                           QStringList *asked = nullptr)
 {
@@ -61,6 +62,8 @@ inline void answerPrompts(MainWindow &window, QStringList reasons = {}, bool con
     window.setConfirmPrompt([confirm, asked](const QString &title, const QString &text) {
         if (asked)
             asked->append(title + QStringLiteral(": ") + text);
+        if (title == QLatin1String("Stop the sweep"))
+            return true;
         return confirm;
     });
 }

@@ -1,0 +1,123 @@
+// fit --json streams its per-point array instead of building a tree of it. These checks hold the
+// stream to what the tree wrote: the demo's output from before the change (tests/data/
+// fit-json-before-streaming/, written by the tree-building sagline-cli) has every key and
+// number unchanged, and a 100 000-reading output is exactly the text nlohmann::json's dump(2)
+// makes of it (the tree's own formatting), its points equal to core's fit of the same file.
+#include "CliTestSupport.h"
+
+#include "CsvReadings.h"
+#include "FitSummary.h"
+
+#include <nlohmann/json.hpp>
+
+#include <cstdint>
+#include <cstdio>
+
+using namespace sagline;
+using namespace sagline::testing;
+
+namespace {
+
+const std::string beforeDir = std::string(SAGLINE_TEST_DATA_DIR) + "/fit-json-before-streaming/";
+
+class FitJsonStream : public ScratchFolderTest {
+protected:
+    FitJsonStream() : ScratchFolderTest("sagline-fit-json-") {}
+};
+
+// Every key of `before` is in `after` with an equal value (numbers compared exactly); keys
+// added since (other issues extend the output) are allowed.
+void expectContains(const nlohmann::json &before, const nlohmann::json &after, const std::string &at)
+{
+    if (before.is_object()) {
+        ASSERT_TRUE(after.is_object()) << at;
+        for (const auto &[key, value] : before.items()) {
+            ASSERT_TRUE(after.contains(key)) << at << "/" << key << " is gone";
+            expectContains(value, after[key], at + "/" + key);
+        }
+    } else if (before.is_array()) {
+        ASSERT_TRUE(after.is_array()) << at;
+        ASSERT_EQ(before.size(), after.size()) << at;
+        for (std::size_t i = 0; i < before.size(); ++i)
+            expectContains(before[i], after[i], at + "/" + std::to_string(i));
+    } else {
+        EXPECT_EQ(before, after) << at;
+    }
+}
+
+// A made-up sweep of n readings in shuffled order with a deterministic scatter (a linear
+// congruential generator, so the file is the same on every machine).
+std::string sweepCsv(std::size_t n)
+{
+    std::string text = "current_a,voltage_v,u_current_a,u_voltage_v\n";
+    std::uint64_t state = 20261202;
+    const auto next = [&state] {
+        state = state * 6364136223846793005ULL + 1442695040888963407ULL;
+        return static_cast<double>(state >> 11) / 9007199254740992.0; // [0, 1)
+    };
+    char line[96];
+    for (std::size_t i = 0; i < n; ++i) {
+        const double current = 3.33 * next();
+        const double voltage = 19.6 - 0.48 * current + 0.02 * (next() - 0.5);
+        std::snprintf(line, sizeof line, "%.6f,%.6f,0.002,0.01\n", current, voltage);
+        text += line;
+    }
+    return text;
+}
+
+} // namespace
+
+TEST_F(FitJsonStream, DemoOutputKeepsEveryKeyAndNumberOfTheTreeWriter)
+{
+    const struct {
+        const char *golden;
+        std::vector<std::string> args;
+    } cases[] = {{"demo-with-setup.json", {"fit", demoReadings, "--setup", demoSetup, "--json"}},
+                 {"demo-york.json", {"fit", demoReadings, "--method", "york", "--json"}}};
+    for (const auto &c : cases) {
+        const auto r = runProgram(cli, c.args);
+        ASSERT_EQ(r.exitCode, 0) << c.golden << ": " << r.err;
+        nlohmann::json before = nlohmann::json::parse(readWholeFile(beforeDir + c.golden));
+        nlohmann::json after = nlohmann::json::parse(r.out);
+        EXPECT_EQ(after["source"], demoReadings);
+        before.erase("source"); // the path as given on the command line
+        expectContains(before, after, c.golden);
+    }
+}
+
+TEST_F(FitJsonStream, LargeOutputIsTheTreesTextAndCoresNumbers)
+{
+    const std::string csv = write("sweep.csv", sweepCsv(100000));
+    const auto r = runProgram(cli, {"fit", csv, "--json"});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const nlohmann::json j = nlohmann::json::parse(r.out);
+    // dump(2) of the parsed document is the tree writer's text: same keys in the same order,
+    // same number formatting (shortest round trip), same indentation.
+    ASSERT_TRUE(r.out == j.dump(2) + "\n") << "the streamed text differs from the tree's";
+
+    const ReadingsCsvParse parsed = parseReadingsCsv(sweepCsv(100000));
+    ASSERT_TRUE(parsed.ok());
+    const FitSummary fit = fitReadings(parsed.readings, FitMethod::Ols);
+    ASSERT_TRUE(fit.ok());
+    const nlohmann::json &points = j["points"];
+    ASSERT_EQ(points.size(), fit.points.size());
+    for (std::size_t i = 0; i < points.size(); ++i) {
+        const PointFit &p = fit.points[i];
+        const nlohmann::json &q = points[i];
+        ASSERT_EQ(q["row"].get<std::size_t>(), p.row);
+        ASSERT_EQ(q["line"].get<int>(), parsed.lineNumbers[i]);
+        ASSERT_EQ(q["used"].get<bool>(), p.used);
+        ASSERT_EQ(q["outlier"].get<bool>(), p.outlier);
+        ASSERT_EQ(q["residual_v"].get<double>(), p.residualV) << i;
+        ASSERT_EQ(q["studentized"].is_null(), !p.studentized) << i;
+        if (p.studentized) {
+            ASSERT_EQ(q["studentized"].get<double>(), *p.studentized) << i;
+        }
+        ASSERT_EQ(q["screening_statistic"].is_null(), !p.screeningStatistic) << i;
+        if (p.screeningStatistic) {
+            ASSERT_EQ(q["screening_statistic"].get<double>(), *p.screeningStatistic) << i;
+        }
+    }
+    EXPECT_EQ(j["slope"].get<double>(), fit.slope);
+    EXPECT_EQ(j["intercept"].get<double>(), fit.intercept);
+}
