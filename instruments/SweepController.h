@@ -210,6 +210,7 @@ private:
     };
     std::optional<Retake> m_retake;   // the step being taken again, until its reading is committed
     std::set<int> m_recordedSteps;    // plan steps with a reading: the sweep goes to the first without
+    int m_firstUnrecorded = 0;        // plan position below which every step has a reading
     std::int64_t m_pausedAtMs = -1;   // clock time the current pause began, -1 when not paused
     int m_giveUpTimer = 0;            // pending give-up callback, 0 if none
     int m_linkReturnsThisStep = 0;    // restored links since the step's last recorded point

@@ -119,7 +119,7 @@ TEST(PrimaryReadingStore, SealCoversThePrimarySide)
         auto store = SessionStore::create(path, sampleSession());
         ASSERT_TRUE(store.ok());
         ASSERT_TRUE(store.value->appendReading(withPrimary(0, 0.0, 26.4)).ok());
-        ASSERT_TRUE(store.value->addSignOff("Lab Lead", Verdict::Accepted, "checked").ok());
+        ASSERT_TRUE(store.value->addSignOff("Lab Lead", ReviewDecision::Accepted, "checked").ok());
     }
     {
         auto review = SessionStore::openForReview(path);
