@@ -174,6 +174,20 @@ int fitSession(const FitArguments &args, FitReport &report)
     return exitSuccess;
 }
 
+// A CSV's fit failed: the message names the file's line as well as the row.
+int csvFitFailure(const FitArguments &args, const FitReport &report)
+{
+    std::string message = report.fit.message;
+    const std::size_t at = message.rfind("row ", 0) == 0 ? 4 : std::string::npos;
+    if (at != std::string::npos && !report.lineNumbers.empty()) {
+        const std::size_t row = std::stoul(message.substr(at));
+        if (row < report.lineNumbers.size())
+            message = "line " + std::to_string(report.lineNumbers[row]) + " (" + message.substr(0, message.find(':'))
+                      + ")" + message.substr(message.find(':'));
+    }
+    return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + message);
+}
+
 // A CSV with --setup: whole readings (the primary side, the supply referral), the nameplate, meters and
 // specification from the setup.
 int fitCsvWithSetup(const FitArguments &args, FitReport &report)
@@ -213,18 +227,8 @@ int fitCsvWithSetup(const FitArguments &args, FitReport &report)
     } else {
         report.fit = fitReadings(csv.readings, args.method, fitOptionsFor(report.meters));
     }
-    if (!report.fit.ok()) {
-        std::string message = report.fit.message;
-        // Name the CSV line as well as the row.
-        const std::size_t at = message.rfind("row ", 0) == 0 ? 4 : std::string::npos;
-        if (at != std::string::npos && !report.lineNumbers.empty()) {
-            const std::size_t row = std::stoul(message.substr(at));
-            if (row < report.lineNumbers.size())
-                message = "line " + std::to_string(report.lineNumbers[row]) + " (" + message.substr(0, message.find(':'))
-                          + ")" + message.substr(message.find(':'));
-        }
-        return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + message);
-    }
+    if (!report.fit.ok())
+        return csvFitFailure(args, report);
     if (!setup)
         return exitSuccess;
     report.hasNameplate = true;
@@ -275,18 +279,8 @@ int fitCsvLineOnly(const FitArguments &args, FitReport &report)
     report.lineNumbers = std::move(csv.lineNumbers);
     report.fit = fitReadings(csv.columns, args.method, fitOptionsFor(std::nullopt));
     csv.columns.clear(); // the fit has what it needs; the output needs only the line numbers
-    if (!report.fit.ok()) {
-        std::string message = report.fit.message;
-        // Name the CSV line as well as the row.
-        const std::size_t at = message.rfind("row ", 0) == 0 ? 4 : std::string::npos;
-        if (at != std::string::npos && !report.lineNumbers.empty()) {
-            const std::size_t row = std::stoul(message.substr(at));
-            if (row < report.lineNumbers.size())
-                message = "line " + std::to_string(report.lineNumbers[row]) + " (" + message.substr(0, message.find(':'))
-                          + ")" + message.substr(message.find(':'));
-        }
-        return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + message);
-    }
+    if (!report.fit.ok())
+        return csvFitFailure(args, report);
     return exitSuccess;
 }
 
