@@ -110,7 +110,7 @@ void readFuse(const json &locks, LabSheetLocks &out, FieldErrors &errors)
     const json &fuse = locks.at("required_fuse");
     for (const auto &item : fuse.items()) {
         if (item.key() != "rating_a" && item.key() != "type")
-            errors.push_back({path + "." + item.key(), "is not a fuse field; the fields are rating_a and type"});
+            errors.push_back({path + "." + printableKey(item.key()), "is not a fuse field; the fields are rating_a and type"});
     }
     if (auto rating = readQuantity(fuse, path, "rating_a", Unit::Ampere, errors)) {
         if (*rating <= 0.0 || *rating > 100.0)
@@ -145,7 +145,7 @@ void readSupervisorPin(const json &value, LabSheetLocks &out, FieldErrors &error
     const std::size_t before = errors.size();
     for (const auto &item : value.items()) {
         if (item.key() != "scheme" && item.key() != "iterations" && item.key() != "salt" && item.key() != "hash")
-            errors.push_back({path + "." + item.key(), "is not a PIN field; the fields are scheme, iterations, salt and hash"});
+            errors.push_back({path + "." + printableKey(item.key()), "is not a PIN field; the fields are scheme, iterations, salt and hash"});
     }
     if (isMissing(value, "scheme") || value.at("scheme") != supervisorPinScheme)
         errors.push_back({path + ".scheme", std::string("must be \"") + supervisorPinScheme + "\""});
@@ -187,7 +187,7 @@ void readLocks(const json &document, LabSheetLocks &out, FieldErrors &errors)
         const std::string &key = item.key();
         if (key != "plan_fixed" && key != "max_load_fraction" && key != "required_fuse" && key != "typed_in_only"
             && key != "supervisor_pin")
-            errors.push_back({"locks." + key, "is not a lock; the locks are plan_fixed, max_load_fraction, "
+            errors.push_back({"locks." + printableKey(key), "is not a lock; the locks are plan_fixed, max_load_fraction, "
                                               "required_fuse, typed_in_only and supervisor_pin"});
     }
     if (auto fixed = readBool(locks, "locks", "plan_fixed", errors))
@@ -248,7 +248,7 @@ LabSheetParse parseLabSheetJson(std::string_view text)
         const std::string &key = item.key();
         if (key != "format" && key != "version" && key != "title" && key != "setup" && key != "locks"
             && key != "instructions")
-            out.errors.push_back({key, "is not a lab-sheet field; the fields are format, version, title, setup, locks, "
+            out.errors.push_back({printableKey(key), "is not a lab-sheet field; the fields are format, version, title, setup, locks, "
                                        "instructions"});
     }
     if (isMissing(document, "format") || document.at("format") != labSheetFormatName) {

@@ -113,4 +113,9 @@ std::string jsonQuoted(std::string_view text)
     return jsonText(nlohmann::json(validUtf8(text)));
 }
 
+std::string printableKey(std::string_view key)
+{
+    return key.empty() ? std::string("\"\"") : printableText(key, 60);
+}
+
 } // namespace sagline

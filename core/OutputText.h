@@ -23,6 +23,9 @@ std::string printableText(std::string_view text, std::size_t maxBytes = std::str
 // (U+FFFD) instead of throwing, control characters escaped (\u001b).
 std::string jsonText(const nlohmann::json &value, int indent = -1);
 
+// A JSON object's key as a message names it: printable, cut, and "" when it is empty.
+std::string printableKey(std::string_view key);
+
 // One JSON string literal, quotes included (for writers that stream JSON without a tree).
 std::string jsonQuoted(std::string_view text);
 

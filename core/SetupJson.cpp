@@ -151,7 +151,7 @@ public:
             std::string list;
             for (const auto &name : known)
                 list += (list.empty() ? "" : ", ") + name;
-            error(item.key(), "is not a setup field (a typo?); known fields here: " + list);
+            error(printableKey(item.key()), "is not a setup field (a typo?); known fields here: " + list);
         }
     }
 
@@ -519,7 +519,8 @@ SetupParse parseSetupJson(std::string_view text)
     for (const auto &item : document.items()) {
         if (item.key() != "nameplate" && item.key() != "bench" && item.key() != "meters"
             && item.key() != "specification" && item.key() != "design")
-            out.errors.push_back({item.key(), "is not a setup section; the sections are design, nameplate, bench, "
+            out.errors.push_back({printableKey(item.key()),
+                                  "is not a setup section; the sections are design, nameplate, bench, "
                                               "meters and specification"});
     }
     readDesignName(document, out, setup.design);

@@ -126,6 +126,10 @@ int main(int argc, char **argv)
     if (takeScreenshot) {
         if (!line.isSet("session-folder"))
             window.setSessionFolder(pathOption("screenshot") + QStringLiteral("/sessions"));
+        // Nobody is at the keyboard: a question (a no-load reading far from the plan, say) is
+        // answered "no" and the sweep stops, instead of a dialog that waits for ever.
+        window.setConfirmPrompt([](const QString &, const QString &) { return false; });
+        window.setTextPrompt([](const QString &, const QString &) { return std::optional<QString>(); });
         window.resize(1600, 1000);
         window.show();
         // A sweep in progress: two steps still to go.

@@ -259,3 +259,18 @@ TEST(SetupJson, BadDesignNamesAreNamed)
     document["design"] = "line one\nline two";
     expectFieldError(document, "design", "printable");
 }
+
+TEST(SetupJson, AnEmptyOrUnprintableUnknownKeyIsNamedPrintably)
+{
+    // Found by the setup-reader fuzzer: an unknown key "" gave an error naming no field, and a key
+    // holding an escape character carried it into the message.
+    const SetupParse parsed = parseSetupJson(R"({"": 1, "a\u001bb": 2, "nameplate": {"": 3}})");
+    ASSERT_FALSE(parsed.setup);
+    bool namedEmpty = false;
+    for (const FieldError &error : parsed.errors) {
+        EXPECT_FALSE(error.field.empty()) << error.rule;
+        EXPECT_EQ(error.message().find('\x1b'), std::string::npos) << error.message();
+        namedEmpty = namedEmpty || error.field == "\"\"";
+    }
+    EXPECT_TRUE(namedEmpty);
+}
