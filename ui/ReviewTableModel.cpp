@@ -33,6 +33,28 @@ QString startedText(const std::string &utc)
     return text(utc.substr(0, 10) + " " + utc.substr(11, 8));
 }
 
+// The primary side's efficiency at rated load or no-load loss, as `compare` writes them.
+QString primaryText(const std::optional<UncertainValue> &value, const char *unit)
+{
+    if (!value)
+        return QStringLiteral("—");
+    return withU(true, value->value, value->expandedUncertainty, value->coverageFactor, unit);
+}
+
+QVariant primaryNumber(const std::optional<UncertainValue> &value)
+{
+    return value && std::isfinite(value->value) ? QVariant(value->value) : QVariant();
+}
+
+// Why a primary-side cell is blank.
+QString primaryMissing(const SessionRow &row, bool efficiency)
+{
+    if (!row.primarySide)
+        return QObject::tr("No primary-side readings in this session: the mains-side meters were not read");
+    return efficiency ? QObject::tr("Not computed: it needs the primary power at the loaded steps and a fit")
+                      : QObject::tr("Not computed: it needs the no-load step (step 0) with the primary power read");
+}
+
 QVariant number(bool ok, double value)
 {
     return ok && std::isfinite(value) ? QVariant(value) : QVariant();
@@ -112,6 +134,13 @@ QVariant ReviewTableModel::headerData(int section, Qt::Orientation orientation, 
         case ResistanceRef: return tr("Series resistance at the reference temperature, R_ref = R (T_k + T_ref)/(T_k + T_m), %1").arg(coverageNote());
         case NoLoadVoltage: return tr("No-load voltage V0 from the fit, %1").arg(coverageNote());
         case Regulation: return tr("Regulation at rated current, (V0 - V_fl)/V_fl × 100, %1").arg(coverageNote());
+        case EfficiencyAtRated:
+            return tr("Efficiency at rated load from the primary side, η = P2/P1 of the model V = V0 - R·I with the "
+                      "no-load loss (the same number as compare's efficiency_at_rated_percent), %1")
+                .arg(coverageNote());
+        case NoLoadLoss:
+            return tr("No-load (core) loss P0 at the rated primary voltage, from step 0 (compare's no_load_loss_w), %1")
+                .arg(coverageNote());
         case RobustZ:
             return tr("Modified z-score 0.6745 (R - median)/MAD; above 3.5 in magnitude the unit is far from the batch "
                       "(Iglewicz and Hoaglin 1993). %1")
@@ -140,6 +169,8 @@ QVariant ReviewTableModel::headerData(int section, Qt::Orientation orientation, 
     case ResistanceRef: return tr("R at %1 °C ± U").arg(m_referenceC);
     case NoLoadVoltage: return tr("V0 ± U");
     case Regulation: return tr("Regulation ± U");
+    case EfficiencyAtRated: return tr("η at rated ± U");
+    case NoLoadLoss: return tr("No-load loss ± U");
     case Verdict: return tr("Verdict");
     case Rule: return tr("Decision rule");
     case SafetyStops: return tr("Safety stops");
@@ -174,6 +205,8 @@ QVariant ReviewTableModel::display(const SessionRow &row, int rowIndex, int colu
     case Regulation:
         return f.regulationPercent ? withU(true, *f.regulationPercent, f.regulationUPercent, f.regulationK, "%")
                                    : QStringLiteral("—");
+    case EfficiencyAtRated: return primaryText(row.efficiencyAtRated(), "%");
+    case NoLoadLoss: return primaryText(row.noLoadLoss(), "W");
     case Verdict: return f.ok ? text(row.verdictWords()) : text(f.message);
     case Rule: return text(toString(f.rule));
     case SafetyStops: return static_cast<int>(row.safetyStops.size());
@@ -212,6 +245,8 @@ QVariant ReviewTableModel::sortValue(const SessionRow &row, int rowIndex, int co
     case ResistanceRef: return number(row.opened && f.resistanceRefOhm.has_value(), f.resistanceRefOhm.value_or(0.0));
     case NoLoadVoltage: return number(row.opened && f.ok, f.noLoadVoltageV);
     case Regulation: return number(row.opened && f.regulationPercent.has_value(), f.regulationPercent.value_or(0.0));
+    case EfficiencyAtRated: return primaryNumber(row.efficiencyAtRated());
+    case NoLoadLoss: return primaryNumber(row.noLoadLoss());
     case SafetyStops: return static_cast<int>(row.safetyStops.size());
     case LimitHits: return static_cast<int>(row.supervision.limitHits.size());
     case RobustZ: {
@@ -240,12 +275,16 @@ QVariant ReviewTableModel::data(const QModelIndex &index, int role) const
     case Qt::TextAlignmentRole: {
         const int c = index.column();
         const bool numeric = c == Points || c == Resistance || c == ResistanceRef || c == NoLoadVoltage
-                             || c == Regulation || c == SafetyStops || c == LimitHits || c == RobustZ;
+                             || c == Regulation || c == EfficiencyAtRated || c == NoLoadLoss || c == SafetyStops || c == LimitHits || c == RobustZ;
         return QVariant::fromValue(Qt::Alignment((numeric ? Qt::AlignRight : Qt::AlignLeft) | Qt::AlignVCenter));
     }
     case Qt::ToolTipRole:
         if (!row.opened)
             return text(row.path + ": " + row.problem);
+        if (index.column() == EfficiencyAtRated && !row.efficiencyAtRated())
+            return primaryMissing(row, true);
+        if (index.column() == NoLoadLoss && !row.noLoadLoss())
+            return primaryMissing(row, false);
         if (!row.notice.empty())
             return text(row.notice);
         if (index.column() == File)

@@ -17,6 +17,7 @@ class ReviewTableModel : public QAbstractTableModel {
 public:
     enum Column {
         Design, File, Unit, Date, Operator, Instruments, Points, Resistance, ResistanceRef, NoLoadVoltage, Regulation,
+        EfficiencyAtRated, NoLoadLoss, // from the primary side (compare's columns); "—" without primary readings
         Verdict, Rule, SafetyStops, Review, LabSheet, LimitHits, RobustZ, ColumnCount
     };
     static constexpr int SortRole = Qt::UserRole;      // numbers as double, text as text
