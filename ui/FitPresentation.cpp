@@ -110,6 +110,24 @@ void addAnalysisLines(const AnalysisResult &a, std::optional<double> plate, Resu
     view.budgets = budgetTables(a);
 }
 
+// Which readings the results above were fitted on (the supply's statement as the note) and,
+// on a referred fit, R of the readings as measured, so the supply's own share stays visible.
+void addFitBasisLines(bool referred, const SupplyAssessment &supply, const LineFit &live, const Setup *setup,
+                      QList<ResultLine> &lines)
+{
+    lines.append({QStringLiteral("fit_basis"), QObject::tr("Fitted on"),
+                  referred ? QObject::tr("referred to rated primary voltage") : QObject::tr("as measured"),
+                  QString::fromStdString(supply.statement) + (referred ? QObject::tr("; the chart shows the readings as measured")
+                                                                        : QString()),
+                  supply.drifted});
+    if (!referred)
+        return;
+    const LineResults raw = lineResults(summaryOfLiveFit(live), setup ? setup->meters : std::nullopt);
+    lines.append({QStringLiteral("series_resistance_as_measured"), QObject::tr("R as measured (not referred)"),
+                  withU(raw.seriesResistanceOhm, "Ω"),
+                  QObject::tr("%1; includes the supply's own impedance").arg(uNote(raw.seriesResistanceOhm))});
+}
+
 void setVerdict(const SpecificationVerdict &v, ResultsView &view)
 {
     view.state = verdictStateOf(v.outcome);
@@ -158,7 +176,8 @@ ResultsView resultsView(const ResultsInputs &in)
         return view;
     }
     QStringList problems;
-    const FitSummary summary = summaryOfLiveFit(*in.live);
+    const bool referred = in.referred && in.referred->ok() && in.supply && in.supply->fitVoltages == FitVoltages::Referred;
+    const FitSummary summary = referred ? *in.referred : summaryOfLiveFit(*in.live);
     AssessmentOptions options;
     options.rule = in.verdict.rule;
     options.temperatureConstant = in.verdict.constant;
@@ -187,17 +206,22 @@ ResultsView resultsView(const ResultsInputs &in)
                 problems << QString::fromStdString(error.message());
     }
     auto &lines = view.lines;
+    if (in.supply)
+        addFitBasisLines(referred, *in.supply, *in.live, in.setup, lines);
     if (in.plan)
         lines.append({QStringLiteral("series_resistance_planned"), QObject::tr("R expected from the nameplate"),
                       formatQuantity(in.plan->seriesResistanceOhm, Unit::Ohm), QObject::tr("planner's estimate")});
-    if (fit.residualSd)
+    if (summary.residualSdV)
         lines.append({QStringLiteral("residual_sd"), QObject::tr("Residual SD"),
-                      QString::fromStdString(formatWithUncertainty(*fit.residualSd, 0.0, "V")), QObject::tr("scatter about the line")});
-    if (fit.rSquared)
-        lines.append({QStringLiteral("r_squared"), QObject::tr("R²"), QString::number(*fit.rSquared, 'f', 6), QString()});
-    lines.append({QStringLiteral("points"), QObject::tr("Points in the fit"), QString::number(fit.n),
+                      QString::fromStdString(formatWithUncertainty(*summary.residualSdV, 0.0, "V")),
+                      QObject::tr("scatter about the line")});
+    if (summary.rSquared)
+        lines.append({QStringLiteral("r_squared"), QObject::tr("R²"), QString::number(*summary.rSquared, 'f', 6), QString()});
+    lines.append({QStringLiteral("points"), QObject::tr("Points in the fit"), QString::number(summary.n),
                   QObject::tr("every recorded point not excluded")});
-    if (in.batch)
+    if (referred)
+        addBatchLines(*in.referred, summary.n, lines); // the referred fit is whole: its screen is current
+    else if (in.batch)
         addBatchLines(*in.batch, fit.n, lines);
 
     // The verdict against the specification's limits, by the chosen ILAC-G8 rule.

@@ -423,9 +423,17 @@ void MainWindow::refreshFitViews()
                                 : ReadingsTableModel::ResidualFunction();
     m_residuals->setResidualFunction(residual, result.residualSd.value_or(0.0));
     m_readingsModel->setResidualFunction(residual);
+    const SweepWorkspace::PrimarySideView &primary = m_workspace->primarySide();
     ResultsInputs inputs;
     inputs.live = &fit;
     inputs.batch = &m_workspace->summary();
+    if (primary.supply.readingsWithVoltage > 0) {
+        inputs.supply = &primary.supply;
+        if (primary.supply.fitVoltages == FitVoltages::Referred && primary.fit.ok()) {
+            inputs.referred = &primary.fit;
+            inputs.batch = &primary.fit; // the outliers the results and the report name
+        }
+    }
     std::vector<QString> outlierTexts;
     for (std::size_t row : inputs.batch->outlierRows)
         outlierTexts.push_back(QString::fromStdString(outlierFlagText(*inputs.batch, row)));
@@ -437,7 +445,6 @@ void MainWindow::refreshFitViews()
     ResultsView view = resultsView(inputs);
     if (m_workspace->store())
         applyCompleteness(view, m_workspace->progress()); // "provisional (k of N steps)" until complete
-    const SweepWorkspace::PrimarySideView &primary = m_workspace->primarySide();
     if (m_workspace->setup())
         view.lines += primarySideLines(primary.supply, primary.result);
     const bool showEfficiency = primary.result && primary.result->hasPowerMeter;

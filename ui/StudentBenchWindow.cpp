@@ -150,9 +150,17 @@ void StudentBenchWindow::refreshFitViews()
                                 : ReadingsTableModel::ResidualFunction();
     m_residuals->setResidualFunction(residual, result.residualSd.value_or(0.0));
     m_readingsModel->setResidualFunction(residual);
+    const SweepWorkspace::PrimarySideView &primary = m_workspace->primarySide();
     ResultsInputs inputs;
     inputs.live = &fit;
     inputs.batch = &m_workspace->summary();
+    if (primary.supply.readingsWithVoltage > 0) {
+        inputs.supply = &primary.supply;
+        if (primary.supply.fitVoltages == FitVoltages::Referred && primary.fit.ok()) {
+            inputs.referred = &primary.fit; // the same results as the lab lead's window and the report
+            inputs.batch = &primary.fit;
+        }
+    }
     m_readingsModel->setOutliers(inputs.batch->outlierRows);
     inputs.setup = m_workspace->setup() ? &*m_workspace->setup() : nullptr;
     inputs.plan = m_workspace->plan() ? &*m_workspace->plan() : nullptr;
