@@ -118,6 +118,7 @@ Assessment assessFit(const FitSummary &fit, const Setup &setup, const Assessment
     if (options.temperatureConstant)
         input.temperatureConstant = *options.temperatureConstant;
     input.windingTemperatureC = options.windingTemperatureC;
+    input.referralGainUPercent = options.referralGainUPercent;
     if (options.windingTemperatureC)
         input.referenceTemperatureC = options.referenceTemperatureC;
     assessment.analysis = analyseFit(fit, input);

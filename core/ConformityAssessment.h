@@ -45,6 +45,8 @@ struct AssessmentOptions {
     std::optional<double> referenceTemperatureC; // T_ref, °C: results also referred to it
     bool judgeAtReferenceTemperature = true;     // false: T_ref is only a default; judge as measured
     std::optional<TemperatureConstant> temperatureConstant; // absent: from the winding material
+    // On a fit of readings referred to the rated primary: SupplyAssessment::referralGainUPercent.
+    std::optional<double> referralGainUPercent;
 };
 
 struct SpecificationVerdict {

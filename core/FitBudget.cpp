@@ -147,6 +147,10 @@ UncertainValue FitBudget::evaluate(double value, const ResultGradient &g) const
         add(am.offset > 0.0, typeB("ammeter offset (±" + formatQuantity(am.offset, "A", 3) + ")", "rectangular",
                                    rectangular(am.offset), "A", -m_r * g.dV0));
     }
+    if (m_input.referralGainUPercent && *m_input.referralGainUPercent > 0.0)
+        components.push_back(typeB("primary voltmeter gain, through the referral to the rated supply (u = "
+                                       + formatSignificant(*m_input.referralGainUPercent, 3) + " % of reading)",
+                                   "rectangular", *m_input.referralGainUPercent, "%", -m_v0 * g.dV0 / 100.0));
     if (g.dT != 0.0)
         components.push_back(typeB("winding temperature (u = " + formatSignificant(m_input.uWindingTemperatureC, 3) + " °C"
                                        + (m_input.windingTemperatureUncertaintyDefaulted ? ", default" : "") + ")",
@@ -161,8 +165,12 @@ std::string FitBudget::basis() const
     const std::string random = m_weighted ? "the readings' stated uncertainties" : "the readings' scatter";
     if (!m_input.meters)
         return "the meters' specifications were not recorded: the uncertainty is from " + random
-               + " only (systematic meter errors not included)";
-    return random + " and the meters' specifications (gain and offset common to every reading)";
+               + (m_input.referralGainUPercent
+                      ? std::string(" and the primary voltmeter's gain through the referral (the secondary meters' "
+                                    "systematic errors not included)")
+                      : std::string(" only (systematic meter errors not included)"));
+    return random + " and the meters' specifications (gain and offset common to every reading"
+           + (m_input.referralGainUPercent ? std::string(", the primary voltmeter's gain through the referral)") : std::string(")"));
 }
 
 } // namespace sagline

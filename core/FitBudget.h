@@ -14,6 +14,11 @@
 //   V0' = (1 + γ_V)V0 + o_V + R o_I and R' = (1 + γ_V)R/(1 + γ_I), so
 //   ∂f/∂γ_V = -(V0 f_V0 + R f_R), ∂f/∂o_V = -f_V0, ∂f/∂γ_I = R f_R, ∂f/∂o_I = -R f_V0.
 //   For regulation, a function of R/V0 only, ∂f/∂γ_V = 0: the voltmeter's gain cancels.
+// - the primary voltmeter's gain γ_1 on a fit of readings referred to the rated supply
+//   (SupplyReferral.h): V2 and I2 are both multiplied by V1,rated/((1 + γ_1)V1), so every referred
+//   point moves along the ray through the origin: V0' = V0/(1 + γ_1), R' = R (the ratio of the
+//   scaled V and I), and ∂f/∂γ_1 = -V0 f_V0. It does not cancel in regulation (V0 moves, R·I_rated
+//   does not) and is zero for R; rectangular (the meter's accuracy rule), ν = ∞.
 // - the winding temperature T_m (results referred to a reference temperature): ∂f/∂T_m.
 #pragma once
 

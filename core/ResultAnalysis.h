@@ -45,6 +45,9 @@ struct AnalysisInput {
     std::optional<double> referenceTemperatureC;   // T_ref, °C (e.g. 75)
     TemperatureConstant temperatureConstant = TemperatureConstant::CopperIeee;
     std::optional<MeterSpecs> meters;              // absent: the uncertainty is the scatter's only
+    // The fit was made on readings referred to the rated primary (SupplyReferral.h): the standard
+    // uncertainty of the primary voltmeter's common gain, % of reading (SupplyAssessment's).
+    std::optional<double> referralGainUPercent;
 };
 
 struct AnalysisResult {

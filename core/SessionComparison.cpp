@@ -221,10 +221,12 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     if (!winding)
         winding = meanOf(temperatures.value, TemperatureKind::Ambient);
     row.design = designName(*setup.setup);
-    row.figures = computeSessionFigures(row.fit, *setup.setup, winding,
-                                        figureOptionsFor(options, notes.value, row));
+    FigureOptions figureOptions = figureOptionsFor(options, notes.value, row);
+    figureOptions.referralGainUPercent = row.supply.referralGainUPercent;
+    row.figures = computeSessionFigures(row.fit, *setup.setup, winding, figureOptions);
     if (std::any_of(readings.value.begin(), readings.value.end(), [](const Reading &r) { return r.primary.hasAny(); })) {
-        const AnalysisInput analysisInput = analysisInputFor(*setup.setup);
+        AnalysisInput analysisInput = analysisInputFor(*setup.setup);
+        analysisInput.referralGainUPercent = row.supply.referralGainUPercent;
         row.primarySide = analysePrimarySide(readings.value, row.fit.ok() ? &row.fit : nullptr, &analysisInput,
                                              primarySideInputFor(setup.setup->nameplate));
     }

@@ -27,6 +27,7 @@ SessionFigures computeSessionFigures(const FitSummary &fit, const Setup &setup,
     assessmentOptions.windingTemperatureC = windingTemperatureC;
     assessmentOptions.referenceTemperatureC = options.referenceTemperatureC;
     assessmentOptions.judgeAtReferenceTemperature = options.judgeAtReferenceTemperature;
+    assessmentOptions.referralGainUPercent = options.referralGainUPercent;
     // Only the copper convention is a choice; an aluminium winding keeps 225 °C.
     if (setup.nameplate.windingMaterial == WindingMaterial::Copper)
         assessmentOptions.temperatureConstant = options.copperConstant;

@@ -23,6 +23,7 @@ struct FigureOptions {
     DecisionRule rule = DecisionRule::NonBinary;
     RegulationLimitChoice regulationLimit; // default: the setup's specification (none: not judged)
     bool judgeAtReferenceTemperature = false; // true once the reference temperature was chosen
+    std::optional<double> referralGainUPercent; // on a fit of referred readings: SupplyAssessment's
 };
 
 struct SessionFigures {

@@ -166,6 +166,7 @@ void analyse(SessionSummary &summary)
         // measured values unless someone set the temperature.
         assessment.judgeAtReferenceTemperature = !summary.referenceTemperatureDefaulted;
     }
+    assessment.referralGainUPercent = summary.supply.referralGainUPercent;
     Assessment result = assessFit(summary.fit, *summary.setup, assessment);
     if (!result.analysis.ok()) {
         summary.analysisProblem = result.analysis.errors.front().message();
@@ -182,7 +183,8 @@ void analysePrimary(SessionSummary &summary)
                                         [](const Reading &r) { return r.primary.hasAny(); });
     if (!summary.setup || !anyPrimary)
         return;
-    const AnalysisInput analysisInput = analysisInputFor(*summary.setup);
+    AnalysisInput analysisInput = analysisInputFor(*summary.setup);
+    analysisInput.referralGainUPercent = summary.supply.referralGainUPercent;
     PrimarySideInput input = primarySideInputFor(summary.setup->nameplate);
     input.regulationPowerFactor = summary.options.regulationPowerFactor;
     input.leading = summary.options.leadingPowerFactor;

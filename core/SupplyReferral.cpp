@@ -50,12 +50,17 @@ SupplyAssessment assessSupply(const std::vector<Reading> &readings, double rated
             continue;
         ++out.readingsWithVoltage;
         const double v = *reading.primary.voltageV;
+        if (reading.primary.uVoltageV && std::isfinite(*reading.primary.uVoltageV) && *reading.primary.uVoltageV >= 0.0) {
+            const double relative = *reading.primary.uVoltageV / v * 100.0;
+            out.referralGainUPercent = std::max(out.referralGainUPercent.value_or(0.0), relative);
+        }
         out.lowestV = out.lowestV ? std::min(*out.lowestV, v) : v;
         out.highestV = out.highestV ? std::max(*out.highestV, v) : v;
     }
     const std::string rated = volts(ratedPrimaryVoltageV);
     if (out.readingsWithVoltage == 0 || !(ratedPrimaryVoltageV > 0.0)) {
         out.fitVoltages = FitVoltages::Raw;
+        out.referralGainUPercent.reset();
         out.statement = "no primary voltage was measured: the supply is assumed to have held its rated " + rated +
                         " throughout, so any sag of the supply under load is inside the fitted R";
         return out;
@@ -75,6 +80,11 @@ SupplyAssessment assessSupply(const std::vector<Reading> &readings, double rated
                          std::to_string(out.readingsUsed) + " readings have no primary voltage and are used as read";
     if (out.drifted)
         out.statement += "; the supply drifted beyond the tolerance during the sweep";
+    if (wanted != FitVoltages::Referred)
+        out.referralGainUPercent.reset();
+    else if (!out.referralGainUPercent)
+        out.statement += "; no reading states the primary voltmeter's uncertainty, so its gain error (which scales V0 "
+                         "through the referral) is not in the budgets";
     return out;
 }
 

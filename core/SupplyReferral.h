@@ -36,6 +36,11 @@ struct SupplyAssessment {
     double tolerancePercent = defaultSupplyDriftTolerancePercent;
     bool drifted = false;                    // driftPercent above the tolerance
     FitVoltages fitVoltages = FitVoltages::Raw; // what the fit is made on
+    // On a referred fit: the standard uncertainty of the primary voltmeter's gain, % of reading,
+    // taken as the largest stated u(V1)/V1 of the used readings (the role's accuracy rule, gain
+    // and counts, treated as common to every reading: GUM 5.2; conservative by the counts).
+    // Empty on a raw fit or when no reading states u(V1) (the statement then says so).
+    std::optional<double> referralGainUPercent;
     std::string statement;                   // one sentence for every output
 };
 

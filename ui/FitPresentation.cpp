@@ -194,6 +194,8 @@ ResultsView resultsView(const ResultsInputs &in)
     if (!limitProblem.isEmpty())
         problems << limitProblem;
 
+    if (referred)
+        options.referralGainUPercent = in.supply->referralGainUPercent;
     std::optional<Assessment> assessment;
     if (in.setup)
         assessment = assessFit(summary, *in.setup, options);

@@ -486,7 +486,8 @@ const SweepWorkspace::PrimarySideView &SweepWorkspace::primarySide()
     m_primary.fit = m_primary.supply.fitVoltages == FitVoltages::Referred
                         ? fitReadings(referToRatedSupply(m_readings, ratedV1), FitMethod::Ols, fitOptionsFor(m_setup->meters))
                         : fitReadings(m_readings, FitMethod::Ols, fitOptionsFor(m_setup->meters));
-    const AnalysisInput analysisInput = analysisInputFor(*m_setup);
+    AnalysisInput analysisInput = analysisInputFor(*m_setup);
+    analysisInput.referralGainUPercent = m_primary.supply.referralGainUPercent;
     m_primary.result = analysePrimarySide(m_readings, m_primary.fit.ok() ? &m_primary.fit : nullptr, &analysisInput,
                                           primarySideInputFor(m_setup->nameplate));
     return m_primary;

@@ -238,6 +238,7 @@ int fitCsvWithSetup(const FitArguments &args, FitReport &report)
     options.windingTemperatureC = args.windingTemperatureC;
     options.referenceTemperatureC = args.referenceTemperatureC;
     options.temperatureConstant = args.temperatureConstant;
+    options.referralGainUPercent = report.supply ? report.supply->referralGainUPercent : std::nullopt;
     const auto sourceOf = [](bool given) { return given ? SettingSource::Option : SettingSource::Default; };
     report.ruleSource = sourceOf(args.rule.has_value());
     report.regulationLimitSource = sourceOf(args.regulationLimit.has_value());
@@ -253,7 +254,8 @@ int fitCsvWithSetup(const FitArguments &args, FitReport &report)
     const bool anyPrimary = std::any_of(csv.readings.begin(), csv.readings.end(),
                                         [](const Reading &r) { return r.primary.hasAny(); });
     if (anyPrimary) {
-        const AnalysisInput analysisInput = analysisInputFor(*setup);
+        AnalysisInput analysisInput = analysisInputFor(*setup);
+        analysisInput.referralGainUPercent = options.referralGainUPercent;
         PrimarySideInput input = primarySideInputFor(setup->nameplate);
         input.regulationPowerFactor = args.powerFactor;
         input.leading = args.leading;

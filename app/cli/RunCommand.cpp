@@ -488,11 +488,14 @@ int runRun(const Arguments &rawArgs)
             report.meters = recordedSetup.meters;
             report.hasNameplate = true;
             if (std::any_of(readings.value.begin(), readings.value.end(), [](const Reading &r) { return r.primary.hasAny(); })) {
-                const AnalysisInput analysisInput = analysisInputFor(recordedSetup);
+                AnalysisInput analysisInput = analysisInputFor(recordedSetup);
+                analysisInput.referralGainUPercent = report.supply->referralGainUPercent;
                 report.primarySide = analysePrimarySide(readings.value, &report.fit, &analysisInput,
                                                         primarySideInputFor(recordedSetup.nameplate));
             }
-            const Assessment assessment = assessFit(report.fit, recordedSetup, AssessmentOptions{});
+            AssessmentOptions assessmentOptions;
+            assessmentOptions.referralGainUPercent = report.supply->referralGainUPercent;
+            const Assessment assessment = assessFit(report.fit, recordedSetup, assessmentOptions);
             if (assessment.analysis.ok()) {
                 report.analysis = assessment.analysis;
                 report.verdict = assessment.verdict;
