@@ -113,8 +113,10 @@ void readFuse(const json &locks, LabSheetLocks &out, FieldErrors &errors)
             errors.push_back({path + "." + printableKey(item.key()), "is not a fuse field; the fields are rating_a and type"});
     }
     if (auto rating = readQuantity(fuse, path, "rating_a", Unit::Ampere, errors)) {
-        if (*rating <= 0.0 || *rating > 100.0)
-            errors.push_back({path + ".rating_a", "must be above 0 A and at most 100 A, got " + formatQuantity(*rating, "A")});
+        // The same range as a setup's bench.fuse: the sheet's fuse becomes the setup's.
+        if (!(*rating >= minFuseRatingA) || *rating > maxFuseRatingA)
+            errors.push_back({path + ".rating_a", "must be at least " + formatQuantity(minFuseRatingA, "A") + " and at most "
+                                                      + formatQuantity(maxFuseRatingA, "A") + ", got " + formatQuantity(*rating, "A")});
         else
             out.requiredFuse.ratingA = *rating;
     }

@@ -201,7 +201,6 @@ constexpr double minPrimaryVoltageV = 1.0;
 constexpr double minSecondaryVoltageV = 1e-3; // lower ones are left to the planner's unit hint (PlanGates)
 constexpr double minRheostatOhm = 0.1;
 constexpr double minRheostatPowerW = 0.1;
-constexpr double minFuseRatingA = 0.01;
 
 void readNameplate(const json &object, SetupParse &out, Nameplate &plate)
 {
@@ -296,7 +295,7 @@ void readFuse(const json &object, SetupParse &out, Bench &bench)
     FuseSpec fuse;
     fuse.ratingA = r.required("rating_a", Unit::Ampere);
     if (!r.isMissing("rating_a"))
-        r.inRange("rating_a", fuse.ratingA, minFuseRatingA, true, 100.0, " A");
+        r.inRange("rating_a", fuse.ratingA, minFuseRatingA, true, maxFuseRatingA, " A");
     if (r.isMissing("type")) {
         r.usedDefault("type");
     } else if (auto t = enumFromText(r, "type", fuseTypeNames)) {

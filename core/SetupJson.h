@@ -16,6 +16,11 @@ namespace sagline {
 // The longest design name a setup may carry ("design": "PT-60 rev B"), in bytes of UTF-8.
 inline constexpr std::size_t maxDesignNameBytes = 80;
 
+// A fuse's rating, wherever it is given (setup or lab sheet): below 10 mA no catalogue fuse
+// protects a mains transformer (common practice), above 100 A it is not a small transformer's.
+inline constexpr double minFuseRatingA = 0.01;
+inline constexpr double maxFuseRatingA = 100.0;
+
 struct SetupParse {
     std::optional<Setup> setup;            // set when errors is empty
     FieldErrors errors;                    // every invalid field, each naming the field and the rule

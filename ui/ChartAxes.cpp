@@ -40,9 +40,12 @@ namespace {
 // Ticks on round values every `step`, labelled with the fewest decimals that show each exactly.
 void setTicks(QValueAxis *axis, double first, double step)
 {
-    axis->setTickType(QValueAxis::TicksDynamic);
-    axis->setTickAnchor(first);
+    // Interval and anchor while the ticks are fixed, then dynamic: each setter lays the ticks
+    // out again, and the old interval over the new range can be millions of ticks.
+    axis->setTickType(QValueAxis::TicksFixed);
     axis->setTickInterval(step);
+    axis->setTickAnchor(first);
+    axis->setTickType(QValueAxis::TicksDynamic);
     int decimals = std::clamp(static_cast<int>(std::ceil(-std::log10(step) - 1e-9)), 0, 6);
     while (decimals < 6) {
         // Fewest decimals that show every tick exactly (0.25 needs two, 0.5 one, 5 none).
@@ -60,6 +63,8 @@ void applySpan(QValueAxis *axis, const AxisSpan &span, int ticks)
 {
     double low = span.low;
     double high = span.high;
+    if (!std::isfinite(low) || !std::isfinite(high))
+        return; // nothing drawable: keep the axis as it is
     if (!(high > low))
         high = low + 1.0;
     const double step = niceStep((high - low) / std::max(1, ticks - 1));
@@ -68,6 +73,11 @@ void applySpan(QValueAxis *axis, const AxisSpan &span, int ticks)
     // A little room beyond the outer ticks so markers on the edge (the open-circuit point at
     // I = 0) are drawn whole; ticks stay on round values anchored at the first one.
     const double pad = 0.015 * (last - first);
+    // Qt Charts lays the ticks out again on every range change with the interval it has: a
+    // range a million times the old interval (the residuals of the first two points are ~0, the
+    // third's are millivolts) would make it loop over a million ticks and freeze the window.
+    // Fixed ticks while the range changes, then the new interval.
+    axis->setTickType(QValueAxis::TicksFixed);
     axis->setRange(first - pad, last + pad);
     setTicks(axis, first, step);
 }
@@ -76,7 +86,7 @@ void retickShownRange(QValueAxis *axis, int ticks)
 {
     const double low = axis->min();
     const double high = axis->max();
-    if (!(high > low))
+    if (!(high > low) || !std::isfinite(low) || !std::isfinite(high))
         return;
     const double step = niceStep((high - low) / std::max(1, ticks - 1));
     setTicks(axis, std::ceil(low / step - 1e-9) * step, step);

@@ -151,8 +151,14 @@ void ResidualChart::flushNow()
     // the decimal point) would flatten every other residual into the zero line.
     double largest = 2.0 * m_residualSdV * millivoltsPerVolt;
     for (const auto &p : included)
-        largest = std::max(largest, std::abs(p.y));
-    if (!(largest > 0.0))
+        if (std::isfinite(p.y))
+            largest = std::max(largest, std::abs(p.y));
+    // Two points fit exactly: their residuals are rounding noise (1e-13 mV), not a scale to
+    // draw; below a microvolt the axis says nothing a meter could show.
+    constexpr double smallestShownMv = 1e-3;
+    if (!std::isfinite(largest) || largest < smallestShownMv)
+        largest = std::max(smallestShownMv, 2.0 * m_residualSdV * millivoltsPerVolt);
+    if (!std::isfinite(largest) || !(largest > 0.0))
         largest = 1.0;
     // The residual axis is symmetric about zero and rescales both ways: residuals shrink as
     // the fit settles, and a fixed wide axis would flatten them into the zero line.

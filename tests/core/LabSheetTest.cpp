@@ -137,6 +137,23 @@ TEST(LabSheet, LimitChecks)
     EXPECT_FALSE(checkFuseAgainstSheet(sheet, {1.0, FuseType::TimeLag}).allowed);
 }
 
+TEST(LabSheet, TheRequiredFuseHasTheSetupsRange)
+{
+    // Found by the setup-reader fuzzer: a sheet requiring a 2 mA fuse was accepted, but the
+    // fuse it hands to its setup is refused there (bench.fuse: at least 10 mA), so the sheet's
+    // own canonical form did not read back. One range for both.
+    nlohmann::json sheet = demoSheet();
+    sheet["locks"]["required_fuse"]["rating_a"] = "002 mA";
+    const LabSheetParse tiny = parseLabSheetJson(sheet.dump());
+    EXPECT_FALSE(tiny.sheet);
+    EXPECT_TRUE(hasError(tiny, "locks.required_fuse.rating_a", "at least 10.00 mA")) << allErrors(tiny);
+
+    sheet["locks"]["required_fuse"]["rating_a"] = "10 mA"; // the floor itself is a fuse rating
+    const LabSheetParse floor = parseLabSheetJson(sheet.dump());
+    for (const FieldError &error : floor.errors)
+        EXPECT_NE(error.field, "locks.required_fuse.rating_a") << error.message();
+}
+
 TEST(LabSheet, SupervisorPinIsReadCheckedAndRoundTrips)
 {
     nlohmann::json document = demoSheet();
