@@ -115,10 +115,12 @@ void addAnalysisLines(const AnalysisResult &a, std::optional<double> plate, Resu
 void addFitBasisLines(bool referred, const SupplyAssessment &supply, const LineFit &live, const Setup *setup,
                       QList<ResultLine> &lines)
 {
-    lines.append({QStringLiteral("fit_basis"), QObject::tr("Fitted on"),
-                  referred ? QObject::tr("referred to rated primary voltage") : QObject::tr("as measured"),
-                  QString::fromStdString(supply.statement) + (referred ? QObject::tr("; the chart shows the readings as measured")
-                                                                        : QString()),
+    // The value column does not wrap: a short word there, the whole statement in the note.
+    lines.append({QStringLiteral("fit_basis"), QObject::tr("Readings fitted"),
+                  referred ? QObject::tr("referred") : QObject::tr("as measured"),
+                  (referred ? QObject::tr("Referred to rated primary voltage: ") : QObject::tr("As measured: "))
+                      + QString::fromStdString(supply.statement)
+                      + (referred ? QObject::tr("; the chart shows the readings as measured") : QString()),
                   supply.drifted});
     if (!referred)
         return;

@@ -200,6 +200,12 @@ void ResultsPanel::setPlaceholder(const QString &text)
 }
 
 QString ResultsPanel::value(const QString &key) const { return m_values.value(key); }
+
+QString ResultsPanel::note(const QString &key) const
+{
+    const auto index = m_keys.indexOf(key);
+    return index >= 0 && index < m_rows.size() ? m_rows[index].note->text() : QString();
+}
 QString ResultsPanel::verdictText() const { return m_verdict->isHidden() ? QString() : m_verdict->text(); }
 
 } // namespace sagline

@@ -42,6 +42,7 @@ public:
     void setBudgets(std::vector<BudgetTable> budgets);
     const std::vector<BudgetTable> &budgets() const { return m_budgets; }
     QString value(const QString &key) const;
+    QString note(const QString &key) const; // the small text under a line's label
     QString verdictText() const;
     QPushButton *budgetButton() const { return m_budgetButton; }
 

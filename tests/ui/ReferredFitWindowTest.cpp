@@ -107,7 +107,9 @@ TEST(ReferredFitWindow, ShowsTheSameResultsAsTheSessionSummaryAndSaysWhichBasis)
     EXPECT_EQ(results->value(QStringLiteral("no_load_voltage")), shown(a.noLoadVoltageV, "V"));
     EXPECT_EQ(results->value(QStringLiteral("full_load_voltage")), shown(a.fullLoadVoltageV, "V"));
     EXPECT_EQ(results->value(QStringLiteral("regulation")), shown(a.regulationPercent, "%"));
-    EXPECT_EQ(results->value(QStringLiteral("fit_basis")), QStringLiteral("referred to rated primary voltage"));
+    EXPECT_EQ(results->value(QStringLiteral("fit_basis")), QStringLiteral("referred"));
+    EXPECT_TRUE(results->note(QStringLiteral("fit_basis")).startsWith(QStringLiteral("Referred to rated primary voltage")))
+        << results->note(QStringLiteral("fit_basis")).toStdString();
     // The raw R stays available, and is the raw fit's.
     EXPECT_EQ(results->value(QStringLiteral("series_resistance_as_measured")), shown(r.seriesResistanceOhm, "Ω"));
 }
