@@ -8,7 +8,11 @@
 #include "SessionSummary.h"
 #include "UncertaintyFormat.h"
 
+#include <QDir>
+#include <QHeaderView>
 #include <QSignalSpy>
+#include <QTableView>
+#include <QTest>
 
 #include <gtest/gtest.h>
 
@@ -104,4 +108,15 @@ TEST(ReviewPrimaryColumns, EfficiencyAndNoLoadLossAsTheSessionSummaryGivesThem)
         }
     }
     EXPECT_EQ(checked, 2);
+
+    // SAGLINE_SCREENSHOT_DIR: the table scrolled to the new columns, at 1366x768.
+    const QString shots = qEnvironmentVariable("SAGLINE_SCREENSHOT_DIR");
+    if (!shots.isEmpty()) {
+        window->resize(1366, 768);
+        window->show();
+        ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+        window->table()->scrollTo(window->table()->model()->index(0, ReviewTableModel::NoLoadLoss));
+        QDir().mkpath(shots);
+        EXPECT_TRUE(window->grab().save(shots + QStringLiteral("/review-efficiency-columns-1366x768.png")));
+    }
 }
