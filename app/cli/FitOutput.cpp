@@ -47,7 +47,9 @@ std::string rowLabel(std::size_t row, const std::vector<int> &lineNumbers)
 {
     if (row < lineNumbers.size())
         return "line " + std::to_string(lineNumbers[row]);
-    return "row " + std::to_string(row);
+    // A session's readings are numbered from 1, as the window, the report and
+    // `exclude --reading N` number them.
+    return "reading " + std::to_string(row + 1);
 }
 
 std::string methodTitle(FitMethod method)

@@ -113,3 +113,25 @@ TEST_F(SessionCommands, ExportRefusesFilesThatAreNotSessions)
     EXPECT_EQ(usage.exitCode, 2);
     EXPECT_NE(usage.err.find("usage"), std::string::npos);
 }
+
+TEST_F(SessionCommands, FitOnASessionNamesAFlaggedReadingByItsNumberFromOne)
+{
+    // Invented readings on V = 19.6 V - 0.48 Ohm * I with a ±2 mV pattern; the fifth reads 0.3 V
+    // low. The window, the report and `exclude --reading N` count readings from 1: so does fit.
+    std::string csv = "current_a,voltage_v\n";
+    const double pattern[] = {0.002, -0.001, 0.0, -0.002, 0.001, 0.002, -0.001, 0.0, -0.002};
+    for (int i = 0; i < 9; ++i) {
+        const double current = 0.4 * i;
+        const double voltage = 19.6 - 0.48 * current + pattern[i] - (i == 4 ? 0.3 : 0.0);
+        csv += std::to_string(current) + "," + std::to_string(voltage) + "\n";
+    }
+    const std::string data = write("flag.csv", csv);
+    ASSERT_EQ(runProgram(cli, {"import", data, "--setup", demoSetup, "-o", path("flag.sagline")}).exitCode, 0);
+    const auto r = runProgram(cli, {"fit", path("flag.sagline")});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    EXPECT_NE(r.out.find("flagged: reading 5"), std::string::npos) << r.out;
+    EXPECT_EQ(r.out.find("row 4"), std::string::npos) << r.out;
+    // The CSV itself names the file's line (the header is line 1).
+    const auto direct = runProgram(cli, {"fit", data});
+    EXPECT_NE(direct.out.find("line 6"), std::string::npos) << direct.out;
+}
