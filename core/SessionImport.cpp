@@ -3,6 +3,7 @@
 #include "CsvReadings.h"
 #include "PlanJson.h"
 #include "Planner.h"
+#include "ReadingPlausibility.h"
 #include "SessionStore.h"
 #include "SetupJson.h"
 
@@ -42,6 +43,8 @@ ImportResult importReadingsCsv(const ImportRequest &request)
         return invalid(csv.errors, request.csvPath);
     if (csv.readings.empty())
         return invalid({{"file", "no readings after the header line"}}, request.csvPath);
+    if (FieldErrors implausible = implausibleReadings(csv.readings, csv.lineNumbers, *setup.setup); !implausible.empty())
+        return invalid(implausible, request.csvPath);
 
     NewSession session;
     session.setupJson = setupToJson(*setup.setup);

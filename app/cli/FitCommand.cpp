@@ -14,6 +14,7 @@
 #include "ConformityAssessment.h"
 #include "CsvReadings.h"
 #include "OutputText.h"
+#include "ReadingPlausibility.h"
 #include "SessionSummary.h"
 #include "SetupJson.h"
 
@@ -212,6 +213,12 @@ int fitCsvWithSetup(const FitArguments &args, FitReport &report)
             return exitInvalidInput;
         }
         setup = parsed.setup;
+        // A fit and a verdict must not rest on a reading no sweep of this nameplate could take.
+        const FieldErrors implausible = implausibleReadings(csv.readings, csv.lineNumbers, *setup);
+        for (const FieldError &e : implausible)
+            std::cerr << "sagline-cli fit: " << args.dataPath << ", " << e.message() << '\n';
+        if (!implausible.empty())
+            return exitInvalidInput;
     } else if (args.regulationLimit || args.windingTemperatureC || args.rule) {
         return invalid("--rule, --regulation-limit and the temperatures need the nameplate: give --setup SETUP.json "
                        "or a session");

@@ -135,3 +135,21 @@ TEST_F(SessionCommands, FitOnASessionNamesAFlaggedReadingByItsNumberFromOne)
     const auto direct = runProgram(cli, {"fit", data});
     EXPECT_NE(direct.out.find("line 6"), std::string::npos) << direct.out;
 }
+
+TEST_F(SessionCommands, AReadingNoSweepCouldTakeIsRefusedByImportAndFit)
+{
+    // 417 typed for 0.417 A (invented readings against the demo nameplate): import writes no
+    // session and fit with the nameplate gives no verdict; both name the line.
+    const std::string data = write("typo.csv", "current_a,voltage_v\n0,19.6\n0.5,19.3\n417,18.9\n1.5,18.8\n");
+    const auto imported = runProgram(cli, {"import", data, "--setup", demoSetup, "-o", path("typo.sagline")});
+    EXPECT_EQ(imported.exitCode, 2);
+    EXPECT_NE(imported.err.find("line 4, column current_a"), std::string::npos) << imported.err;
+    EXPECT_FALSE(std::filesystem::exists(path("typo.sagline")));
+    const auto fitted = runProgram(cli, {"fit", data, "--setup", demoSetup});
+    EXPECT_EQ(fitted.exitCode, 2);
+    EXPECT_NE(fitted.err.find("line 4, column current_a"), std::string::npos) << fitted.err;
+    EXPECT_EQ(fitted.out.find("Verdict"), std::string::npos) << fitted.out;
+    // Marked excluded, the row comes in and stays out of the fit.
+    const std::string marked = write("marked.csv", "current_a,voltage_v,excluded\n0,19.6,\n0.5,19.3,\n417,18.9,yes\n1.5,18.8,\n");
+    EXPECT_EQ(runProgram(cli, {"import", marked, "--setup", demoSetup, "-o", path("marked.sagline")}).exitCode, 0);
+}
