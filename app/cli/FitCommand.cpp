@@ -21,6 +21,7 @@
 #include <algorithm>
 #include <cmath>
 #include <iostream>
+#include <optional>
 
 namespace sagline::cli {
 
@@ -189,11 +190,12 @@ int csvFitFailure(const FitArguments &args, const FitReport &report)
     return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + message);
 }
 
-// A CSV with --setup: whole readings (the primary side, the supply referral), the nameplate, meters and
-// specification from the setup.
-int fitCsvWithSetup(const FitArguments &args, FitReport &report)
+// A CSV the fit cannot use: its errors (each naming the line), or a method whose columns are
+// missing. The exit code to return, or nothing when the fit can go on. For whole readings and
+// for the fit's columns alike.
+template <typename CsvParse>
+std::optional<int> refuseCsv(const FitArguments &args, const CsvParse &csv)
 {
-    const ReadingsCsvParse csv = loadReadingsCsv(args.dataPath);
     if (!csv.ok()) {
         for (const FieldError &e : csv.errors)
             std::cerr << "sagline-cli fit: " << args.dataPath << ", " << e.message() << '\n';
@@ -203,6 +205,16 @@ int fitCsvWithSetup(const FitArguments &args, FitReport &report)
         return invalid(args.dataPath + ": --method wls needs the column u_voltage_v (standard uncertainty of each voltage)");
     if (args.method == FitMethod::York && !(csv.hasVoltageUncertainty && csv.hasCurrentUncertainty))
         return invalid(args.dataPath + ": --method york needs the columns u_current_a and u_voltage_v (standard uncertainties)");
+    return std::nullopt;
+}
+
+// A CSV with --setup: whole readings (the primary side, the supply referral), the nameplate, meters and
+// specification from the setup.
+int fitCsvWithSetup(const FitArguments &args, FitReport &report)
+{
+    const ReadingsCsvParse csv = loadReadingsCsv(args.dataPath);
+    if (const auto refused = refuseCsv(args, csv))
+        return *refused;
     report.lineNumbers = csv.lineNumbers;
     std::optional<Setup> setup;
     if (!args.setupPath.empty()) {
@@ -276,15 +288,8 @@ int fitCsvLineOnly(const FitArguments &args, FitReport &report)
 {
     // Only the fit's columns of each reading are kept: a million rows take 37 MB, not 150.
     ReadingColumnsCsvParse csv = loadReadingColumnsCsv(args.dataPath);
-    if (!csv.ok()) {
-        for (const FieldError &e : csv.errors)
-            std::cerr << "sagline-cli fit: " << args.dataPath << ", " << e.message() << '\n';
-        return exitInvalidInput;
-    }
-    if (args.method == FitMethod::Wls && !csv.hasVoltageUncertainty)
-        return invalid(args.dataPath + ": --method wls needs the column u_voltage_v (standard uncertainty of each voltage)");
-    if (args.method == FitMethod::York && !(csv.hasVoltageUncertainty && csv.hasCurrentUncertainty))
-        return invalid(args.dataPath + ": --method york needs the columns u_current_a and u_voltage_v (standard uncertainties)");
+    if (const auto refused = refuseCsv(args, csv))
+        return *refused;
     report.lineNumbers = std::move(csv.lineNumbers);
     report.fit = fitReadings(csv.columns, args.method, fitOptionsFor(std::nullopt));
     csv.columns.clear(); // the fit has what it needs; the output needs only the line numbers
