@@ -1,6 +1,7 @@
 #include "ChartLegend.h"
 
-#include <QGridLayout>
+#include "FlowLayout.h"
+
 #include <QHBoxLayout>
 #include <QLabel>
 #include <QPainter>
@@ -10,14 +11,14 @@ namespace sagline {
 namespace {
 constexpr int iconWidth = 28;
 constexpr int iconHeight = 14;
-constexpr int entriesPerRow = 3;
 } // namespace
 
-ChartLegend::ChartLegend(QWidget *parent) : QWidget(parent), m_layout(new QGridLayout(this))
+ChartLegend::ChartLegend(QWidget *parent) : QWidget(parent), m_layout(new FlowLayout(this))
 {
     m_layout->setContentsMargins(8, 0, 8, 2);
-    m_layout->setHorizontalSpacing(14);
-    m_layout->setVerticalSpacing(2);
+    QSizePolicy policy(QSizePolicy::Preferred, QSizePolicy::Preferred);
+    policy.setHeightForWidth(true); // a narrow chart gets a taller legend
+    setSizePolicy(policy);
     setAutoFillBackground(true);
 }
 
@@ -49,9 +50,7 @@ void ChartLegend::addEntry(const QPixmap &icon, const QString &text)
     row->addWidget(iconLabel);
     auto *label = new QLabel(text);
     row->addWidget(label);
-    row->addStretch(1);
-    const auto index = static_cast<int>(m_entries.size());
-    m_layout->addWidget(entry, index / entriesPerRow, index % entriesPerRow);
+    m_layout->addWidget(entry);
     m_entries << text;
 }
 
@@ -87,6 +86,16 @@ void ChartLegend::addFill(const QBrush &brush, const QPen &edge, const QString &
     painter.drawRect(QRectF(1, 1, iconWidth - 2, iconHeight - 2));
     painter.end();
     addEntry(icon, text);
+}
+
+void ChartLegend::resizeEvent(QResizeEvent *event)
+{
+    QWidget::resizeEvent(event);
+    // Splitters look at minimum sizes, not at height-for-width: the rows this width needs become
+    // the minimum, so the chart above is never drawn over its legend.
+    const int needed = m_layout->heightForWidth(width());
+    if (needed != minimumHeight())
+        setMinimumHeight(needed);
 }
 
 QStringList ChartLegend::entries() const { return m_entries; }

@@ -1,4 +1,5 @@
-// A legend under a chart (three entries a row, so it never forces the chart wider), drawn by us so each entry shows exactly the marker, line style
+// A legend under a chart, its entries flowing onto as many rows as the chart's width needs (so
+// it never forces the chart wider), drawn by us so each entry shows exactly the marker, line style
 // or fill its series uses (Qt Charts' own legend cannot show a light marker on a pen-less
 // series).
 #pragma once
@@ -8,9 +9,10 @@
 #include <QPen>
 #include <QWidget>
 
-class QGridLayout;
 
 namespace sagline {
+
+class FlowLayout;
 
 class ChartLegend : public QWidget {
     Q_OBJECT
@@ -23,9 +25,12 @@ public:
     void addFill(const QBrush &brush, const QPen &edge, const QString &text);
     QStringList entries() const;
 
+protected:
+    void resizeEvent(QResizeEvent *event) override;
+
 private:
     void addEntry(const QPixmap &icon, const QString &text);
-    QGridLayout *m_layout;
+    FlowLayout *m_layout;
     QStringList m_entries;
 };
 

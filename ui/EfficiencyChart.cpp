@@ -47,7 +47,7 @@ EfficiencyChart::EfficiencyChart(QWidget *parent)
     add(m_copperPoints, m_axisLoss);
     m_view->setChart(m_chart);
     m_view->setRenderHint(QPainter::Antialiasing);
-    m_view->setMinimumSize(320, 200);
+    m_view->setMinimumSize(320, 150);
     m_view->setFocusPolicy(Qt::NoFocus);
     m_view->setAccessibleName(tr("Efficiency and losses chart"));
     m_status->setWordWrap(true);

@@ -21,6 +21,7 @@ InstrumentsPanel::InstrumentsPanel(QWidget *parent)
 {
     auto *layout = new QVBoxLayout(this);
     auto *form = new QFormLayout;
+    form->setRowWrapPolicy(QFormLayout::WrapLongRows); // a narrow panel puts the label above the list, never hides it
     m_source->addItem(tr("Virtual bench (simulated transformer and meters)"), int(ReadingSource::VirtualBench));
     m_source->addItem(tr("SCPI meter on a serial port"), int(ReadingSource::SerialPort));
     m_source->addItem(tr("SCPI meter on the LAN (raw socket)"), int(ReadingSource::Lan));

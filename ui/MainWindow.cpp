@@ -10,6 +10,7 @@
 #include "PlanPanel.h"
 #include "QuantityField.h"
 #include "ReadingsTableModel.h"
+#include "ReadingsTableView.h"
 #include "EfficiencyChart.h"
 #include "PrimarySideLines.h"
 #include "ResidualChart.h"
@@ -59,25 +60,6 @@ QString formatWaited(std::int64_t milliseconds)
 }
 constexpr int bandGridPoints = 150; // the band is drawn on a grid, not one point per reading
 
-// Columns as wide as their widest likely content, so step to residual fit the panel without
-// scrolling; measuring the rows instead (ResizeToContents) walks every row on each insert.
-void sizeReadingsColumns(QTableView *view)
-{
-    const QFontMetrics metrics = view->fontMetrics();
-    const int padding = 2 * metrics.horizontalAdvance(QLatin1Char('M'));
-    const auto widthOf = [&](const QString &sample, int column) {
-        const QString header = view->model()->headerData(column, Qt::Horizontal).toString();
-        return std::max(metrics.horizontalAdvance(sample), metrics.horizontalAdvance(header)) + padding;
-    };
-    auto *header = view->horizontalHeader();
-    header->resizeSection(ReadingsTableModel::Step, widthOf(QStringLiteral("99"), ReadingsTableModel::Step));
-    header->resizeSection(ReadingsTableModel::Time, widthOf(QStringLiteral("00:00:00"), ReadingsTableModel::Time));
-    header->resizeSection(ReadingsTableModel::Current, widthOf(QStringLiteral("10.0000 A"), ReadingsTableModel::Current));
-    header->resizeSection(ReadingsTableModel::Voltage, widthOf(QStringLiteral("250.000 V"), ReadingsTableModel::Voltage));
-    header->resizeSection(ReadingsTableModel::Residual, widthOf(QStringLiteral("−12.3 mV"), ReadingsTableModel::Residual));
-    header->resizeSection(ReadingsTableModel::Flags, widthOf(QStringLiteral("▲ outlier"), ReadingsTableModel::Flags));
-    header->resizeSection(ReadingsTableModel::Excluded, widthOf(QStringLiteral("excluded: drift"), ReadingsTableModel::Excluded));
-}
 } // namespace
 
 MainWindow::MainWindow(QWidget *parent)
@@ -85,7 +67,7 @@ MainWindow::MainWindow(QWidget *parent)
       m_nextStep(new NextStepStrip), m_leftTabs(new QTabWidget), m_setupForm(new SetupForm),
       m_planPanel(new PlanPanel), m_instruments(new InstrumentsPanel), m_chart(new VoltageCurrentChart(m_points)),
       m_residuals(new ResidualChart(m_points)), m_efficiency(new EfficiencyChart),
-      m_topChartSplitter(new QSplitter(Qt::Horizontal)), m_results(new ResultsPanel), m_readingsModel(new ReadingsTableModel(this)),
+      m_lowerCharts(new QTabWidget), m_results(new ResultsPanel), m_readingsModel(new ReadingsTableModel(this)),
       m_readingsView(new QTableView), m_mainSplitter(new QSplitter(Qt::Horizontal)),
       m_chartSplitter(new QSplitter(Qt::Vertical)), m_rightSplitter(new QSplitter(Qt::Vertical)),
       m_statusMessage(new ElidedLabel), m_statusSource(new ElidedLabel),
@@ -107,6 +89,10 @@ MainWindow::MainWindow(QWidget *parent)
         return QFileDialog::getSaveFileName(this, title, suggested, filter);
     };
     createLayout();
+    m_planPanel->setFieldLabels([this](const QString &key) {
+        const QString label = m_setupForm->labelFor(key);
+        return label.isEmpty() ? key : label;
+    });
     createActions();
     wireWorkspace();
     guardWheelInside(this); // no combo or spin box changes under a scrolling wheel
@@ -138,6 +124,8 @@ MainWindow::MainWindow(QWidget *parent)
 
 MainWindow::~MainWindow() = default;
 
+bool MainWindow::efficiencyOffered() const { return m_lowerCharts->isTabVisible(1); }
+
 void MainWindow::createLayout()
 {
     auto *setupScroll = new QScrollArea;
@@ -147,26 +135,19 @@ void MainWindow::createLayout()
     m_leftTabs->addTab(m_planPanel, tr("&2 Plan"));
     m_leftTabs->addTab(m_instruments, tr("&3 Instruments"));
 
-    m_topChartSplitter->addWidget(m_chart);
-    m_topChartSplitter->addWidget(m_efficiency);
-    m_topChartSplitter->setStretchFactor(0, 3);
-    m_topChartSplitter->setStretchFactor(1, 2);
-    m_topChartSplitter->setChildrenCollapsible(false);
-    m_efficiency->hide(); // until a reading carries the primary power
-    m_chartSplitter->addWidget(m_topChartSplitter);
-    m_chartSplitter->addWidget(m_residuals);
+    // The efficiency chart shares the lower half with the residuals (a tab of its own) rather
+    // than standing beside the V–I chart: side by side, the two charts and their legends made
+    // the window wider than a 1366 px screen.
+    m_lowerCharts->addTab(m_residuals, tr("Residuals"));
+    m_lowerCharts->addTab(m_efficiency, tr("Efficiency and losses"));
+    m_lowerCharts->setTabVisible(1, false); // until a reading carries the primary power
+    m_lowerCharts->setDocumentMode(true);
+    m_chartSplitter->addWidget(m_chart);
+    m_chartSplitter->addWidget(m_lowerCharts);
     m_chartSplitter->setStretchFactor(0, 3);
-    m_chartSplitter->setStretchFactor(1, 1);
+    m_chartSplitter->setStretchFactor(1, 2);
 
-    m_readingsView->setModel(m_readingsModel);
-    m_readingsView->setSelectionBehavior(QAbstractItemView::SelectRows);
-    m_readingsView->setSelectionMode(QAbstractItemView::SingleSelection);
-    // Row headers are the readings' numbers, as the report, the export and sagline-cli count them.
-    m_readingsView->verticalHeader()->setSectionResizeMode(QHeaderView::Fixed);
-    m_readingsView->verticalHeader()->setDefaultSectionSize(m_readingsView->fontMetrics().height() + 6);
-    m_readingsView->horizontalHeader()->setStretchLastSection(true);
-    sizeReadingsColumns(m_readingsView);
-    m_readingsView->setAccessibleName(tr("Readings"));
+    setUpReadingsTable(m_readingsView, m_readingsModel);
     m_readingsView->setContextMenuPolicy(Qt::ActionsContextMenu);
     auto *resultsScroll = new QScrollArea;
     resultsScroll->setWidget(m_results);
@@ -184,7 +165,7 @@ void MainWindow::createLayout()
     m_mainSplitter->setStretchFactor(2, 3);
     m_mainSplitter->setChildrenCollapsible(false);
     m_leftTabs->setMinimumWidth(400);
-    m_rightSplitter->setMinimumWidth(380);
+    m_rightSplitter->setMinimumWidth(readingsTableMinimumWidth(m_readingsView));
     m_mainSplitter->setSizes({460, 760, 480}); // replaced by the saved layout, if any
     m_rightSplitter->setSizes({670, 230});
 
@@ -448,7 +429,7 @@ void MainWindow::refreshFitViews()
     if (m_workspace->setup())
         view.lines += primarySideLines(primary.supply, primary.result);
     const bool showEfficiency = primary.result && primary.result->hasPowerMeter;
-    m_efficiency->setVisible(showEfficiency);
+    m_lowerCharts->setTabVisible(1, showEfficiency);
     if (showEfficiency)
         m_efficiency->setResult(primary.result, primary.fit,
                                 inputs.plan && !inputs.plan->steps.empty() ? inputs.plan->steps.back().currentA : 0.0);

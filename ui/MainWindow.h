@@ -78,6 +78,8 @@ public:
     VoltageCurrentChart *chart() const { return m_chart; }
     ResidualChart *residualChart() const { return m_residuals; }
     EfficiencyChart *efficiencyChart() const { return m_efficiency; }
+    QTabWidget *lowerCharts() const { return m_lowerCharts; }           // residuals | efficiency and losses
+    bool efficiencyOffered() const;                                    // its tab is shown (readings carry primary power)
     ResultsPanel *results() const { return m_results; }
     CautionStrip *caution() const { return m_caution; }
     SessionBand *sessionBand() const { return m_band; }
@@ -185,8 +187,8 @@ private:
     DisplayPoints m_points; // what both charts draw, sorted once for both
     VoltageCurrentChart *m_chart;
     ResidualChart *m_residuals;
-    EfficiencyChart *m_efficiency;   // beside the V–I chart, shown once readings carry primary power
-    QSplitter *m_topChartSplitter;   // the V–I chart and the efficiency chart side by side
+    EfficiencyChart *m_efficiency;   // a tab beside the residuals, shown once readings carry primary power
+    QTabWidget *m_lowerCharts;       // under the V–I chart: the residuals, the efficiency and losses
     ResultsPanel *m_results;
     ReadingsTableModel *m_readingsModel;
     QTableView *m_readingsView;

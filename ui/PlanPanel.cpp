@@ -8,6 +8,16 @@
 
 #include <QHBoxLayout>
 #include <QHeaderView>
+#include <QSplitter>
+#include <QStyle>
+#include <QStyleOptionViewItem>
+#include <QAbstractItemDelegate>
+
+#include <algorithm>
+#include <QScrollBar>
+#include <QScrollArea>
+#include <QDialogButtonBox>
+#include <QDialog>
 #include <QLabel>
 #include <QPushButton>
 #include <QTableView>
@@ -33,25 +43,58 @@ PlanPanel::PlanPanel(QWidget *parent)
       m_model(new PlanTableModel(this)), m_accept(new QPushButton(tr("Accept plan and start the sweep"))),
       m_acceptAction(new QAction(tr("&Accept plan and start the sweep"), this)),
       m_blocked(new QLabel), m_safeSteps(new QPushButton(tr("Use only the safe steps"))),
-      m_override(new QPushButton(tr("Override the limits…")))
+      m_override(new QPushButton(tr("Override the limits…"))), m_everyColumn(new QPushButton(tr("Every column…")))
 {
-    auto *layout = new QVBoxLayout(this);
     m_summary->setTextFormat(Qt::RichText);
     m_summary->setWordWrap(true);
     m_summary->setTextInteractionFlags(Qt::TextSelectableByMouse);
     m_warnings->setWordWrap(true);
     m_warnings->setStyleSheet(QStringLiteral("QLabel { color: #b35000; font-weight: bold; }"));
     m_warnings->hide();
+    // The figures scroll up and down above the step table; nothing scrolls sideways.
+    auto *figures = new QWidget;
+    auto *figuresLayout = new QVBoxLayout(figures);
+    figuresLayout->setContentsMargins(0, 0, 0, 0);
+    figuresLayout->addWidget(m_summary);
+    figuresLayout->addWidget(m_warnings);
+    figuresLayout->addStretch(1);
+    auto *figuresScroll = new QScrollArea;
+    figuresScroll->setWidget(figures);
+    figuresScroll->setWidgetResizable(true);
+    figuresScroll->setFrameShape(QFrame::NoFrame);
+    figuresScroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
     m_table->setModel(m_model);
     m_table->verticalHeader()->hide();
     m_table->setSelectionBehavior(QAbstractItemView::SelectRows);
     m_table->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    m_table->horizontalHeader()->setStretchLastSection(true);
+    m_table->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
     m_table->setAccessibleName(tr("Planned load steps"));
+    // The panel shows what the person at the bench acts on; the loads, losses and margins are
+    // one click away, in a table wide enough for every column.
+    for (int column : {PlanTableModel::LoadPower, PlanTableModel::OutputVa, PlanTableModel::CopperLoss,
+                       PlanTableModel::PrimaryCurrent, PlanTableModel::VaMargin})
+        m_table->setColumnHidden(column, true);
+    connect(m_everyColumn, &QPushButton::clicked, this, &PlanPanel::showEveryColumn);
+    m_everyColumn->setToolTip(tr("The step table with the load power, output VA, copper loss, primary current and VA margin"));
     m_accept->setEnabled(false);
     m_accept->setMinimumHeight(36);
-    layout->addWidget(m_summary);
-    layout->addWidget(m_warnings);
-    layout->addWidget(m_table, 1);
+    auto *split = new QSplitter(Qt::Vertical);
+    split->addWidget(figuresScroll);
+    auto *steps = new QWidget;
+    auto *stepsLayout = new QVBoxLayout(steps);
+    stepsLayout->setContentsMargins(0, 0, 0, 0);
+    stepsLayout->addWidget(m_table, 1);
+    auto *tableButtons = new QHBoxLayout;
+    tableButtons->addStretch(1);
+    tableButtons->addWidget(m_everyColumn);
+    stepsLayout->addLayout(tableButtons);
+    split->addWidget(steps);
+    split->setChildrenCollapsible(false);
+    split->setStretchFactor(0, 1);
+    split->setStretchFactor(1, 1);
+    auto *layout = new QVBoxLayout(this);
+    layout->addWidget(split, 1);
     m_blocked->setWordWrap(true);
     m_blocked->setStyleSheet(QStringLiteral("QLabel { color: #b35000; font-weight: bold; }"));
     m_blocked->hide();
@@ -112,11 +155,12 @@ void PlanPanel::setPlan(const std::optional<Plan> &plan)
     if (!p.defaultsUsed.empty()) {
         QStringList names;
         for (const auto &name : p.defaultsUsed)
-            names << QString::fromStdString(name);
+            names << (m_fieldLabel ? m_fieldLabel(QString::fromStdString(name)) : QString::fromStdString(name));
         html += QStringLiteral("<p><i>") + tr("Defaults used (common practice): %1").arg(names.join(QStringLiteral(", ")).toHtmlEscaped())
                 + QStringLiteral("</i></p>");
     }
     m_summary->setText(html);
+    fitTableWidth();
     QStringList warnings;
     for (const auto &warning : p.warnings)
         warnings << QStringLiteral("▲ ") + QString::fromStdString(warning);
@@ -145,5 +189,50 @@ void PlanPanel::setAccepted(bool accepted)
 }
 
 QString PlanPanel::summaryText() const { return m_summary->text(); }
+
+void PlanPanel::fitTableWidth()
+{
+    // The panel is at least as wide as the shown columns' contents, so none needs a sideways
+    // scroll bar (the last column stretches over what is left).
+    int width = 2 * m_table->frameWidth() + m_table->style()->pixelMetric(QStyle::PM_ScrollBarExtent) + 4;
+    QStyleOptionViewItem option;
+    option.initFrom(m_table);
+    option.widget = m_table;
+    for (int column = 0; column < m_model->columnCount(); ++column) {
+        if (m_table->isColumnHidden(column))
+            continue;
+        int widest = m_table->horizontalHeader()->sectionSizeHint(column);
+        for (int row = 0; row < m_model->rowCount(); ++row) // a plan has tens of steps, not thousands
+            widest = std::max(widest, m_table->itemDelegate()->sizeHint(option, m_model->index(row, column)).width());
+        m_table->resizeColumnToContents(column);
+        width += std::max(widest + int(m_table->showGrid()), m_table->columnWidth(column));
+    }
+    m_table->setMinimumWidth(width);
+}
+
+void PlanPanel::showEveryColumn()
+{
+    auto *dialog = new QDialog(this);
+    dialog->setAttribute(Qt::WA_DeleteOnClose);
+    dialog->setWindowTitle(tr("Planned load steps, every column"));
+    auto *table = new QTableView;
+    table->setModel(m_model);
+    table->verticalHeader()->hide();
+    table->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    table->setSelectionBehavior(QAbstractItemView::SelectRows);
+    table->setAccessibleName(tr("Planned load steps, every column"));
+    auto *buttons = new QDialogButtonBox(QDialogButtonBox::Close);
+    connect(buttons, &QDialogButtonBox::rejected, dialog, &QDialog::close);
+    auto *layout = new QVBoxLayout(dialog);
+    layout->addWidget(table);
+    layout->addWidget(buttons);
+    table->resizeColumnsToContents();
+    int width = table->frameWidth() * 2 + table->verticalScrollBar()->sizeHint().width();
+    for (int column = 0; column < m_model->columnCount(); ++column)
+        width += table->columnWidth(column);
+    dialog->resize(width + layout->contentsMargins().left() + layout->contentsMargins().right(), 420);
+    m_everyColumnDialog = dialog;
+    dialog->show();
+}
 
 } // namespace sagline

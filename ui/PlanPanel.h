@@ -4,7 +4,10 @@
 
 #include "Planner.h"
 
+#include <QPointer>
 #include <QWidget>
+
+#include <functional>
 
 class QAction;
 class QLabel;
@@ -31,6 +34,13 @@ public:
     QPushButton *overrideButton() const { return m_override; }
     QTableView *table() const { return m_table; }
     QString summaryText() const;
+    // How a setup key ("bench.fuse_factor") is named on the form, for "Defaults used".
+    void setFieldLabels(std::function<QString(const QString &)> labelFor) { m_fieldLabel = std::move(labelFor); }
+    QPushButton *everyColumnButton() const { return m_everyColumn; }
+    QWidget *everyColumnDialog() const { return m_everyColumnDialog; } // the last one opened, while open
+
+public slots:
+    void showEveryColumn(); // the step table with every column, in a window of its own
 
 signals:
     void acceptRequested();
@@ -38,6 +48,7 @@ signals:
     void overrideRequested();
 
 private:
+    void fitTableWidth();
     QLabel *m_summary;
     QLabel *m_warnings;
     QTableView *m_table;
@@ -47,6 +58,9 @@ private:
     QLabel *m_blocked;
     QPushButton *m_safeSteps;
     QPushButton *m_override;
+    QPushButton *m_everyColumn;
+    QPointer<QWidget> m_everyColumnDialog;
+    std::function<QString(const QString &)> m_fieldLabel;
     bool m_isBlocked = false;
     bool m_hasPlan = false;
 };

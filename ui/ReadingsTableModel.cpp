@@ -103,6 +103,20 @@ QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
         return {};
     const Row &row = m_rows[static_cast<std::size_t>(index.row())];
     const Reading &r = row.reading;
+    if (index.column() == Remarks && (role == Qt::DisplayRole || role == Qt::ToolTipRole || role == Qt::ForegroundRole)) {
+        if (role == Qt::ForegroundRole)
+            return data(index.siblingAtColumn(Flags), role).isValid() ? data(index.siblingAtColumn(Flags), role)
+                                                                      : data(index.siblingAtColumn(Excluded), role);
+        QStringList parts;
+        for (const int column : {Flags, Excluded, Note}) {
+            QString part = data(index.siblingAtColumn(column), role).toString();
+            if (part.isEmpty() && role == Qt::ToolTipRole)
+                part = data(index.siblingAtColumn(column), Qt::DisplayRole).toString();
+            if (!part.isEmpty())
+                parts << part;
+        }
+        return parts.join(role == Qt::ToolTipRole ? QStringLiteral("\n") : QStringLiteral(" · "));
+    }
     if (role == Qt::TextAlignmentRole) {
         const int c = index.column();
         return (c == Current || c == Voltage || c == Residual || c == Step) ? int(Qt::AlignRight | Qt::AlignVCenter)
@@ -149,6 +163,7 @@ QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
             return tr("superseded: %1").arg(row.reason); // a retake of its step replaced it
         return r.excluded ? tr("excluded: %1").arg(row.reason) : QString();
     case Note: return row.note;
+    case Remarks: break; // above
     }
     return {};
 }
@@ -168,6 +183,7 @@ QVariant ReadingsTableModel::headerData(int section, Qt::Orientation orientation
     case Flags: return tr("Flags");
     case Excluded: return tr("Fit");
     case Note: return tr("Note");
+    case Remarks: return tr("Remarks");
     }
     return {};
 }

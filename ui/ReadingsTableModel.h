@@ -16,7 +16,9 @@ namespace sagline {
 class ReadingsTableModel : public QAbstractTableModel {
     Q_OBJECT
 public:
-    enum Column { Step, Time, Current, Voltage, Residual, Flags, Excluded, Note, ColumnCount };
+    // Remarks joins Flags, Excluded and Note in one column, so the bench window's narrow table
+    // shows them all without a sideways scroll bar (the three stay for tests and wide views).
+    enum Column { Step, Time, Current, Voltage, Residual, Flags, Excluded, Note, Remarks, ColumnCount };
     using ResidualFunction = std::function<double(double, double)>; // (I, V) -> residual, V
 
     explicit ReadingsTableModel(QObject *parent = nullptr);

@@ -5,6 +5,7 @@
 #include "FitPresentation.h"
 #include "NextStepStrip.h"
 #include "ReadingsTableModel.h"
+#include "ReadingsTableView.h"
 #include "ResidualChart.h"
 #include "ResultsPanel.h"
 #include "SweepWorkspace.h"
@@ -66,13 +67,7 @@ void StudentBenchWindow::createLayout()
     chartSplitter->setStretchFactor(0, 3);
     chartSplitter->setStretchFactor(1, 1);
 
-    m_readingsView->setModel(m_readingsModel);
-    m_readingsView->setSelectionBehavior(QAbstractItemView::SelectRows);
-    m_readingsView->setEditTriggers(QAbstractItemView::NoEditTriggers);
-    m_readingsView->verticalHeader()->setSectionResizeMode(QHeaderView::Fixed);
-    m_readingsView->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
-    m_readingsView->horizontalHeader()->setStretchLastSection(true);
-    m_readingsView->setAccessibleName(tr("Readings"));
+    setUpReadingsTable(m_readingsView, m_readingsModel);
     auto *resultsScroll = new QScrollArea;
     resultsScroll->setWidget(m_results);
     resultsScroll->setWidgetResizable(true);
@@ -81,7 +76,7 @@ void StudentBenchWindow::createLayout()
     rightSplitter->addWidget(m_readingsView);
     rightSplitter->setStretchFactor(0, 3);
     rightSplitter->setStretchFactor(1, 2);
-    rightSplitter->setMinimumWidth(380);
+    rightSplitter->setMinimumWidth(readingsTableMinimumWidth(m_readingsView));
 
     auto *mainSplitter = new QSplitter(Qt::Horizontal);
     mainSplitter->addWidget(sheetScroll);

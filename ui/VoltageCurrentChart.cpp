@@ -66,7 +66,7 @@ VoltageCurrentChart::VoltageCurrentChart(const DisplayPoints &points, QWidget *p
 
     m_view->setChart(m_chart); // the view owns the chart
     m_view->setRenderHint(QPainter::Antialiasing);
-    m_view->setMinimumSize(400, 260);
+    m_view->setMinimumSize(400, 220);
     m_view->setAccessibleName(tr("Voltage against current chart"));
     connect(m_view, &InteractiveChartView::viewChangedByUser, this, [this] {
         m_userView = true;

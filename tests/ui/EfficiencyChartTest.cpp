@@ -1,4 +1,4 @@
-// The efficiency-and-losses chart beside the V–I chart: hidden until readings carry the primary
+// The efficiency-and-losses chart, a tab beside the residuals under the V–I chart: hidden until readings carry the primary
 // power, then filled from core's analysis after a virtual-bench sweep with its mains-side
 // analyser; the results panel gains the primary-side rows. Set SAGLINE_SCREENSHOT_DIR to keep
 // PNGs of the window and the chart (light and dark) at 1366x768 and 1600x1000.
@@ -45,11 +45,12 @@ TEST(EfficiencyChartView, VirtualBenchSweepFillsTheChartAndTheResults)
         window->resize(size);
         window->show();
         ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
-        EXPECT_FALSE(window->efficiencyChart()->isVisible()) << "no primary readings yet";
+        EXPECT_FALSE(window->efficiencyOffered()) << "no primary readings yet";
         const DemoResult demo = runVirtualBenchDemo(*window);
         ASSERT_TRUE(demo.ok) << demo.message.toStdString();
         window->flushCharts();
-        QTRY_VERIFY_WITH_TIMEOUT(window->efficiencyChart()->isVisible(), 10000);
+        QTRY_VERIFY_WITH_TIMEOUT(window->efficiencyOffered(), 10000);
+        window->lowerCharts()->setCurrentWidget(window->efficiencyChart());
         const auto &primary = window->workspace()->primarySide();
         ASSERT_TRUE(primary.result);
         EXPECT_EQ(window->efficiencyChart()->drawnEfficiencyPoints(), demo.points - 1); // every loaded step
