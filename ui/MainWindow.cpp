@@ -455,7 +455,7 @@ void MainWindow::handleStep(int step, const QString &instruction)
     const auto &plan = m_workspace->plan();
     QString heading = tr("Step %1").arg(step);
     if (plan && !plan->steps.empty())
-        heading = tr("Step %1 of %2").arg(step).arg(plan->steps.back().index);
+        heading = stepHeading(step, plan->steps.front().index, plan->steps.back().index);
     m_nextStep->setInstruction(heading, instruction);
 }
 
@@ -514,11 +514,12 @@ void MainWindow::showSweepState()
         break;
     case SweepState::Settling: {
         const std::int64_t remainingMs = controller->settlingRemainingMs();
-        const std::int64_t seconds = (std::max<std::int64_t>(0, remainingMs) + 999) / 1000; // whole seconds, rounded up
+        // Tenths, as the dwell is given: "reading in 0.8 s of 1.2 s" (the strip updates every 250 ms).
+        const double remainingS = static_cast<double>(std::max<std::int64_t>(0, remainingMs)) / 1000.0;
+        const double dwellS = static_cast<double>(controller->options().dwellMs) / 1000.0;
         m_nextStep->setSweepState(StripState::Settling, {},
-                                  tr("⏳ Settling: reading in %1 s (dwell %2 s)")
-                                      .arg(seconds)
-                                      .arg(QString::number(static_cast<double>(controller->options().dwellMs) / 1000.0, 'g', 3)));
+                                  tr("Settling: reading in %1 s of %2 s")
+                                      .arg(QString::number(remainingS, 'f', 1), QString::number(dwellS, 'f', 1)));
         break;
     }
     case SweepState::SettingLoad:

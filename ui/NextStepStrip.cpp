@@ -13,6 +13,11 @@
 
 namespace sagline {
 
+QString stepHeading(int step, int firstStep, int lastStep)
+{
+    return QObject::tr("Step %1 (plan steps %2–%3)").arg(step).arg(firstStep).arg(lastStep);
+}
+
 NextStepStrip::NextStepStrip(QWidget *parent)
     : QWidget(parent), m_banner(new QLabel), m_step(new QLabel), m_expect(new QLabel), m_countdown(new QLabel),
       m_waiting(new QLabel),

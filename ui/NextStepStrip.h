@@ -19,6 +19,10 @@ class QPushButton;
 
 namespace sagline {
 
+// "Step 3 (plan steps 0–8)": numbered as the plan table numbers its steps, with the range rather
+// than a count, so it never disagrees with "3 of 9 steps" recorded beside the verdict.
+QString stepHeading(int step, int firstStep, int lastStep);
+
 class QuantityField;
 
 // Where the sweep is, as the strip shows it.

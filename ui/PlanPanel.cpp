@@ -67,7 +67,6 @@ PlanPanel::PlanPanel(QWidget *parent)
     m_table->verticalHeader()->hide();
     m_table->setSelectionBehavior(QAbstractItemView::SelectRows);
     m_table->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
-    m_table->horizontalHeader()->setStretchLastSection(true);
     m_table->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
     m_table->setAccessibleName(tr("Planned load steps"));
     // The panel shows what the person at the bench acts on; the loads, losses and margins are
@@ -91,8 +90,9 @@ PlanPanel::PlanPanel(QWidget *parent)
     stepsLayout->addLayout(tableButtons);
     split->addWidget(steps);
     split->setChildrenCollapsible(false);
-    split->setStretchFactor(0, 1);
-    split->setStretchFactor(1, 1);
+    split->setStretchFactor(0, 2);
+    split->setStretchFactor(1, 3);
+    split->setSizes({400, 600});
     auto *layout = new QVBoxLayout(this);
     layout->addWidget(split, 1);
     m_blocked->setWordWrap(true);
@@ -193,7 +193,7 @@ QString PlanPanel::summaryText() const { return m_summary->text(); }
 void PlanPanel::fitTableWidth()
 {
     // The panel is at least as wide as the shown columns' contents, so none needs a sideways
-    // scroll bar (the last column stretches over what is left).
+    // scroll bar.
     int width = 2 * m_table->frameWidth() + m_table->style()->pixelMetric(QStyle::PM_ScrollBarExtent) + 4;
     QStyleOptionViewItem option;
     option.initFrom(m_table);

@@ -185,7 +185,7 @@ void StudentBenchWindow::handleStep(int step, const QString &instruction)
     const auto &plan = m_workspace->plan();
     QString heading = tr("Step %1").arg(step);
     if (plan && !plan->steps.empty())
-        heading = tr("Step %1 of %2").arg(step).arg(plan->steps.back().index);
+        heading = stepHeading(step, plan->steps.front().index, plan->steps.back().index);
     m_nextStep->setInstruction(heading, instruction);
 }
 

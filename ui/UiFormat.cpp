@@ -1,5 +1,7 @@
 #include "UiFormat.h"
 
+#include "NumberFormat.h"
+
 #include <algorithm>
 #include <cmath>
 
@@ -46,7 +48,16 @@ QString formatQuantity(double value, Unit unit, int significantDigits)
 {
     if (!std::isfinite(value))
         return QStringLiteral("—");
-    return withUnit(formatNumber(value, significantDigits), unit);
+    const QString symbol = unitText(unit);
+    if (symbol.isEmpty())
+        return formatNumber(value, significantDigits);
+    // One style for every quantity the window shows: an SI prefix keeps the mantissa in
+    // [1, 1000) ("480.0 mΩ", "260.9 mA"), as the results and the report print them.
+    QString text = QString::fromStdString(sagline::formatQuantity(value, symbol.toStdString(), significantDigits));
+    const qsizetype space = text.lastIndexOf(QLatin1Char(' '));
+    if (space >= 0)
+        text[space] = QChar(0x202F); // narrow no-break space keeps number and unit on one line
+    return text;
 }
 
 } // namespace sagline

@@ -5,6 +5,7 @@
 //   SAGLINE_SHOTS_DIR=/tmp/shots build/ci/tests/ui_tests --gtest_filter='ScreenshotTour.*'
 #include "UiTestSupport.h"
 
+#include "EfficiencyChart.h"
 #include "InstrumentsPanel.h"
 #include "InteractiveChartView.h"
 #include "NextStepStrip.h"
@@ -105,6 +106,12 @@ void tour(QSize size, bool dark, const QString &dir)
     strip->pauseAction()->trigger();
     window->chart()->chartView()->zoomBy(1.8);
     shoot(*window, dir, tag + QStringLiteral("-chart-zoomed"));
+    // The efficiency and losses, in their tab under the V–I chart, with the plan's figures.
+    if (window->efficiencyOffered()) {
+        window->lowerCharts()->setCurrentWidget(window->efficiencyChart());
+        window->findChild<QTabWidget *>()->setCurrentIndex(1);
+        shoot(*window, dir, tag + QStringLiteral("-efficiency"));
+    }
     usePalette(false);
 }
 

@@ -108,7 +108,7 @@ TEST(StudentBenchWindow, AFullSessionThroughTheLockedBenchWithChartAndFit)
     ASSERT_EQ(bench.window.chooseSheet(1), QString());
     bench.tickAll();
     ASSERT_EQ(bench.window.start({"B. Student", "DEMO-0101", "C. Supervisor", "2468"}), QString());
-    EXPECT_NE(bench.window.nextStep()->instructionText().indexOf(QStringLiteral("Step 0 of 4")), -1)
+    EXPECT_NE(bench.window.nextStep()->instructionText().indexOf(QStringLiteral("Step 0 (plan steps 0–4)")), -1)
         << bench.window.nextStep()->instructionText().toStdString();
 
     // Rated current 50/24 = 2.083 A; the sheet allows 80 % = 1.667 A (+5 % for a hand-set load).

@@ -13,6 +13,8 @@
 #include <gtest/gtest.h>
 
 #include <QAbstractButton>
+#include <QPushButton>
+#include <QHeaderView>
 #include <QAbstractScrollArea>
 #include <QLabel>
 #include <QScrollBar>
@@ -98,10 +100,13 @@ std::vector<std::string> sidewaysScrolling(QWidget *window)
     for (QAbstractScrollArea *area : window->findChildren<QAbstractScrollArea *>()) {
         if (!area->isVisibleTo(window) || qobject_cast<QTextEdit *>(area))
             continue;
-        if (area->horizontalScrollBar()->maximum() > 0)
+        // A table whose columns run past its viewport hides them even when its scroll bar is off.
+        const auto *table = qobject_cast<QTableView *>(area);
+        const int pastTheEdge = table ? table->horizontalHeader()->length() - table->viewport()->width() : 0;
+        if (area->horizontalScrollBar()->maximum() > 0 || pastTheEdge > 1)
         {
             std::string sections;
-            if (auto *table = qobject_cast<QTableView *>(area))
+            if (table)
                 for (int c = 0; c < table->model()->columnCount(); ++c)
                     if (!table->isColumnHidden(c))
                         sections += std::to_string(table->columnWidth(c)) + " ";
@@ -193,3 +198,42 @@ void checkAtSize(const QSize size)
 TEST(WindowLayout, NothingIsCutShortOrScrolledSidewaysAt1366x740) { checkAtSize(QSize(1366, 740)); }
 
 TEST(WindowLayout, NothingIsCutShortOrScrolledSidewaysAt1600x1000) { checkAtSize(QSize(1600, 1000)); }
+
+// The plan panel shows the columns the bench acts on; "Every column…" opens the whole step
+// table in a window wide enough for all of them.
+TEST(WindowLayout, EveryPlanColumnIsOneClickAway)
+{
+    QTemporaryDir folder;
+    auto window = demoWindow(folder.path());
+    window->show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+    QTableView *panelTable = window->planPanel()->table();
+    int hidden = 0;
+    for (int column = 0; column < panelTable->model()->columnCount(); ++column)
+        hidden += panelTable->isColumnHidden(column) ? 1 : 0;
+    EXPECT_GT(hidden, 0);
+    window->findChild<QTabWidget *>()->setCurrentIndex(1);
+    QTest::qWait(50);
+    // Each shown column lies inside the table, with its header and its cells' text.
+    for (int column = 0; column < panelTable->model()->columnCount(); ++column) {
+        if (panelTable->isColumnHidden(column))
+            continue;
+        const int left = panelTable->columnViewportPosition(column);
+        const int width = panelTable->columnWidth(column);
+        EXPECT_GE(left, 0) << column;
+        EXPECT_LE(left + width, panelTable->viewport()->width()) << column;
+        EXPECT_GT(width, panelTable->fontMetrics().horizontalAdvance(panelTable->model()->index(1, column).data().toString()))
+            << column << " " << panelTable->model()->index(1, column).data().toString().toStdString();
+        EXPECT_FALSE(panelTable->model()->headerData(column, Qt::Horizontal).toString().isEmpty()) << column;
+    }
+    QTest::mouseClick(window->planPanel()->everyColumnButton(), Qt::LeftButton);
+    QWidget *dialog = window->planPanel()->everyColumnDialog();
+    ASSERT_NE(dialog, nullptr);
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(dialog));
+    auto *table = dialog->findChild<QTableView *>();
+    ASSERT_NE(table, nullptr);
+    for (int column = 0; column < table->model()->columnCount(); ++column)
+        EXPECT_FALSE(table->isColumnHidden(column)) << column;
+    EXPECT_EQ(table->horizontalScrollBar()->maximum(), 0) << "the dialog needs a sideways scroll bar";
+    dialog->close();
+}
