@@ -73,13 +73,14 @@ QuadraticFitResult fitQuadratic(std::span<const double> x, std::span<const doubl
         return r;
     }
     const double meanY = sumWY / weightSum;
+    const double perScale = 1.0 / scale;
     // Pass 2: the normal equations of u = y - ȳ in 1, t, t².
     QuadraticSums sums;
     {
         double s[5] = {0.0, 0.0, 0.0, 0.0, 0.0}, m[3] = {0.0, 0.0, 0.0}, sst = 0.0;
         for (std::size_t i = 0; i < n; ++i) {
             const double w = weightOf(i);
-            const double t = (x[i] - mean) / scale;
+            const double t = (x[i] - mean) * perScale;
             const double u = y[i] - meanY;
             const double wt = w * t, wt2 = wt * t;
             s[0] += w;
@@ -114,7 +115,7 @@ QuadraticFitResult fitQuadratic(std::span<const double> x, std::span<const doubl
         double e[3] = {0.0, 0.0, 0.0};
         for (std::size_t i = 0; i < n; ++i) {
             const double w = weightOf(i);
-            const double t = (x[i] - mean) / scale;
+            const double t = (x[i] - mean) * perScale;
             const double res = (y[i] - meanY) - (d(0) + (d(1) + d(2) * t) * t);
             const double wr = w * res;
             e[0] += wr;

@@ -16,7 +16,11 @@ struct FitInput {
     std::vector<std::size_t> rows;
     std::vector<double> x, y, sx, sy;
     std::vector<double> weights;
-    std::vector<char> statedU, hasUI; // the reading stated u_voltage_v / u_current_a
+    std::vector<char> hasUI;          // the reading stated u_current_a
+    // Every used reading stated u_voltage_v. sx, sy and hasUI are filled only while this holds
+    // (OLS needs them only then, for the screen's σ): a CSV without uncertainties touches no
+    // page of them.
+    bool allStated = true;
 };
 
 bool isFitted(const Reading &reading)
@@ -80,7 +84,6 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
     for (auto *column : {&input.x, &input.y, &input.sx, &input.sy, &input.weights})
         column->reserve(readings.size());
     input.rows.reserve(readings.size());
-    input.statedU.reserve(readings.size());
     input.hasUI.reserve(readings.size());
     for (std::size_t row = 0; row < readings.size(); ++row) {
         const RowValues reading = readings[row];
@@ -113,11 +116,18 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
         input.rows.push_back(row);
         input.x.push_back(reading.currentA);
         input.y.push_back(reading.voltageV);
-        input.sx.push_back(uI);
-        input.sy.push_back(uV);
         input.weights.push_back(method == FitMethod::Wls ? 1.0 / (uV * uV) : 1.0);
-        input.statedU.push_back(reading.uVoltageV && std::isfinite(uV) && uV > 0.0);
-        input.hasUI.push_back(reading.uCurrentA && std::isfinite(uI) && uI > 0.0);
+        if (input.allStated && !(reading.uVoltageV && std::isfinite(uV) && uV > 0.0)) {
+            input.allStated = false; // only OLS gets here (the others need u(V) > 0)
+            input.sx.clear();
+            input.sy.clear();
+            input.hasUI.clear();
+        }
+        if (input.allStated) {
+            input.sx.push_back(uI);
+            input.sy.push_back(uV);
+            input.hasUI.push_back(reading.uCurrentA && std::isfinite(uI) && uI > 0.0);
+        }
     }
     return FitStatus::Ok;
 }
@@ -180,7 +190,8 @@ LineFitResult batchLine(const FitInput &input, bool absoluteWeights)
 struct UsedPointResults {
     std::vector<double> residuals;                   // V_i - (a + b·I_i), V
     std::vector<std::optional<double>> studentized;  // shown (externally studentized)
-    std::vector<std::optional<double>> compared;     // what the outlier screen compared
+    std::vector<std::optional<double>> compared;     // what the outlier screen compared (empty:
+                                                     // the studentized residuals, one pass)
     std::vector<bool> flagged;                       // the screen's flags
 };
 
@@ -208,12 +219,10 @@ void screen(FitSummary &summary, const FitInput &input, const FitOptions &option
     // they are also the screen's first pass (same weights, same floor): computed once.
     externallyStudentizedResiduals(input.x, results.residuals, input.weights, studentFloor, sums,
                                    results.studentized);
-    if (!stated)
-        results.compared = results.studentized;
     summary.outlierScreening =
         screenResiduals(input.x, results.residuals, input.weights, sigma,
                         stated ? std::max(summary.scatterFloorV, numericFloorV) : studentFloor, options.outlierScreen,
-                        results.compared, results.flagged, !stated);
+                        results.compared, results.flagged, stated ? nullptr : &results.studentized);
 }
 
 } // namespace
@@ -330,7 +339,7 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
     UsedPointResults used;
     used.residuals.resize(n);
     double sumW = 0.0, sumWY = 0.0, sumWX = 0.0, ssrPlain = 0.0, ssrWeighted = 0.0, maxAbsY = 0.0, meanW = 0.0;
-    bool stated = true;
+    const bool stated = input.allStated;
     for (std::size_t i = 0; i < n; ++i) {
         const double w = input.weights[i];
         const double e = input.y[i] - summary.intercept - summary.slope * input.x[i];
@@ -342,7 +351,6 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
         ssrWeighted += w * e * e;
         maxAbsY = std::max(maxAbsY, std::fabs(input.y[i]));
         meanW += w / static_cast<double>(n);
-        stated = stated && input.statedU[i];
     }
     const double meanY = sumWY / sumW;
     const double meanX = sumWX / sumW;
@@ -384,7 +392,7 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
             point.used = true;
             point.residualV = used.residuals[next];
             point.studentized = used.studentized[next];
-            point.screeningStatistic = used.compared[next];
+            point.screeningStatistic = used.compared.empty() ? used.studentized[next] : used.compared[next];
             point.outlier = used.flagged[next];
             if (point.outlier)
                 summary.outlierRows.push_back(row);

@@ -175,7 +175,7 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
                                  std::span<const double> weights, std::span<const double> knownSigmaV,
                                  double scatterFloorV, const OutlierScreenOptions &options,
                                  std::vector<std::optional<double>> &statistics, std::vector<bool> &flagged,
-                                 bool statisticsHoldFirstPass)
+                                 const std::vector<std::optional<double>> *firstPass)
 {
     const std::size_t n = x.size();
     flagged.assign(n, false);
@@ -191,8 +191,12 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
         screening.rule = "externally studentized residual (n - 3 degrees of freedom"
                          + std::string(floorV > 0.0 ? ", scatter floored by the resolution" : "")
                          + "), against t(1 - α/(2n), n - 3) (" + family + ")" + sequence;
-    if (!statisticsHoldFirstPass || known || statistics.size() != n)
+    const bool given = firstPass && !known && firstPass->size() == n;
+    if (given)
+        statistics.clear();
+    else
         passStatistics(known, x, residuals, weights, knownSigmaV, floorV, statistics);
+    const std::vector<std::optional<double>> &first = given ? *firstPass : statistics;
     if (n < options.minimumPoints) {
         screening.reason = "too few points to screen (" + std::to_string(n) + "; the screen needs "
                            + std::to_string(options.minimumPoints) + ")";
@@ -213,10 +217,12 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
                 worst = k;
         return worst;
     };
-    const std::optional<std::size_t> firstWorst = largestBeyond(statistics, *screening.criticalValue);
+    const std::optional<std::size_t> firstWorst = largestBeyond(first, *screening.criticalValue);
     if (!firstWorst)
         return screening;
     flagged[*firstWorst] = true;
+    if (given)
+        statistics = *firstPass; // the later passes replace the active points' values
     std::vector<std::size_t> active;
     active.reserve(n - 1);
     for (std::size_t i = 0; i < n; ++i)

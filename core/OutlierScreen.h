@@ -52,10 +52,10 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
                                  std::span<const double> weights, std::span<const double> knownSigmaV,
                                  double scatterFloorV, const OutlierScreenOptions &options,
                                  std::vector<std::optional<double>> &statistics, std::vector<bool> &flagged,
-                                 bool statisticsHoldFirstPass = false);
-// statisticsHoldFirstPass: statistics already holds the first pass's values (the caller computed
-// the externally studentized residuals with the same weights and floor, knownSigmaV empty), so
-// they are not computed again.
+                                 const std::vector<std::optional<double>> *firstPass = nullptr);
+// firstPass (knownSigmaV empty): the externally studentized residuals the caller computed with the
+// same weights and floor, read as the first pass instead of computing them again. statistics then
+// stays empty unless a point is flagged and the rest screened again (the values are firstPass's).
 
 // Sums of the fitted line that the statistics need, when the caller has them already: the same
 // numbers, in the same order of addition, as computed here (Σw, Σw·x/Σw, Σw(x - x̄)², Σw·e²).
