@@ -3,6 +3,7 @@
 #include "NumberFormat.h"
 #include "OutlierScreen.h"
 
+#include <algorithm>
 #include <cmath>
 #include <vector>
 
@@ -30,7 +31,38 @@ BudgetComponent typeB(std::string source, std::string distribution, double u, st
     return component;
 }
 
+const std::string commonLineMark = ", common to every reading)";
+
 } // namespace
+
+std::string commonGainLineSource(const std::string &meter, double gainPercentOfReading)
+{
+    return meter + " gain (±" + formatSignificant(gainPercentOfReading, 3) + " % of reading" + commonLineMark;
+}
+
+bool isCommonGainLine(const BudgetComponent &component)
+{
+    const std::string &s = component.source;
+    return s.size() >= commonLineMark.size() && s.compare(s.size() - commonLineMark.size(), commonLineMark.size(), commonLineMark) == 0;
+}
+
+std::vector<BudgetComponent> mergeCommonGainLines(std::vector<BudgetComponent> components)
+{
+    std::vector<BudgetComponent> out;
+    out.reserve(components.size());
+    for (BudgetComponent &c : components) {
+        auto same = std::find_if(out.begin(), out.end(), [&](const BudgetComponent &o) {
+            return isCommonGainLine(c) && o.source == c.source;
+        });
+        if (same == out.end()) {
+            out.push_back(std::move(c));
+            continue;
+        }
+        same->sensitivity += c.sensitivity;
+        same->contribution = std::fabs(same->sensitivity) * same->standardUncertainty;
+    }
+    return out;
+}
 
 FitBudget::FitBudget(const FitSummary &fit, const AnalysisInput &input)
     : m_fit(fit), m_input(input), m_v0(fit.intercept), m_r(-fit.slope)
@@ -147,10 +179,15 @@ UncertainValue FitBudget::evaluate(double value, const ResultGradient &g) const
         add(am.offset > 0.0, typeB("ammeter offset (±" + formatQuantity(am.offset, "A", 3) + ")", "rectangular",
                                    rectangular(am.offset), "A", -m_r * g.dV0));
     }
-    if (m_input.referralGainUPercent && *m_input.referralGainUPercent > 0.0)
-        components.push_back(typeB("primary voltmeter gain, through the referral to the rated supply (u = "
-                                       + formatSignificant(*m_input.referralGainUPercent, 3) + " % of reading)",
+    if (m_input.referralGainUPercent && *m_input.referralGainUPercent > 0.0) {
+        // With the setup's primary voltmeter the line is that meter's common gain line, so that a
+        // result also using V1 directly (efficiency, P0 referred to rated) merges the two.
+        const auto &primary = m_input.meters ? m_input.meters->primaryVoltmeter : std::nullopt;
+        components.push_back(typeB(primary ? commonGainLineSource("primary voltmeter", primary->gainPercentOfReading)
+                                           : "primary voltmeter gain, through the referral to the rated supply (u = "
+                                                 + formatSignificant(*m_input.referralGainUPercent, 3) + " % of reading)",
                                    "rectangular", *m_input.referralGainUPercent, "%", -m_v0 * g.dV0 / 100.0));
+    }
     if (g.dT != 0.0)
         components.push_back(typeB("winding temperature (u = " + formatSignificant(m_input.uWindingTemperatureC, 3) + " °C"
                                        + (m_input.windingTemperatureUncertaintyDefaulted ? ", default" : "") + ")",

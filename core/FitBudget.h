@@ -28,6 +28,7 @@
 
 #include <optional>
 #include <string>
+#include <vector>
 
 namespace sagline {
 
@@ -37,6 +38,16 @@ struct ResultGradient {
     double dR = 0.0;
     double dT = 0.0;
 };
+
+// A meter's gain error is common to every reading it takes (GUM 5.2), so in one result it is one
+// budget line whatever number of readings the result uses: the line is named the same wherever
+// it arises (here and in core/PrimarySideAnalysis), and lines of the same name are merged by
+// adding their sensitivities (full correlation: u = |Σ c_k|·u(γ), not the root sum of squares).
+// meter: "primary voltmeter", "primary ammeter", "power meter".
+std::string commonGainLineSource(const std::string &meter, double gainPercentOfReading);
+bool isCommonGainLine(const BudgetComponent &component);
+// The list with every set of common gain lines of one source merged into the first of them.
+std::vector<BudgetComponent> mergeCommonGainLines(std::vector<BudgetComponent> components);
 
 class FitBudget {
 public:

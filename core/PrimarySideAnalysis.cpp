@@ -12,11 +12,44 @@ namespace sagline {
 
 namespace {
 
-// A measured input with its standard uncertainty (0: not known).
+// A measured input with its standard uncertainty (0: not known). Read on a meter the setup
+// specifies (`meters.primary_*`), `u` is 0 and the spec's terms are kept apart: offset and
+// resolution per reading, the gain as the meter's one common line.
 struct Measured {
+    Measured() = default;
+    Measured(double value_, double u_) : value(value_), u(u_) {}
+    Measured(double value_, const MeterSpec *spec_, std::string meter_)
+        : value(value_), spec(spec_), meter(std::move(meter_))
+    {
+    }
+
     double value = 0.0;
     double u = 0.0;
+    const MeterSpec *spec = nullptr;
+    std::string meter;           // "primary voltmeter", ...: names the common gain line
 };
+
+// u of one reading from a setup's meter spec: offset (rectangular half-width, GUM 4.3.7) and one
+// count of resolution (GUM F.2.2.1), both per reading.
+double offsetU(const MeterSpec &spec)
+{
+    return spec.offset / std::sqrt(3.0);
+}
+
+double resolutionU(const MeterSpec &spec)
+{
+    return spec.resolution / std::sqrt(12.0);
+}
+
+// Every term of a reading's uncertainty as one standard uncertainty (the gain taken for this
+// reading alone): for quantities derived reading by reading, such as Q from V, I and P.
+double totalU(const Measured &m)
+{
+    if (!m.spec)
+        return m.u;
+    const double gain = m.spec->gainPercentOfReading / 100.0 * std::abs(m.value) / std::sqrt(3.0);
+    return std::sqrt(m.u * m.u + std::pow(offsetU(*m.spec), 2) + std::pow(resolutionU(*m.spec), 2) + gain * gain);
+}
 
 bool isUsed(const Reading &reading)
 {
@@ -26,21 +59,43 @@ bool isUsed(const Reading &reading)
 
 // A meter reading's standard uncertainty as a budget line: Type B, rectangular (a specification
 // limit divided by sqrt(3), GUM 4.3.7), ν = ∞. Nothing when the uncertainty is not known.
-void addMeter(std::vector<BudgetComponent> &list, const std::string &source, const Measured &input,
-              const std::string &unit, double sensitivity)
+void addLine(std::vector<BudgetComponent> &list, const std::string &source, double u, const std::string &unit,
+             double sensitivity)
 {
-    if (!(input.u > 0.0) || !std::isfinite(sensitivity))
+    if (!(u > 0.0) || !std::isfinite(sensitivity))
         return;
     BudgetComponent c;
     c.source = source;
     c.type = EvaluationType::B;
     c.distribution = "rectangular";
     c.shape = DistributionShape::Rectangular;
-    c.standardUncertainty = input.u;
+    c.standardUncertainty = u;
     c.inputUnit = unit;
     c.sensitivity = sensitivity;
-    c.contribution = std::abs(sensitivity) * input.u;
+    c.contribution = std::abs(sensitivity) * u;
     list.push_back(std::move(c));
+}
+
+// With a setup spec: the offset and the resolution as lines of this reading, and the gain as the
+// meter's common line with ∂f/∂γ = ∂f/∂x · x / 100 per % (a reading x' = (1 + γ)x); lines of one
+// meter's gain are merged by combine().
+void addMeter(std::vector<BudgetComponent> &list, const std::string &source, const Measured &input,
+              const std::string &unit, double sensitivity)
+{
+    if (!input.spec) {
+        addLine(list, source, input.u, unit, sensitivity);
+        return;
+    }
+    addLine(list, source + ", offset", offsetU(*input.spec), unit, sensitivity);
+    addLine(list, source + ", resolution", resolutionU(*input.spec), unit, sensitivity);
+    addLine(list, commonGainLineSource(input.meter, input.spec->gainPercentOfReading),
+            input.spec->gainPercentOfReading / std::sqrt(3.0), "%", sensitivity * input.value / 100.0);
+}
+
+// combineBudget with each meter's common gain lines merged into one.
+UncertainValue combine(double value, std::vector<BudgetComponent> components)
+{
+    return combineBudget(value, mergeCommonGainLines(std::move(components)));
 }
 
 // The components of another result, scaled by this result's sensitivity to it.
@@ -78,30 +133,69 @@ Measured measured(const std::optional<double> &value, const std::optional<double
     return {value.value_or(0.0), u.value_or(0.0)};
 }
 
+// A primary reading: on the setup's meter when it gives one (its spec replaces the reading's
+// stated u, which would count the gain again), else with the stated u.
+Measured measured(const std::optional<double> &value, const std::optional<double> &u,
+                  const std::optional<MeterSpec> &spec, const char *meter)
+{
+    if (!spec)
+        return measured(value, u);
+    return {value.value_or(0.0), &*spec, meter};
+}
+
+// The setup's primary meters (each absent when the setup gives none).
+struct PrimarySpecs {
+    std::optional<MeterSpec> voltmeter, ammeter, powerMeter;
+};
+
+PrimarySpecs primarySpecsOf(const AnalysisInput *in)
+{
+    if (!in || !in->meters)
+        return {};
+    return {in->meters->primaryVoltmeter, in->meters->primaryAmmeter, in->meters->powerMeter};
+}
+
+Measured primaryVoltage(const PrimaryReading &p, const PrimarySpecs &specs)
+{
+    return measured(p.voltageV, p.uVoltageV, specs.voltmeter, "primary voltmeter");
+}
+
+Measured primaryCurrent(const PrimaryReading &p, const PrimarySpecs &specs)
+{
+    return measured(p.currentA, p.uCurrentA, specs.ammeter, "primary ammeter");
+}
+
+Measured primaryPower(const PrimaryReading &p, const PrimarySpecs &specs)
+{
+    return measured(p.powerW, p.uPowerW, specs.powerMeter, "power meter");
+}
+
 // Q1 of a reading with its standard uncertainty: the reactive-power reading itself, else from
 // V1, I1 and P1 (Q = sqrt(S² - P²)), else from P1 and the power factor.
-std::optional<Measured> reactivePowerOf(const PrimaryReading &p)
+// Every term of the meters' uncertainty counts per reading here (conservative: the reactive
+// power's errors are taken as correlated across steps where they are combined).
+std::optional<Measured> reactivePowerOf(const PrimaryReading &p, const PrimarySpecs &specs)
 {
     if (p.reactivePowerVar)
         return measured(p.reactivePowerVar, p.uReactivePowerVar);
+    const double uV = totalU(primaryVoltage(p, specs)), uI = totalU(primaryCurrent(p, specs));
+    const double uP = totalU(primaryPower(p, specs));
     if (p.voltageV && p.currentA && p.powerW) {
         const double v = *p.voltageV, i = *p.currentA, w = *p.powerW;
         const double q = formulas::reactivePower(v, i, w);
         if (q > 0.0) {
             const double dv = v * i * i / q, di = v * v * i / q, dp = -w / q;
-            const double u = std::sqrt(std::pow(dv * p.uVoltageV.value_or(0.0), 2) + std::pow(di * p.uCurrentA.value_or(0.0), 2)
-                                       + std::pow(dp * p.uPowerW.value_or(0.0), 2));
+            const double u = std::sqrt(std::pow(dv * uV, 2) + std::pow(di * uI, 2) + std::pow(dp * uP, 2));
             return Measured{q, u};
         }
         // S at or below P: unity power factor within the meters; Q is zero, known to about u(S).
-        return Measured{0.0, std::hypot(i * p.uVoltageV.value_or(0.0), v * p.uCurrentA.value_or(0.0))};
+        return Measured{0.0, std::hypot(i * uV, v * uI)};
     }
     if (p.powerW && p.powerFactor && *p.powerFactor > 0.0) {
         const double w = *p.powerW, pf = *p.powerFactor;
         const double root = std::sqrt(std::max(1e-12, 1.0 - pf * pf));
         const double dp = root / pf, dpf = -w / (pf * pf * root);
-        return Measured{formulas::reactivePowerFromPowerFactor(w, pf),
-                        std::hypot(dp * p.uPowerW.value_or(0.0), dpf * p.uPowerFactor.value_or(0.0))};
+        return Measured{formulas::reactivePowerFromPowerFactor(w, pf), std::hypot(dp * uP, dpf * p.uPowerFactor.value_or(0.0))};
     }
     return std::nullopt;
 }
@@ -148,7 +242,7 @@ public:
     Analyser(const std::vector<Reading> &readings, const FitSummary *fit, const AnalysisInput *analysisInput,
              const PrimarySideInput &in)
         : m_readings(readings), m_fit(fit && fit->ok() && fit->seriesResistanceOhm() > 0.0 ? fit : nullptr),
-          m_analysisInput(analysisInput), m_in(in)
+          m_analysisInput(analysisInput), m_in(in), m_specs(primarySpecsOf(analysisInput))
     {
         // Without the secondary analysis's input the fit's budget is its scatter alone.
         if (m_fit)
@@ -172,6 +266,7 @@ private:
     const FitSummary *m_fit;
     const AnalysisInput *m_analysisInput;
     PrimarySideInput m_in;
+    PrimarySpecs m_specs;
     AnalysisInput m_scatterOnly;
     std::optional<FitBudget> m_budget;
     PrimarySideResult m_out;
@@ -194,7 +289,7 @@ UncertainValue Analyser::withFit(double value, double dV0, double dR, std::vecto
     if (m_budget && m_budget->hasUncertainty())
         list = m_budget->evaluate(value, {dV0, dR, 0.0}).budget;
     list.insert(list.end(), extra.begin(), extra.end());
-    return combineBudget(value, std::move(list));
+    return combine(value, std::move(list));
 }
 
 void Analyser::openCircuit()
@@ -206,56 +301,56 @@ void Analyser::openCircuit()
     OpenCircuitResult oc;
     oc.readingId = m_oc->id;
     oc.voltageMeasured = p.voltageV && *p.voltageV > 0.0;
-    const Measured v = oc.voltageMeasured ? measured(p.voltageV, p.uVoltageV) : Measured{m_in.ratedPrimaryVoltageV, 0.0};
+    const Measured v = oc.voltageMeasured ? primaryVoltage(p, m_specs) : Measured{m_in.ratedPrimaryVoltageV, 0.0};
     oc.voltageV = v.value;
     if (!oc.voltageMeasured)
         m_out.notes.push_back("no primary voltage at the open-circuit point: it is taken as the rated " +
                               formatSignificant(m_in.ratedPrimaryVoltageV, 4) + " V");
     if (p.currentA) {
-        const Measured i = measured(p.currentA, p.uCurrentA);
+        const Measured i = primaryCurrent(p, m_specs);
         std::vector<BudgetComponent> c, share;
         addMeter(c, "primary ammeter", i, "A", 1.0);
         addMeter(share, "primary ammeter", i, "A", 100.0 / m_in.ratedPrimaryCurrentA);
-        oc.noLoadCurrentA = combineBudget(i.value, c);
-        oc.noLoadCurrentPercent = combineBudget(100.0 * i.value / m_in.ratedPrimaryCurrentA, share);
+        oc.noLoadCurrentA = combine(i.value, c);
+        oc.noLoadCurrentPercent = combine(100.0 * i.value / m_in.ratedPrimaryCurrentA, share);
     }
     if (p.powerW) {
-        m_p0Measured = measured(p.powerW, p.uPowerW);
+        m_p0Measured = primaryPower(p, m_specs);
         const double scale = std::pow(m_in.ratedPrimaryVoltageV / v.value, 2);
         std::vector<BudgetComponent> c;
         addMeter(c, "primary power meter", m_p0Measured, "W", scale);
         addMeter(c, "primary voltmeter", v, "V", -2.0 * m_p0Measured.value * scale / v.value);
-        oc.noLoadLossW = combineBudget(m_p0Measured.value * scale, c);
+        oc.noLoadLossW = combine(m_p0Measured.value * scale, c);
         if (m_p0Measured.value > 0.0) {
             std::vector<BudgetComponent> rc;
             addMeter(rc, "primary power meter", m_p0Measured, "W", -v.value * v.value / std::pow(m_p0Measured.value, 2));
             addMeter(rc, "primary voltmeter", v, "V", 2.0 * v.value / m_p0Measured.value);
-            oc.coreLossResistanceOhm = combineBudget(formulas::coreLossResistance(v.value, m_p0Measured.value), rc);
+            oc.coreLossResistanceOhm = combine(formulas::coreLossResistance(v.value, m_p0Measured.value), rc);
         }
     }
     if (p.powerFactor) {
         std::vector<BudgetComponent> c;
         addMeter(c, "primary power-factor reading", measured(p.powerFactor, p.uPowerFactor), "", 1.0);
-        oc.noLoadPowerFactor = combineBudget(*p.powerFactor, c);
+        oc.noLoadPowerFactor = combine(*p.powerFactor, c);
     } else if (p.powerW && p.currentA && *p.currentA > 0.0 && v.value > 0.0) {
-        const Measured i = measured(p.currentA, p.uCurrentA);
+        const Measured i = primaryCurrent(p, m_specs);
         const double pf = std::min(1.0, m_p0Measured.value / (v.value * i.value));
         std::vector<BudgetComponent> c;
         addMeter(c, "primary power meter", m_p0Measured, "W", pf / m_p0Measured.value);
         addMeter(c, "primary voltmeter", v, "V", -pf / v.value);
         addMeter(c, "primary ammeter", i, "A", -pf / i.value);
-        oc.noLoadPowerFactor = combineBudget(pf, c);
+        oc.noLoadPowerFactor = combine(pf, c);
     }
-    if (const auto q = reactivePowerOf(p)) {
+    if (const auto q = reactivePowerOf(p, m_specs)) {
         std::vector<BudgetComponent> c;
         addMeter(c, "primary reactive power (from the primary meters)", *q, "var", 1.0);
-        m_q0 = combineBudget(q->value, c);
+        m_q0 = combine(q->value, c);
         oc.noLoadReactivePowerVar = m_q0;
         if (q->value > 0.0) {
             std::vector<BudgetComponent> xm;
             addMeter(xm, "primary reactive power (from the primary meters)", *q, "var", -v.value * v.value / (q->value * q->value));
             addMeter(xm, "primary voltmeter", v, "V", 2.0 * v.value / q->value);
-            oc.magnetizingReactanceOhm = combineBudget(formulas::magnetizingReactance(v.value, q->value), xm);
+            oc.magnetizingReactanceOhm = combine(formulas::magnetizingReactance(v.value, q->value), xm);
         }
     }
     m_out.openCircuit = std::move(oc);
@@ -271,28 +366,28 @@ void Analyser::loadedSteps()
         s.readingId = reading.id;
         s.step = reading.step;
         s.currentA = reading.currentA;
-        const Measured p1 = measured(reading.primary.powerW, reading.primary.uPowerW);
+        const Measured p1 = primaryPower(reading.primary, m_specs);
         const Measured v2 = secondaryVoltage(reading, m_analysisInput);
         const Measured i2 = secondaryCurrent(reading, m_analysisInput);
         const double p2 = v2.value * i2.value;
         std::vector<BudgetComponent> c;
         addMeter(c, "primary power meter", p1, "W", 1.0);
-        s.inputPowerW = combineBudget(p1.value, c);
+        s.inputPowerW = combine(p1.value, c);
         c.clear();
         addMeter(c, "secondary voltmeter", v2, "V", i2.value);
         addMeter(c, "secondary ammeter", i2, "A", v2.value);
-        s.outputPowerW = combineBudget(p2, c);
+        s.outputPowerW = combine(p2, c);
         c.clear();
         addMeter(c, "primary power meter", p1, "W", 1.0);
         addMeter(c, "secondary voltmeter", v2, "V", -i2.value);
         addMeter(c, "secondary ammeter", i2, "A", -v2.value);
-        s.totalLossW = combineBudget(p1.value - p2, c);
+        s.totalLossW = combine(p1.value - p2, c);
         // The voltage ratio of one voltmeter: its gain cancels, so only P0's reading counts.
         const double ratio = coreRatio(reading);
         const double core = m_p0Measured.value * ratio;
         c.clear();
         addMeter(c, "primary power meter at no load", m_p0Measured, "W", ratio);
-        s.coreLossW = combineBudget(core, c);
+        s.coreLossW = combine(core, c);
         if (m_fit) {
             const double copper = r * i2.value * i2.value;
             std::vector<BudgetComponent> extra;
@@ -310,12 +405,12 @@ void Analyser::loadedSteps()
             addMeter(c, "secondary voltmeter", v2, "V", 100.0 * i2.value / p1.value);
             addMeter(c, "secondary ammeter", i2, "A", 100.0 * v2.value / p1.value);
             addMeter(c, "primary power meter", p1, "W", -100.0 * p2 / (p1.value * p1.value));
-            s.efficiencyPercent = combineBudget(100.0 * p2 / p1.value, c);
+            s.efficiencyPercent = combine(100.0 * p2 / p1.value, c);
         } else {
             m_out.errors.push_back({"reading " + std::to_string(reading.id), "primary power is zero under load"});
             continue;
         }
-        if (const auto q = reactivePowerOf(reading.primary))
+        if (const auto q = reactivePowerOf(reading.primary, m_specs))
             s.reactivePowerVar = q->value;
         m_out.steps.push_back(std::move(s));
     }
@@ -345,7 +440,7 @@ void Analyser::seriesReactance()
     for (const Reading &reading : m_readings) {
         if (&reading == m_oc || !isUsed(reading) || !(reading.currentA > 0.0))
             continue;
-        const auto q = reactivePowerOf(reading.primary);
+        const auto q = reactivePowerOf(reading.primary, m_specs);
         if (!q)
             continue;
         const double ratio = coreRatio(reading);
@@ -385,7 +480,7 @@ void Analyser::seriesReactance()
         if (a.standardUncertainty > 0.0)
             c.push_back(std::move(a));
     }
-    m_out.seriesReactanceOhm = combineBudget(x, std::move(c));
+    m_out.seriesReactanceOhm = combine(x, std::move(c));
     const auto &u = m_out.seriesReactanceOhm->expandedUncertainty;
     m_out.seriesReactanceResolved = x > 0.0 && u && *u < x;
     if (!m_out.seriesReactanceResolved)

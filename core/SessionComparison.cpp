@@ -195,7 +195,8 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     const SetupParse setup = parseSetupJson(info.value.setupJson);
     // As the session's own summary does: on readings referred to the rated supply when V1 was read.
     const double ratedPrimaryV = setup.setup ? setup.setup->nameplate.primaryVoltageV : 0.0;
-    row.supply = assessSupply(readings.value, ratedPrimaryV, FitVoltages::Referred);
+    row.supply = assessSupply(readings.value, ratedPrimaryV, FitVoltages::Referred, defaultSupplyDriftTolerancePercent,
+                              primaryVoltmeterOf(setup.setup ? setup.setup->meters : std::nullopt));
     const FitOptions fitOptions = fitOptionsFor(setup.setup ? setup.setup->meters : std::nullopt);
     row.fit = row.supply.fitVoltages == FitVoltages::Referred
                   ? fitReadings(referToRatedSupply(readings.value, ratedPrimaryV), options.method, fitOptions)

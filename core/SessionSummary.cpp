@@ -262,7 +262,8 @@ StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const Re
         plannedSteps.push_back(step.index);
     summary.progress = sessionProgress(plannedSteps, summary.readings, summary.safetyStops, summary.sweepEvents, false);
     const double ratedPrimaryV = summary.setup ? summary.setup->nameplate.primaryVoltageV : 0.0;
-    summary.supply = assessSupply(summary.readings, ratedPrimaryV, options.fitVoltages, options.supplyDriftTolerancePercent);
+    summary.supply = assessSupply(summary.readings, ratedPrimaryV, options.fitVoltages, options.supplyDriftTolerancePercent,
+                                  primaryVoltmeterOf(summary.setup ? summary.setup->meters : std::nullopt));
     const FitOptions fitOptions = fitOptionsFor(summary.setup ? summary.setup->meters : std::nullopt);
     if (summary.supply.fitVoltages == FitVoltages::Referred)
         summary.fit = fitReadings(referToRatedSupply(summary.readings, ratedPrimaryV), options.method, fitOptions);

@@ -54,15 +54,21 @@ struct Bench {
 // one count of the last digit (u = δ/sqrt(12), GUM F.2.2.1).
 struct MeterSpec {
     double gainPercentOfReading = 0.0;                  // half-width, % of the reading
-    double offset = 0.0;                                // half-width, V (voltmeter) or A (ammeter)
-    double resolution = 0.0;                            // one count, V or A; 0 = not known
+    double offset = 0.0;                                // half-width, V, A or W (the meter's unit)
+    double resolution = 0.0;                            // one count, V, A or W; 0 = not known
 };
 
-// The `meters` section: the secondary voltmeter and ammeter, and how well the winding's
-// temperature is known (for R referred to a reference temperature).
+// The `meters` section: the secondary voltmeter and ammeter, optionally the primary meters, and
+// how well the winding's temperature is known (for R referred to a reference temperature).
+// A primary meter given here replaces the readings' own stated u for its quantity: its gain is
+// one budget line common to every reading (GUM 5.2), its offset and resolution count per reading
+// (core/PrimarySideAnalysis.h). Absent: each primary reading's stated u, as recorded.
 struct MeterSpecs {
     MeterSpec voltmeter;
     MeterSpec ammeter;
+    std::optional<MeterSpec> primaryVoltmeter;          // V1, V
+    std::optional<MeterSpec> primaryAmmeter;            // I1, A
+    std::optional<MeterSpec> powerMeter;                // P1, W
     std::optional<double> windingTemperatureUncertaintyC; // standard uncertainty, °C; absent: the default
 };
 

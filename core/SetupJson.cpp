@@ -363,7 +363,7 @@ void readBench(const json &object, SetupParse &out, Bench &bench)
 void readMeter(const json &object, const std::string &name, Unit unit, SetupParse &out, MeterSpec &meter)
 {
     const std::string path = "meters." + name;
-    const std::string suffix = unit == Unit::Volt ? "_v" : "_a";
+    const std::string suffix = unit == Unit::Volt ? "_v" : unit == Unit::Watt ? "_w" : "_a";
     if (!object.is_object()) {
         out.errors.push_back({path, "must be an object with gain_percent_of_reading, offset" + suffix + " and resolution"
                                         + suffix});
@@ -371,7 +371,7 @@ void readMeter(const json &object, const std::string &name, Unit unit, SetupPars
     }
     SectionReader r(object, path, out);
     r.rejectUnknownKeys({"gain_percent_of_reading", "offset" + suffix, "resolution" + suffix});
-    const double maxValue = unit == Unit::Volt ? maxVoltageV : 100.0;
+    const double maxValue = unit == Unit::Volt ? maxVoltageV : unit == Unit::Watt ? maxRatedPowerVa : 100.0;
     meter.gainPercentOfReading = r.required("gain_percent_of_reading", Unit::Percent);
     if (!r.isMissing("gain_percent_of_reading"))
         r.inRange("gain_percent_of_reading", meter.gainPercentOfReading, 0.0, true, 10.0, " %",
@@ -393,7 +393,8 @@ void readMeters(const json &object, SetupParse &out, std::optional<MeterSpecs> &
         return;
     }
     SectionReader r(object, "meters", out);
-    r.rejectUnknownKeys({"voltmeter", "ammeter", "winding_temperature_u_c"});
+    r.rejectUnknownKeys({"voltmeter", "ammeter", "primary_voltmeter", "primary_ammeter", "power_meter",
+                         "winding_temperature_u_c"});
     MeterSpecs specs;
     for (const auto &[key, unit, target] : {std::tuple{"voltmeter", Unit::Volt, &specs.voltmeter},
                                             std::tuple{"ammeter", Unit::Ampere, &specs.ammeter}}) {
@@ -401,6 +402,16 @@ void readMeters(const json &object, SetupParse &out, std::optional<MeterSpecs> &
             r.error(key, "is required: the meters section describes both the secondary voltmeter and ammeter");
         else
             readMeter(object.at(key), key, unit, out, *target);
+    }
+    // The primary meters are optional: without one, its readings' own stated u is used.
+    for (const auto &[key, unit, target] : {std::tuple{"primary_voltmeter", Unit::Volt, &specs.primaryVoltmeter},
+                                            std::tuple{"primary_ammeter", Unit::Ampere, &specs.primaryAmmeter},
+                                            std::tuple{"power_meter", Unit::Watt, &specs.powerMeter}}) {
+        if (r.isMissing(key))
+            continue;
+        MeterSpec meter;
+        readMeter(object.at(key), key, unit, out, meter);
+        *target = meter;
     }
     if (auto u = r.quantity("winding_temperature_u_c", Unit::Celsius)) {
         if (r.inRange("winding_temperature_u_c", *u, 0.0, false, 50.0, " °C",
@@ -592,14 +603,24 @@ std::string setupToJson(const Setup &setup)
         root["design"] = setup.design;
     if (setup.meters) {
         const MeterSpecs &m = *setup.meters;
+        const auto meter = [](const MeterSpec &spec, const std::string &suffix) {
+            return json{{"gain_percent_of_reading", spec.gainPercentOfReading},
+                        {"offset" + suffix, spec.offset},
+                        {"resolution" + suffix, spec.resolution}};
+        };
         root["meters"] = {
-            {"voltmeter", {{"gain_percent_of_reading", m.voltmeter.gainPercentOfReading},
-                           {"offset_v", m.voltmeter.offset}, {"resolution_v", m.voltmeter.resolution}}},
-            {"ammeter", {{"gain_percent_of_reading", m.ammeter.gainPercentOfReading},
-                         {"offset_a", m.ammeter.offset}, {"resolution_a", m.ammeter.resolution}}},
+            {"voltmeter", meter(m.voltmeter, "_v")},
+            {"ammeter", meter(m.ammeter, "_a")},
             {"winding_temperature_u_c",
              m.windingTemperatureUncertaintyC ? json(*m.windingTemperatureUncertaintyC) : json(nullptr)},
         };
+        // Written only when given, so a setup without them reads back as it was.
+        if (m.primaryVoltmeter)
+            root["meters"]["primary_voltmeter"] = meter(*m.primaryVoltmeter, "_v");
+        if (m.primaryAmmeter)
+            root["meters"]["primary_ammeter"] = meter(*m.primaryAmmeter, "_a");
+        if (m.powerMeter)
+            root["meters"]["power_meter"] = meter(*m.powerMeter, "_w");
     }
     if (setup.specification) {
         const Specification &s = *setup.specification;

@@ -37,7 +37,7 @@ std::string toString(FitVoltages voltages)
 }
 
 SupplyAssessment assessSupply(const std::vector<Reading> &readings, double ratedPrimaryVoltageV, FitVoltages wanted,
-                              double tolerancePercent)
+                              double tolerancePercent, const std::optional<MeterSpec> &primaryVoltmeter)
 {
     SupplyAssessment out;
     out.ratedPrimaryVoltageV = ratedPrimaryVoltageV;
@@ -80,8 +80,15 @@ SupplyAssessment assessSupply(const std::vector<Reading> &readings, double rated
                          std::to_string(out.readingsUsed) + " readings have no primary voltage and are used as read";
     if (out.drifted)
         out.statement += "; the supply drifted beyond the tolerance during the sweep";
+    if (wanted == FitVoltages::Referred && primaryVoltmeter) {
+        // The setup's specification replaces the readings' stated u: its gain alone is common.
+        out.referralGainUPercent = primaryVoltmeter->gainPercentOfReading / std::sqrt(3.0);
+        out.referralGainFromSetup = true;
+    }
     if (wanted != FitVoltages::Referred)
         out.referralGainUPercent.reset();
+    else if (out.referralGainFromSetup && !(*out.referralGainUPercent > 0.0))
+        out.statement += "; the setup's primary voltmeter states no gain error, so none is in the budgets";
     else if (!out.referralGainUPercent)
         out.statement += "; no reading states the primary voltmeter's uncertainty, so its gain error (which scales V0 "
                          "through the referral) is not in the budgets";

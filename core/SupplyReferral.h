@@ -8,6 +8,7 @@
 #pragma once
 
 #include "Reading.h"
+#include "Setup.h"
 
 #include <optional>
 #include <string>
@@ -36,19 +37,28 @@ struct SupplyAssessment {
     double tolerancePercent = defaultSupplyDriftTolerancePercent;
     bool drifted = false;                    // driftPercent above the tolerance
     FitVoltages fitVoltages = FitVoltages::Raw; // what the fit is made on
-    // On a referred fit: the standard uncertainty of the primary voltmeter's gain, % of reading,
-    // taken as the largest stated u(V1)/V1 of the used readings (the role's accuracy rule, gain
-    // and counts, treated as common to every reading: GUM 5.2; conservative by the counts).
-    // Empty on a raw fit or when no reading states u(V1) (the statement then says so).
+    // On a referred fit: the standard uncertainty of the primary voltmeter's gain, % of reading.
+    // From the setup's `meters.primary_voltmeter` when given (its gain limit / sqrt(3), GUM
+    // 4.3.7); otherwise the largest stated u(V1)/V1 of the used readings (the role's accuracy
+    // rule, gain and counts, treated as common to every reading: GUM 5.2; conservative by the
+    // counts). Empty on a raw fit or when neither is known (the statement then says so).
     std::optional<double> referralGainUPercent;
+    bool referralGainFromSetup = false;      // referralGainUPercent came from the setup's meters
     std::string statement;                   // one sentence for every output
 };
 
 // Looks at the supply over the included readings. `wanted` Referred gives Referred only when
 // some reading carries V1; without a primary voltmeter the statement says the supply is
-// assumed to have held its rated value.
+// assumed to have held its rated value. `primaryVoltmeter`: the setup's, when given.
 SupplyAssessment assessSupply(const std::vector<Reading> &readings, double ratedPrimaryVoltageV, FitVoltages wanted,
-                              double tolerancePercent = defaultSupplyDriftTolerancePercent);
+                              double tolerancePercent = defaultSupplyDriftTolerancePercent,
+                              const std::optional<MeterSpec> &primaryVoltmeter = std::nullopt);
+
+// The setup's primary voltmeter, when its `meters` section gives one.
+inline std::optional<MeterSpec> primaryVoltmeterOf(const std::optional<MeterSpecs> &meters)
+{
+    return meters ? meters->primaryVoltmeter : std::nullopt;
+}
 
 // The readings with each secondary voltage and current (and their u) scaled by V1,rated/V1 where
 // V1 was read (above zero); others unchanged. Same order and size, so fit rows still index the

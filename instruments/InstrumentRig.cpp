@@ -68,6 +68,8 @@ std::optional<MeterSpecs> InstrumentRig::meterSpecs(std::optional<double> windin
     if (!voltmeter || !ammeter)
         return std::nullopt;
     MeterSpecs specs = meterSpecsOf(*voltmeter, *ammeter);
+    addPrimaryMeterSpecs(specs, roleConfig(MeterRole::PrimaryVoltage), roleConfig(MeterRole::PrimaryCurrent),
+                         roleConfig(MeterRole::PrimaryPower));
     specs.windingTemperatureUncertaintyC = windingUncertaintyC;
     return specs;
 }

@@ -184,6 +184,21 @@ InstrumentRig *makeRig(const RigAddresses &addresses, QString *error, QObject *p
     return rig;
 }
 
+RoleConfig virtualBenchPrimaryRoleConfig(const VirtualBenchOptions &options, MeterRole role)
+{
+    RoleConfig config = defaultRoleConfig(role);
+    config.configureCommands.clear(); // one instrument, several functions: no switching
+    if (role == MeterRole::PrimaryVoltage)
+        config.resolution = 0.01;
+    else if (role == MeterRole::PrimaryCurrent)
+        config.resolution = 0.0001;
+    else if (role == MeterRole::PrimaryPower)
+        config.accuracy = options.primaryPower.accuracy, config.resolution = options.primaryPower.resolution;
+    else if (role == MeterRole::PrimaryReactivePower)
+        config.accuracy = options.primaryReactivePower.accuracy, config.resolution = options.primaryReactivePower.resolution;
+    return config;
+}
+
 InstrumentRig *makeVirtualBenchRig(VirtualBench *bench, bool singleMeter, QObject *parent, bool primaryAnalyser)
 {
     auto *rig = new InstrumentRig(parent);
@@ -215,20 +230,8 @@ InstrumentRig *makeVirtualBenchRig(VirtualBench *bench, bool singleMeter, QObjec
         auto *analyser = new ScpiInstrument(QStringLiteral("primary analyser"), new VirtualBenchLink(bench->primaryMeter()));
         QList<RoleConfig> roles;
         for (MeterRole role : {MeterRole::PrimaryVoltage, MeterRole::PrimaryCurrent, MeterRole::PrimaryPower,
-                               MeterRole::PrimaryReactivePower}) {
-            RoleConfig config = defaultRoleConfig(role);
-            config.configureCommands.clear(); // one instrument, several functions: no switching
-            if (role == MeterRole::PrimaryVoltage)
-                config.resolution = 0.01;
-            else if (role == MeterRole::PrimaryCurrent)
-                config.resolution = 0.0001;
-            else if (role == MeterRole::PrimaryPower)
-                config.accuracy = bench->options().primaryPower.accuracy, config.resolution = bench->options().primaryPower.resolution;
-            else
-                config.accuracy = bench->options().primaryReactivePower.accuracy,
-                config.resolution = bench->options().primaryReactivePower.resolution;
-            roles << config;
-        }
+                               MeterRole::PrimaryReactivePower})
+            roles << virtualBenchPrimaryRoleConfig(bench->options(), role);
         analyser->setRoles(roles);
         rig->addInstrument(analyser);
     }

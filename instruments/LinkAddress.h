@@ -44,6 +44,11 @@ struct RigAddresses {
 
 // Builds the rig for the given addresses, or says which address is wrong.
 InstrumentRig *makeRig(const RigAddresses &addresses, QString *error, QObject *parent = nullptr);
+struct VirtualBenchOptions;
+// The accuracy and resolution of the virtual bench's mains-side analyser for one primary role,
+// as makeVirtualBenchRig configures it (and so as the setup's primary meters are filled).
+RoleConfig virtualBenchPrimaryRoleConfig(const VirtualBenchOptions &options, MeterRole role);
+
 // The virtual bench's rig, in process: a voltmeter and an ammeter (or the two-channel power
 // meter when `singleMeter`) and the programmable load; with `primaryAnalyser` also the mains-side
 // analyser serving the primary voltage, current, active and reactive power.

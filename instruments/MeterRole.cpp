@@ -102,6 +102,17 @@ MeterSpecs meterSpecsOf(const RoleConfig &voltmeter, const RoleConfig &ammeter)
     return specs;
 }
 
+void addPrimaryMeterSpecs(MeterSpecs &specs, const RoleConfig *voltmeter, const RoleConfig *ammeter,
+                          const RoleConfig *powerMeter)
+{
+    if (voltmeter)
+        specs.primaryVoltmeter = meterSpecOf(*voltmeter);
+    if (ammeter)
+        specs.primaryAmmeter = meterSpecOf(*ammeter);
+    if (powerMeter)
+        specs.powerMeter = meterSpecOf(*powerMeter);
+}
+
 RoleConfig defaultRoleConfig(MeterRole role)
 {
     RoleConfig config;

@@ -56,6 +56,10 @@ MeterSpec meterSpecOf(const RoleConfig &config);
 // The secondary voltmeter's and ammeter's rules as the setup's `meters` section; the winding
 // temperature's uncertainty is left unset (the setup's own, or the default).
 MeterSpecs meterSpecsOf(const RoleConfig &voltmeter, const RoleConfig &ammeter);
+// The primary meters' specs from the roles' accuracy rules, each only when its role is served
+// (null: not served, the spec stays absent).
+void addPrimaryMeterSpecs(MeterSpecs &specs, const RoleConfig *voltmeter, const RoleConfig *ammeter,
+                          const RoleConfig *powerMeter);
 
 // SCPI-99 defaults: MEASure:VOLTage:AC? / MEASure:CURRent:AC? (FACTS.md §8), configure with
 // the matching CONFigure command, a typical bench-meter accuracy (common practice:

@@ -49,6 +49,7 @@ std::optional<MeterSpecs> SweepRun::meterSpecsFor(const Setup &setup, const Plan
 {
     RoleConfig voltmeter = defaultRoleConfig(MeterRole::SecondaryVoltage);
     RoleConfig ammeter = defaultRoleConfig(MeterRole::SecondaryCurrent);
+    std::optional<VirtualBenchOptions> benchOptions;
     switch (source.source) {
     case ReadingSource::TypedIn:
         return std::nullopt;
@@ -59,6 +60,7 @@ std::optional<MeterSpecs> SweepRun::meterSpecsFor(const Setup &setup, const Plan
         voltmeter.resolution = bench.voltmeter.resolution;
         ammeter.accuracy = bench.ammeter.accuracy;
         ammeter.resolution = bench.ammeter.resolution;
+        benchOptions = bench;
         break;
     }
     case ReadingSource::SerialPort:
@@ -66,6 +68,13 @@ std::optional<MeterSpecs> SweepRun::meterSpecsFor(const Setup &setup, const Plan
         break; // makeRig gives every SCPI role its defaultRoleConfig
     }
     MeterSpecs specs = meterSpecsOf(voltmeter, ammeter);
+    if (benchOptions) {
+        // The window's virtual bench always has the mains-side analyser (SweepRun's rig).
+        const RoleConfig v1 = virtualBenchPrimaryRoleConfig(*benchOptions, MeterRole::PrimaryVoltage);
+        const RoleConfig i1 = virtualBenchPrimaryRoleConfig(*benchOptions, MeterRole::PrimaryCurrent);
+        const RoleConfig p1 = virtualBenchPrimaryRoleConfig(*benchOptions, MeterRole::PrimaryPower);
+        addPrimaryMeterSpecs(specs, &v1, &i1, &p1);
+    }
     if (setup.meters)
         specs.windingTemperatureUncertaintyC = setup.meters->windingTemperatureUncertaintyC;
     return specs;

@@ -482,7 +482,8 @@ const SweepWorkspace::PrimarySideView &SweepWorkspace::primarySide()
     if (!m_setup || !anyPrimary)
         return m_primary;
     const double ratedV1 = m_setup->nameplate.primaryVoltageV;
-    m_primary.supply = assessSupply(m_readings, ratedV1, FitVoltages::Referred);
+    m_primary.supply = assessSupply(m_readings, ratedV1, FitVoltages::Referred, defaultSupplyDriftTolerancePercent,
+                                    primaryVoltmeterOf(m_setup->meters));
     m_primary.fit = m_primary.supply.fitVoltages == FitVoltages::Referred
                         ? fitReadings(referToRatedSupply(m_readings, ratedV1), FitMethod::Ols, fitOptionsFor(m_setup->meters))
                         : fitReadings(m_readings, FitMethod::Ols, fitOptionsFor(m_setup->meters));

@@ -237,7 +237,8 @@ int fitCsvWithSetup(const FitArguments &args, FitReport &report)
     }
     report.meters = setup ? setup->meters : std::nullopt;
     if (setup) {
-        report.supply = assessSupply(csv.readings, setup->nameplate.primaryVoltageV, args.fitVoltages);
+        report.supply = assessSupply(csv.readings, setup->nameplate.primaryVoltageV, args.fitVoltages,
+                                     defaultSupplyDriftTolerancePercent, primaryVoltmeterOf(setup->meters));
         if (report.supply->fitVoltages == FitVoltages::Referred)
             report.fit = fitReadings(referToRatedSupply(csv.readings, setup->nameplate.primaryVoltageV), args.method,
                                      fitOptionsFor(report.meters));

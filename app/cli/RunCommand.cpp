@@ -478,7 +478,8 @@ int runRun(const Arguments &rawArgs)
         // these are the numbers `fit SESSION` prints for the new file: on the readings referred to
         // the rated supply where the primary voltage was read.
         const double ratedPrimaryV = recordedSetup.nameplate.primaryVoltageV;
-        report.supply = assessSupply(readings.value, ratedPrimaryV, FitVoltages::Referred);
+        report.supply = assessSupply(readings.value, ratedPrimaryV, FitVoltages::Referred, defaultSupplyDriftTolerancePercent,
+                                     primaryVoltmeterOf(recordedSetup.meters));
         report.fit = report.supply->fitVoltages == FitVoltages::Referred
                          ? fitReadings(referToRatedSupply(readings.value, ratedPrimaryV), FitMethod::Ols,
                                        fitOptionsFor(recordedSetup.meters))

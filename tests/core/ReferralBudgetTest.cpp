@@ -15,6 +15,7 @@
 #include "CsvReadings.h"
 #include "FitSummary.h"
 #include "SetupJson.h"
+#include "MonteCarloSampling.h"
 #include "SupplyReferral.h"
 
 #include <gtest/gtest.h>
@@ -27,22 +28,13 @@
 #include <vector>
 
 using namespace sagline;
+using namespace sagline::montecarlo;
 
 namespace {
 
 constexpr double ratedV1 = 230.0;
 constexpr double primaryGainPercent = 0.5; // the primary voltmeter's limit, ± % of reading
 constexpr double supplyFallFraction = 0.02;
-
-std::size_t draws()
-{
-    if (const char *text = std::getenv("SAGLINE_MC_DRAWS")) {
-        const long value = std::strtol(text, nullptr, 10);
-        if (value >= 1000)
-            return static_cast<std::size_t>(value);
-    }
-    return 200000;
-}
 
 struct Scenario {
     Setup setup;
@@ -78,32 +70,6 @@ Scenario makeScenario()
         sc.readings.push_back(reading);
     }
     return sc;
-}
-
-struct Sampled {
-    double u = 0.0;
-    double halfWidth = 0.0;
-};
-
-double quantile(std::vector<double> &values, double p)
-{
-    const auto k = static_cast<std::size_t>(p * static_cast<double>(values.size() - 1));
-    std::nth_element(values.begin(), values.begin() + static_cast<std::ptrdiff_t>(k), values.end());
-    return values[k];
-}
-
-Sampled summarize(std::vector<double> &values)
-{
-    double mean = 0.0;
-    for (double v : values)
-        mean += v / static_cast<double>(values.size());
-    double squares = 0.0;
-    for (double v : values)
-        squares += (v - mean) * (v - mean);
-    Sampled out;
-    out.u = std::sqrt(squares / static_cast<double>(values.size() - 1));
-    out.halfWidth = (quantile(values, 0.975) - quantile(values, 0.025)) / 2.0;
-    return out;
 }
 
 struct Results {
@@ -178,11 +144,6 @@ const BudgetComponent *primaryGainLine(const UncertainValue &value)
         if (c.source.rfind("primary voltmeter gain", 0) == 0)
             return &c;
     return nullptr;
-}
-
-void expectWithin(double analytic, double sampled, double tolerance, const std::string &what)
-{
-    EXPECT_NEAR(analytic / sampled, 1.0, tolerance) << what << ": analytic " << analytic << ", sampled " << sampled;
 }
 
 } // namespace

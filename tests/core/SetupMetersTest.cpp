@@ -122,3 +122,59 @@ TEST(SetupMeters, BadFieldsAreNamedWithTheirRule)
     stray["limits"] = json::object();
     EXPECT_TRUE(names(parseSetupJson(stray.dump()), "limits", "meters and specification"));
 }
+
+TEST(SetupMeters, ReadsThePrimaryMetersAndWritesThemBack)
+{
+    json document = setupWithSections();
+    document["meters"]["primary_voltmeter"] = {{"gain_percent_of_reading", "0.5 %"}, {"offset_v", "0.1 V"},
+                                               {"resolution_v", "10 mV"}};
+    document["meters"]["primary_ammeter"] = {{"gain_percent_of_reading", 1}, {"offset_a", "0.3 mA"},
+                                             {"resolution_a", "0.1 mA"}};
+    document["meters"]["power_meter"] = {{"gain_percent_of_reading", 0.5}, {"offset_w", "30 mW"},
+                                         {"resolution_w", "0.01 W"}};
+    const SetupParse parsed = parseSetupJson(document.dump());
+    ASSERT_TRUE(parsed.setup && parsed.setup->meters) << listed(parsed);
+    const MeterSpecs &m = *parsed.setup->meters;
+    ASSERT_TRUE(m.primaryVoltmeter && m.primaryAmmeter && m.powerMeter);
+    EXPECT_DOUBLE_EQ(m.primaryVoltmeter->gainPercentOfReading, 0.5);
+    EXPECT_DOUBLE_EQ(m.primaryVoltmeter->offset, 0.1);
+    EXPECT_DOUBLE_EQ(m.primaryVoltmeter->resolution, 0.01);
+    EXPECT_DOUBLE_EQ(m.primaryAmmeter->offset, 0.0003);
+    EXPECT_DOUBLE_EQ(m.primaryAmmeter->resolution, 0.0001);
+    EXPECT_DOUBLE_EQ(m.powerMeter->gainPercentOfReading, 0.5);
+    EXPECT_DOUBLE_EQ(m.powerMeter->offset, 0.03);
+    EXPECT_DOUBLE_EQ(m.powerMeter->resolution, 0.01);
+
+    const std::string written = setupToJson(*parsed.setup);
+    EXPECT_NE(written.find("\"offset_w\""), std::string::npos);
+    const SetupParse again = parseSetupJson(written);
+    ASSERT_TRUE(again.setup && again.setup->meters) << listed(again);
+    EXPECT_EQ(setupToJson(*again.setup), written);
+    ASSERT_TRUE(again.setup->meters->powerMeter);
+    EXPECT_DOUBLE_EQ(again.setup->meters->powerMeter->offset, 0.03);
+}
+
+TEST(SetupMeters, PrimaryMetersAreOptionalAndNotWrittenWhenAbsent)
+{
+    const SetupParse parsed = parseSetupJson(setupWithSections().dump());
+    ASSERT_TRUE(parsed.setup && parsed.setup->meters) << listed(parsed);
+    EXPECT_FALSE(parsed.setup->meters->primaryVoltmeter);
+    EXPECT_FALSE(parsed.setup->meters->primaryAmmeter);
+    EXPECT_FALSE(parsed.setup->meters->powerMeter);
+    EXPECT_EQ(setupToJson(*parsed.setup).find("primary_voltmeter"), std::string::npos);
+}
+
+TEST(SetupMeters, NamesABadPrimaryMeterField)
+{
+    json document = setupWithSections();
+    document["meters"]["power_meter"] = {{"gain_percent_of_reading", 20}, {"offset_w", "3 V"}, {"resolution_w", -1}};
+    document["meters"]["primary_voltmeter"] = {{"gain_percent_of_reading", 0.5}, {"offset_v", 0.1}};
+    document["meters"]["primary_ammeter"] = "1 %";
+    const SetupParse parsed = parseSetupJson(document.dump());
+    EXPECT_FALSE(parsed.setup);
+    EXPECT_TRUE(names(parsed, "meters.power_meter.gain_percent_of_reading", "at most")) << listed(parsed);
+    EXPECT_TRUE(names(parsed, "meters.power_meter.offset_w", "W")) << listed(parsed);
+    EXPECT_TRUE(names(parsed, "meters.power_meter.resolution_w", "")) << listed(parsed);
+    EXPECT_TRUE(names(parsed, "meters.primary_voltmeter.resolution_v", "required")) << listed(parsed);
+    EXPECT_TRUE(names(parsed, "meters.primary_ammeter", "object")) << listed(parsed);
+}

@@ -72,15 +72,28 @@ TEST(PrimarySideSweep, SimulatedSweepGivesBackTheSimulatorsParameters)
     // The analysis as a session gets it: the meters' rules, the fit on the referred readings.
     sagline::Setup recorded = setup;
     recorded.meters = rig->meterSpecs(std::nullopt);
+    // The primary analyser's accuracy rules become the setup's primary meters, as the secondary
+    // pair's do (gain = % of reading, offset = counts × resolution).
+    ASSERT_TRUE(recorded.meters && recorded.meters->primaryVoltmeter && recorded.meters->primaryAmmeter
+                && recorded.meters->powerMeter);
+    const RoleConfig *powerRole = rig->roleConfig(MeterRole::PrimaryPower);
+    ASSERT_NE(powerRole, nullptr);
+    EXPECT_DOUBLE_EQ(recorded.meters->powerMeter->gainPercentOfReading, powerRole->accuracy.percentOfReading);
+    EXPECT_DOUBLE_EQ(recorded.meters->powerMeter->offset, powerRole->accuracy.counts * powerRole->resolution);
+    EXPECT_DOUBLE_EQ(recorded.meters->powerMeter->resolution, powerRole->resolution);
     const AnalysisInput analysisInput = analysisInputFor(recorded);
-    const SupplyAssessment supply = assessSupply(readings, setup.nameplate.primaryVoltageV, FitVoltages::Referred);
+    SupplyAssessment supply = assessSupply(readings, setup.nameplate.primaryVoltageV, FitVoltages::Referred,
+                                           defaultSupplyDriftTolerancePercent, primaryVoltmeterOf(recorded.meters));
     EXPECT_EQ(supply.fitVoltages, FitVoltages::Referred);
+    EXPECT_TRUE(supply.referralGainFromSetup);
     const FitSummary fit = fitReadings(referToRatedSupply(readings, setup.nameplate.primaryVoltageV), FitMethod::Ols,
                                        fitOptionsFor(recorded.meters));
     ASSERT_TRUE(fit.ok()) << fit.message;
-    const AnalysisResult analysis = analyseFit(fit, analysisInput);
+    AnalysisInput referredInput = analysisInput;
+    referredInput.referralGainUPercent = supply.referralGainUPercent;
+    const AnalysisResult analysis = analyseFit(fit, referredInput);
     ASSERT_TRUE(analysis.ok());
-    const PrimarySideResult primary = analysePrimarySide(readings, &fit, &analysisInput, primarySideInputFor(setup.nameplate));
+    const PrimarySideResult primary = analysePrimarySide(readings, &fit, &referredInput, primarySideInputFor(setup.nameplate));
     ASSERT_TRUE(primary.errors.empty());
 
     const TransformerParameters &t = options.transformer;
