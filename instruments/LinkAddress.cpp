@@ -189,9 +189,9 @@ RoleConfig virtualBenchPrimaryRoleConfig(const VirtualBenchOptions &options, Met
     RoleConfig config = defaultRoleConfig(role);
     config.configureCommands.clear(); // one instrument, several functions: no switching
     if (role == MeterRole::PrimaryVoltage)
-        config.resolution = 0.01;
+        config.accuracy = options.primaryVoltmeter.accuracy, config.resolution = options.primaryVoltmeter.resolution;
     else if (role == MeterRole::PrimaryCurrent)
-        config.resolution = 0.0001;
+        config.accuracy = options.primaryAmmeter.accuracy, config.resolution = options.primaryAmmeter.resolution;
     else if (role == MeterRole::PrimaryPower)
         config.accuracy = options.primaryPower.accuracy, config.resolution = options.primaryPower.resolution;
     else if (role == MeterRole::PrimaryReactivePower)

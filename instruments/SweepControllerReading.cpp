@@ -6,6 +6,7 @@
 #include "InstrumentRig.h"
 #include "ScpiInstrument.h"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdlib>
 #include <functional>
@@ -43,11 +44,18 @@ void SweepController::readPair()
     const int serial = ++m_readSerial;
     // The secondary pair, plus the optional primary meters when the rig has them. Instruments
     // read in parallel; the roles of one instrument one after the other.
-    std::map<ScpiInstrument *, std::vector<MeterRole>> byInstrument;
+    // In the order of the roles (the secondary voltmeter's instrument first), never by address:
+    // an order that followed the heap would let the virtual bench's meters draw their noise in a
+    // different order from run to run, and a seeded sweep would not be the same sweep.
+    std::vector<std::pair<ScpiInstrument *, std::vector<MeterRole>>> byInstrument;
     auto pending = std::make_shared<PendingRead>();
     for (MeterRole role : allMeterRoles()) {
         if (ScpiInstrument *instrument = m_rig->instrumentFor(role)) {
-            byInstrument[instrument].push_back(role);
+            auto entry = std::find_if(byInstrument.begin(), byInstrument.end(),
+                                      [instrument](const auto &e) { return e.first == instrument; });
+            if (entry == byInstrument.end())
+                entry = byInstrument.insert(byInstrument.end(), {instrument, {}});
+            entry->second.push_back(role);
             ++pending->expected;
         }
     }

@@ -63,6 +63,9 @@ VirtualBench::VirtualBench(const VirtualBenchOptions &options, Clock *clock, QOb
     m_ammeterGain = 1.0 + unit(m_random) * options.ammeter.accuracy.percentOfReading / 300.0;
     m_powerGain = 1.0 + unit(m_primaryRandom) * options.primaryPower.accuracy.percentOfReading / 300.0;
     m_reactiveGain = 1.0 + unit(m_primaryRandom) * options.primaryReactivePower.accuracy.percentOfReading / 300.0;
+    // Drawn after the power channels' so theirs stay what they were for a seed.
+    m_primaryVoltmeterGain = 1.0 + unit(m_primaryRandom) * options.primaryVoltmeter.accuracy.percentOfReading / 300.0;
+    m_primaryAmmeterGain = 1.0 + unit(m_primaryRandom) * options.primaryAmmeter.accuracy.percentOfReading / 300.0;
     m_voltmeter = new SimInstrument(SimInstrumentKind::Voltmeter, this, options.seed * 4 + 1, this);
     m_ammeter = new SimInstrument(SimInstrumentKind::Ammeter, this, options.seed * 4 + 2, this);
     m_powerMeter = new SimInstrument(SimInstrumentKind::PowerMeter, this, options.seed * 4 + 3, this);
@@ -189,22 +192,15 @@ std::optional<double> VirtualBench::readPrimaryVoltage()
 {
     // The mains meter sits on the supply side of the fuse (common practice: it shows the
     // supply even when the fuse has opened): the terminal voltage while the primary is supplied,
-    // the supply's own EMF once the fuse opened. Ranged and specified like the secondary meters.
-    SimMeterSpec spec = m_options.voltmeter;
-    spec.rangeMax = 750.0;
-    spec.resolution = 0.01;
-    spec.noiseSd = 0.01;
+    // the supply's own EMF once the fuse opened.
     const TransformerState s = state();
-    return primaryReading(s.supplied ? s.primaryVoltageV : m_options.transformer.primaryVoltageV, spec, m_voltmeterGain);
+    return primaryReading(s.supplied ? s.primaryVoltageV : m_options.transformer.primaryVoltageV, m_options.primaryVoltmeter,
+                          m_primaryVoltmeterGain);
 }
 
 std::optional<double> VirtualBench::readPrimaryCurrent()
 {
-    SimMeterSpec spec = m_options.ammeter;
-    spec.rangeMax = 10.0;
-    spec.resolution = 0.0001;
-    spec.noiseSd = 0.0001;
-    return primaryReading(state().primaryCurrentA, spec, m_ammeterGain);
+    return primaryReading(state().primaryCurrentA, m_options.primaryAmmeter, m_primaryAmmeterGain);
 }
 
 std::optional<double> VirtualBench::readPrimaryPower()

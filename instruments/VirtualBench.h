@@ -31,8 +31,11 @@ struct VirtualBenchOptions {
     std::optional<FuseSpec> fuse;  // the primary fuse; none = no fuse fitted
     SimMeterSpec voltmeter;
     SimMeterSpec ammeter;
-    // The primary power analyser's active and reactive power channels (W, var); its voltage and
-    // current channels are specified like the secondary meters, ranged for the mains.
+    // The primary power analyser's channels: voltage (V, ranged for the mains), current (A), active
+    // and reactive power (W, var). Each has its own gain error, drawn once like the secondary
+    // meters' (independent of theirs), and its own noise, from the analyser's own random sequence.
+    SimMeterSpec primaryVoltmeter{0.01, 0.01, {0.5, 3}, 750.0};
+    SimMeterSpec primaryAmmeter{0.0001, 0.0001, {1.0, 3}, 10.0};
     SimMeterSpec primaryPower{0.01, 0.01, {0.5, 3}, 5000.0};
     SimMeterSpec primaryReactivePower{0.01, 0.01, {1.0, 3}, 5000.0};
     std::uint64_t seed = 1;
@@ -88,6 +91,8 @@ public:
     // The meters' fixed gain errors (reading = true value x gain), drawn once from the seed.
     double voltmeterGain() const { return m_voltmeterGain; }
     double ammeterGain() const { return m_ammeterGain; }
+    double primaryVoltmeterGain() const { return m_primaryVoltmeterGain; }
+    double primaryAmmeterGain() const { return m_primaryAmmeterGain; }
 
 signals:
     void fuseOpened(double primaryCurrentA);
@@ -108,6 +113,8 @@ private:
     double m_reactiveGain = 1.0;
     double m_voltmeterGain = 1.0;
     double m_ammeterGain = 1.0;
+    double m_primaryVoltmeterGain = 1.0;
+    double m_primaryAmmeterGain = 1.0;
     SimInstrument *m_voltmeter;
     SimInstrument *m_ammeter;
     SimInstrument *m_powerMeter;

@@ -24,6 +24,12 @@ QString withU(bool ok, double value, const std::optional<double> &u, const std::
     return ok ? qs(formatWithCoverage(value, u, k, unit)) : QStringLiteral("—");
 }
 
+// The primary side's efficiency at rated load or no-load loss, as the review table shows them.
+QString primaryWithU(const std::optional<UncertainValue> &value, const char *unit)
+{
+    return value ? withU(true, value->value, value->expandedUncertainty, value->coverageFactor, unit) : QStringLiteral("—");
+}
+
 QString ohm(const std::optional<double> &v) { return v ? qs(formatQuantity(*v, "Ω")) : QStringLiteral("—"); }
 
 QString fileName(const SessionRow &row) { return QFileInfo(qs(row.path)).fileName(); }
@@ -32,6 +38,30 @@ QString fileName(const SessionRow &row) { return QFileInfo(qs(row.path)).fileNam
 QString startedText(const std::string &utc)
 {
     return utc.size() >= 16 && utc[10] == 'T' ? qs(utc.substr(0, 10) + " " + utc.substr(11, 5)) : qs(utc);
+}
+
+// The review table's primary-side columns, as a table of their own under the design's (the
+// summary table has no room left for two more columns): only when some unit of the design had its
+// mains side read; a dash where a unit did not.
+void drawPrimarySide(ReportCanvas &canvas, const DesignStatistics &design, const std::vector<const SessionRow *> &rows)
+{
+    QList<QStringList> table;
+    bool any = false;
+    for (std::size_t i : design.rows) {
+        const SessionRow &row = *rows[i];
+        any = any || row.primarySide.has_value();
+        table.append({fileName(row), qs(row.unitSerial), primaryWithU(row.efficiencyAtRated(), "%"),
+                      primaryWithU(row.noLoadLoss(), "W")});
+    }
+    if (!any)
+        return;
+    canvas.paragraph(QObject::tr("Primary side (mains meters read): efficiency at rated load from the model V = V0 - R·I "
+                                 "with the no-load loss, and the no-load (core) loss at the rated primary voltage."),
+                     8.0);
+    canvas.table({{QObject::tr("File"), 0.28}, {QObject::tr("Unit"), 0.18},
+                  {QObject::tr("η at rated ± U"), 0.27, Qt::AlignRight},
+                  {QObject::tr("No-load loss ± U"), 0.27, Qt::AlignRight}},
+                 table);
 }
 
 void drawDesign(ReportCanvas &canvas, const DesignStatistics &design, const std::vector<const SessionRow *> &rows,
@@ -73,6 +103,7 @@ void drawDesign(ReportCanvas &canvas, const DesignStatistics &design, const std:
                   {QObject::tr("Regulation ± U"), 0.11, Qt::AlignRight}, {QObject::tr("Verdict"), 0.14},
                   {QObject::tr("Reviewer's decision"), 0.12}},
                  table);
+    drawPrimarySide(canvas, design, rows);
 }
 
 // Every safety stop and every session that ended early, by name: a lab lead must not have to

@@ -524,6 +524,13 @@ int runRun(const Arguments &rawArgs)
                   << " %, ammeter " << QString::number((gi - 1.0) * 100.0, 'f', 3).toStdString()
                   << " %; seen through them: V0 " << QString::number(t.noLoadVoltageV() * gv, 'f', 4).toStdString() << " V, R "
                   << QString::number(t.seriesResistanceOhm * gv / gi, 'f', 4).toStdString() << " Ω at 20 °C\n";
+        // The fit is on readings referred to the rated supply through the analyser's own voltmeter
+        // (V2 and I2 × V1,rated/V1 read): V0 is seen × 1/g1 more, R is not.
+        if (args.simPrimaryMeter)
+            std::cout << "  referred through the primary analyser's voltmeter (gain error "
+                      << QString::number((bench->primaryVoltmeterGain() - 1.0) * 100.0, 'f', 3).toStdString() << " %): V0 "
+                      << QString::number(t.noLoadVoltageV() * gv / bench->primaryVoltmeterGain(), 'f', 4).toStdString()
+                      << " V\n";
         printVirtualBenchTruth(*bench, plan.ratedSecondaryCurrentA, std::cout);
     }
     switch (result) {

@@ -228,6 +228,10 @@ TEST(PrimaryMeterBudget, AgreesWithMonteCarlo)
         const UncertainValue &value = *checks[k].first;
         ASSERT_TRUE(value.standardUncertainty && value.expandedUncertainty) << names[k];
         expectWithin(*value.standardUncertainty, checks[k].second.u, 0.05, std::string(names[k]) + " u");
+        // The ratios, for the record (--gtest_output=json): analytic over sampled.
+        RecordProperty(std::string(names[k]) + " u ratio", std::to_string(*value.standardUncertainty / checks[k].second.u));
+        RecordProperty(std::string(names[k]) + " U95 ratio",
+                       std::to_string(*value.expandedUncertainty / checks[k].second.halfWidth));
         expectWithin(*value.expandedUncertainty, checks[k].second.halfWidth, 0.05, std::string(names[k]) + " U95");
     }
     // The check can fail: the power meter's gain taken per reading (root sum of squares of its
@@ -243,4 +247,5 @@ TEST(PrimaryMeterBudget, AgreesWithMonteCarlo)
         }
     }
     EXPECT_GT(std::sqrt(independentSquares) / sampled.remainderAtTop.u, 1.05);
+    RecordProperty("remainder u ratio with the gain per reading", std::to_string(std::sqrt(independentSquares) / sampled.remainderAtTop.u));
 }

@@ -1,6 +1,7 @@
 // The review table's efficiency-at-rated and no-load-loss columns: for a session with primary
 // readings they hold the numbers the session's own summary (what `fit`, the report and `compare`
-// print) gives, with U and k; for a session without, a dash and a tooltip that says why.
+// print) gives, with U and k; for a session without, a dash and a tooltip that says why. The
+// review PDF's summary table has the same two columns (read back with Debian's pdftotext).
 #include "../core/ReviewTestSupport.h"
 
 #include "ReviewTableModel.h"
@@ -10,6 +11,7 @@
 
 #include <QDir>
 #include <QHeaderView>
+#include <QProcess>
 #include <QSignalSpy>
 #include <QTableView>
 #include <QTest>
@@ -108,6 +110,30 @@ TEST(ReviewPrimaryColumns, EfficiencyAndNoLoadLossAsTheSessionSummaryGivesThem)
         }
     }
     EXPECT_EQ(checked, 2);
+
+    // The review PDF's summary page: the same columns, with their units, in the same words.
+    const QString pdf = QString::fromStdString(folder.file("review.pdf"));
+    ASSERT_EQ(window->exportPdf(pdf), QString());
+    QProcess pdftotext;
+    pdftotext.start(QStringLiteral("pdftotext"), {QStringLiteral("-layout"), pdf, QStringLiteral("-")});
+    ASSERT_TRUE(pdftotext.waitForFinished(30000));
+    const QString pdfText = QString::fromUtf8(pdftotext.readAllStandardOutput());
+    const QString summaryPage = pdfText.section(QLatin1Char('\f'), 0, 0);
+    // One line per unit in the primary side's table: its serial, then both cells whole.
+    QString primaryLine, secondaryLine;
+    for (const QString &line : summaryPage.split(QLatin1Char('\n'))) {
+        if (line.contains(QStringLiteral("η at rated ± U"))) {
+            EXPECT_TRUE(line.contains(QStringLiteral("No-load loss ± U"))) << line.toStdString();
+        }
+        if (line.contains(QStringLiteral("PRI-1")) && line.contains(QStringLiteral(" W ± ")))
+            primaryLine = line;
+        if (line.contains(QStringLiteral("SEC-1")) && line.count(QStringLiteral("—")) == 2)
+            secondaryLine = line;
+    }
+    EXPECT_TRUE(summaryPage.contains(QStringLiteral("η at rated ± U"))) << summaryPage.toStdString();
+    EXPECT_TRUE(primaryLine.contains(shown(efficiency, "%"))) << primaryLine.toStdString() << "\n" << summaryPage.toStdString();
+    EXPECT_TRUE(primaryLine.contains(shown(noLoadLoss, "W"))) << primaryLine.toStdString();
+    EXPECT_FALSE(secondaryLine.isEmpty()) << "the unit without primary readings has two dashes\n" << summaryPage.toStdString();
 
     // SAGLINE_SCREENSHOT_DIR: the table scrolled to the new columns, at 1366x768.
     const QString shots = qEnvironmentVariable("SAGLINE_SCREENSHOT_DIR");
