@@ -1,7 +1,9 @@
 // Quadratic fit y = c0 + c1·x + c2·x² and the test of its curvature term, to warn that the V–I
-// line bends (core saturation, winding heating). x is centred and scaled to [-1, 1] and the
-// system solved by column-pivoting Householder QR (Eigen), so it keeps digits where raw power
-// sums would not (checked on NIST StRD Pontius).
+// line bends (core saturation, winding heating). x is centred and scaled to [-1, 1] (t) and y
+// centred, so the normal equations in 1, t, t² are well conditioned (raw power sums of x would
+// not be); they are solved from sums in one pass, then refined once from the residuals of a second
+// pass (one step of iterative refinement), which gives the digits a QR over the n rows gave
+// (checked on NIST StRD Pontius) without an n × 3 matrix.
 #pragma once
 
 #include "FitStatus.h"

@@ -16,7 +16,11 @@ struct FitInput {
     std::vector<std::size_t> rows;
     std::vector<double> x, y, sx, sy;
     std::vector<double> weights;
-    std::vector<char> statedU, hasUI; // the reading stated u_voltage_v / u_current_a
+    std::vector<char> hasUI;          // the reading stated u_current_a
+    // Every used reading stated u_voltage_v. sx, sy and hasUI are filled only while this holds
+    // (OLS needs them only then, for the screen's σ): a CSV without uncertainties touches no
+    // page of them.
+    bool allStated = true;
 };
 
 bool isFitted(const Reading &reading)
@@ -80,7 +84,6 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
     for (auto *column : {&input.x, &input.y, &input.sx, &input.sy, &input.weights})
         column->reserve(readings.size());
     input.rows.reserve(readings.size());
-    input.statedU.reserve(readings.size());
     input.hasUI.reserve(readings.size());
     for (std::size_t row = 0; row < readings.size(); ++row) {
         const RowValues reading = readings[row];
@@ -113,11 +116,18 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
         input.rows.push_back(row);
         input.x.push_back(reading.currentA);
         input.y.push_back(reading.voltageV);
-        input.sx.push_back(uI);
-        input.sy.push_back(uV);
         input.weights.push_back(method == FitMethod::Wls ? 1.0 / (uV * uV) : 1.0);
-        input.statedU.push_back(reading.uVoltageV && std::isfinite(uV) && uV > 0.0);
-        input.hasUI.push_back(reading.uCurrentA && std::isfinite(uI) && uI > 0.0);
+        if (input.allStated && !(reading.uVoltageV && std::isfinite(uV) && uV > 0.0)) {
+            input.allStated = false; // only OLS gets here (the others need u(V) > 0)
+            input.sx.clear();
+            input.sy.clear();
+            input.hasUI.clear();
+        }
+        if (input.allStated) {
+            input.sx.push_back(uI);
+            input.sy.push_back(uV);
+            input.hasUI.push_back(reading.uCurrentA && std::isfinite(uI) && uI > 0.0);
+        }
     }
     return FitStatus::Ok;
 }
@@ -176,19 +186,22 @@ LineFitResult batchLine(const FitInput &input, bool absoluteWeights)
     return r;
 }
 
-// Studentized residuals (information) and the outlier screen over the used points.
-void screen(FitSummary &summary, const FitInput &input, const FitOptions &options)
+// What the per-point pass of fitRows works from: one value per used point, in input order.
+struct UsedPointResults {
+    std::vector<double> residuals;                   // V_i - (a + b·I_i), V
+    std::vector<std::optional<double>> studentized;  // shown (externally studentized)
+    std::vector<std::optional<double>> compared;     // what the outlier screen compared (empty:
+                                                     // the studentized residuals, one pass)
+    std::vector<bool> flagged;                       // the screen's flags
+};
+
+// Studentized residuals (information) and the outlier screen over the used points. sums are the
+// fit's own Σw, x̄, Sxx and Σw·e² (the numbers the screen would compute again).
+void screen(FitSummary &summary, const FitInput &input, const FitOptions &options, const ResidualSums &sums,
+            double maxAbsY, double meanW, bool stated, UsedPointResults &results)
 {
     const std::size_t n = input.x.size();
-    std::vector<double> residuals(n), sigma;
-    double maxAbsY = 0.0, meanW = 0.0;
-    bool stated = true;
-    for (std::size_t i = 0; i < n; ++i) {
-        residuals[i] = summary.points[input.rows[i]].residualV;
-        maxAbsY = std::max(maxAbsY, std::fabs(input.y[i]));
-        meanW += input.weights[i] / static_cast<double>(n);
-        stated = stated && input.statedU[i];
-    }
+    std::vector<double> sigma;
     summary.statedRandomUncertainty = stated;
     if (stated) {
         sigma.resize(n);
@@ -202,23 +215,14 @@ void screen(FitSummary &summary, const FitInput &input, const FitOptions &option
     const bool unitWeights = summary.method == FitMethod::Ols;
     const double studentFloor = unitWeights ? std::max(summary.scatterFloorV, numericFloorV)
                                             : numericFloorV * std::sqrt(meanW);
-    std::vector<std::optional<double>> statistics;
-    std::vector<bool> flagged;
-    // The externally studentized residuals, always shown (n >= 4).
-    externallyStudentizedResiduals(input.x, residuals, input.weights, studentFloor, statistics);
-    for (std::size_t i = 0; i < n; ++i)
-        summary.points[input.rows[i]].studentized = statistics[i];
+    // The externally studentized residuals, always shown (n >= 4). Without stated uncertainties
+    // they are also the screen's first pass (same weights, same floor): computed once.
+    externallyStudentizedResiduals(input.x, results.residuals, input.weights, studentFloor, sums,
+                                   results.studentized);
     summary.outlierScreening =
-        screenResiduals(input.x, residuals, input.weights, sigma,
+        screenResiduals(input.x, results.residuals, input.weights, sigma,
                         stated ? std::max(summary.scatterFloorV, numericFloorV) : studentFloor, options.outlierScreen,
-                        statistics, flagged);
-    for (std::size_t i = 0; i < n; ++i) {
-        PointFit &point = summary.points[input.rows[i]];
-        point.screeningStatistic = statistics[i];
-        point.outlier = flagged[i];
-        if (point.outlier)
-            summary.outlierRows.push_back(point.row);
-    }
+                        results.compared, results.flagged, stated ? nullptr : &results.studentized);
 }
 
 } // namespace
@@ -330,27 +334,31 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
         }
     }
 
-    // Residuals of every row; sums over the fitted ones.
-    summary.points.resize(readings.size());
-    for (std::size_t row = 0; row < readings.size(); ++row) {
-        PointFit &point = summary.points[row];
-        point.row = row;
-        const RowValues reading = readings[row];
-        if (std::isfinite(reading.currentA) && std::isfinite(reading.voltageV))
-            point.residualV = reading.voltageV - summary.intercept - summary.slope * reading.currentA;
-    }
-    double sumW = 0.0, meanY = 0.0, ssrPlain = 0.0, ssrWeighted = 0.0, sst = 0.0;
+    // One pass over the used points: residuals and the sums, each added in input order as
+    // before (the same numbers); a second for the centred sums.
+    UsedPointResults used;
+    used.residuals.resize(n);
+    double sumW = 0.0, sumWY = 0.0, sumWX = 0.0, ssrPlain = 0.0, ssrWeighted = 0.0, maxAbsY = 0.0, meanW = 0.0;
+    const bool stated = input.allStated;
     for (std::size_t i = 0; i < n; ++i) {
-        summary.points[input.rows[i]].used = true;
-        sumW += input.weights[i];
-        meanY += input.weights[i] * input.y[i];
-    }
-    meanY /= sumW;
-    for (std::size_t i = 0; i < n; ++i) {
-        const double e = summary.points[input.rows[i]].residualV;
+        const double w = input.weights[i];
+        const double e = input.y[i] - summary.intercept - summary.slope * input.x[i];
+        used.residuals[i] = e;
+        sumW += w;
+        sumWY += w * input.y[i];
+        sumWX += w * input.x[i];
         ssrPlain += e * e;
-        ssrWeighted += input.weights[i] * e * e;
-        sst += input.weights[i] * (input.y[i] - meanY) * (input.y[i] - meanY);
+        ssrWeighted += w * e * e;
+        maxAbsY = std::max(maxAbsY, std::fabs(input.y[i]));
+        meanW += w / static_cast<double>(n);
+    }
+    const double meanY = sumWY / sumW;
+    const double meanX = sumWX / sumW;
+    double sst = 0.0, sxx = 0.0;
+    for (std::size_t i = 0; i < n; ++i) {
+        const double w = input.weights[i];
+        sst += w * (input.y[i] - meanY) * (input.y[i] - meanY);
+        sxx += w * (input.x[i] - meanX) * (input.x[i] - meanX);
     }
     if (sst > 0.0)
         summary.rSquared = std::clamp(1.0 - ssrWeighted / sst, 0.0, 1.0);
@@ -368,16 +376,34 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
         const double r = summary.seriesResistanceOhm();
         summary.seriesResistanceCi = Interval{r - half, r + half};
     }
-    double meanX = 0.0;
-    for (std::size_t i = 0; i < n; ++i)
-        meanX += input.weights[i] * input.x[i];
-    meanX /= sumW;
     summary.sumWeights = sumW;
     summary.meanCurrentA = meanX;
-    summary.sxx = 0.0;
-    for (std::size_t i = 0; i < n; ++i)
-        summary.sxx += input.weights[i] * (input.x[i] - meanX) * (input.x[i] - meanX);
-    screen(summary, input, options);
+    summary.sxx = sxx;
+    screen(summary, input, options, ResidualSums{sumW, meanX, sxx, ssrWeighted}, maxAbsY, meanW, stated, used);
+
+    // One result per input row, written once: a used row from the vectors above, any other
+    // row's residual from its own values.
+    summary.points.reserve(readings.size());
+    std::size_t next = 0; // the next used point
+    for (std::size_t row = 0; row < readings.size(); ++row) {
+        PointFit point;
+        point.row = row;
+        if (next < n && input.rows[next] == row) {
+            point.used = true;
+            point.residualV = used.residuals[next];
+            point.studentized = used.studentized[next];
+            point.screeningStatistic = used.compared.empty() ? used.studentized[next] : used.compared[next];
+            point.outlier = used.flagged[next];
+            if (point.outlier)
+                summary.outlierRows.push_back(row);
+            ++next;
+        } else {
+            const RowValues reading = readings[row];
+            if (std::isfinite(reading.currentA) && std::isfinite(reading.voltageV))
+                point.residualV = reading.voltageV - summary.intercept - summary.slope * reading.currentA;
+        }
+        summary.points.push_back(point);
+    }
     return summary;
 }
 

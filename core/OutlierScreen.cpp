@@ -61,13 +61,10 @@ void normalizedResiduals(std::span<const double> x, std::span<const double> e, s
 // Externally studentized residuals t_i = sqrt(w_i) e_i / (s_(i) sqrt(1 - h_i)), where s_(i) is the
 // scatter without point i ((n-2)s² - w_i e_i²/(1 - h_i))/(n-3), floored by floorV.
 void studentized(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
-                 std::vector<std::optional<double>> &out)
+                 const ResidualSums &c, std::vector<std::optional<double>> &out)
 {
     const std::size_t n = x.size();
-    const Centre c = centreOf(x, w);
-    double ssr = 0.0;
-    for (std::size_t i = 0; i < n; ++i)
-        ssr += w[i] * e[i] * e[i];
+    const double ssr = c.ssr;
     const double dof = static_cast<double>(n) - 2.0;
     for (std::size_t i = 0; i < n; ++i) {
         const double d = x[i] - c.meanX;
@@ -82,6 +79,21 @@ void studentized(std::span<const double> x, std::span<const double> e, std::span
             continue; // no floor and no scatter left: no ratio to form
         out[i] = std::sqrt(w[i]) * e[i] / (s * std::sqrt(1.0 - hii));
     }
+}
+
+ResidualSums sumsOf(std::span<const double> x, std::span<const double> e, std::span<const double> w)
+{
+    const Centre c = centreOf(x, w);
+    ResidualSums sums{c.sumW, c.meanX, c.sxx, 0.0};
+    for (std::size_t i = 0; i < x.size(); ++i)
+        sums.ssr += w[i] * e[i] * e[i];
+    return sums;
+}
+
+void studentized(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
+                 std::vector<std::optional<double>> &out)
+{
+    studentized(x, e, w, floorV, sumsOf(x, e, w), out);
 }
 
 // "5", "2.5": a percentage as people write it.
@@ -105,6 +117,15 @@ void externallyStudentizedResiduals(std::span<const double> x, std::span<const d
     statistics.assign(x.size(), std::nullopt);
     if (x.size() >= 4)
         studentized(x, residuals, weights, floor, statistics);
+}
+
+void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
+                                    std::span<const double> weights, double floor, const ResidualSums &sums,
+                                    std::vector<std::optional<double>> &statistics)
+{
+    statistics.assign(x.size(), std::nullopt);
+    if (x.size() >= 4)
+        studentized(x, residuals, weights, floor, sums, statistics);
 }
 
 double resolutionScatterV(double voltageResolutionV, double currentResolutionA, double slopeVPerA)
@@ -153,7 +174,8 @@ void refitResiduals(std::vector<double> &x, std::vector<double> &e, const std::v
 OutlierScreening screenResiduals(std::span<const double> x, std::span<const double> residuals,
                                  std::span<const double> weights, std::span<const double> knownSigmaV,
                                  double scatterFloorV, const OutlierScreenOptions &options,
-                                 std::vector<std::optional<double>> &statistics, std::vector<bool> &flagged)
+                                 std::vector<std::optional<double>> &statistics, std::vector<bool> &flagged,
+                                 const std::vector<std::optional<double>> *firstPass)
 {
     const std::size_t n = x.size();
     flagged.assign(n, false);
@@ -169,7 +191,12 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
         screening.rule = "externally studentized residual (n - 3 degrees of freedom"
                          + std::string(floorV > 0.0 ? ", scatter floored by the resolution" : "")
                          + "), against t(1 - α/(2n), n - 3) (" + family + ")" + sequence;
-    passStatistics(known, x, residuals, weights, knownSigmaV, floorV, statistics);
+    const bool given = firstPass && !known && firstPass->size() == n;
+    if (given)
+        statistics.clear();
+    else
+        passStatistics(known, x, residuals, weights, knownSigmaV, floorV, statistics);
+    const std::vector<std::optional<double>> &first = given ? *firstPass : statistics;
     if (n < options.minimumPoints) {
         screening.reason = "too few points to screen (" + std::to_string(n) + "; the screen needs "
                            + std::to_string(options.minimumPoints) + ")";
@@ -180,38 +207,48 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
     // On a clean sweep only the first pass can flag, so the family level holds; setting a flagged
     // point aside before looking again keeps one gross misread from dragging the line (and,
     // with a known σ, every other residual) past the critical value.
-    std::vector<std::size_t> active(n);
-    for (std::size_t i = 0; i < n; ++i)
-        active[i] = i;
-    std::vector<double> ax, ae, aw, as;
-    std::vector<std::optional<double>> passed = statistics;
-    for (bool first = true;; first = false) {
-        if (!first) {
-            ax.clear(), ae.clear(), aw.clear(), as.clear();
-            for (std::size_t i : active) {
-                ax.push_back(x[i]);
-                ae.push_back(residuals[i]);
-                aw.push_back(weights[i]);
-                if (known)
-                    as.push_back(knownSigmaV[i]);
-            }
-            refitResiduals(ax, ae, aw);
-            passStatistics(known, ax, ae, aw, as, floorV, passed);
-            for (std::size_t k = 0; k < active.size(); ++k)
-                statistics[active[k]] = passed[k];
-        }
-        const double critical = criticalValue(known, active.size(), options.familyAlpha);
+    // The first pass reads statistics itself; the points still active and their copies exist
+    // only once a point is flagged (a clean million-point sweep needs none of them).
+    const auto largestBeyond = [](const std::vector<std::optional<double>> &values, double critical) {
         std::optional<std::size_t> worst;
-        for (std::size_t k = 0; k < active.size(); ++k)
-            if (passed[k] && std::fabs(*passed[k]) > critical
-                && (!worst || std::fabs(*passed[k]) > std::fabs(*passed[*worst])))
+        for (std::size_t k = 0; k < values.size(); ++k)
+            if (values[k] && std::fabs(*values[k]) > critical
+                && (!worst || std::fabs(*values[k]) > std::fabs(*values[*worst])))
                 worst = k;
+        return worst;
+    };
+    const std::optional<std::size_t> firstWorst = largestBeyond(first, *screening.criticalValue);
+    if (!firstWorst)
+        return screening;
+    flagged[*firstWorst] = true;
+    if (given)
+        statistics = *firstPass; // the later passes replace the active points' values
+    std::vector<std::size_t> active;
+    active.reserve(n - 1);
+    for (std::size_t i = 0; i < n; ++i)
+        if (i != *firstWorst)
+            active.push_back(i);
+    std::vector<double> ax, ae, aw, as;
+    std::vector<std::optional<double>> passed;
+    while (active.size() >= options.minimumPoints) {
+        ax.clear(), ae.clear(), aw.clear(), as.clear();
+        for (std::size_t i : active) {
+            ax.push_back(x[i]);
+            ae.push_back(residuals[i]);
+            aw.push_back(weights[i]);
+            if (known)
+                as.push_back(knownSigmaV[i]);
+        }
+        refitResiduals(ax, ae, aw);
+        passStatistics(known, ax, ae, aw, as, floorV, passed);
+        for (std::size_t k = 0; k < active.size(); ++k)
+            statistics[active[k]] = passed[k];
+        const std::optional<std::size_t> worst =
+            largestBeyond(passed, criticalValue(known, active.size(), options.familyAlpha));
         if (!worst)
             break;
         flagged[active[*worst]] = true;
         active.erase(active.begin() + static_cast<std::ptrdiff_t>(*worst));
-        if (active.size() < options.minimumPoints)
-            break;
     }
     return screening;
 }

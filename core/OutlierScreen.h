@@ -51,12 +51,28 @@ struct OutlierScreening {
 OutlierScreening screenResiduals(std::span<const double> x, std::span<const double> residuals,
                                  std::span<const double> weights, std::span<const double> knownSigmaV,
                                  double scatterFloorV, const OutlierScreenOptions &options,
-                                 std::vector<std::optional<double>> &statistics, std::vector<bool> &flagged);
+                                 std::vector<std::optional<double>> &statistics, std::vector<bool> &flagged,
+                                 const std::vector<std::optional<double>> *firstPass = nullptr);
+// firstPass (knownSigmaV empty): the externally studentized residuals the caller computed with the
+// same weights and floor, read as the first pass instead of computing them again. statistics then
+// stays empty unless a point is flagged and the rest screened again (the values are firstPass's).
+
+// Sums of the fitted line that the statistics need, when the caller has them already: the same
+// numbers, in the same order of addition, as computed here (Σw, Σw·x/Σw, Σw(x - x̄)², Σw·e²).
+struct ResidualSums {
+    double sumW = 0.0;
+    double meanX = 0.0;
+    double sxx = 0.0;
+    double ssr = 0.0;
+};
 
 // The externally studentized residuals alone (n >= 4; nullopt where the point fixes the line):
 // sqrt(w_i) e_i / (s_(i) sqrt(1 - h_i)), s_(i) the scatter without point i, floored by floor.
 void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
                                     std::span<const double> weights, double floor,
+                                    std::vector<std::optional<double>> &statistics);
+void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
+                                    std::span<const double> weights, double floor, const ResidualSums &sums,
                                     std::vector<std::optional<double>> &statistics);
 
 // The smallest scatter of V about the line that rounding alone gives: voltmeter and ammeter

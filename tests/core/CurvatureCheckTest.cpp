@@ -36,6 +36,27 @@ TEST(CurvatureCheck, MatchesNistPontiusCertifiedValues)
     expectRelative(*r.rSquared, 0.999999900178537, 1e-7);
 }
 
+TEST(CurvatureCheck, KeepsTenDigitsOfPontiusFromSums)
+{
+    // The normal equations of the centred, scaled quadratic plus one refinement step keep the
+    // digits the column-pivoting QR over the rows kept (both within 5e-13 of the certified values,
+    // NIST StRD Pontius, /work/shared/reference/README.md); raw power sums of x would not.
+    const auto data = test::loadColumns("nist-strd-pontius.csv");
+    const QuadraticFitResult r = fitQuadratic(data[0], data[1]);
+    ASSERT_TRUE(r.ok()) << r.message;
+    expectRelative(r.c0, 0.673565789473684E-03, 1e-10);
+    expectRelative(r.c1, 0.732059160401003E-06, 1e-10);
+    expectRelative(r.c2, -0.316081871345029E-14, 1e-10);
+    expectRelative(*r.residualSd, 0.205177424076185E-03, 1e-10);
+    // The same fit with every weight 4: coefficients unchanged, the weighted scatter doubled.
+    const std::vector<double> four(data[0].size(), 4.0);
+    const QuadraticFitResult w = fitQuadratic(data[0], data[1], four);
+    ASSERT_TRUE(w.ok()) << w.message;
+    expectRelative(w.c2, -0.316081871345029E-14, 1e-10);
+    expectRelative(*w.residualSd, 2.0 * 0.205177424076185E-03, 1e-10);
+    expectRelative(*w.curvatureP, *r.curvatureP, 1e-9);
+}
+
 TEST(CurvatureCheck, FlagsABendingLineAndPassesAStraightOne)
 {
     // Made-up sweeps: a straight line with small scatter, and one that sags faster at the top
