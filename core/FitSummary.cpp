@@ -13,7 +13,10 @@ namespace {
 
 // The rows that enter the fit, with their values and weights (1, 1/u(V)², or York's W_i).
 struct FitInput {
+    // The row of each used point. Empty while every row so far is used (the common case: point i
+    // is row i), so a sweep with nothing excluded writes no page of it.
     std::vector<std::size_t> rows;
+    std::size_t rowOf(std::size_t i) const { return rows.empty() ? i : rows[i]; }
     std::vector<double> x, y, sx, sy;
     std::vector<double> weights;
     std::vector<char> hasUI;          // the reading stated u_current_a
@@ -83,7 +86,6 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
     // At most one entry per reading: reserved once, so a million readings grow no vector.
     for (auto *column : {&input.x, &input.y, &input.sx, &input.sy, &input.weights})
         column->reserve(readings.size());
-    input.rows.reserve(readings.size());
     input.hasUI.reserve(readings.size());
     for (std::size_t row = 0; row < readings.size(); ++row) {
         const RowValues reading = readings[row];
@@ -113,7 +115,14 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
             message = rowName(row) + ": a standard uncertainty must be above zero";
             return FitStatus::InvalidUncertainty;
         }
-        input.rows.push_back(row);
+        if (!input.rows.empty() || input.x.size() != row) {
+            if (input.rows.empty()) { // the first row left out before this one: list them from here on
+                input.rows.reserve(readings.size());
+                for (std::size_t i = 0; i < input.x.size(); ++i)
+                    input.rows.push_back(i);
+            }
+            input.rows.push_back(row);
+        }
         input.x.push_back(reading.currentA);
         input.y.push_back(reading.voltageV);
         input.weights.push_back(method == FitMethod::Wls ? 1.0 / (uV * uV) : 1.0);
@@ -388,7 +397,7 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
     for (std::size_t row = 0; row < readings.size(); ++row) {
         PointFit point;
         point.row = row;
-        if (next < n && input.rows[next] == row) {
+        if (next < n && input.rowOf(next) == row) {
             point.used = true;
             point.residualV = used.residuals[next];
             point.studentized = used.studentized[next];
