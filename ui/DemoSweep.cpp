@@ -28,6 +28,8 @@ namespace {
 // deterministic "noise" (a fixed pattern, so screenshots are reproducible).
 constexpr double demoNoiseV[] = {0.012, -0.008, 0.004, -0.015, 0.009, -0.002, 0.014, -0.011, 0.006, -0.004, 0.010};
 
+} // namespace
+
 QPalette darkPalette()
 {
     QPalette p;
@@ -51,8 +53,6 @@ QPalette darkPalette()
     p.setColor(QPalette::Disabled, QPalette::ButtonText, QColor(0x80, 0x80, 0x80));
     return p;
 }
-
-} // namespace
 
 DemoResult runTypedDemoSweep(MainWindow &window, int leaveOut, const QString &operatorName, const QString &unitSerial)
 {

@@ -4,6 +4,8 @@
 // transformer of our own (V0 and R near the plan's, a little noise): demo data only.
 #pragma once
 
+#include <QPalette>
+
 #include <QString>
 
 namespace sagline {
@@ -27,5 +29,9 @@ DemoResult runVirtualBenchDemo(MainWindow &window, int pauseAfter = 0);
 
 // Saves the main window as PNG (light, and dark when `dark`) into `folder`; returns the paths.
 QStringList saveScreenshots(MainWindow &window, const QString &folder, bool dark);
+
+// The dark palette of `--screenshot --dark` and the screenshot tests (every role the window
+// uses, placeholder and muted text included, so notes stay readable).
+QPalette darkPalette();
 
 } // namespace sagline

@@ -5,6 +5,7 @@
 //   SAGLINE_SHOTS_DIR=/tmp/shots build/ci/tests/ui_tests --gtest_filter='ScreenshotTour.*'
 #include "UiTestSupport.h"
 
+#include "DemoSweep.h"
 #include "EfficiencyChart.h"
 #include "InstrumentsPanel.h"
 #include "InteractiveChartView.h"
@@ -35,22 +36,7 @@ void usePalette(bool dark)
         QApplication::setPalette(QApplication::style()->standardPalette());
         return;
     }
-    QPalette palette;
-    palette.setColor(QPalette::Window, QColor(0x2b, 0x2b, 0x2b));
-    palette.setColor(QPalette::WindowText, QColor(0xe8, 0xe8, 0xe8));
-    palette.setColor(QPalette::Base, QColor(0x1e, 0x1e, 0x1e));
-    palette.setColor(QPalette::AlternateBase, QColor(0x35, 0x35, 0x35));
-    palette.setColor(QPalette::Text, QColor(0xe8, 0xe8, 0xe8));
-    palette.setColor(QPalette::Button, QColor(0x3a, 0x3a, 0x3a));
-    palette.setColor(QPalette::ButtonText, QColor(0xe8, 0xe8, 0xe8));
-    palette.setColor(QPalette::ToolTipBase, QColor(0x35, 0x35, 0x35));
-    palette.setColor(QPalette::ToolTipText, QColor(0xe8, 0xe8, 0xe8));
-    palette.setColor(QPalette::Highlight, QColor(0x2a, 0x6f, 0xb0));
-    palette.setColor(QPalette::HighlightedText, Qt::white);
-    palette.setColor(QPalette::Disabled, QPalette::ButtonText, QColor(0x80, 0x80, 0x80));
-    palette.setColor(QPalette::Disabled, QPalette::WindowText, QColor(0x80, 0x80, 0x80));
-    palette.setColor(QPalette::Disabled, QPalette::Text, QColor(0x80, 0x80, 0x80));
-    QApplication::setPalette(palette);
+    QApplication::setPalette(darkPalette()); // the app's own --dark palette
 }
 
 void shoot(MainWindow &window, const QString &dir, const QString &name)
