@@ -18,6 +18,8 @@
 
 #include <gtest/gtest.h>
 
+#include "MonteCarloSampling.h"
+
 #include <algorithm>
 #include <cmath>
 #include <cstdlib>
@@ -28,16 +30,6 @@
 using namespace sagline;
 
 namespace {
-
-std::size_t draws()
-{
-    if (const char *text = std::getenv("SAGLINE_MC_DRAWS")) {
-        const long value = std::strtol(text, nullptr, 10);
-        if (value >= 1000)
-            return static_cast<std::size_t>(value);
-    }
-    return 200000;
-}
 
 struct Sweep {
     std::vector<Reading> readings;
@@ -60,37 +52,9 @@ Sweep loadSweep(const std::string &csv, const std::string &setup, double winding
     return sweep;
 }
 
-struct Sampled {
-    double u = 0.0;        // standard deviation of the draws
-    double halfWidth = 0.0; // (q97.5 - q2.5)/2
-};
-
 struct Results {
-    Sampled r, v0, regulation, rReference;
+    montecarlo::Sampled r, v0, regulation, rReference;
 };
-
-double quantile(std::vector<double> &values, double p)
-{
-    const auto k = static_cast<std::size_t>(p * static_cast<double>(values.size() - 1));
-    std::nth_element(values.begin(), values.begin() + static_cast<std::ptrdiff_t>(k), values.end());
-    return values[k];
-}
-
-Sampled summarize(std::vector<double> &values)
-{
-    double mean = 0.0;
-    for (double v : values)
-        mean += v / static_cast<double>(values.size());
-    double squares = 0.0;
-    for (double v : values)
-        squares += (v - mean) * (v - mean);
-    Sampled s;
-    s.u = std::sqrt(squares / static_cast<double>(values.size() - 1));
-    const double high = quantile(values, 0.975);
-    const double low = quantile(values, 0.025);
-    s.halfWidth = (high - low) / 2.0;
-    return s;
-}
 
 // One Monte Carlo run of the model around the fitted line (v0, r). tCharacter: the random
 // error's variance is itself uncertain (ν = n - 2), as in a Type A evaluation.
@@ -106,7 +70,7 @@ Results sample(const Sweep &sweep, double v0, double r, double s, bool tCharacte
     for (const Reading &reading : sweep.readings)
         current.push_back(reading.currentA);
     const std::size_t n = current.size();
-    const std::size_t count = draws();
+    const std::size_t count = montecarlo::draws();
     std::mt19937_64 random(seed);
     std::uniform_real_distribution<double> unit(-1.0, 1.0);
     std::normal_distribution<double> normal(0.0, 1.0);
@@ -117,26 +81,17 @@ Results sample(const Sweep &sweep, double v0, double r, double s, bool tCharacte
         const double gV = gainV * unit(random), oV = offsetV * unit(random);
         const double gI = gainI * unit(random), oI = offsetI * unit(random);
         const double sigma = tCharacter ? s * std::sqrt(static_cast<double>(n - 2) / chi(random)) : s;
-        double meanI = 0.0, meanV = 0.0;
         for (std::size_t k = 0; k < n; ++k) {
             i[k] = (1.0 + gI) * current[k] + oI;
             v[k] = (1.0 + gV) * (v0 - r * current[k]) + oV + sigma * normal(random);
-            meanI += i[k] / static_cast<double>(n);
-            meanV += v[k] / static_cast<double>(n);
         }
-        double sxx = 0.0, sxy = 0.0;
-        for (std::size_t k = 0; k < n; ++k) {
-            sxx += (i[k] - meanI) * (i[k] - meanI);
-            sxy += (i[k] - meanI) * (v[k] - meanV);
-        }
-        const double slope = sxy / sxx;
-        const double intercept = meanV - slope * meanI;
-        rs[d] = -slope;
-        v0s[d] = intercept;
-        regs[d] = 100.0 * rs[d] * rated / (intercept - rs[d] * rated);
+        const montecarlo::DrawnLine line = montecarlo::fitDrawnLine(i, v);
+        rs[d] = line.r;
+        v0s[d] = line.v0;
+        regs[d] = 100.0 * rs[d] * rated / (line.v0 - rs[d] * rated);
         refs[d] = rs[d] * (tk + sweep.referenceC) / (tk + sweep.windingC + uT * normal(random));
     }
-    return {summarize(rs), summarize(v0s), summarize(regs), summarize(refs)};
+    return {montecarlo::summarize(rs), montecarlo::summarize(v0s), montecarlo::summarize(regs), montecarlo::summarize(refs)};
 }
 
 struct Analytic {
@@ -162,7 +117,7 @@ AnalysisResult checkSweep(const Sweep &sweep, const std::string &name)
     EXPECT_TRUE(a.metersKnown);
     const Results spread = sample(sweep, fit.intercept, -fit.slope, *fit.residualSdV, false, 20261212);
     const Results coverage = sample(sweep, fit.intercept, -fit.slope, *fit.residualSdV, true, 20261213);
-    const std::pair<const UncertainValue *, std::pair<Sampled, Sampled>> checks[] = {
+    const std::pair<const UncertainValue *, std::pair<montecarlo::Sampled, montecarlo::Sampled>> checks[] = {
         {&a.seriesResistanceOhm, {spread.r, coverage.r}},
         {&a.noLoadVoltageV, {spread.v0, coverage.v0}},
         {&a.regulationPercent, {spread.regulation, coverage.regulation}},

@@ -51,6 +51,29 @@ inline Sampled summarize(std::vector<double> &values)
     return out;
 }
 
+// The least-squares line V = V0 - R·I through one draw's readings, as the budgets' fit.
+struct DrawnLine {
+    double r = 0.0;
+    double v0 = 0.0;
+};
+
+inline DrawnLine fitDrawnLine(const std::vector<double> &i, const std::vector<double> &v)
+{
+    const auto n = static_cast<double>(i.size());
+    double meanI = 0.0, meanV = 0.0;
+    for (std::size_t k = 0; k < i.size(); ++k) {
+        meanI += i[k] / n;
+        meanV += v[k] / n;
+    }
+    double sxx = 0.0, sxy = 0.0;
+    for (std::size_t k = 0; k < i.size(); ++k) {
+        sxx += (i[k] - meanI) * (i[k] - meanI);
+        sxy += (i[k] - meanI) * (v[k] - meanV);
+    }
+    const double r = -sxy / sxx;
+    return {r, meanV + r * meanI};
+}
+
 inline void expectWithin(double analytic, double sampled, double tolerance, const std::string &what)
 {
     EXPECT_NEAR(analytic / sampled, 1.0, tolerance) << what << ": analytic " << analytic << ", sampled " << sampled;

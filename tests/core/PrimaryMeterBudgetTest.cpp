@@ -119,22 +119,15 @@ Results sample(const Scenario &sc, std::uint64_t seed)
     for (std::size_t d = 0; d < count; ++d) {
         const double g1 = vm.gainPercentOfReading / 100.0 * unit(random);
         const double gP = pm.gainPercentOfReading / 100.0 * unit(random);
-        double meanI = 0.0, meanV = 0.0;
         for (std::size_t k = 0; k < n; ++k) {
             v1[k] = (1.0 + g1) * ratedV1 + vm.offset * unit(random) + vm.resolution / 2.0 * unit(random);
             p1[k] = (1.0 + gP) * sc.inputPowers[k] + pm.offset * unit(random) + pm.resolution / 2.0 * unit(random);
             const double refer = ratedV1 / v1[k];
             i[k] = sc.currents[k] * refer;
             v[k] = sc.voltages[k] * refer;
-            meanI += i[k] / static_cast<double>(n);
-            meanV += v[k] / static_cast<double>(n);
         }
-        double sxx = 0.0, sxy = 0.0;
-        for (std::size_t k = 0; k < n; ++k) {
-            sxx += (i[k] - meanI) * (i[k] - meanI);
-            sxy += (i[k] - meanI) * (v[k] - meanV);
-        }
-        const double r = -sxy / sxx, v0 = meanV + r * meanI;
+        const DrawnLine line = fitDrawnLine(i, v);
+        const double r = line.r, v0 = line.v0;
         const double p0 = p1[0] * std::pow(ratedV1 / v1[0], 2);
         p0s[d] = p0;
         const double p2 = sc.voltages[top] * sc.currents[top];

@@ -96,7 +96,6 @@ Results sample(const Scenario &sc, double s, bool tCharacter, std::uint64_t seed
         const double gI = gainI * unit(random), oI = offsetI * unit(random);
         const double g1 = gain1 * unit(random);
         const double sigma = tCharacter ? s * std::sqrt(static_cast<double>(n - 2) / chi(random)) : s;
-        double meanI = 0.0, meanV = 0.0;
         for (std::size_t k = 0; k < n; ++k) {
             const double factor = sc.supplyV[k] / ratedV1; // the true supply's share of rated
             const double trueI = sc.currents[k] * factor;
@@ -106,16 +105,10 @@ Results sample(const Scenario &sc, double s, bool tCharacter, std::uint64_t seed
             const double refer = ratedV1 / ((1.0 + g1) * sc.supplyV[k]); // with the measured V1
             i[k] = readI * refer;
             v[k] = readV * refer;
-            meanI += i[k] / static_cast<double>(n);
-            meanV += v[k] / static_cast<double>(n);
         }
-        double sxx = 0.0, sxy = 0.0;
-        for (std::size_t k = 0; k < n; ++k) {
-            sxx += (i[k] - meanI) * (i[k] - meanI);
-            sxy += (i[k] - meanI) * (v[k] - meanV);
-        }
-        rs[d] = -sxy / sxx;
-        v0s[d] = meanV + rs[d] * meanI;
+        const DrawnLine line = fitDrawnLine(i, v);
+        rs[d] = line.r;
+        v0s[d] = line.v0;
         regs[d] = 100.0 * rs[d] * rated / (v0s[d] - rs[d] * rated);
     }
     return {summarize(rs), summarize(v0s), summarize(regs)};
