@@ -31,7 +31,7 @@ EfficiencyChart::EfficiencyChart(QWidget *parent)
     m_chart->addAxis(m_axisEfficiency, Qt::AlignLeft);
     m_chart->addAxis(m_axisLoss, Qt::AlignRight);
     m_axisX->setTitleText(tr("Secondary current I (A)"));
-    m_axisEfficiency->setTitleText(tr("Efficiency η (%)"));
+    m_axisEfficiency->setTitleText(tr("η (%)")); // short: Qt Charts elides a title taller than the plot
     m_axisLoss->setTitleText(tr("Loss (W)"));
     const auto add = [this](QLineSeries *&series, QValueAxis *y) {
         series = new QLineSeries;

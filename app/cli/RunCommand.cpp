@@ -531,7 +531,7 @@ int runRun(const Arguments &rawArgs)
                       << QString::number((bench->primaryVoltmeterGain() - 1.0) * 100.0, 'f', 3).toStdString() << " %): V0 "
                       << QString::number(t.noLoadVoltageV() * gv / bench->primaryVoltmeterGain(), 'f', 4).toStdString()
                       << " V\n";
-        printVirtualBenchTruth(*bench, plan.ratedSecondaryCurrentA, std::cout);
+        printVirtualBenchTruth(*bench, plan.ratedSecondaryCurrentA, args.simPrimaryMeter, std::cout);
     }
     switch (result) {
     case SweepOutcome::Completed: return exitSuccess;

@@ -16,7 +16,7 @@ std::string fixed(double value, int decimals)
 
 } // namespace
 
-void printVirtualBenchTruth(VirtualBench &bench, double ratedSecondaryCurrentA, std::ostream &out)
+void printVirtualBenchTruth(VirtualBench &bench, double ratedSecondaryCurrentA, bool analyserAttached, std::ostream &out)
 {
     const TransformerParameters &t = bench.options().transformer;
     const double v0 = t.noLoadVoltageV();
@@ -26,8 +26,9 @@ void printVirtualBenchTruth(VirtualBench &bench, double ratedSecondaryCurrentA, 
         << fixed(t.magnetizingCurrentA, 5) << " A at " << fixed(t.primaryVoltageV, 1) << " V; series reactance X "
         << fixed(t.leakageReactanceOhm, 4) << " Ω (secondary); supply impedance " << fixed(t.supplyResistanceOhm, 3) << " + j"
         << fixed(t.supplyReactanceOhm, 3) << " Ω\n";
-    // The analyser's own gain errors (not the secondary meters').
-    out << "  primary analyser gain errors: voltmeter " << fixed((bench.primaryVoltmeterGain() - 1.0) * 100.0, 3)
+    // The analyser's own gain errors (not the secondary meters'), only when it took part.
+    if (analyserAttached)
+        out << "  primary analyser gain errors: voltmeter " << fixed((bench.primaryVoltmeterGain() - 1.0) * 100.0, 3)
         << " %, ammeter " << fixed((bench.primaryAmmeterGain() - 1.0) * 100.0, 3) << " %\n";
     if (ratedSecondaryCurrentA > 0.0 && r > 0.0) {
         const double iStar = formulas::maxEfficiencyCurrent(p0, r);

@@ -11,7 +11,8 @@ class VirtualBench;
 
 namespace sagline::cli {
 
-// `ratedSecondaryCurrentA` from the nameplate (S/V2).
-void printVirtualBenchTruth(VirtualBench &bench, double ratedSecondaryCurrentA, std::ostream &out);
+// `ratedSecondaryCurrentA` from the nameplate (S/V2); the analyser's gain errors only when
+// `analyserAttached` (run --sim-primary-meter).
+void printVirtualBenchTruth(VirtualBench &bench, double ratedSecondaryCurrentA, bool analyserAttached, std::ostream &out);
 
 } // namespace sagline::cli

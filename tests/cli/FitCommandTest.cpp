@@ -249,3 +249,21 @@ TEST(FitCommand, ACommaNumberIsRefusedWithItsLineUnlessTheMarkIsStated)
     EXPECT_NEAR(j.at("series_resistance_ohm").get<double>(), 1.0, 1e-9);
     EXPECT_NEAR(j.at("no_load_voltage_v").get<double>(), 26.0, 1e-9);
 }
+
+TEST(FitCommand, RunNamesThePrimaryAnalysersGainsOnlyWhenOneTookPart)
+{
+    // `run --sim` prints the simulator's own values to check a fit against; the primary
+    // analyser's gain errors belong there only when the sweep read one (--sim-primary-meter).
+    const auto session = std::filesystem::temp_directory_path() / "sagline-fit-test-run-analyser.sagline";
+    for (const bool analyser : {false, true}) {
+        std::filesystem::remove(session);
+        std::vector<std::string> args{"run", demoSetup, "--sim", "--seed", "3", "-o", session.string()};
+        if (analyser)
+            args.push_back("--sim-primary-meter");
+        const auto run = runProgram(cli, args);
+        ASSERT_EQ(run.exitCode, 0) << run.err;
+        EXPECT_NE(run.out.find("simulated primary side:"), std::string::npos) << run.out;
+        EXPECT_EQ(run.out.find("primary analyser gain errors") != std::string::npos, analyser) << run.out;
+    }
+    std::filesystem::remove(session);
+}
