@@ -30,7 +30,9 @@ ResidualChart::ResidualChart(const DisplayPoints &points, QWidget *parent)
     m_chart->addAxis(m_axisX, Qt::AlignBottom);
     m_chart->addAxis(m_axisY, Qt::AlignLeft);
     m_axisX->setTitleText(tr("Secondary current I (A)"));
-    m_axisY->setTitleText(tr("Residual (mV)"));
+    // Short titles: Qt Charts cuts a title longer than the plot is tall, and with the alarm and
+    // the session band shown a 768 px screen leaves this chart about 100 px of plot.
+    m_axisY->setTitleText(tr("ΔV (mV)")); // measured − fitted, as the legend says
     for (QLineSeries **series : {&m_zero, &m_upperGuide, &m_lowerGuide, &m_excluded, &m_included}) {
         *series = new QLineSeries;
         m_chart->addSeries(*series);

@@ -38,7 +38,7 @@ VoltageCurrentChart::VoltageCurrentChart(const DisplayPoints &points, QWidget *p
     m_chart->addAxis(m_axisX, Qt::AlignBottom);
     m_chart->addAxis(m_axisY, Qt::AlignLeft);
     m_axisX->setTitleText(tr("Secondary current I (A)"));
-    m_axisY->setTitleText(tr("Secondary voltage V (V)"));
+    m_axisY->setTitleText(tr("Secondary V (V)")); // short: Qt Charts cuts a title taller than the plot
 
     // Order of adding is drawing order: regions first, points last.
     m_unsafeUpper = new QLineSeries(this);

@@ -144,5 +144,5 @@ TEST(ChartInteraction, CopiesAndSavesTheChartAsPngOrSvg)
     ASSERT_TRUE(svg.open(QIODevice::ReadOnly));
     const QByteArray text = svg.readAll();
     EXPECT_TRUE(text.contains("<svg")) << text.left(200).toStdString();
-    EXPECT_TRUE(text.contains("Secondary voltage V (V)")); // the axis title, as text in the drawing
+    EXPECT_TRUE(text.contains("Secondary V (V)")); // the axis title, as text in the drawing
 }

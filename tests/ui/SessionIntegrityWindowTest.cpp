@@ -155,9 +155,11 @@ TEST(SessionIntegrityWindow, SessionsOpenedInTurnShowTheirOwnFileAlone)
     ASSERT_TRUE(waitUntil([&] { return !window->workspace()->isRunning(); }));
 
     QStringList checked;
+    int opened = 0;
     for (const SessionFile &file : files) {
         ASSERT_TRUE(window->openSessionFile(file.path)) << window->lastMessage().toStdString();
         expectShowsOnly(*window, file, &checked);
+        shoot(*window, QStringLiteral("opened-in-turn-%1").arg(++opened));
     }
     // And back to the first, after the others.
     ASSERT_TRUE(window->openSessionFile(files[0].path));
@@ -176,6 +178,7 @@ TEST(SessionIntegrityWindow, SessionsOpenedInTurnShowTheirOwnFileAlone)
     EXPECT_EQ(window->sessionBand()->kind(), SessionBand::Kind::Hidden);
     EXPECT_TRUE(window->planPanel()->acceptButton()->isEnabled());
     EXPECT_TRUE(window->results()->verdictText().isEmpty());
+    shoot(*window, QStringLiteral("after-new"));
     std::cout << "[ fields ] checked for each session: " << checked.join(", ").toStdString() << '\n';
 }
 
