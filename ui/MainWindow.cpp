@@ -124,7 +124,7 @@ MainWindow::MainWindow(QWidget *parent)
 
 MainWindow::~MainWindow() = default;
 
-bool MainWindow::efficiencyOffered() const { return m_lowerCharts->isTabVisible(1); }
+bool MainWindow::efficiencyOffered() const { return m_lowerCharts->isTabVisible(m_lowerCharts->indexOf(m_efficiency)); }
 
 void MainWindow::createLayout()
 {
@@ -140,7 +140,7 @@ void MainWindow::createLayout()
     // the window wider than a 1366 px screen.
     m_lowerCharts->addTab(m_residuals, tr("Residuals"));
     m_lowerCharts->addTab(m_efficiency, tr("Efficiency and losses"));
-    m_lowerCharts->setTabVisible(1, false); // until a reading carries the primary power
+    m_lowerCharts->setTabVisible(m_lowerCharts->indexOf(m_efficiency), false); // until a reading carries the primary power
     m_lowerCharts->setDocumentMode(true);
     m_chartSplitter->addWidget(m_chart);
     m_chartSplitter->addWidget(m_lowerCharts);
@@ -429,7 +429,7 @@ void MainWindow::refreshFitViews()
     if (m_workspace->setup())
         view.lines += primarySideLines(primary.supply, primary.result);
     const bool showEfficiency = primary.result && primary.result->hasPowerMeter;
-    m_lowerCharts->setTabVisible(1, showEfficiency);
+    m_lowerCharts->setTabVisible(m_lowerCharts->indexOf(m_efficiency), showEfficiency);
     if (showEfficiency)
         m_efficiency->setResult(primary.result, primary.fit,
                                 inputs.plan && !inputs.plan->steps.empty() ? inputs.plan->steps.back().currentA : 0.0);

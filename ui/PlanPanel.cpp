@@ -36,6 +36,16 @@ QString row(const QString &name, const QString &value, const QString &note = {})
     return html + QStringLiteral("</tr>");
 }
 
+// The step table as the panel and the every-column window show it: one row per step, columns
+// as wide as their contents.
+void setUpStepTable(QTableView *table, PlanTableModel *model)
+{
+    table->setModel(model);
+    table->verticalHeader()->hide();
+    table->setSelectionBehavior(QAbstractItemView::SelectRows);
+    table->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+}
+
 } // namespace
 
 PlanPanel::PlanPanel(QWidget *parent)
@@ -63,10 +73,7 @@ PlanPanel::PlanPanel(QWidget *parent)
     figuresScroll->setWidgetResizable(true);
     figuresScroll->setFrameShape(QFrame::NoFrame);
     figuresScroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
-    m_table->setModel(m_model);
-    m_table->verticalHeader()->hide();
-    m_table->setSelectionBehavior(QAbstractItemView::SelectRows);
-    m_table->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    setUpStepTable(m_table, m_model);
     m_table->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
     m_table->setAccessibleName(tr("Planned load steps"));
     // The panel shows what the person at the bench acts on; the loads, losses and margins are
@@ -216,10 +223,7 @@ void PlanPanel::showEveryColumn()
     dialog->setAttribute(Qt::WA_DeleteOnClose);
     dialog->setWindowTitle(tr("Planned load steps, every column"));
     auto *table = new QTableView;
-    table->setModel(m_model);
-    table->verticalHeader()->hide();
-    table->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
-    table->setSelectionBehavior(QAbstractItemView::SelectRows);
+    setUpStepTable(table, m_model);
     table->setAccessibleName(tr("Planned load steps, every column"));
     auto *buttons = new QDialogButtonBox(QDialogButtonBox::Close);
     connect(buttons, &QDialogButtonBox::rejected, dialog, &QDialog::close);
