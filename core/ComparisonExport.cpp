@@ -79,6 +79,7 @@ json designJson(const DesignStatistics &d, const std::vector<SessionRow> &rows)
     }
     return {
         {"design", d.design}, {"sessions", rowIndices(d.rows)}, {"resistance_count", d.resistanceCount},
+        {"incomplete_left_out", d.incompleteLeftOut},
         {"mean_ohm", jsonNumber(d.meanOhm)}, {"sd_ohm", jsonNumber(d.sdOhm)}, {"min_ohm", jsonNumber(d.minOhm)},
         {"max_ohm", jsonNumber(d.maxOhm)}, {"median_ohm", jsonNumber(d.medianOhm)}, {"mad_ohm", jsonNumber(d.madOhm)},
         {"far_from_batch_rule", d.ruleNote}, {"far_from_batch_screening_only", d.screeningOnly},

@@ -29,7 +29,7 @@ std::string SessionRow::reviewState() const
     if (seal.state == SealState::ChangedAfterSignOff)
         return "changed after sign-off";
     if (signOffs.empty())
-        return "not reviewed";
+        return "unreviewed"; // no word of the verdict's ("NOT JUDGED")
     return toString(signOffs.back().decision);
 }
 
@@ -283,6 +283,11 @@ void describeGroup(const std::vector<const SessionRow *> &rows, bool atReference
     std::vector<double> values;
     std::vector<std::size_t> owners;
     for (std::size_t i : group.rows) {
+        // A sweep that ended early (an R from its first steps) is no unit like the others.
+        if (rows[i]->figures.ok && !rows[i]->progress.isComplete()) {
+            ++group.incompleteLeftOut;
+            continue;
+        }
         if (const auto r = rows[i]->comparedResistanceOhm(atReference)) {
             values.push_back(*r);
             owners.push_back(i);
@@ -300,7 +305,8 @@ void describeGroup(const std::vector<const SessionRow *> &rows, bool atReference
     group.chart = individualsChart(inTime);
 
     if (values.empty()) {
-        group.ruleNote = "no session of this design has a fitted R";
+        group.ruleNote = group.incompleteLeftOut > 0 ? "no complete session of this design has a fitted R"
+                                                     : "no session of this design has a fitted R";
         return;
     }
     const double n = static_cast<double>(values.size());
@@ -356,7 +362,7 @@ BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
         }
         if (!row->figures.ok) {
             ++stats.withoutFit;
-        } else {
+        } else if (row->progress.isComplete()) { // incomplete rows stay out of the R statistics
             ++fitted;
             allHaveReference = allHaveReference && row->figures.resistanceRefOhm.has_value();
         }
@@ -453,6 +459,15 @@ std::string verdictCountsText(const BatchStatistics &stats)
            + count(ConformityOutcome::Fail, stats.fail) + ", " + count(ConformityOutcome::NotJudged, stats.notJudged)
            + ", " + noAnalysisWords + " " + std::to_string(stats.noVerdict) + ", incomplete (no verdict) "
            + std::to_string(stats.incomplete);
+}
+
+std::string unitsInStatisticsText(const DesignStatistics &group)
+{
+    std::string text = std::to_string(group.resistanceCount) + (group.resistanceCount == 1 ? " unit" : " units");
+    if (group.incompleteLeftOut > 0)
+        text += "; " + std::to_string(group.incompleteLeftOut)
+                + (group.incompleteLeftOut == 1 ? " incomplete session" : " incomplete sessions") + " left out";
+    return text;
 }
 
 BatchStatistics summarizeBatch(const std::vector<SessionRow> &rows)

@@ -83,7 +83,7 @@ struct SessionRow {
 
     // R the batch compares: at the reference temperature when known, else as measured.
     std::optional<double> comparedResistanceOhm(bool atReference) const;
-    // "not reviewed", or the latest sign-off: "accepted", "rejected", "retest"; "changed after
+    // "unreviewed", or the latest sign-off: "accepted", "rejected", "retest"; "changed after
     // sign-off" once it was reopened, "ALTERED" when a digest no longer matches.
     std::string reviewState() const;
     // The verdict as data (CSV, JSON): the outcome's token ("conditional-pass") for a complete
@@ -118,7 +118,8 @@ std::vector<SessionRow> loadSessionRows(const std::vector<std::string> &paths, c
 struct DesignStatistics {
     std::string design;               // designName of every row in the group
     std::vector<std::size_t> rows;    // indices into the rows considered, in their given order
-    std::size_t resistanceCount = 0;  // rows of the group with a fitted R
+    std::size_t resistanceCount = 0;  // complete rows of the group with a fitted R
+    std::size_t incompleteLeftOut = 0; // rows of the group with a fitted R whose sweep ended early: not in the statistics
     std::optional<double> meanOhm;
     std::optional<double> sdOhm;      // sample standard deviation (n - 1)
     std::optional<double> minOhm, maxOhm;
@@ -166,6 +167,8 @@ struct BatchStatistics {
 // "PASS 3, CONDITIONAL PASS 1, CONDITIONAL FAIL 0, FAIL 0, NOT JUDGED 2, no analysis 0, incomplete (no verdict) 0":
 // the outcome words as the window and the reports spell them.
 std::string verdictCountsText(const BatchStatistics &stats);
+// "4 units" or "4 units; 2 incomplete sessions left out": who is in a design's R statistics.
+std::string unitsInStatisticsText(const DesignStatistics &group);
 
 // Statistics over `rows` (e.g. the selection or the filtered rows).
 BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows);

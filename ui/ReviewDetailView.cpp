@@ -110,7 +110,7 @@ void ReviewDetailView::showSession(const SessionRow *row)
     if (row->seal.state != SealState::NotSigned)
         history += tr("<b>%1</b><br>").arg(text(row->seal.summary()));
     if (row->signOffs.empty())
-        history += tr("not reviewed yet<br>");
+        history += tr("no sign-off yet<br>");
     for (const SignOffRecord &s : row->signOffs)
         history += tr("%1 · <b>%2</b> by %3%4<br>")
                        .arg(text(s.timeUtc), text(toString(s.decision)), text(s.reviewer),

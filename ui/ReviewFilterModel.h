@@ -13,7 +13,8 @@ class ReviewFilterModel : public QSortFilterProxyModel {
 public:
     explicit ReviewFilterModel(QObject *parent = nullptr);
 
-    // "" for every verdict; else "pass", "fail", "cannot-decide", "n/a" or "unreadable".
+    // "" for every verdict; else a verdict token ("pass", "conditional-pass", ...), "n/a",
+    // "incomplete" or "unreadable".
     void setVerdict(const QString &verdict);
     void setDateRange(const QDate &from, const QDate &to); // an invalid date leaves that end open
     void setText(const QString &text);

@@ -70,7 +70,7 @@ void drawDesign(ReportCanvas &canvas, const DesignStatistics &design, const std:
     canvas.heading(QObject::tr("Design: %1").arg(qs(design.design)));
     const IndividualsChart &chart = design.chart;
     canvas.keyValues({{QObject::tr("Sessions"), QString::number(design.rows.size())},
-                      {QObject::tr("Units in R statistics"), QString::number(design.resistanceCount)},
+                      {QObject::tr("Units in R statistics"), qs(unitsInStatisticsText(design))},
                       {QObject::tr("Mean R"), ohm(design.meanOhm)},
                       {QObject::tr("Standard deviation of R"), ohm(design.sdOhm)},
                       {QObject::tr("Median R"), ohm(design.medianOhm)},
@@ -153,7 +153,7 @@ void drawSummaryPage(ReportCanvas &canvas, const std::vector<const SessionRow *>
                       {QObject::tr("Incomplete (no verdict)"), QString::number(stats.incomplete)},
                       {QObject::tr("R compared"), basis},
                       {QObject::tr("Verdicts"), qs(verdictCountsText(stats))},
-                      {QObject::tr("Reviewer's decisions"), QObject::tr("accepted %1, rejected %2, retest %3, not reviewed %4, "
+                      {QObject::tr("Reviewer's decisions"), QObject::tr("accepted %1, rejected %2, retest %3, unreviewed %4, "
                                                                         "changed after sign-off %5")
                                                                 .arg(stats.accepted).arg(stats.rejected).arg(stats.retest)
                                                                 .arg(stats.notReviewed).arg(stats.changedAfterSignOff)}});

@@ -214,7 +214,7 @@ QVariant ReviewTableModel::display(const SessionRow &row, int rowIndex, int colu
         if (row.seal.state == SealState::ChangedAfterSignOff || row.seal.state == SealState::Altered)
             return text(row.reviewState());
         if (row.signOffs.empty())
-            return tr("not reviewed");
+            return tr("unreviewed");
         const SignOffRecord &last = row.signOffs.back();
         return tr("%1 by %2").arg(text(toString(last.decision)), text(last.reviewer));
     }

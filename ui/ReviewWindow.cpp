@@ -334,18 +334,18 @@ void ReviewWindow::updateSummary()
         else
             limits = QString::fromStdString(d.chart.note).toHtmlEscaped();
         text += tr("<hr><b>%1</b> (%2 session(s))<br>"
-                   "R %3 (%4 units): mean %5, standard deviation %6, median %7, range %8 to %9<br>"
+                   "R %3 (%4): mean %5, standard deviation %6, median %7, range %8 to %9<br>"
                    "%10<br><b>Far from the batch:</b> %11<br><small>%12</small>")
                     .arg(QString::fromStdString(d.design).toHtmlEscaped())
                     .arg(d.rows.size())
                     .arg(basis)
-                    .arg(d.resistanceCount)
+                    .arg(QString::fromStdString(unitsInStatisticsText(d)).toHtmlEscaped())
                     .arg(ohm(d.meanOhm), ohm(d.sdOhm), ohm(d.medianOhm), ohm(d.minOhm), ohm(d.maxOhm))
                     .arg(limits, far.isEmpty() ? tr("none") : far.toHtmlEscaped(),
                          QString::fromStdString(d.ruleNote).toHtmlEscaped());
     }
     text += tr("<hr>Verdicts: %1<br>"
-               "Reviewer's decisions: accepted %2, rejected %3, retest %4, not reviewed %5, changed after sign-off %6<br>"
+               "Reviewer's decisions: accepted %2, rejected %3, retest %4, unreviewed %5, changed after sign-off %6<br>"
                "Safety stops in %7 · incomplete %8 · lab-sheet limit hit in %9 · unreadable %10")
                 .arg(QString::fromStdString(verdictCountsText(s)).toHtmlEscaped())
                 .arg(s.accepted).arg(s.rejected).arg(s.retest).arg(s.notReviewed).arg(s.changedAfterSignOff)

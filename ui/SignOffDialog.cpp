@@ -12,17 +12,17 @@
 namespace sagline {
 
 SignOffDialog::SignOffDialog(const QString &sessionName, const QString &reviewer, QWidget *parent)
-    : QDialog(parent), m_reviewer(new QLineEdit(reviewer)), m_verdict(new QComboBox), m_comment(new QPlainTextEdit),
+    : QDialog(parent), m_reviewer(new QLineEdit(reviewer)), m_decision(new QComboBox), m_comment(new QPlainTextEdit),
       m_problem(new QLabel)
 {
     setWindowTitle(tr("Sign off %1").arg(sessionName));
-    m_verdict->addItem(tr("Accept"), static_cast<int>(ReviewDecision::Accepted));
-    m_verdict->addItem(tr("Reject"), static_cast<int>(ReviewDecision::Rejected));
-    m_verdict->addItem(tr("Repeat the test"), static_cast<int>(ReviewDecision::Retest));
-    m_comment->setPlaceholderText(tr("Required when rejecting or asking for a repeat: say why."));
+    m_decision->addItem(tr("Accept"), static_cast<int>(ReviewDecision::Accepted));
+    m_decision->addItem(tr("Reject"), static_cast<int>(ReviewDecision::Rejected));
+    m_decision->addItem(tr("Retest"), static_cast<int>(ReviewDecision::Retest));
+    m_comment->setPlaceholderText(tr("Required when rejecting or asking for a retest: say why."));
     auto *form = new QFormLayout;
     form->addRow(tr("Reviewer"), m_reviewer);
-    form->addRow(tr("Reviewer's decision"), m_verdict);
+    form->addRow(tr("Reviewer's decision"), m_decision);
     form->addRow(tr("Comment"), m_comment);
     auto *note = new QLabel(tr("The sign-off is added to the session file as a new review record with the UTC time. "
                                "Nothing else in the file changes; earlier sign-offs stay in its history."));
@@ -43,13 +43,13 @@ SignOffDialog::SignOffDialog(const QString &sessionName, const QString &reviewer
     };
     connect(m_reviewer, &QLineEdit::textChanged, this, recheck);
     connect(m_comment, &QPlainTextEdit::textChanged, this, recheck);
-    connect(m_verdict, &QComboBox::currentIndexChanged, this, recheck);
+    connect(m_decision, &QComboBox::currentIndexChanged, this, recheck);
     recheck();
 }
 
 SignOffRequest SignOffDialog::request() const
 {
-    return {m_reviewer->text().trimmed().toStdString(), static_cast<ReviewDecision>(m_verdict->currentData().toInt()),
+    return {m_reviewer->text().trimmed().toStdString(), static_cast<ReviewDecision>(m_decision->currentData().toInt()),
             m_comment->toPlainText().trimmed().toStdString()};
 }
 

@@ -1,5 +1,6 @@
-// Asks for a sign-off: reviewer, verdict (accept, reject, repeat the test) and comment. It only
-// returns the request; ReviewWindow asks for confirmation and writes it.
+// Asks for a sign-off: reviewer, the reviewer's decision (accept, reject, retest; never called a
+// verdict, which is the measurement's) and comment. It only returns the request; ReviewWindow
+// asks for confirmation and writes it.
 #pragma once
 
 #include "SessionSignOff.h"
@@ -22,7 +23,7 @@ public:
 private:
     void check();
     QLineEdit *m_reviewer;
-    QComboBox *m_verdict;
+    QComboBox *m_decision;
     QPlainTextEdit *m_comment;
     QLabel *m_problem;
 };

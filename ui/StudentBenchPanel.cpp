@@ -329,8 +329,14 @@ QString StudentBenchWindow::start(const StudentStart &start)
     m_pin->clear();
     m_workspace->setPerson(start.student.trimmed());
     const QString stamp = QDateTime::currentDateTimeUtc().toString(QStringLiteral("yyyyMMdd-HHmmss"));
-    m_workspace->setNextSessionFileName(
-        q(supervisedSessionFileName(start.student.toStdString(), start.unitSerial.toStdString(), stamp.toStdString())));
+    const QString named =
+        q(supervisedSessionFileName(start.student.toStdString(), start.unitSerial.toStdString(), stamp.toStdString()));
+    // The same student and unit again within the second (a retest straight away): "…Z-2.sagline".
+    QString fileName = named;
+    const QString extension = QStringLiteral(".sagline");
+    for (int n = 2; QFileInfo::exists(QDir(m_sessionFolder).filePath(fileName)) && n < 100; ++n)
+        fileName = named.chopped(extension.size()) + QStringLiteral("-%1").arg(n) + extension;
+    m_workspace->setNextSessionFileName(fileName);
     SessionDetails details;
     details.operatorName = start.student.trimmed();
     details.unitSerial = start.unitSerial.trimmed();
@@ -410,7 +416,11 @@ void StudentBenchWindow::handleRecord()
     m_pendingConfirmation = false;
     if (outcome.refusal.isEmpty()) {
         m_nextStep->clearEntry();
-        showMessage(tr("Recorded."));
+        // Numbered as the plan, the strip and the readings table number it.
+        const std::vector<Reading> &readings = m_workspace->readings();
+        showMessage(!readings.empty() && readings.back().step >= 0
+                        ? tr("Recorded step %1 (reading %2).").arg(readings.back().step).arg(readings.size())
+                        : tr("Recorded."));
         return;
     }
     const bool aboutCurrent = outcome.refusal.startsWith(current->field());

@@ -12,6 +12,7 @@
 #include "VerdictCompleteness.h"
 #include "VoltageCurrentChart.h"
 
+#include <QCloseEvent>
 #include <QHeaderView>
 #include <QLabel>
 #include <QLineEdit>
@@ -187,6 +188,14 @@ void StudentBenchWindow::handleStep(int step, const QString &instruction)
     if (plan && !plan->steps.empty())
         heading = stepHeading(step, plan->steps.front().index, plan->steps.back().index);
     m_nextStep->setInstruction(heading, instruction);
+}
+
+void StudentBenchWindow::closeEvent(QCloseEvent *event)
+{
+    // Every reading is already committed; the stop is recorded before the window goes.
+    if (m_workspace->isRunning())
+        m_workspace->stop();
+    event->accept();
 }
 
 void StudentBenchWindow::resetViews()

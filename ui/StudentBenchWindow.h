@@ -18,6 +18,7 @@
 #include <vector>
 
 class QCheckBox;
+class QCloseEvent;
 class QLabel;
 class QLineEdit;
 class QListWidget;
@@ -78,6 +79,11 @@ public:
     QLineEdit *pinField() const { return m_pin; }
     QString messageText() const { return m_lastMessage; }
     void flushCharts();             // draw now (tests, screenshots)
+
+protected:
+    // Closing mid-session stops the sweep (recorded as stopped, as the bench window does), so the
+    // review reads "stopped", not "interrupted" as after a crash.
+    void closeEvent(QCloseEvent *event) override;
 
 private:
     QWidget *createSheetPanel();

@@ -141,7 +141,7 @@ void printSection(const DesignStatistics &group, const std::vector<SessionRow> &
         if (group.sdOhm)
             out << ", standard deviation " << formatQuantity(*group.sdOhm, "Ω");
         out << ", median " << formatQuantity(*group.medianOhm, "Ω") << ", range " << formatQuantity(*group.minOhm, "Ω")
-            << " to " << formatQuantity(*group.maxOhm, "Ω") << " (" << group.resistanceCount << " units)\n";
+            << " to " << formatQuantity(*group.maxOhm, "Ω") << " (" << unitsInStatisticsText(group) << ")\n";
     }
     out << "  Far from the batch (this design only): " << group.ruleNote << '\n';
     const IndividualsChart &chart = group.chart;
@@ -185,7 +185,7 @@ void printComparison(const std::vector<SessionRow> &rows, const BatchStatistics 
     out << "  Verdicts against each session's specification ("
         << (ruleName.empty() ? toString(options.figures.rule) : ruleName) << "):\n    " << verdictCountsText(stats) << '\n';
     out << "  Reviewer's decisions: accepted " << stats.accepted << ", rejected " << stats.rejected << ", retest "
-        << stats.retest << ", not reviewed " << stats.notReviewed << ", changed after sign-off "
+        << stats.retest << ", unreviewed " << stats.notReviewed << ", changed after sign-off "
         << stats.changedAfterSignOff << '\n';
     out << "  Safety stops in " << stats.safetyStopped << " sessions; incomplete sessions " << stats.incomplete
         << "; lab-sheet limit hit in " << stats.limitHit << '\n';

@@ -2,7 +2,10 @@
 // product) with readings along V = V0 - R·I plus a small, seeded, deterministic scatter.
 #pragma once
 
+#include "PlanJson.h"
+#include "Planner.h"
 #include "SessionStore.h"
+#include "SetupJson.h"
 #include "SessionTestSupport.h"
 
 #include <gtest/gtest.h>
@@ -34,6 +37,7 @@ struct DemoUnit {
     double windingC = 20.0;         // recorded winding temperature, °C
     double ratedPowerVa = 50.0;     // the nameplate's rating: another value is another design
     std::string design;             // the setup's design name, "" for none
+    bool withPlan = false;          // record the setup's plan (steps 0-10), so fewer points make an incomplete session
 };
 
 // Readings of a demo unit: I_k = k/(n-1) · VA/24 A, V_k = V0 - R I_k + scatter·sin(1.7 k + R).
@@ -62,6 +66,16 @@ inline std::string makeDemoSession(const std::string &path, const DemoUnit &unit
     session.unitSerial = unit.serial;
     session.windingTemperatureC = unit.windingC;
     session.softwareVersion = "test";
+    if (unit.withPlan) {
+        const SetupParse setup = parseSetupJson(session.setupJson);
+        EXPECT_TRUE(setup.setup.has_value());
+        if (setup.setup) {
+            const PlanResult plan = makePlan(*setup.setup);
+            EXPECT_TRUE(plan.plan.has_value());
+            if (plan.plan)
+                session.planJson = planToJson(*plan.plan);
+        }
+    }
     auto created = SessionStore::create(path, session);
     EXPECT_TRUE(created.ok()) << created.message;
     if (!created.ok())

@@ -91,7 +91,7 @@ TEST(SessionComparison, RowMatchesIndependentLeastSquares)
     EXPECT_EQ(row.instruments, "DemoMaker DV-100 (voltmeter); DemoMaker DA-20 (ammeter)");
     EXPECT_EQ(row.pointsUsed, 11u);
     EXPECT_EQ(row.points.size(), 11u);
-    EXPECT_EQ(row.reviewState(), "not reviewed");
+    EXPECT_EQ(row.reviewState(), "unreviewed");
 }
 
 TEST(SessionComparison, ExcludedReadingIsLeftOutOfTheFit)
@@ -312,6 +312,35 @@ TEST(SessionComparison, ControlChartFollowsTheSessionsStartTimes)
     // In time order 10, 12, 11, 14, 13: the hand-worked example of ControlChartTest.
     EXPECT_EQ(stats.designs[0].chartRows, (std::vector<std::size_t>{1, 3, 0, 2, 4}));
     EXPECT_NEAR(*stats.designs[0].chart.upper, 16.6542553, 1e-7);
+}
+
+TEST(SessionComparison, IncompleteSessionsStayOutOfTheBatchAndTheChart)
+{
+    // A sweep interrupted after two steps gives an R from two points: not a unit like the others.
+    // Four complete units of one design and two that ended early, one of them far off and one
+    // without a winding temperature: the statistics, flags and chart are over the four alone.
+    std::vector<SessionRow> rows = {fittedRow(1.150), fittedRow(1.152), fittedRow(0.70), fittedRow(1.148),
+                                    fittedRow(1.151), fittedRow(1.149)};
+    rows[2].progress.state = Completeness::Interrupted;
+    rows[2].progress.plannedSteps = 9;
+    rows[2].progress.recordedSteps = 2;
+    rows[4].progress.state = Completeness::Stopped;
+    rows[4].figures.resistanceRefOhm.reset();
+    const BatchStatistics stats = summarizeBatch(rows);
+    EXPECT_TRUE(stats.atReferenceTemperature) << "the stopped session's missing temperature does not count";
+    ASSERT_EQ(stats.designs.size(), 1u);
+    const DesignStatistics &group = stats.designs[0];
+    EXPECT_EQ(group.rows.size(), 6u) << "still listed in its design";
+    EXPECT_EQ(group.resistanceCount, 4u);
+    EXPECT_EQ(group.incompleteLeftOut, 2u);
+    EXPECT_NEAR(*group.meanOhm, 1.2 * (1.150 + 1.152 + 1.148 + 1.149) / 4.0, 1e-12);
+    EXPECT_EQ(group.chart.n, 4u);
+    EXPECT_EQ(group.chartRows, (std::vector<std::size_t>{0, 1, 3, 5}));
+    EXPECT_TRUE(stats.farFromBatch.empty());
+    EXPECT_FALSE(stats.robustZ[2].has_value());
+    EXPECT_FALSE(stats.robustZ[4].has_value());
+    EXPECT_EQ(stats.resistanceCount, 4u);
+    EXPECT_EQ(stats.incomplete, 2u);
 }
 
 TEST(SessionComparison, BatchUsesReferenceTemperatureOnlyWhenEveryUnitHasIt)

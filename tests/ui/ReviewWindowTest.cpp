@@ -9,6 +9,7 @@
 #include "ReviewTableModel.h"
 #include "ReviewTrendChart.h"
 #include "ReviewWindow.h"
+#include "ShotsAtWorkingSizes.h"
 #include "UncertaintyBudget.h"
 
 #include <QDir>
@@ -137,12 +138,10 @@ TEST(ReviewWindow, OverlaySignOffExportAndScreenshot)
     ASSERT_TRUE(pdfFile.open(QIODevice::ReadOnly));
     EXPECT_TRUE(pdfFile.read(5).startsWith("%PDF-"));
 
-    window->show();
-    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
-    QDir().mkpath(QStringLiteral("screenshots"));
-    EXPECT_TRUE(window->grab().save(QStringLiteral("screenshots/review-window.png")));
     window->table()->clicked(window->filter()->index(proxyRowOf(*window, "DEMO-0002"), 0));
-    EXPECT_TRUE(window->detail()->grab().save(QStringLiteral("screenshots/review-detail.png")));
+    EXPECT_TRUE(saveAtWorkingSizes(*window, shotsFolder(QStringLiteral("review")),
+                                   {{window.get(), QStringLiteral("review-window")},
+                                    {window->detail(), QStringLiteral("review-detail")}}));
 }
 
 TEST(ReviewWindow, GroupsThreeDesignsAndDrawsEachDesignsTrend)
@@ -201,15 +200,11 @@ TEST(ReviewWindow, GroupsThreeDesignsAndDrawsEachDesignsTrend)
     EXPECT_EQ(trend->outsideCount(), 1) << trend->noteText().toStdString();
     EXPECT_NE(trend->noteText().indexOf(QStringLiteral("LAB-12")), -1) << trend->noteText().toStdString();
 
-    QDir().mkpath(QStringLiteral("screenshots"));
+    // For people to look at (SAGLINE_SHOTS_DIR): the table grouped by design with the summary,
+    // then the trend tab with the 60 VA design's control chart.
+    const QString shots = shotsFolder(QStringLiteral("review"));
+    window->tabs()->setCurrentIndex(0);
+    EXPECT_TRUE(saveAtWorkingSizes(*window, shots, {{window.get(), QStringLiteral("review-grouped-by-design")}}));
     window->tabs()->setCurrentWidget(trend);
-    for (const QSize size : {QSize(1366, 768), QSize(1600, 1000)}) {
-        window->resize(size);
-        window->show();
-        ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
-        QTest::qWait(50);
-        const QString suffix = QStringLiteral("-%1x%2.png").arg(size.width()).arg(size.height());
-        EXPECT_TRUE(window->grab().save(QStringLiteral("screenshots/review-grouped-by-design") + suffix));
-        EXPECT_TRUE(trend->grab().save(QStringLiteral("screenshots/review-trend-chart") + suffix));
-    }
+    EXPECT_TRUE(saveAtWorkingSizes(*window, shots, {{window.get(), QStringLiteral("review-trend-chart")}}));
 }

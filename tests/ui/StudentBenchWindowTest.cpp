@@ -13,7 +13,9 @@
 #include "ResultsPanel.h"
 #include "SessionComparison.h"
 #include "StudentBenchWindow.h"
+#include "ShotsAtWorkingSizes.h"
 #include "SweepWorkspace.h"
+#include "UiTestSupport.h"
 
 #include <QDir>
 #include <QLineEdit>
@@ -129,12 +131,10 @@ TEST(StudentBenchWindow, AFullSessionThroughTheLockedBenchWithChartAndFit)
         if (k == 2) {
             bench.window.flushCharts();
             EXPECT_TRUE(bench.window.workspace()->liveFit().result().ok()) << "the line forms as the points arrive";
-            QDir().mkpath(QStringLiteral("screenshots"));
-            bench.window.resize(1366, 768);
-            bench.window.show();
-            ASSERT_TRUE(QTest::qWaitForWindowExposed(&bench.window));
-            bench.window.flushCharts();
-            EXPECT_TRUE(bench.window.grab().save(QStringLiteral("screenshots/student-window-mid-session.png")));
+            // Mid-session, for people to look at (SAGLINE_SHOTS_DIR): the line forming over three points.
+            EXPECT_TRUE(saveAtWorkingSizes(bench.window, shotsFolder(QStringLiteral("supervised")),
+                                           {{&bench.window, QStringLiteral("student-window-mid-session")}},
+                                           [&] { bench.window.flushCharts(); }));
         }
     }
     QTRY_VERIFY_WITH_TIMEOUT(!bench.window.workspace()->isRunning(), 30000);
@@ -170,4 +170,82 @@ TEST(StudentBenchWindow, AFullSessionThroughTheLockedBenchWithChartAndFit)
     bench.tickAll();
     ASSERT_EQ(bench.window.start({"B. Student", "DEMO-0102", "C. Supervisor", "2468"}), QString());
     EXPECT_NE(bench.window.workspace()->sessionPath(), path);
+}
+
+TEST(StudentBenchWindow, ClosingMidSessionRecordsAStopNotAnInterruption)
+{
+    // The student closes the window after two steps: the session says it was stopped (as the
+    // bench window does on close), so the review reads "stopped", not "interrupted" (a crash).
+    StudentBench bench;
+    ASSERT_EQ(bench.window.chooseSheet(1), QString());
+    bench.tickAll();
+    ASSERT_EQ(bench.window.start({"B. Student", "DEMO-0103", "C. Supervisor", "2468"}), QString());
+    ASSERT_EQ(bench.window.enterReading(QStringLiteral("0 A"), QStringLiteral("26.40 V")), QString());
+    ASSERT_EQ(bench.window.enterReading(QStringLiteral("417 mA"), QStringLiteral("25.92 V")), QString());
+    const QString path = bench.window.workspace()->sessionPath();
+    ASSERT_TRUE(bench.window.workspace()->isRunning());
+    bench.window.show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(&bench.window));
+    bench.window.closeButton()->click();
+    QTRY_VERIFY_WITH_TIMEOUT(!bench.window.workspace()->isRunning(), 30000);
+    const SessionRow row = loadSessionRow(path.toStdString(), {});
+    ASSERT_TRUE(row.opened) << row.problem;
+    EXPECT_EQ(row.readingCount, 2u);
+    EXPECT_EQ(row.progress.state, Completeness::Stopped) << row.progress.label();
+}
+
+TEST(StudentBenchWindow, EnterInEachFieldAsAtTheBenchAndStepsNumberedAsThePlan)
+{
+    // Keys only, as a student types: current, Enter (moves to the voltage), voltage, Enter
+    // (records). The message and the table give the plan's step number (0 is the open circuit).
+    StudentBench bench;
+    ASSERT_EQ(bench.window.chooseSheet(1), QString());
+    bench.tickAll();
+    ASSERT_EQ(bench.window.start({"D. Student", "DEMO-0201", "C. Supervisor", "2468"}), QString());
+    bench.window.show();
+    bench.window.activateWindow();
+    ASSERT_TRUE(QTest::qWaitForWindowActive(&bench.window));
+    QLineEdit *current = bench.window.nextStep()->currentField()->lineEdit();
+    QLineEdit *voltage = bench.window.nextStep()->voltageField()->lineEdit();
+    const char *amps[] = {"0", "0.417"};
+    const char *volts[] = {"26.40", "25.92"};
+    for (int k = 0; k < 2; ++k) {
+        typeInto(current, QString::fromLatin1(amps[k]));
+        QTest::keyClick(current, Qt::Key_Return);
+        EXPECT_TRUE(bench.window.workspace()->readings().size() == static_cast<std::size_t>(k))
+            << "Enter in the current field does not record";
+        EXPECT_TRUE(voltage->hasFocus()) << "Enter in the current field moves to the voltage";
+        typeInto(voltage, QString::fromLatin1(volts[k]));
+        QTest::keyClick(voltage, Qt::Key_Return);
+        ASSERT_EQ(bench.window.workspace()->readings().size(), static_cast<std::size_t>(k + 1))
+            << bench.window.messageText().toStdString();
+        EXPECT_EQ(bench.window.messageText(), QStringLiteral("Recorded step %1 (reading %2).").arg(k).arg(k + 1));
+        EXPECT_EQ(bench.window.workspace()->readings().back().step, k);
+        EXPECT_TRUE(current->hasFocus()) << "after recording, the next current";
+    }
+    EXPECT_NE(bench.window.nextStep()->instructionText().indexOf(QStringLiteral("Step 2 (plan steps 0–4)")), -1)
+        << bench.window.nextStep()->instructionText().toStdString();
+    const QString first = bench.window.workspace()->sessionPath();
+    bench.window.closeButton()->click();
+
+    // The next student at the same bench, on the same unit, in the same second: their own file.
+    StudentBenchWindow second;
+    second.setSheetFolder(QString::fromStdString(bench.folder.file("sheets")));
+    second.setSessionFolder(QString::fromStdString(bench.folder.file("sessions")));
+    ASSERT_EQ(second.chooseSheet(1), QString());
+    for (int i = 0; i < 3; ++i)
+        second.setChecklistTicked(i, true);
+    ASSERT_EQ(second.start({"E. Student", "DEMO-0201", "C. Supervisor", "2468"}), QString()) << second.messageText().toStdString();
+    EXPECT_NE(second.workspace()->sessionPath(), first);
+    EXPECT_TRUE(QFileInfo(second.workspace()->sessionPath()).fileName().startsWith(QStringLiteral("E.-Student_DEMO-0201_")));
+    EXPECT_TRUE(QFileInfo::exists(first));
+
+    // The same student and unit again at once (a retest): a file of its own, not "already exists".
+    const QString secondPath = second.workspace()->sessionPath();
+    second.workspace()->stop();
+    second.nextUnit();
+    for (int i = 0; i < 3; ++i)
+        second.setChecklistTicked(i, true);
+    ASSERT_EQ(second.start({"E. Student", "DEMO-0201", "C. Supervisor", "2468"}), QString()) << second.messageText().toStdString();
+    EXPECT_NE(second.workspace()->sessionPath(), secondPath);
 }
