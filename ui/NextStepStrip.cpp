@@ -21,7 +21,7 @@ QString stepHeading(int step, int firstStep, int lastStep)
 NextStepStrip::NextStepStrip(QWidget *parent)
     : QWidget(parent), m_banner(new QLabel), m_step(new QLabel), m_expect(new QLabel), m_countdown(new QLabel),
       m_waiting(new QLabel),
-      m_current(new QuantityField(QStringLiteral("reading.current_a"), Unit::Ampere, tr("e.g. 1.25 A or 1250 mA"))),
+      m_current(new QuantityField(QStringLiteral("reading.current_a"), Unit::Ampere, tr("e.g. 1.25 A"))),
       m_voltage(new QuantityField(QStringLiteral("reading.voltage_v"), Unit::Volt, tr("e.g. 24.6 V"))),
       m_entry(new QWidget), m_recordAction(new QAction(tr("● &Record  (Ctrl+Enter)"), this)),
       m_pauseAction(new QAction(tr("❚❚ &Pause"), this)), m_stopAction(new QAction(tr("■ &Stop"), this)),
@@ -84,6 +84,9 @@ NextStepStrip::NextStepStrip(QWidget *parent)
     // Stop ends the sweep: no shortcut (nothing one key away from a frequent one), and the
     // window asks before it acts.
     m_stopAction->setToolTip(tr("End the sweep; every recorded point stays in the session file"));
+    // The placeholder stays short enough to show whole at 1366 px; the other forms are here.
+    m_current->lineEdit()->setToolTip(tr("The current with its unit: 1.25 A or 1250 mA; a plain number is in amperes"));
+    m_voltage->lineEdit()->setToolTip(tr("The voltage with its unit: 24.6 V or 24600 mV; a plain number is in volts"));
     addActions({m_recordAction, m_pauseAction});
 
     QFont buttonFont = font();

@@ -11,6 +11,7 @@
 #include <QLabel>
 #include <QLegendMarker>
 #include <QLineSeries>
+#include <QScatterSeries>
 #include <QValueAxis>
 #include <QVBoxLayout>
 
@@ -156,13 +157,20 @@ void ReviewTrendChart::draw()
         high = std::max(high, *chart.upper);
     }
     if (!outside.isEmpty()) {
-        auto *marks = new QLineSeries;
+        // A scatter series, so that the legend shows the same hollow square as the chart (a line
+        // series without a pen showed a black one).
+        auto *marks = new QScatterSeries;
         marks->setName(tr("outside the limits"));
-        marks->setPen(Qt::NoPen);
-        marks->setLightMarker(markerImage(MarkerShape::HollowSquare, colours.unsafe, 15));
+        marks->setMarkerShape(QScatterSeries::MarkerShapeRectangle);
         marks->setMarkerSize(15);
+        marks->setBrush(Qt::NoBrush);
+        marks->setPen(QPen(colours.unsafe, 2.0));
         marks->replace(outside);
         m_chart->addSeries(marks);
+        for (QLegendMarker *marker : m_chart->legend()->markers(marks)) {
+            marker->setPen(QPen(colours.unsafe, 2.0));
+            marker->setBrush(Qt::NoBrush);
+        }
     }
     for (QAbstractSeries *series : m_chart->series()) {
         series->attachAxis(m_axisX);

@@ -103,6 +103,10 @@ ReviewWindow::ReviewWindow(QWidget *parent)
     split->addWidget(lower);
     split->setStretchFactor(0, 1);
     split->setStretchFactor(1, 1);
+    // The table is what a lab lead reads first: at least seven sessions in view (it was squeezed
+    // to three or four at 1366 x 768 by the charts' own minimum heights).
+    m_table->setMinimumHeight(m_table->horizontalHeader()->sizeHint().height()
+                              + 7 * m_table->verticalHeader()->defaultSectionSize() + 2 * m_table->frameWidth());
 
     auto *central = new QWidget;
     auto *layout = new QVBoxLayout(central);

@@ -237,19 +237,16 @@ void StudentBenchWindow::showSheet()
     m_sheetTitle->setText(tr("<b>%1</b>").arg(q(sheet.title).toHtmlEscaped()));
     m_instructions->setText(q(sheet.instructions));
     const QString why = tr("Locked by the lab sheet: your supervisor fixed it.");
+    // Each value whole on as many lines as the panel needs (a narrow field cut them short),
+    // greyed as a control that cannot be changed, the reason in its tooltip.
     const auto locked = [&](const QString &label, const QString &value, const QString &reason) {
-        auto *field = new QLineEdit(value);
-        field->setReadOnly(true);
+        auto *field = new QLabel(tr("%1 (locked)").arg(value));
+        field->setWordWrap(true);
         field->setEnabled(false);
         field->setToolTip(reason);
-        auto *row = new QWidget;
-        auto *h = new QHBoxLayout(row);
-        h->setContentsMargins(0, 0, 0, 0);
-        h->addWidget(field, 1);
-        auto *lock = new QLabel(tr("(locked by the sheet)"));
-        lock->setToolTip(reason);
-        h->addWidget(lock);
-        form->addRow(label, row);
+        auto *name = new QLabel(label);
+        name->setToolTip(reason);
+        form->addRow(name, field);
         m_locked << field;
     };
     const Nameplate &p = sheet.setup.nameplate;

@@ -177,7 +177,11 @@ TEST(ReviewWindow, GroupsThreeDesignsAndDrawsEachDesignsTrend)
     const QString summary = window->summaryText();
     EXPECT_NE(summary.indexOf(QStringLiteral("never across designs")), -1) << summary.toStdString();
     EXPECT_NE(summary.indexOf(QStringLiteral("20 VA 230/24 V 50 Hz toroidal copper")), -1);
-    // The design column groups the table; the verdict reads as the window and the reports spell it.
+    // The design column groups the table, smallest rating first (numbers in names by value).
+    EXPECT_TRUE(window->filter()->index(0, ReviewTableModel::Design).data().toString().startsWith(QStringLiteral("20 VA")));
+    EXPECT_TRUE(window->filter()->index(3, ReviewTableModel::Design).data().toString().startsWith(QStringLiteral("60 VA")));
+    EXPECT_TRUE(window->filter()->index(11, ReviewTableModel::Design).data().toString().startsWith(QStringLiteral("100 VA")));
+    // The verdict reads as the window and the reports spell it.
     EXPECT_EQ(window->filter()->index(0, ReviewTableModel::Design).data().toString(),
               window->filter()->index(1, ReviewTableModel::Design).data().toString());
     EXPECT_EQ(window->model()->headerData(ReviewTableModel::Review, Qt::Horizontal).toString(), "Reviewer's decision");
@@ -204,6 +208,14 @@ TEST(ReviewWindow, GroupsThreeDesignsAndDrawsEachDesignsTrend)
     // then the trend tab with the 60 VA design's control chart.
     const QString shots = shotsFolder(QStringLiteral("review"));
     window->tabs()->setCurrentIndex(0);
+    // The 60 VA design's six units selected: their readings and lines in the overlay.
+    window->table()->clearSelection();
+    for (int r = 0; r < window->filter()->rowCount(); ++r)
+        if (window->filter()->index(r, ReviewTableModel::Design).data().toString().startsWith(QStringLiteral("60 VA")))
+            window->table()->selectionModel()->select(window->filter()->index(r, 0),
+                                                      QItemSelectionModel::Select | QItemSelectionModel::Rows);
+    EXPECT_EQ(window->overlay()->legendEntries().size(), 6);
+    window->table()->scrollTo(window->filter()->index(3, 0), QAbstractItemView::PositionAtTop);
     EXPECT_TRUE(saveAtWorkingSizes(*window, shots, {{window.get(), QStringLiteral("review-grouped-by-design")}}));
     window->tabs()->setCurrentWidget(trend);
     EXPECT_TRUE(saveAtWorkingSizes(*window, shots, {{window.get(), QStringLiteral("review-trend-chart")}}));

@@ -18,6 +18,7 @@
 #include "UiTestSupport.h"
 
 #include <QDir>
+#include <QLabel>
 #include <QLineEdit>
 #include <QPushButton>
 #include <QTest>
@@ -248,4 +249,27 @@ TEST(StudentBenchWindow, EnterInEachFieldAsAtTheBenchAndStepsNumberedAsThePlan)
         second.setChecklistTicked(i, true);
     ASSERT_EQ(second.start({"E. Student", "DEMO-0201", "C. Supervisor", "2468"}), QString()) << second.messageText().toStdString();
     EXPECT_NE(second.workspace()->sessionPath(), secondPath);
+}
+
+TEST(StudentBenchWindow, LockedValuesShowWholeAtTheWorkingSizes)
+{
+    // Each value the sheet fixes is read whole (it was cut to "s 0 to 4, fixed" in a narrow
+    // field): wrapped onto as many lines as its width needs, at both working sizes.
+    StudentBench bench;
+    ASSERT_EQ(bench.window.chooseSheet(1), QString());
+    for (const QSize size : {QSize(1366, 768), QSize(1600, 1000)}) {
+        bench.window.resize(size);
+        bench.window.show();
+        ASSERT_TRUE(QTest::qWaitForWindowExposed(&bench.window));
+        QTest::qWait(50);
+        ASSERT_EQ(bench.window.lockedControls().size(), 5);
+        for (QWidget *control : bench.window.lockedControls()) {
+            auto *label = qobject_cast<QLabel *>(control);
+            ASSERT_TRUE(label) << "a locked value is shown as text, not in a field that scrolls";
+            EXPECT_TRUE(label->wordWrap());
+            EXPECT_GE(label->height(), label->heightForWidth(label->width()))
+                << label->text().toStdString() << " at " << size.width() << "x" << size.height();
+            EXPECT_TRUE(label->text().endsWith(QStringLiteral("(locked)"))) << label->text().toStdString();
+        }
+    }
 }
