@@ -3,6 +3,7 @@
 #include "FitPresentation.h"
 
 #include "ReadingsTableModel.h"
+#include "ReadingsTableView.h"
 #include "ResultsPanel.h"
 #include "SessionStore.h"
 #include "UncertaintyFormat.h"
@@ -12,6 +13,7 @@
 
 #include <QLabel>
 #include <QScrollArea>
+#include <QScrollBar>
 #include <QSplitter>
 #include <QTableView>
 #include <QVBoxLayout>
@@ -33,10 +35,9 @@ ReviewDetailView::ReviewDetailView(QWidget *parent)
     m_history->setWordWrap(true);
     m_history->setTextFormat(Qt::RichText);
     m_history->setAlignment(Qt::AlignTop | Qt::AlignLeft);
-    m_readingsView->setModel(m_readings);
+    // The readings as the bench shows them: numbered from 1, flags, exclusion and note in Remarks.
+    setUpReadingsTable(m_readingsView, m_readings);
     m_readingsView->setEditTriggers(QAbstractItemView::NoEditTriggers);
-    m_readingsView->verticalHeader()->hide();
-    m_readingsView->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
 
     auto *historyScroll = new QScrollArea;
     historyScroll->setWidget(m_history);
@@ -46,12 +47,20 @@ ReviewDetailView::ReviewDetailView(QWidget *parent)
     leftLayout->setContentsMargins(0, 0, 0, 0);
     leftLayout->addWidget(m_results);
     leftLayout->addWidget(historyScroll, 1);
+    // The results and the history scroll rather than make the review window taller than a
+    // 768 px screen (it grew to 1069 px with this tab shown).
+    auto *leftScroll = new QScrollArea;
+    leftScroll->setWidget(left);
+    leftScroll->setWidgetResizable(true);
+    leftScroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
+    leftScroll->setFrameShape(QFrame::NoFrame);
     auto *split = new QSplitter(Qt::Horizontal);
-    split->addWidget(left);
+    split->addWidget(leftScroll);
     split->addWidget(m_readingsView);
     split->setStretchFactor(1, 1);
     split->setSizes({430, 640});
     m_results->setMinimumWidth(400);
+    leftScroll->setMinimumWidth(400 + leftScroll->verticalScrollBar()->sizeHint().width());
     historyScroll->setMinimumHeight(140);
     auto *layout = new QVBoxLayout(this);
     layout->addWidget(m_heading);

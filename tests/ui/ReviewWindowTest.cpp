@@ -139,6 +139,14 @@ TEST(ReviewWindow, OverlaySignOffExportAndScreenshot)
     EXPECT_TRUE(pdfFile.read(5).startsWith("%PDF-"));
 
     window->table()->clicked(window->filter()->index(proxyRowOf(*window, "DEMO-0002"), 0));
+    // With the session detail shown, the window still fits a 1366 x 768 screen.
+    ASSERT_EQ(window->tabs()->currentWidget(), window->detail());
+    window->resize(1366, 768);
+    window->show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+    QTest::qWait(50);
+    EXPECT_EQ(window->size(), QSize(1366, 768));
+    EXPECT_LE(window->minimumSizeHint().height(), 768);
     EXPECT_TRUE(saveAtWorkingSizes(*window, shotsFolder(QStringLiteral("review")),
                                    {{window.get(), QStringLiteral("review-window")},
                                     {window->detail(), QStringLiteral("review-detail")}}));
