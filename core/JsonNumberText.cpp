@@ -4,6 +4,8 @@
 
 #include <charconv>
 #include <cmath>
+#include <cstring>
+#include <limits>
 
 namespace sagline {
 
@@ -13,10 +15,35 @@ void appendJsonNumber(std::string &out, double value)
         out += "null";
         return;
     }
-    // The formatter dump() itself calls for a double (nlohmann/detail/conversions/to_chars.hpp,
-    // Grisu2 with a ".0" for whole numbers), so the text cannot drift from the tree's.
+    // The digits: std::to_chars' shortest text that reads back to the same double (C++17
+    // [charconv.to.chars]; Ryu in libstdc++), about twice as fast as the Grisu2 dump() runs and
+    // never longer. The layout: dump()'s own (nlohmann/detail/conversions/to_chars.hpp,
+    // format_buffer: fixed from 1e-4 up to 1e15, "1.0" for whole numbers, "1e-05" beyond), so
+    // the text differs from the tree's only where Grisu2 gives more digits than needed.
+    char scientific[32];
+    const auto written = std::to_chars(scientific, scientific + sizeof scientific, value, std::chars_format::scientific);
+    // "-d.ddde+XX": sign, digits around the point, exponent.
+    const char *p = scientific;
     char buffer[64];
-    char *end = nlohmann::detail::to_chars(buffer, buffer + sizeof buffer, value);
+    char *digits = buffer;
+    if (*p == '-') {
+        *digits++ = '-';
+        ++p;
+    }
+    if (value == 0.0) {
+        std::memcpy(digits, "0.0", 3);
+        out.append(buffer, digits + 3);
+        return;
+    }
+    int length = 0;
+    for (; *p != 'e'; ++p)
+        if (*p != '.')
+            digits[length++] = *p;
+    int exponent = 0;
+    std::from_chars(p + (p[1] == '+' ? 2 : 1), written.ptr, exponent);
+    constexpr int minExponent = -4; // dump()'s kMinExp and kMaxExp for a double
+    constexpr int maxExponent = std::numeric_limits<double>::digits10;
+    char *end = nlohmann::detail::dtoa_impl::format_buffer(digits, length, exponent - (length - 1), minExponent, maxExponent);
     out.append(buffer, end);
 }
 
