@@ -5,7 +5,8 @@
 # A speed change must leave every line identical. One difference is explained, not failed: a
 # number written with other digits that read back to the same double, the new text no longer
 # (the shortest round-trip formatter against Grisu2); such cases print "same values" and how
-# many numbers changed text, with an example.
+# many numbers changed text, with an example. A build whose `fit` has --points (the per-point
+# array only on request) is run with it, so its JSON holds what an older build's always held.
 #
 # usage: bench/compare-fit-output.sh OLD-CLI NEW-CLI
 set -euo pipefail
@@ -66,13 +67,17 @@ cases=(
     "$work/s100000.sagline"
     "$work/u1000000.csv"
 )
+# points BUILD: the option that makes BUILD's fit --json write the per-point array, if it has one.
+points() { if "$1" fit --help 2>/dev/null | grep -q -- '--points'; then echo --points; fi; }
+points_old=$(points "$old")
+points_new=$(points "$new")
 differ=0
 for args in "${cases[@]}"; do
     for format in --json ""; do
         # shellcheck disable=SC2086 # the case is a list of words
-        code_old=0; "$old" fit $args $format > "$work/old.out" 2> "$work/old.err" || code_old=$?
+        code_old=0; "$old" fit $args $format ${format:+$points_old} > "$work/old.out" 2> "$work/old.err" || code_old=$?
         # shellcheck disable=SC2086
-        code_new=0; "$new" fit $args $format > "$work/new.out" 2> "$work/new.err" || code_new=$?
+        code_new=0; "$new" fit $args $format ${format:+$points_new} > "$work/new.out" 2> "$work/new.err" || code_new=$?
         label="fit ${args//$work\//} $format"
         label=${label//$resources\//resources/}
         if cmp -s "$work/old.out" "$work/new.out" && cmp -s "$work/old.err" "$work/new.err" && [ $code_old = $code_new ]; then

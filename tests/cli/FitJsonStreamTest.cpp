@@ -1,4 +1,4 @@
-// fit --json streams its per-point array instead of building a tree of it. These checks hold the
+// fit --json --points streams its per-point array instead of building a tree of it. These checks hold the
 // stream to what the tree wrote: the demo's output from before the change (tests/data/
 // fit-json-before-streaming/, written by the tree-building sagline-cli) has every key and
 // number unchanged, and a 100 000-reading output is the text nlohmann::json's dump(2) makes of it
@@ -127,8 +127,8 @@ TEST_F(FitJsonStream, DemoOutputKeepsEveryKeyAndNumberOfTheTreeWriter)
     const struct {
         const char *golden;
         std::vector<std::string> args;
-    } cases[] = {{"demo-with-setup.json", {"fit", demoReadings, "--setup", demoSetup, "--json"}},
-                 {"demo-york.json", {"fit", demoReadings, "--method", "york", "--json"}}};
+    } cases[] = {{"demo-with-setup.json", {"fit", demoReadings, "--setup", demoSetup, "--json", "--points"}},
+                 {"demo-york.json", {"fit", demoReadings, "--method", "york", "--json", "--points"}}};
     for (const auto &c : cases) {
         const auto r = runProgram(cli, c.args);
         ASSERT_EQ(r.exitCode, 0) << c.golden << ": " << r.err;
@@ -143,7 +143,7 @@ TEST_F(FitJsonStream, DemoOutputKeepsEveryKeyAndNumberOfTheTreeWriter)
 TEST_F(FitJsonStream, LargeOutputIsTheTreesTextAndCoresNumbers)
 {
     const std::string csv = write("sweep.csv", sweepCsv(100000));
-    const auto r = runProgram(cli, {"fit", csv, "--json"});
+    const auto r = runProgram(cli, {"fit", csv, "--json", "--points"});
     ASSERT_EQ(r.exitCode, 0) << r.err;
     const nlohmann::json j = nlohmann::json::parse(r.out);
     // dump(2) of the parsed document is the tree writer's text: same keys in the same order,
