@@ -5,7 +5,8 @@
 # variables. Whole processes, alternating (the order swaps every round so neither side always
 # runs on a warm page cache), medians of the wall times; peak resident memory from
 # /usr/bin/time. Also times `fit SESSION.sagline` (text and --json) of a session imported from the
-# 1e5 CSV, which has no script counterpart.
+# 1e5 CSV, which has no script counterpart. With a CLI that writes the per-point array only on
+# request (--points), also times `fit --json --points` at 1e6 against the same script.
 #
 # usage: bench/compare-with-scipy.sh [--cli PATH] [--rounds N] [--sizes "1000 100000 1000000"]
 #   default CLI build/ci/app/cli/sagline-cli, 7 rounds.
@@ -101,6 +102,12 @@ for n in $sizes; do
     $python "$here/make-readings-csv.py" "$n" random "$work/r$n.csv"
     pair "fit --json vs linregress $n" cli "$cli" fit "$work/r$n.csv" --json -- scipy "$python" "$work/linregress.py" "$work/r$n.csv"
 done
+if "$cli" fit --help 2>/dev/null | grep -q -- '--points'; then
+    for n in $sizes; do
+        [ "$n" = 1000000 ] || continue
+        pair "--json --points vs linregress $n" cli "$cli" fit "$work/r$n.csv" --json --points -- scipy "$python" "$work/linregress.py" "$work/r$n.csv"
+    done
+fi
 if [ -f "$work/r100000.csv" ] || $python "$here/make-readings-csv.py" 100000 random "$work/r100000.csv"; then
     pair "york --json vs odr 100000" york "$cli" fit "$work/r100000.csv" --method york --json -- odr "$python" "$work/odr.py" "$work/r100000.csv"
     pair "york (text) vs odr 100000" york "$cli" fit "$work/r100000.csv" --method york -- odr "$python" "$work/odr.py" "$work/r100000.csv"

@@ -1,7 +1,8 @@
-// Scalars written as nlohmann::json's dump() writes them, for output that streams a large JSON
-// array instead of building a tree of it (fit --json's per-point array: a tree of a million
-// points took 1.5 GB). Byte for byte the tree's text, so a streamed document equals the dump of
-// the tree it replaces (tests/core/JsonNumberTextTest.cpp checks it against dump()).
+// Scalars written in the layout nlohmann::json's dump() uses, for output that streams a large
+// JSON array instead of building a tree of it (fit --json's per-point array: a tree of a million
+// points took 1.5 GB). Integers and booleans are the tree's text byte for byte; a double is the
+// shortest text that reads back to it, which is dump()'s text except where dump()'s Grisu2 gives
+// more digits than needed (tests/core/JsonNumberTextTest.cpp checks both against dump()).
 #pragma once
 
 #include <cstdint>
@@ -10,8 +11,9 @@
 
 namespace sagline {
 
-// A finite double as dump() writes it (shortest text that reads back exactly, "1.0" for whole
-// numbers, "1e-05" style exponents); NaN and infinities as null, as dump() does.
+// A finite double as the shortest text that reads back to it exactly, laid out as dump() lays
+// it out ("1.0" for whole numbers, fixed from 1e-4 to 1e15, "1e-05" style beyond); NaN and
+// infinities as null, as dump() does.
 void appendJsonNumber(std::string &out, double value);
 // The value, or null when there is none.
 void appendJsonNumber(std::string &out, const std::optional<double> &value);

@@ -1,5 +1,5 @@
 // sagline-cli fit (DATA.csv | SESSION.sagline) [--method ols|wls|york] [--json] [--budget]
-//   [--setup SETUP.json] [--rule simple|guarded|non-binary] [--regulation-limit PERCENT|nameplate]
+//   [--points] [--setup SETUP.json] [--rule simple|guarded|non-binary] [--regulation-limit PERCENT|nameplate]
 //   [--winding-temperature C] [--reference-temperature C]
 //   [--temperature-constant copper-ieee|copper-iec|aluminium]
 // Fits V = V0 - R·I to the readings; with a nameplate (a session's setup, or --setup) it adds
@@ -31,6 +31,7 @@ struct FitArguments {
     std::string dataPath;
     FitMethod method = FitMethod::Ols;
     bool json = false;
+    bool points = false; // --points: the JSON also holds every reading's residuals and flags
     bool budget = false;
     std::string setupPath;
     std::optional<DecisionRule> rule;  // default: a session's analysis-settings record, else non-binary
@@ -64,7 +65,9 @@ CommandLine fitCommandLine()
     line.addPositional("DATA.csv|SESSION.sagline",
                        "readings: a CSV (current_a,voltage_v[,u_current_a,u_voltage_v]) or a session file");
     line.addOption({"method"}, "ols|wls|york", "ordinary (default), weighted or York's errors-in-both-variables fit");
-    line.addFlag({"json"}, "print one JSON object instead of the text");
+    line.addFlag({"json"}, "print one JSON object instead of the text (outliers as row indices)");
+    line.addFlag({"points"}, "with --json: also a \"points\" array with every reading's residual, studentized "
+                             "residual, screening statistic and flags (about 230 bytes a reading)");
     line.addFlag({"budget"}, "also print every result's uncertainty budget table");
     line.addOption({"setup"}, "SETUP.json", "the nameplate, meters and specification for a CSV file");
     line.addOption({"rule"}, "simple|guarded|non-binary",
@@ -97,6 +100,9 @@ std::optional<std::string> readArguments(const CommandLine &line, FitArguments &
 {
     out.dataPath = line.positionals().front();
     out.json = line.isSet("json");
+    out.points = line.isSet("points");
+    if (out.points && !out.json)
+        return std::string("--points needs --json: the text lists the outliers and has no per-reading table");
     out.budget = line.isSet("budget");
     out.fitVoltages = line.isSet("raw-voltages") ? FitVoltages::Raw : FitVoltages::Referred;
     out.leading = line.isSet("leading");
@@ -330,6 +336,7 @@ int runFit(const Arguments &arguments)
     FitReport report;
     report.source = args.dataPath;
     report.printBudget = args.budget;
+    report.pointsInJson = args.points;
     const int code = endsWith(args.dataPath, ".sagline") ? fitSession(args, report) : fitCsv(args, report);
     if (code != exitSuccess)
         return code;

@@ -288,7 +288,7 @@ nlohmann::json fitReportJson(const FitReport &report, PointsInJson points)
         j["iterations"] = f.iterations;
     if (points == PointsInJson::Tree)
         j["points"] = pointsJson(report);
-    else
+    else if (points == PointsInJson::Placeholder)
         j["points"] = nlohmann::json::array(); // the place writeFitReportJson streams them into
     const LineResults line = lineResultsOf(report);
     j["uncertainty_basis"] = line.uncertaintyBasis;
@@ -399,6 +399,10 @@ namespace sagline::cli {
 
 void writeFitReportJson(const FitReport &report, std::ostream &out)
 {
+    if (!report.pointsInJson) {
+        out << jsonText(fitReportJson(report, PointsInJson::Omitted), 2) << '\n';
+        return;
+    }
     const std::string text = jsonText(fitReportJson(report, PointsInJson::Placeholder), 2);
     const std::string_view placeholder = "\n  \"points\": []";
     // A newline inside a string is escaped, so this text occurs once: where the key is.

@@ -29,6 +29,7 @@ struct FitReport {
     std::optional<SpecificationVerdict> verdict;
     std::vector<std::string> warnings;
     bool printBudget = false;                // --budget: print every result's budget table
+    bool pointsInJson = false;               // --points: writeFitReportJson writes the per-point array
     // Where the judging choices came from (shown when there is a nameplate).
     SettingSource ruleSource = SettingSource::Default;
     SettingSource regulationLimitSource = SettingSource::Default;
@@ -41,14 +42,16 @@ struct FitReport {
 // Warnings a reader should see: bending, outliers, scatter beyond the stated uncertainties.
 std::vector<std::string> fitWarnings(const FitSummary &fit, const std::vector<int> &lineNumbers);
 
-// Whether fitReportJson puts the per-point array in the tree or leaves it empty for the stream.
-enum class PointsInJson { Tree, Placeholder };
+// Whether fitReportJson puts the per-point array in the tree, leaves it empty for the stream, or
+// leaves the key out (`fit --json` without --points: a million points are 232 MB of text).
+enum class PointsInJson { Tree, Placeholder, Omitted };
 
 // The JSON object as a tree (with every point: memory grows with the points; for tests and
 // small fits). writeFitReportJson writes the same text, the points streamed.
 nlohmann::json fitReportJson(const FitReport &report, PointsInJson points = PointsInJson::Tree);
-// `fit --json`: the text jsonText(fitReportJson(report), 2) would be, plus a newline, without
-// the per-point tree (a million points: 1.5 GB as a tree).
+// `fit --json`: without report.pointsInJson, jsonText(fitReportJson(report, Omitted), 2) and a
+// newline; with it, the text jsonText(fitReportJson(report), 2) would be, plus a newline, the
+// points streamed instead of built as a tree (a million points: 1.5 GB as a tree).
 void writeFitReportJson(const FitReport &report, std::ostream &out);
 void printFitReport(const FitReport &report, std::ostream &out);
 

@@ -75,7 +75,7 @@ TEST(FitCommand, HumanSummaryShowsUnitsUncertaintyAndVerdict)
 
 TEST(FitCommand, JsonCarriesResultsWithBudgetsVerdictAndScreen)
 {
-    const auto r = runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--json"});
+    const auto r = runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--json", "--points"});
     ASSERT_EQ(r.exitCode, 0) << r.err;
     const auto j = nlohmann::json::parse(r.out);
     for (const char *result : {"series_resistance_ohm", "no_load_voltage_v", "regulation_percent", "full_load_voltage_v",
@@ -105,8 +105,34 @@ TEST(FitCommand, JsonCarriesResultsWithBudgetsVerdictAndScreen)
     EXPECT_TRUE(j["outlier_screening"]["screened"].get<bool>());
     EXPECT_TRUE(j["outlier_screening"]["critical_value"].is_number());
     EXPECT_FALSE(j["outlier_screening"]["rule"].get<std::string>().empty());
+    ASSERT_EQ(j["points"].size(), 9u);
     for (const auto &point : j["points"])
         EXPECT_TRUE(point["outlier"].is_boolean());
+}
+
+TEST(FitCommand, JsonHoldsThePerReadingArrayOnlyWithPoints)
+{
+    // A reading whose voltage is 0.3 V off the line: the screen flags it (row 4, line 6).
+    const auto path = writeTemp("one-off.csv", "current_a,voltage_v\n0,19.60\n0.4,19.41\n0.8,19.21\n1.2,19.02\n"
+                                                "1.6,19.13\n2.0,18.64\n2.4,18.45\n2.8,18.26\n3.2,18.07\n");
+    const auto brief = runProgram(cli, {"fit", path, "--json"});
+    const auto full = runProgram(cli, {"fit", path, "--json", "--points"});
+    ASSERT_EQ(brief.exitCode, 0) << brief.err;
+    ASSERT_EQ(full.exitCode, 0) << full.err;
+    nlohmann::json b = nlohmann::json::parse(brief.out);
+    nlohmann::json f = nlohmann::json::parse(full.out);
+    EXPECT_FALSE(b.contains("points"));
+    ASSERT_EQ(f["points"].size(), 9u);
+    // The outliers are there either way, as row indices; they are the points flagged.
+    ASSERT_EQ(b["outliers"], nlohmann::json::array({4}));
+    EXPECT_TRUE(f["points"][4]["outlier"].get<bool>());
+    EXPECT_EQ(f["points"][4]["line"], 6);
+    // Everything else is the same object.
+    f.erase("points");
+    EXPECT_EQ(b, f);
+    const auto alone = runProgram(cli, {"fit", path, "--points"});
+    EXPECT_EQ(alone.exitCode, 2);
+    EXPECT_NE(alone.err.find("--points needs --json"), std::string::npos) << alone.err;
 }
 
 TEST(FitCommand, RulesLimitsAndTheBudgetTable)
@@ -200,7 +226,7 @@ TEST(FitCommand, FitsASessionHonouringExclusionsAndItsNameplate)
         ASSERT_EQ(readings.value.size(), 9u);
         ASSERT_TRUE(store.value->excludeReading(readings.value[4].id, "lead slipped", "test").ok());
     }
-    const auto r = runProgram(cli, {"fit", session, "--json"});
+    const auto r = runProgram(cli, {"fit", session, "--json", "--points"});
     ASSERT_EQ(r.exitCode, 0) << r.err;
     const auto j = nlohmann::json::parse(r.out);
     for (const char *key : designKeys)

@@ -6,6 +6,7 @@
 
 #include <gtest/gtest.h>
 
+#include <initializer_list>
 #include <random>
 #include <sstream>
 #include <string>
@@ -65,4 +66,21 @@ TEST(PrintableOutput, RandomTextMatchesLineByLine)
         for (std::size_t piece : {std::size_t{1}, std::size_t{13}, std::size_t{4096}})
             ASSERT_EQ(filtered(text, piece), expected(text)) << "round " << round << ", pieces of " << piece;
     }
+}
+
+TEST(PrintableOutput, LargeWritesOfPlainLinesPassWithoutACopyAndAControlByteInOneIsStillShown)
+{
+    // Megabytes of plain lines (a streamed JSON array) pass from the writer's buffer; a line with
+    // an escape, a UTF-8 name or a stray byte among them, or a partial line before them, is still
+    // made printable.
+    std::string plain;
+    for (int i = 0; i < 40000; ++i)
+        plain += "    {\n      \"residual_v\": -0.0012345678901234567,\n    },\n";
+    const std::string tainted = plain.substr(0, 1000000) + "name \x1B[2J caf\xC3\xA9 \xFF\n" + plain.substr(1000000);
+    const std::string partialFirst = "\x1B]0;title" + plain;
+    for (const std::string *text : std::initializer_list<const std::string *>{&plain, &tainted, &partialFirst}) {
+        for (std::size_t piece : {text->size(), std::size_t{70000}, std::size_t{65536}, std::size_t{100}})
+            ASSERT_EQ(filtered(*text, piece), expected(*text)) << "pieces of " << piece;
+    }
+    EXPECT_EQ(filtered(plain, plain.size()), plain);
 }
