@@ -4,7 +4,10 @@
 
 #include "ReviewPdfExport.h"
 #include "SessionComparison.h"
+#include "ShotsAtWorkingSizes.h"
 
+#include <QDir>
+#include <QFile>
 #include <QProcess>
 #include <QString>
 
@@ -57,6 +60,11 @@ TEST(ReviewPdfStops, SummaryListsSafetyStopsAndIncompleteSessions)
     reportOptions.generatedUtc = QStringLiteral("2026-12-03T10:00:00Z");
     reportOptions.producedBy = QStringLiteral("test");
     ASSERT_EQ(writeReviewPdf(pointers, {}, pdf, reportOptions), QString());
+    // For a person to look at (render its first page with pdftoppm): kept with SAGLINE_SHOTS_DIR.
+    if (const QString shots = shotsFolder(QStringLiteral("review")); !shots.isEmpty()) {
+        QFile::remove(QDir(shots).filePath(QStringLiteral("review-stops-and-incomplete.pdf")));
+        QFile::copy(pdf, QDir(shots).filePath(QStringLiteral("review-stops-and-incomplete.pdf")));
+    }
     QProcess pdftotext;
     pdftotext.start(QStringLiteral("pdftotext"), {QStringLiteral("-layout"), QStringLiteral("-l"), QStringLiteral("2"), pdf,
                                                   QStringLiteral("-")});
