@@ -227,8 +227,10 @@ QVariant ReviewTableModel::display(const SessionRow &row, int rowIndex, int colu
         const QString value = QString::number(*z[static_cast<std::size_t>(rowIndex)], 'f', 2);
         if (!isFarFromBatch(rowIndex))
             return value;
-        return m_stats.screeningOnly ? tr("%1  ▲ far from batch (screening only)").arg(value)
-                                     : tr("%1  ▲ far from batch").arg(value);
+        // Screening only by the row's own design's count (the CLI, CSV and PDF say the same).
+        const DesignStatistics *design = m_stats.designOfRow(static_cast<std::size_t>(rowIndex));
+        return !design || design->screeningOnly ? tr("%1  ▲ far from batch (screening only)").arg(value)
+                                                : tr("%1  ▲ far from batch").arg(value);
     }
     default: return {};
     }
