@@ -142,10 +142,9 @@ QVariant ReviewTableModel::headerData(int section, Qt::Orientation orientation, 
             return tr("No-load (core) loss P0 at the rated primary voltage, from step 0 (compare's no_load_loss_w), %1")
                 .arg(coverageNote());
         case RobustZ:
-            return tr("Modified z-score 0.6745 (R - median)/MAD; above 3.5 in magnitude the unit is far from the batch "
-                      "(Iglewicz and Hoaglin 1993). %1")
-                .arg(m_stats.screeningOnly ? tr("Screening only: a statement about the batch needs at least 10 units of one design")
-                                           : tr("At least 10 units of one design: the mark is a statement about the batch"));
+            return tr("Modified z-score 0.6745 (R - median)/MAD within the row's design; above 3.5 in magnitude the unit is "
+                      "far from the batch (Iglewicz and Hoaglin 1993). A statement about the batch needs at least 10 units "
+                      "of the design; below that the mark says \"screening only\"");
         case Points: return tr("Readings used by the fit / readings recorded");
         case Design: return tr("The setup's design name, or its nameplate (rating, voltages, frequency, construction, winding); "
                                "statistics and far-from-batch marks are taken within one design only");
