@@ -30,6 +30,7 @@
 #include <QLineEdit>
 #include <QListWidget>
 #include <QPushButton>
+#include <QScrollArea>
 #include <QSettings>
 #include <QVBoxLayout>
 
@@ -438,6 +439,12 @@ void StudentBenchWindow::handleRunningChanged(bool running)
                                    progress.isComplete()
                                        ? tr("Every step is recorded in %1. Close, or go on with the next unit.").arg(m_workspace->sessionPath())
                                        : tr("%1. Call your supervisor before the next unit.").arg(q(progress.label())));
+        // The strip names Close and Next unit: bring them into view (the panel was scrolled to the
+        // top), once the layout has taken the strip's new text.
+        QTimer::singleShot(0, this, [this] {
+            m_sheetScroll->ensureWidgetVisible(m_nextUnit);
+            m_sheetScroll->ensureWidgetVisible(m_close);
+        });
     }
     refreshStartButton();
 }

@@ -57,6 +57,7 @@ StudentBenchWindow::~StudentBenchWindow() = default;
 void StudentBenchWindow::createLayout()
 {
     auto *sheetScroll = new QScrollArea;
+    m_sheetScroll = sheetScroll;
     sheetScroll->setWidget(createSheetPanel());
     sheetScroll->setWidgetResizable(true);
     sheetScroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff); // texts wrap to the panel's width

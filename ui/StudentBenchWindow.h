@@ -23,6 +23,7 @@ class QLabel;
 class QLineEdit;
 class QListWidget;
 class QPushButton;
+class QScrollArea;
 class QTableView;
 
 namespace sagline {
@@ -109,6 +110,7 @@ private:
     ResultsPanel *m_results;
     ReadingsTableModel *m_readingsModel;
     QTableView *m_readingsView;
+    QScrollArea *m_sheetScroll = nullptr; // the left panel: scrolled to Close and Next unit at the end
     QListWidget *m_sheetList;
     QLabel *m_folderLabel;
     QLabel *m_sheetTitle;

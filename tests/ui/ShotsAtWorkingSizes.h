@@ -33,6 +33,7 @@ inline bool saveAtWorkingSizes(QWidget &window, const QString &folder,
     if (folder.isEmpty())
         return true;
     bool saved = true;
+    const QSize before = window.size(); // given back, so the test goes on at the size it had
     for (const QSize size : {QSize(1366, 768), QSize(1600, 1000)}) {
         window.resize(size);
         window.show();
@@ -45,6 +46,8 @@ inline bool saveAtWorkingSizes(QWidget &window, const QString &folder,
         for (const auto &[widget, name] : shots)
             saved = widget->grab().save(QDir(folder).filePath(name + suffix)) && saved;
     }
+    window.resize(before);
+    QTest::qWait(50);
     return saved;
 }
 

@@ -108,6 +108,9 @@ TEST(StudentBenchWindow, SupervisorConfirmsWithTheirNameAndPinBeforeAnythingIsWr
 TEST(StudentBenchWindow, AFullSessionThroughTheLockedBenchWithChartAndFit)
 {
     StudentBench bench;
+    bench.window.resize(1366, 768);
+    bench.window.show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(&bench.window));
     ASSERT_EQ(bench.window.chooseSheet(1), QString());
     bench.tickAll();
     ASSERT_EQ(bench.window.start({"B. Student", "DEMO-0101", "C. Supervisor", "2468"}), QString());
@@ -143,7 +146,17 @@ TEST(StudentBenchWindow, AFullSessionThroughTheLockedBenchWithChartAndFit)
     EXPECT_EQ(bench.window.readingsModel()->rowCount(), 5);
     EXPECT_NEAR(-bench.window.workspace()->liveFit().result().slope, 1.155, 0.01);
     EXPECT_TRUE(bench.window.nextUnitButton()->isEnabled());
+    // The strip says "Close, or go on with the next unit": both buttons are in view at 1366 x 768,
+    // not scrolled away below the checklist.
+    QTest::qWait(50);
+    ASSERT_EQ(bench.window.size(), QSize(1366, 768));
+    EXPECT_FALSE(bench.window.nextUnitButton()->visibleRegion().isEmpty());
+    EXPECT_FALSE(bench.window.closeButton()->visibleRegion().isEmpty());
     const QString path = bench.window.workspace()->sessionPath();
+    // At the end, for people to look at: the whole line, the verdict, Close and Next unit.
+    EXPECT_TRUE(saveAtWorkingSizes(bench.window, shotsFolder(QStringLiteral("supervised")),
+                                   {{&bench.window, QStringLiteral("student-window-session-complete")}},
+                                   [&] { bench.window.flushCharts(); }));
 
     // What the lab lead sees.
     const SessionRow row = loadSessionRow(path.toStdString(), {});
