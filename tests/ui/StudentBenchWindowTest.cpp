@@ -141,7 +141,7 @@ TEST(StudentBenchWindow, AFullSessionThroughTheLockedBenchWithChartAndFit)
                                            [&] { bench.window.flushCharts(); }));
         }
     }
-    QTRY_VERIFY_WITH_TIMEOUT(!bench.window.workspace()->isRunning(), 30000);
+    ASSERT_TRUE(waitUntil([&] { return !bench.window.workspace()->isRunning(); }, 30000)) << "the sweep did not end";
     bench.window.flushCharts();
     EXPECT_EQ(bench.window.readingsModel()->rowCount(), 5);
     EXPECT_NEAR(-bench.window.workspace()->liveFit().result().slope, 1.155, 0.01);
@@ -201,7 +201,7 @@ TEST(StudentBenchWindow, ClosingMidSessionRecordsAStopNotAnInterruption)
     bench.window.show();
     ASSERT_TRUE(QTest::qWaitForWindowExposed(&bench.window));
     bench.window.closeButton()->click();
-    QTRY_VERIFY_WITH_TIMEOUT(!bench.window.workspace()->isRunning(), 30000);
+    ASSERT_TRUE(waitUntil([&] { return !bench.window.workspace()->isRunning(); }, 30000)) << "the sweep did not end";
     const SessionRow row = loadSessionRow(path.toStdString(), {});
     ASSERT_TRUE(row.opened) << row.problem;
     EXPECT_EQ(row.readingCount, 2u);
