@@ -1,5 +1,6 @@
 #include "SessionComparison.h"
 
+#include "NaturalOrder.h"
 #include "SessionSummary.h"
 
 #include "AnalysisSettingsRecord.h"
@@ -411,6 +412,10 @@ BatchStatistics summarizeBatch(const std::vector<const SessionRow *> &rows)
         }
         group->rows.push_back(i);
     }
+    // Designs in the order of the numbers in their names (20 VA before 100 VA), whatever order
+    // the files were met in; a design's rows keep their given order.
+    std::stable_sort(stats.designs.begin(), stats.designs.end(),
+                     [](const DesignStatistics &a, const DesignStatistics &b) { return naturalLess(a.design, b.design); });
     for (DesignStatistics &group : stats.designs) {
         describeGroup(rows, stats.atReferenceTemperature, group, stats.robustZ, stats.farFromBatch);
         stats.resistanceCount += group.resistanceCount;

@@ -1,52 +1,7 @@
 #include "ReviewFilterModel.h"
 
+#include "NaturalOrder.h"
 #include "ReviewTableModel.h"
-
-#include <QStringView>
-
-namespace {
-
-// Runs of digits compare by value (whole numbers), the rest as the locale orders text: "20 VA ..."
-// before "60 VA ..." before "100 VA ..." (QCollator's numeric mode does nothing in the C locale).
-bool naturalLess(const QString &a, const QString &b)
-{
-    qsizetype i = 0, j = 0;
-    while (i < a.size() && j < b.size()) {
-        if (a[i].isDigit() && b[j].isDigit()) {
-            qsizetype ei = i, ej = j;
-            while (ei < a.size() && a[ei].isDigit())
-                ++ei;
-            while (ej < b.size() && b[ej].isDigit())
-                ++ej;
-            while (i + 1 < ei && a[i] == QLatin1Char('0')) // leading zeros say nothing of the value
-                ++i;
-            while (j + 1 < ej && b[j] == QLatin1Char('0'))
-                ++j;
-            const QStringView x = QStringView(a).mid(i, ei - i);
-            const QStringView y = QStringView(b).mid(j, ej - j);
-            if (x.size() != y.size())
-                return x.size() < y.size();
-            if (x != y)
-                return x < y;
-            i = ei;
-            j = ej;
-            continue;
-        }
-        qsizetype ei = i, ej = j;
-        while (ei < a.size() && !a[ei].isDigit())
-            ++ei;
-        while (ej < b.size() && !b[ej].isDigit())
-            ++ej;
-        const int order = QString::localeAwareCompare(a.mid(i, ei - i), b.mid(j, ej - j));
-        if (order != 0)
-            return order < 0;
-        i = ei;
-        j = ej;
-    }
-    return a.size() - i < b.size() - j;
-}
-
-} // namespace
 
 namespace sagline {
 
@@ -112,7 +67,8 @@ bool ReviewFilterModel::lessThan(const QModelIndex &left, const QModelIndex &rig
         return a.toDouble() < b.toDouble();
     if (a.typeId() == QMetaType::Int || a.typeId() == QMetaType::ULongLong)
         return a.toLongLong() < b.toLongLong();
-    return naturalLess(a.toString(), b.toString());
+    // Numbers in text by value ("20 VA ..." before "100 VA ..."), as compare orders designs.
+    return naturalLess(a.toString().toStdString(), b.toString().toStdString());
 }
 
 } // namespace sagline

@@ -239,7 +239,8 @@ TEST(SessionComparison, FarFromBatchNeedsTenUnitsOfOneDesign)
     EXPECT_TRUE(stats.screeningOnly);
     ASSERT_EQ(stats.designs.size(), 2u);
     EXPECT_NE(stats.ruleNote.find("within each of 2 designs"), std::string::npos) << stats.ruleNote;
-    EXPECT_NE(stats.designs[0].ruleNote.find("screening only"), std::string::npos) << stats.designs[0].ruleNote;
+    ASSERT_TRUE(stats.designOfRow(0));
+    EXPECT_NE(stats.designOfRow(0)->ruleNote.find("screening only"), std::string::npos) << stats.designOfRow(0)->ruleNote;
     EXPECT_FALSE(stats.robustZ[3].has_value()) << "one unit alone has no batch to be far from";
 }
 
@@ -281,6 +282,26 @@ TEST(SessionComparison, ThreeDesignsNeverFlagAcrossDesigns)
     for (auto &row : rows)
         row.design = "one design";
     EXPECT_FALSE(summarizeBatch(rows).farFromBatch.empty());
+}
+
+TEST(SessionComparison, DesignsInTheOrderOfTheNumbersInTheirNames)
+{
+    // Files met as u100..., u20..., u60...: the designs still read 20, 60, 100 VA (the window's
+    // table sorts them so too).
+    std::vector<SessionRow> rows;
+    for (int i = 0; i < 4; ++i)
+        rows.push_back(fittedRow(1.0 + 0.01 * i));
+    rows[0].design = "100 VA 230/24 V";
+    rows[1].design = "20 VA 230/12 V";
+    rows[2].design = "60 VA 230/18 V";
+    rows[3].design = "100 VA 230/24 V";
+    const BatchStatistics stats = summarizeBatch(rows);
+    ASSERT_EQ(stats.designs.size(), 3u);
+    EXPECT_EQ(stats.designs[0].design, "20 VA 230/12 V");
+    EXPECT_EQ(stats.designs[1].design, "60 VA 230/18 V");
+    EXPECT_EQ(stats.designs[2].design, "100 VA 230/24 V");
+    EXPECT_EQ(stats.designs[2].rows, (std::vector<std::size_t>{0, 3}));
+    EXPECT_EQ(stats.designOfRow(3), &stats.designs[2]);
 }
 
 TEST(SessionComparison, FarWithinItsOwnDesignIsStillFlagged)
