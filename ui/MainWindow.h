@@ -92,6 +92,9 @@ public:
     QString sourceStatusText() const; // the status bar's source and meter status
     QMenu *recentMenu() const { return m_recentMenu; }
     QMenu *sweepMenu() const { return m_sweepMenu; }
+    // Exclude, restore, note and retake: enabled only while the open session can change (not
+    // signed off, not open read-only).
+    const QList<QAction *> &changeActions() const { return m_changeActions; }
     // Asks where to save (a save dialog): "" when cancelled. Replaceable for tests.
     using SavePathPrompt = std::function<QString(const QString &title, const QString &suggested, const QString &filter)>;
     void setSavePathPrompt(SavePathPrompt prompt) { m_savePathPrompt = std::move(prompt); }
@@ -203,6 +206,7 @@ private:
     QLabel *m_statusPoints;
     QMenu *m_recentMenu;
     QMenu *m_sweepMenu = nullptr;
+    QList<QAction *> m_changeActions;
     SavePathPrompt m_savePathPrompt;
     MeterCheck *m_meterCheck = nullptr; // the last Connect and test (child of the window)
     QStringList m_recentFiles;

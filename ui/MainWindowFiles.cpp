@@ -81,6 +81,9 @@ void MainWindow::createActions()
     auto *retake = readings->addAction(tr("Re&take the selected point's step…"), QKeySequence(Qt::CTRL | Qt::Key_R), this,
                                        &MainWindow::retakeSelected);
     m_readingsView->addActions({exclude, restore, note, retake});
+    m_changeActions = {exclude, restore, note, retake}; // disabled while the session cannot change (showSessionState)
+    for (QAction *action : m_changeActions)
+        action->setEnabled(false); // no session yet
 
     QMenu *view = menuBar()->addMenu(tr("&View"));
     view->addAction(tr("&Setup"), QKeySequence(Qt::ALT | Qt::Key_1), this, [this] { m_leftTabs->setCurrentIndex(0); });

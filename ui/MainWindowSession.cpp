@@ -18,6 +18,7 @@
 #include "SweepWorkspace.h"
 #include "VoltageCurrentChart.h"
 
+#include <QAction>
 #include <QComboBox>
 #include <QFileDialog>
 #include <QFileInfo>
@@ -192,6 +193,15 @@ void MainWindow::showReadingMarks(int first, int end)
 void MainWindow::showSessionState()
 {
     SweepWorkspace *workspace = m_workspace;
+    const bool changeable = workspace->isChangeable();
+    const QString why = !workspace->store()             ? tr("No session is open.")
+                        : workspace->store()->isSealed() ? tr("The session is signed off: reopen it, with a reason, to change it.")
+                                                         : tr("The session is open read-only.");
+    for (QAction *action : m_changeActions) {
+        action->setEnabled(changeable);
+        action->setStatusTip(changeable ? QString() : why);
+    }
+    m_setupForm->setRecordLocked(workspace->store() && !changeable);
     if (!workspace->store()) {
         m_band->setState(SessionBand::Kind::Hidden, {}, false);
         m_statusPoints->clear();

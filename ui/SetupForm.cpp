@@ -361,4 +361,16 @@ void SetupForm::setLocked(bool locked)
     m_specificationSource->setReadOnly(locked);
 }
 
+void SetupForm::setRecordLocked(bool locked)
+{
+    for (auto *field : std::as_const(m_fields)) {
+        if (field->field().startsWith(QLatin1String("session.")) || field->field().startsWith(QLatin1String("verdict.")))
+            field->setReadOnly(locked);
+    }
+    m_operator->setReadOnly(locked);
+    m_serial->setReadOnly(locked);
+    m_decisionRule->setEnabled(!locked);
+    m_temperatureConstant->setEnabled(!locked);
+}
+
 } // namespace sagline

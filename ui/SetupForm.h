@@ -68,6 +68,9 @@ public:
     void showErrors(const FieldErrors &errors);
     QStringList shownErrors() const; // "field: rule" for every error on display
     void setLocked(bool locked);     // read-only once readings exist
+    // The session's details and the verdict settings too: a signed-off or read-only session
+    // shows what its file says and takes no edits.
+    void setRecordLocked(bool locked);
     QuantityField *quantityField(const QString &field) const;
     // The field's label as the form shows it ("Rated power" for "nameplate.rated_power_va");
     // "" for a field the form does not have.

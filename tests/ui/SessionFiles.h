@@ -61,6 +61,7 @@ inline SessionFile writeSession(const QString &folder, SessionKind kind)
         file.serial = "C-100";
         file.ambientC = 21.0;
         file.windingC = 23.5;
+        file.setup.bench.fuse = FuseSpec{1.0, FuseType::TimeLag}; // well above the 0.43 A rated primary current
         break;
     case SessionKind::Crashed:
         file.setup = sessionSetup(60.0, 230.0, 18.0, 19.6, 8, 50.0);
@@ -86,6 +87,7 @@ inline SessionFile writeSession(const QString &folder, SessionKind kind)
         file.serial = "SG-80";
         file.ambientC = 22.0;
         file.windingC = 22.5;
+        file.setup.bench.fuse = FuseSpec{0.8, FuseType::QuickActing}; // above the 0.35 A rated primary current
         file.signedOff = true;
         break;
     }

@@ -2,9 +2,10 @@
 // their own file alone (item 1), a signed session is read-only until reopened with a reason
 // (item 3), a typed value far from the expectation asks first and a step can be retaken
 // (item 5), the verdict is provisional until every step (item 6), and an interrupted session
-// resumes at its next step (item 7). With SAGLINE_UI_SHOTS_DIR set, the key moments are saved
-// as PNG at 1366×768 and 1600×1000.
+// resumes at its next step (item 7). With SAGLINE_SHOTS_DIR set, the key moments are saved as
+// PNG in SAGLINE_SHOTS_DIR/integrity/ at 1366×768 and 1600×1000.
 #include "SessionFiles.h"
+#include "ShotsAtWorkingSizes.h"
 #include "UiTestSupport.h"
 
 #include "CautionStrip.h"
@@ -23,6 +24,7 @@
 
 #include <gtest/gtest.h>
 
+#include <QAction>
 #include <QApplication>
 #include <QComboBox>
 #include <QDir>
@@ -37,27 +39,34 @@ using namespace sagline::test;
 
 namespace {
 
-// Saves the window (and a dialog drawn over its middle, if given) when SAGLINE_UI_SHOTS_DIR is set.
+// With SAGLINE_SHOTS_DIR set, saves the window (and a dialog drawn over it, if given) into
+// SAGLINE_SHOTS_DIR/integrity/ at the two working sizes; with a dialog the picture is composed,
+// as a modal box cannot be grabbed with the window on the offscreen platform.
 void shoot(MainWindow &window, const QString &name, QWidget *dialog = nullptr)
 {
-    const QString folder = qEnvironmentVariable("SAGLINE_UI_SHOTS_DIR");
+    const QString folder = shotsFolder(QStringLiteral("integrity"));
     if (folder.isEmpty())
         return;
-    QDir().mkpath(folder);
+    if (!dialog) {
+        EXPECT_TRUE(saveAtWorkingSizes(window, folder, {{&window, name}}, [&] {
+            window.flushCharts();
+            for (int pass = 0; pass < 5; ++pass) // word-wrapped labels settle over a few layout passes
+                QTest::qWait(20);
+        }));
+        return;
+    }
     const QSize original = window.size();
     for (const QSize size : {QSize(1366, 768), QSize(1600, 1000)}) {
         window.resize(size);
         window.flushCharts();
-        // Word-wrapped labels settle over a few layout passes after a resize (height for width).
         for (int pass = 0; pass < 5; ++pass)
             QTest::qWait(20);
         QPixmap picture = window.grab();
-        if (dialog) {
-            const QPixmap box = dialog->grab();
-            QPainter painter(&picture);
-            painter.drawPixmap((picture.width() - box.width()) / 2, (picture.height() - box.height()) / 3, box);
-        }
-        picture.save(QDir(folder).filePath(QStringLiteral("%1-%2x%3.png").arg(name).arg(size.width()).arg(size.height())));
+        const QPixmap box = dialog->grab();
+        QPainter painter(&picture);
+        painter.drawPixmap((picture.width() - box.width()) / 2, (picture.height() - box.height()) / 3, box);
+        painter.end();
+        EXPECT_TRUE(picture.save(QDir(folder).filePath(QStringLiteral("%1-%2x%3.png").arg(name).arg(size.width()).arg(size.height()))));
     }
     window.resize(original);
 }
@@ -66,6 +75,25 @@ double fieldValue(MainWindow &window, const char *field, Unit unit)
 {
     const auto parsed = parseQuantity(window.setupForm()->quantityField(QLatin1String(field))->text().toStdString(), unit);
     return parsed.ok ? parsed.value : std::numeric_limits<double>::quiet_NaN();
+}
+
+// The fuse the form shows: "none", or its rating in A and its type ("time-lag", "quick-acting").
+std::string fuseShown(MainWindow &window)
+{
+    const QuantityField *rating = window.setupForm()->quantityField(QStringLiteral("bench.fuse.rating_a"));
+    if (rating->isBlank())
+        return "none";
+    QString type;
+    for (const QComboBox *combo : window.setupForm()->findChildren<QComboBox *>())
+        if (combo->accessibleName() == QLatin1String("bench.fuse.type"))
+            type = combo->currentData().toString();
+    return QString::number(fieldValue(window, "bench.fuse.rating_a", Unit::Ampere)).toStdString() + " A " + type.toStdString();
+}
+
+std::string fuseOf(const Setup &setup)
+{
+    return setup.bench.fuse ? QString::number(setup.bench.fuse->ratingA).toStdString() + " A " + toString(setup.bench.fuse->type)
+                            : "none";
 }
 
 // Every field and label the window shows for a session, checked against what its file holds.
@@ -79,6 +107,8 @@ void expectShowsOnly(MainWindow &window, const SessionFile &file, QStringList *c
     EXPECT_DOUBLE_EQ(fieldValue(window, "nameplate.secondary_voltage_v", Unit::Volt), plate.secondaryVoltageV);
     EXPECT_DOUBLE_EQ(fieldValue(window, "nameplate.secondary_no_load_voltage_v", Unit::Volt), *plate.secondaryNoLoadVoltageV);
     EXPECT_DOUBLE_EQ(fieldValue(window, "bench.steps", Unit::None), file.setup.bench.steps);
+    EXPECT_DOUBLE_EQ(fieldValue(window, "bench.overload_factor", Unit::None), file.setup.bench.overloadFactor);
+    EXPECT_EQ(fuseShown(window), fuseOf(file.setup));
     const SessionDetails details = window.setupForm()->sessionDetails();
     EXPECT_EQ(details.operatorName.toStdString(), file.operatorName);
     EXPECT_EQ(details.unitSerial.toStdString(), file.serial);
@@ -88,6 +118,8 @@ void expectShowsOnly(MainWindow &window, const SessionFile &file, QStringList *c
     EXPECT_EQ(static_cast<int>(window.workspace()->plan()->steps.size()), file.planned);
     EXPECT_EQ(window.planPanel()->table()->model()->rowCount(), file.planned);
     EXPECT_FALSE(window.planPanel()->acceptButton()->isEnabled());
+    for (const QAction *action : window.changeActions()) // exclude, restore, note, retake
+        EXPECT_EQ(action->isEnabled(), !file.signedOff) << action->text().toStdString();
     EXPECT_EQ(window.readingsModel()->rowCount(), file.readings);
     int excludedRows = 0;
     for (int row = 0; row < window.readingsModel()->rowCount(); ++row)
@@ -126,8 +158,8 @@ void expectShowsOnly(MainWindow &window, const SessionFile &file, QStringList *c
     }
     if (checked)
         *checked = {"rated power", "primary voltage", "frequency", "secondary full-load voltage", "secondary no-load voltage",
-                    "steps", "operator", "unit serial", "ambient temperature", "winding temperature", "plan steps",
-                    "plan table rows", "Accept disabled", "readings table rows", "excluded rows", "status bar points",
+                    "steps", "hard-stop factor", "primary fuse and its type", "operator", "unit serial", "ambient temperature", "winding temperature", "plan steps",
+                    "plan table rows", "Accept disabled", "exclude/restore/note/retake enabled only when not signed", "readings table rows", "excluded rows", "status bar points",
                     "safety-stop alarm", "instrument source", "instrument status", "status bar source (no stale link)",
                     "window title", "verdict", "session band", "next-step header", "Resume / Reopen offered"};
 }
@@ -159,19 +191,39 @@ TEST(SessionIntegrityWindow, SessionsOpenedInTurnShowTheirOwnFileAlone)
     for (const SessionFile &file : files) {
         ASSERT_TRUE(window->openSessionFile(file.path)) << window->lastMessage().toStdString();
         expectShowsOnly(*window, file, &checked);
-        shoot(*window, QStringLiteral("opened-in-turn-%1").arg(++opened));
+        static const char *const kinds[] = {"complete", "crashed", "safety-stopped", "signed"};
+        shoot(*window, QStringLiteral("opened-%1-%2").arg(opened + 1).arg(QLatin1String(kinds[opened])));
+        ++opened;
     }
     // And back to the first, after the others.
     ASSERT_TRUE(window->openSessionFile(files[0].path));
     expectShowsOnly(*window, files[0], nullptr);
-    shoot(*window, QStringLiteral("opened-complete"));
 
     // New starts from the program's defaults, never from the last session.
     QTest::keyClick(window.get(), Qt::Key_N, Qt::ControlModifier);
     EXPECT_FALSE(window->workspace()->store());
-    EXPECT_DOUBLE_EQ(fieldValue(*window, "nameplate.rated_power_va", Unit::VoltAmpere), 60.0); // the demo setup
-    EXPECT_TRUE(window->setupForm()->sessionDetails().operatorName.isEmpty());
-    EXPECT_TRUE(window->setupForm()->sessionDetails().unitSerial.isEmpty());
+    // The demo setup (resources/demo-setup.json) is this window's default.
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "nameplate.rated_power_va", Unit::VoltAmpere), 60.0);
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "nameplate.primary_voltage_v", Unit::Volt), 230.0);
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "nameplate.frequency_hz", Unit::Hertz), 50.0);
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "nameplate.secondary_voltage_v", Unit::Volt), 18.0);
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "nameplate.secondary_no_load_voltage_v", Unit::Volt), 19.6);
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "bench.steps", Unit::None), 8.0);
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "bench.overload_factor", Unit::None), 1.1);
+    EXPECT_EQ(fuseShown(*window), "0.5 A time-lag");
+    const SessionDetails fresh = window->setupForm()->sessionDetails();
+    EXPECT_TRUE(fresh.operatorName.isEmpty());
+    EXPECT_TRUE(fresh.unitSerial.isEmpty());
+    EXPECT_TRUE(fresh.ambientTemperature.isEmpty());
+    EXPECT_TRUE(fresh.windingTemperature.isEmpty());
+    ASSERT_TRUE(window->workspace()->plan());
+    EXPECT_DOUBLE_EQ(window->workspace()->plan()->overloadLimitVa, 60.0 * 1.1); // planned for the demo unit
+    EXPECT_EQ(window->planPanel()->table()->model()->rowCount(), static_cast<int>(window->workspace()->plan()->steps.size()));
+    EXPECT_FALSE(window->windowTitle().contains(".sagline")) << window->windowTitle().toStdString();
+    EXPECT_FALSE(window->sourceStatusText().contains("link")) << window->sourceStatusText().toStdString();
+    EXPECT_TRUE(window->nextStep()->instructionText().contains("Complete the setup")) << window->nextStep()->instructionText().toStdString();
+    for (const QAction *action : window->changeActions())
+        EXPECT_FALSE(action->isEnabled()) << action->text().toStdString();
     EXPECT_EQ(window->readingsModel()->rowCount(), 0);
     EXPECT_TRUE(window->pointsStatusText().isEmpty());
     EXPECT_FALSE(window->caution()->isAlarmShown());
@@ -191,24 +243,41 @@ TEST(SessionIntegrityWindow, SignedSessionIsReadOnlyUntilReopenedWithAReason)
     ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
     ASSERT_TRUE(window->openSessionFile(file.path));
     ASSERT_EQ(window->sessionBand()->kind(), SessionBand::Kind::Signed);
-    shoot(*window, QStringLiteral("signed-session"));
 
-    // Excluding the full-load point is refused while it is signed off; nothing changes.
+    // Every editing action is disabled, saying why; the keyboard shortcut for excluding the
+    // full-load point does nothing, and nothing is asked or changed.
+    ASSERT_EQ(window->changeActions().size(), 4);
+    for (const QAction *action : window->changeActions()) {
+        EXPECT_FALSE(action->isEnabled()) << action->text().toStdString();
+        EXPECT_TRUE(action->statusTip().contains("signed off")) << action->statusTip().toStdString();
+    }
+    EXPECT_FALSE(window->planPanel()->acceptButton()->isEnabled());
+    // The session's details and the verdict settings show the file and take no edits.
+    for (const char *field : {"session.ambient_temperature_c", "session.winding_temperature_c", "verdict.regulation_limit_percent",
+                              "nameplate.rated_power_va"})
+        EXPECT_TRUE(window->setupForm()->quantityField(QLatin1String(field))->lineEdit()->isReadOnly()) << field;
+    EXPECT_FALSE(window->sessionBand()->resumeButton()->isVisibleTo(window.get()));
     const int last = window->readingsModel()->rowCount() - 1;
     const QString before = window->results()->value("regulation");
     QStringList asked;
     answerPrompts(*window, {QStringLiteral("clip fell off")}, false, &asked);
     window->readingsView()->selectRow(last);
     QTest::keyClick(window->readingsView(), Qt::Key_Delete, Qt::ControlModifier);
-    EXPECT_TRUE(window->lastMessage().contains("signed off; reopen it")) << window->lastMessage().toStdString();
+    QTest::keyClick(window->readingsView(), Qt::Key_R, Qt::ControlModifier);
+    EXPECT_TRUE(asked.isEmpty()) << asked.join('|').toStdString();
     EXPECT_FALSE(window->workspace()->readings()[static_cast<std::size_t>(last)].excluded);
+    EXPECT_FALSE(window->workspace()->isRunning());
     EXPECT_EQ(window->results()->value("regulation"), before);
-    EXPECT_TRUE(asked.front().startsWith("Who is making changes")) << asked.join('|').toStdString();
 
     // Reopen: asks why, records who and why, and the sign-off is superseded.
-    answerPrompts(*window, {QStringLiteral("full-load point misread"), QStringLiteral("clip fell off")});
+    answerPrompts(*window, {QStringLiteral("full-load point misread"), QStringLiteral("clip fell off")}, false, &asked);
     QTest::mouseClick(window->sessionBand()->reopenButton(), Qt::LeftButton);
     ASSERT_EQ(window->sessionBand()->kind(), SessionBand::Kind::ChangedAfterSignOff) << window->lastMessage().toStdString();
+    ASSERT_FALSE(asked.isEmpty());
+    EXPECT_TRUE(asked.front().startsWith("Who is making changes")) << asked.join('|').toStdString(); // not the operator
+    for (const QAction *action : window->changeActions())
+        EXPECT_TRUE(action->isEnabled()) << action->text().toStdString();
+    EXPECT_FALSE(window->setupForm()->quantityField(QStringLiteral("verdict.regulation_limit_percent"))->lineEdit()->isReadOnly());
     const QString band = window->sessionBand()->text();
     EXPECT_TRUE(band.contains("Changed after sign-off")) << band.toStdString();
     EXPECT_TRUE(band.contains("reopened by " + testPerson)) << band.toStdString();
@@ -400,6 +469,7 @@ TEST(SessionIntegrityWindow, InterruptedSessionResumesAtItsNextStepWithTheLoadCh
     EXPECT_EQ(window->sessionBand()->kind(), SessionBand::Kind::Hidden); // running again
     const QString provisional = window->results()->verdictText();
     EXPECT_TRUE(provisional.contains("Provisional (4 of 9 steps)")) << provisional.toStdString();
+    shoot(*window, QStringLiteral("resumed-session"));
 
     const auto steps = workspace->plan()->steps;
     for (std::size_t k = 4; k < steps.size(); ++k) {
