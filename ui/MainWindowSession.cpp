@@ -284,6 +284,7 @@ void MainWindow::resumeSession()
     if (m_workspace->isTypedIn())
         m_nextStep->clearEntry();
     showSessionState();
+    showMessage(tr("Sweep resumed: check the load before the next reading.")); // the last message may be the stop
 }
 
 void MainWindow::retakeSelected()
@@ -312,6 +313,9 @@ void MainWindow::retakeSelected()
     if (m_workspace->isTypedIn())
         m_nextStep->clearEntry();
     showSessionState();
+    showMessage(tr("Retaking step %1: the new reading supersedes reading %2.")
+                    .arg(m_workspace->readings()[static_cast<std::size_t>(row)].step)
+                    .arg(row + 1));
 }
 
 void MainWindow::useSafeSteps()

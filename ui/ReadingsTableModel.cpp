@@ -153,7 +153,8 @@ QVariant ReadingsTableModel::data(const QModelIndex &index, int role) const
                                        : QStringLiteral("—");
     }
     case Flags: {
-        const QString flags = QString::fromStdString(flagsToString(r.flags));
+        // Words for people: the file's "manual|confirmed" reads "manual, confirmed" here.
+        const QString flags = QString::fromStdString(flagsToString(r.flags)).replace(QLatin1Char('|'), QStringLiteral(", "));
         if (!isOutlier(index.row()))
             return flags;
         return flags.isEmpty() ? tr("▲ outlier") : tr("▲ outlier, %1").arg(flags);

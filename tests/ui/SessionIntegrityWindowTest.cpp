@@ -368,12 +368,16 @@ TEST(SessionIntegrityWindow, TypedValueFarFromTheStepAsksFirstAndAStepCanBeRetak
     QTest::keyClick(window->readingsView(), Qt::Key_R, Qt::ControlModifier);
     EXPECT_TRUE(strip->instructionText().contains("Step 2")) << strip->instructionText().toStdString();
     EXPECT_TRUE(strip->instructionText().contains("retake")) << strip->instructionText().toStdString();
+    EXPECT_EQ(window->lastMessage(), QStringLiteral("Retaking step 2: the new reading supersedes reading 3."));
     type("0.833 A", "19.24 V");
     ASSERT_EQ(workspace->readings().size(), 4u);
     EXPECT_TRUE(workspace->readings()[2].superseded);
     EXPECT_TRUE(window->readingsModel()->data(window->readingsModel()->index(2, ReadingsTableModel::Excluded))
                     .toString()
                     .contains("superseded: decimal point slipped when typing"));
+    // The remarks in words, not the file's flag list ("manual|confirmed").
+    const QString remarks = window->readingsModel()->data(window->readingsModel()->index(2, ReadingsTableModel::Remarks)).toString();
+    EXPECT_TRUE(remarks.startsWith("manual, confirmed · superseded")) << remarks.toStdString();
     EXPECT_TRUE(strip->instructionText().contains("Step 3")) << strip->instructionText().toStdString();
     // The superseded 194 V point sets neither chart's scale.
     window->flushCharts();
@@ -467,6 +471,7 @@ TEST(SessionIntegrityWindow, InterruptedSessionResumesAtItsNextStepWithTheLoadCh
     EXPECT_TRUE(instruction.contains("Step 4")) << instruction.toStdString();
     EXPECT_TRUE(instruction.contains("resumed: check the load is still at about")) << instruction.toStdString();
     EXPECT_EQ(window->sessionBand()->kind(), SessionBand::Kind::Hidden); // running again
+    EXPECT_TRUE(window->lastMessage().startsWith("Sweep resumed")) << window->lastMessage().toStdString();
     const QString provisional = window->results()->verdictText();
     EXPECT_TRUE(provisional.contains("Provisional (4 of 9 steps)")) << provisional.toStdString();
     shoot(*window, QStringLiteral("resumed-session"));
