@@ -45,10 +45,11 @@ double distribution(double x, double value, double u, double dof)
     return studentTCdf(z, dof);
 }
 
-// "the limit 12 %" or "the limits 17.5 V to 18.5 V" or "the lower limit 17.5 V".
+// "the upper limit 12.00 %" or "the limits 17.50 V to 18.50 V" or "the upper limit 600.0 mΩ": the
+// same SI prefix style as the measured value beside it ("423.6 mΩ ± 5.4 mΩ").
 std::string limitText(const ToleranceRange &limits, const std::string &unit)
 {
-    const auto q = [&](double v) { return formatSignificant(v, 4) + (unit.empty() ? "" : " " + unit); };
+    const auto q = [&](double v) { return formatQuantity(v, unit, 4); };
     if (limits.min && limits.max)
         return "the limits " + q(*limits.min) + " to " + q(*limits.max);
     if (limits.max)
@@ -181,7 +182,7 @@ ConformityDecision decideConformity(const std::string &quantity, const std::stri
     }
     d.ok = true;
     const double low = lowerOf(limits), high = upperOf(limits);
-    const std::string value = formatSignificant(result.value, 4) + (unit.empty() ? "" : " " + unit);
+    const std::string value = formatQuantity(result.value, unit, 4);
     const std::string against = limitText(limits, unit);
     if (result.standardUncertainty)
         d.conformanceProbability = conformanceProbability(result, limits);

@@ -275,7 +275,7 @@ StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const Re
     return summary;
 }
 
-std::string describeSettingsUsed(const SessionSummary &summary)
+std::string describeSettingsUsed(const SettingsUsed &used)
 {
     const auto from = [](SettingSource source) { return " (" + toString(source) + ")"; };
     const auto number = [](double value) {
@@ -283,20 +283,30 @@ std::string describeSettingsUsed(const SessionSummary &summary)
         std::snprintf(text, sizeof text, "%.4g", value);
         return std::string(text);
     };
-    const ReviewOptions &o = summary.options;
-    std::string line = "decision rule " + toString(summary.rule) + from(summary.ruleSource);
-    line += "; regulation limit "
-            + (!o.regulationLimit ? std::string("from the specification")
-               : o.regulationLimit->kind == RegulationLimitChoice::Kind::Nameplate
-                   ? std::string("the nameplate's regulation")
-                   : number(o.regulationLimit->percent) + " %")
-            + from(summary.regulationLimitSource);
-    line += "; reference temperature " + number(o.referenceTemperatureC.value_or(defaultReferenceTemperatureC)) + " °C"
-            + from(summary.referenceTemperatureSource);
+    const auto limit = [&]() -> std::string {
+        if (!used.regulationLimit || used.regulationLimit->kind == RegulationLimitChoice::Kind::Specification)
+            return "from the specification";
+        if (used.regulationLimit->kind == RegulationLimitChoice::Kind::Nameplate)
+            return "the nameplate's regulation";
+        return number(used.regulationLimit->percent) + " %";
+    };
+    std::string line = "decision rule " + toString(used.rule) + from(used.ruleSource);
+    line += "; regulation limit " + limit() + from(used.regulationLimitSource);
+    line += "; reference temperature " + number(used.referenceTemperatureC.value_or(defaultReferenceTemperatureC))
+            + " °C" + from(used.referenceTemperatureSource);
     line += "; temperature constant "
-            + (o.temperatureConstant ? toString(*o.temperatureConstant) : std::string("per winding material"))
-            + from(summary.temperatureConstantSource);
+            + (used.temperatureConstant ? toString(*used.temperatureConstant) : std::string("per winding material"))
+            + from(used.temperatureConstantSource);
     return line;
+}
+
+std::string describeSettingsUsed(const SessionSummary &summary)
+{
+    const ReviewOptions &o = summary.options;
+    return describeSettingsUsed(SettingsUsed{summary.rule, summary.ruleSource, o.regulationLimit,
+                                             summary.regulationLimitSource, o.referenceTemperatureC,
+                                             summary.referenceTemperatureSource, o.temperatureConstant,
+                                             summary.temperatureConstantSource});
 }
 
 StoreResult<SessionSummary> loadSessionSummary(const std::string &path, const ReviewOptions &options)

@@ -131,6 +131,20 @@ struct SessionSummary {
 // One line for reports: each judging choice used and where it came from, e.g. "decision rule
 // simple (session record); regulation limit 5 % (session record); reference temperature 75 °C
 // (default); temperature constant per winding material (default)".
+// The verdict settings a result was judged with and where each came from, in one line
+// ("decision rule non-binary (default); regulation limit from the specification (default); ..."):
+// the same words for `fit SESSION`, `fit X.csv --setup`, `run` and the report.
+struct SettingsUsed {
+    DecisionRule rule = DecisionRule::NonBinary;
+    SettingSource ruleSource = SettingSource::Default;
+    std::optional<RegulationLimitChoice> regulationLimit; // absent: the setup's specification
+    SettingSource regulationLimitSource = SettingSource::Default;
+    std::optional<double> referenceTemperatureC;          // absent: defaultReferenceTemperatureC
+    SettingSource referenceTemperatureSource = SettingSource::Default;
+    std::optional<TemperatureConstant> temperatureConstant; // absent: per winding material
+    SettingSource temperatureConstantSource = SettingSource::Default;
+};
+std::string describeSettingsUsed(const SettingsUsed &used);
 std::string describeSettingsUsed(const SessionSummary &summary);
 
 StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const ReviewOptions &options = {});

@@ -28,20 +28,23 @@ void drawUncertaintyBudget(ReportCanvas &canvas, const SessionSummary &summary)
                          .arg(q(summary.analysis->uncertaintyBasis)),
                      8.0);
     const auto right = Qt::AlignRight;
+    const QList<ReportTableColumn> columns{{QStringLiteral("Source"), 0.40},
+                                           {QStringLiteral("Type"), 0.05},
+                                           {QStringLiteral("Distribution"), 0.11},
+                                           {QStringLiteral("u(xᵢ)"), 0.11, right},
+                                           {QStringLiteral("cᵢ"), 0.13, right},
+                                           {QStringLiteral("Contribution"), 0.12, right},
+                                           {QStringLiteral("ν"), 0.08, right}};
     for (const BudgetTable &table : tables) {
-        canvas.paragraph(q(table.title) + QStringLiteral(": ") + q(table.summary), 8.5, true);
+        const QString title = q(table.title) + QStringLiteral(": ") + q(table.summary);
         QList<QStringList> rows;
         for (const BudgetTableRow &row : table.rows)
             rows.append({q(row.source), q(row.type), q(row.distribution), q(row.standardUncertainty), q(row.sensitivity),
                          q(row.contribution), q(row.degreesOfFreedom)});
-        canvas.table({{QStringLiteral("Source"), 0.40},
-                      {QStringLiteral("Type"), 0.05},
-                      {QStringLiteral("Distribution"), 0.11},
-                      {QStringLiteral("u(xᵢ)"), 0.11, right},
-                      {QStringLiteral("cᵢ"), 0.13, right},
-                      {QStringLiteral("Contribution"), 0.12, right},
-                      {QStringLiteral("ν"), 0.08, right}},
-                     rows);
+        // A result's budget is read as one piece: its title and table start a new page rather than split.
+        canvas.ensureSpace(canvas.paragraphHeightPt(title, 8.5, true) + canvas.tableHeightPt(columns, rows));
+        canvas.paragraph(title, 8.5, true);
+        canvas.table(columns, rows);
     }
 }
 

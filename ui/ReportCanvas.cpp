@@ -141,6 +141,29 @@ void ReportCanvas::keyValues(const QList<QPair<QString, QString>> &rows, int col
     }
 }
 
+double ReportCanvas::paragraphHeightPt(const QString &text, double sizePt, bool bold) const
+{
+    return textHeightPt(text, font(sizePt, bold), contentWidthPt()) + 2.0; // as paragraph() takes it
+}
+
+double ReportCanvas::tableHeightPt(const QList<ReportTableColumn> &columns, const QList<QStringList> &rows,
+                                   double sizePt) const
+{
+    const auto rowHeight = [&](const QStringList &cells, const QFont &f) {
+        double height = 0.0;
+        for (int c = 0; c < columns.size() && c < cells.size(); ++c)
+            height = std::max(height, textHeightPt(cells[c], f, columns[c].widthFraction * contentWidthPt() - 2 * cellPaddingPt));
+        return height + 2 * cellPaddingPt;
+    };
+    QStringList headers;
+    for (const auto &column : columns)
+        headers.append(column.header);
+    double total = rowHeight(headers, font(sizePt, true));
+    for (const QStringList &row : rows)
+        total += rowHeight(row, font(sizePt));
+    return total;
+}
+
 void ReportCanvas::table(const QList<ReportTableColumn> &columns, const QList<QStringList> &rows, double sizePt)
 {
     const QFont headerFont = font(sizePt, true);

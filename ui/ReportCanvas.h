@@ -46,6 +46,10 @@ public:
     void paragraph(const QString &text, double sizePt = 9.0, bool bold = false, bool italic = false);
     // Rows of "name  value" in `columns` side-by-side pairs.
     void keyValues(const QList<QPair<QString, QString>> &rows, int columns = 2);
+    // Heights the blocks above would take, so a caller can keep a title and its table on one page.
+    double paragraphHeightPt(const QString &text, double sizePt = 9.0, bool bold = false) const;
+    double tableHeightPt(const QList<ReportTableColumn> &columns, const QList<QStringList> &rows,
+                         double sizePt = 7.5) const;
     // A ruled table; the header row repeats after a page break. Cells wrap within their column.
     void table(const QList<ReportTableColumn> &columns, const QList<QStringList> &rows, double sizePt = 7.5);
     // A framed box with a heavy border, for the verdict.

@@ -269,6 +269,9 @@ int fitCsvWithSetup(const FitArguments &args, FitReport &report)
     report.ruleSource = sourceOf(args.rule.has_value());
     report.regulationLimitSource = sourceOf(args.regulationLimit.has_value());
     report.temperatureConstantSource = sourceOf(args.temperatureConstant.has_value());
+    report.settingsUsed = describeSettingsUsed(SettingsUsed{
+        options.rule, report.ruleSource, args.regulationLimit, report.regulationLimitSource, args.referenceTemperatureC,
+        sourceOf(args.referenceTemperatureC.has_value()), args.temperatureConstant, report.temperatureConstantSource});
     Assessment assessment = assessFit(report.fit, *setup, options);
     if (!assessment.analysis.ok()) {
         for (const FieldError &e : assessment.analysis.errors)

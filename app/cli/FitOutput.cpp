@@ -172,8 +172,11 @@ void printPrimarySide(const FitReport &report, const std::function<void(const st
 
 void printVerdict(const SpecificationVerdict &v, const std::function<void(const std::string &, const std::string &)> &row)
 {
-    row("Verdict", outcomeWords(v.outcome) + (v.atReferenceTemperature ? " (judged at the reference temperature)"
-                                                                        : " (judged as measured)"));
+    // With no limit nothing was judged, at any temperature (the window and the report say the same).
+    const std::string where = v.limits.empty()           ? ""
+                              : v.atReferenceTemperature ? " (judged at the reference temperature)"
+                                                         : " (judged as measured)";
+    row("Verdict", outcomeWords(v.outcome) + where);
     row("", v.explanation);
     for (const ConformityDecision &d : v.limits) {
         std::string line = d.ok ? outcomeWords(d.outcome) + ": " + d.explanation : d.error;
@@ -373,9 +376,6 @@ void printFitReport(const FitReport &report, std::ostream &out)
     }
     if (!report.settingsUsed.empty())
         row("Judged with", report.settingsUsed);
-    else if (report.hasNameplate)
-        row("Settings from", "rule: " + toString(report.ruleSource) + "; limit: " + toString(report.regulationLimitSource)
-                                 + "; temperature constant: " + toString(report.temperatureConstantSource));
     if (report.printBudget) {
         out << "\nUncertainty budgets (GUM, JCGM 100:2008): independent inputs, contributions |cᵢ|·u(xᵢ) add in "
                "quadrature;\nν_eff by Welch-Satterthwaite (G.4); U = half-width of the 95 % interval of the components' "

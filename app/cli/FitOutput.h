@@ -34,7 +34,7 @@ struct FitReport {
     SettingSource ruleSource = SettingSource::Default;
     SettingSource regulationLimitSource = SettingSource::Default;
     SettingSource temperatureConstantSource = SettingSource::Default;
-    std::string settingsUsed;                // a session's describeSettingsUsed line
+    std::string settingsUsed;                // describeSettingsUsed: the verdict settings and their sources
     std::optional<SupplyAssessment> supply;  // with a nameplate: the supply and what the fit was made on
     std::optional<PrimarySideResult> primarySide; // with primary readings and a nameplate
 };

@@ -130,8 +130,10 @@ int runReport(const Arguments &args)
     for (const std::string &notice : summary.value.recordedSettings.notices)
         std::cerr << "sagline-cli report: note: " << notice << '\n';
     std::cout << "Judged with: " << describeSettingsUsed(summary.value) << '\n';
+    // In the words the window and the PDF use; a session that is not complete gets no verdict word.
     if (const auto &v = summary.value.verdict)
-        std::cout << "Verdict: " << toString(v->outcome) << " (" << v->ruleName << "; limits: " << v->limitsSource
+        std::cout << "Verdict: "
+                  << (summary.value.progress.isComplete() ? outcomeWords(v->outcome) : summary.value.progress.label()) << " (" << v->ruleName << "; limits: " << v->limitsSource
                   << ")\n";
     std::cout << "Wrote " << outputPath << '\n';
     return exitSuccess;

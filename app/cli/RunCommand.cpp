@@ -497,6 +497,10 @@ int runRun(const Arguments &rawArgs)
             AssessmentOptions assessmentOptions;
             assessmentOptions.referralGainUPercent = report.supply->referralGainUPercent;
             const Assessment assessment = assessFit(report.fit, recordedSetup, assessmentOptions);
+            // `run` judges with the defaults only; `fit SESSION` says the same of the new file.
+            SettingsUsed used;
+            used.rule = assessmentOptions.rule;
+            report.settingsUsed = describeSettingsUsed(used);
             if (assessment.analysis.ok()) {
                 report.analysis = assessment.analysis;
                 report.verdict = assessment.verdict;

@@ -73,7 +73,7 @@ TEST_F(AnalysisSettingsCommands, FitAndReportJudgeByTheRecordedSimpleRule)
 
     const auto report = runProgram(cli, {"report", session, "-o", path("r.pdf")});
     ASSERT_EQ(report.exitCode, 0) << report.err;
-    EXPECT_NE(report.out.find("Verdict: pass"), std::string::npos) << report.out;
+    EXPECT_NE(report.out.find("Verdict: PASS ("), std::string::npos) << report.out;
     EXPECT_NE(report.out.find("decision rule simple (session record)"), std::string::npos) << report.out;
     EXPECT_NE(report.out.find("(session record); reference temperature 75 °C (default)"), std::string::npos)
         << report.out;
@@ -104,7 +104,7 @@ TEST_F(AnalysisSettingsCommands, OptionsOverrideTheRecord)
 
     const auto report = runProgram(cli, {"report", session, "-o", path("g.pdf"), "--rule", "non-binary"});
     ASSERT_EQ(report.exitCode, 0) << report.err;
-    EXPECT_NE(report.out.find("Verdict: conditional-pass"), std::string::npos) << report.out;
+    EXPECT_NE(report.out.find("Verdict: CONDITIONAL PASS ("), std::string::npos) << report.out;
     EXPECT_NE(report.out.find("decision rule non-binary (option)"), std::string::npos) << report.out;
 }
 

@@ -293,3 +293,32 @@ TEST(FitCommand, RunNamesThePrimaryAnalysersGainsOnlyWhenOneTookPart)
     }
     std::filesystem::remove(session);
 }
+
+TEST(FitCommand, LimitsReadInTheValuesUnitsAndNotJudgedSaysNoTemperature)
+{
+    // The demo specification's 0.6 Ω resistance limit prints in the prefix of the value beside it.
+    const auto judged = runProgram(cli, {"fit", demoReadings, "--setup", demoSetup});
+    ASSERT_EQ(judged.exitCode, 0) << judged.err;
+    EXPECT_NE(judged.out.find("within the upper limit 600.0 mΩ"), std::string::npos) << judged.out;
+    EXPECT_EQ(judged.out.find("0.6000 Ω"), std::string::npos) << judged.out;
+    EXPECT_NE(judged.out.find("(judged as measured)"), std::string::npos) << judged.out;
+
+    // A setup with no specification: NOT JUDGED, and nothing about where it was judged.
+    std::ifstream in(demoSetup);
+    auto setup = nlohmann::json::parse(in);
+    setup.erase("specification");
+    const auto bare = writeTemp("no-specification.json", setup.dump());
+    const auto notJudged = runProgram(cli, {"fit", demoReadings, "--setup", bare});
+    ASSERT_EQ(notJudged.exitCode, 0) << notJudged.err;
+    EXPECT_NE(notJudged.out.find("NOT JUDGED"), std::string::npos) << notJudged.out;
+    EXPECT_EQ(notJudged.out.find("NOT JUDGED ("), std::string::npos) << notJudged.out;
+    EXPECT_EQ(notJudged.out.find("judged as measured"), std::string::npos) << notJudged.out;
+
+    // Limits outside (0, 100] % are refused naming the option and the rule.
+    for (const char *limit : {"-3", "0", "nan", "150", "abc"}) {
+        const auto r = runProgram(cli, {"fit", demoReadings, "--setup", demoSetup, "--regulation-limit", limit});
+        EXPECT_EQ(r.exitCode, 2) << limit;
+        EXPECT_NE(r.err.find("--regulation-limit"), std::string::npos) << r.err;
+        EXPECT_NE(r.err.find("above 0 and at most 100"), std::string::npos) << r.err;
+    }
+}

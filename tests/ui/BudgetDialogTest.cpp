@@ -1,11 +1,12 @@
 // The results panel after a virtual-bench sweep of the demo setup: the results carry
 // "U (k = …, 95 %)", the verdict is judged against the demo specification, and "Uncertainty
 // budget…" opens every result's budget with the meters' gain and offset as rows (the virtual
-// bench's own meters, recorded in the session's setup). Set SAGLINE_SCREENSHOT_DIR to keep PNGs
-// of the window at 1366×768 and of the budget dialog.
+// bench's own meters, recorded in the session's setup). Set SAGLINE_SHOTS_DIR to keep PNGs in its
+// metrology/ folder: the window and the budget dialog over it at 1366×768 and 1600×1000.
 #include "BudgetDialog.h"
 #include "DemoSweep.h"
 #include "ResultsPanel.h"
+#include "ShotsAtWorkingSizes.h"
 #include "UiTestSupport.h"
 
 #include <QPainter>
@@ -24,7 +25,7 @@ namespace {
 
 void keepScreenshot(QWidget *widget, const QString &name)
 {
-    const QString folder = qEnvironmentVariable("SAGLINE_SCREENSHOT_DIR");
+    const QString folder = shotsFolder(QStringLiteral("metrology"));
     if (folder.isEmpty())
         return;
     widget->grab().save(folder + QLatin1Char('/') + name);
@@ -35,7 +36,7 @@ void keepScreenshot(QWidget *widget, const QString &name)
 // screen to photograph, so the two grabs are composed where the window manager would put them).
 void keepScreenshotWithDialog(QWidget *window, QWidget *dialog, const QString &name)
 {
-    const QString folder = qEnvironmentVariable("SAGLINE_SCREENSHOT_DIR");
+    const QString folder = shotsFolder(QStringLiteral("metrology"));
     if (folder.isEmpty())
         return;
     QPixmap picture = window->grab();

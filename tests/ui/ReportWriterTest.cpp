@@ -2,6 +2,7 @@
 // it, pages numbered "X of Y", and not a single coloured pixel (it must print in black and
 // white). The pages are rendered with pdftoppm / read with pdftotext (Debian's poppler-utils).
 // SAGLINE_REPORT_DEMO_DIR, when set, keeps the demo session, PDF and PNG pages there.
+#include "BudgetTable.h"
 #include "ReportWriter.h"
 #include "SessionStore.h"
 #include "SessionSummary.h"
@@ -11,6 +12,7 @@
 #include <QImage>
 #include <QProcess>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdlib>
 #include <filesystem>
@@ -209,4 +211,30 @@ TEST_F(ReportWriter, UnwritableFolderIsAClearError)
     ASSERT_TRUE(summary.ok());
     const QString problem = writeSessionReport(summary.value, QStringLiteral("/nonexistent-folder/report.pdf"), {});
     EXPECT_TRUE(problem.contains(QStringLiteral("cannot write"))) << problem.toStdString();
+}
+
+TEST_F(ReportWriter, EachBudgetTableStaysOnOnePage)
+{
+    // The table's header row repeats after a page break, so a split table shows its header twice:
+    // "Contribution" (a budget-only column heading) is printed once per result and no more.
+    const auto summary = loadSessionSummary(makeDemoSession(m_folder));
+    ASSERT_TRUE(summary.ok()) << summary.message;
+    ASSERT_TRUE(summary.value.analysis.has_value());
+    const auto tables = budgetTables(*summary.value.analysis);
+    ASSERT_GE(tables.size(), 4u);
+    for (const auto page : {QPageSize::A4, QPageSize::Letter}) {
+        const QString pdf = QString::fromStdString((m_folder / ("budget-" + std::to_string(page) + ".pdf")).string());
+        ReportOptions options;
+        options.pageSize = page;
+        ASSERT_EQ(writeSessionReport(summary.value, pdf, options), QString());
+        const QString text = pdfText(pdf);
+        EXPECT_EQ(text.count(QStringLiteral("Contribution")), static_cast<int>(tables.size())) << page;
+        // Each result's title is on the page its table starts on: the title's page holds the header after it.
+        for (const QString &pageText : text.split(QLatin1Char('\f'))) {
+            const int titles = static_cast<int>(std::count_if(tables.begin(), tables.end(), [&](const BudgetTable &t) {
+                return pageText.contains(QString::fromStdString(t.title) + QStringLiteral(":"));
+            }));
+            EXPECT_EQ(pageText.count(QStringLiteral("Contribution")), titles) << page;
+        }
+    }
 }
