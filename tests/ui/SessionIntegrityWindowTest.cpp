@@ -338,6 +338,7 @@ TEST(SessionIntegrityWindow, TypedValueFarFromTheStepAsksFirstAndAStepCanBeRetak
     window->planPanel()->acceptButton()->click();
     SweepWorkspace *workspace = window->workspace();
     ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
+    EXPECT_TRUE(window->lastMessage().startsWith("Sweep started: recording into T-417")) << window->lastMessage().toStdString();
     NextStepStrip *strip = window->nextStep();
     const auto type = [&](const QString &current, const QString &voltage) {
         typeInto(strip->currentField(), current);
