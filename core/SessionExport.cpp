@@ -123,6 +123,24 @@ constexpr const char *primaryHeader = ",primary_voltage_v,u_primary_voltage_v,pr
                                       "primary_power_w,u_primary_power_w,primary_power_factor,u_primary_power_factor,"
                                       "primary_reactive_power_var,u_primary_reactive_power_var";
 
+// A session that is not complete gets no pass anywhere: each "outcome" (the verdict's and each
+// limit's) reads "provisional" or "incomplete", and what the partial data gave is kept beside it
+// as "outcome_on_partial_data" for a reader who wants it.
+void withheldOutcomes(json &verdict, const SessionProgress &progress)
+{
+    const std::string word = progress.state == Completeness::InProgress ? "provisional" : "incomplete";
+    const auto withhold = [&word](json &object) {
+        if (object.is_object() && object.contains("outcome")) {
+            object["outcome_on_partial_data"] = object["outcome"];
+            object["outcome"] = word;
+        }
+    };
+    withhold(verdict);
+    if (verdict.contains("limits") && verdict["limits"].is_array())
+        for (json &limit : verdict["limits"])
+            withhold(limit);
+}
+
 bool anyPrimary(const std::vector<Reading> &readings)
 {
     return std::any_of(readings.begin(), readings.end(), [](const Reading &r) { return r.primary.hasAny(); });
@@ -254,8 +272,8 @@ std::string fitResultsToCsv(const SessionSummary &summary)
                     row("loss_remainder_reading_" + id, exact(s.remainderW->value), exact(s.remainderW->standardUncertainty), "W");
             }
         }
-        if (summary.verdict)
-            row("verdict_" + toString(summary.verdict->rule), toString(summary.verdict->outcome), "", "");
+        if (summary.verdict) // the outcome only for a complete session, else "incomplete (k of N steps; ...)"
+            row("verdict_" + toString(summary.verdict->rule), csvField(summary.verdictText()), "", "");
         for (const PointFit &point : fit.points) {
             if (point.row >= summary.readings.size())
                 continue;
@@ -310,8 +328,11 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
     out["analysis"] = analysisToJson(summary);
     out["primary_side"] = json(primarySideJson(summary.primarySide, summary.supply));
     out["verdict"] = verdictToJson(summary);
-    if (out["verdict"].is_object())
+    if (out["verdict"].is_object()) {
         out["verdict"]["as_shown"] = summary.verdictText(); // "provisional (k of N steps)" until complete
+        if (!summary.progress.isComplete())
+            withheldOutcomes(out["verdict"], summary.progress);
+    }
     out["seal"] = {{"state", toString(summary.seal.state)}, {"summary", summary.seal.summary()}};
     out["exclusions"] = json::array();
     for (const auto &e : summary.exclusions)

@@ -24,6 +24,7 @@
 #include "WheelGuard.h"
 
 #include <QAction>
+#include <QFileInfo>
 #include <QApplication>
 #include <QComboBox>
 #include <QFileDialog>
@@ -290,6 +291,7 @@ void MainWindow::handleAccept()
     }
     if (!ensurePerson())
         return;
+    const QString before = m_lastMessage;
     const QString error = m_workspace->startSweep(m_setupForm->sessionDetails(), m_sessionFolder, m_instruments->choice());
     if (!error.isEmpty()) {
         showMessage(error, true);
@@ -306,6 +308,8 @@ void MainWindow::handleAccept()
     m_caution->clearAlarm();
     if (m_workspace->isTypedIn())
         m_nextStep->clearEntry();
+    if (m_lastMessage == before) // "Plan ready" no longer says where things are; a notice from the start stays
+        showMessage(tr("Sweep started: recording into %1").arg(QFileInfo(m_workspace->sessionPath()).fileName()));
 }
 
 void MainWindow::storeAnalysisSettings()

@@ -196,6 +196,16 @@ TEST_F(SessionIntegrityCommand, AnOverrideIsRecordedWithThePersonAndTheReason)
     // Stopped before its last step: incomplete everywhere, and no verdict.
     EXPECT_EQ(json["progress"]["state"], "stopped");
     EXPECT_EQ(json["verdict"]["as_shown"].get<std::string>().rfind("incomplete (", 0), 0u) << json["verdict"].dump();
+    // No pass in the exports either: the outcomes read "incomplete", the partial data's beside them.
+    EXPECT_EQ(json["verdict"]["outcome"], "incomplete");
+    EXPECT_TRUE(json["verdict"].contains("outcome_on_partial_data"));
+    for (const auto &limit : json["verdict"]["limits"])
+        EXPECT_EQ(limit["outcome"], "incomplete") << limit.dump();
+    ASSERT_EQ(runProgram(cli, {"export", path("over.sagline"), "--fit-csv", path("fit.csv")}).exitCode, 0);
+    std::ifstream fitCsv(path("fit.csv"));
+    const std::string fitText((std::istreambuf_iterator<char>(fitCsv)), std::istreambuf_iterator<char>());
+    EXPECT_NE(fitText.find("verdict_non-binary,incomplete (3 of 9 steps; safety stop"), std::string::npos) << fitText;
+    EXPECT_EQ(fitText.find(",pass"), std::string::npos) << fitText;
     const auto compared = nlohmann::json::parse(runProgram(cli, {"compare", path("over.sagline"), "--json"}).out);
     EXPECT_EQ(compared["sessions"][0]["verdict"].get<std::string>().rfind("incomplete (", 0), 0u) << compared.dump();
     EXPECT_EQ(compared["batch"]["verdicts"]["incomplete"], 1);

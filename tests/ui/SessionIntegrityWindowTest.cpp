@@ -18,6 +18,7 @@
 #include "SessionBand.h"
 #include "SessionSeal.h"
 #include "SessionStore.h"
+#include "SetupJson.h"
 #include "SweepRun.h"
 #include "SweepWorkspace.h"
 #include "VoltageCurrentChart.h"
@@ -28,6 +29,7 @@
 #include <QApplication>
 #include <QComboBox>
 #include <QDir>
+#include <QFile>
 #include <QFileInfo>
 #include <QMessageBox>
 #include <QPainter>
@@ -231,6 +233,30 @@ TEST(SessionIntegrityWindow, SessionsOpenedInTurnShowTheirOwnFileAlone)
     EXPECT_TRUE(window->planPanel()->acceptButton()->isEnabled());
     EXPECT_TRUE(window->results()->verdictText().isEmpty());
     shoot(*window, QStringLiteral("after-new"));
+
+    // Or from a chosen setup file: opened over a signed session, it starts a new session from
+    // that file alone, nothing of the session shown before.
+    ASSERT_TRUE(window->openSessionFile(files[3].path));
+    const QString setupPath = QDir(folder.path()).filePath(QStringLiteral("complete-unit-setup.json"));
+    {
+        QFile setupFile(setupPath);
+        ASSERT_TRUE(setupFile.open(QIODevice::WriteOnly));
+        setupFile.write(QByteArray::fromStdString(setupToJson(files[0].setup)));
+    }
+    ASSERT_EQ(window->openSetupFile(setupPath), QString());
+    EXPECT_FALSE(window->workspace()->store());
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "nameplate.rated_power_va", Unit::VoltAmpere), files[0].setup.nameplate.ratedPowerVa);
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "nameplate.secondary_voltage_v", Unit::Volt), files[0].setup.nameplate.secondaryVoltageV);
+    EXPECT_DOUBLE_EQ(fieldValue(*window, "bench.steps", Unit::None), files[0].setup.bench.steps);
+    EXPECT_EQ(fuseShown(*window), fuseOf(files[0].setup));
+    EXPECT_TRUE(window->setupForm()->sessionDetails().operatorName.isEmpty());
+    EXPECT_TRUE(window->setupForm()->sessionDetails().unitSerial.isEmpty());
+    EXPECT_TRUE(window->setupForm()->sessionDetails().ambientTemperature.isEmpty());
+    EXPECT_EQ(window->readingsModel()->rowCount(), 0);
+    EXPECT_EQ(window->sessionBand()->kind(), SessionBand::Kind::Hidden);
+    EXPECT_TRUE(window->pointsStatusText().isEmpty());
+    EXPECT_FALSE(window->setupForm()->quantityField(QStringLiteral("session.ambient_temperature_c"))->lineEdit()->isReadOnly());
+    EXPECT_TRUE(window->planPanel()->acceptButton()->isEnabled());
     std::cout << "[ fields ] checked for each session: " << checked.join(", ").toStdString() << '\n';
 }
 
@@ -312,6 +338,7 @@ TEST(SessionIntegrityWindow, TypedValueFarFromTheStepAsksFirstAndAStepCanBeRetak
     window->planPanel()->acceptButton()->click();
     SweepWorkspace *workspace = window->workspace();
     ASSERT_TRUE(workspace->isRunning()) << window->lastMessage().toStdString();
+    EXPECT_TRUE(window->lastMessage().startsWith("Sweep started: recording into T-417")) << window->lastMessage().toStdString();
     NextStepStrip *strip = window->nextStep();
     const auto type = [&](const QString &current, const QString &voltage) {
         typeInto(strip->currentField(), current);
