@@ -202,6 +202,7 @@ void MainWindow::showSessionState()
         action->setStatusTip(changeable ? QString() : why);
     }
     m_setupForm->setRecordLocked(workspace->store() && !changeable);
+    m_setupForm->setDetailsLocked(workspace->store() != nullptr);
     if (!workspace->store()) {
         m_band->setState(SessionBand::Kind::Hidden, {}, false);
         m_statusPoints->clear();

@@ -71,6 +71,10 @@ public:
     // The session's details and the verdict settings too: a signed-off or read-only session
     // shows what its file says and takes no edits.
     void setRecordLocked(bool locked);
+    // Operator, serial and temperatures are written into the session when it is created; once a
+    // session is open they show the file's values and are read-only, so no result on screen uses
+    // a value the file does not hold. Call after setRecordLocked.
+    void setDetailsLocked(bool locked);
     QuantityField *quantityField(const QString &field) const;
     // The field's label as the form shows it ("Rated power" for "nameplate.rated_power_va");
     // "" for a field the form does not have.

@@ -304,6 +304,10 @@ TEST(SessionIntegrityWindow, SignedSessionIsReadOnlyUntilReopenedWithAReason)
     for (const QAction *action : window->changeActions())
         EXPECT_TRUE(action->isEnabled()) << action->text().toStdString();
     EXPECT_FALSE(window->setupForm()->quantityField(QStringLiteral("verdict.regulation_limit_percent"))->lineEdit()->isReadOnly());
+    // The session's details stay the file's: an edit here would change the results on screen
+    // (the winding temperature refers R) without being recorded.
+    for (const char *field : {"session.ambient_temperature_c", "session.winding_temperature_c"})
+        EXPECT_TRUE(window->setupForm()->quantityField(QLatin1String(field))->lineEdit()->isReadOnly()) << field;
     const QString band = window->sessionBand()->text();
     EXPECT_TRUE(band.contains("Changed after sign-off")) << band.toStdString();
     EXPECT_TRUE(band.contains("reopened by " + testPerson)) << band.toStdString();
