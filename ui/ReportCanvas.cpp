@@ -146,21 +146,28 @@ double ReportCanvas::paragraphHeightPt(const QString &text, double sizePt, bool 
     return textHeightPt(text, font(sizePt, bold), contentWidthPt()) + 2.0; // as paragraph() takes it
 }
 
-double ReportCanvas::tableHeightPt(const QList<ReportTableColumn> &columns, const QList<QStringList> &rows,
-                                   double sizePt) const
+double ReportCanvas::rowHeightPt(const QList<ReportTableColumn> &columns, const QStringList &cells, const QFont &f) const
 {
-    const auto rowHeight = [&](const QStringList &cells, const QFont &f) {
-        double height = 0.0;
-        for (int c = 0; c < columns.size() && c < cells.size(); ++c)
-            height = std::max(height, textHeightPt(cells[c], f, columns[c].widthFraction * contentWidthPt() - 2 * cellPaddingPt));
-        return height + 2 * cellPaddingPt;
-    };
+    double height = 0.0;
+    for (int c = 0; c < columns.size() && c < cells.size(); ++c)
+        height = std::max(height, textHeightPt(cells[c], f, columns[c].widthFraction * contentWidthPt() - 2 * cellPaddingPt));
+    return height + 2 * cellPaddingPt;
+}
+
+QStringList ReportCanvas::headersOf(const QList<ReportTableColumn> &columns)
+{
     QStringList headers;
     for (const auto &column : columns)
         headers.append(column.header);
-    double total = rowHeight(headers, font(sizePt, true));
+    return headers;
+}
+
+double ReportCanvas::tableHeightPt(const QList<ReportTableColumn> &columns, const QList<QStringList> &rows,
+                                   double sizePt) const
+{
+    double total = rowHeightPt(columns, headersOf(columns), font(sizePt, true));
     for (const QStringList &row : rows)
-        total += rowHeight(row, font(sizePt));
+        total += rowHeightPt(columns, row, font(sizePt));
     return total;
 }
 
@@ -172,12 +179,7 @@ void ReportCanvas::table(const QList<ReportTableColumn> &columns, const QList<QS
     for (const auto &column : columns)
         widths.append(column.widthFraction * contentWidthPt());
 
-    auto rowHeight = [&](const QStringList &cells, const QFont &f) {
-        double height = 0.0;
-        for (int c = 0; c < columns.size() && c < cells.size(); ++c)
-            height = std::max(height, textHeightPt(cells[c], f, widths[c] - 2 * cellPaddingPt));
-        return height + 2 * cellPaddingPt;
-    };
+    auto rowHeight = [&](const QStringList &cells, const QFont &f) { return rowHeightPt(columns, cells, f); };
     auto drawRow = [&](const QStringList &cells, const QFont &f, bool isHeader) {
         const QRectF block = takeBlock(rowHeight(cells, f));
         m_painter.setFont(f);
@@ -194,9 +196,7 @@ void ReportCanvas::table(const QList<ReportTableColumn> &columns, const QList<QS
         m_painter.setPen(QPen(Qt::black, toDevice(0.5)));
     };
 
-    QStringList headers;
-    for (const auto &column : columns)
-        headers.append(column.header);
+    const QStringList headers = headersOf(columns);
     const double headerHeight = rowHeight(headers, headerFont);
     ensureSpace(headerHeight + (rows.isEmpty() ? 0.0 : rowHeight(rows.first(), cellFont)));
     drawRow(headers, headerFont, true);

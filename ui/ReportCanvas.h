@@ -65,6 +65,8 @@ public:
 private:
     QFont font(double sizePt, bool bold = false, bool italic = false) const;
     double textHeightPt(const QString &text, const QFont &font, double widthPt) const;
+    double rowHeightPt(const QList<ReportTableColumn> &columns, const QStringList &cells, const QFont &font) const;
+    static QStringList headersOf(const QList<ReportTableColumn> &columns);
     void drawFooter();
 
     QPagedPaintDevice &m_device;

@@ -377,21 +377,19 @@ void SetupForm::setDetailsLocked(bool locked)
 {
     // Unlocking is setRecordLocked's (it also knows a signed session); here only the reason goes.
     const QString why = tr("Recorded in the session file when the session started; read-only while it is open.");
-    QList<QWidget *> details{m_operator, m_serial};
-    for (auto *field : std::as_const(m_fields))
-        if (field->field().startsWith(QLatin1String("session.")))
-            details.append(field);
-    for (QWidget *widget : std::as_const(details)) {
+    const auto lock = [&](auto *widget) {
         if (locked) {
-            if (auto *line = qobject_cast<QLineEdit *>(widget))
-                line->setReadOnly(true);
-            else if (auto *quantity = qobject_cast<QuantityField *>(widget))
-                quantity->setReadOnly(true);
+            widget->setReadOnly(true);
             widget->setToolTip(why);
         } else if (widget->toolTip() == why) {
             widget->setToolTip(QString());
         }
-    }
+    };
+    lock(m_operator);
+    lock(m_serial);
+    for (auto *field : std::as_const(m_fields))
+        if (field->field().startsWith(QLatin1String("session.")))
+            lock(field);
 }
 
 } // namespace sagline

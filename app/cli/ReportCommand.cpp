@@ -133,7 +133,7 @@ int runReport(const Arguments &args)
     // In the words the window and the PDF use; a session that is not complete gets no verdict word.
     if (const auto &v = summary.value.verdict)
         std::cout << "Verdict: "
-                  << (summary.value.progress.isComplete() ? outcomeWords(v->outcome) : summary.value.progress.label()) << " (" << v->ruleName << "; limits: " << v->limitsSource
+                  << summary.value.progress.verdictText(outcomeWords(v->outcome)) << " (" << v->ruleName << "; limits: " << v->limitsSource
                   << ")\n";
     std::cout << "Wrote " << outputPath << '\n';
     return exitSuccess;
