@@ -192,7 +192,7 @@ std::string sessionReadingsToCsv(const SessionSummary &summary)
         const ExclusionRecord *exclusion = summary.latestExclusion(reading.id);
         const bool excludedByRecord = exclusion && exclusion->excluded;
         const SupersessionRecord *retake = reading.superseded ? summary.supersessionOf(reading.id) : nullptr;
-        const Actor actor = i < summary.readingActors.size() ? summary.readingActors[i] : Actor{};
+        const Actor actor = summary.recorders.of(i);
         out += exact(reading.currentA) + ',' + exact(reading.voltageV) + ',' + exact(reading.uCurrentA) + ',' +
                exact(reading.uVoltageV) + ',' + (reading.step >= 0 ? std::to_string(reading.step) : std::string()) + ',' +
                csvField(reading.timeUtc) + ',' + csvField(flagsToString(reading.flags)) + ',' +

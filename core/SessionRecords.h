@@ -7,6 +7,7 @@
 #include <functional>
 #include <optional>
 #include <string>
+#include <vector>
 
 namespace sagline {
 
@@ -17,6 +18,19 @@ struct Actor {
     std::string person;
     std::string osAccount;
     bool operator==(const Actor &) const = default;
+};
+
+// Who recorded each reading, kept compact: a session of 1e5 readings has one or a few recorders,
+// so each reading holds an index into `distinct` (in order of first appearance), not two strings.
+struct ReadingRecorders {
+    std::vector<Actor> distinct;
+    std::vector<std::uint32_t> byReading; // parallel to the readings, oldest first
+
+    // The recorder of reading `index`; an empty Actor past the end.
+    Actor of(std::size_t index) const
+    {
+        return index < byReading.size() ? distinct[byReading[index]] : Actor{};
+    }
 };
 
 // Given once, when the session file is created.

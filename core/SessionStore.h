@@ -127,7 +127,7 @@ public:
     StoreResult<std::vector<SafetyStopRecord>> safetyStops() const;
     StoreResult<std::vector<SignOffRecord>> signOffs() const;
     // Who recorded each reading, in the order of readings() (for reports and exports).
-    StoreResult<std::vector<Actor>> readingActors() const;
+    StoreResult<ReadingRecorders> readingRecorders() const;
     StoreResult<std::vector<SupersessionRecord>> supersessions() const;
     StoreResult<std::vector<SweepEventRecord>> sweepEvents() const;
     StoreResult<std::vector<ReopenRecord>> reopens() const;

@@ -241,7 +241,7 @@ StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const Re
         take(store.notes(), summary.notes),
         take(store.safetyStops(), summary.safetyStops),
         take(store.signOffs(), summary.signOffs),
-        take(store.readingActors(), summary.readingActors),
+        take(store.readingRecorders(), summary.recorders),
         take(store.supersessions(), summary.supersessions),
         take(store.sweepEvents(), summary.sweepEvents),
         take(store.reopens(), summary.reopens),

@@ -87,7 +87,7 @@ struct SessionSummary {
     std::vector<NoteRecord> notes;
     std::vector<SafetyStopRecord> safetyStops;
     std::vector<SignOffRecord> signOffs;
-    std::vector<Actor> readingActors;        // who recorded each reading, parallel to readings
+    ReadingRecorders recorders;              // who recorded each reading
     std::vector<SupersessionRecord> supersessions; // retakes
     std::vector<SweepEventRecord> sweepEvents;
     std::vector<ReopenRecord> reopens;

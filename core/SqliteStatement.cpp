@@ -156,6 +156,14 @@ std::string SqliteStatement::columnText(int column) const
     return std::string(reinterpret_cast<const char *>(text), static_cast<std::size_t>(bytes));
 }
 
+std::string_view SqliteStatement::columnTextView(int column) const
+{
+    const unsigned char *text = sqlite3_column_text(m_stmt, column);
+    if (text == nullptr)
+        return {};
+    return {reinterpret_cast<const char *>(text), static_cast<std::size_t>(sqlite3_column_bytes(m_stmt, column))};
+}
+
 std::optional<double> SqliteStatement::columnOptionalDouble(int column) const
 {
     if (isNull(column))

@@ -49,6 +49,7 @@ public:
     double columnDouble(int column) const;
     std::int64_t columnInt64(int column) const;
     std::string columnText(int column) const;               // "" for NULL
+    std::string_view columnTextView(int column) const;      // as columnText, valid until the next step()
     std::optional<double> columnOptionalDouble(int column) const; // nullopt for NULL
 
 private:

@@ -29,7 +29,7 @@ void drawTitleBlock(ReportCanvas &canvas, const SessionSummary &summary, const R
                           QStringLiteral("The readings come from the virtual bench (a simulated transformer and meters), not "
                                          "from a measurement. Every page says so."));
     QStringList recorders;
-    for (const Actor &actor : summary.readingActors) {
+    for (const Actor &actor : summary.recorders.distinct) {
         const QString who = whoDid(actor.person, actor.osAccount);
         if (!recorders.contains(who))
             recorders.append(who);

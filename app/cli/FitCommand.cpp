@@ -157,10 +157,10 @@ int fitSession(const FitArguments &args, FitReport &report)
         std::cerr << "sagline-cli fit: " << args.dataPath << ": " << loaded.message << '\n';
         return loaded.code == StoreCode::IoError ? exitRuntimeFailure : exitInvalidInput;
     }
-    const SessionSummary &summary = loaded.value;
+    SessionSummary &summary = loaded.value;
     for (const std::string &notice : summary.recordedSettings.notices)
         report.warnings.push_back(notice);
-    report.fit = summary.fit;
+    report.fit = std::move(summary.fit); // the per-point results are the bulk: moved, not copied
     if (!report.fit.ok())
         return invalid(args.dataPath + ": cannot fit (" + toString(report.fit.status) + "): " + report.fit.message);
     report.meters = summary.setup ? summary.setup->meters : std::nullopt;

@@ -3,6 +3,7 @@
 
 #include "BuildInfo.h"
 #include "DataDirectory.h"
+#include "LargePageHeap.h"
 #include "PrintableOutput.h"
 
 #include <csignal>
@@ -56,6 +57,7 @@ void printUsage(std::ostream &out)
 
 int main(int argc, char **argv)
 {
+    sagline::adviseLargePagesForHeap();
     // A file size limit (ulimit -f) would kill the program mid-write with SIGXFSZ, leaving a
     // temporary file behind and saying nothing; ignored, the write fails with EFBIG and is
     // reported like a full disk, with the temporary file removed.

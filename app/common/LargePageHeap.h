@@ -1,0 +1,13 @@
+// Large pages for the heap, where the kernel offers them on request. Sessions and CSV files
+// of 1e5-1e6 readings need tens to hundreds of MB of fresh memory; with 4 KiB pages every page
+// is a separate fault, and on a virtual machine those faults were a third of `fit SESSION`'s
+// time (perf, DEVELOPERS.md "Speed, measured"). 2 MiB pages cut the fault count ~4x.
+#pragma once
+
+namespace sagline {
+
+// Call first thing in main(), before any large allocation. Best effort: on a kernel or C
+// library that cannot do it, nothing changes. Never affects results, only page faults.
+void adviseLargePagesForHeap();
+
+} // namespace sagline
