@@ -13,6 +13,8 @@ namespace sagline {
 void adviseLargePagesForHeap()
 {
 #if defined(__GLIBC__) && defined(MADV_HUGEPAGE)
+    if (const char *off = std::getenv("SAGLINE_NO_LARGE_PAGES"); off != nullptr && *off != '\0')
+        return; // to compare, or where compaction stalls would hurt more than faults
     // The advice belongs to a mapping, so the heap is grown once to its working size, advised,
     // and handed back to malloc: the memory stays virtual until touched. Large blocks then come
     // from this advised heap instead of separate mmaps (glibc's default from 128 KiB; none here), and the

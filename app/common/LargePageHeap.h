@@ -8,6 +8,7 @@ namespace sagline {
 
 // Call first thing in main(), before any large allocation. Best effort: on a kernel or C
 // library that cannot do it, nothing changes. Never affects results, only page faults.
+// SAGLINE_NO_LARGE_PAGES=1 in the environment leaves the C library's defaults.
 void adviseLargePagesForHeap();
 
 } // namespace sagline

@@ -4,6 +4,7 @@
 #include "CommandLine.h"
 #include "DemoSweep.h"
 #include "InstrumentsPanel.h"
+#include "LargePageHeap.h"
 #include "MainWindow.h"
 #include "PlanPanel.h"
 #include "SetupForm.h"
@@ -77,6 +78,7 @@ std::optional<int> answerRequest(const sagline::CommandLine &line)
 
 int main(int argc, char **argv)
 {
+    sagline::adviseLargePagesForHeap(); // before Qt allocates: see app/common/LargePageHeap.h
     // A file size limit fails a write (reported, temporary file removed) instead of killing
     // the program mid-write: see app/cli/main.cpp.
     std::signal(SIGXFSZ, SIG_IGN);
