@@ -9,6 +9,9 @@
 //   bench/run-separately.sh build/release/bench/FitBenchmark
 #include "FitSummary.h"
 #include "LineFit.h"
+#if SAGLINE_HAVE_LARGE_PAGE_HEAP
+#include "LargePageHeap.h"
+#endif
 #include "YorkFit.h"
 
 #include <benchmark/benchmark.h>
@@ -202,6 +205,20 @@ void fitReadingsFreshHeap(benchmark::State &state)
     state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
 }
 BENCHMARK(fitReadingsFreshHeap)->Arg(million)->Unit(benchmark::kMillisecond);
+
+#if SAGLINE_HAVE_LARGE_PAGE_HEAP
+// The same on the heap the programs run with (app/common/LargePageHeap: large pages, big blocks
+// kept by malloc). Own process (bench/run-separately.sh): the setting stays for the program.
+void fitReadingsProductHeap(benchmark::State &state)
+{
+    adviseLargePagesForHeap();
+    const std::vector<Reading> readings = readingsOf(data(static_cast<std::size_t>(state.range(0))));
+    for (auto _ : state)
+        benchmark::DoNotOptimize(fitReadings(readings, FitMethod::Ols));
+    state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
+}
+BENCHMARK(fitReadingsProductHeap)->Arg(100000)->Arg(million)->Unit(benchmark::kMillisecond);
+#endif
 
 } // namespace
 

@@ -15,6 +15,7 @@
 //                                     (run under /usr/bin/time -v for the peak memory)
 #include "DemoSession.h"
 #include "InteractiveChartView.h"
+#include "LargePageHeap.h"
 #include "MainWindow.h"
 #include "ResidualChart.h"
 #include "SetupJson.h"
@@ -200,6 +201,7 @@ void registerBenchmarks()
 
 int main(int argc, char **argv)
 {
+    sagline::adviseLargePagesForHeap(); // the heap the desktop app runs with (app/gui/main.cpp)
     if (!qEnvironmentVariableIsSet("QT_QPA_PLATFORM"))
         qputenv("QT_QPA_PLATFORM", "offscreen");
     QApplication app(argc, argv);
