@@ -9,6 +9,7 @@
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
+#include <cctype>
 #include <charconv>
 #include <cmath>
 #include <system_error>
@@ -136,6 +137,18 @@ void withheldOutcomes(json &verdict, const SessionProgress &progress)
         }
     };
     withhold(verdict);
+    // The explanation spoke of the partial data as if it were the verdict ("Judged on 4 limits").
+    if (verdict.contains("explanation") && verdict["explanation"].is_string()) {
+        std::string label = progress.label();
+        std::string onData = verdict["explanation"].get<std::string>();
+        if (!label.empty())
+            label.front() = static_cast<char>(std::toupper(static_cast<unsigned char>(label.front())));
+        if (!onData.empty())
+            onData.front() = static_cast<char>(std::tolower(static_cast<unsigned char>(onData.front())));
+        const bool running = progress.state == Completeness::InProgress;
+        verdict["explanation"] = label + (running ? ": no verdict yet. On the data so far: " : ": no verdict. On the partial data: ")
+                                 + onData;
+    }
     if (verdict.contains("limits") && verdict["limits"].is_array())
         for (json &limit : verdict["limits"])
             withhold(limit);

@@ -199,6 +199,12 @@ TEST_F(SessionIntegrityCommand, AnOverrideIsRecordedWithThePersonAndTheReason)
     // No pass in the exports either: the outcomes read "incomplete", the partial data's beside them.
     EXPECT_EQ(json["verdict"]["outcome"], "incomplete");
     EXPECT_TRUE(json["verdict"].contains("outcome_on_partial_data"));
+    // Its explanation says so first, not "Judged on 4 limits" as if there were a verdict.
+    EXPECT_EQ(json["verdict"]["explanation"].get<std::string>().rfind("Incomplete (3 of 9 steps; safety stop", 0), 0u)
+        << json["verdict"]["explanation"];
+    EXPECT_NE(json["verdict"]["explanation"].get<std::string>().find("no verdict. On the partial data: judged on"),
+              std::string::npos)
+        << json["verdict"]["explanation"];
     for (const auto &limit : json["verdict"]["limits"])
         EXPECT_EQ(limit["outcome"], "incomplete") << limit.dump();
     ASSERT_EQ(runProgram(cli, {"export", path("over.sagline"), "--fit-csv", path("fit.csv")}).exitCode, 0);
