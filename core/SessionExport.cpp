@@ -5,11 +5,11 @@
 #include "CsvField.h"
 #include "JsonReader.h"
 #include "PrimarySideJson.h"
+#include "WithheldVerdict.h"
 
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
-#include <cctype>
 #include <charconv>
 #include <cmath>
 #include <system_error>
@@ -123,36 +123,6 @@ json verdictToJson(const SessionSummary &summary)
 constexpr const char *primaryHeader = ",primary_voltage_v,u_primary_voltage_v,primary_current_a,u_primary_current_a,"
                                       "primary_power_w,u_primary_power_w,primary_power_factor,u_primary_power_factor,"
                                       "primary_reactive_power_var,u_primary_reactive_power_var";
-
-// A session that is not complete gets no pass anywhere: each "outcome" (the verdict's and each
-// limit's) reads "provisional" or "incomplete", and what the partial data gave is kept beside it
-// as "outcome_on_partial_data" for a reader who wants it.
-void withheldOutcomes(json &verdict, const SessionProgress &progress)
-{
-    const std::string word = progress.state == Completeness::InProgress ? "provisional" : "incomplete";
-    const auto withhold = [&word](json &object) {
-        if (object.is_object() && object.contains("outcome")) {
-            object["outcome_on_partial_data"] = object["outcome"];
-            object["outcome"] = word;
-        }
-    };
-    withhold(verdict);
-    // The explanation spoke of the partial data as if it were the verdict ("Judged on 4 limits").
-    if (verdict.contains("explanation") && verdict["explanation"].is_string()) {
-        std::string label = progress.label();
-        std::string onData = verdict["explanation"].get<std::string>();
-        if (!label.empty())
-            label.front() = static_cast<char>(std::toupper(static_cast<unsigned char>(label.front())));
-        if (!onData.empty())
-            onData.front() = static_cast<char>(std::tolower(static_cast<unsigned char>(onData.front())));
-        const bool running = progress.state == Completeness::InProgress;
-        verdict["explanation"] = label + (running ? ": no verdict yet. On the data so far: " : ": no verdict. On the partial data: ")
-                                 + onData;
-    }
-    if (verdict.contains("limits") && verdict["limits"].is_array())
-        for (json &limit : verdict["limits"])
-            withhold(limit);
-}
 
 bool anyPrimary(const std::vector<Reading> &readings)
 {
@@ -329,10 +299,7 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
         superseded += reading.superseded ? 1 : 0;
     out["readings"] = {{"total", summary.readings.size()}, {"excluded", summary.excludedCount() - superseded},
                        {"superseded", superseded}};
-    out["progress"] = {{"state", toString(summary.progress.state)},
-                       {"recorded_steps", summary.progress.recordedSteps},
-                       {"planned_steps", summary.progress.plannedSteps},
-                       {"label", summary.progress.label()}};
+    out["progress"] = progressJson<json>(summary.progress);
     out["fit"] = fitToJson(summary.fit);
     if (summary.fit.ok()) {
         if (const auto ci = seriesResistanceInterval(summary))
@@ -343,8 +310,7 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
     out["verdict"] = verdictToJson(summary);
     if (out["verdict"].is_object()) {
         out["verdict"]["as_shown"] = summary.verdictText(); // "provisional (k of N steps)" until complete
-        if (!summary.progress.isComplete())
-            withheldOutcomes(out["verdict"], summary.progress);
+        withholdVerdict(out["verdict"], summary.progress);
     }
     out["seal"] = {{"state", toString(summary.seal.state)}, {"summary", summary.seal.summary()}};
     out["exclusions"] = json::array();

@@ -175,6 +175,7 @@ int fitSession(const FitArguments &args, FitReport &report)
     report.regulationLimitSource = summary.regulationLimitSource;
     report.temperatureConstantSource = summary.temperatureConstantSource;
     report.settingsUsed = describeSettingsUsed(summary);
+    report.progress = summary.progress;
     if (summary.setup) {
         report.supply = summary.supply;
         report.primarySide = summary.primarySide;

@@ -7,8 +7,10 @@
 #include "NumberFormat.h"
 #include "PrimarySideJson.h"
 #include "UncertaintyFormat.h"
+#include "WithheldVerdict.h"
 
 #include <algorithm>
+#include <cctype>
 #include <functional>
 
 namespace sagline::cli {
@@ -170,16 +172,31 @@ void printPrimarySide(const FitReport &report, const std::function<void(const st
         row("Note", note);
 }
 
-void printVerdict(const SpecificationVerdict &v, const std::function<void(const std::string &, const std::string &)> &row)
+void printVerdict(const SpecificationVerdict &v, const std::optional<SessionProgress> &progress,
+                  const std::function<void(const std::string &, const std::string &)> &row)
 {
     // With no limit nothing was judged, at any temperature (the window and the report say the same).
     const std::string where = v.limits.empty()           ? ""
                               : v.atReferenceTemperature ? " (judged at the reference temperature)"
                                                          : " (judged as measured)";
-    row("Verdict", outcomeWords(v.outcome) + where);
-    row("", v.explanation);
+    // An incomplete session has no verdict (core/WithheldVerdict): what its partial data gave
+    // follows, labelled, never on the Verdict line.
+    const bool withheld = progress && !progress->isComplete();
+    if (withheld) {
+        std::string explanation = v.explanation;
+        if (!explanation.empty())
+            explanation.front() = static_cast<char>(std::tolower(static_cast<unsigned char>(explanation.front())));
+        row("Verdict", withheldVerdictHeadline(*progress));
+        row("", std::string("For information only, ") +
+                    (progress->state == Completeness::InProgress ? "on the data so far" : "on the partial data") + where +
+                    ": " + explanation);
+    } else {
+        row("Verdict", outcomeWords(v.outcome) + where);
+        row("", v.explanation);
+    }
     for (const ConformityDecision &d : v.limits) {
-        std::string line = d.ok ? outcomeWords(d.outcome) + ": " + d.explanation : d.error;
+        // No outcome word for a withheld verdict: each line says what the partial data show.
+        std::string line = !d.ok ? d.error : withheld ? d.explanation : outcomeWords(d.outcome) + ": " + d.explanation;
         if (d.conformanceProbability)
             line += " Probability of conformity " + conformanceProbabilityText(*d.conformanceProbability) + ".";
         row("", line);
@@ -319,8 +336,13 @@ nlohmann::json fitReportJson(const FitReport &report, PointsInJson points)
     addPrimaryResultsJson(j["results"], report.primarySide);
     if (report.supply)
         j["primary_side"] = primarySideJson(report.primarySide, *report.supply);
-    if (report.verdict)
+    if (report.progress)
+        j["progress"] = progressJson<nlohmann::json>(*report.progress);
+    if (report.verdict) {
         j["verdict"] = verdictJson(*report.verdict);
+        if (report.progress)
+            withholdVerdict(j["verdict"], *report.progress);
+    }
     if (report.hasNameplate)
         j["settings_source"] = {{"rule", toString(report.ruleSource)},
                                 {"regulation_limit", toString(report.regulationLimitSource)},
@@ -340,7 +362,10 @@ void printFitReport(const FitReport &report, std::ostream &out)
     const LineResults line = lineResultsOf(report);
     out << "Straight-line fit V = V0 - R·I of " << report.source << "\n"
         << "  " << methodTitle(f.method) << ", " << f.n << " of " << total << " readings used\n"
-        << "  Uncertainties: " << line.uncertaintyBasis << "\n\n";
+        << "  Uncertainties: " << line.uncertaintyBasis << "\n";
+    if (report.progress && !report.progress->isComplete())
+        out << "  Sweep: " << report.progress->label() << "\n";
+    out << '\n';
     row("Series resistance R", valueWithExpandedUncertainty(line.seriesResistanceOhm, "Ω"));
     row("No-load voltage V0", valueWithExpandedUncertainty(line.noLoadVoltageV, "V"));
     if (f.mswd)
@@ -372,7 +397,7 @@ void printFitReport(const FitReport &report, std::ostream &out)
         printPrimarySide(report, row, out);
     if (report.verdict) {
         out << '\n';
-        printVerdict(*report.verdict, row);
+        printVerdict(*report.verdict, report.progress, row);
     }
     if (!report.settingsUsed.empty())
         row("Judged with", report.settingsUsed);

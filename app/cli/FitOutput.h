@@ -7,6 +7,7 @@
 #include "FitSummary.h"
 #include "PrimarySideAnalysis.h"
 #include "ResultAnalysis.h"
+#include "SessionProgress.h"
 #include "SupplyReferral.h"
 
 #include <nlohmann/json.hpp>
@@ -37,6 +38,7 @@ struct FitReport {
     std::string settingsUsed;                // describeSettingsUsed: the verdict settings and their sources
     std::optional<SupplyAssessment> supply;  // with a nameplate: the supply and what the fit was made on
     std::optional<PrimarySideResult> primarySide; // with primary readings and a nameplate
+    std::optional<SessionProgress> progress; // a session: k of N steps; an incomplete one has no verdict
 };
 
 // Warnings a reader should see: bending, outliers, scatter beyond the stated uncertainties.

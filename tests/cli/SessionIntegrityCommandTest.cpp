@@ -207,6 +207,19 @@ TEST_F(SessionIntegrityCommand, AnOverrideIsRecordedWithThePersonAndTheReason)
         << json["verdict"]["explanation"];
     for (const auto &limit : json["verdict"]["limits"])
         EXPECT_EQ(limit["outcome"], "incomplete") << limit.dump();
+    // `fit SESSION` says the same: no PASS on the Verdict line or any limit's line, text or JSON.
+    const auto fitRun = runProgram(cli, {"fit", path("over.sagline")});
+    EXPECT_EQ(fitRun.exitCode, 0) << fitRun.err;
+    EXPECT_NE(fitRun.out.find("Sweep: incomplete (3 of 9 steps; safety stop"), std::string::npos) << fitRun.out;
+    EXPECT_NE(fitRun.out.find("Verdict                 Incomplete (3 of 9 steps; safety stop"), std::string::npos)
+        << fitRun.out;
+    EXPECT_NE(fitRun.out.find("For information only, on the partial data"), std::string::npos) << fitRun.out;
+    EXPECT_EQ(fitRun.out.find("PASS"), std::string::npos) << fitRun.out;
+    const auto fitJson = nlohmann::json::parse(runProgram(cli, {"fit", path("over.sagline"), "--json"}).out);
+    EXPECT_EQ(fitJson["progress"]["state"], "stopped");
+    EXPECT_EQ(fitJson["verdict"]["outcome"], "incomplete");
+    for (const auto &limit : fitJson["verdict"]["limits"])
+        EXPECT_EQ(limit["outcome"], "incomplete") << limit.dump();
     ASSERT_EQ(runProgram(cli, {"export", path("over.sagline"), "--fit-csv", path("fit.csv")}).exitCode, 0);
     std::ifstream fitCsv(path("fit.csv"));
     const std::string fitText((std::istreambuf_iterator<char>(fitCsv)), std::istreambuf_iterator<char>());
