@@ -290,7 +290,8 @@ std::string sessionSummaryToJson(const SessionSummary &summary, int indent)
     out["plan"] = stored(summary.info.planJson);
     out["temperatures"] = json::array();
     for (const auto &t : summary.temperatures)
-        out["temperatures"].push_back({{"time_utc", t.timeUtc}, {"kind", toString(t.kind)}, {"celsius", number(t.celsius)}, {"source", t.source}});
+        out["temperatures"].push_back({{"time_utc", t.timeUtc}, {"kind", toString(t.kind)}, {"celsius", number(t.celsius)},
+                                       {"source", t.source}, {"person", t.actor.person}, {"os_account", t.actor.osAccount}});
     out["instruments"] = json::array();
     for (const auto &i : summary.instruments)
         out["instruments"].push_back({{"time_utc", i.timeUtc}, {"role", i.role}, {"identity", i.identity}, {"accuracy", i.accuracy}});

@@ -33,6 +33,7 @@ int runCompare(const Arguments &args);
 int runExclude(const Arguments &args);
 int runRestore(const Arguments &args);
 int runNote(const Arguments &args);
+int runTemperature(const Arguments &args);
 int runSignOff(const Arguments &args);
 int runReopen(const Arguments &args);
 int runVerify(const Arguments &args);

@@ -1,5 +1,5 @@
 // The changes a person makes to a recorded session, for scripts: exclude, restore, note,
-// sign-off and reopen. Each names the person (--by); the OS account is recorded beside it.
+// temperature, sign-off and reopen. Each names the person (--by); the OS account is recorded beside it.
 // They share core's rules with the window (core/SessionChanges, the store's seal): a reason is
 // required, a signed-off session refuses every change until it is reopened with a reason.
 #include "CliCommands.h"
@@ -100,6 +100,42 @@ int runNote(const Arguments &args)
     if (!store)
         return exitCode;
     return report(line, addPersonNote(*store, line.value("text")), "note added");
+}
+
+// A temperature measured after the session was created (the winding's, read right after the
+// sweep, is what the resistance is corrected from): a new record, the latest of its kind wins.
+int runTemperature(const Arguments &args)
+{
+    CommandLine line("sagline-cli temperature", "SESSION.sagline (--winding C | --ambient C) --source TEXT --by NAME",
+                     "Records a winding or ambient temperature measured after the session began, with how it was "
+                     "measured and who measured it. The latest of each kind is the one the fit and report use; "
+                     "earlier ones stay in the record.");
+    line.addPositional("SESSION.sagline", "the session to change");
+    line.addOption({"winding"}, "C", "the winding temperature, -60 to 400 °C");
+    line.addOption({"ambient"}, "C", "the ambient temperature, -60 to 80 °C");
+    line.addOption({"source"}, "TEXT", "how it was measured, e.g. 'thermocouple on the outer layer, 2 min after the "
+                                       "last step' (required)");
+    line.addOption({"by"}, "NAME", byText);
+    line.addNote(exitCodesNote);
+    if (const auto exit = line.parse(args))
+        return *exit;
+    std::optional<double> winding;
+    std::optional<double> ambient;
+    if (!line.number("winding", -60.0, 400.0, winding) || !line.number("ambient", -60.0, 80.0, ambient))
+        return exitInvalidInput;
+    if (winding.has_value() == ambient.has_value())
+        return line.fail("--winding or --ambient: give one of them (one temperature per record)");
+    if (!line.isSet("source") || line.value("source").find_first_not_of(" \t") == std::string::npos)
+        return line.fail("--source: say how the temperature was measured (required)");
+    int exitCode = exitSuccess;
+    auto store = openAs(line, line.positionals().front(), &exitCode);
+    if (!store)
+        return exitCode;
+    const TemperatureKind kind = winding ? TemperatureKind::Winding : TemperatureKind::Ambient;
+    const double celsius = winding ? *winding : *ambient;
+    return report(line, store->recordTemperature(kind, celsius, line.value("source")),
+                  std::string(toString(kind)) + " temperature " + line.value(winding ? "winding" : "ambient") +
+                      " °C recorded");
 }
 
 int runSignOff(const Arguments &args)

@@ -32,6 +32,8 @@ constexpr Command commands[] = {
     {"exclude", sagline::cli::runExclude, "exclude SESSION.sagline --reading N --reason TEXT --by NAME   leave a reading out of the fit"},
     {"restore", sagline::cli::runRestore, "restore SESSION.sagline --reading N --reason TEXT --by NAME   bring an excluded reading back"},
     {"note", sagline::cli::runNote, "note SESSION.sagline --text TEXT --by NAME   add a note"},
+    {"temperature", sagline::cli::runTemperature, "temperature SESSION.sagline (--winding C | --ambient C) --source TEXT --by NAME\n"
+                                                  "                                     record a temperature measured later"},
     {"sign-off", sagline::cli::runSignOff, "sign-off SESSION.sagline --by NAME --decision accept|reject|retest [--comment TEXT]\n"
                                            "                                     sign off and seal (SHA-256 digest of the content)"},
     {"reopen", sagline::cli::runReopen, "reopen SESSION.sagline --by NAME --reason TEXT   lift a sign-off so the session can change"},

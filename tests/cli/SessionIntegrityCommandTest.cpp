@@ -63,6 +63,38 @@ TEST_F(SessionIntegrityCommand, ChangesNeedAPersonAndAReason)
     EXPECT_EQ(r.exitCode, 2);
 }
 
+// A winding temperature read after the sweep: recorded with how and by whom, the latest used for
+// R at the reference temperature, refused with the option named when mistyped or when sealed.
+TEST_F(SessionIntegrityCommand, ATemperatureMeasuredLaterIsRecordedAndUsed)
+{
+    const std::string session = sweep();
+    auto r = runProgram(cli, {"temperature", session, "--winding", "4150", "--source", "thermocouple", "--by", "B. Eng"});
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("--winding: '4150' must be a number from -60 to 400"), std::string::npos) << r.err;
+    r = runProgram(cli, {"temperature", session, "--winding", "41.5", "--ambient", "21", "--source", "x", "--by", "B. Eng"});
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("give one of them"), std::string::npos) << r.err;
+    r = runProgram(cli, {"temperature", session, "--winding", "41.5", "--by", "B. Eng"});
+    EXPECT_EQ(r.exitCode, 2);
+    EXPECT_NE(r.err.find("--source"), std::string::npos) << r.err;
+    r = runProgram(cli, {"temperature", session, "--winding", "41.5", "--source", "thermocouple after the sweep", "--by",
+                         "B. Eng"});
+    ASSERT_EQ(r.exitCode, 0) << r.err;
+    const auto exported = nlohmann::json::parse(runProgram(cli, {"export", session, "--json", "-"}).out);
+    const auto &last = exported["temperatures"].back();
+    EXPECT_EQ(last["kind"], "winding");
+    EXPECT_DOUBLE_EQ(last["celsius"].get<double>(), 41.5);
+    EXPECT_EQ(last["source"], "thermocouple after the sweep");
+    EXPECT_EQ(last["person"], "B. Eng");
+    // Copper, IEEE C57.12.90 T_k = 234.5 °C: R(75) / R(41.5) = 309.5 / 276 = 1.1214 (worked by hand).
+    const auto fit = runProgram(cli, {"fit", session});
+    EXPECT_NE(fit.out.find("R × 1.1214"), std::string::npos) << fit.out;
+    ASSERT_EQ(runProgram(cli, {"sign-off", session, "--by", "L. Lead", "--decision", "accept"}).exitCode, 0);
+    r = runProgram(cli, {"temperature", session, "--winding", "40", "--source", "again", "--by", "B. Eng"});
+    EXPECT_NE(r.exitCode, 0);
+    EXPECT_NE(r.err.find("signed off"), std::string::npos) << r.err;
+}
+
 TEST_F(SessionIntegrityCommand, ExcludeRestoreAndNoteRecordWhoDidIt)
 {
     const std::string session = sweep();
