@@ -40,6 +40,10 @@ void restoreMallocDefaults()
 void adviseLargePagesForHeap()
 {
 #if defined(__GLIBC__) && defined(MADV_HUGEPAGE)
+    static bool called = false; // once per process: a second reserve would carve up the first
+    if (called)
+        return;
+    called = true;
     if (const char *off = std::getenv("SAGLINE_NO_LARGE_PAGES"); off != nullptr && *off != '\0')
         return; // to compare, or where compaction stalls would hurt more than faults
     // The advice belongs to a mapping, so the heap is grown once to its working size, advised,
