@@ -7,6 +7,7 @@
 
 #include <algorithm>
 #include <charconv>
+#include <cstring>
 #include <cmath>
 #include <optional>
 
@@ -494,7 +495,13 @@ ReadingsCsvParse Parser::run(std::string_view text)
     std::vector<std::string_view> cells;
     std::vector<std::string> unquoted;
     // One reading per line at most: reserving for them all saves growing a large vector.
-    const auto lines = static_cast<std::size_t>(std::count(text.begin(), text.end(), '\n')) + 1;
+    // memchr, not std::count: the byte loop std::count compiles to at -O2 took half the
+    // parser's own time on a 1e5-row file (perf annotate).
+    std::size_t lines = 1;
+    for (const char *at = text.data(), *end = text.data() + text.size();
+         at < end && (at = static_cast<const char *>(std::memchr(at, '\n', static_cast<std::size_t>(end - at)))) != nullptr;
+         ++at)
+        ++lines;
     if (m_keepColumns)
         m_fitColumns.reserve(lines);
     else
