@@ -324,17 +324,22 @@ StoreResult<ReadingRecorders> SessionStore::readingRecorders() const
     Result result;
     ReadingRecorders &recorders = result.value;
     recorders.byReading.reserve(static_cast<std::size_t>(std::max<std::int64_t>(count.value, 0)));
+    // Readings come in runs by one person: the previous reading's recorder is tried first, the
+    // map only on a change (a hostile file with a new name on every row stays linear).
+    std::unordered_map<std::string, std::uint32_t> indexOf;
     while (rc == SQLITE_OK && (rc = query.step()) == SQLITE_ROW) {
         const std::string_view person = query.columnTextView(0);
         const std::string_view account = query.columnTextView(1);
-        const auto same = [&](const Actor &a) { return a.person == person && a.osAccount == account; };
-        // Readings come in runs by one person: try the previous reading's recorder first.
         std::uint32_t index = recorders.byReading.empty() ? 0 : recorders.byReading.back();
-        if (recorders.distinct.empty() || !same(recorders.distinct[index])) {
-            const auto found = std::find_if(recorders.distinct.begin(), recorders.distinct.end(), same);
-            index = static_cast<std::uint32_t>(found - recorders.distinct.begin());
-            if (found == recorders.distinct.end())
+        if (recorders.distinct.empty() || recorders.distinct[index].person != person
+            || recorders.distinct[index].osAccount != account) {
+            // The person's length first, so that no two (person, account) pairs share a key.
+            std::string key = std::to_string(person.size()) + ':';
+            key.append(person).append(account);
+            const auto [at, added] = indexOf.try_emplace(std::move(key), static_cast<std::uint32_t>(recorders.distinct.size()));
+            if (added)
                 recorders.distinct.push_back({std::string(person), std::string(account)});
+            index = at->second;
         }
         recorders.byReading.push_back(index);
         rc = SQLITE_OK;

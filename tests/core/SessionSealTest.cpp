@@ -237,3 +237,31 @@ TEST(SessionEvents, SweepEventsReadBackInOrder)
     EXPECT_EQ(events[2].kind, SweepEventKind::Resumed);
     EXPECT_EQ(events[2].actor.person, "B. Operator");
 }
+
+// Who recorded each reading, read back compactly: the few recorders once each, in order of
+// first appearance, and every reading's index into them (a hand change of recorder included).
+TEST(ReadingRecordersTest, EachReadingKeepsItsOwnRecorder)
+{
+    TempFolder folder;
+    auto created = SessionStore::create(folder.file("recorders.sagline"), sampleSession());
+    ASSERT_TRUE(created.ok()) << created.message;
+    SessionStore &store = *created.value;
+    const Actor first{"B. Operator", "bench1"};
+    const Actor second{"C. Student", "bench1"};
+    const Actor sameNameOtherAccount{"B. Operator", "lab2"};
+    const Actor order[] = {first, first, second, first, sameNameOtherAccount, second};
+    for (std::size_t i = 0; i < std::size(order); ++i) {
+        store.setActor(order[i]);
+        ASSERT_TRUE(store.appendReading(sampleReading(static_cast<int>(i), 0.5 * static_cast<double>(i), 26.0)).ok());
+    }
+    const auto recorders = store.readingRecorders();
+    ASSERT_TRUE(recorders.ok()) << recorders.message;
+    const ReadingRecorders &r = recorders.value;
+    ASSERT_EQ(r.distinct.size(), 3u);
+    EXPECT_EQ(r.distinct[0], first);
+    EXPECT_EQ(r.distinct[1], second);
+    EXPECT_EQ(r.distinct[2], sameNameOtherAccount);
+    for (std::size_t i = 0; i < std::size(order); ++i)
+        EXPECT_EQ(r.of(i), order[i]) << "reading " << i;
+    EXPECT_EQ(r.of(std::size(order)), Actor{}); // past the end
+}
