@@ -1,5 +1,8 @@
 #include "SessionChanges.h"
 
+#include <cmath>
+#include <cstdio>
+
 namespace sagline {
 
 namespace {
@@ -91,6 +94,26 @@ Result restoreReadingNumber(SessionStore &store, long long number, const std::st
     if (!reading.ok())
         return Result::failure(reading.status());
     return restoreReadingAs(store, reading.value, number, reason);
+}
+
+TemperatureRange plausibleTemperatureRange(TemperatureKind kind)
+{
+    return kind == TemperatureKind::Winding ? TemperatureRange{-60.0, 400.0} : TemperatureRange{-60.0, 80.0};
+}
+
+Result recordPersonTemperature(SessionStore &store, TemperatureKind kind, double celsius, const std::string &source)
+{
+    if (const std::string error = personError(store.actor().person); !error.empty())
+        return Result::failure(StoreCode::InvalidArgument, error);
+    const TemperatureRange range = plausibleTemperatureRange(kind);
+    if (!std::isfinite(celsius) || celsius < range.lowC || celsius > range.highC) {
+        char text[96];
+        std::snprintf(text, sizeof text, " temperature: must be from %g to %g °C", range.lowC, range.highC);
+        return Result::failure(StoreCode::InvalidArgument, toString(kind) + std::string(text));
+    }
+    if (isBlank(source))
+        return Result::failure(StoreCode::InvalidArgument, "source: say how the temperature was measured");
+    return store.recordTemperature(kind, celsius, trimmed(source));
 }
 
 Result addPersonNote(SessionStore &store, const std::string &text)

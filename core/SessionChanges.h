@@ -29,4 +29,16 @@ StoreResult<std::int64_t> restoreReadingNumber(SessionStore &store, long long nu
 // A note written by the store's actor.
 StoreResult<std::int64_t> addPersonNote(SessionStore &store, const std::string &text);
 
+// A temperature measured after the session began (the winding's, read right after the sweep),
+// by the store's actor, with how it was measured (required). Within what a bench sees: winding
+// -60 to 400 °C (above any insulation class's hot-spot limit is a typing error), ambient -60 to
+// 80 °C (common practice). The latest of each kind is the one the analysis uses.
+struct TemperatureRange {
+    double lowC;
+    double highC;
+};
+TemperatureRange plausibleTemperatureRange(TemperatureKind kind);
+StoreResult<std::int64_t> recordPersonTemperature(SessionStore &store, TemperatureKind kind, double celsius,
+                                                  const std::string &source);
+
 } // namespace sagline

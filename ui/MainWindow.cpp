@@ -82,6 +82,10 @@ MainWindow::MainWindow(QWidget *parent)
         const QString text = QInputDialog::getText(this, title, label, QLineEdit::Normal, QString(), &ok);
         return ok ? std::optional<QString>(text) : std::nullopt;
     };
+    m_temperaturePrompt = [this]() -> std::optional<TemperatureEntry> {
+        TemperatureDialog dialog(this);
+        return dialog.exec() == QDialog::Accepted ? dialog.entry() : std::nullopt;
+    };
     m_confirmPrompt = [this](const QString &title, const QString &text) {
         return QMessageBox::question(this, title, text, QMessageBox::Yes | QMessageBox::No, QMessageBox::No)
                == QMessageBox::Yes;

@@ -7,6 +7,7 @@
 #include "DisplayPoints.h"
 #include "SessionSummary.h"
 #include "SweepWorkspace.h"
+#include "TemperatureDialog.h"
 #include "Setup.h"
 
 #include <QMainWindow>
@@ -55,6 +56,9 @@ public:
     // tests answer instead of a person.
     using TextPrompt = std::function<std::optional<QString>(const QString &title, const QString &label)>;
     void setTextPrompt(TextPrompt prompt) { m_textPrompt = std::move(prompt); }
+    // Readings → Record a temperature: the dialog by default; tests answer it themselves.
+    using TemperaturePrompt = std::function<std::optional<TemperatureEntry>()>;
+    void setTemperaturePrompt(TemperaturePrompt prompt) { m_temperaturePrompt = std::move(prompt); }
     // Asks yes or no (a typed value far from what the step expects). Replaceable for tests.
     using ConfirmPrompt = std::function<bool(const QString &title, const QString &text)>;
     void setConfirmPrompt(ConfirmPrompt prompt) { m_confirmPrompt = std::move(prompt); }
@@ -148,6 +152,7 @@ private:
     void excludeSelected();
     void restoreSelected();
     void addNote();
+    void recordTemperature();
     void retakeSelected();
     void resetViews();
 
@@ -223,6 +228,7 @@ private:
     SourceChoice m_defaultChoice; // the instruments a new session starts with (the saved preference)
     std::optional<Setup> m_defaultSetup;
     TextPrompt m_textPrompt;
+    TemperaturePrompt m_temperaturePrompt;
     ConfirmPrompt m_confirmPrompt;
 };
 

@@ -80,8 +80,12 @@ void MainWindow::createActions()
                                      &MainWindow::addNote);
     auto *retake = readings->addAction(tr("Re&take the selected point's step…"), QKeySequence(Qt::CTRL | Qt::Key_R), this,
                                        &MainWindow::retakeSelected);
+    auto *temperature = readings->addAction(tr("Record a &temperature…"), this, &MainWindow::recordTemperature);
+    temperature->setStatusTip(tr("A winding or ambient temperature measured after the session began, e.g. the winding's "
+                                 "right after the sweep"));
     m_readingsView->addActions({exclude, restore, note, retake});
-    m_changeActions = {exclude, restore, note, retake}; // disabled while the session cannot change (showSessionState)
+    // Disabled while the session cannot change (showSessionState).
+    m_changeActions = {exclude, restore, note, retake, temperature};
     for (QAction *action : m_changeActions)
         action->setEnabled(false); // no session yet
 
@@ -289,6 +293,27 @@ void MainWindow::restoreSelected()
     const QString error = m_workspace->restore(rows.front().row(), *reason);
     showMessage(error.isEmpty() ? tr("Reading %1 restored: %2").arg(rows.front().row() + 1).arg(reason->trimmed()) : error,
                 !error.isEmpty());
+}
+
+void MainWindow::recordTemperature()
+{
+    if (!ensurePerson())
+        return;
+    const auto entry = m_temperaturePrompt();
+    if (!entry)
+        return;
+    const QString error = m_workspace->recordTemperature(entry->kind, entry->celsius, entry->source);
+    if (!error.isEmpty()) {
+        showMessage(error, true);
+        return;
+    }
+    // The form shows the session's latest temperatures; the results are worked out from them.
+    m_setupForm->setSessionDetails(sessionDetailsFrom(m_workspace->records()));
+    refreshFitViews();
+    showMessage(tr("%1 temperature %2 °C recorded (%3).")
+                    .arg(entry->kind == TemperatureKind::Winding ? tr("Winding") : tr("Ambient"))
+                    .arg(entry->celsius)
+                    .arg(entry->source));
 }
 
 void MainWindow::addNote()

@@ -390,6 +390,16 @@ QString SweepWorkspace::addNote(const QString &text)
     return result.ok() ? QString() : QString::fromStdString(result.message);
 }
 
+QString SweepWorkspace::recordTemperature(TemperatureKind kind, double celsius, const QString &source)
+{
+    if (!m_store)
+        return tr("temperature: no session is open");
+    const auto result = recordPersonTemperature(*m_store, kind, celsius, source.toStdString());
+    if (!result.ok())
+        return QString::fromStdString(result.message);
+    return loadRecords();
+}
+
 QString SweepWorkspace::recordAnalysisSettings(const VerdictSettings &verdict)
 {
     if (!isChangeable())

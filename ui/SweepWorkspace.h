@@ -159,6 +159,8 @@ public:
     QString exclude(int row, const QString &reason);
     QString restore(int row, const QString &reason);
     QString addNote(const QString &text);
+    // A temperature measured later, by the person (core's recordPersonTemperature); "" when recorded.
+    QString recordTemperature(TemperatureKind kind, double celsius, const QString &source);
     // Stores how results are judged in the open session (an analysis-settings note, see
     // core/AnalysisSettingsRecord.h) when it differs from the settings last stored or read.
     // "" when stored or nothing to do (no session, read-only, unchanged); else why not

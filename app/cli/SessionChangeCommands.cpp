@@ -121,7 +121,10 @@ int runTemperature(const Arguments &args)
         return *exit;
     std::optional<double> winding;
     std::optional<double> ambient;
-    if (!line.number("winding", -60.0, 400.0, winding) || !line.number("ambient", -60.0, 80.0, ambient))
+    const TemperatureRange windingRange = plausibleTemperatureRange(TemperatureKind::Winding);
+    const TemperatureRange ambientRange = plausibleTemperatureRange(TemperatureKind::Ambient);
+    if (!line.number("winding", windingRange.lowC, windingRange.highC, winding)
+        || !line.number("ambient", ambientRange.lowC, ambientRange.highC, ambient))
         return exitInvalidInput;
     if (winding.has_value() == ambient.has_value())
         return line.fail("--winding or --ambient: give one of them (one temperature per record)");
@@ -133,7 +136,7 @@ int runTemperature(const Arguments &args)
         return exitCode;
     const TemperatureKind kind = winding ? TemperatureKind::Winding : TemperatureKind::Ambient;
     const double celsius = winding ? *winding : *ambient;
-    return report(line, store->recordTemperature(kind, celsius, line.value("source")),
+    return report(line, recordPersonTemperature(*store, kind, celsius, line.value("source")),
                   std::string(toString(kind)) + " temperature " + line.value(winding ? "winding" : "ambient") +
                       " °C recorded");
 }

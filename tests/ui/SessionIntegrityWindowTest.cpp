@@ -4,6 +4,7 @@
 // (item 5), the verdict is provisional until every step (item 6), and an interrupted session
 // resumes at its next step (item 7). With SAGLINE_SHOTS_DIR set, the key moments are saved as
 // PNG in SAGLINE_SHOTS_DIR/integrity/ at 1366×768 and 1600×1000.
+#include "EventLoopWait.h"
 #include "SessionFiles.h"
 #include "ShotsAtWorkingSizes.h"
 #include "UiTestSupport.h"
@@ -21,9 +22,12 @@
 #include "SetupJson.h"
 #include "SweepRun.h"
 #include "SweepWorkspace.h"
+#include "TemperatureDialog.h"
 #include "VoltageCurrentChart.h"
 
 #include <gtest/gtest.h>
+
+#include <cmath>
 
 #include <QAction>
 #include <QApplication>
@@ -272,7 +276,7 @@ TEST(SessionIntegrityWindow, SignedSessionIsReadOnlyUntilReopenedWithAReason)
 
     // Every editing action is disabled, saying why; the keyboard shortcut for excluding the
     // full-load point does nothing, and nothing is asked or changed.
-    ASSERT_EQ(window->changeActions().size(), 4);
+    ASSERT_EQ(window->changeActions().size(), 5); // exclude, restore, note, retake, record a temperature
     for (const QAction *action : window->changeActions()) {
         EXPECT_FALSE(action->isEnabled()) << action->text().toStdString();
         EXPECT_TRUE(action->statusTip().contains("signed off")) << action->statusTip().toStdString();
@@ -530,4 +534,69 @@ TEST(SessionIntegrityWindow, InterruptedSessionResumesAtItsNextStepWithTheLoadCh
     for (const NoteRecord &note : stored.value->notes().value)
         confirmNote |= note.text.find("sweep resumed at step 4") != std::string::npos;
     EXPECT_TRUE(confirmNote);
+}
+
+// A winding temperature read after the sweep: recorded with the person and how it was measured,
+// shown in the form, and R at the reference temperature worked out again from it. The dialog
+// refuses a slip of the decimal point (417 °C for 41.7) before anything is recorded.
+TEST(SessionIntegrityWindow, AWindingTemperatureReadAfterTheSweepIsRecordedAndUsed)
+{
+    TemperatureDialog dialog;
+    dialog.sourceEdit()->setText(QStringLiteral("thermocouple on the outer layer"));
+    dialog.valueEdit()->setText(QStringLiteral("417"));
+    EXPECT_FALSE(dialog.recordButton()->isEnabled());
+    EXPECT_TRUE(dialog.problem().contains("from -60 to 400 °C")) << dialog.problem().toStdString();
+    dialog.valueEdit()->setText(QStringLiteral("41.7 °C"));
+    EXPECT_TRUE(dialog.recordButton()->isEnabled()) << dialog.problem().toStdString();
+    dialog.kindBox()->setCurrentIndex(1); // ambient: 41.7 °C is possible
+    EXPECT_TRUE(dialog.recordButton()->isEnabled());
+    dialog.valueEdit()->setText(QStringLiteral("95"));
+    EXPECT_FALSE(dialog.recordButton()->isEnabled()); // not an ambient temperature
+    dialog.kindBox()->setCurrentIndex(0);
+    dialog.sourceEdit()->clear();
+    EXPECT_FALSE(dialog.recordButton()->isEnabled());
+    EXPECT_TRUE(dialog.problem().startsWith("How it was measured")) << dialog.problem().toStdString();
+
+    QTemporaryDir folder;
+    const SessionFile file = writeSession(folder.path(), SessionKind::Complete);
+    auto window = demoWindow(folder.path());
+    window->show();
+    ASSERT_TRUE(QTest::qWaitForWindowExposed(window.get()));
+    ASSERT_TRUE(window->openSessionFile(file.path));
+    answerPrompts(*window);
+    typeInto(window->setupForm()->quantityField(QStringLiteral("verdict.reference_temperature_c")), QStringLiteral("75 °C"));
+    const auto referenceR = [&] { return shownValue(window->results()->value("reference_resistance"), Unit::Ohm); };
+    ASSERT_TRUE(runEventsUntil([&] { return referenceR() > 0.0; }, 10000))
+        << window->results()->value("reference_resistance").toStdString();
+    const double before = referenceR();
+    window->setTemperaturePrompt([] {
+        return std::optional<TemperatureEntry>(
+            TemperatureEntry{TemperatureKind::Winding, 41.5, QStringLiteral("thermocouple, 2 min after the last step")});
+    });
+    {
+        TemperatureDialog shown(window.get()); // what a person sees after typing 417 for 41.7
+        shown.valueEdit()->setText(QStringLiteral("417"));
+        shown.sourceEdit()->setText(QStringLiteral("thermocouple, 2 min after the last step"));
+        shown.adjustSize();
+        shoot(*window, QStringLiteral("temperature-slip-refused"), &shown);
+    }
+    QAction *record = window->changeActions().back();
+    ASSERT_TRUE(record->text().contains("temperature")) << record->text().toStdString();
+    ASSERT_TRUE(record->isEnabled());
+    record->trigger();
+    EXPECT_EQ(text(window->setupForm()->quantityField(QStringLiteral("session.winding_temperature_c"))),
+              QStringLiteral("41.5 °C"));
+    // Copper (IEEE C57.12.90, T_k = 234.5 °C): R(75) = R(θ)·309.5/(234.5 + θ), so from 23.5 °C to
+    // 41.5 °C R at 75 °C scales by 258/276 (worked by hand).
+    ASSERT_TRUE(runEventsUntil([&] { return std::fabs(referenceR() / before - 258.0 / 276.0) < 0.002; }, 10000))
+        << window->results()->value("reference_resistance").toStdString() << " (before " << before << " Ω)";
+    shoot(*window, QStringLiteral("temperature-recorded"));
+    auto stored = SessionStore::openForReview(file.path.toStdString());
+    ASSERT_TRUE(stored.ok());
+    const auto temperatures = stored.value->temperatures().value;
+    ASSERT_FALSE(temperatures.empty());
+    EXPECT_EQ(temperatures.back().kind, TemperatureKind::Winding);
+    EXPECT_DOUBLE_EQ(temperatures.back().celsius, 41.5);
+    EXPECT_EQ(temperatures.back().source, "thermocouple, 2 min after the last step");
+    EXPECT_EQ(temperatures.back().actor.person, testPerson.toStdString());
 }
