@@ -1,13 +1,13 @@
 #include "SignOffDialog.h"
 
+#include "RecordDialogLayout.h"
+
 #include <QComboBox>
-#include <QDialogButtonBox>
 #include <QFormLayout>
 #include <QLabel>
 #include <QLineEdit>
 #include <QPlainTextEdit>
 #include <QPushButton>
-#include <QVBoxLayout>
 
 namespace sagline {
 
@@ -24,22 +24,15 @@ SignOffDialog::SignOffDialog(const QString &sessionName, const QString &reviewer
     form->addRow(tr("Reviewer"), m_reviewer);
     form->addRow(tr("Reviewer's decision"), m_decision);
     form->addRow(tr("Comment"), m_comment);
-    auto *note = new QLabel(tr("The sign-off is added to the session file as a new review record with the UTC time. "
-                               "Nothing else in the file changes; earlier sign-offs stay in its history."));
-    note->setWordWrap(true);
-    auto *buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel);
-    buttons->button(QDialogButtonBox::Ok)->setText(tr("Sign off…"));
-    connect(buttons, &QDialogButtonBox::accepted, this, &QDialog::accept);
-    connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
-    auto *layout = new QVBoxLayout(this);
-    layout->addLayout(form);
-    layout->addWidget(note);
-    layout->addWidget(m_problem);
-    layout->addWidget(buttons);
-    auto recheck = [this, buttons] {
+    QPushButton *signOff = layOutRecordDialog(this, form,
+                                              tr("The sign-off is added to the session file as a new review record with "
+                                                 "the UTC time. Nothing else in the file changes; earlier sign-offs stay "
+                                                 "in its history."),
+                                              m_problem, tr("Sign off…"));
+    auto recheck = [this, signOff] {
         const std::string problem = signOffRequestError(request());
         m_problem->setText(QString::fromStdString(problem));
-        buttons->button(QDialogButtonBox::Ok)->setEnabled(problem.empty());
+        signOff->setEnabled(problem.empty());
     };
     connect(m_reviewer, &QLineEdit::textChanged, this, recheck);
     connect(m_comment, &QPlainTextEdit::textChanged, this, recheck);

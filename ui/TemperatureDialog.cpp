@@ -1,15 +1,14 @@
 #include "TemperatureDialog.h"
 
+#include "RecordDialogLayout.h"
 #include "SessionChanges.h"
 #include "TypedValue.h"
 
 #include <QComboBox>
-#include <QDialogButtonBox>
 #include <QFormLayout>
 #include <QLabel>
 #include <QLineEdit>
 #include <QPushButton>
-#include <QVBoxLayout>
 
 namespace sagline {
 
@@ -25,21 +24,11 @@ TemperatureDialog::TemperatureDialog(QWidget *parent)
     form->addRow(tr("Temperature of the"), m_kind);
     form->addRow(tr("Measured value"), m_value);
     form->addRow(tr("How it was measured"), m_source);
-    auto *note = new QLabel(tr("Added to the session as a new record with your name and the UTC time. The latest winding "
-                               "temperature is the one the resistance at the reference temperature is worked out from; "
-                               "earlier values stay in the record."));
-    note->setWordWrap(true);
-    m_problem->setWordWrap(true);
-    auto *buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel);
-    m_record = buttons->button(QDialogButtonBox::Ok);
-    m_record->setText(tr("Record"));
-    connect(buttons, &QDialogButtonBox::accepted, this, &QDialog::accept);
-    connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
-    auto *layout = new QVBoxLayout(this);
-    layout->addLayout(form);
-    layout->addWidget(note);
-    layout->addWidget(m_problem);
-    layout->addWidget(buttons);
+    m_record = layOutRecordDialog(this, form,
+                                  tr("Added to the session as a new record with your name and the UTC time. The latest "
+                                     "winding temperature is the one the resistance at the reference temperature is "
+                                     "worked out from; earlier values stay in the record."),
+                                  m_problem, tr("Record"));
     connect(m_kind, &QComboBox::currentIndexChanged, this, &TemperatureDialog::check);
     connect(m_value, &QLineEdit::textChanged, this, &TemperatureDialog::check);
     connect(m_source, &QLineEdit::textChanged, this, &TemperatureDialog::check);
