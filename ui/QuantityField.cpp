@@ -1,5 +1,7 @@
 #include "QuantityField.h"
 
+#include "ReadOnlyLook.h"
+
 #include <QLabel>
 #include <QLineEdit>
 #include <QVBoxLayout>
@@ -63,6 +65,6 @@ QString QuantityField::error() const
     return m_error->isHidden() ? QString() : m_error->text().mid(2);
 }
 
-void QuantityField::setReadOnly(bool readOnly) { m_edit->setReadOnly(readOnly); }
+void QuantityField::setReadOnly(bool readOnly) { setReadOnlyShown(m_edit, readOnly); }
 
 } // namespace sagline

@@ -2,6 +2,7 @@
 
 #include "AnalysisSettingsRecord.h"
 #include "QuantityField.h"
+#include "ReadOnlyLook.h"
 #include "UiFormat.h"
 
 #include <QCheckBox>
@@ -358,7 +359,7 @@ void SetupForm::setLocked(bool locked)
     for (auto *combo : {m_construction, m_material, m_fuseType})
         combo->setEnabled(!locked);
     m_allowOverload->setEnabled(!locked);
-    m_specificationSource->setReadOnly(locked);
+    setReadOnlyShown(m_specificationSource, locked);
 }
 
 void SetupForm::setRecordLocked(bool locked)
@@ -367,11 +368,18 @@ void SetupForm::setRecordLocked(bool locked)
         if (field->field().startsWith(QLatin1String("session.")) || field->field().startsWith(QLatin1String("verdict.")))
             field->setReadOnly(locked);
     }
-    m_operator->setReadOnly(locked);
-    m_serial->setReadOnly(locked);
+    setReadOnlyShown(m_operator, locked);
+    setReadOnlyShown(m_serial, locked);
     m_decisionRule->setEnabled(!locked);
     m_temperatureConstant->setEnabled(!locked);
 }
+
+namespace {
+
+void lockShown(QLineEdit *edit) { setReadOnlyShown(edit, true); }
+void lockShown(QuantityField *field) { field->setReadOnly(true); } // shown read-only by QuantityField
+
+} // namespace
 
 void SetupForm::setDetailsLocked(bool locked)
 {
@@ -379,7 +387,7 @@ void SetupForm::setDetailsLocked(bool locked)
     const QString why = tr("Recorded in the session file when the session started; read-only while it is open.");
     const auto lock = [&](auto *widget) {
         if (locked) {
-            widget->setReadOnly(true);
+            lockShown(widget);
             widget->setToolTip(why);
         } else if (widget->toolTip() == why) {
             widget->setToolTip(QString());

@@ -35,6 +35,7 @@
 #include <QDir>
 #include <QFile>
 #include <QFileInfo>
+#include <QLineEdit>
 #include <QMessageBox>
 #include <QPainter>
 #include <QPushButton>
@@ -236,6 +237,11 @@ TEST(SessionIntegrityWindow, SessionsOpenedInTurnShowTheirOwnFileAlone)
     EXPECT_EQ(window->sessionBand()->kind(), SessionBand::Kind::Hidden);
     EXPECT_TRUE(window->planPanel()->acceptButton()->isEnabled());
     EXPECT_TRUE(window->results()->verdictText().isEmpty());
+    for (const char *field : {"nameplate.rated_power_va", "session.winding_temperature_c"}) { // editable, and looks it
+        const QLineEdit *edit = window->setupForm()->quantityField(QLatin1String(field))->lineEdit();
+        EXPECT_FALSE(edit->isReadOnly()) << field;
+        EXPECT_NE(edit->palette().color(QPalette::Base), edit->palette().color(QPalette::Window)) << field;
+    }
     shoot(*window, QStringLiteral("after-new"));
 
     // Or from a chosen setup file: opened over a signed session, it starts a new session from
@@ -284,8 +290,12 @@ TEST(SessionIntegrityWindow, SignedSessionIsReadOnlyUntilReopenedWithAReason)
     EXPECT_FALSE(window->planPanel()->acceptButton()->isEnabled());
     // The session's details and the verdict settings show the file and take no edits.
     for (const char *field : {"session.ambient_temperature_c", "session.winding_temperature_c", "verdict.regulation_limit_percent",
-                              "nameplate.rated_power_va"})
-        EXPECT_TRUE(window->setupForm()->quantityField(QLatin1String(field))->lineEdit()->isReadOnly()) << field;
+                              "nameplate.rated_power_va"}) {
+        const QLineEdit *edit = window->setupForm()->quantityField(QLatin1String(field))->lineEdit();
+        EXPECT_TRUE(edit->isReadOnly()) << field;
+        // and looks it: no white box to type into (ui/ReadOnlyLook)
+        EXPECT_EQ(edit->palette().color(QPalette::Base), edit->palette().color(QPalette::Window)) << field;
+    }
     EXPECT_FALSE(window->sessionBand()->resumeButton()->isVisibleTo(window.get()));
     const int last = window->readingsModel()->rowCount() - 1;
     const QString before = window->results()->value("regulation");
