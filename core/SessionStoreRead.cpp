@@ -316,14 +316,10 @@ StoreResult<std::vector<SignOffRecord>> SessionStore::signOffs() const
 StoreResult<ReadingRecorders> SessionStore::readingRecorders() const
 {
     using Result = StoreResult<ReadingRecorders>;
-    const auto count = readingCount();
-    if (!count.ok())
-        return Result::failure(count.status());
     SqliteStatement query;
     int rc = query.prepare(m_db.get(), "SELECT person, os_account FROM reading ORDER BY id");
     Result result;
-    ReadingRecorders &recorders = result.value;
-    recorders.byReading.reserve(static_cast<std::size_t>(std::max<std::int64_t>(count.value, 0)));
+    ReadingRecorders &recorders = result.value; // 4 bytes a reading: growing is cheap, no count needed
     // Readings come in runs by one person: the previous reading's recorder is tried first, the
     // map only on a change (a hostile file with a new name on every row stays linear).
     std::unordered_map<std::string, std::uint32_t> indexOf;

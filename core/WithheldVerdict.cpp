@@ -1,6 +1,7 @@
 #include "WithheldVerdict.h"
 
 #include <cctype>
+#include <utility>
 
 namespace sagline {
 
@@ -16,6 +17,13 @@ std::string withFirstLetter(std::string text, bool upper)
 }
 
 } // namespace
+
+std::string partialDataWords(const SessionProgress &progress)
+{
+    return progress.state == Completeness::InProgress ? "on the data so far" : "on the partial data";
+}
+
+std::string withLowerFirstLetter(std::string text) { return withFirstLetter(std::move(text), false); }
 
 template <typename Json>
 Json progressJson(const SessionProgress &progress)
@@ -50,9 +58,8 @@ void withholdVerdict(Json &verdict, const SessionProgress &progress)
     withhold(verdict);
     // The explanation spoke of the partial data as if it were the verdict ("Judged on 4 limits").
     if (verdict.contains("explanation") && verdict["explanation"].is_string())
-        verdict["explanation"] = withheldVerdictHeadline(progress)
-                                 + (running ? ". On the data so far: " : ". On the partial data: ")
-                                 + withFirstLetter(verdict["explanation"].template get<std::string>(), false);
+        verdict["explanation"] = withheldVerdictHeadline(progress) + ". " + withFirstLetter(partialDataWords(progress), true)
+                                 + ": " + withLowerFirstLetter(verdict["explanation"].template get<std::string>());
     if (verdict.contains("limits") && verdict["limits"].is_array())
         for (Json &limit : verdict["limits"])
             withhold(limit);

@@ -24,6 +24,13 @@ Json progressJson(const SessionProgress &progress);
 template <typename Json>
 void withholdVerdict(Json &verdict, const SessionProgress &progress);
 
+// "on the partial data", or "on the data so far" while the sweep runs: what the partial results
+// are introduced with, in the JSON explanation and in `fit`'s text.
+std::string partialDataWords(const SessionProgress &progress);
+
+// The text with its first letter lower-cased, to follow a colon ("Judged on …" → "judged on …").
+std::string withLowerFirstLetter(std::string text);
+
 // "Incomplete (3 of 9 steps; safety stop at step 4 (output-va)): no verdict", or
 // "Provisional (3 of 9 steps): no verdict yet"; "" when complete.
 std::string withheldVerdictHeadline(const SessionProgress &progress);

@@ -10,7 +10,6 @@
 #include "WithheldVerdict.h"
 
 #include <algorithm>
-#include <cctype>
 #include <functional>
 
 namespace sagline::cli {
@@ -183,13 +182,8 @@ void printVerdict(const SpecificationVerdict &v, const std::optional<SessionProg
     // follows, labelled, never on the Verdict line.
     const bool withheld = progress && !progress->isComplete();
     if (withheld) {
-        std::string explanation = v.explanation;
-        if (!explanation.empty())
-            explanation.front() = static_cast<char>(std::tolower(static_cast<unsigned char>(explanation.front())));
         row("Verdict", withheldVerdictHeadline(*progress));
-        row("", std::string("For information only, ") +
-                    (progress->state == Completeness::InProgress ? "on the data so far" : "on the partial data") + where +
-                    ": " + explanation);
+        row("", "For information only, " + partialDataWords(*progress) + where + ": " + withLowerFirstLetter(v.explanation));
     } else {
         row("Verdict", outcomeWords(v.outcome) + where);
         row("", v.explanation);
