@@ -218,6 +218,26 @@ void fitReadingsProductHeap(benchmark::State &state)
     state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
 }
 BENCHMARK(fitReadingsProductHeap)->Arg(100000)->Arg(million)->Unit(benchmark::kMillisecond);
+
+// The same fit of readings held as columns, as `sagline-cli fit FILE.csv` calls it (the CSV is
+// read straight into columns), on the programs' heap. Own process (bench/run-separately.sh).
+void fitColumnsProductHeap(benchmark::State &state)
+{
+    adviseLargePagesForHeap();
+    const Data &d = data(static_cast<std::size_t>(state.range(0)));
+    ReadingColumns columns;
+    columns.reserve(d.x.size());
+    for (std::size_t i = 0; i < d.x.size(); ++i) {
+        Reading reading;
+        reading.currentA = d.x[i];
+        reading.voltageV = d.y[i];
+        columns.append(reading);
+    }
+    for (auto _ : state)
+        benchmark::DoNotOptimize(fitReadings(columns, FitMethod::Ols));
+    state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
+}
+BENCHMARK(fitColumnsProductHeap)->Arg(100000)->Arg(million)->Unit(benchmark::kMillisecond);
 #endif
 
 } // namespace

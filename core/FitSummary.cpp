@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 namespace sagline {
 
@@ -142,10 +143,18 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
 }
 
 // Two-pass weighted line: means first, then centred sums (the accurate batch form). The
-// status (all currents equal, overflow) comes from the same test the live fit applies.
-LineFitResult batchLine(const FitInput &input, bool absoluteWeights)
+// status (all currents equal, overflow) comes from the same test the live fit applies. The
+// standard errors wait for the residual pass of fitRows (standardErrors), which sums Σw·e².
+struct CentredLine {
+    LineFitResult line;      // status, slope, intercept, means, sxx
+    double sumW = 0.0;       // Σ w
+    double syy = 0.0;        // Σ w (y - ȳ)², the total sum of squares
+};
+
+CentredLine centredLine(const FitInput &input)
 {
-    LineFitResult r;
+    CentredLine c;
+    LineFitResult &r = c.line;
     r.n = input.x.size();
     r.degreesOfFreedom = static_cast<int>(r.n) - 2;
     double sumW = 0.0, meanX = 0.0, meanY = 0.0, maxAbsX = 0.0;
@@ -167,41 +176,42 @@ LineFitResult batchLine(const FitInput &input, bool absoluteWeights)
     }
     r.meanX = meanX;
     r.meanY = meanY;
+    c.sumW = sumW;
+    c.syy = syy;
     if (!lineFromCentredSums(r, sxx, sxy, syy, sumW, maxAbsX))
-        return r;
+        return c;
     r.slope = sxy / sxx;
     r.intercept = meanY - r.slope * meanX;
     r.sxx = sxx;
-    double ssr = 0.0;
-    for (std::size_t i = 0; i < input.x.size(); ++i) {
-        const double e = input.y[i] - r.intercept - r.slope * input.x[i];
-        ssr += input.weights[i] * e * e;
-    }
-    r.rSquared.reset();
-    if (syy > 0.0) // syy is Σ w (y - ȳ)², the total sum of squares
-        r.rSquared = std::clamp(1.0 - ssr / syy, 0.0, 1.0);
-    const std::size_t n = input.x.size();
+    return c;
+}
+
+// The line's standard errors from its residual sum of squares ssr = Σ w e²: absolute weights
+// (WLS) from the weights alone; unit weights (OLS) from the scatter, n >= 3.
+void standardErrors(FitSummary &summary, const CentredLine &c, double ssr, bool absoluteWeights)
+{
+    const LineFitResult &r = c.line;
+    const double sxx = r.sxx, meanX = r.meanX, sumW = c.sumW;
     if (absoluteWeights) {
-        r.slopeSe = std::sqrt(1.0 / sxx);
-        r.interceptSe = std::sqrt(1.0 / sumW + meanX * meanX / sxx);
-        r.covariance = -meanX / sxx;
-    } else if (n >= 3) {
-        const double s2 = ssr / static_cast<double>(n - 2);
-        r.residualSd = std::sqrt(s2);
-        r.slopeSe = std::sqrt(s2 / sxx);
-        r.interceptSe = std::sqrt(s2 * (1.0 / sumW + meanX * meanX / sxx));
-        r.covariance = -meanX * s2 / sxx;
+        summary.slopeSe = std::sqrt(1.0 / sxx);
+        summary.interceptSe = std::sqrt(1.0 / sumW + meanX * meanX / sxx);
+        summary.covariance = -meanX / sxx;
+    } else if (r.n >= 3) {
+        const double s2 = ssr / static_cast<double>(r.n - 2);
+        summary.slopeSe = std::sqrt(s2 / sxx);
+        summary.interceptSe = std::sqrt(s2 * (1.0 / sumW + meanX * meanX / sxx));
+        summary.covariance = -meanX * s2 / sxx;
     }
-    return r;
 }
 
 // What the per-point pass of fitRows works from: one value per used point, in input order.
+// (When every row is used these become the result's columns without a copy.)
 struct UsedPointResults {
-    std::vector<double> residuals;                   // V_i - (a + b·I_i), V
-    std::vector<std::optional<double>> studentized;  // shown (externally studentized)
-    std::vector<std::optional<double>> compared;     // what the outlier screen compared (empty:
-                                                     // the studentized residuals, one pass)
-    std::vector<bool> flagged;                       // the screen's flags
+    std::vector<double> residuals;   // V_i - (a + b·I_i), V
+    std::vector<double> studentized; // shown (externally studentized); NaN where none
+    std::vector<double> compared;    // what the outlier screen compared (empty: the studentized
+                                     // residuals, one pass)
+    std::vector<std::size_t> flagged; // the screen's flags, ascending
 };
 
 // Studentized residuals (information) and the outlier screen over the used points. sums are the
@@ -231,7 +241,8 @@ void screen(FitSummary &summary, const FitInput &input, const FitOptions &option
     summary.outlierScreening =
         screenResiduals(input.x, results.residuals, input.weights, sigma,
                         stated ? std::max(summary.scatterFloorV, numericFloorV) : studentFloor, options.outlierScreen,
-                        results.compared, results.flagged, stated ? nullptr : &results.studentized);
+                        results.compared, results.flagged,
+                        stated ? std::span<const double>() : std::span<const double>(results.studentized));
 }
 
 } // namespace
@@ -306,11 +317,12 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
                        "a line needs at least 2 fitted readings, got " + std::to_string(n)
                            + (readings.size() > n ? " (the others are excluded or flagged)" : ""));
 
+    CentredLine line; // OLS and WLS: the line's own sums, which the per-point pass reuses
     if (method == FitMethod::York) {
         YorkOptions york;
         york.maxIterations = options.yorkMaxIterations;
         york.tolerance = options.yorkTolerance;
-        const YorkFitResult r = yorkFit(input.x, input.y, input.sx, input.sy, {}, york);
+        YorkFitResult r = yorkFit(input.x, input.y, input.sx, input.sy, {}, york);
         if (!r.ok())
             return failure(std::move(summary), r.status, r.message);
         summary.slope = r.slope;
@@ -319,18 +331,16 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
         summary.interceptSe = r.interceptSe;
         summary.covariance = r.covariance;
         summary.iterations = r.iterations;
-        input.weights = r.weights;
+        input.weights = std::move(r.weights);
         if (n >= 3)
             summary.chiSquared = r.chiSquared;
     } else {
-        const LineFitResult r = batchLine(input, method == FitMethod::Wls);
+        line = centredLine(input);
+        const LineFitResult &r = line.line;
         if (!r.ok())
             return failure(std::move(summary), r.status, r.message);
         summary.slope = r.slope;
         summary.intercept = r.intercept;
-        summary.slopeSe = r.slopeSe;
-        summary.interceptSe = r.interceptSe;
-        summary.covariance = r.covariance;
     }
     summary.status = FitStatus::Ok;
     // The curvature check first: its working matrices are gone before the per-point results
@@ -343,31 +353,48 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
         }
     }
 
-    // One pass over the used points: residuals and the sums, each added in input order as
-    // before (the same numbers); a second for the centred sums.
+    // One pass over the used points: the residuals and their sums. OLS and WLS take Σw, the
+    // means, Sxx and SST from the line's own two passes (the same sums, added in the same order);
+    // York's weights are its own, so their sums are taken here.
     UsedPointResults used;
     used.residuals.resize(n);
+    const bool york = method == FitMethod::York;
     double sumW = 0.0, sumWY = 0.0, sumWX = 0.0, ssrPlain = 0.0, ssrWeighted = 0.0, maxAbsY = 0.0, meanW = 0.0;
     const bool stated = input.allStated;
-    for (std::size_t i = 0; i < n; ++i) {
-        const double w = input.weights[i];
-        const double e = input.y[i] - summary.intercept - summary.slope * input.x[i];
-        used.residuals[i] = e;
-        sumW += w;
-        sumWY += w * input.y[i];
-        sumWX += w * input.x[i];
-        ssrPlain += e * e;
-        ssrWeighted += w * e * e;
-        maxAbsY = std::max(maxAbsY, std::fabs(input.y[i]));
-        meanW += w / static_cast<double>(n);
+    {
+        const double a = summary.intercept, b = summary.slope, count = static_cast<double>(n);
+        const double *x = input.x.data(), *y = input.y.data(), *w = input.weights.data();
+        double *residuals = used.residuals.data();
+        for (std::size_t i = 0; i < n; ++i) {
+            const double e = y[i] - a - b * x[i];
+            residuals[i] = e;
+            ssrPlain += e * e;
+            ssrWeighted += w[i] * e * e;
+            maxAbsY = std::max(maxAbsY, std::fabs(y[i]));
+            meanW += w[i] / count;
+        }
     }
-    const double meanY = sumWY / sumW;
-    const double meanX = sumWX / sumW;
-    double sst = 0.0, sxx = 0.0;
-    for (std::size_t i = 0; i < n; ++i) {
-        const double w = input.weights[i];
-        sst += w * (input.y[i] - meanY) * (input.y[i] - meanY);
-        sxx += w * (input.x[i] - meanX) * (input.x[i] - meanX);
+    double sst = 0.0, sxx = 0.0, meanX = 0.0;
+    if (york) {
+        for (std::size_t i = 0; i < n; ++i) {
+            const double w = input.weights[i];
+            sumW += w;
+            sumWY += w * input.y[i];
+            sumWX += w * input.x[i];
+        }
+        const double meanY = sumWY / sumW;
+        meanX = sumWX / sumW;
+        for (std::size_t i = 0; i < n; ++i) {
+            const double w = input.weights[i];
+            sst += w * (input.y[i] - meanY) * (input.y[i] - meanY);
+            sxx += w * (input.x[i] - meanX) * (input.x[i] - meanX);
+        }
+    } else {
+        sumW = line.sumW;
+        meanX = line.line.meanX;
+        sxx = line.line.sxx;
+        sst = line.syy;
+        standardErrors(summary, line, ssrWeighted, method == FitMethod::Wls);
     }
     if (sst > 0.0)
         summary.rSquared = std::clamp(1.0 - ssrWeighted / sst, 0.0, 1.0);
@@ -390,28 +417,46 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
     summary.sxx = sxx;
     screen(summary, input, options, ResidualSums{sumW, meanX, sxx, ssrWeighted}, maxAbsY, meanW, stated, used);
 
-    // One result per input row, written once: a used row from the vectors above, any other
-    // row's residual from its own values.
-    summary.points.reserve(readings.size());
+    // One result per input row. Every row used (the common case): the used points' columns are
+    // the rows' columns, moved. Otherwise used rows take theirs and any other row's residual
+    // comes from its own values.
+    PointFits &points = summary.points;
+    if (n == readings.size()) {
+        points.residualV = std::move(used.residuals);
+        points.studentized = std::move(used.studentized);
+        points.screening = std::move(used.compared);
+        points.state.assign(n, PointFits::used);
+        for (std::size_t i : used.flagged) {
+            points.state[i] |= PointFits::outlier;
+            summary.outlierRows.push_back(i);
+        }
+        return summary;
+    }
+    const std::size_t rows = readings.size();
+    points.residualV.resize(rows);
+    points.studentized.assign(rows, std::numeric_limits<double>::quiet_NaN());
+    if (!used.compared.empty())
+        points.screening.assign(rows, std::numeric_limits<double>::quiet_NaN());
+    points.state.assign(rows, 0);
     std::size_t next = 0; // the next used point
-    for (std::size_t row = 0; row < readings.size(); ++row) {
-        PointFit point;
-        point.row = row;
+    for (std::size_t row = 0; row < rows; ++row) {
         if (next < n && input.rowOf(next) == row) {
-            point.used = true;
-            point.residualV = used.residuals[next];
-            point.studentized = used.studentized[next];
-            point.screeningStatistic = used.compared.empty() ? used.studentized[next] : used.compared[next];
-            point.outlier = used.flagged[next];
-            if (point.outlier)
-                summary.outlierRows.push_back(row);
+            points.residualV[row] = used.residuals[next];
+            points.studentized[row] = used.studentized[next];
+            if (!used.compared.empty())
+                points.screening[row] = used.compared[next];
+            points.state[row] = PointFits::used;
             ++next;
         } else {
             const RowValues reading = readings[row];
-            if (std::isfinite(reading.currentA) && std::isfinite(reading.voltageV))
-                point.residualV = reading.voltageV - summary.intercept - summary.slope * reading.currentA;
+            points.residualV[row] = std::isfinite(reading.currentA) && std::isfinite(reading.voltageV)
+                                        ? reading.voltageV - summary.intercept - summary.slope * reading.currentA
+                                        : 0.0;
         }
-        summary.points.push_back(point);
+    }
+    for (std::size_t i : used.flagged) {
+        points.state[input.rowOf(i)] |= PointFits::outlier;
+        summary.outlierRows.push_back(input.rowOf(i));
     }
     return summary;
 }

@@ -7,6 +7,7 @@
 #include "FitStatus.h"
 #include "LineFit.h"
 #include "OutlierScreen.h"
+#include "PointFits.h"
 #include "Reading.h"
 #include "Setup.h"
 
@@ -35,17 +36,6 @@ struct FitOptions {
     double confidence = 0.95;       // level of the interval of R and of predictions
     int yorkMaxIterations = 200;    // York: iterations before NotConverged
     double yorkTolerance = 1e-14;   // York: stop when |Δb/b| is below this
-};
-
-// What the fit says about one input row (readings[row]).
-// (Members ordered so the two flags share one word: 56 bytes a reading, not 64.)
-struct PointFit {
-    std::size_t row = 0;                 // index into the readings passed to fitReadings
-    double residualV = 0.0;              // V_i - (V0 - R·I_i), V (also for rows not used)
-    std::optional<double> studentized;   // externally studentized residual (used rows, n >= 4)
-    std::optional<double> screeningStatistic; // what the outlier screen compared (OutlierScreen.h)
-    bool used = false;                   // false: excluded, or flagged overload / not-a-number
-    bool outlier = false;                // |screeningStatistic| above the screen's critical value
 };
 
 struct FitSummary {
@@ -85,7 +75,7 @@ struct FitSummary {
     bool statedRandomUncertainty = false;
     double scatterFloorV = 0.0;          // resolution floor of the scatter (OutlierScreen.h), V
 
-    std::vector<PointFit> points;        // one per input row, in input order
+    PointFits points;                    // one per input row, in input order
     OutlierScreening outlierScreening;   // the rule, its critical value, or why not screened
     std::vector<std::size_t> outlierRows; // rows flagged as outliers, ascending
     std::optional<double> curvatureP;    // p-value of the quadratic term (n >= 4, 3+ distinct I)

@@ -5,10 +5,14 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 namespace sagline {
 
 namespace {
+
+// A statistic that does not exist for a point (PointFits.h reads it back as nullopt).
+constexpr double noStatistic = std::numeric_limits<double>::quiet_NaN();
 
 // The weighted line's centring sums: Σw, the weighted mean of x and Σw(x - x̄)².
 struct Centre {
@@ -35,7 +39,7 @@ Centre centreOf(std::span<const double> x, std::span<const double> w)
 // Var e_i = σ_i² (1 - 2 H_ii) + Σ_j H_ij² σ_j², whose sum takes three running sums (O(n)).
 // With w = 1/σ² it is σ_i² (1 - H_ii).
 void normalizedResiduals(std::span<const double> x, std::span<const double> e, std::span<const double> w,
-                         std::span<const double> sigma, double floorV, std::vector<std::optional<double>> &out)
+                         std::span<const double> sigma, double floorV, std::vector<double> &out)
 {
     const Centre c = centreOf(x, w);
     double a = 0.0, b = 0.0, q = 0.0; // Σ w²σ², Σ w²σ² d, Σ w²σ² d²
@@ -53,31 +57,32 @@ void normalizedResiduals(std::span<const double> x, std::span<const double> e, s
         const double s2 = sigmaOf(i) * sigmaOf(i);
         const double spread = a / (c.sumW * c.sumW) + 2.0 * d * b / (c.sumW * c.sxx) + d * d * q / (c.sxx * c.sxx);
         const double variance = s2 * (1.0 - 2.0 * hii) + spread;
-        out[i] = variance > 1e-30 * s2 && hii < 1.0 - 1e-12 ? std::optional<double>(e[i] / std::sqrt(variance))
-                                                             : std::nullopt;
+        out[i] = variance > 1e-30 * s2 && hii < 1.0 - 1e-12 ? e[i] / std::sqrt(variance) : noStatistic;
     }
 }
 
 // Externally studentized residuals t_i = sqrt(w_i) e_i / (s_(i) sqrt(1 - h_i)), where s_(i) is the
-// scatter without point i ((n-2)s² - w_i e_i²/(1 - h_i))/(n-3), floored by floorV.
+// scatter without point i ((n-2)s² - w_i e_i²/(1 - h_i))/(n-3), floored by floorV. NaN where the
+// line passes through the point by construction (h_i = 1) or no floor and no scatter is left.
+// Written without branches, in the same arithmetic as ever (the same numbers to the last bit).
 void studentized(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
-                 const ResidualSums &c, std::vector<std::optional<double>> &out)
+                 const ResidualSums &c, std::vector<double> &out)
 {
     const std::size_t n = x.size();
-    const double ssr = c.ssr;
+    // Locals, so the stores to out cannot alias the sums (which would stop the vectorizer).
+    const double ssr = c.ssr, sumW = c.sumW, meanX = c.meanX, sxx = c.sxx;
     const double dof = static_cast<double>(n) - 2.0;
+    const double *px = x.data(), *pe = e.data(), *pw = w.data();
+    double *po = out.data();
     for (std::size_t i = 0; i < n; ++i) {
-        const double d = x[i] - c.meanX;
-        const double hii = w[i] * (1.0 / c.sumW + d * d / c.sxx);
-        if (!(hii < 1.0 - 1e-12))
-            continue; // the line passes through this point by construction
-        const double without = (ssr - w[i] * e[i] * e[i] / (1.0 - hii)) / (dof - 1.0);
-        double s = std::sqrt(std::max(0.0, without));
-        if (s < floorV)
-            s = floorV;
-        if (!(s > 0.0))
-            continue; // no floor and no scatter left: no ratio to form
-        out[i] = std::sqrt(w[i]) * e[i] / (s * std::sqrt(1.0 - hii));
+        const double d = px[i] - meanX;
+        const double hii = pw[i] * (1.0 / sumW + d * d / sxx);
+        const double without = (ssr - pw[i] * pe[i] * pe[i] / (1.0 - hii)) / (dof - 1.0);
+        const double root = std::sqrt(without > 0.0 ? without : 0.0);
+        const double s = root < floorV ? floorV : root;
+        const double t = std::sqrt(pw[i]) * pe[i] / (s * std::sqrt(1.0 - hii));
+        const bool defined = (hii < 1.0 - 1e-12) & (s > 0.0);
+        po[i] = defined ? t : noStatistic;
     }
 }
 
@@ -91,7 +96,7 @@ ResidualSums sumsOf(std::span<const double> x, std::span<const double> e, std::s
 }
 
 void studentized(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
-                 std::vector<std::optional<double>> &out)
+                 std::vector<double> &out)
 {
     studentized(x, e, w, floorV, sumsOf(x, e, w), out);
 }
@@ -112,18 +117,18 @@ std::string shortNumber(double value)
 
 void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
                                     std::span<const double> weights, double floor,
-                                    std::vector<std::optional<double>> &statistics)
+                                    std::vector<double> &statistics)
 {
-    statistics.assign(x.size(), std::nullopt);
+    statistics.assign(x.size(), noStatistic);
     if (x.size() >= 4)
         studentized(x, residuals, weights, floor, statistics);
 }
 
 void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
                                     std::span<const double> weights, double floor, const ResidualSums &sums,
-                                    std::vector<std::optional<double>> &statistics)
+                                    std::vector<double> &statistics)
 {
-    statistics.assign(x.size(), std::nullopt);
+    statistics.assign(x.size(), noStatistic);
     if (x.size() >= 4)
         studentized(x, residuals, weights, floor, sums, statistics);
 }
@@ -139,9 +144,9 @@ namespace {
 
 // The statistic of every point of one pass (the active points only).
 void passStatistics(bool known, std::span<const double> x, std::span<const double> e, std::span<const double> w,
-                    std::span<const double> sigma, double floorV, std::vector<std::optional<double>> &out)
+                    std::span<const double> sigma, double floorV, std::vector<double> &out)
 {
-    out.assign(x.size(), std::nullopt);
+    out.assign(x.size(), noStatistic);
     if (known && x.size() >= 3)
         normalizedResiduals(x, e, w, sigma, floorV, out);
     else if (!known && x.size() >= 4)
@@ -174,11 +179,11 @@ void refitResiduals(std::vector<double> &x, std::vector<double> &e, const std::v
 OutlierScreening screenResiduals(std::span<const double> x, std::span<const double> residuals,
                                  std::span<const double> weights, std::span<const double> knownSigmaV,
                                  double scatterFloorV, const OutlierScreenOptions &options,
-                                 std::vector<std::optional<double>> &statistics, std::vector<bool> &flagged,
-                                 const std::vector<std::optional<double>> *firstPass)
+                                 std::vector<double> &statistics, std::vector<std::size_t> &flagged,
+                                 std::span<const double> firstPass)
 {
     const std::size_t n = x.size();
-    flagged.assign(n, false);
+    flagged.clear();
     OutlierScreening screening;
     const bool known = !knownSigmaV.empty();
     const double floorV = std::isfinite(scatterFloorV) && scatterFloorV > 0.0 ? scatterFloorV : 0.0;
@@ -191,12 +196,12 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
         screening.rule = "externally studentized residual (n - 3 degrees of freedom"
                          + std::string(floorV > 0.0 ? ", scatter floored by the resolution" : "")
                          + "), against t(1 - α/(2n), n - 3) (" + family + ")" + sequence;
-    const bool given = firstPass && !known && firstPass->size() == n;
+    const bool given = !known && !firstPass.empty() && firstPass.size() == n;
     if (given)
         statistics.clear();
     else
         passStatistics(known, x, residuals, weights, knownSigmaV, floorV, statistics);
-    const std::vector<std::optional<double>> &first = given ? *firstPass : statistics;
+    const std::span<const double> first = given ? firstPass : std::span<const double>(statistics);
     if (n < options.minimumPoints) {
         screening.reason = "too few points to screen (" + std::to_string(n) + "; the screen needs "
                            + std::to_string(options.minimumPoints) + ")";
@@ -209,27 +214,30 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
     // with a known σ, every other residual) past the critical value.
     // The first pass reads statistics itself; the points still active and their copies exist
     // only once a point is flagged (a clean million-point sweep needs none of them).
-    const auto largestBeyond = [](const std::vector<std::optional<double>> &values, double critical) {
+    // (NaN, no statistic, is never beyond: every comparison with it is false.)
+    const auto largestBeyond = [](std::span<const double> values, double critical) {
         std::optional<std::size_t> worst;
+        double largest = critical;
         for (std::size_t k = 0; k < values.size(); ++k)
-            if (values[k] && std::fabs(*values[k]) > critical
-                && (!worst || std::fabs(*values[k]) > std::fabs(*values[*worst])))
+            if (std::fabs(values[k]) > largest) {
+                largest = std::fabs(values[k]);
                 worst = k;
+            }
         return worst;
     };
     const std::optional<std::size_t> firstWorst = largestBeyond(first, *screening.criticalValue);
     if (!firstWorst)
         return screening;
-    flagged[*firstWorst] = true;
+    flagged.push_back(*firstWorst);
     if (given)
-        statistics = *firstPass; // the later passes replace the active points' values
+        statistics.assign(firstPass.begin(), firstPass.end()); // the later passes replace the active points' values
     std::vector<std::size_t> active;
     active.reserve(n - 1);
     for (std::size_t i = 0; i < n; ++i)
         if (i != *firstWorst)
             active.push_back(i);
     std::vector<double> ax, ae, aw, as;
-    std::vector<std::optional<double>> passed;
+    std::vector<double> passed;
     while (active.size() >= options.minimumPoints) {
         ax.clear(), ae.clear(), aw.clear(), as.clear();
         for (std::size_t i : active) {
@@ -247,9 +255,10 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
             largestBeyond(passed, criticalValue(known, active.size(), options.familyAlpha));
         if (!worst)
             break;
-        flagged[active[*worst]] = true;
+        flagged.push_back(active[*worst]);
         active.erase(active.begin() + static_cast<std::ptrdiff_t>(*worst));
     }
+    std::sort(flagged.begin(), flagged.end());
     return screening;
 }
 

@@ -46,14 +46,15 @@ struct OutlierScreening {
 // Inputs are the used points only, in the same order: x (A), residuals e_i (V), the weights the
 // fit used (1 for OLS), and knownSigmaV (σ_i of each residual in V, empty when unknown).
 // slope is the fitted slope (V/A); scatterFloorV the smallest credible scatter from the
-// resolution (0 when unknown). statistics receives one value per point (nullopt where the
-// statistic does not exist); flagged receives one bool per point.
+// resolution (0 when unknown). statistics receives one value per point (NaN where the
+// statistic does not exist: read it with statisticOrNone, PointFits.h); flagged receives the
+// indices of the flagged points, ascending.
 OutlierScreening screenResiduals(std::span<const double> x, std::span<const double> residuals,
                                  std::span<const double> weights, std::span<const double> knownSigmaV,
                                  double scatterFloorV, const OutlierScreenOptions &options,
-                                 std::vector<std::optional<double>> &statistics, std::vector<bool> &flagged,
-                                 const std::vector<std::optional<double>> *firstPass = nullptr);
-// firstPass (knownSigmaV empty): the externally studentized residuals the caller computed with the
+                                 std::vector<double> &statistics, std::vector<std::size_t> &flagged,
+                                 std::span<const double> firstPass = {});
+// firstPass (knownSigmaV empty, one per point): the externally studentized residuals the caller computed with the
 // same weights and floor, read as the first pass instead of computing them again. statistics then
 // stays empty unless a point is flagged and the rest screened again (the values are firstPass's).
 
@@ -66,14 +67,15 @@ struct ResidualSums {
     double ssr = 0.0;
 };
 
-// The externally studentized residuals alone (n >= 4; nullopt where the point fixes the line):
+// The externally studentized residuals alone (n >= 4; NaN where the point fixes the line or
+// no scatter is left):
 // sqrt(w_i) e_i / (s_(i) sqrt(1 - h_i)), s_(i) the scatter without point i, floored by floor.
 void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
                                     std::span<const double> weights, double floor,
-                                    std::vector<std::optional<double>> &statistics);
+                                    std::vector<double> &statistics);
 void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
                                     std::span<const double> weights, double floor, const ResidualSums &sums,
-                                    std::vector<std::optional<double>> &statistics);
+                                    std::vector<double> &statistics);
 
 // The smallest scatter of V about the line that rounding alone gives: voltmeter and ammeter
 // resolution δ as rectangular errors (δ/sqrt(12), GUM F.2.2.1), the current's through the

@@ -1,6 +1,7 @@
 // One recorded point: a paired secondary current and voltage with its provenance.
 #pragma once
 
+#include <cstddef>
 #include <cstdint>
 #include <optional>
 #include <string>
@@ -40,19 +41,22 @@ struct PrimaryReading {
     bool hasAny() const { return voltageV || currentA || powerW || powerFactor || reactivePowerVar; }
 };
 
-struct Reading {
-    std::int64_t id = 0;             // session-store row id; 0 before it is stored
-    int step = -1;                   // plan step index, -1 when not part of a plan
+// What the fit reads of a reading comes first and fits in one 64-byte cache line (the struct is
+// aligned to one): fitting a million readings then reads 64 MB of them, not three lines each.
+struct alignas(64) Reading {
     double currentA = 0.0;           // secondary current, A RMS
     double voltageV = 0.0;           // secondary voltage, V RMS
     std::optional<double> uCurrentA; // standard uncertainty of currentA, A
     std::optional<double> uVoltageV; // standard uncertainty of voltageV, V
-    std::string timeUtc;             // ISO 8601, e.g. 2026-12-02T10:15:03.250Z
     std::uint32_t flags = flagNone;
-    std::string rawText;             // the instruments' own text for this point
     bool excluded = false;           // left out of the fit: excluded, or superseded (reasons in the store)
     bool superseded = false;         // replaced by a retake of its step (then also `excluded`)
+    int step = -1;                   // plan step index, -1 when not part of a plan
+    std::int64_t id = 0;             // session-store row id; 0 before it is stored
+    std::string timeUtc;             // ISO 8601, e.g. 2026-12-02T10:15:03.250Z
+    std::string rawText;             // the instruments' own text for this point
     PrimaryReading primary;          // the primary side, when its meters were read
 };
+static_assert(offsetof(Reading, superseded) < 64, "the fitted fields share the first cache line");
 
 } // namespace sagline

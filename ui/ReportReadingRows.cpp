@@ -12,8 +12,8 @@ bool isNoteworthyReading(const SessionSummary &summary, std::size_t row)
         return true;
     if (!summary.fit.ok())
         return false; // without a fit nothing is "not fitted" or an outlier in particular
-    const PointFit *point = row < summary.fit.points.size() ? &summary.fit.points[row] : nullptr;
-    return point == nullptr || !point->used || point->outlier;
+    const std::optional<PointFit> point = summary.fit.points.atRow(row);
+    return !point || !point->used || point->outlier;
 }
 
 ReadingRowSelection selectReportRows(const SessionSummary &summary, const ReadingRowLimits &limits)

@@ -34,10 +34,10 @@ enum class PointRole { Used, Outlier, Excluded, NotFitted };
 PointRole roleOf(const SessionSummary &summary, std::size_t row)
 {
     const Reading &reading = summary.readings[row];
-    const PointFit *point = row < summary.fit.points.size() ? &summary.fit.points[row] : nullptr;
+    const std::optional<PointFit> point = summary.fit.points.atRow(row);
     if (reading.excluded)
         return PointRole::Excluded;
-    if (point == nullptr || !point->used)
+    if (!point || !point->used)
         return PointRole::NotFitted;
     return point->outlier ? PointRole::Outlier : PointRole::Used;
 }
@@ -169,7 +169,7 @@ void drawReadingsTable(ReportCanvas &canvas, const SessionSummary &summary)
         }
         previous = row;
         const Reading &r = summary.readings[row];
-        const PointFit *point = row < summary.fit.points.size() ? &summary.fit.points[row] : nullptr;
+        const std::optional<PointFit> point = summary.fit.points.atRow(row);
         QString status;
         switch (roleOf(summary, row)) {
         case PointRole::Used: status = QStringLiteral("used"); break;
@@ -184,7 +184,7 @@ void drawReadingsTable(ReportCanvas &canvas, const SessionSummary &summary)
             break;
         case PointRole::NotFitted: status = QStringLiteral("not fitted"); break;
         }
-        const bool hasResidual = point != nullptr && summary.fit.ok() && std::isfinite(r.currentA);
+        const bool hasResidual = point.has_value() && summary.fit.ok() && std::isfinite(r.currentA);
         // Numbered as the window and sagline-cli number readings (from 1, in recording order).
         rows.append({QString::number(row + 1), r.step >= 0 ? QString::number(r.step) : QString(),
                      r.timeUtc.size() >= 19 ? q(r.timeUtc.substr(11, 8)) : q(r.timeUtc), fixed(r.currentA, 4),

@@ -426,7 +426,7 @@ void writeFitReportJson(const FitReport &report, std::ostream &out)
     const std::string_view placeholder = "\n  \"points\": []";
     // A newline inside a string is escaped, so this text occurs once: where the key is.
     const std::size_t at = text.find(placeholder);
-    const std::vector<PointFit> &points = report.fit.points;
+    const PointFits &points = report.fit.points;
     if (at == std::string::npos || points.empty()) {
         out << text << '\n';
         return;
