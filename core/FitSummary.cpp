@@ -19,7 +19,7 @@ struct FitInput {
     std::vector<std::size_t> rows;
     std::size_t rowOf(std::size_t i) const { return rows.empty() ? i : rows[i]; }
     std::vector<double> x, y, sx, sy;
-    std::vector<double> weights;
+    std::vector<double> weights;      // empty for OLS: every weight is 1
     std::vector<char> hasUI;          // the reading stated u_current_a
     // Every used reading stated u_voltage_v. sx, sy and hasUI are filled only while this holds
     // (OLS needs them only then, for the screen's σ): a CSV without uncertainties touches no
@@ -85,8 +85,10 @@ template <typename Rows>
 FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, std::string &message)
 {
     // At most one entry per reading: reserved once, so a million readings grow no vector.
-    for (auto *column : {&input.x, &input.y, &input.sx, &input.sy, &input.weights})
+    for (auto *column : {&input.x, &input.y, &input.sx, &input.sy})
         column->reserve(readings.size());
+    if (method != FitMethod::Ols)
+        input.weights.reserve(readings.size());
     input.hasUI.reserve(readings.size());
     for (std::size_t row = 0; row < readings.size(); ++row) {
         const RowValues reading = readings[row];
@@ -126,7 +128,8 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
         }
         input.x.push_back(reading.currentA);
         input.y.push_back(reading.voltageV);
-        input.weights.push_back(method == FitMethod::Wls ? 1.0 / (uV * uV) : 1.0);
+        if (method == FitMethod::Wls)
+            input.weights.push_back(1.0 / (uV * uV));
         if (input.allStated && !(reading.uVoltageV && std::isfinite(uV) && uV > 0.0)) {
             input.allStated = false; // only OLS gets here (the others need u(V) > 0)
             input.sx.clear();
@@ -151,17 +154,20 @@ struct CentredLine {
     double syy = 0.0;        // Σ w (y - ȳ)², the total sum of squares
 };
 
-CentredLine centredLine(const FitInput &input)
+// unit: OLS, every weight 1 (no weights stored), with the same arithmetic as stored ones.
+template <bool unit>
+CentredLine centredLineWith(const FitInput &input)
 {
+    const auto weight = [&](std::size_t i) { return unit ? 1.0 : input.weights[i]; };
     CentredLine c;
     LineFitResult &r = c.line;
     r.n = input.x.size();
     r.degreesOfFreedom = static_cast<int>(r.n) - 2;
     double sumW = 0.0, meanX = 0.0, meanY = 0.0, maxAbsX = 0.0;
     for (std::size_t i = 0; i < input.x.size(); ++i) {
-        sumW += input.weights[i];
-        meanX += input.weights[i] * input.x[i];
-        meanY += input.weights[i] * input.y[i];
+        sumW += weight(i);
+        meanX += weight(i) * input.x[i];
+        meanY += weight(i) * input.y[i];
         maxAbsX = std::max(maxAbsX, std::fabs(input.x[i]));
     }
     meanX /= sumW;
@@ -170,9 +176,9 @@ CentredLine centredLine(const FitInput &input)
     for (std::size_t i = 0; i < input.x.size(); ++i) {
         const double dx = input.x[i] - meanX;
         const double dy = input.y[i] - meanY;
-        sxx += input.weights[i] * dx * dx;
-        sxy += input.weights[i] * dx * dy;
-        syy += input.weights[i] * dy * dy;
+        sxx += weight(i) * dx * dx;
+        sxy += weight(i) * dx * dy;
+        syy += weight(i) * dy * dy;
     }
     r.meanX = meanX;
     r.meanY = meanY;
@@ -184,6 +190,11 @@ CentredLine centredLine(const FitInput &input)
     r.intercept = meanY - r.slope * meanX;
     r.sxx = sxx;
     return c;
+}
+
+CentredLine centredLine(const FitInput &input)
+{
+    return input.weights.empty() ? centredLineWith<true>(input) : centredLineWith<false>(input);
 }
 
 // The line's standard errors from its residual sum of squares ssr = Σ w e²: absolute weights
@@ -202,6 +213,32 @@ void standardErrors(FitSummary &summary, const CentredLine &c, double ssr, bool 
         summary.interceptSe = std::sqrt(s2 * (1.0 / sumW + meanX * meanX / sxx));
         summary.covariance = -meanX * s2 / sxx;
     }
+}
+
+// The residuals of the used points and their sums (plain and weighted Σe², max |y|, mean
+// weight), added in input order. unit: OLS, every weight 1 (none stored).
+template <bool unit>
+void residualPass(const FitInput &input, const FitSummary &summary, std::vector<double> &residuals, double &ssrPlain,
+                  double &ssrWeighted, double &maxAbsY, double &meanW)
+{
+    const std::size_t n = input.x.size();
+    const double a = summary.intercept, b = summary.slope, count = static_cast<double>(n);
+    const double *x = input.x.data(), *y = input.y.data(), *w = input.weights.data();
+    double *e = residuals.data();
+    double plain = 0.0, weighted = 0.0, largest = 0.0, mean = 0.0;
+    for (std::size_t i = 0; i < n; ++i) {
+        const double wi = unit ? 1.0 : w[i];
+        const double ei = y[i] - a - b * x[i];
+        e[i] = ei;
+        plain += ei * ei;
+        weighted += wi * ei * ei;
+        largest = std::max(largest, std::fabs(y[i]));
+        mean += wi / count;
+    }
+    ssrPlain = plain;
+    ssrWeighted = weighted;
+    maxAbsY = largest;
+    meanW = mean;
 }
 
 // What the per-point pass of fitRows works from: one value per used point, in input order.
@@ -361,19 +398,10 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
     const bool york = method == FitMethod::York;
     double sumW = 0.0, sumWY = 0.0, sumWX = 0.0, ssrPlain = 0.0, ssrWeighted = 0.0, maxAbsY = 0.0, meanW = 0.0;
     const bool stated = input.allStated;
-    {
-        const double a = summary.intercept, b = summary.slope, count = static_cast<double>(n);
-        const double *x = input.x.data(), *y = input.y.data(), *w = input.weights.data();
-        double *residuals = used.residuals.data();
-        for (std::size_t i = 0; i < n; ++i) {
-            const double e = y[i] - a - b * x[i];
-            residuals[i] = e;
-            ssrPlain += e * e;
-            ssrWeighted += w[i] * e * e;
-            maxAbsY = std::max(maxAbsY, std::fabs(y[i]));
-            meanW += w[i] / count;
-        }
-    }
+    if (input.weights.empty())
+        residualPass<true>(input, summary, used.residuals, ssrPlain, ssrWeighted, maxAbsY, meanW);
+    else
+        residualPass<false>(input, summary, used.residuals, ssrPlain, ssrWeighted, maxAbsY, meanW);
     double sst = 0.0, sxx = 0.0, meanX = 0.0;
     if (york) {
         for (std::size_t i = 0; i < n; ++i) {

@@ -14,6 +14,14 @@ namespace {
 // A statistic that does not exist for a point (PointFits.h reads it back as nullopt).
 constexpr double noStatistic = std::numeric_limits<double>::quiet_NaN();
 
+// The fit's weights; empty means unit weights (OLS), read as 1.0: exactly what stored ones give.
+struct Weights {
+    std::span<const double> values;
+    Weights(std::span<const double> v) : values(v) {}
+    Weights(const std::vector<double> &v) : values(v) {}
+    double operator[](std::size_t i) const { return values.empty() ? 1.0 : values[i]; }
+};
+
 // The weighted line's centring sums: Σw, the weighted mean of x and Σw(x - x̄)².
 struct Centre {
     double sumW = 0.0;
@@ -21,7 +29,7 @@ struct Centre {
     double sxx = 0.0;
 };
 
-Centre centreOf(std::span<const double> x, std::span<const double> w)
+Centre centreOf(std::span<const double> x, Weights w)
 {
     Centre c;
     for (std::size_t i = 0; i < x.size(); ++i) {
@@ -38,7 +46,7 @@ Centre centreOf(std::span<const double> x, std::span<const double> w)
 // e = (I - H) ε with H_ij = w_j (1/W + d_i d_j/Sxx), so
 // Var e_i = σ_i² (1 - 2 H_ii) + Σ_j H_ij² σ_j², whose sum takes three running sums (O(n)).
 // With w = 1/σ² it is σ_i² (1 - H_ii).
-void normalizedResiduals(std::span<const double> x, std::span<const double> e, std::span<const double> w,
+void normalizedResiduals(std::span<const double> x, std::span<const double> e, Weights w,
                          std::span<const double> sigma, double floorV, std::vector<double> &out)
 {
     const Centre c = centreOf(x, w);
@@ -65,8 +73,10 @@ void normalizedResiduals(std::span<const double> x, std::span<const double> e, s
 // scatter without point i ((n-2)s² - w_i e_i²/(1 - h_i))/(n-3), floored by floorV. NaN where the
 // line passes through the point by construction (h_i = 1) or no floor and no scatter is left.
 // Written without branches, in the same arithmetic as ever (the same numbers to the last bit).
-void studentized(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
-                 const ResidualSums &c, std::vector<double> &out)
+// unit: every weight is 1 (w is empty), with the same arithmetic as stored ones.
+template <bool unit>
+void studentizedWith(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
+                     const ResidualSums &c, std::vector<double> &out)
 {
     const std::size_t n = x.size();
     // Locals, so the stores to out cannot alias the sums (which would stop the vectorizer).
@@ -75,18 +85,28 @@ void studentized(std::span<const double> x, std::span<const double> e, std::span
     const double *px = x.data(), *pe = e.data(), *pw = w.data();
     double *po = out.data();
     for (std::size_t i = 0; i < n; ++i) {
+        const double wi = unit ? 1.0 : pw[i];
         const double d = px[i] - meanX;
-        const double hii = pw[i] * (1.0 / sumW + d * d / sxx);
-        const double without = (ssr - pw[i] * pe[i] * pe[i] / (1.0 - hii)) / (dof - 1.0);
+        const double hii = wi * (1.0 / sumW + d * d / sxx);
+        const double without = (ssr - wi * pe[i] * pe[i] / (1.0 - hii)) / (dof - 1.0);
         const double root = std::sqrt(without > 0.0 ? without : 0.0);
         const double s = root < floorV ? floorV : root;
-        const double t = std::sqrt(pw[i]) * pe[i] / (s * std::sqrt(1.0 - hii));
+        const double t = std::sqrt(wi) * pe[i] / (s * std::sqrt(1.0 - hii));
         const bool defined = (hii < 1.0 - 1e-12) & (s > 0.0);
         po[i] = defined ? t : noStatistic;
     }
 }
 
-ResidualSums sumsOf(std::span<const double> x, std::span<const double> e, std::span<const double> w)
+void studentized(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
+                 const ResidualSums &c, std::vector<double> &out)
+{
+    if (w.empty())
+        studentizedWith<true>(x, e, w, floorV, c, out);
+    else
+        studentizedWith<false>(x, e, w, floorV, c, out);
+}
+
+ResidualSums sumsOf(std::span<const double> x, std::span<const double> e, Weights w)
 {
     const Centre c = centreOf(x, w);
     ResidualSums sums{c.sumW, c.meanX, c.sxx, 0.0};
@@ -161,7 +181,7 @@ double criticalValue(bool known, std::size_t n, double familyAlpha)
 
 // Residuals of the active points about the line refitted without the points set aside: the
 // weighted line through (x, e) is the change of the fitted line, so e - (δa + δb·x).
-void refitResiduals(std::vector<double> &x, std::vector<double> &e, const std::vector<double> &w)
+void refitResiduals(std::vector<double> &x, std::vector<double> &e, Weights w)
 {
     const Centre c = centreOf(x, w);
     double meanE = 0.0, sxe = 0.0;
@@ -243,7 +263,7 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
         for (std::size_t i : active) {
             ax.push_back(x[i]);
             ae.push_back(residuals[i]);
-            aw.push_back(weights[i]);
+            aw.push_back(Weights(weights)[i]);
             if (known)
                 as.push_back(knownSigmaV[i]);
         }

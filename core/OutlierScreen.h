@@ -44,7 +44,7 @@ struct OutlierScreening {
 };
 
 // Inputs are the used points only, in the same order: x (A), residuals e_i (V), the weights the
-// fit used (1 for OLS), and knownSigmaV (σ_i of each residual in V, empty when unknown).
+// fit used (empty: every weight 1, as for OLS), and knownSigmaV (σ_i of each residual in V, empty when unknown).
 // slope is the fitted slope (V/A); scatterFloorV the smallest credible scatter from the
 // resolution (0 when unknown). statistics receives one value per point (NaN where the
 // statistic does not exist: read it with statisticOrNone, PointFits.h); flagged receives the
