@@ -300,7 +300,7 @@ LabSheetParse loadLabSheetFile(const std::string &path)
         out.errors.push_back(unreadableFileError(path, file.error));
         return out;
     }
-    const std::optional<std::string> &text = file.text;
+    const std::optional<FileText> &text = file.text;
     return parseLabSheetJson(*text);
 }
 

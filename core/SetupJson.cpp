@@ -562,7 +562,7 @@ SetupParse loadSetupFile(const std::string &path)
         out.errors.push_back(unreadableFileError(path, file.error));
         return out;
     }
-    const std::optional<std::string> &text = file.text;
+    const std::optional<FileText> &text = file.text;
     SetupParse out = parseSetupJson(*text);
     for (auto &error : out.errors) {
         if (error.field == "setup")

@@ -2,8 +2,9 @@
 
 #include <cerrno>
 #include <cstring>
-#include <fstream>
+#include <fcntl.h>
 #include <sys/stat.h>
+#include <unistd.h>
 
 namespace sagline {
 
@@ -33,30 +34,40 @@ TextFileRead readTextFile(const std::string &path, std::size_t maxBytes)
         return read;
     }
     const auto tooLarge = [&] {
-        read.text.reset();
-        read.error = "is larger than the " + sizeText(maxBytes) + " such a file may be";
-        return read;
+        return TextFileRead{std::nullopt, "is larger than the " + sizeText(maxBytes) + " such a file may be"};
     };
     if (static_cast<std::uintmax_t>(info.st_size) > maxBytes)
         return tooLarge();
-    std::ifstream in(path, std::ios::binary);
-    if (!in) {
+    const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
+    if (fd < 0) {
         read.error = "cannot be opened (permission?)";
         return read;
     }
     // At most one byte more than allowed is read: a file that grew meanwhile is still refused.
-    std::string text(static_cast<std::size_t>(info.st_size) + 1, '\0');
-    in.read(text.data(), static_cast<std::streamsize>(text.size()));
-    if (in.bad()) {
+    // new char[] leaves the bytes unset: read() writes every one that is kept.
+    const std::size_t capacity = static_cast<std::size_t>(info.st_size) + 1;
+    std::unique_ptr<char[]> bytes(new char[capacity]);
+    std::size_t size = 0;
+    bool failed = false;
+    while (size < capacity) {
+        const ssize_t got = ::read(fd, bytes.get() + size, capacity - size);
+        if (got < 0 && errno == EINTR)
+            continue;
+        if (got < 0)
+            failed = true;
+        if (got <= 0)
+            break;
+        size += static_cast<std::size_t>(got);
+    }
+    ::close(fd);
+    if (failed) {
         read.error = "read error";
         return read;
     }
-    text.resize(static_cast<std::size_t>(in.gcount()));
-    if (text.size() > maxBytes)
+    if (size > maxBytes)
         return tooLarge();
-    if (text.size() >= 3 && text.compare(0, 3, "\xEF\xBB\xBF") == 0)
-        text.erase(0, 3);
-    read.text = std::move(text);
+    const std::size_t begin = size >= 3 && std::memcmp(bytes.get(), "\xEF\xBB\xBF", 3) == 0 ? 3 : 0;
+    read.text.emplace(std::move(bytes), begin, size);
     return read;
 }
 
