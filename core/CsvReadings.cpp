@@ -3,6 +3,7 @@
 #include "AsciiText.h"
 #include "CsvNumber.h"
 #include "OutputText.h"
+#include "PlainDecimal.h"
 #include "TextFile.h"
 
 #include <algorithm>
@@ -277,6 +278,8 @@ std::optional<double> Parser::readNumber(int line, const std::string &name, std:
     // The common cell, "0.4171" in a file with a decimal point, read at once: what
     // parseCsvNumber accepts for it, without its layers (a million rows hold millions of them).
     if (m_mark == DecimalMark::Point && m_markKnown && !cell.empty() && cell.front() != '+') {
+        if (const std::optional<double> plain = readPlainDecimal(cell))
+            return plain;
         double value = 0.0;
         const auto [end, problem] = std::from_chars(cell.data(), cell.data() + cell.size(), value);
         if (problem == std::errc() && end == cell.data() + cell.size() && std::isfinite(value))

@@ -1,8 +1,5 @@
 #include "CommandLine.h"
 
-#include <QCommandLineParser>
-#include <QStringList>
-
 #include <algorithm>
 #include <charconv>
 #include <cmath>
@@ -15,18 +12,6 @@ namespace {
 
 constexpr std::size_t helpWidth = 100;  // columns of --help
 constexpr std::size_t nameColumn = 30;  // where option descriptions start
-
-// Words cross QCommandLineParser as Latin-1, one QChar per byte, so any byte string (a file
-// name that is not UTF-8, say) comes back unchanged.
-QString fromBytes(const std::string &bytes)
-{
-    return QString::fromLatin1(bytes.data(), static_cast<qsizetype>(bytes.size()));
-}
-
-std::string toBytes(const QString &text)
-{
-    return text.toLatin1().toStdString();
-}
 
 // Columns taken by UTF-8 text: one per code point (enough for Ω, ±, °).
 std::size_t displayWidth(const std::string &text)
@@ -68,13 +53,6 @@ std::string wrap(const std::string &text, std::size_t indent, std::size_t firstC
         }
     }
     return out;
-}
-
-std::string withoutDashes(const std::string &word)
-{
-    std::string name = word.substr(word.find_first_not_of('-') == std::string::npos ? word.size()
-                                                                                     : word.find_first_not_of('-'));
-    return name.substr(0, name.find('='));
 }
 
 } // namespace
@@ -127,24 +105,28 @@ std::optional<int> CommandLine::parse(int argc, char **argv)
     return parse(std::vector<std::string>(argv + std::min(argc, 1), argv + argc));
 }
 
+const CommandLine::Option *CommandLine::optionNamed(const std::string &name) const
+{
+    for (const Option &option : m_options)
+        if (std::find(option.names.begin(), option.names.end(), name) != option.names.end())
+            return &option;
+    return nullptr;
+}
+
+void CommandLine::record(const Option &option, std::optional<std::string> value)
+{
+    const std::string &key = option.names.front();
+    auto given = std::find_if(m_given.begin(), m_given.end(), [&](const auto &g) { return g.first == key; });
+    if (given == m_given.end())
+        given = m_given.insert(m_given.end(), {key, {}});
+    if (value)
+        given->second.push_back(std::move(*value));
+}
+
 std::optional<int> CommandLine::parse(const std::vector<std::string> &words)
 {
     m_given.clear();
     m_positionals.clear();
-    QCommandLineParser parser;
-    // "-json" is the option "json", never "-j -s -o -n"; "-o FILE" is the option "o".
-    parser.setSingleDashWordOptionMode(QCommandLineParser::ParseAsLongOptions);
-    for (const Option &option : m_options) {
-        QStringList names;
-        for (const std::string &name : option.names)
-            names << fromBytes(name);
-        parser.addOption(QCommandLineOption(names, fromBytes(option.description), fromBytes(option.valueName)));
-    }
-    QStringList arguments{QStringLiteral("program")};
-    for (const std::string &word : words)
-        arguments << fromBytes(word);
-    const bool parsed = parser.parse(arguments);
-
     // Help wins over every other mistake on the line: someone asking for it wants the usage.
     const bool helpAsked = std::any_of(words.begin(), words.end(), [](const std::string &w) {
         return w == "-h" || w == "--help" || w == "-help";
@@ -154,37 +136,46 @@ std::optional<int> CommandLine::parse(const std::vector<std::string> &words)
         std::cout.flush();
         return commandLineHelpShown;
     }
-    if (!parsed) {
-        const QStringList unknown = parser.unknownOptionNames();
-        if (!unknown.isEmpty()) {
-            const std::string name = toBytes(unknown.first());
-            const auto typed = std::find_if(words.begin(), words.end(), [&](const std::string &w) {
-                return !w.empty() && w[0] == '-' && withoutDashes(w) == name;
-            });
-            return fail("unknown option '" + (typed != words.end() ? typed->substr(0, typed->find('=')) : spelled(name))
-                        + "'");
-        }
-        std::string message = toBytes(parser.errorText());
-        // Qt's "Missing value after '-o'." in the form of the other messages.
-        if (const auto quote = message.find('\''); message.rfind("Missing value after ", 0) == 0 && quote != std::string::npos)
-            return fail("option " + message.substr(quote + 1, message.rfind('\'') - quote - 1) + " needs a value");
-        if (!message.empty() && message.back() == '.')
-            message.pop_back();
-        if (!message.empty())
-            message[0] = static_cast<char>(std::tolower(static_cast<unsigned char>(message[0])));
-        return fail(message);
-    }
-    for (const Option &option : m_options) {
-        const QString first = fromBytes(option.names.front());
-        if (!parser.isSet(first))
+    // "--name" and "-name" are the same option ("-json" is "json", never "-j -s -o -n"); its
+    // value follows as "--name=VALUE" or as the next word, whatever that word looks like.
+    // Options may come after positional arguments; after "--" every word is positional, and a
+    // lone "-" is one (standard input, by custom). Nothing is abbreviated.
+    std::string unknown;  // the first unknown option as typed
+    std::string mistake;  // the first other mistake
+    bool onlyPositionals = false;
+    for (std::size_t i = 0; i < words.size(); ++i) {
+        const std::string &word = words[i];
+        if (onlyPositionals || word.size() < 2 || word[0] != '-') {
+            m_positionals.push_back(word);
             continue;
-        std::vector<std::string> given;
-        for (const QString &value : parser.values(first))
-            given.push_back(toBytes(value));
-        m_given.emplace_back(option.names.front(), std::move(given));
+        }
+        if (word == "--") {
+            onlyPositionals = true;
+            continue;
+        }
+        const std::size_t equals = word.find('=');
+        const std::string typed = word.substr(0, equals);
+        const Option *option = optionNamed(typed.substr(word[1] == '-' ? 2 : 1));
+        if (option == nullptr) {
+            if (unknown.empty())
+                unknown = typed;
+        } else if (option->valueName.empty()) {
+            if (equals == std::string::npos)
+                record(*option, std::nullopt);
+            else if (mistake.empty())
+                mistake = "unexpected value after '" + typed + "'";
+        } else if (equals != std::string::npos) {
+            record(*option, word.substr(equals + 1));
+        } else if (i + 1 < words.size()) {
+            record(*option, words[++i]);
+        } else if (mistake.empty()) {
+            mistake = "option " + typed + " needs a value";
+        }
     }
-    for (const QString &word : parser.positionalArguments())
-        m_positionals.push_back(toBytes(word));
+    if (!unknown.empty())
+        return fail("unknown option '" + unknown + "'");
+    if (!mistake.empty())
+        return fail(mistake);
     for (const Option &option : m_options) {
         if (option.standalone && isSet(option.names.front()))
             return std::nullopt;

@@ -1,7 +1,8 @@
 // One argument parser for the three programs (each sagline-cli command, sagline-sim, sagline):
 // options and positional arguments are declared once, `--help`/`-h` prints every one of them,
 // and bad usage is refused with exit code 2 and a message that names the option and the rule.
-// Built on QCommandLineParser; arguments stay byte strings (a file name need not be UTF-8).
+// Plain C++ (no Qt, so sagline-cli loads no Qt at all); arguments are byte strings (a file name
+// need not be UTF-8).
 #pragma once
 
 #include <cstdint>
@@ -83,6 +84,8 @@ private:
         Arity arity;
     };
     std::string spelled(const std::string &name) const; // "-o" or "--output"
+    const Option *optionNamed(const std::string &name) const; // by any of its names; null if none
+    void record(const Option &option, std::optional<std::string> value); // given once more
     std::optional<int> checkPositionals();
 
     std::string m_program;

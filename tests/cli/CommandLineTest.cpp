@@ -176,3 +176,48 @@ TEST(CommandLine, AStandaloneFlagNeedsNoPositional)
     EXPECT_FALSE(line.parse({"--version"}).has_value());
     EXPECT_TRUE(line.isSet("version"));
 }
+
+// The rules the parser owns since it no longer stands on Qt's: "-name" is "--name"; after "--"
+// every word is positional; options may follow positionals; a flag takes no "=value".
+TEST(CommandLine, OneDashOrTwoNameTheSameOptionAndDoubleDashEndsOptions)
+{
+    CommandLine line = sample();
+    ASSERT_FALSE(line.parse({"-json", "-output=x", "in"}).has_value());
+    EXPECT_TRUE(line.isSet("json"));
+    EXPECT_EQ(line.value("o"), "x");
+    EXPECT_EQ(line.positionals(), std::vector<std::string>{"in"});
+
+    CommandLine after = sample();
+    ASSERT_FALSE(after.parse({"--", "--json"}).has_value());
+    EXPECT_FALSE(after.isSet("json"));
+    EXPECT_EQ(after.positionals(), std::vector<std::string>{"--json"}); // a file so named
+
+    CommandLine trailing = sample();
+    ASSERT_FALSE(trailing.parse({"in", "--json", "-o", "a", "--output", "b"}).has_value());
+    EXPECT_EQ(trailing.values("output"), (std::vector<std::string>{"a", "b"}));
+    EXPECT_EQ(trailing.positionals(), std::vector<std::string>{"in"});
+    EXPECT_FALSE(trailing.isSet("dwell"));
+    EXPECT_EQ(trailing.valueIfSet("dwell"), std::nullopt);
+}
+
+TEST(CommandLine, AFlagGivenAValueAndAnAbbreviationAreRefused)
+{
+    CommandLine line = sample();
+    ::testing::internal::CaptureStderr();
+    EXPECT_EQ(line.parse({"in", "--json=yes"}), 2);
+    std::string err = ::testing::internal::GetCapturedStderr();
+    EXPECT_NE(err.find("prog sub: unexpected value after '--json'"), std::string::npos) << err;
+
+    CommandLine abbreviated = sample();
+    ::testing::internal::CaptureStderr();
+    EXPECT_EQ(abbreviated.parse({"in", "--out", "x"}), 2); // never read as --output
+    err = ::testing::internal::GetCapturedStderr();
+    EXPECT_NE(err.find("unknown option '--out'"), std::string::npos) << err;
+
+    // An unknown option is named before any other mistake on the line.
+    CommandLine both = sample();
+    ::testing::internal::CaptureStderr();
+    EXPECT_EQ(both.parse({"in", "--json=1", "-q"}), 2);
+    err = ::testing::internal::GetCapturedStderr();
+    EXPECT_NE(err.find("unknown option '-q'"), std::string::npos) << err;
+}
