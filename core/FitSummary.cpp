@@ -63,6 +63,13 @@ struct ReadingRows {
         const Reading &r = readings[row];
         return {r.currentA, r.voltageV, r.uCurrentA, r.uVoltageV, isFitted(r)};
     }
+    // Readings are 320 bytes apart, so the hardware's stream prefetcher loses the pattern at
+    // every 4 KiB page; asking for the line a few dozen readings ahead keeps memory busy.
+    void prefetch(std::size_t row) const
+    {
+        if (row < readings.size())
+            __builtin_prefetch(&readings[row]);
+    }
 };
 
 struct ColumnRows {
@@ -79,6 +86,7 @@ struct ColumnRows {
             v.uVoltageV = columns.uVoltageV[row];
         return v;
     }
+    void prefetch(std::size_t) const {} // columns stream by themselves
 };
 
 template <typename Rows>
@@ -91,6 +99,7 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
         input.weights.reserve(readings.size());
     input.hasUI.reserve(readings.size());
     for (std::size_t row = 0; row < readings.size(); ++row) {
+        readings.prefetch(row + 32);
         const RowValues reading = readings[row];
         if (!reading.fitted)
             continue;
