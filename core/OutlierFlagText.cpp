@@ -19,4 +19,19 @@ std::string outlierFlagText(const FitSummary &fit, std::size_t row)
     return text;
 }
 
+std::string outlierScreenFootnote(const FitSummary &fit)
+{
+    if (!fit.ok())
+        return "No line was fitted, so nothing was screened for outliers.";
+    const OutlierScreening &screen = fit.outlierScreening;
+    if (!screen.screened || !screen.criticalValue)
+        return "Outlier screen: " + (screen.reason.empty() ? std::string("not run") : screen.reason) + ".";
+    const std::string statistic = fit.statedRandomUncertainty
+                                      ? "normalized residual (from the readings' stated uncertainty, not the Stud. column)"
+                                      : "externally studentized residual";
+    return "Outlier screen: a reading whose " + statistic + " lies beyond ±" + formatSignificant(*screen.criticalValue, 3)
+           + " is flagged (the critical value for this number of points; the rule is under the fit). A flagged reading "
+             "stays in the fit unless excluded with a reason.";
+}
+
 } // namespace sagline

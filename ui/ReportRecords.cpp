@@ -6,6 +6,7 @@
 #include "ReportSections.h"
 #include "ReportText.h"
 #include "NoteText.h"
+#include "OutlierFlagText.h"
 #include "SessionSummary.h"
 
 #include <QPainter>
@@ -218,8 +219,8 @@ void drawReadingsTable(ReportCanvas &canvas, const SessionSummary &summary)
                          8.5, true);
     }
     canvas.paragraph(QStringLiteral("u(I), u(V): standard uncertainties of each reading. Stud.: externally studentized "
-                                    "residual; |Stud.| above 3 marks an outlier, which stays in the fit unless excluded "
-                                    "with a reason."),
+                                    "residual. ")
+                         + q(outlierScreenFootnote(summary.fit)),
                      7.5, false, true);
 }
 

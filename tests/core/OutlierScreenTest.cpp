@@ -229,3 +229,28 @@ TEST(OutlierScreen, FlagTextNamesTheStatisticTheRuleAndItsSource)
     EXPECT_EQ(outlierFlagText(fit, 4), "");
     EXPECT_EQ(fit.outlierScreening.source, std::string(outlierScreenSource));
 }
+
+TEST(OutlierScreen, TheReadingsTableFootnoteStatesThisFitsCriticalValueNotAFixedThree)
+{
+    // 9 clean points, σ unknown: the report's footnote must give the Bonferroni critical value
+    // t(1 - 0.05/18, 6) = 4.2209 (scipy.stats.t.ppf(1 - 0.05/18, 6) = 4.220928422108925), not
+    // the fixed "above 3" an earlier footnote claimed while the screen applied this value.
+    std::vector<Reading> readings(9);
+    for (std::size_t k = 0; k < readings.size(); ++k) {
+        readings[k].currentA = 0.4 * static_cast<double>(k);
+        readings[k].voltageV = 19.6 - 0.48 * readings[k].currentA + ((k % 3) == 0 ? 0.004 : -0.002);
+    }
+    const FitSummary fit = fitReadings(readings, FitMethod::Ols, options());
+    ASSERT_TRUE(fit.ok()) << fit.message;
+    EXPECT_NEAR(*fit.outlierScreening.criticalValue, 4.220928422108925, 1e-6);
+    const std::string footnote = outlierScreenFootnote(fit);
+    EXPECT_NE(footnote.find("externally studentized residual lies beyond ±4.22 is flagged"), std::string::npos)
+        << footnote;
+    EXPECT_EQ(footnote.find("above 3"), std::string::npos) << footnote;
+
+    // Five points are not screened: the footnote says so and why.
+    readings.resize(5);
+    const FitSummary few = fitReadings(readings, FitMethod::Ols, options());
+    EXPECT_NE(outlierScreenFootnote(few).find("Outlier screen: too few points to screen (5;"), std::string::npos)
+        << outlierScreenFootnote(few);
+}
