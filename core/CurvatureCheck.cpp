@@ -1,6 +1,7 @@
 #include "CurvatureCheck.h"
 
 #include "Distributions.h"
+#include "FitWeights.h"
 
 #include <Eigen/Dense>
 
@@ -34,13 +35,13 @@ QuadraticFitResult fitQuadratic(std::span<const double> x, std::span<const doubl
         r.message = "a quadratic needs at least 3 points, got " + std::to_string(n);
         return r;
     }
-    const auto weightOf = [&](std::size_t i) { return weights.empty() ? 1.0 : weights[i]; };
+    const FitWeights weightAt(weights);
     // Pass 1: checks, the mean and range of x, the weighted mean of y, whether 3 x differ.
     double sumX = 0.0, minX = x[0], maxX = x[0], weightSum = 0.0, sumWY = 0.0, maxAbsY = 0.0;
     double firstX = x[0], secondX = x[0];
     int distinct = 1;
     for (std::size_t i = 0; i < n; ++i) {
-        const double w = weightOf(i);
+        const double w = weightAt[i];
         if (!std::isfinite(x[i]) || !std::isfinite(y[i]) || !std::isfinite(w)) {
             r.status = FitStatus::NonFiniteValue;
             r.message = "point " + std::to_string(i) + " is not finite";
@@ -79,7 +80,7 @@ QuadraticFitResult fitQuadratic(std::span<const double> x, std::span<const doubl
     {
         double s[5] = {0.0, 0.0, 0.0, 0.0, 0.0}, m[3] = {0.0, 0.0, 0.0}, sst = 0.0;
         for (std::size_t i = 0; i < n; ++i) {
-            const double w = weightOf(i);
+            const double w = weightAt[i];
             const double t = (x[i] - mean) * perScale;
             const double u = y[i] - meanY;
             const double wt = w * t, wt2 = wt * t;
@@ -114,7 +115,7 @@ QuadraticFitResult fitQuadratic(std::span<const double> x, std::span<const doubl
     {
         double e[3] = {0.0, 0.0, 0.0};
         for (std::size_t i = 0; i < n; ++i) {
-            const double w = weightOf(i);
+            const double w = weightAt[i];
             const double t = (x[i] - mean) * perScale;
             const double res = (y[i] - meanY) - (d(0) + (d(1) + d(2) * t) * t);
             const double wr = w * res;

@@ -95,7 +95,7 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
     // At most one entry per reading: reserved once, so a million readings grow no vector.
     for (auto *column : {&input.x, &input.y, &input.sx, &input.sy})
         column->reserve(readings.size());
-    if (method != FitMethod::Ols)
+    if (method == FitMethod::Wls) // OLS stores no weights; York's come from its own iteration
         input.weights.reserve(readings.size());
     input.hasUI.reserve(readings.size());
     for (std::size_t row = 0; row < readings.size(); ++row) {

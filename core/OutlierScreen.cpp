@@ -1,6 +1,7 @@
 #include "OutlierScreen.h"
 
 #include "Distributions.h"
+#include "FitWeights.h"
 #include "NumberFormat.h"
 
 #include <algorithm>
@@ -14,14 +15,6 @@ namespace {
 // A statistic that does not exist for a point (PointFits.h reads it back as nullopt).
 constexpr double noStatistic = std::numeric_limits<double>::quiet_NaN();
 
-// The fit's weights; empty means unit weights (OLS), read as 1.0: exactly what stored ones give.
-struct Weights {
-    std::span<const double> values;
-    Weights(std::span<const double> v) : values(v) {}
-    Weights(const std::vector<double> &v) : values(v) {}
-    double operator[](std::size_t i) const { return values.empty() ? 1.0 : values[i]; }
-};
-
 // The weighted line's centring sums: Σw, the weighted mean of x and Σw(x - x̄)².
 struct Centre {
     double sumW = 0.0;
@@ -29,7 +22,7 @@ struct Centre {
     double sxx = 0.0;
 };
 
-Centre centreOf(std::span<const double> x, Weights w)
+Centre centreOf(std::span<const double> x, FitWeights w)
 {
     Centre c;
     for (std::size_t i = 0; i < x.size(); ++i) {
@@ -46,7 +39,7 @@ Centre centreOf(std::span<const double> x, Weights w)
 // e = (I - H) ε with H_ij = w_j (1/W + d_i d_j/Sxx), so
 // Var e_i = σ_i² (1 - 2 H_ii) + Σ_j H_ij² σ_j², whose sum takes three running sums (O(n)).
 // With w = 1/σ² it is σ_i² (1 - H_ii).
-void normalizedResiduals(std::span<const double> x, std::span<const double> e, Weights w,
+void normalizedResiduals(std::span<const double> x, std::span<const double> e, FitWeights w,
                          std::span<const double> sigma, double floorV, std::vector<double> &out)
 {
     const Centre c = centreOf(x, w);
@@ -106,7 +99,7 @@ void studentized(std::span<const double> x, std::span<const double> e, std::span
         studentizedWith<false>(x, e, w, floorV, c, out);
 }
 
-ResidualSums sumsOf(std::span<const double> x, std::span<const double> e, Weights w)
+ResidualSums sumsOf(std::span<const double> x, std::span<const double> e, FitWeights w)
 {
     const Centre c = centreOf(x, w);
     ResidualSums sums{c.sumW, c.meanX, c.sxx, 0.0};
@@ -181,7 +174,7 @@ double criticalValue(bool known, std::size_t n, double familyAlpha)
 
 // Residuals of the active points about the line refitted without the points set aside: the
 // weighted line through (x, e) is the change of the fitted line, so e - (δa + δb·x).
-void refitResiduals(std::vector<double> &x, std::vector<double> &e, Weights w)
+void refitResiduals(std::vector<double> &x, std::vector<double> &e, FitWeights w)
 {
     const Centre c = centreOf(x, w);
     double meanE = 0.0, sxe = 0.0;
@@ -258,12 +251,13 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
             active.push_back(i);
     std::vector<double> ax, ae, aw, as;
     std::vector<double> passed;
+    const FitWeights weight(weights);
     while (active.size() >= options.minimumPoints) {
         ax.clear(), ae.clear(), aw.clear(), as.clear();
         for (std::size_t i : active) {
             ax.push_back(x[i]);
             ae.push_back(residuals[i]);
-            aw.push_back(Weights(weights)[i]);
+            aw.push_back(weight[i]);
             if (known)
                 as.push_back(knownSigmaV[i]);
         }

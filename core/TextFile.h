@@ -26,7 +26,6 @@ public:
         : m_bytes(std::move(bytes)), m_begin(begin), m_end(end) {}
     std::string_view view() const { return {m_bytes.get() + m_begin, m_end - m_begin}; }
     operator std::string_view() const { return view(); }
-    bool operator==(std::string_view other) const { return view() == other; }
 
 private:
     std::unique_ptr<char[]> m_bytes;
