@@ -2,7 +2,8 @@
 // batch fit the CLI, the window and the report call: line, residuals, studentized residuals,
 // outlier screen, curvature) at 1e3/1e5/1e6 readings, also with every buffer on new pages;
 // the bare line fitLine; GSL's gsl_fit_linear; a bandwidth floor that only sums x and y with
-// four accumulators each; York at 1 000 and 100 000 points.
+// four accumulators each; a floor for the fit's outputs (outputsFloor); York at 1 000 and
+// 100 000 points.
 // Run each case in its own process (glibc's mmap threshold moves after large frees, which
 // changed york/100000 5x with what ran before it):
 //   cmake --preset release && cmake --build --preset release --target FitBenchmark &&
@@ -16,6 +17,8 @@
 
 #include <benchmark/benchmark.h>
 
+#include <algorithm>
+#include <cmath>
 #include <malloc.h>
 #include <random>
 #include <vector>
@@ -156,6 +159,88 @@ void sumFloor(benchmark::State &state)
     state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
 }
 BENCHMARK(sumFloor)->Arg(million)->Unit(benchmark::kMillisecond);
+
+// A floor for what fitReadings must produce, not only sum: the line (means, then centred sums),
+// the curvature check's moments, every residual and every externally studentized residual,
+// written out, with every freedom the product does not take (four accumulators, sums in any
+// order, one division and one square root per point, the curvature moments in the line's pass,
+// the screen's largest |t| in the studentized pass). Its numbers are not the product's (sums in
+// another order): it is a lower bound to compare fitColumnsProductHeap with, and shows how far
+// above sumFloor any fit with these outputs must stay. Own process (bench/run-separately.sh).
+void outputsFloor(benchmark::State &state)
+{
+#if SAGLINE_HAVE_LARGE_PAGE_HEAP
+    adviseLargePagesForHeap();
+#endif
+    const Data &d = data(static_cast<std::size_t>(state.range(0)));
+    const std::size_t n = d.x.size();
+    const double *x = d.x.data(), *y = d.y.data();
+    std::vector<double> e(n), t(n);
+    constexpr std::size_t lanes = 4;
+    if (n % lanes != 0) { // the passes after the first have no tail loop
+        state.SkipWithError("outputsFloor needs a multiple of 4 points");
+        return;
+    }
+    for (auto _ : state) {
+        double sx[lanes] = {}, sy[lanes] = {};
+        std::size_t i = 0;
+        for (; i + lanes <= n; i += lanes)
+            for (std::size_t k = 0; k < lanes; ++k) {
+                sx[k] += x[i + k];
+                sy[k] += y[i + k];
+            }
+        for (; i < n; ++i) {
+            sx[0] += x[i];
+            sy[0] += y[i];
+        }
+        const double meanX = (sx[0] + sx[1] + sx[2] + sx[3]) / static_cast<double>(n);
+        const double meanY = (sy[0] + sy[1] + sy[2] + sy[3]) / static_cast<double>(n);
+        // Centred sums of the line and the quadratic's moments Σd³, Σd⁴, Σd²·dy, in one pass.
+        double sxx[lanes] = {}, sxy[lanes] = {}, syy[lanes] = {}, s3[lanes] = {}, s4[lanes] = {}, m2[lanes] = {};
+        for (i = 0; i + lanes <= n; i += lanes)
+            for (std::size_t k = 0; k < lanes; ++k) {
+                const double dx = x[i + k] - meanX, dy = y[i + k] - meanY, dx2 = dx * dx;
+                sxx[k] += dx2;
+                sxy[k] += dx * dy;
+                syy[k] += dy * dy;
+                s3[k] += dx2 * dx;
+                s4[k] += dx2 * dx2;
+                m2[k] += dx2 * dy;
+            }
+        const double Sxx = sxx[0] + sxx[1] + sxx[2] + sxx[3];
+        const double slope = (sxy[0] + sxy[1] + sxy[2] + sxy[3]) / Sxx;
+        const double intercept = meanY - slope * meanX;
+        benchmark::DoNotOptimize(syy[0] + s3[0] + s4[0] + m2[0] + syy[1] + s3[1] + s4[1] + m2[1]);
+        // Residuals, written, and their sum of squares.
+        double ssr[lanes] = {};
+        for (i = 0; i + lanes <= n; i += lanes)
+            for (std::size_t k = 0; k < lanes; ++k) {
+                const double r = y[i + k] - intercept - slope * x[i + k];
+                e[i + k] = r;
+                ssr[k] += r * r;
+            }
+        const double SSR = ssr[0] + ssr[1] + ssr[2] + ssr[3];
+        // Externally studentized residuals, written, and the largest |t| for the screen.
+        const double perN = 1.0 / static_cast<double>(n), perSxx = 1.0 / Sxx;
+        const double perDof = 1.0 / (static_cast<double>(n) - 3.0);
+        double largest[lanes] = {};
+        for (i = 0; i + lanes <= n; i += lanes)
+            for (std::size_t k = 0; k < lanes; ++k) {
+                const double dx = x[i + k] - meanX, r = e[i + k];
+                const double h = perN + dx * dx * perSxx, keep = 1.0 - h;
+                const double without = (SSR * keep - r * r) * perDof; // s²(i)·(1 - h)
+                const double ti = r / std::sqrt(without > 0.0 ? without : 0.0);
+                t[i + k] = ti;
+                largest[k] = std::max(largest[k], std::fabs(ti));
+            }
+        benchmark::DoNotOptimize(largest[0] + largest[1] + largest[2] + largest[3]);
+        benchmark::DoNotOptimize(e.data());
+        benchmark::DoNotOptimize(t.data());
+        benchmark::ClobberMemory();
+    }
+    state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
+}
+BENCHMARK(outputsFloor)->Arg(million)->Unit(benchmark::kMillisecond);
 
 void york(benchmark::State &state)
 {

@@ -7,6 +7,8 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <span>
+#include <type_traits>
 
 namespace sagline {
 
@@ -18,7 +20,11 @@ struct FitInput {
     // is row i), so a sweep with nothing excluded writes no page of it.
     std::vector<std::size_t> rows;
     std::size_t rowOf(std::size_t i) const { return rows.empty() ? i : rows[i]; }
-    std::vector<double> x, y, sx, sy;
+    // The used points' currents and voltages: xStore and yStore gathered from the rows, or,
+    // when every row of a set of columns is used as it stands, the columns themselves (no copy).
+    std::span<const double> x, y;
+    std::vector<double> xStore, yStore;
+    std::vector<double> sx, sy;
     std::vector<double> weights;      // empty for OLS: every weight is 1
     std::vector<char> hasUI;          // the reading stated u_current_a
     // Every used reading stated u_voltage_v. sx, sy and hasUI are filled only while this holds
@@ -93,7 +99,7 @@ template <typename Rows>
 FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, std::string &message)
 {
     // At most one entry per reading: reserved once, so a million readings grow no vector.
-    for (auto *column : {&input.x, &input.y, &input.sx, &input.sy})
+    for (auto *column : {&input.xStore, &input.yStore, &input.sx, &input.sy})
         column->reserve(readings.size());
     if (method == FitMethod::Wls) // OLS stores no weights; York's come from its own iteration
         input.weights.reserve(readings.size());
@@ -127,16 +133,16 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
             message = rowName(row) + ": a standard uncertainty must be above zero";
             return FitStatus::InvalidUncertainty;
         }
-        if (!input.rows.empty() || input.x.size() != row) {
+        if (!input.rows.empty() || input.xStore.size() != row) {
             if (input.rows.empty()) { // the first row left out before this one: list them from here on
                 input.rows.reserve(readings.size());
-                for (std::size_t i = 0; i < input.x.size(); ++i)
+                for (std::size_t i = 0; i < input.xStore.size(); ++i)
                     input.rows.push_back(i);
             }
             input.rows.push_back(row);
         }
-        input.x.push_back(reading.currentA);
-        input.y.push_back(reading.voltageV);
+        input.xStore.push_back(reading.currentA);
+        input.yStore.push_back(reading.voltageV);
         if (method == FitMethod::Wls)
             input.weights.push_back(1.0 / (uV * uV));
         if (input.allStated && !(reading.uVoltageV && std::isfinite(uV) && uV > 0.0)) {
@@ -151,7 +157,30 @@ FitStatus gatherInput(const Rows &readings, FitMethod method, FitInput &input, s
             input.hasUI.push_back(reading.uCurrentA && std::isfinite(uI) && uI > 0.0);
         }
     }
+    input.x = input.xStore;
+    input.y = input.yStore;
     return FitStatus::Ok;
+}
+
+// OLS of columns in which every row is used as it stands (fitted, finite, no uncertainty
+// stated: nothing for the screen's σ): the fit reads the columns in place, as gatherInput would
+// have copied them. false: gatherInput decides (and words any message).
+bool useColumnsInPlace(const ReadingColumns &columns, FitMethod method, FitInput &input)
+{
+    if (method != FitMethod::Ols)
+        return false;
+    const std::size_t n = columns.size();
+    const std::uint8_t *state = columns.state.data();
+    const double *x = columns.currentA.data(), *y = columns.voltageV.data();
+    bool asItStands = true;
+    for (std::size_t i = 0; i < n; ++i) // no early exit: one pass that vectorizes
+        asItStands &= (state[i] == ReadingColumns::fitted) & std::isfinite(x[i]) & std::isfinite(y[i]);
+    if (!asItStands)
+        return false;
+    input.x = columns.currentA;
+    input.y = columns.voltageV;
+    input.allStated = n == 0;
+    return true;
 }
 
 // Two-pass weighted line: means first, then centred sums (the accurate batch form). The
@@ -352,7 +381,10 @@ FitSummary fitRows(const Rows &readings, FitMethod method, const FitOptions &opt
     summary.confidence = options.confidence;
     FitInput input;
     std::string message;
-    const FitStatus inputStatus = gatherInput(readings, method, input, message);
+    bool inPlace = false;
+    if constexpr (std::is_same_v<Rows, ColumnRows>)
+        inPlace = useColumnsInPlace(readings.columns, method, input);
+    const FitStatus inputStatus = inPlace ? FitStatus::Ok : gatherInput(readings, method, input, message);
     if (inputStatus != FitStatus::Ok)
         return failure(std::move(summary), inputStatus, std::move(message));
     const std::size_t n = input.x.size();

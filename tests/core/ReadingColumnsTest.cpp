@@ -5,6 +5,7 @@
 
 #include <gtest/gtest.h>
 
+#include <limits>
 #include <random>
 
 using namespace sagline;
@@ -73,6 +74,40 @@ TEST(ReadingColumns, FitEqualsTheFitOfTheReadingsForEveryMethod)
             SCOPED_TRACE(toString(method) + (stated ? ", stated u" : ", no u"));
             expectSameFit(fitReadings(readings, method), fitReadings(columns, method));
         }
+    }
+}
+
+// Every row used as it stands (the common CSV): OLS reads the columns in place instead of
+// copying them; the fit must still be the fit of the same readings, and a value that is not a
+// finite number must still be refused with the row named.
+TEST(ReadingColumns, ColumnsReadInPlaceGiveTheSameFitAndTheSameRefusal)
+{
+    std::vector<Reading> readings = madeUpReadings(false);
+    for (Reading &r : readings) {
+        r.excluded = false;
+        r.flags = flagNone;
+    }
+    const auto columnsOf = [](const std::vector<Reading> &rows) {
+        ReadingColumns columns;
+        for (const Reading &r : rows)
+            columns.append(r);
+        return columns;
+    };
+    {
+        SCOPED_TRACE("every row used");
+        const FitSummary inPlace = fitReadings(columnsOf(readings), FitMethod::Ols);
+        ASSERT_TRUE(inPlace.ok());
+        EXPECT_EQ(inPlace.n, readings.size());
+        EXPECT_EQ(inPlace.outlierRows.front(), 200u) << "the gross misread is flagged";
+        expectSameFit(fitReadings(readings, FitMethod::Ols), inPlace);
+    }
+    readings[123].voltageV = std::numeric_limits<double>::infinity();
+    {
+        SCOPED_TRACE("one voltage infinite");
+        const FitSummary refused = fitReadings(columnsOf(readings), FitMethod::Ols);
+        EXPECT_EQ(refused.status, FitStatus::NonFiniteValue);
+        EXPECT_NE(refused.message.find("row 123"), std::string::npos) << refused.message;
+        expectSameFit(fitReadings(readings, FitMethod::Ols), refused);
     }
 }
 
