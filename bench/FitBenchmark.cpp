@@ -10,6 +10,7 @@
 //   bench/run-separately.sh build/release/bench/FitBenchmark
 #include "FitSummary.h"
 #include "LineFit.h"
+#include "SupplyReferral.h"
 #if SAGLINE_HAVE_LARGE_PAGE_HEAP
 #include "LargePageHeap.h"
 #endif
@@ -323,6 +324,21 @@ void fitColumnsProductHeap(benchmark::State &state)
     state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
 }
 BENCHMARK(fitColumnsProductHeap)->Arg(100000)->Arg(million)->Unit(benchmark::kMillisecond);
+
+// What a session, the window and the report do with readings in memory: lay out the columns
+// the fit reads, referred to the rated supply (every reading here carries V1, so every row is
+// scaled), then fit them. On the programs' heap, own process (bench/run-separately.sh).
+void fitSessionReadingsProductHeap(benchmark::State &state)
+{
+    adviseLargePagesForHeap();
+    std::vector<Reading> readings = readingsOf(data(static_cast<std::size_t>(state.range(0))));
+    for (std::size_t i = 0; i < readings.size(); ++i)
+        readings[i].primary.voltageV = 229.0 + 0.5 * static_cast<double>(i % 5);
+    for (auto _ : state)
+        benchmark::DoNotOptimize(fitReadings(columnsToFit(readings, FitVoltages::Referred, 230.0), FitMethod::Ols));
+    state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
+}
+BENCHMARK(fitSessionReadingsProductHeap)->Arg(100000)->Arg(million)->Unit(benchmark::kMillisecond);
 #endif
 
 } // namespace

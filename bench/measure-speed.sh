@@ -56,8 +56,8 @@ echo "== data"
 echo "== whole process against the scipy scripts"
 "$here/compare-with-scipy.sh" --cli "$cli" --rounds 5 2>&1 | tail -n 10
 
-echo "== fitReadings (from Readings and from columns), GSL, the summing floor, York (each case in its own process)"
-"$here/run-separately.sh" "$build/bench/FitBenchmark" 'gsl|sumFloor|fit(Readings|Columns).*/(100000|1000000)$|york' -- \
+echo "== fitReadings (from Readings, from columns, a session's readings via columnsToFit), GSL, the summing floor, the outputs floor, York (each case in its own process)"
+"$here/run-separately.sh" "$build/bench/FitBenchmark" 'gsl|Floor|fit(Readings|Columns|SessionReadings).*/(100000|1000000)$|york' -- \
     --benchmark_repetitions=3 --benchmark_report_aggregates_only=true 2>&1 | grep -E 'median'
 
 echo "== opening a session in the window"

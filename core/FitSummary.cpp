@@ -551,12 +551,12 @@ void ReadingColumns::reserve(std::size_t n)
     state.reserve(n);
 }
 
-void ReadingColumns::append(const Reading &reading)
+void ReadingColumns::append(const Reading &reading, double scale)
 {
-    currentA.push_back(reading.currentA);
-    voltageV.push_back(reading.voltageV);
-    uCurrentA.push_back(reading.uCurrentA.value_or(0.0));
-    uVoltageV.push_back(reading.uVoltageV.value_or(0.0));
+    currentA.push_back(reading.currentA * scale);
+    voltageV.push_back(reading.voltageV * scale);
+    uCurrentA.push_back(reading.uCurrentA.value_or(0.0) * scale);
+    uVoltageV.push_back(reading.uVoltageV.value_or(0.0) * scale);
     state.push_back(static_cast<std::uint8_t>((isFitted(reading) ? fitted : 0)
                                               | (reading.uCurrentA ? hasCurrentUncertainty : 0)
                                               | (reading.uVoltageV ? hasVoltageUncertainty : 0)));

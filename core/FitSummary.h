@@ -95,7 +95,7 @@ struct FitSummary {
 // The fit options a setup implies: the meters' resolutions floor the scatter.
 FitOptions fitOptionsFor(const std::optional<MeterSpecs> &meters);
 
-// What the fit reads of each reading, as columns: 33 bytes a reading instead of a Reading's 144
+// What the fit reads of each reading, as columns: 33 bytes a reading instead of a Reading's 296
 // (a million-row CSV for `fit` needs no times, raw texts or ids).
 struct ReadingColumns {
     enum State : std::uint8_t {
@@ -108,7 +108,9 @@ struct ReadingColumns {
 
     std::size_t size() const { return currentA.size(); }
     void reserve(std::size_t n);
-    void append(const Reading &reading);
+    // scale: the factor V1,rated/V1 that refers the reading to the rated supply (core/SupplyReferral)
+    // on its current, voltage and their u; 1 keeps them as read.
+    void append(const Reading &reading, double scale = 1.0);
     void clear();
 };
 

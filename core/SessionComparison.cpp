@@ -199,9 +199,7 @@ SessionRow loadSessionRow(const std::string &path, const ComparisonOptions &opti
     row.supply = assessSupply(readings.value, ratedPrimaryV, FitVoltages::Referred, defaultSupplyDriftTolerancePercent,
                               primaryVoltmeterOf(setup.setup ? setup.setup->meters : std::nullopt));
     const FitOptions fitOptions = fitOptionsFor(setup.setup ? setup.setup->meters : std::nullopt);
-    row.fit = row.supply.fitVoltages == FitVoltages::Referred
-                  ? fitReadings(referToRatedSupply(readings.value, ratedPrimaryV), options.method, fitOptions)
-                  : fitReadings(readings.value, options.method, fitOptions);
+    row.fit = fitReadings(columnsToFit(readings.value, row.supply.fitVoltages, ratedPrimaryV), options.method, fitOptions);
     row.points.reserve(readings.value.size());
     for (std::size_t i = 0; i < readings.value.size(); ++i) {
         const Reading &reading = readings.value[i];

@@ -265,10 +265,8 @@ StoreResult<SessionSummary> summarizeSession(const SessionStore &store, const Re
     summary.supply = assessSupply(summary.readings, ratedPrimaryV, options.fitVoltages, options.supplyDriftTolerancePercent,
                                   primaryVoltmeterOf(summary.setup ? summary.setup->meters : std::nullopt));
     const FitOptions fitOptions = fitOptionsFor(summary.setup ? summary.setup->meters : std::nullopt);
-    if (summary.supply.fitVoltages == FitVoltages::Referred)
-        summary.fit = fitReadings(referToRatedSupply(summary.readings, ratedPrimaryV), options.method, fitOptions);
-    else
-        summary.fit = fitReadings(summary.readings, options.method, fitOptions);
+    summary.fit = fitReadings(columnsToFit(summary.readings, summary.supply.fitVoltages, ratedPrimaryV), options.method,
+                              fitOptions);
     applyRecordedSettings(summary);
     analyse(summary);
     analysePrimary(summary);

@@ -114,4 +114,25 @@ std::vector<Reading> referToRatedSupply(const std::vector<Reading> &readings, do
     return referred;
 }
 
+ReadingColumns columnsToFit(const std::vector<Reading> &readings, FitVoltages voltages, double ratedPrimaryVoltageV)
+{
+    ReadingColumns columns;
+    columns.reserve(readings.size());
+    const bool refer = voltages == FitVoltages::Referred && ratedPrimaryVoltageV > 0.0
+                       && std::isfinite(ratedPrimaryVoltageV);
+    for (std::size_t i = 0; i < readings.size(); ++i) {
+        // Readings are ~300 bytes apart: ask for the line a few dozen ahead (as fitReadings does).
+        if (i + 32 < readings.size()) {
+            __builtin_prefetch(&readings[i + 32]);
+            if (refer) // V1 lies on another line of the reading
+                __builtin_prefetch(&readings[i + 32].primary.voltageV);
+        }
+        const Reading &reading = readings[i];
+        // The same product referToRatedSupply forms (x·1 is x, so unreferred rows are as read).
+        columns.append(reading, refer && hasSupplyVoltage(reading) ? ratedPrimaryVoltageV / *reading.primary.voltageV
+                                                                   : 1.0);
+    }
+    return columns;
+}
+
 } // namespace sagline

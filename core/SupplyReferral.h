@@ -7,6 +7,7 @@
 // the raw ones stay available. Pure C++.
 #pragma once
 
+#include "FitSummary.h"
 #include "Reading.h"
 #include "Setup.h"
 
@@ -64,5 +65,11 @@ inline std::optional<MeterSpec> primaryVoltmeterOf(const std::optional<MeterSpec
 // V1 was read (above zero); others unchanged. Same order and size, so fit rows still index the
 // originals.
 std::vector<Reading> referToRatedSupply(const std::vector<Reading> &readings, double ratedPrimaryVoltageV);
+
+// What the fit reads of the readings, as columns: referred to the rated supply as above when
+// `voltages` is Referred, as read when Raw. One pass and 33 bytes a reading, where
+// referToRatedSupply copies every reading whole (about 300 bytes each): what every product path
+// hands fitReadings. The same numbers as fitReadings of the readings (or of the referred ones).
+ReadingColumns columnsToFit(const std::vector<Reading> &readings, FitVoltages voltages, double ratedPrimaryVoltageV);
 
 } // namespace sagline

@@ -8,26 +8,12 @@ BackgroundFit::BackgroundFit(QObject *parent) : QObject(parent) { m_pool.setMaxT
 
 BackgroundFit::~BackgroundFit() { m_pool.waitForDone(); }
 
-Reading BackgroundFit::fitFields(const Reading &reading)
-{
-    Reading r;
-    r.id = reading.id;
-    r.step = reading.step;
-    r.currentA = reading.currentA;
-    r.voltageV = reading.voltageV;
-    r.uCurrentA = reading.uCurrentA;
-    r.uVoltageV = reading.uVoltageV;
-    r.flags = reading.flags;
-    r.excluded = reading.excluded;
-    return r;
-}
-
-bool BackgroundFit::start(std::vector<Reading> readings, std::uint64_t tag)
+bool BackgroundFit::start(ReadingColumns columns, std::uint64_t tag)
 {
     if (m_running)
         return false;
     m_running = true;
-    auto inputs = std::make_shared<std::vector<Reading>>(std::move(readings));
+    auto inputs = std::make_shared<ReadingColumns>(std::move(columns));
     m_pool.start([this, inputs, tag] {
         auto summary = std::make_shared<FitSummary>(fitReadings(*inputs, FitMethod::Ols));
         // Back on this object's thread. The destructor waits for this job, so `this` is alive

@@ -6,13 +6,11 @@
 #pragma once
 
 #include "FitSummary.h"
-#include "Reading.h"
 
 #include <QObject>
 #include <QThreadPool>
 
 #include <cstdint>
-#include <vector>
 
 namespace sagline {
 
@@ -23,12 +21,10 @@ public:
     ~BackgroundFit() override; // waits for a fit in progress
 
     bool isRunning() const { return m_running; }
-    // Starts fitReadings(readings, OLS) unless one is running (then false, nothing started).
-    bool start(std::vector<Reading> readings, std::uint64_t tag);
-
-    // The numbers a fit needs from each reading (no text), so the copy handed to the worker
-    // is cheap to make on the window's thread.
-    static Reading fitFields(const Reading &reading);
+    // Starts fitReadings(columns, OLS) unless one is running (then false, nothing started).
+    // Columns (core's columnsToFit): what the fit reads of each reading, 33 bytes a reading, so
+    // the copy handed to the worker is cheap to make on the window's thread.
+    bool start(ReadingColumns columns, std::uint64_t tag);
 
 signals:
     void finished(std::uint64_t tag, const sagline::FitSummary &summary);

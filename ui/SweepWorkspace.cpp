@@ -469,11 +469,7 @@ const FitSummary &SweepWorkspace::summary()
     }
     const bool due = !m_summaryClock.isValid() || m_summaryClock.elapsed() >= summaryIntervalMs;
     if (due && !m_backgroundFit->isRunning()) {
-        std::vector<Reading> inputs;
-        inputs.reserve(m_readings.size());
-        for (const Reading &reading : m_readings)
-            inputs.push_back(BackgroundFit::fitFields(reading));
-        m_backgroundFit->start(std::move(inputs), m_fitChanges);
+        m_backgroundFit->start(columnsToFit(m_readings, FitVoltages::Raw, 0.0), m_fitChanges);
         m_summaryClock.start();
     } else if (!m_backgroundFit->isRunning() && !m_summaryDue.isActive()) {
         // Not yet due: come back when it is, even if no further point arrives.
@@ -494,9 +490,8 @@ const SweepWorkspace::PrimarySideView &SweepWorkspace::primarySide()
     const double ratedV1 = m_setup->nameplate.primaryVoltageV;
     m_primary.supply = assessSupply(m_readings, ratedV1, FitVoltages::Referred, defaultSupplyDriftTolerancePercent,
                                     primaryVoltmeterOf(m_setup->meters));
-    m_primary.fit = m_primary.supply.fitVoltages == FitVoltages::Referred
-                        ? fitReadings(referToRatedSupply(m_readings, ratedV1), FitMethod::Ols, fitOptionsFor(m_setup->meters))
-                        : fitReadings(m_readings, FitMethod::Ols, fitOptionsFor(m_setup->meters));
+    m_primary.fit = fitReadings(columnsToFit(m_readings, m_primary.supply.fitVoltages, ratedV1), FitMethod::Ols,
+                                fitOptionsFor(m_setup->meters));
     AnalysisInput analysisInput = analysisInputFor(*m_setup);
     analysisInput.referralGainUPercent = m_primary.supply.referralGainUPercent;
     m_primary.result = analysePrimarySide(m_readings, m_primary.fit.ok() ? &m_primary.fit : nullptr, &analysisInput,

@@ -246,13 +246,10 @@ int fitCsvWithSetup(const FitArguments &args, FitReport &report)
     if (setup) {
         report.supply = assessSupply(csv.readings, setup->nameplate.primaryVoltageV, args.fitVoltages,
                                      defaultSupplyDriftTolerancePercent, primaryVoltmeterOf(setup->meters));
-        if (report.supply->fitVoltages == FitVoltages::Referred)
-            report.fit = fitReadings(referToRatedSupply(csv.readings, setup->nameplate.primaryVoltageV), args.method,
-                                     fitOptionsFor(report.meters));
-        else
-            report.fit = fitReadings(csv.readings, args.method, fitOptionsFor(report.meters));
+        report.fit = fitReadings(columnsToFit(csv.readings, report.supply->fitVoltages, setup->nameplate.primaryVoltageV),
+                                 args.method, fitOptionsFor(report.meters));
     } else {
-        report.fit = fitReadings(csv.readings, args.method, fitOptionsFor(report.meters));
+        report.fit = fitReadings(columnsToFit(csv.readings, FitVoltages::Raw, 0.0), args.method, fitOptionsFor(report.meters));
     }
     if (!report.fit.ok())
         return csvFitFailure(args, report);

@@ -480,10 +480,8 @@ int runRun(const Arguments &rawArgs)
         const double ratedPrimaryV = recordedSetup.nameplate.primaryVoltageV;
         report.supply = assessSupply(readings.value, ratedPrimaryV, FitVoltages::Referred, defaultSupplyDriftTolerancePercent,
                                      primaryVoltmeterOf(recordedSetup.meters));
-        report.fit = report.supply->fitVoltages == FitVoltages::Referred
-                         ? fitReadings(referToRatedSupply(readings.value, ratedPrimaryV), FitMethod::Ols,
-                                       fitOptionsFor(recordedSetup.meters))
-                         : fitReadings(readings.value, FitMethod::Ols, fitOptionsFor(recordedSetup.meters));
+        report.fit = fitReadings(columnsToFit(readings.value, report.supply->fitVoltages, ratedPrimaryV), FitMethod::Ols,
+                                 fitOptionsFor(recordedSetup.meters));
         if (report.fit.ok()) {
             report.warnings = fitWarnings(report.fit, {});
             report.meters = recordedSetup.meters;

@@ -228,6 +228,50 @@ TEST(SupplyReferral, ReferredFitRemovesTheSupplySag)
     EXPECT_EQ(assessSupply(readings, 230.0, FitVoltages::Raw).fitVoltages, FitVoltages::Raw);
 }
 
+// Every product path fits columnsToFit(readings, ...) instead of fitReadings(referToRatedSupply(...)):
+// the columns must hold the referred readings' values to the bit (rows without V1 and an
+// unusable rating as read), so each published number stays the same.
+TEST(SupplyReferral, ColumnsToFitHoldTheReferredReadingsToTheBit)
+{
+    std::vector<Reading> readings;
+    for (int k = 0; k < 9; ++k) {
+        Reading reading = point(k, 0.25 * k, 26.0 - 0.5 * 0.25 * k);
+        if (k % 3 != 1)
+            reading.primary.voltageV = 231.7 - 1.3 * k; // some rows carry V1, one never
+        if (k % 2 == 0) {
+            reading.uCurrentA = 0.002;
+            reading.uVoltageV = 0.01;
+        }
+        reading.excluded = k == 5;
+        readings.push_back(reading);
+    }
+    const auto columnsOf = [](const std::vector<Reading> &rows) {
+        ReadingColumns columns;
+        for (const Reading &r : rows)
+            columns.append(r);
+        return columns;
+    };
+    const auto expectSameColumns = [](const ReadingColumns &a, const ReadingColumns &b) {
+        EXPECT_EQ(a.currentA, b.currentA);
+        EXPECT_EQ(a.voltageV, b.voltageV);
+        EXPECT_EQ(a.uCurrentA, b.uCurrentA);
+        EXPECT_EQ(a.uVoltageV, b.uVoltageV);
+        EXPECT_EQ(a.state, b.state);
+    };
+    const ReadingColumns referred = columnsToFit(readings, FitVoltages::Referred, 230.0);
+    expectSameColumns(referred, columnsOf(referToRatedSupply(readings, 230.0)));
+    EXPECT_NE(referred.voltageV[0], readings[0].voltageV); // referred where V1 was read
+    EXPECT_EQ(referred.voltageV[1], readings[1].voltageV); // as read where it was not
+    expectSameColumns(columnsToFit(readings, FitVoltages::Raw, 230.0), columnsOf(readings));
+    expectSameColumns(columnsToFit(readings, FitVoltages::Referred, 0.0), columnsOf(readings));
+    const FitSummary a = fitReadings(referred, FitMethod::Ols);
+    const FitSummary b = fitReadings(referToRatedSupply(readings, 230.0), FitMethod::Ols);
+    ASSERT_TRUE(a.ok());
+    EXPECT_EQ(a.slope, b.slope);
+    EXPECT_EQ(a.intercept, b.intercept);
+    EXPECT_EQ(a.slopeSe, b.slopeSe);
+}
+
 TEST(SupplyReferral, WithoutAPrimaryVoltmeterTheAssumptionIsStated)
 {
     const std::vector<Reading> readings{point(0, 0.0, 25.0), point(1, 1.0, 24.5)};
