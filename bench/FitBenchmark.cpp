@@ -292,6 +292,19 @@ void fitReadingsFreshHeap(benchmark::State &state)
 }
 BENCHMARK(fitReadingsFreshHeap)->Arg(million)->Unit(benchmark::kMillisecond);
 
+// The fit of columns (what every product path calls) from a fresh heap, likewise.
+void fitColumnsFreshHeap(benchmark::State &state)
+{
+    const std::vector<Reading> readings = readingsOf(data(static_cast<std::size_t>(state.range(0))));
+    const ReadingColumns columns = columnsToFit(readings, FitVoltages::Raw, 0.0);
+    mallopt(M_MMAP_THRESHOLD, 128 * 1024);
+    mallopt(M_TRIM_THRESHOLD, 128 * 1024);
+    for (auto _ : state)
+        benchmark::DoNotOptimize(fitReadings(columns, FitMethod::Ols));
+    state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
+}
+BENCHMARK(fitColumnsFreshHeap)->Arg(million)->Unit(benchmark::kMillisecond);
+
 #if SAGLINE_HAVE_LARGE_PAGE_HEAP
 // The same on the heap the programs run with (app/common/LargePageHeap: large pages, big blocks
 // kept by malloc). Own process (bench/run-separately.sh): the setting stays for the program.
