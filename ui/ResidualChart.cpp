@@ -162,6 +162,10 @@ void ResidualChart::flushNow()
         largest = std::max(smallestShownMv, 2.0 * m_residualSdV * millivoltsPerVolt);
     if (!std::isfinite(largest) || !(largest > 0.0))
         largest = 1.0;
+    // Fewer than three points leave no scatter to draw (none yet, or an exact fit): the axis
+    // shows ±1 mV, a span a bench voltmeter resolves, not ±0.002 mV of nothing.
+    if (m_points.included().size() < 3)
+        largest = std::max(largest, 1.0);
     // The residual axis is symmetric about zero and rescales both ways: residuals shrink as
     // the fit settles, and a fixed wide axis would flatten them into the zero line.
     const AxisSpan y{-largest * 1.2, largest * 1.2};

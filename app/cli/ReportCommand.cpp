@@ -115,6 +115,15 @@ int runReport(const Arguments &args)
     const bool hasDisplay = std::getenv("DISPLAY") != nullptr || std::getenv("WAYLAND_DISPLAY") != nullptr;
     if (!hasDisplay && !qEnvironmentVariableIsSet("QT_QPA_PLATFORM"))
         qputenv("QT_QPA_PLATFORM", "offscreen");
+    // Run as a service or by root without a login session, Qt notes on stderr that it picked a
+    // runtime folder itself: not the user's concern (the PDF needs none), so only that is dropped.
+    static QtMessageHandler qtHandler = nullptr;
+    qtHandler = qInstallMessageHandler([](QtMsgType type, const QMessageLogContext &context, const QString &text) {
+        if (type == QtWarningMsg && text.startsWith(QLatin1String("QStandardPaths: XDG_RUNTIME_DIR not set")))
+            return;
+        if (qtHandler)
+            qtHandler(type, context, text);
+    });
     int argc = 1;
     char name[] = "sagline-cli";
     char *argv[] = {name, nullptr};

@@ -30,8 +30,10 @@ TEST_F(ReportCommand, WritesAPdfWithoutADisplay)
     unsetenv("DISPLAY");
     unsetenv("WAYLAND_DISPLAY");
     unsetenv("QT_QPA_PLATFORM"); // the command must choose offscreen by itself
+    unsetenv("XDG_RUNTIME_DIR"); // no login session (a service, root): Qt's note about it is not ours to print
     const auto r = runProgram(cli, {"report", path("s.sagline"), "-o", path("r.pdf")});
     ASSERT_EQ(r.exitCode, 0) << r.err;
+    EXPECT_EQ(r.err.find("XDG_RUNTIME_DIR"), std::string::npos) << r.err;
     EXPECT_EQ(readWholeFile(path("r.pdf")).substr(0, 5), "%PDF-");
     EXPECT_FALSE(std::filesystem::exists(path("r.pdf.partial")));
     const auto letter = runProgram(cli, {"report", path("s.sagline"), "-o", path("l.pdf"), "--page", "letter",

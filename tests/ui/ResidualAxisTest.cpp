@@ -26,6 +26,23 @@ QValueAxis *residualAxis(ResidualChart &chart)
 
 } // namespace
 
+// Before any reading (a new session) the axis spans ±1 mV, not a scale made of nothing.
+TEST(ResidualAxis, AnEmptyChartShowsAMillivoltSpan)
+{
+    DisplayPoints points;
+    ResidualChart chart(points);
+    chart.resize(800, 300);
+    chart.show();
+    chart.setCurrentSpan(2.0);
+    chart.setResidualFunction([](double, double) { return 0.0; }, 0.0);
+    chart.pointsChanged();
+    chart.flushNow();
+    const auto [low, high] = chart.residualAxisRange();
+    EXPECT_GE(high, 1.0);
+    EXPECT_LE(low, -1.0);
+    EXPECT_LE(high, 2.5);
+}
+
 TEST(ResidualAxis, NoiseOfAnExactFitIsNotAScaleAndWideningStaysQuick)
 {
     DisplayPoints points;
@@ -41,8 +58,8 @@ TEST(ResidualAxis, NoiseOfAnExactFitIsNotAScaleAndWideningStaysQuick)
     chart.pointsChanged();
     chart.flushNow();
     const auto [low, high] = chart.residualAxisRange();
-    ASSERT_GE(high, 1e-3) << "an exact fit's rounding noise set the residual scale";
-    ASSERT_LE(low, -1e-3);
+    ASSERT_GE(high, 1.0) << "an exact fit's rounding noise set the residual scale (mV)";
+    ASSERT_LE(low, -1.0);
 
     // The third point is 5 mV off the line: the axis widens to it with a handful of ticks.
     points.add(3, 2.0, 18.645, false);
