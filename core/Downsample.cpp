@@ -4,6 +4,7 @@
 #include "Downsample.h"
 
 #include <cmath>
+#include <cstddef>
 
 namespace sagline {
 
@@ -79,14 +80,56 @@ std::vector<std::size_t> lttbIndices(std::span<const PlotPoint> points, std::siz
     return kept;
 }
 
-std::vector<PlotPoint> lttbDownsample(std::span<const PlotPoint> points, std::size_t threshold)
+namespace {
+
+std::vector<PlotPoint> pointsAt(std::span<const PlotPoint> points, const std::vector<std::size_t> &indices)
 {
     std::vector<PlotPoint> out;
-    const auto indices = lttbIndices(points, threshold);
     out.reserve(indices.size());
     for (std::size_t i : indices)
         out.push_back(points[i]);
     return out;
+}
+
+} // namespace
+
+std::vector<PlotPoint> lttbDownsample(std::span<const PlotPoint> points, std::size_t threshold)
+{
+    return pointsAt(points, lttbIndices(points, threshold));
+}
+
+std::vector<std::size_t> scatterSampleIndices(std::span<const PlotPoint> points, std::size_t threshold)
+{
+    if (threshold < 6)
+        return lttbIndices(points, threshold);
+    std::vector<std::size_t> extremes = lttbIndices(points, threshold / 2);
+    std::vector<std::size_t> finite;
+    finite.reserve(points.size());
+    for (std::size_t i = 0; i < points.size(); ++i)
+        if (isFinite(points[i]))
+            finite.push_back(i);
+    if (threshold >= finite.size())
+        return finite;
+    const std::size_t even = threshold - threshold / 2;
+    std::vector<std::size_t> kept;
+    kept.reserve(threshold);
+    std::size_t e = 0;
+    // Merge the extremes (ascending) with the even picks finite[k·n/even] (ascending).
+    for (std::size_t k = 0; k < even; ++k) {
+        const std::size_t pick = finite[k * finite.size() / even];
+        while (e < extremes.size() && extremes[e] < pick)
+            kept.push_back(extremes[e++]);
+        if (e < extremes.size() && extremes[e] == pick)
+            ++e;
+        kept.push_back(pick);
+    }
+    kept.insert(kept.end(), extremes.begin() + static_cast<std::ptrdiff_t>(e), extremes.end());
+    return kept;
+}
+
+std::vector<PlotPoint> scatterSample(std::span<const PlotPoint> points, std::size_t threshold)
+{
+    return pointsAt(points, scatterSampleIndices(points, threshold));
 }
 
 } // namespace sagline

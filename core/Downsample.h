@@ -27,4 +27,13 @@ std::vector<std::size_t> lttbIndices(std::span<const PlotPoint> points, std::siz
 // The kept points themselves, in order.
 std::vector<PlotPoint> lttbDownsample(std::span<const PlotPoint> points, std::size_t threshold);
 
+// Thinning for a scatter whose spread is the message (residuals): LTTB alone keeps each
+// bucket's most deviating point, so thinned noise looks like two bands with nothing between
+// them. Kept here, ascending and at most `threshold`: the points LTTB keeps at half the budget
+// (every spike and the edges of the spread) and, with the other half, finite points evenly
+// spaced by index (the middle of the spread, in proportion). Every finite point when the
+// budget allows; below 6 it is LTTB's rule.
+std::vector<std::size_t> scatterSampleIndices(std::span<const PlotPoint> points, std::size_t threshold);
+std::vector<PlotPoint> scatterSample(std::span<const PlotPoint> points, std::size_t threshold);
+
 } // namespace sagline

@@ -137,10 +137,12 @@ void ResidualChart::flushNow()
     if (m_residual) {
         // Thin the voltages, then map only the kept points: subtracting the fitted line is a
         // shear, which keeps every triangle's area, so LTTB keeps the same points either way
-        // (tests/core/DownsampleTest) and a refresh computes hundreds of residuals, not all.
+        // (tests/core/DownsampleTest), the even half is by index, and a refresh computes
+        // hundreds of residuals, not all. scatterSample, not LTTB alone: thinned noise must
+        // not look like two bands with a gap at zero.
         const auto residualsOf = [&](std::span<const PlotPoint> voltages) {
             std::vector<PlotPoint> kept = voltages.size() > limit
-                                              ? lttbDownsample(voltages, limit)
+                                              ? scatterSample(voltages, limit)
                                               : std::vector<PlotPoint>(voltages.begin(), voltages.end());
             for (auto &p : kept)
                 p.y = m_residual(p.x, p.y) * millivoltsPerVolt;

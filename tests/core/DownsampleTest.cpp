@@ -113,3 +113,60 @@ TEST(Downsample, PicksTheSamePointsAfterSubtractingALine)
     }
     EXPECT_EQ(lttbIndices(voltages, 700), lttbIndices(residuals, 700));
 }
+
+namespace {
+
+// Residual-like scatter: x rising, y standard normal noise (a made-up sweep), one gross spike.
+std::vector<PlotPoint> noiseWithASpike(std::size_t n)
+{
+    std::mt19937_64 random(11);
+    std::normal_distribution<double> noise(0.0, 1.0);
+    std::vector<PlotPoint> points;
+    for (std::size_t i = 0; i < n; ++i)
+        points.push_back({static_cast<double>(i), noise(random)});
+    points[n / 3].y = 40.0;
+    return points;
+}
+
+double shareWithinOneSigma(std::span<const PlotPoint> points, const std::vector<std::size_t> &indices)
+{
+    std::size_t within = 0;
+    for (std::size_t i : indices)
+        within += std::abs(points[i].y) < 1.0 ? 1 : 0;
+    return static_cast<double>(within) / static_cast<double>(indices.size());
+}
+
+} // namespace
+
+TEST(Downsample, ScatterSampleKeepsLttbsPicksAndAnEvenSampleInOrder)
+{
+    const std::vector<PlotPoint> points = noiseWithASpike(100000);
+    const auto kept = sagline::scatterSampleIndices(points, 600);
+    EXPECT_LE(kept.size(), 600u);
+    EXPECT_GE(kept.size(), 590u); // the two halves rarely pick the same point
+    EXPECT_TRUE(std::is_sorted(kept.begin(), kept.end()));
+    EXPECT_EQ(std::adjacent_find(kept.begin(), kept.end()), kept.end()) << "an index kept twice";
+    for (std::size_t i : lttbIndices(points, 300))
+        EXPECT_TRUE(std::binary_search(kept.begin(), kept.end(), i)) << "LTTB's pick " << i << " dropped";
+    EXPECT_TRUE(std::binary_search(kept.begin(), kept.end(), std::size_t{100000 / 3})) << "the spike";
+    EXPECT_EQ(kept.front(), 0u);
+    EXPECT_EQ(kept.back(), 99999u);
+    // Room for everything: every finite point, nothing else.
+    std::vector<PlotPoint> few = noiseWithASpike(50);
+    few[7].y = std::numeric_limits<double>::quiet_NaN();
+    const auto all = sagline::scatterSampleIndices(few, 600);
+    EXPECT_EQ(all.size(), 49u);
+    EXPECT_FALSE(std::binary_search(all.begin(), all.end(), std::size_t{7}));
+}
+
+// Why the residual chart needs it: LTTB keeps each bucket's most deviating point, so thinned
+// Gaussian noise shows almost nothing within one sigma (where 68 % of it lies: the normal
+// distribution's 68-95-99.7 rule), i.e. two bands with a gap; the even half puts the middle back.
+TEST(Downsample, ScatterSampleDrawsTheMiddleOfTheSpreadThatLttbLeavesOut)
+{
+    const std::vector<PlotPoint> points = noiseWithASpike(100000);
+    const double lttbShare = shareWithinOneSigma(points, lttbIndices(points, 600));
+    const double scatterShare = shareWithinOneSigma(points, sagline::scatterSampleIndices(points, 600));
+    EXPECT_LT(lttbShare, 0.15) << "LTTB alone";
+    EXPECT_GT(scatterShare, 0.3) << "half the budget evenly spread holds ~68 % of its points within 1 sigma";
+}
