@@ -102,7 +102,6 @@ std::vector<std::size_t> scatterSampleIndices(std::span<const PlotPoint> points,
 {
     if (threshold < 6)
         return lttbIndices(points, threshold);
-    std::vector<std::size_t> extremes = lttbIndices(points, threshold / 2);
     std::vector<std::size_t> finite;
     finite.reserve(points.size());
     for (std::size_t i = 0; i < points.size(); ++i)
@@ -110,6 +109,7 @@ std::vector<std::size_t> scatterSampleIndices(std::span<const PlotPoint> points,
             finite.push_back(i);
     if (threshold >= finite.size())
         return finite;
+    const std::vector<std::size_t> extremes = lttbIndices(points, threshold / 2);
     const std::size_t even = threshold - threshold / 2;
     std::vector<std::size_t> kept;
     kept.reserve(threshold);
