@@ -28,8 +28,8 @@ struct ResultsInputs {
     SessionDetails details;             // temperatures as typed
     // When readings carry the primary voltage: core's fit of the readings referred to the rated
     // primary (fitReadings of columnsToFit's referred columns, as `sagline-cli fit` and the
-    // report make it) and the supply's assessment. The results then come from that fit, and the live fit of the
-    // readings as measured (the chart's line) is shown beside it as "R as measured".
+    // report make it) and the supply's assessment. The results then come from that fit, and the
+    // live fit of the readings as measured (the chart's line) is shown beside it as "R as measured".
     const FitSummary *referred = nullptr;
     const SupplyAssessment *supply = nullptr;
 };
