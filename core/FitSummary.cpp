@@ -256,7 +256,7 @@ void standardErrors(FitSummary &summary, const CentredLine &c, double ssr, bool 
 // The residuals of the used points and their sums (plain and weighted Σe², max |y|, mean
 // weight), added in input order. unit: OLS, every weight 1 (none stored).
 template <bool unit>
-void residualPass(const FitInput &input, const FitSummary &summary, std::vector<double> &residuals, double &ssrPlain,
+void residualPass(const FitInput &input, const FitSummary &summary, ResultColumn &residuals, double &ssrPlain,
                   double &ssrWeighted, double &maxAbsY, double &meanW)
 {
     const std::size_t n = input.x.size();
@@ -282,10 +282,10 @@ void residualPass(const FitInput &input, const FitSummary &summary, std::vector<
 // What the per-point pass of fitRows works from: one value per used point, in input order.
 // (When every row is used these become the result's columns without a copy.)
 struct UsedPointResults {
-    std::vector<double> residuals;   // V_i - (a + b·I_i), V
-    std::vector<double> studentized; // shown (externally studentized); NaN where none
-    std::vector<double> compared;    // what the outlier screen compared (empty: the studentized
-                                     // residuals, one pass)
+    ResultColumn residuals;   // V_i - (a + b·I_i), V
+    ResultColumn studentized; // shown (externally studentized); NaN where none
+    ResultColumn compared;    // what the outlier screen compared (empty: the studentized
+                              // residuals, one pass)
     std::vector<std::size_t> flagged; // the screen's flags, ascending
 };
 

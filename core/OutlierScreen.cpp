@@ -40,7 +40,7 @@ Centre centreOf(std::span<const double> x, FitWeights w)
 // Var e_i = σ_i² (1 - 2 H_ii) + Σ_j H_ij² σ_j², whose sum takes three running sums (O(n)).
 // With w = 1/σ² it is σ_i² (1 - H_ii).
 void normalizedResiduals(std::span<const double> x, std::span<const double> e, FitWeights w,
-                         std::span<const double> sigma, double floorV, std::vector<double> &out)
+                         std::span<const double> sigma, double floorV, ResultColumn &out)
 {
     const Centre c = centreOf(x, w);
     double a = 0.0, b = 0.0, q = 0.0; // Σ w²σ², Σ w²σ² d, Σ w²σ² d²
@@ -69,7 +69,7 @@ void normalizedResiduals(std::span<const double> x, std::span<const double> e, F
 // unit: every weight is 1 (w is empty), with the same arithmetic as stored ones.
 template <bool unit>
 void studentizedWith(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
-                     const ResidualSums &c, std::vector<double> &out)
+                     const ResidualSums &c, ResultColumn &out)
 {
     const std::size_t n = x.size();
     // Locals, so the stores to out cannot alias the sums (which would stop the vectorizer).
@@ -91,7 +91,7 @@ void studentizedWith(std::span<const double> x, std::span<const double> e, std::
 }
 
 void studentized(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
-                 const ResidualSums &c, std::vector<double> &out)
+                 const ResidualSums &c, ResultColumn &out)
 {
     if (w.empty())
         studentizedWith<true>(x, e, w, floorV, c, out);
@@ -109,7 +109,7 @@ ResidualSums sumsOf(std::span<const double> x, std::span<const double> e, FitWei
 }
 
 void studentized(std::span<const double> x, std::span<const double> e, std::span<const double> w, double floorV,
-                 std::vector<double> &out)
+                 ResultColumn &out)
 {
     studentized(x, e, w, floorV, sumsOf(x, e, w), out);
 }
@@ -130,7 +130,7 @@ std::string shortNumber(double value)
 
 void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
                                     std::span<const double> weights, double floor,
-                                    std::vector<double> &statistics)
+                                    ResultColumn &statistics)
 {
     statistics.assign(x.size(), noStatistic);
     if (x.size() >= 4)
@@ -139,7 +139,7 @@ void externallyStudentizedResiduals(std::span<const double> x, std::span<const d
 
 void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
                                     std::span<const double> weights, double floor, const ResidualSums &sums,
-                                    std::vector<double> &statistics)
+                                    ResultColumn &statistics)
 {
     statistics.assign(x.size(), noStatistic);
     if (x.size() >= 4)
@@ -157,7 +157,7 @@ namespace {
 
 // The statistic of every point of one pass (the active points only).
 void passStatistics(bool known, std::span<const double> x, std::span<const double> e, std::span<const double> w,
-                    std::span<const double> sigma, double floorV, std::vector<double> &out)
+                    std::span<const double> sigma, double floorV, ResultColumn &out)
 {
     out.assign(x.size(), noStatistic);
     if (known && x.size() >= 3)
@@ -192,7 +192,7 @@ void refitResiduals(std::vector<double> &x, std::vector<double> &e, FitWeights w
 OutlierScreening screenResiduals(std::span<const double> x, std::span<const double> residuals,
                                  std::span<const double> weights, std::span<const double> knownSigmaV,
                                  double scatterFloorV, const OutlierScreenOptions &options,
-                                 std::vector<double> &statistics, std::vector<std::size_t> &flagged,
+                                 ResultColumn &statistics, std::vector<std::size_t> &flagged,
                                  std::span<const double> firstPass)
 {
     const std::size_t n = x.size();
@@ -250,7 +250,7 @@ OutlierScreening screenResiduals(std::span<const double> x, std::span<const doub
         if (i != *firstWorst)
             active.push_back(i);
     std::vector<double> ax, ae, aw, as;
-    std::vector<double> passed;
+    ResultColumn passed;
     const FitWeights weight(weights);
     while (active.size() >= options.minimumPoints) {
         ax.clear(), ae.clear(), aw.clear(), as.clear();

@@ -16,6 +16,8 @@
 // Flags are information: nothing is excluded by them.
 #pragma once
 
+#include "ResultColumn.h"
+
 #include <cstddef>
 #include <optional>
 #include <span>
@@ -52,7 +54,7 @@ struct OutlierScreening {
 OutlierScreening screenResiduals(std::span<const double> x, std::span<const double> residuals,
                                  std::span<const double> weights, std::span<const double> knownSigmaV,
                                  double scatterFloorV, const OutlierScreenOptions &options,
-                                 std::vector<double> &statistics, std::vector<std::size_t> &flagged,
+                                 ResultColumn &statistics, std::vector<std::size_t> &flagged,
                                  std::span<const double> firstPass = {});
 // firstPass (knownSigmaV empty, one per point): the externally studentized residuals the caller computed with the
 // same weights and floor, read as the first pass instead of computing them again. statistics then
@@ -72,10 +74,10 @@ struct ResidualSums {
 // sqrt(w_i) e_i / (s_(i) sqrt(1 - h_i)), s_(i) the scatter without point i, floored by floor.
 void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
                                     std::span<const double> weights, double floor,
-                                    std::vector<double> &statistics);
+                                    ResultColumn &statistics);
 void externallyStudentizedResiduals(std::span<const double> x, std::span<const double> residuals,
                                     std::span<const double> weights, double floor, const ResidualSums &sums,
-                                    std::vector<double> &statistics);
+                                    ResultColumn &statistics);
 
 // The smallest scatter of V about the line that rounding alone gives: voltmeter and ammeter
 // resolution δ as rectangular errors (δ/sqrt(12), GUM F.2.2.1), the current's through the

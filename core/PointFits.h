@@ -3,6 +3,8 @@
 // the fit writes its per-point arrays straight into them. Read a row as a PointFit.
 #pragma once
 
+#include "ResultColumn.h"
+
 #include <cmath>
 #include <cstddef>
 #include <cstdint>
@@ -32,9 +34,9 @@ class PointFits {
 public:
     enum State : std::uint8_t { used = 1, outlier = 2 };
 
-    std::vector<double> residualV;   // one per row, V
-    std::vector<double> studentized; // one per row, NaN where there is none
-    std::vector<double> screening;   // one per row, NaN where none; empty: the same as studentized
+    ResultColumn residualV;          // one per row, V
+    ResultColumn studentized;        // one per row, NaN where there is none
+    ResultColumn screening;          // one per row, NaN where none; empty: the same as studentized
     std::vector<std::uint8_t> state; // State bits, one per row
 
     std::size_t size() const { return residualV.size(); }
