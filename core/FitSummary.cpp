@@ -5,6 +5,7 @@
 #include "YorkFit.h"
 
 #include <algorithm>
+#include <bit>
 #include <cmath>
 #include <limits>
 #include <span>
@@ -172,10 +173,18 @@ bool useColumnsInPlace(const ReadingColumns &columns, FitMethod method, FitInput
     const std::size_t n = columns.size();
     const std::uint8_t *state = columns.state.data();
     const double *x = columns.currentA.data(), *y = columns.voltageV.data();
-    bool asItStands = true;
-    for (std::size_t i = 0; i < n; ++i) // no early exit: one pass that vectorizes
-        asItStands &= (state[i] == ReadingColumns::fitted) & std::isfinite(x[i]) & std::isfinite(y[i]);
-    if (!asItStands)
+    // Integer reductions without an early exit, so both loops vectorize: a state other than
+    // `fitted`, and an exponent field of all ones (infinity or NaN) in a current or a voltage,
+    // which carries into bit 63 when one more exponent unit is added (add, and, or: no compare).
+    std::uint8_t otherState = 0;
+    for (std::size_t i = 0; i < n; ++i)
+        otherState |= static_cast<std::uint8_t>(state[i] ^ ReadingColumns::fitted);
+    constexpr std::uint64_t exponent = 0x7ff0000000000000u, exponentUnit = std::uint64_t{1} << 52;
+    std::uint64_t carried = 0;
+    for (std::size_t i = 0; i < n; ++i)
+        carried |= ((std::bit_cast<std::uint64_t>(x[i]) & exponent) + exponentUnit)
+                   | ((std::bit_cast<std::uint64_t>(y[i]) & exponent) + exponentUnit);
+    if (otherState != 0 || (carried >> 63) != 0)
         return false;
     input.x = columns.currentA;
     input.y = columns.voltageV;

@@ -109,6 +109,15 @@ TEST(ReadingColumns, ColumnsReadInPlaceGiveTheSameFitAndTheSameRefusal)
         EXPECT_NE(refused.message.find("row 123"), std::string::npos) << refused.message;
         expectSameFit(fitReadings(readings, FitMethod::Ols), refused);
     }
+    readings[123].voltageV = 20.0;
+    readings[7].currentA = std::numeric_limits<double>::quiet_NaN();
+    {
+        SCOPED_TRACE("one current not a number");
+        const FitSummary refused = fitReadings(columnsOf(readings), FitMethod::Ols);
+        EXPECT_EQ(refused.status, FitStatus::NonFiniteValue);
+        EXPECT_NE(refused.message.find("row 7"), std::string::npos) << refused.message;
+        expectSameFit(fitReadings(readings, FitMethod::Ols), refused);
+    }
 }
 
 TEST(ReadingColumns, CsvColumnsAreTheReadingsOfTheSameFile)
