@@ -277,15 +277,21 @@ void fitReadingsOls(benchmark::State &state)
 }
 BENCHMARK(fitReadingsOls)->Arg(20)->Arg(1000)->Arg(100000)->Arg(million)->Unit(benchmark::kMillisecond);
 
-// The same from a fresh heap, as in a process that fits once (the CLI): every buffer above
-// 128 KiB comes from the kernel as new pages and goes back when freed (the mmap threshold is
-// pinned at glibc's starting value, so it cannot rise after the first free). Run it in its own
-// process (bench/run-separately.sh): the setting stays for the rest of the program.
+// A fresh heap, as in a process that fits once without the programs' large-page heap: every
+// buffer above 128 KiB comes from the kernel as new pages and goes back when freed (the mmap
+// threshold is pinned at glibc's starting value, so it cannot rise after the first free). Run
+// such a case in its own process (bench/run-separately.sh): the setting stays for the program.
+void pinFreshHeap()
+{
+    mallopt(M_MMAP_THRESHOLD, 128 * 1024);
+    mallopt(M_TRIM_THRESHOLD, 128 * 1024);
+}
+
+// fitReadings from a fresh heap.
 void fitReadingsFreshHeap(benchmark::State &state)
 {
     const std::vector<Reading> readings = readingsOf(data(static_cast<std::size_t>(state.range(0))));
-    mallopt(M_MMAP_THRESHOLD, 128 * 1024);
-    mallopt(M_TRIM_THRESHOLD, 128 * 1024);
+    pinFreshHeap();
     for (auto _ : state)
         benchmark::DoNotOptimize(fitReadings(readings, FitMethod::Ols));
     state.SetBytesProcessed(state.iterations() * state.range(0) * 16);
@@ -297,8 +303,7 @@ void fitColumnsFreshHeap(benchmark::State &state)
 {
     const std::vector<Reading> readings = readingsOf(data(static_cast<std::size_t>(state.range(0))));
     const ReadingColumns columns = columnsToFit(readings, FitVoltages::Raw, 0.0);
-    mallopt(M_MMAP_THRESHOLD, 128 * 1024);
-    mallopt(M_TRIM_THRESHOLD, 128 * 1024);
+    pinFreshHeap();
     for (auto _ : state)
         benchmark::DoNotOptimize(fitReadings(columns, FitMethod::Ols));
     state.SetBytesProcessed(state.iterations() * state.range(0) * 16);

@@ -18,17 +18,22 @@ double doubleArea(const PlotPoint &a, const PlotPoint &b, double cx, double cy)
     return std::abs((a.x - cx) * (b.y - a.y) - (a.x - b.x) * (cy - a.y));
 }
 
-} // namespace
-
-std::vector<std::size_t> lttbIndices(std::span<const PlotPoint> points, std::size_t threshold)
+// The indices of the finite points, ascending: what both thinnings work on.
+std::vector<std::size_t> finiteIndices(std::span<const PlotPoint> points)
 {
-    // Work on the finite points only, remembering where each came from.
     std::vector<std::size_t> finite;
     finite.reserve(points.size());
     for (std::size_t i = 0; i < points.size(); ++i) {
         if (isFinite(points[i]))
             finite.push_back(i);
     }
+    return finite;
+}
+
+// LTTB over the finite points `finite` (indices into points, ascending).
+std::vector<std::size_t> lttbOfFinite(std::span<const PlotPoint> points, const std::vector<std::size_t> &finite,
+                                      std::size_t threshold)
+{
     const std::size_t n = finite.size();
     if (threshold >= n || threshold < 3)
         return finite;
@@ -80,8 +85,6 @@ std::vector<std::size_t> lttbIndices(std::span<const PlotPoint> points, std::siz
     return kept;
 }
 
-namespace {
-
 std::vector<PlotPoint> pointsAt(std::span<const PlotPoint> points, const std::vector<std::size_t> &indices)
 {
     std::vector<PlotPoint> out;
@@ -93,6 +96,11 @@ std::vector<PlotPoint> pointsAt(std::span<const PlotPoint> points, const std::ve
 
 } // namespace
 
+std::vector<std::size_t> lttbIndices(std::span<const PlotPoint> points, std::size_t threshold)
+{
+    return lttbOfFinite(points, finiteIndices(points), threshold);
+}
+
 std::vector<PlotPoint> lttbDownsample(std::span<const PlotPoint> points, std::size_t threshold)
 {
     return pointsAt(points, lttbIndices(points, threshold));
@@ -100,16 +108,12 @@ std::vector<PlotPoint> lttbDownsample(std::span<const PlotPoint> points, std::si
 
 std::vector<std::size_t> scatterSampleIndices(std::span<const PlotPoint> points, std::size_t threshold)
 {
+    std::vector<std::size_t> finite = finiteIndices(points);
     if (threshold < 6)
-        return lttbIndices(points, threshold);
-    std::vector<std::size_t> finite;
-    finite.reserve(points.size());
-    for (std::size_t i = 0; i < points.size(); ++i)
-        if (isFinite(points[i]))
-            finite.push_back(i);
+        return lttbOfFinite(points, finite, threshold);
     if (threshold >= finite.size())
         return finite;
-    const std::vector<std::size_t> extremes = lttbIndices(points, threshold / 2);
+    const std::vector<std::size_t> extremes = lttbOfFinite(points, finite, threshold / 2);
     const std::size_t even = threshold - threshold / 2;
     std::vector<std::size_t> kept;
     kept.reserve(threshold);

@@ -61,15 +61,21 @@ std::vector<Reading> madeUpReadings(bool stated)
     return readings;
 }
 
+ReadingColumns columnsOf(const std::vector<Reading> &readings)
+{
+    ReadingColumns columns;
+    for (const Reading &r : readings)
+        columns.append(r);
+    return columns;
+}
+
 } // namespace
 
 TEST(ReadingColumns, FitEqualsTheFitOfTheReadingsForEveryMethod)
 {
     for (bool stated : {false, true}) {
         const std::vector<Reading> readings = madeUpReadings(stated);
-        ReadingColumns columns;
-        for (const Reading &r : readings)
-            columns.append(r);
+        const ReadingColumns columns = columnsOf(readings);
         for (FitMethod method : {FitMethod::Ols, FitMethod::Wls, FitMethod::York}) {
             SCOPED_TRACE(toString(method) + (stated ? ", stated u" : ", no u"));
             expectSameFit(fitReadings(readings, method), fitReadings(columns, method));
@@ -87,12 +93,6 @@ TEST(ReadingColumns, ColumnsReadInPlaceGiveTheSameFitAndTheSameRefusal)
         r.excluded = false;
         r.flags = flagNone;
     }
-    const auto columnsOf = [](const std::vector<Reading> &rows) {
-        ReadingColumns columns;
-        for (const Reading &r : rows)
-            columns.append(r);
-        return columns;
-    };
     {
         SCOPED_TRACE("every row used");
         const FitSummary inPlace = fitReadings(columnsOf(readings), FitMethod::Ols);
@@ -101,22 +101,21 @@ TEST(ReadingColumns, ColumnsReadInPlaceGiveTheSameFitAndTheSameRefusal)
         EXPECT_EQ(inPlace.outlierRows.front(), 200u) << "the gross misread is flagged";
         expectSameFit(fitReadings(readings, FitMethod::Ols), inPlace);
     }
-    readings[123].voltageV = std::numeric_limits<double>::infinity();
-    {
-        SCOPED_TRACE("one voltage infinite");
-        const FitSummary refused = fitReadings(columnsOf(readings), FitMethod::Ols);
+    struct Bad {
+        const char *what;
+        std::size_t row;
+        double Reading::*field;
+        double value;
+    };
+    for (const Bad bad : {Bad{"one voltage infinite", 123, &Reading::voltageV, std::numeric_limits<double>::infinity()},
+                          Bad{"one current not a number", 7, &Reading::currentA, std::numeric_limits<double>::quiet_NaN()}}) {
+        SCOPED_TRACE(bad.what);
+        std::vector<Reading> broken = readings;
+        broken[bad.row].*bad.field = bad.value;
+        const FitSummary refused = fitReadings(columnsOf(broken), FitMethod::Ols);
         EXPECT_EQ(refused.status, FitStatus::NonFiniteValue);
-        EXPECT_NE(refused.message.find("row 123"), std::string::npos) << refused.message;
-        expectSameFit(fitReadings(readings, FitMethod::Ols), refused);
-    }
-    readings[123].voltageV = 20.0;
-    readings[7].currentA = std::numeric_limits<double>::quiet_NaN();
-    {
-        SCOPED_TRACE("one current not a number");
-        const FitSummary refused = fitReadings(columnsOf(readings), FitMethod::Ols);
-        EXPECT_EQ(refused.status, FitStatus::NonFiniteValue);
-        EXPECT_NE(refused.message.find("row 7"), std::string::npos) << refused.message;
-        expectSameFit(fitReadings(readings, FitMethod::Ols), refused);
+        EXPECT_NE(refused.message.find("row " + std::to_string(bad.row)), std::string::npos) << refused.message;
+        expectSameFit(fitReadings(broken, FitMethod::Ols), refused);
     }
 }
 
