@@ -4,6 +4,7 @@
 
 #include "HelpMenu.h"
 #include "InstrumentsPanel.h"
+#include "NearestFolder.h"
 #include "NextStepStrip.h"
 #include "PlanPanel.h"
 #include "ReadingsTableModel.h"
@@ -191,7 +192,8 @@ void MainWindow::newSession()
 
 void MainWindow::openSessionDialog()
 {
-    const QString path = QFileDialog::getOpenFileName(this, tr("Open session"), m_sessionFolder, sessionFilter);
+    const QString path = QFileDialog::getOpenFileName(this, tr("Open session"), nearestExistingFolder(m_sessionFolder),
+                                                      sessionFilter);
     if (!path.isEmpty())
         openSessionFile(path);
 }
@@ -227,7 +229,8 @@ void MainWindow::saveCopyAs()
         showMessage(tr("No session is open."), true);
         return;
     }
-    const QString path = QFileDialog::getSaveFileName(this, tr("Save a copy"), m_sessionFolder, sessionFilter);
+    const QString path = QFileDialog::getSaveFileName(this, tr("Save a copy"), nearestExistingFolder(m_sessionFolder),
+                                                      sessionFilter);
     if (path.isEmpty())
         return;
     const auto status = m_workspace->store()->saveCopyAs(path.toStdString());

@@ -2,6 +2,7 @@
 // presets kept in the user's settings.
 #include "MainWindow.h"
 
+#include "NearestFolder.h"
 #include "OutputExtension.h"
 #include "OutputFile.h"
 #include "SetupForm.h"
@@ -84,14 +85,16 @@ QString MainWindow::saveSetupFile(const QString &requestedPath)
 
 void MainWindow::openSetupDialog()
 {
-    const QString path = QFileDialog::getOpenFileName(this, tr("Open a setup"), m_sessionFolder, setupFilter);
+    const QString path = QFileDialog::getOpenFileName(this, tr("Open a setup"), nearestExistingFolder(m_sessionFolder),
+                                                      setupFilter);
     if (!path.isEmpty())
         openSetupFile(path);
 }
 
 void MainWindow::saveSetupDialog()
 {
-    const QString path = m_savePathPrompt(tr("Save the setup"), m_sessionFolder + QStringLiteral("/setup.json"), setupFilter);
+    const QString path = m_savePathPrompt(tr("Save the setup"),
+                                          nearestExistingFolder(m_sessionFolder) + QStringLiteral("/setup.json"), setupFilter);
     if (path.isEmpty())
         return;
     if (const QString problem = saveSetupFile(path); !problem.isEmpty())
